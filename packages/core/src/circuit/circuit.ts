@@ -1,0 +1,171 @@
+import type { SourceSpan } from "./diagnostic.js";
+
+/** The reserved ground node. */
+export const GROUND = "gnd";
+
+/** An elaborated option value: numbers in SI base units, words, pairs, node pairs or points. */
+export type OptionValue = number | string | readonly number[] | readonly string[];
+
+/** One part of a flattened circuit; every number in SI base units. */
+export interface PartSpec {
+  readonly kind: string;
+  /** Hierarchical name, e.g. `N1.Ra`. */
+  readonly name: string;
+  /** Node names in pin order (hierarchical inside block instances, `gnd` for ground). */
+  readonly nodes: readonly string[];
+  readonly value?: number;
+  readonly options: Readonly<Record<string, OptionValue>>;
+  /** Where the part was written (the `use` line for parts of a block instance keeps the inner line). */
+  readonly span?: SourceSpan;
+}
+
+/** What a waveform or metric is measured on. */
+export type Probe =
+  | { readonly kind: "node"; readonly node: string }
+  | { readonly kind: "difference"; readonly plus: string; readonly minus: string }
+  | { readonly kind: "current"; readonly part: string };
+
+/** The name a probe has in reports, CSV and JSON: `o`, `o-ref`, `R1.i`. */
+export function probeName(probe: Probe): string {
+  switch (probe.kind) {
+    case "node":
+      return probe.node;
+    case "difference":
+      return `${probe.plus}-${probe.minus}`;
+    case "current":
+      return `${probe.part}.i`;
+  }
+}
+
+export interface BiasAnalysis {
+  readonly kind: "bias";
+  readonly span?: SourceSpan;
+}
+
+export interface TransientAnalysis {
+  readonly kind: "transient";
+  readonly until: number;
+  readonly maxStep?: number;
+  readonly start: "bias" | "rest";
+  /** Empty means every node. */
+  readonly probes: readonly Probe[];
+  readonly span?: SourceSpan;
+}
+
+export interface StartupAnalysis {
+  readonly kind: "startup";
+  readonly probe: Probe;
+  /** Seconds, or `auto`: run (bounded) until the verdict is settled or clearly silent. */
+  readonly until: number | "auto";
+  readonly maxStep?: number;
+  readonly kick: "noise" | "none";
+  /** Kick current level (A r.m.s.). */
+  readonly level?: number;
+  readonly seed?: number;
+  readonly span?: SourceSpan;
+}
+
+export interface ResponseAnalysis {
+  readonly kind: "response";
+  /** Name of the independent source that is driven with a unit small signal. */
+  readonly from: string;
+  readonly to: Probe;
+  readonly start?: number;
+  readonly stop?: number;
+  readonly perDecade?: number;
+  readonly span?: SourceSpan;
+}
+
+export interface PolesAnalysis {
+  readonly kind: "poles";
+  readonly span?: SourceSpan;
+}
+
+export interface SweepAnalysis {
+  readonly kind: "sweep";
+  /** Override name: a parameter (`R`), a part's value (`Ra`) or a part option (`P1.at`). */
+  readonly target: string;
+  readonly from: number;
+  readonly to: number;
+  readonly steps?: number;
+  readonly step?: number;
+  readonly log: boolean;
+  readonly span?: SourceSpan;
+}
+
+export interface ToleranceAnalysis {
+  readonly kind: "tolerance";
+  readonly runs: number;
+  readonly seed: number;
+  readonly dist: "normal" | "uniform";
+  readonly span?: SourceSpan;
+}
+
+/** Which startup metric (or the yield) a criterion reads. */
+export type SpecMetric =
+  | "frequency"
+  | "amplitude"
+  | "thd"
+  | "startup"
+  | "settling"
+  | "offset"
+  | "rms"
+  | "peakToPeak"
+  | "yield";
+
+/**
+ * One pass/fail criterion. `within` covers `frequency=1k±2%` (target ± absolute or relative band)
+ * and `amplitude=3..5` (a range); `below`/`above` cover `thd<0.5%`, `yield>99%`.
+ */
+export type SpecCriterion =
+  | {
+      readonly metric: SpecMetric;
+      readonly test: "within";
+      readonly low: number;
+      readonly high: number;
+      readonly text: string;
+      readonly span?: SourceSpan;
+    }
+  | {
+      readonly metric: SpecMetric;
+      readonly test: "below" | "above";
+      readonly limit: number;
+      readonly text: string;
+      readonly span?: SourceSpan;
+    };
+
+export interface SpecAnalysis {
+  readonly kind: "spec";
+  readonly criteria: readonly SpecCriterion[];
+  readonly span?: SourceSpan;
+}
+
+export type AnalysisSpec =
+  | BiasAnalysis
+  | TransientAnalysis
+  | StartupAnalysis
+  | ResponseAnalysis
+  | PolesAnalysis
+  | SweepAnalysis
+  | ToleranceAnalysis
+  | SpecAnalysis;
+
+/**
+ * A value that a Monte Carlo run may draw: `target` is its override name (`R`, `Ra`, `N1.Ra`,
+ * `U1.gbw`), `nominal` its written value; exactly one of `relative` (fraction) or `absolute`.
+ */
+export interface ToleranceSpec {
+  readonly target: string;
+  readonly nominal: number;
+  readonly relative?: number;
+  readonly absolute?: number;
+  readonly span?: SourceSpan;
+}
+
+/** A flattened, fully evaluated circuit: what the engine simulates. */
+export interface Circuit {
+  readonly title?: string;
+  readonly parts: readonly PartSpec[];
+  readonly analyses: readonly AnalysisSpec[];
+  readonly tolerances: readonly ToleranceSpec[];
+}

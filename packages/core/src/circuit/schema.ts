@@ -1,0 +1,91 @@
+/**
+ * What each part kind accepts, declared by the device file itself so that the language checker,
+ * the formatter, the docs and the engine agree on names, units, defaults and ranges.
+ */
+
+/** Unit symbols as the language writes them; `1` is a plain ratio; `S` is siemens (A/V). */
+export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "rad" | "1";
+
+interface OptionBase {
+  /** One line for docs and hints. */
+  readonly summary: string;
+}
+
+export interface NumberOption extends OptionBase {
+  readonly type: "number";
+  readonly unit: UnitSymbol;
+  /** Accepts a ratio in dB (20·log10), e.g. `gain=106dB`. */
+  readonly decibel?: boolean;
+  readonly default?: number;
+  /** Inclusive lower bound unless `minExclusive`. */
+  readonly min?: number;
+  readonly minExclusive?: boolean;
+  readonly max?: number;
+  readonly integer?: boolean;
+  /** `Infinity` is a meaningful setting (written `inf`), e.g. an unlimited slew rate. */
+  readonly allowInfinite?: boolean;
+}
+
+export interface WordOption extends OptionBase {
+  readonly type: "word";
+  readonly words: readonly string[];
+  readonly default?: string;
+}
+
+/** Two numbers in parentheses, e.g. `rails=(-12, 12)`. */
+export interface NumberPairOption extends OptionBase {
+  readonly type: "number-pair";
+  readonly unit: UnitSymbol;
+}
+
+/** Two node names in parentheses, e.g. `supply=(vee, vcc)`; resolved like pins. */
+export interface NodePairOption extends OptionBase {
+  readonly type: "node-pair";
+}
+
+/** `[t0 v0, t1 v1, ...]`: pairs of numbers with the given units. */
+export interface PointsOption extends OptionBase {
+  readonly type: "points";
+  readonly units: readonly [UnitSymbol, UnitSymbol];
+}
+
+/** A name defined elsewhere in the file, e.g. `preset=general`. */
+export interface NameOption extends OptionBase {
+  readonly type: "name";
+}
+
+export type OptionSchema =
+  | NumberOption
+  | WordOption
+  | NumberPairOption
+  | NodePairOption
+  | PointsOption
+  | NameOption;
+
+export interface ValueSchema {
+  readonly unit: UnitSymbol;
+  readonly required: boolean;
+  readonly min?: number;
+  readonly minExclusive?: boolean;
+  readonly summary: string;
+}
+
+export interface PartKindSchema {
+  readonly kind: string;
+  readonly summary: string;
+  /** Pin names in the order they are written. */
+  readonly pins: readonly string[];
+  /** The positional value after the pins, or `null` when the kind takes none. */
+  readonly value: ValueSchema | null;
+  readonly options: Readonly<Record<string, OptionSchema>>;
+  /**
+   * Option sets chosen by one word option (sources: `wave=sine|pulse|steps|noise`).
+   * Options of the chosen variant are allowed in addition to `options`.
+   */
+  readonly variants?: {
+    readonly key: string;
+    readonly sets: Readonly<Record<string, Readonly<Record<string, OptionSchema>>>>;
+  };
+  /** True when the language accepts the kind but the engine does not simulate it yet. */
+  readonly planned?: boolean;
+}

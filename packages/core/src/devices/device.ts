@@ -1,0 +1,101 @@
+import type { PartSpec } from "../circuit/circuit.js";
+import type { PartKindSchema } from "../circuit/schema.js";
+
+/** What an unknown of the MNA vector is, for messages and tolerances. */
+export type UnknownKind = "voltage" | "current";
+
+export interface UnknownOptions {
+  /**
+   * Integrate this unknown's own charge row with backward Euler even between breakpoints.
+   * For internal states whose closed-loop time constant is far below the step (an op-amp's
+   * pole node), where the trapezoidal rule would leave an undamped, sign-alternating error
+   * (A-stable but not L-stable, references §3). Such states are left out of the LTE estimate.
+   */
+  readonly backwardEuler?: boolean;
+}
+
+/** Handed to a device factory: resolves nodes and allocates extra unknowns. */
+export interface SetupContext {
+  /** Index of a node in the unknown vector; -1 for ground. */
+  node(name: string): number;
+  /** Allocates an extra unknown (a branch current or an internal state). */
+  addUnknown(label: string, kind: UnknownKind, options?: UnknownOptions): number;
+}
+
+/** Accumulates the constant (linear) parts of G and C. Indices of -1 (ground) are ignored. */
+export interface LinearStamp {
+  addG(row: number, col: number, value: number): void;
+  addC(row: number, col: number, value: number): void;
+}
+
+/**
+ * Accumulates a nonlinear device's contribution at one Newton iterate: currents `f(x)` and
+ * charges `q(x)` per row, with their derivatives when the Jacobian is being rebuilt.
+ * `jacobian` is false on iterations that reuse the previous factorisation.
+ */
+export interface NonlinearLoad {
+  readonly jacobian: boolean;
+  /** Adds to the residual row (a current for node rows, a voltage for branch rows). */
+  addF(row: number, value: number): void;
+  /** Adds ∂f_row/∂x_col. */
+  adddF(row: number, col: number, value: number): void;
+  /** Adds a charge (or flux) to a row. */
+  addQ(row: number, value: number): void;
+  /** Adds ∂q_row/∂x_col. */
+  adddQ(row: number, col: number, value: number): void;
+}
+
+/** An independent excitation: adds its value at time `t` to the source vector. */
+export interface SourceTerm {
+  /**
+   * Adds the source's contribution to `u` (rows of the excitation vector), scaled by `scale`
+   * (source stepping). `left` asks for the value just before `t` when `t` is an edge.
+   */
+  addSource(t: number, scale: number, u: Float64Array, left: boolean): void;
+  /** The first time strictly after `t` where the waveform has a corner, or Infinity. */
+  nextBreakpoint(t: number): number;
+}
+
+/** A device whose equations depend nonlinearly on the unknowns. */
+export interface NonlinearTerm {
+  /** Adds f(x), q(x) and, when asked, their Jacobians. */
+  load(x: Float64Array, out: NonlinearLoad): void;
+  /**
+   * Voltage-limiting hook: the largest fraction λ ∈ (0, 1] of the Newton update `dx` from `x`
+   * that keeps this device in a region where its linearisation is trustworthy.
+   */
+  limitStep?(x: Float64Array, dx: Float64Array): number;
+}
+
+/** A part once placed in the unknown vector. */
+export interface Device {
+  readonly part: PartSpec;
+  stampLinear?(stamp: LinearStamp): void;
+  readonly source?: SourceTerm;
+  readonly nonlinear?: NonlinearTerm;
+  /**
+   * Charges of the device's rows at the start of a run from rest (`initial=` on capacitors and
+   * inductors); the default is zero.
+   */
+  initialCharge?(q: Float64Array): void;
+  /** The part's current (pin 1 → pin 2 through the part) at time t, given the unknowns and their rates. */
+  current?(x: Float64Array, dxdt: Float64Array, t: number): number;
+}
+
+/** Which pins conduct at DC and which pins an ideal voltage constraint ties together. */
+export interface PartTopology {
+  /** Pairs of nodes joined by a DC path through the part (`gnd` allowed). */
+  readonly conducting: ReadonlyArray<readonly [string, string]>;
+  /** Pairs of nodes whose voltage difference the part fixes (sources, VCVS outputs, bare inductors). */
+  readonly voltageDefined: ReadonlyArray<readonly [string, string]>;
+}
+
+/** Everything the engine and the language know about one part kind. */
+export interface DeviceModel {
+  readonly schema: PartKindSchema;
+  /** Part names and option values have been validated against the schema by the caller. */
+  create(part: PartSpec, setup: SetupContext): Device;
+  topology(part: PartSpec): PartTopology;
+  /** Checks the values the schema cannot express (e.g. cross-option rules); throws OnsetError. */
+  validate?(part: PartSpec): void;
+}

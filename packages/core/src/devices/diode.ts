@@ -1,0 +1,160 @@
+import type { PartKindSchema } from "../circuit/schema.js";
+import type { DeviceModel } from "./device.js";
+import { numberOption, requirePositive } from "./options.js";
+import { stampConductance } from "./stamps.js";
+
+export const diodeSchema: PartKindSchema = {
+  kind: "diode",
+  summary: "junction diode (Shockley law) with series resistance and optional junction capacitance",
+  pins: ["anode", "cathode"],
+  value: null,
+  options: {
+    saturation: { type: "number", unit: "A", default: 2.5e-9, min: 0, minExclusive: true, summary: "saturation current Is" },
+    emission: { type: "number", unit: "1", default: 1.8, min: 0, minExclusive: true, summary: "emission coefficient n" },
+    series: { type: "number", unit: "Ω", default: 0.5, min: 0, summary: "ohmic series resistance" },
+    junction: { type: "number", unit: "F", default: 0, min: 0, summary: "zero-bias junction capacitance (0: none)" },
+  },
+};
+
+/** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (references §7: 25.8649 mV). */
+export const THERMAL_VOLTAGE = (1.380649e-23 * 300.15) / 1.602176634e-19;
+/** A conductance across every junction so a reverse-biased diode never leaves a node floating. */
+export const JUNCTION_LEAK = 1e-12;
+/** Junction potential and grading coefficient of the depletion capacitance (abrupt junction). */
+const BUILT_IN = 0.7;
+const GRADING = 0.5;
+/** Forward-bias fraction of the built-in potential beyond which the capacitance is linearised. */
+const FORWARD_KNEE = 0.5;
+/** Beyond this many thermal voltages the exponential continues as its tangent (no overflow). */
+const EXP_LIMIT = 40;
+
+export interface JunctionState {
+  current: number;
+  conductance: number;
+}
+
+/** Shockley current and its slope at junction voltage v, exponential linearised past EXP_LIMIT. */
+export function junctionCurrent(v: number, is: number, nvt: number, out: JunctionState): void {
+  const z = v / nvt;
+  if (z > EXP_LIMIT) {
+    const e = Math.exp(EXP_LIMIT);
+    out.current = is * (e * (1 + z - EXP_LIMIT) - 1) + JUNCTION_LEAK * v;
+    out.conductance = (is * e) / nvt + JUNCTION_LEAK;
+  } else {
+    const e = Math.exp(z);
+    out.current = is * (e - 1) + JUNCTION_LEAK * v;
+    out.conductance = (is * e) / nvt + JUNCTION_LEAK;
+  }
+}
+
+/** Depletion charge and capacitance at v: Cj0/(1 − v/φ)^m, linear past FORWARD_KNEE·φ. */
+export function junctionCharge(v: number, cj0: number, out: JunctionState): void {
+  const m = GRADING;
+  const phi = BUILT_IN;
+  const vk = FORWARD_KNEE * phi;
+  if (v < vk) {
+    const s = 1 - v / phi;
+    out.current = ((cj0 * phi) / (1 - m)) * (1 - Math.pow(s, 1 - m));
+    out.conductance = cj0 / Math.pow(s, m);
+  } else {
+    const f = Math.pow(1 - FORWARD_KNEE, 1 + m);
+    const q0 = ((cj0 * phi) / (1 - m)) * (1 - Math.pow(1 - FORWARD_KNEE, 1 - m));
+    const a = 1 - FORWARD_KNEE * (1 + m);
+    out.current = q0 + (cj0 / f) * (a * (v - vk) + (m / (2 * phi)) * (v * v - vk * vk));
+    out.conductance = (cj0 / f) * (a + (m * v) / phi);
+  }
+}
+
+/**
+ * Junction-voltage limiting after the 1970s circuit-analysis practice (references §7): past the
+ * critical voltage a large Newton step is replaced by a logarithmic one.
+ */
+export function limitJunctionVoltage(vOld: number, vNew: number, nvt: number, vcrit: number): number {
+  if (vNew > vcrit && Math.abs(vNew - vOld) > 2 * nvt) {
+    if (vOld > 0) {
+      const arg = 1 + (vNew - vOld) / nvt;
+      return arg > 0 ? vOld + nvt * Math.log(arg) : vcrit;
+    }
+    return nvt * Math.log(vNew / nvt);
+  }
+  return vNew;
+}
+
+export const diode: DeviceModel = {
+  schema: diodeSchema,
+  validate(part) {
+    requirePositive(part, "saturation current", numberOption(part, diodeSchema, "saturation"), "A");
+    requirePositive(part, "emission coefficient", numberOption(part, diodeSchema, "emission"), "");
+  },
+  topology(part) {
+    return { conducting: [[part.nodes[0]!, part.nodes[1]!]], voltageDefined: [] };
+  },
+  create(part, setup) {
+    const anode = setup.node(part.nodes[0]!);
+    const cathode = setup.node(part.nodes[1]!);
+    const is = numberOption(part, diodeSchema, "saturation");
+    const nvt = numberOption(part, diodeSchema, "emission") * THERMAL_VOLTAGE;
+    const series = numberOption(part, diodeSchema, "series");
+    const cj0 = numberOption(part, diodeSchema, "junction");
+    const a = series > 0 ? setup.addUnknown(`${part.name}.junction`, "voltage") : anode;
+    const c = cathode;
+    const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
+    const state: JunctionState = { current: 0, conductance: 0 };
+    const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
+    return {
+      part,
+      stampLinear:
+        series > 0
+          ? (s) => {
+              stampConductance(s, anode, a, 1 / series);
+            }
+          : undefined,
+      nonlinear: {
+        load(x, out) {
+          const vd = v(x, a) - v(x, c);
+          junctionCurrent(vd, is, nvt, state);
+          out.addF(a, state.current);
+          out.addF(c, -state.current);
+          if (out.jacobian) {
+            const g = state.conductance;
+            out.adddF(a, a, g);
+            out.adddF(a, c, -g);
+            out.adddF(c, a, -g);
+            out.adddF(c, c, g);
+          }
+          if (cj0 > 0) {
+            junctionCharge(vd, cj0, state);
+            out.addQ(a, state.current);
+            out.addQ(c, -state.current);
+            if (out.jacobian) {
+              const cj = state.conductance;
+              out.adddQ(a, a, cj);
+              out.adddQ(a, c, -cj);
+              out.adddQ(c, a, -cj);
+              out.adddQ(c, c, cj);
+            }
+          }
+        },
+        limitStep(x, dx) {
+          const vOld = v(x, a) - v(x, c);
+          const step = v(dx, a) - v(dx, c);
+          if (step === 0) return 1;
+          const limited = limitJunctionVoltage(vOld, vOld + step, nvt, vcrit);
+          const fraction = (limited - vOld) / step;
+          return fraction > 0 && fraction < 1 ? fraction : 1;
+        },
+      },
+      current(x, dxdt) {
+        if (series > 0) return (v(x, anode) - v(x, a)) / series;
+        const vd = v(x, a) - v(x, c);
+        junctionCurrent(vd, is, nvt, state);
+        let i = state.current;
+        if (cj0 > 0) {
+          junctionCharge(vd, cj0, state);
+          i += state.conductance * (v(dxdt, a) - v(dxdt, c));
+        }
+        return i;
+      },
+    };
+  },
+};

@@ -1,0 +1,33 @@
+import type { LinearStamp } from "./device.js";
+
+/** A conductance `g` between nodes a and b (either may be ground, -1). */
+export function stampConductance(s: LinearStamp, a: number, b: number, g: number): void {
+  s.addG(a, a, g);
+  s.addG(b, b, g);
+  s.addG(a, b, -g);
+  s.addG(b, a, -g);
+}
+
+/** A capacitance `c` between nodes a and b. */
+export function stampCapacitance(s: LinearStamp, a: number, b: number, c: number): void {
+  s.addC(a, a, c);
+  s.addC(b, b, c);
+  s.addC(a, b, -c);
+  s.addC(b, a, -c);
+}
+
+/** A current g·(v(cp) − v(cn)) leaving node `op` and entering node `on`. */
+export function stampTransconductance(s: LinearStamp, op: number, on: number, cp: number, cn: number, g: number): void {
+  s.addG(op, cp, g);
+  s.addG(op, cn, -g);
+  s.addG(on, cp, -g);
+  s.addG(on, cn, g);
+}
+
+/** A branch current unknown `k` flowing from node a to node b (KCL rows) and v(a) − v(b) in row k. */
+export function stampBranch(s: LinearStamp, a: number, b: number, k: number): void {
+  s.addG(a, k, 1);
+  s.addG(b, k, -1);
+  s.addG(k, a, 1);
+  s.addG(k, b, -1);
+}

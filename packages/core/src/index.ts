@@ -1,0 +1,47 @@
+// Circuit model
+export { GROUND, probeName } from "./circuit/circuit.js";
+export type {
+  AnalysisSpec,
+  BiasAnalysis,
+  Circuit,
+  OptionValue,
+  PartSpec,
+  PolesAnalysis,
+  Probe,
+  ResponseAnalysis,
+  SpecAnalysis,
+  SpecCriterion,
+  SpecMetric,
+  StartupAnalysis,
+  SweepAnalysis,
+  ToleranceAnalysis,
+  ToleranceSpec,
+  TransientAnalysis,
+} from "./circuit/circuit.js";
+export { OnsetError, inputError, isOnsetError, simulationError } from "./circuit/diagnostic.js";
+export type { Diagnostic, Severity, SourceSpan, Stage } from "./circuit/diagnostic.js";
+export type {
+  NameOption,
+  NodePairOption,
+  NumberOption,
+  NumberPairOption,
+  OptionSchema,
+  PartKindSchema,
+  PointsOption,
+  UnitSymbol,
+  ValueSchema,
+  WordOption,
+} from "./circuit/schema.js";
+export { checkTopology, nodesOfPart } from "./circuit/topology.js";
+
+// Devices
+export { builtinPresets, deviceModels, partKinds } from "./devices/registry.js";
+export type { Device, DeviceModel, LinearStamp, NonlinearLoad, NonlinearTerm, PartTopology, SetupContext, SourceTerm } from "./devices/device.js";
+export { AUDIO_TAPER_BASE, taperFraction } from "./devices/pot.js";
+export { DEFAULT_RAILS, opampConstants, opampPresets } from "./devices/opamp.js";
+export { THERMAL_VOLTAGE } from "./devices/diode.js";
+
+// Numerics
+export { LuSolver } from "./solver/lu.js";
+export { randomStream } from "./random/stream.js";
+export type { RandomStream } from "./random/stream.js";

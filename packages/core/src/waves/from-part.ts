@@ -1,0 +1,58 @@
+import type { PartSpec } from "../circuit/circuit.js";
+import { inputError } from "../circuit/diagnostic.js";
+import type { PartKindSchema } from "../circuit/schema.js";
+import { numberOption } from "../devices/options.js";
+import { noiseWave } from "./noise.js";
+import { pulseWave } from "./pulse.js";
+import { sineWave } from "./sine.js";
+import { stepsWave } from "./steps.js";
+import { constantWave, type Wave } from "./wave.js";
+
+/** The waveform a source part describes: its `wave=` variant, else its DC value (default 0). */
+export function waveFromPart(part: PartSpec, schema: PartKindSchema): Wave {
+  const kind = part.options.wave;
+  const num = (key: string) => numberOption(part, schema, key, kind as string);
+  switch (kind) {
+    case undefined:
+      return constantWave(part.value ?? 0);
+    case "sine":
+      return sineWave({ amp: num("amp"), freq: num("freq"), offset: num("offset"), phase: num("phase"), delay: num("delay") });
+    case "pulse":
+      return pulseWave({
+        low: num("low"),
+        high: num("high"),
+        delay: num("delay"),
+        rise: num("rise"),
+        fall: num("fall"),
+        width: num("width"),
+        period: num("period"),
+      });
+    case "steps": {
+      const points = part.options.points;
+      if (!Array.isArray(points) || points.length < 2 || points.length % 2 !== 0) {
+        throw inputError("bad-points", `${part.kind} ${part.name}: points= needs time–level pairs`, { span: part.span });
+      }
+      const n = points.length / 2;
+      const times = new Float64Array(n);
+      const levels = new Float64Array(n);
+      for (let i = 0; i < n; i++) {
+        times[i] = points[2 * i] as number;
+        levels[i] = points[2 * i + 1] as number;
+        if (i > 0 && !(times[i]! >= times[i - 1]!)) {
+          throw inputError("bad-points", `${part.kind} ${part.name}: point times must not decrease (${times[i - 1]} s then ${times[i]} s)`, {
+            span: part.span,
+            hint: "list the points in time order",
+          });
+        }
+      }
+      return stepsWave(times, levels);
+    }
+    case "noise":
+      return noiseWave({ rms: num("rms"), seed: num("seed"), corner: num("corner"), stop: num("stop") });
+    default:
+      throw inputError("unknown-wave", `${part.kind} ${part.name}: unknown wave '${String(kind)}'`, {
+        span: part.span,
+        hint: "use wave=sine, pulse, steps or noise",
+      });
+  }
+}
