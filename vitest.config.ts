@@ -1,7 +1,12 @@
 import { defineConfig } from "vitest/config";
 
+// Tests import the packages' TypeScript sources through the `onset-source` export condition,
+// so no build is needed to run them (the end-to-end CLI tests use the built files).
+const conditions = ["onset-source", "import", "module", "node", "default"];
+
 export default defineConfig({
-  resolve: { conditions: ["onset-source", "import", "module", "default"] },
+  resolve: { conditions },
+  ssr: { resolve: { conditions, externalConditions: conditions } },
   test: {
     include: ["test/**/*.test.ts"],
     reporters: ["default", "./test/support/tally-reporter.ts"],

@@ -45,3 +45,17 @@ export { THERMAL_VOLTAGE } from "./devices/diode.js";
 export { LuSolver } from "./solver/lu.js";
 export { randomStream } from "./random/stream.js";
 export type { RandomStream } from "./random/stream.js";
+export { buildSystem } from "./solver/system.js";
+export type { MnaSystem, UnknownInfo } from "./solver/system.js";
+export { NewtonSolver } from "./solver/newton.js";
+export { DEFAULT_TOLERANCES } from "./solver/tolerances.js";
+export type { Tolerances } from "./solver/tolerances.js";
+
+// Analyses
+export { solveBias } from "./analyses/bias.js";
+export type { BiasMethod, BiasPoint } from "./analyses/bias.js";
+export { TransientStepper } from "./analyses/stepper.js";
+export type { StepObserver, StepperSettings, StepperStats } from "./analyses/stepper.js";
+export { ProbeRecorder, defaultMaxStep, runTransient } from "./analyses/transient.js";
+export type { ProgressListener, RunOptions, Signal, TransientResult } from "./analyses/transient.js";
+export { allNodeProbes, probeReader } from "./analyses/probes.js";

@@ -1,0 +1,99 @@
+import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
+import { probeName } from "../circuit/circuit.js";
+import { buildSystem, type MnaSystem } from "../solver/system.js";
+import type { Tolerances } from "../solver/tolerances.js";
+import { GrowableSeries } from "./growable.js";
+import { allNodeProbes, probeReader } from "./probes.js";
+import { TransientStepper, type StepperStats } from "./stepper.js";
+
+/** One recorded signal. */
+export interface Signal {
+  /** As the probe is written: `o`, `o-ref`, `R1.i`. */
+  readonly name: string;
+  readonly probe: Probe;
+  readonly unit: "V" | "A";
+  readonly values: Float64Array;
+}
+
+export interface TransientResult {
+  readonly analysis: "transient";
+  /** Accepted time points (s), starting at 0. */
+  readonly time: Float64Array;
+  readonly signals: readonly Signal[];
+  readonly stats: StepperStats;
+}
+
+/** Progress of a long run, reported every few thousand steps. */
+export type ProgressListener = (time: number, until: number) => void;
+
+export interface RunOptions {
+  readonly tolerances?: Partial<Tolerances>;
+  readonly onProgress?: ProgressListener;
+  /** Parts added for this run only (a start-up kick). */
+  readonly extraParts?: readonly PartSpec[];
+}
+
+/** Records the chosen probes at every accepted point. */
+export class ProbeRecorder {
+  readonly time = new GrowableSeries();
+  private readonly series: GrowableSeries[];
+  private readonly readers: ReturnType<typeof probeReader>[];
+  readonly probes: readonly Probe[];
+
+  constructor(system: MnaSystem, probes: readonly Probe[]) {
+    this.probes = probes;
+    this.readers = probes.map((p) => probeReader(system, p));
+    this.series = probes.map(() => new GrowableSeries());
+  }
+
+  readonly record = (t: number, x: Float64Array, dxdt: Float64Array): void => {
+    this.time.push(t);
+    for (let k = 0; k < this.readers.length; k++) this.series[k]!.push(this.readers[k]!(x, dxdt, t));
+  };
+
+  signals(): Signal[] {
+    return this.probes.map((probe, k) => ({
+      name: probeName(probe),
+      probe,
+      unit: probe.kind === "current" ? "A" : "V",
+      values: this.series[k]!.toArray(),
+    }));
+  }
+}
+
+/** How often (in accepted steps) progress is reported. */
+const PROGRESS_EVERY = 4096;
+
+/** Advances a stepper to `until`, reporting progress between chunks. */
+export function advanceWithProgress(stepper: TransientStepper, until: number, onProgress?: ProgressListener): void {
+  if (!onProgress) {
+    stepper.advance(until);
+    return;
+  }
+  let steps = 0;
+  stepper.observe(() => {
+    if (++steps % PROGRESS_EVERY === 0) onProgress(stepper.t, until);
+  });
+  stepper.advance(until);
+  onProgress(stepper.t, until);
+}
+
+/** The default largest step when the file sets none: a hundredth of the run. */
+export function defaultMaxStep(until: number): number {
+  return until / 100;
+}
+
+/** Runs a `transient` analysis on a circuit. */
+export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
+  const system = buildSystem(circuit, options.extraParts);
+  const stepper = new TransientStepper(system, {
+    start: analysis.start,
+    maxStep: analysis.maxStep ?? defaultMaxStep(analysis.until),
+    tolerances: options.tolerances,
+  });
+  const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
+  const recorder = new ProbeRecorder(system, probes);
+  stepper.observe(recorder.record);
+  advanceWithProgress(stepper, analysis.until, options.onProgress);
+  return { analysis: "transient", time: recorder.time.toArray(), signals: recorder.signals(), stats: { ...stepper.stats } };
+}

@@ -1,0 +1,86 @@
+import { checkWaveform } from "./waveform-check.js";
+import { cubicLevelCrossing, cubicOnInterval, cubicScratch } from "./local-cubic.js";
+
+/** Crossing times and, for each, the sample interval it falls in (`t[i] <= time <= t[i+1]`). */
+export interface CrossingList {
+  readonly times: Float64Array;
+  readonly intervals: Int32Array;
+}
+
+/**
+ * Rising crossings of `level` with a Schmitt-trigger band: the detector arms when a sample
+ * falls below `level − hysteresis` and fires when one reaches `level + hysteresis`; the crossing
+ * reported is the last rising pass through `level` itself before it fired, timed on the local
+ * cubic. Noise of peak size below `hysteresis` can therefore neither add nor remove a crossing
+ * of a signal that swings through the whole band. Samples `first … last` (inclusive) are used.
+ */
+export function findRisingCrossings(
+  t: Float64Array,
+  v: Float64Array,
+  level: number,
+  hysteresis: number,
+  first = 0,
+  last = t.length - 1,
+): CrossingList {
+  const low = level - hysteresis;
+  const high = level + hysteresis;
+  const c = cubicScratch();
+  let times = new Float64Array(64);
+  let intervals = new Int32Array(64);
+  let count = 0;
+  let armed = false;
+  let lastBelow = -1;
+  for (let k = first; k <= last; k++) {
+    const x = v[k];
+    if (!armed && x < low) armed = true;
+    if (!armed) continue;
+    if (x < level) lastBelow = k;
+    else if (x >= high && lastBelow >= 0) {
+      const i = lastBelow;
+      cubicOnInterval(t, v, i, c);
+      const u = cubicLevelCrossing(c, level);
+      if (count === times.length) {
+        const grownTimes = new Float64Array(2 * count);
+        grownTimes.set(times);
+        times = grownTimes;
+        const grownIntervals = new Int32Array(2 * count);
+        grownIntervals.set(intervals);
+        intervals = grownIntervals;
+      }
+      times[count] = t[i] + u * (t[i + 1] - t[i]);
+      intervals[count] = i;
+      count++;
+      armed = false;
+      lastBelow = -1;
+    }
+  }
+  return { times: times.slice(0, count), intervals: intervals.slice(0, count) };
+}
+
+/**
+ * Interpolated times at which `v` rises through `level`, with a hysteresis band of
+ * ± `hysteresis` volts around it (see {@link findRisingCrossings}); only samples with
+ * `from <= t <= to` take part.
+ *
+ * @param hysteresis - half-width of the band in volts, `>= 0`; 0 gives plain sign changes.
+ */
+export function risingCrossings(
+  t: Float64Array,
+  v: Float64Array,
+  level: number,
+  hysteresis: number,
+  from = -Infinity,
+  to = Infinity,
+): Float64Array {
+  checkWaveform("risingCrossings", t, v);
+  if (!Number.isFinite(level)) throw new RangeError(`risingCrossings: level must be finite (got ${level})`);
+  if (!(hysteresis >= 0) || !Number.isFinite(hysteresis)) {
+    throw new RangeError(`risingCrossings: hysteresis must be finite and >= 0 (got ${hysteresis})`);
+  }
+  let first = 0;
+  while (first < t.length && t[first] < from) first++;
+  let last = t.length - 1;
+  while (last >= 0 && t[last] > to) last--;
+  if (last - first < 1) return new Float64Array(0);
+  return findRisingCrossings(t, v, level, hysteresis, first, last).times;
+}

@@ -1,0 +1,225 @@
+import { simulationError } from "../circuit/diagnostic.js";
+import type { NonlinearLoad } from "../devices/device.js";
+import { LuSolver } from "./lu.js";
+import type { MnaSystem } from "./system.js";
+import type { Tolerances } from "./tolerances.js";
+
+/** Outcome of one Newton solve; `worst` is the unknown with the largest scaled update. */
+export interface NewtonOutcome {
+  converged: boolean;
+  iterations: number;
+  worst: number;
+}
+
+/**
+ * The mutable core shared by the bias point and the transient: it owns the matrix, its LU,
+ * and the scratch vectors, and solves
+ *   G·x + f(x) + a·(C·x + q(x)) − history − u = 0
+ * by Newton–Raphson in update form, where `a` is per row (0 at DC, 1/h backward Euler, 2/h
+ * trapezoidal). The factorisation is kept while the matrix is unchanged and the iteration
+ * contracts well (a chord iteration on a stale Jacobian converges to the same solution,
+ * because the residual is always exact).
+ */
+export class NewtonSolver {
+  readonly system: MnaSystem;
+  readonly tolerances: Tolerances;
+  readonly n: number;
+  /** Integration coefficient per row. */
+  readonly a: Float64Array;
+  /** Charge history per row (a·qₙ + β·q̇ₙ), set by the integrator before a solve. */
+  readonly history: Float64Array;
+  /** Excitation per row, set by `loadSources`. */
+  readonly u: Float64Array;
+  /** Nonlinear charges per row at the last iterate. */
+  readonly qNonlinear: Float64Array;
+  /** Conductance to ground added on every node row (gmin stepping). */
+  gmin = 0;
+  factorizations = 0;
+  iterations = 0;
+
+  private readonly matrix: Float64Array;
+  private readonly base: Float64Array;
+  private readonly lu: LuSolver;
+  private readonly residual: Float64Array;
+  private readonly update: Float64Array;
+  private readonly load: NonlinearLoad & { jacobian: boolean };
+  private readonly tol: Float64Array;
+  private baseValid = false;
+  private luValid = false;
+  private readonly linear: boolean;
+
+  constructor(system: MnaSystem, tolerances: Tolerances) {
+    const n = system.n;
+    this.system = system;
+    this.tolerances = tolerances;
+    this.n = n;
+    this.a = new Float64Array(n);
+    this.history = new Float64Array(n);
+    this.u = new Float64Array(n);
+    this.qNonlinear = new Float64Array(n);
+    this.matrix = new Float64Array(n * n);
+    this.base = new Float64Array(n * n);
+    this.lu = new LuSolver(n);
+    this.residual = new Float64Array(n);
+    this.update = new Float64Array(n);
+    this.tol = new Float64Array(n);
+    this.linear = system.nonlinear.length === 0;
+    system.unknowns.forEach((u, i) => {
+      this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
+    });
+    const matrix = this.matrix;
+    const r = this.residual;
+    const a = this.a;
+    const q = this.qNonlinear;
+    this.load = {
+      jacobian: false,
+      addF(row, value) {
+        if (row >= 0) r[row] += value;
+      },
+      adddF(row, col, value) {
+        if (row >= 0 && col >= 0) matrix[row * n + col] += value;
+      },
+      addQ(row, value) {
+        if (row >= 0) {
+          r[row] += a[row]! * value;
+          q[row] += value;
+        }
+      },
+      adddQ(row, col, value) {
+        if (row >= 0 && col >= 0) matrix[row * n + col] += a[row]! * value;
+      },
+    };
+  }
+
+  /** Sets the per-row integration coefficients; call `invalidate` when they change. */
+  setCoefficients(uniform: number, backwardEuler: number): void {
+    const rows = this.system.backwardEulerRows;
+    let changed = false;
+    for (let i = 0; i < this.n; i++) {
+      const value = rows[i] ? backwardEuler : uniform;
+      if (this.a[i] !== value) {
+        this.a[i] = value;
+        changed = true;
+      }
+    }
+    if (changed) this.invalidate();
+  }
+
+  /** Forgets the assembled matrix and its factorisation (coefficients or gmin changed). */
+  invalidate(): void {
+    this.baseValid = false;
+    this.luValid = false;
+  }
+
+  /** Asks for a fresh Jacobian at the next iteration. */
+  refreshJacobian(): void {
+    this.luValid = false;
+  }
+
+  /** Fills `u` with every source's value at `t`, scaled by `scale`. */
+  loadSources(t: number, scale: number, left: boolean): void {
+    this.u.fill(0);
+    for (const s of this.system.sources) s.addSource(t, scale, this.u, left);
+  }
+
+  private assembleBase(): void {
+    const { n, system, base, a } = this;
+    const { G, C } = system;
+    for (let i = 0; i < n; i++) {
+      const ai = a[i]!;
+      const row = i * n;
+      for (let j = 0; j < n; j++) base[row + j] = G[row + j]! + ai * C[row + j]!;
+    }
+    if (this.gmin > 0) {
+      system.unknowns.forEach((u, i) => {
+        if (u.isNode) base[i * n + i] += this.gmin;
+      });
+    }
+    this.baseValid = true;
+  }
+
+  /** r = G·x + a·C·x + gmin·x − history − u (the linear part of the residual). */
+  private linearResidual(x: Float64Array): void {
+    const { n, residual: r, a, history, u, system } = this;
+    for (let i = 0; i < n; i++) r[i] = -history[i]! - u[i]!;
+    const g = system.gTriplets;
+    for (let k = 0; k < g.values.length; k++) r[g.rows[k]!] += g.values[k]! * x[g.cols[k]!]!;
+    const c = system.cTriplets;
+    for (let k = 0; k < c.values.length; k++) {
+      const row = c.rows[k]!;
+      r[row] += a[row]! * c.values[k]! * x[c.cols[k]!]!;
+    }
+    if (this.gmin > 0) {
+      const unknowns = system.unknowns;
+      for (let i = 0; i < n; i++) if (unknowns[i]!.isNode) r[i] += this.gmin * x[i]!;
+    }
+  }
+
+  private factor(): void {
+    if (!this.lu.factor(this.matrix)) {
+      const label = this.system.unknowns[this.lu.singularColumn]?.label ?? "?";
+      throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
+        hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
+      });
+    }
+    this.factorizations++;
+    this.luValid = true;
+  }
+
+  /**
+   * Solves for x (guess in, solution out) at the coefficients, history and sources already
+   * set. Throws OnsetError only for a singular matrix; non-convergence is reported in the outcome.
+   */
+  solve(x: Float64Array, maxIterations: number): NewtonOutcome {
+    const { n, residual: r, update: dx, tolerances: t, system, load } = this;
+    if (!this.baseValid) this.assembleBase();
+    let previousNorm = Infinity;
+    let worst = 0;
+    for (let iter = 1; iter <= maxIterations; iter++) {
+      this.iterations++;
+      const rebuild = !this.luValid;
+      this.linearResidual(x);
+      if (rebuild) this.matrix.set(this.base);
+      if (!this.linear) {
+        this.qNonlinear.fill(0);
+        load.jacobian = rebuild;
+        for (const device of system.nonlinear) device.load(x, load);
+      }
+      if (rebuild) this.factor();
+      this.lu.solve(r, dx);
+      let lambda = 1;
+      if (!this.linear) {
+        for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
+        for (const device of system.nonlinear) {
+          if (device.limitStep) {
+            const l = device.limitStep(x, dx);
+            if (l < lambda) lambda = l;
+          }
+        }
+      } else {
+        for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
+      }
+      let norm = 0;
+      for (let i = 0; i < n; i++) {
+        const step = lambda * dx[i]!;
+        const xi = x[i]!;
+        const next = xi + step;
+        x[i] = next;
+        const scale = t.newtonRelative * Math.max(Math.abs(xi), Math.abs(next)) + this.tol[i]!;
+        const ratio = Math.abs(step) / scale;
+        if (ratio > norm) {
+          norm = ratio;
+          worst = i;
+        }
+      }
+      if (this.linear) return { converged: true, iterations: iter, worst };
+      if (norm <= 1 && lambda === 1) return { converged: true, iterations: iter, worst };
+      if (!Number.isFinite(norm)) return { converged: false, iterations: iter, worst };
+      // A chord iteration that contracts slowly gets a fresh Jacobian.
+      if (!rebuild && norm > 0.25 * previousNorm) this.luValid = false;
+      if (iter >= 3 && !rebuild) this.luValid = false;
+      previousNorm = norm;
+    }
+    return { converged: false, iterations: maxIterations, worst };
+  }
+}
