@@ -59,3 +59,5 @@ export type { StepObserver, StepperSettings, StepperStats } from "./analyses/ste
 export { ProbeRecorder, defaultMaxStep, runTransient } from "./analyses/transient.js";
 export type { ProgressListener, RunOptions, Signal, TransientResult } from "./analyses/transient.js";
 export { allNodeProbes, probeReader } from "./analyses/probes.js";
+export { runBias } from "./analyses/bias-report.js";
+export type { BiasResult } from "./analyses/bias-report.js";

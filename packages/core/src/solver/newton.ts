@@ -4,6 +4,9 @@ import { LuSolver } from "./lu.js";
 import type { MnaSystem } from "./system.js";
 import type { Tolerances } from "./tolerances.js";
 
+/** Largest scaled update (in tolerances) after which the next iteration may reuse the Jacobian. */
+const CHORD_NEAR = 1e3;
+
 /** Outcome of one Newton solve; `worst` is the unknown with the largest scaled update. */
 export interface NewtonOutcome {
   converged: boolean;
@@ -187,17 +190,18 @@ export class NewtonSolver {
       }
       if (rebuild) this.factor();
       this.lu.solve(r, dx);
+      if (this.linear) {
+        // One solve is exact for a linear system: x ← x − M⁻¹·r.
+        for (let i = 0; i < n; i++) x[i] -= dx[i]!;
+        return { converged: true, iterations: iter, worst };
+      }
+      for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
       let lambda = 1;
-      if (!this.linear) {
-        for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
-        for (const device of system.nonlinear) {
-          if (device.limitStep) {
-            const l = device.limitStep(x, dx);
-            if (l < lambda) lambda = l;
-          }
+      for (const device of system.nonlinear) {
+        if (device.limitStep) {
+          const l = device.limitStep(x, dx);
+          if (l < lambda) lambda = l;
         }
-      } else {
-        for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
       }
       let norm = 0;
       for (let i = 0; i < n; i++) {
@@ -212,12 +216,11 @@ export class NewtonSolver {
           worst = i;
         }
       }
-      if (this.linear) return { converged: true, iterations: iter, worst };
       if (norm <= 1 && lambda === 1) return { converged: true, iterations: iter, worst };
       if (!Number.isFinite(norm)) return { converged: false, iterations: iter, worst };
-      // A chord iteration that contracts slowly gets a fresh Jacobian.
-      if (!rebuild && norm > 0.25 * previousNorm) this.luValid = false;
-      if (iter >= 3 && !rebuild) this.luValid = false;
+      // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
+      // contracts well; after a large update the linearisation is refreshed.
+      if (norm > CHORD_NEAR || lambda < 1 || (iter > 1 && norm > 0.25 * previousNorm)) this.luValid = false;
       previousNorm = norm;
     }
     return { converged: false, iterations: maxIterations, worst };

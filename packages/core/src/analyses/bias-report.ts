@@ -1,0 +1,33 @@
+import type { BiasAnalysis, Circuit } from "../circuit/circuit.js";
+import { NewtonSolver } from "../solver/newton.js";
+import { buildSystem } from "../solver/system.js";
+import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import type { RunOptions } from "./transient.js";
+import { solveBias, type BiasMethod } from "./bias.js";
+
+export interface BiasResult {
+  readonly analysis: "bias";
+  /** Node voltages (V), in the order nodes first appear in the file. */
+  readonly nodes: ReadonlyArray<{ readonly node: string; readonly voltage: number }>;
+  /** Currents (A) through every independent voltage source, from plus through the source to minus. */
+  readonly sources: ReadonlyArray<{ readonly part: string; readonly current: number }>;
+  readonly method: BiasMethod;
+  readonly iterations: number;
+}
+
+/** Runs a `bias` analysis: the DC operating point with node voltages and source currents. */
+export function runBias(circuit: Circuit, _analysis: BiasAnalysis, options: RunOptions = {}): BiasResult {
+  const system = buildSystem(circuit, options.extraParts);
+  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const point = solveBias(system, solver, solver.tolerances);
+  const rates = new Float64Array(system.n);
+  return {
+    analysis: "bias",
+    nodes: system.unknowns.flatMap((u, i) => (u.isNode ? [{ node: u.label, voltage: point.x[i]! }] : [])),
+    sources: system.devices
+      .filter((d) => d.part.kind === "vsource")
+      .map((d) => ({ part: d.part.name, current: d.current!(point.x, rates, 0) })),
+    method: point.method,
+    iterations: point.iterations,
+  };
+}
