@@ -61,3 +61,9 @@ export type { ProgressListener, RunOptions, Signal, TransientResult } from "./an
 export { allNodeProbes, probeReader } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
+export { linearize } from "./analyses/linearize.js";
+export type { SmallSignal } from "./analyses/linearize.js";
+export { dominantPair, pencilPoles, runPoles, startsFrom } from "./analyses/poles.js";
+export type { Pole, PolesResult } from "./analyses/poles.js";
+export { PhasorSolver, RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
+export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/response.js";
