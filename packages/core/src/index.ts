@@ -67,3 +67,11 @@ export { dominantPair, pencilPoles, runPoles, startsFrom } from "./analyses/pole
 export type { Pole, PolesResult } from "./analyses/poles.js";
 export { PhasorSolver, RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
 export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/response.js";
+
+// Design and statistics
+export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
+export type { SeriesName } from "./design/eseries.js";
+export { wilsonInterval, Z95 } from "./stats/wilson.js";
+export type { Interval } from "./stats/wilson.js";
+export { percentileOfSorted, REPORTED_PERCENTILES, summarize } from "./stats/percentiles.js";
+export type { PercentileSummary } from "./stats/percentiles.js";
