@@ -75,3 +75,7 @@ export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";
 export { percentileOfSorted, REPORTED_PERCENTILES, summarize } from "./stats/percentiles.js";
 export type { PercentileSummary } from "./stats/percentiles.js";
+export { DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
+export type { StartupResult, StartupRun } from "./analyses/startup.js";
+export { measureStartup } from "./metrics/startup.js";
+export type { StartupMetrics } from "./metrics/startup.js";
