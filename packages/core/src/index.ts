@@ -79,3 +79,23 @@ export { DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
 export type { StartupResult, StartupRun } from "./analyses/startup.js";
 export { measureStartup } from "./metrics/startup.js";
 export type { StartupMetrics } from "./metrics/startup.js";
+export { isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
+export type { AnalysisResult, CircuitRun, SimulatingAnalysis } from "./analyses/run.js";
+export { evaluateSpec, meets, metricValue, sampleCriteria } from "./spec/evaluate.js";
+export type { CriterionResult, SpecReport } from "./spec/evaluate.js";
+
+// Studies: sweeps, tolerance Monte Carlo, design window
+export { drawSample } from "./study/draw.js";
+export type { Distribution } from "./study/draw.js";
+export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
+export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
+export { summarizeSamples } from "./study/summary.js";
+export type { ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";
+export { createSamplePool, defaultJobs } from "./study/pool.js";
+export type { SamplePool } from "./study/pool.js";
+export { runToleranceStudy, shardIndices } from "./study/tolerance.js";
+export type { CircuitBuilder, Shard, ToleranceStudyOptions } from "./study/tolerance.js";
+export { oscillates, runSweep, sweepValues } from "./study/sweep.js";
+export type { StartThreshold, SweepOptions, SweepPoint, SweepResult } from "./study/sweep.js";
+export { DEFAULT_REQUIRED_YIELD, runDesignWindow } from "./study/window.js";
+export type { DesignWindow, WindowPoint } from "./study/window.js";

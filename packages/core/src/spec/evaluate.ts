@@ -1,0 +1,69 @@
+import type { SpecCriterion, SpecMetric } from "../circuit/circuit.js";
+import type { StartupMetrics } from "../metrics/startup.js";
+
+/** One criterion with what was measured and whether it passed. */
+export interface CriterionResult {
+  readonly criterion: SpecCriterion;
+  /** The measured value in SI units, or null when the run did not produce it. */
+  readonly measured: number | null;
+  readonly pass: boolean;
+}
+
+export interface SpecReport {
+  readonly criteria: readonly CriterionResult[];
+  readonly pass: boolean;
+}
+
+/** The startup metric a criterion reads (yield is read by the tolerance study). */
+export function metricValue(metrics: StartupMetrics, metric: SpecMetric): number | null {
+  switch (metric) {
+    case "frequency":
+      return metrics.frequency;
+    case "amplitude":
+      return metrics.amplitude;
+    case "thd":
+      return metrics.thd;
+    case "startup":
+      return metrics.startupTime;
+    case "settling":
+      return metrics.settlingTime;
+    case "offset":
+      return metrics.offset;
+    case "rms":
+      return metrics.rms;
+    case "peakToPeak":
+      return metrics.peakToPeak;
+    case "yield":
+      return null;
+  }
+}
+
+/** Whether a measured value meets one criterion; a missing value fails. */
+export function meets(criterion: SpecCriterion, measured: number | null): boolean {
+  if (measured === null || !Number.isFinite(measured)) return false;
+  switch (criterion.test) {
+    case "within":
+      return measured >= criterion.low && measured <= criterion.high;
+    case "below":
+      return measured < criterion.limit;
+    case "above":
+      return measured > criterion.limit;
+  }
+}
+
+/**
+ * Checks the criteria on one start-up result. A run that did not settle has no settled
+ * amplitude, THD or start-up time, so criteria on them fail.
+ */
+export function evaluateSpec(criteria: readonly SpecCriterion[], metrics: StartupMetrics, yieldValue?: number): SpecReport {
+  const results = criteria.map((criterion) => {
+    const measured = criterion.metric === "yield" ? (yieldValue ?? null) : metrics.verdict === "settled" || criterion.metric === "frequency" ? metricValue(metrics, criterion.metric) : null;
+    return { criterion, measured, pass: meets(criterion, measured) };
+  });
+  return { criteria: results, pass: results.every((r) => r.pass) };
+}
+
+/** Criteria that a single sample is judged on (all but the yield). */
+export function sampleCriteria(criteria: readonly SpecCriterion[]): SpecCriterion[] {
+  return criteria.filter((c) => c.metric !== "yield");
+}

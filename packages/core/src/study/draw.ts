@@ -1,0 +1,25 @@
+import type { ToleranceSpec } from "../circuit/circuit.js";
+import { randomStream } from "../random/stream.js";
+
+export type Distribution = "normal" | "uniform";
+
+/**
+ * The values one Monte Carlo sample draws for every tolerance, in file order. The stream
+ * depends on (seed, index) alone, so a sample is the same whichever worker or shard runs it.
+ * normal: σ = tol/3, truncated at ±tol by redrawing (common practice, no single source);
+ * uniform: evenly over ±tol.
+ */
+export function drawSample(tolerances: readonly ToleranceSpec[], seed: number, index: number, dist: Distribution): Record<string, number> {
+  const stream = randomStream(seed, index);
+  const drawn: Record<string, number> = {};
+  for (const t of tolerances) {
+    let unit: number;
+    if (dist === "uniform") unit = 2 * stream.uniform() - 1;
+    else {
+      do unit = stream.normal() / 3;
+      while (Math.abs(unit) > 1);
+    }
+    drawn[t.target] = t.relative !== undefined ? t.nominal * (1 + unit * t.relative) : t.nominal + unit * (t.absolute ?? 0);
+  }
+  return drawn;
+}

@@ -1,0 +1,96 @@
+import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
+import { isOnsetError } from "../circuit/diagnostic.js";
+import { runPoles } from "../analyses/poles.js";
+import { runStartup } from "../analyses/startup.js";
+import type { Tolerances } from "../solver/tolerances.js";
+import type { StartupVerdict } from "../metrics/verdict.js";
+import { meets, metricValue } from "../spec/evaluate.js";
+
+/** The metrics kept for every Monte Carlo sample (SI units). */
+export interface SampleMetrics {
+  readonly verdict: StartupVerdict;
+  readonly frequency: number | null;
+  readonly amplitude: number | null;
+  readonly thd: number | null;
+  readonly startupTime: number | null;
+  readonly settlingTime: number | null;
+  readonly growthRate: number | null;
+  readonly offset: number | null;
+  readonly rms: number | null;
+  readonly peakToPeak: number | null;
+  /** The linear prediction at the bias point. */
+  readonly predictedFrequency: number | null;
+  readonly predictedGrowthRate: number | null;
+}
+
+/** The metric names summarised over samples, in report order. */
+export const SAMPLE_METRICS = [
+  "frequency",
+  "amplitude",
+  "thd",
+  "startupTime",
+  "settlingTime",
+  "growthRate",
+  "offset",
+  "predictedFrequency",
+] as const satisfies ReadonlyArray<keyof SampleMetrics>;
+
+export interface SampleOutcome {
+  readonly metrics: SampleMetrics | null;
+  readonly pass: boolean;
+  /** Texts of the criteria this sample failed. */
+  readonly failures: readonly string[];
+  /** When the simulation itself failed: its message. */
+  readonly error?: string;
+}
+
+export interface SampleSettings {
+  readonly criteria: readonly SpecCriterion[];
+  readonly tolerances?: Partial<Tolerances>;
+}
+
+/** The first startup analysis of a circuit, which every sample is judged on. */
+export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined {
+  return circuit.analyses.find((a): a is StartupAnalysis => a.kind === "startup");
+}
+
+/**
+ * Runs one sample: the circuit's startup analysis (and the linear prediction) with the drawn
+ * values already elaborated into it, then its criteria. A simulation failure fails the sample.
+ */
+export function runSample(circuit: Circuit, settings: SampleSettings): SampleOutcome {
+  const analysis = startupAnalysisOf(circuit);
+  if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
+  try {
+    const r = runStartup(circuit, analysis, { tolerances: settings.tolerances });
+    let predictedFrequency: number | null = r.run.predicted.frequency;
+    let predictedGrowthRate: number | null = r.run.predicted.growthRate;
+    if (circuit.analyses.some((a) => a.kind === "poles")) {
+      const p = runPoles(circuit, { kind: "poles" }, { tolerances: settings.tolerances });
+      predictedFrequency = p.frequency;
+      predictedGrowthRate = p.growthRate;
+    }
+    const metrics: SampleMetrics = {
+      verdict: r.verdict,
+      frequency: r.frequency,
+      amplitude: r.amplitude,
+      thd: r.thd,
+      startupTime: r.startupTime,
+      settlingTime: r.settlingTime,
+      growthRate: r.growthRate,
+      offset: r.offset,
+      rms: r.rms,
+      peakToPeak: r.peakToPeak,
+      predictedFrequency,
+      predictedGrowthRate,
+    };
+    const failures = settings.criteria
+      .filter((c) => c.metric !== "yield")
+      .filter((c) => !meets(c, r.verdict === "settled" || c.metric === "frequency" ? metricValue(r, c.metric) : null))
+      .map((c) => c.text);
+    return { metrics, pass: failures.length === 0 && r.verdict === "settled", failures: r.verdict === "settled" ? failures : [`verdict ${r.verdict}`, ...failures] };
+  } catch (error) {
+    const message = isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
+    return { metrics: null, pass: false, failures: ["simulation failed"], error: message };
+  }
+}

@@ -1,0 +1,82 @@
+import type { SpecCriterion } from "../circuit/circuit.js";
+import { meets } from "../spec/evaluate.js";
+import { summarize, type PercentileSummary } from "../stats/percentiles.js";
+import { wilsonInterval, type Interval } from "../stats/wilson.js";
+import { SAMPLE_METRICS, type SampleMetrics, type SampleOutcome } from "./sample.js";
+
+/** One finished Monte Carlo sample. */
+export interface ToleranceSample extends SampleOutcome {
+  readonly index: number;
+  /** The values drawn, by override name. */
+  readonly drawn: Readonly<Record<string, number>>;
+}
+
+export interface YieldSummary {
+  readonly passed: number;
+  readonly runs: number;
+  readonly value: number;
+  /** 95 % Wilson score interval (references §6). */
+  readonly interval: Interval;
+}
+
+export interface ToleranceSummary {
+  readonly runs: number;
+  readonly verdicts: Readonly<Record<string, number>>;
+  readonly percentiles: Readonly<Partial<Record<(typeof SAMPLE_METRICS)[number], PercentileSummary>>>;
+  readonly yield: YieldSummary;
+  /** The yield criterion from the spec, if any, and whether the yield met it. */
+  readonly yieldCriterion: { readonly criterion: SpecCriterion; readonly pass: boolean } | null;
+  /** The worst samples first: failures by how far they miss, then the tightest passes. */
+  readonly worst: readonly number[];
+}
+
+/** Normalised margin of a sample against the criteria: negative when it fails. */
+function margin(sample: ToleranceSample, criteria: readonly SpecCriterion[]): number {
+  if (!sample.metrics || sample.metrics.verdict !== "settled") return -Infinity;
+  let worst = Infinity;
+  for (const c of criteria) {
+    const key = ({ startup: "startupTime", settling: "settlingTime" } as Record<string, keyof SampleMetrics>)[c.metric] ?? (c.metric as keyof SampleMetrics);
+    if (c.metric === "yield") continue;
+    const v = sample.metrics[key];
+    if (typeof v !== "number") return -Infinity;
+    if (c.test === "within") {
+      const half = (c.high - c.low) / 2 || Math.abs(c.high) || 1;
+      worst = Math.min(worst, (half - Math.abs(v - (c.low + c.high) / 2)) / half);
+    } else {
+      const scale = Math.abs(c.limit) || 1;
+      worst = Math.min(worst, c.test === "below" ? (c.limit - v) / scale : (v - c.limit) / scale);
+    }
+  }
+  return worst;
+}
+
+/** Summarises samples (in any order): percentiles, verdict counts, yield with its interval, worst cases. */
+export function summarizeSamples(samples: readonly ToleranceSample[], criteria: readonly SpecCriterion[], worstCount = 5): ToleranceSummary {
+  const ordered = [...samples].sort((a, b) => a.index - b.index);
+  const verdicts: Record<string, number> = {};
+  for (const s of ordered) {
+    const v = s.metrics?.verdict ?? "failed";
+    verdicts[v] = (verdicts[v] ?? 0) + 1;
+  }
+  const percentiles: Partial<Record<(typeof SAMPLE_METRICS)[number], PercentileSummary>> = {};
+  for (const key of SAMPLE_METRICS) {
+    const values = ordered.flatMap((s) => (s.metrics && typeof s.metrics[key] === "number" ? [s.metrics[key] as number] : []));
+    const summary = summarize(values);
+    if (summary) percentiles[key] = summary;
+  }
+  const passed = ordered.filter((s) => s.pass).length;
+  const runs = ordered.length;
+  const value = runs > 0 ? passed / runs : 0;
+  const yieldCriterion = criteria.find((c) => c.metric === "yield");
+  const yieldPass = yieldCriterion === undefined ? null : meets(yieldCriterion, value);
+  const scored = ordered.map((s) => ({ index: s.index, score: margin(s, criteria) }));
+  scored.sort((a, b) => a.score - b.score || a.index - b.index);
+  return {
+    runs,
+    verdicts,
+    percentiles,
+    yield: { passed, runs, value, interval: wilsonInterval(passed, runs) },
+    yieldCriterion: yieldCriterion ? { criterion: yieldCriterion, pass: yieldPass! } : null,
+    worst: scored.slice(0, worstCount).map((s) => s.index),
+  };
+}

@@ -1,0 +1,130 @@
+import type { Circuit, SweepAnalysis } from "../circuit/circuit.js";
+import { inputError } from "../circuit/diagnostic.js";
+import { runCircuit, type CircuitRun } from "../analyses/run.js";
+import { runStartup, type StartupResult } from "../analyses/startup.js";
+import type { RunOptions } from "../analyses/transient.js";
+import type { StartupVerdict } from "../metrics/verdict.js";
+import { startupAnalysisOf } from "./sample.js";
+import type { CircuitBuilder } from "./tolerance.js";
+
+export interface SweepPoint {
+  readonly value: number;
+  readonly run: CircuitRun;
+}
+
+/** Where the verdict changes from not oscillating to oscillating, refined by bisection. */
+export interface StartThreshold {
+  readonly value: number;
+  /** Half the width of the final bracket: the threshold lies within value ± precision. */
+  readonly precision: number;
+  /** True when the circuit starts for settings above the threshold. */
+  readonly startsAbove: boolean;
+  /** The setting written in the file (before overrides), when known. */
+  readonly nominal: number | null;
+  /** (nominal − threshold)/|threshold| signed so that a positive margin means the nominal setting starts. */
+  readonly margin: number | null;
+}
+
+export interface SweepResult {
+  readonly analysis: "sweep";
+  readonly target: string;
+  readonly log: boolean;
+  readonly points: readonly SweepPoint[];
+  readonly threshold: StartThreshold | null;
+}
+
+/** The settings a sweep visits: `steps=N` is N values from `from` to `to` inclusive; `step=` an increment (a ratio with `log`). */
+export function sweepValues(s: SweepAnalysis): number[] {
+  if (s.log && !(s.from > 0 && s.to > 0)) {
+    throw inputError("out-of-range", `a log sweep needs positive limits, got from=${s.from} to=${s.to}`, { span: s.span });
+  }
+  if (s.steps !== undefined) {
+    if (!(Number.isInteger(s.steps) && s.steps >= 1)) throw inputError("out-of-range", `sweep steps=${s.steps} must be a whole number ≥ 1`, { span: s.span });
+    if (s.steps === 1) return [s.from];
+    return Array.from({ length: s.steps }, (_, k) => {
+      const u = k / (s.steps! - 1);
+      return s.log ? s.from * Math.pow(s.to / s.from, u) : s.from + u * (s.to - s.from);
+    });
+  }
+  const step = s.step ?? NaN;
+  const forward = s.to >= s.from;
+  if (s.log ? !(step > 0 && step !== 1 && step > 1 === forward) : !(step !== 0 && step > 0 === forward)) {
+    throw inputError("out-of-range", `sweep step=${s.step} does not lead from ${s.from} to ${s.to}`, {
+      span: s.span,
+      hint: s.log ? "with log, step= is a ratio greater than 1 (or below 1 going down)" : "give a step with the sign of to − from",
+    });
+  }
+  const values: number[] = [];
+  const count = s.log ? Math.floor(Math.log(s.to / s.from) / Math.log(step) + 1e-9) : Math.floor((s.to - s.from) / step + 1e-9);
+  if (count > 100_000) throw inputError("out-of-range", `sweep would visit ${count + 1} settings`, { span: s.span, hint: "use a larger step" });
+  for (let k = 0; k <= count; k++) values.push(s.log ? s.from * Math.pow(step, k) : s.from + k * step);
+  return values;
+}
+
+/** An oscillating verdict: it settled, is still growing, or oscillates without settling. */
+export function oscillates(verdict: StartupVerdict): boolean {
+  return verdict === "settled" || verdict === "growing" || verdict === "unsettled";
+}
+
+export interface SweepOptions extends RunOptions {
+  /** The target's value as written, for the margin. */
+  readonly nominal?: number;
+  /** Bisection stops when the bracket is narrower than this (default 1e-3 of the span, or of the ratio with log). */
+  readonly precision?: number;
+  readonly onPoint?: (point: SweepPoint, done: number, total: number) => void;
+}
+
+function firstStartup(run: CircuitRun): StartupResult | undefined {
+  return run.results.find((r): r is StartupResult => r.analysis === "startup");
+}
+
+/**
+ * Runs the file's analyses at every setting of the sweep, then refines the start threshold by
+ * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
+ */
+export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, options: SweepOptions = {}): SweepResult {
+  const values = sweepValues(analysis);
+  const points: SweepPoint[] = [];
+  values.forEach((value, k) => {
+    const point = { value, run: runCircuit(build({ [analysis.target]: value }), options) };
+    points.push(point);
+    options.onPoint?.(point, k + 1, values.length);
+  });
+  let threshold: StartThreshold | null = null;
+  for (let k = 1; k < points.length && !threshold; k++) {
+    const a = firstStartup(points[k - 1]!.run);
+    const b = firstStartup(points[k]!.run);
+    if (!a || !b || oscillates(a.verdict) === oscillates(b.verdict)) continue;
+    threshold = bisectThreshold(build, analysis, points[k - 1]!.value, points[k]!.value, oscillates(a.verdict), options);
+  }
+  return { analysis: "sweep", target: analysis.target, log: analysis.log, points, threshold };
+}
+
+function bisectThreshold(
+  build: CircuitBuilder,
+  analysis: SweepAnalysis,
+  lo: number,
+  hi: number,
+  loOscillates: boolean,
+  options: SweepOptions,
+): StartThreshold {
+  const span = Math.abs(analysis.to - analysis.from);
+  const precision = options.precision ?? (analysis.log ? 1e-3 : 1e-3 * span);
+  const narrow = (a: number, b: number) => (analysis.log ? Math.abs(Math.log(b / a)) < precision : Math.abs(b - a) < precision);
+  const startsAt = (value: number): boolean => {
+    const circuit: Circuit = build({ [analysis.target]: value });
+    const startup = startupAnalysisOf(circuit);
+    if (!startup) return false;
+    return oscillates(runStartup(circuit, startup, options).verdict);
+  };
+  for (let k = 0; k < 40 && !narrow(lo, hi); k++) {
+    const mid = analysis.log ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);
+    if (startsAt(mid) === loOscillates) lo = mid;
+    else hi = mid;
+  }
+  const value = analysis.log ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);
+  const startsAbove = loOscillates ? lo > hi : lo < hi;
+  const nominal = options.nominal ?? null;
+  const margin = nominal === null || value === 0 ? null : ((startsAbove ? 1 : -1) * (nominal - value)) / Math.abs(value);
+  return { value, precision: analysis.log ? value * (Math.sqrt(Math.max(hi, lo) / Math.min(hi, lo)) - 1) : Math.abs(hi - lo) / 2, startsAbove, nominal, margin };
+}

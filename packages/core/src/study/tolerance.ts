@@ -1,0 +1,77 @@
+import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
+import { inputError } from "../circuit/diagnostic.js";
+import type { Tolerances } from "../solver/tolerances.js";
+import { drawSample } from "./draw.js";
+import { createSamplePool, defaultJobs } from "./pool.js";
+import type { ToleranceSample } from "./summary.js";
+
+/** Builds the circuit with some values overridden by name (the elaborator behind it). */
+export type CircuitBuilder = (overrides: Readonly<Record<string, number>>) => Circuit;
+
+/** A slice of the samples: shard `index` (0-based) of `count`. */
+export interface Shard {
+  readonly index: number;
+  readonly count: number;
+}
+
+/** The sample indices of a shard: the contiguous slice [⌊i·N/n⌋, ⌊(i+1)·N/n⌋). */
+export function shardIndices(runs: number, shard: Shard | undefined): number[] {
+  const from = shard ? Math.floor((shard.index * runs) / shard.count) : 0;
+  const to = shard ? Math.floor(((shard.index + 1) * runs) / shard.count) : runs;
+  return Array.from({ length: to - from }, (_, k) => from + k);
+}
+
+export interface ToleranceStudyOptions {
+  /** Worker threads; default the number of cores. */
+  readonly jobs?: number;
+  readonly shard?: Shard;
+  /** Indices already done (resume): skipped. */
+  readonly done?: ReadonlySet<number>;
+  /** Run only these indices (reproduce one sample). */
+  readonly only?: readonly number[];
+  readonly tolerances?: Partial<Tolerances>;
+  /** Overrides applied to every sample before the draws (a sweep value). */
+  readonly fixed?: Readonly<Record<string, number>>;
+  /** Called as each sample finishes, in completion order. */
+  readonly onSample?: (sample: ToleranceSample) => void;
+}
+
+/**
+ * Runs the Monte Carlo samples of a `tolerance` analysis. The values are drawn and elaborated
+ * here; the simulations run on a worker pool. Returns the samples in index order.
+ */
+export async function runToleranceStudy(
+  build: CircuitBuilder,
+  tolerances: readonly ToleranceSpec[],
+  analysis: ToleranceAnalysis,
+  criteria: readonly SpecCriterion[],
+  options: ToleranceStudyOptions = {},
+): Promise<ToleranceSample[]> {
+  if (!(Number.isInteger(analysis.runs) && analysis.runs > 0)) {
+    throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
+  }
+  const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
+  const pool = createSamplePool(Math.min(options.jobs ?? defaultJobs(), Math.max(1, indices.length)), { criteria, tolerances: options.tolerances });
+  const samples: ToleranceSample[] = [];
+  let next = 0;
+  // One lane per worker keeps each busy; in this thread a lane yields between samples so
+  // progress can be drawn and results written as they finish.
+  const lane = async () => {
+    while (next < indices.length) {
+      const index = indices[next++]!;
+      const drawn = drawSample(tolerances, analysis.seed, index, analysis.dist);
+      const circuit = build({ ...options.fixed, ...drawn });
+      const outcome = await pool.run(circuit);
+      const sample: ToleranceSample = { index, drawn, ...outcome };
+      samples.push(sample);
+      options.onSample?.(sample);
+      if (pool.jobs === 1) await new Promise((resolve) => setImmediate(resolve));
+    }
+  };
+  try {
+    await Promise.all(Array.from({ length: pool.jobs }, lane));
+  } finally {
+    await pool.close();
+  }
+  return samples.sort((a, b) => a.index - b.index);
+}

@@ -1,0 +1,65 @@
+import type { SpecCriterion, SweepAnalysis, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
+import { summarizeSamples, type ToleranceSample, type ToleranceSummary } from "./summary.js";
+import { sweepValues } from "./sweep.js";
+import { runToleranceStudy, type CircuitBuilder, type ToleranceStudyOptions } from "./tolerance.js";
+
+export interface WindowPoint {
+  readonly value: number;
+  readonly summary: ToleranceSummary;
+  readonly samples: readonly ToleranceSample[];
+  readonly pass: boolean;
+}
+
+export interface DesignWindow {
+  readonly analysis: "window";
+  readonly target: string;
+  /** The yield the window must meet: the spec's yield criterion, else 99 % (common practice). */
+  readonly required: number;
+  readonly points: readonly WindowPoint[];
+  /** The widest contiguous range of settings whose yield meets the requirement, or null. */
+  readonly window: { readonly from: number; readonly to: number } | null;
+}
+
+/** Yield required when the spec states none. */
+export const DEFAULT_REQUIRED_YIELD = 0.99;
+
+/**
+ * Sweep × tolerance: the tolerance study at every sweep setting, and the range of settings in
+ * which the yield meets the spec — the window a designer should set the trimmer in.
+ */
+export async function runDesignWindow(
+  build: CircuitBuilder,
+  sweep: SweepAnalysis,
+  tolerances: readonly ToleranceSpec[],
+  tolerance: ToleranceAnalysis,
+  criteria: readonly SpecCriterion[],
+  options: ToleranceStudyOptions & { readonly onPoint?: (point: WindowPoint, done: number, total: number) => void } = {},
+): Promise<DesignWindow> {
+  const yieldCriterion = criteria.find((c) => c.metric === "yield");
+  const required = yieldCriterion && yieldCriterion.test !== "within" ? yieldCriterion.limit : DEFAULT_REQUIRED_YIELD;
+  const values = sweepValues(sweep);
+  const points: WindowPoint[] = [];
+  // The swept value overrides its own tolerance: the trimmer is set, not drawn.
+  const drawnTolerances = tolerances.filter((t) => t.target !== sweep.target);
+  for (const value of values) {
+    const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, fixed: { ...options.fixed, [sweep.target]: value } });
+    const summary = summarizeSamples(samples, criteria);
+    const point = { value, summary, samples, pass: summary.yield.value >= required };
+    points.push(point);
+    options.onPoint?.(point, points.length, values.length);
+  }
+  interface Run {
+    from: number;
+    to: number;
+    count: number;
+  }
+  let best: Run | null = null;
+  let current: Run | null = null;
+  for (const p of points) {
+    if (p.pass) {
+      current = current ? { from: current.from, to: p.value, count: current.count + 1 } : { from: p.value, to: p.value, count: 1 };
+      if (!best || current.count > best.count) best = current;
+    } else current = null;
+  }
+  return { analysis: "window", target: sweep.target, required, points, window: best ? { from: best.from, to: best.to } : null };
+}
