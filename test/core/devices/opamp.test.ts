@@ -36,8 +36,9 @@ describe("op-amp macromodel", () => {
     ];
     const up = runBias(circuit(parts(0.5)), { kind: "bias" }).nodes.find((n) => n.node === "o")!.voltage;
     const down = runBias(circuit(parts(-0.5)), { kind: "bias" }).nodes.find((n) => n.node === "o")!.voltage;
-    // 75 Ω output resistance into 10 kΩ drops 0.75 %; the knee rounds the limit by a few widths.
-    expect(up).toBeLessThan(10.5 * (10e3 / 10075) + 0.001);
+    // 75 Ω output resistance into 10 kΩ drops 0.75 %; fully overdriven, the clamp balances
+    // about half a knee width past the limit (see opamp.ts), and the knee rounds it below.
+    expect(up).toBeLessThan(10.5 * (10e3 / 10075) + 10e-3);
     expect(up).toBeGreaterThan(10.5 * (10e3 / 10075) - 0.1);
     expect(down).toBeCloseTo(-up, 9);
   });

@@ -29,6 +29,7 @@ export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
     adddQ(row, col, value) {
       if (row >= 0 && col >= 0) C[row * n + col] += value;
     },
+    requestJacobian() {},
   };
   for (const device of system.nonlinear) device.load(x, load);
   return { n, G, C };

@@ -104,6 +104,7 @@ export class TransientStepper {
       this.consistentStart();
     }
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
+    this.solver.chordLimit = Infinity;
     this.nextBreak = this.findBreakpoint(0);
     this.collectSolverCounts();
   }
@@ -205,10 +206,14 @@ export class TransientStepper {
     return ratio;
   }
 
-  /** Linear extrapolation from the last two history points as the Newton starting guess. */
+  /**
+   * The Newton starting guess: the polynomial through the last three history points (two just
+   * after a breakpoint), extrapolated to tNew, so the first update is small.
+   */
   private predict(tNew: number): void {
     const { n, xNew } = this;
-    if (this.historyCount < 2) {
+    const count = this.historyCount;
+    if (count < 2) {
       xNew.set(this.x);
       return;
     }
@@ -216,8 +221,18 @@ export class TransientStepper {
     const t1 = this.historyTimes[this.slot(1)]!;
     const x0 = this.historyValues[this.slot(0)]!;
     const x1 = this.historyValues[this.slot(1)]!;
-    const s = (tNew - t0) / (t0 - t1);
-    for (let i = 0; i < n; i++) xNew[i] = x0[i]! + s * (x0[i]! - x1[i]!);
+    if (count < 3) {
+      const s = (tNew - t0) / (t0 - t1);
+      for (let i = 0; i < n; i++) xNew[i] = x0[i]! + s * (x0[i]! - x1[i]!);
+      return;
+    }
+    const t2 = this.historyTimes[this.slot(2)]!;
+    const x2 = this.historyValues[this.slot(2)]!;
+    // Lagrange weights of the quadratic through (t0, x0), (t1, x1), (t2, x2) at tNew.
+    const w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
+    const w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
+    const w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
+    for (let i = 0; i < n; i++) xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
   }
 
   private collectSolverCounts(): void {

@@ -43,6 +43,11 @@ export interface NonlinearLoad {
   addQ(row: number, value: number): void;
   /** Adds ∂q_row/∂x_col. */
   adddQ(row: number, col: number, value: number): void;
+  /**
+   * On an iteration that reuses the factorisation, a device whose slopes have moved far from
+   * those it last stamped asks for a fresh Jacobian; the iteration is then redone with one.
+   */
+  requestJacobian(): void;
 }
 
 /** An independent excitation: adds its value at time `t` to the source vector. */

@@ -100,6 +100,8 @@ export const diode: DeviceModel = {
     const c = cathode;
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
     const state: JunctionState = { current: 0, conductance: 0 };
+    // Conductance in the last factored Jacobian, to tell when a reused one has gone stale.
+    let stamped = 0;
     const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
     return {
       part,
@@ -115,13 +117,14 @@ export const diode: DeviceModel = {
           junctionCurrent(vd, is, nvt, state);
           out.addF(a, state.current);
           out.addF(c, -state.current);
+          const g = state.conductance;
           if (out.jacobian) {
-            const g = state.conductance;
             out.adddF(a, a, g);
             out.adddF(a, c, -g);
             out.adddF(c, a, -g);
             out.adddF(c, c, g);
-          }
+            stamped = g;
+          } else if (Math.abs(g - stamped) > 0.2 * Math.max(g, stamped) + 1e3 * JUNCTION_LEAK) out.requestJacobian();
           if (cj0 > 0) {
             junctionCharge(vd, cj0, state);
             out.addQ(a, state.current);

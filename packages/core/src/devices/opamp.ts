@@ -61,7 +61,7 @@ export interface OpampConstants {
   readonly gm: number;
   /** Largest input-stage current (slew·C), Infinity without a slew limit. */
   readonly iMax: number;
-  /** Clamp conductance beyond the limits. */
+  /** Clamp conductance beyond the limits (A/V). */
   readonly gClamp: number;
   readonly knee: number;
   readonly headroom: number;
@@ -93,7 +93,10 @@ export function opampConstants(part: PartSpec): OpampConstants {
     cPole,
     gm,
     iMax: Number.isFinite(slew) ? slew * cPole : Infinity,
-    gClamp: gm * Math.max(1e3, 100 / knee),
+    // Sized so that the largest drive (the slew current, else g·1 V) is balanced about half a
+    // knee width past the limit: the clamp is steep on the scale of the knee, yet its Newton
+    // iterations stay out of the far exponential tail where each one gains only one width.
+    gClamp: (Number.isFinite(slew) ? slew * cPole : gm * 1) / knee,
     knee,
     headroom: num("headroom"),
     rout: num("rout"),
@@ -108,7 +111,8 @@ export function opampConstants(part: PartSpec): OpampConstants {
  *   C·dx/dt + x/R + i_clamp(x) = i_in(vd),  vd = v(plus) − v(minus) + vos,
  * with i_in = g·vd (or I_max·tanh(g·vd/I_max) under a slew limit, which bounds dx/dt at the
  * slew rate), and the output is x behind `rout`. The clamp is a softplus conductance beyond each
- * limit (rail ∓ headroom), so x itself, not only the output, stays at the limit: there is no
+ * limit (rail ∓ headroom), so x itself, not only the output, stays at the limit (fully
+ * overdriven, about half a knee width past it; lightly, a few widths inside): there is no
  * integrator wind-up, and the output leaves the rail as soon as the input turns. At the bias
  * point inside the limits the clamp's slope is below 1e-300 and tanh′(0) = 1, so the
  * linearised model is exactly the single-pole amplifier gain/(1 + s·gain/(2π·gbw)).
@@ -151,6 +155,10 @@ export const opamp: DeviceModel = {
     const k = opampConstants(part);
     const slewLimited = Number.isFinite(k.iMax);
     const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
+    // Slopes in the last factored Jacobian, to tell when a reused one has gone stale.
+    let stampedClamp = 0;
+    let stampedInput = k.gm;
+    const moved = (now: number, then: number) => Math.abs(now - then) > 0.2 * Math.max(Math.abs(now), Math.abs(then)) + 1e-3 * k.gm;
     return {
       part,
       stampLinear(s) {
@@ -183,24 +191,26 @@ export const opamp: DeviceModel = {
           const w = k.knee;
           const g = k.gClamp;
           o.addF(p, g * (softplus(xp - hi, w) - softplus(lo - xp, w)));
+          const sHi = g * logistic(xp - hi, w);
+          const sLo = g * logistic(lo - xp, w);
           if (o.jacobian) {
-            const sHi = g * logistic(xp - hi, w);
-            const sLo = g * logistic(lo - xp, w);
             o.adddF(p, p, sHi + sLo);
             if (supply) {
               o.adddF(p, pos, -sHi);
               o.adddF(p, neg, -sLo);
             }
-          }
+            stampedClamp = sHi + sLo;
+          } else if (moved(sHi + sLo, stampedClamp)) o.requestJacobian();
           if (slewLimited) {
             const vd = v(x, plus) - v(x, minus) + k.vos;
             const t = Math.tanh((k.gm * vd) / k.iMax);
             o.addF(p, -k.iMax * t);
+            const slope = k.gm * (1 - t * t);
             if (o.jacobian) {
-              const slope = k.gm * (1 - t * t);
               o.adddF(p, plus, -slope);
               o.adddF(p, minus, slope);
-            }
+              stampedInput = slope;
+            } else if (moved(slope, stampedInput)) o.requestJacobian();
           }
         },
       },

@@ -37,6 +37,12 @@ export class NewtonSolver {
   readonly qNonlinear: Float64Array;
   /** Conductance to ground added on every node row (gmin stepping). */
   gmin = 0;
+  /**
+   * Largest scaled update after which the next iteration may still reuse the Jacobian. Finite
+   * for the bias point, which starts far from the solution; a transient step starts from a
+   * prediction, where a stale Jacobian is refreshed only when the iteration stops contracting.
+   */
+  chordLimit = CHORD_NEAR;
   factorizations = 0;
   iterations = 0;
 
@@ -45,7 +51,7 @@ export class NewtonSolver {
   private readonly lu: LuSolver;
   private readonly residual: Float64Array;
   private readonly update: Float64Array;
-  private readonly load: NonlinearLoad & { jacobian: boolean };
+  private readonly load: NonlinearLoad & { jacobian: boolean; requested: boolean };
   private readonly tol: Float64Array;
   private baseValid = false;
   private luValid = false;
@@ -76,6 +82,10 @@ export class NewtonSolver {
     const q = this.qNonlinear;
     this.load = {
       jacobian: false,
+      requested: false,
+      requestJacobian() {
+        this.requested = true;
+      },
       addF(row, value) {
         if (row >= 0) r[row] += value;
       },
@@ -94,8 +104,14 @@ export class NewtonSolver {
     };
   }
 
-  /** Sets the per-row integration coefficients; call `invalidate` when they change. */
+  private lastUniform = Number.NaN;
+  private lastBackwardEuler = Number.NaN;
+
+  /** Sets the per-row integration coefficients; the matrix is rebuilt when they change. */
   setCoefficients(uniform: number, backwardEuler: number): void {
+    if (uniform === this.lastUniform && backwardEuler === this.lastBackwardEuler) return;
+    this.lastUniform = uniform;
+    this.lastBackwardEuler = backwardEuler;
     const rows = this.system.backwardEulerRows;
     let changed = false;
     for (let i = 0; i < this.n; i++) {
@@ -112,6 +128,7 @@ export class NewtonSolver {
   invalidate(): void {
     this.baseValid = false;
     this.luValid = false;
+    this.lastUniform = Number.NaN;
   }
 
   /** Asks for a fresh Jacobian at the next iteration. */
@@ -158,6 +175,25 @@ export class NewtonSolver {
     }
   }
 
+  // One outcome object, reused: a solve runs every time step and must not allocate.
+  private readonly outcome: NewtonOutcome = { converged: false, iterations: 0, worst: 0 };
+
+  private finish(converged: boolean, iterations: number, worst: number): NewtonOutcome {
+    const o = this.outcome;
+    o.converged = converged;
+    o.iterations = iterations;
+    o.worst = worst;
+    return o;
+  }
+
+  private loadDevices(x: Float64Array, jacobian: boolean): void {
+    const load = this.load;
+    this.qNonlinear.fill(0);
+    load.jacobian = jacobian;
+    load.requested = false;
+    for (const device of this.system.nonlinear) device.load(x, load);
+  }
+
   private factor(): void {
     if (!this.lu.factor(this.matrix)) {
       const label = this.system.unknowns[this.lu.singularColumn]?.label ?? "?";
@@ -180,20 +216,24 @@ export class NewtonSolver {
     let worst = 0;
     for (let iter = 1; iter <= maxIterations; iter++) {
       this.iterations++;
-      const rebuild = !this.luValid;
+      let rebuild = !this.luValid;
       this.linearResidual(x);
       if (rebuild) this.matrix.set(this.base);
       if (!this.linear) {
-        this.qNonlinear.fill(0);
-        load.jacobian = rebuild;
-        for (const device of system.nonlinear) device.load(x, load);
+        this.loadDevices(x, rebuild);
+        if (!rebuild && load.requested) {
+          rebuild = true;
+          this.linearResidual(x);
+          this.matrix.set(this.base);
+          this.loadDevices(x, true);
+        }
       }
       if (rebuild) this.factor();
       this.lu.solve(r, dx);
       if (this.linear) {
         // One solve is exact for a linear system: x ← x − M⁻¹·r.
         for (let i = 0; i < n; i++) x[i] -= dx[i]!;
-        return { converged: true, iterations: iter, worst };
+        return this.finish(true, iter, worst);
       }
       for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
       let lambda = 1;
@@ -216,13 +256,13 @@ export class NewtonSolver {
           worst = i;
         }
       }
-      if (norm <= 1 && lambda === 1) return { converged: true, iterations: iter, worst };
-      if (!Number.isFinite(norm)) return { converged: false, iterations: iter, worst };
+      if (norm <= 1 && lambda === 1) return this.finish(true, iter, worst);
+      if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
-      if (norm > CHORD_NEAR || lambda < 1 || (iter > 1 && norm > 0.25 * previousNorm)) this.luValid = false;
+      if (norm > this.chordLimit || lambda < 1 || (iter > 1 && norm > 0.3 * previousNorm)) this.luValid = false;
       previousNorm = norm;
     }
-    return { converged: false, iterations: maxIterations, worst };
+    return this.finish(false, maxIterations, worst);
   }
 }
