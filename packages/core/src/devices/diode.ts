@@ -141,9 +141,10 @@ export const diode: DeviceModel = {
         limitStep(x, dx) {
           const vOld = v(x, a) - v(x, c);
           const step = v(dx, a) - v(dx, c);
-          if (step === 0) return 1;
-          const limited = limitJunctionVoltage(vOld, vOld + step, nvt, vcrit);
-          const fraction = (limited - vOld) / step;
+          const vNew = vOld + step;
+          // Exactly 1 unless the step is really limited (a ratio of tiny differences is not).
+          if (!(vNew > vcrit && Math.abs(step) > 2 * nvt)) return 1;
+          const fraction = (limitJunctionVoltage(vOld, vNew, nvt, vcrit) - vOld) / step;
           return fraction > 0 && fraction < 1 ? fraction : 1;
         },
       },
