@@ -11,6 +11,7 @@
 /** Power-basis coefficients c0 + c1·u + c2·u² + c3·u³ of the cubic on one interval, u ∈ [0, 1]. */
 export type CubicCoefficients = Float64Array;
 
+/** A coefficient buffer, allocated once per caller and refilled per interval. */
 export function cubicScratch(): CubicCoefficients {
   return new Float64Array(4);
 }
@@ -37,29 +38,18 @@ export function cubicOnInterval(t: Float64Array, v: Float64Array, i: number, c: 
   const d012 = (d12 - d01) / (x2 - x0);
   const d123 = (d23 - d12) / (x3 - x1);
   const d0123 = (d123 - d012) / (x3 - x0);
-  // Expand y0 + d01(u−x0) + d012(u−x0)(u−x1) + d0123(u−x0)(u−x1)(u−x2) by nested products.
-  let a3 = 0;
-  let a2 = 0;
-  let a1 = 0;
-  let a0 = d0123;
-  // q ← q·(u − x2) + d012
-  a1 = a0;
-  a0 = -x2 * a0 + d012;
-  // q ← q·(u − x1) + d01
-  a2 = a1;
-  a1 = a0 - x1 * a1;
-  a0 = -x1 * a0 + d01;
-  // q ← q·(u − x0) + y0
-  a3 = a2;
-  a2 = a1 - x0 * a2;
-  a1 = a0 - x0 * a1;
-  a0 = -x0 * a0 + y0;
-  c[0] = a0;
-  c[1] = a1;
-  c[2] = a2;
-  c[3] = a3;
+  // Expand y0 + d01(u−x0) + d012(u−x0)(u−x1) + d0123(u−x0)(u−x1)(u−x2) from the innermost
+  // factor out: q = d0123·u + p0, then q·(u − x1) + d01 = d0123·u² + q1·u + q0.
+  const p0 = d012 - x2 * d0123;
+  const q1 = p0 - x1 * d0123;
+  const q0 = d01 - x1 * p0;
+  c[3] = d0123;
+  c[2] = q1 - x0 * d0123;
+  c[1] = q0 - x0 * q1;
+  c[0] = y0 - x0 * q0;
 }
 
+/** The cubic's value at u. */
 export function cubicValue(c: CubicCoefficients, u: number): number {
   return c[0] + u * (c[1] + u * (c[2] + u * c[3]));
 }
@@ -69,34 +59,31 @@ function cubicSlope(c: CubicCoefficients, u: number): number {
 }
 
 /**
- * The u ∈ [0, 1] where the cubic equals `level`, given that it lies on opposite sides (or on)
- * at the two ends. Newton steps kept inside a shrinking bracket, falling back to bisection.
+ * The u in [`lo`, `hi`] ⊆ [0, 1] where the cubic equals `level`, given that it lies on opposite
+ * sides of it (or on it) at the two ends. Newton steps kept inside a shrinking bracket, falling
+ * back to bisection.
  */
-export function cubicLevelCrossing(c: CubicCoefficients, level: number): number {
-  let lo = 0;
-  let hi = 1;
-  let flo = c[0] - level;
-  const fhi = cubicValue(c, 1) - level;
-  if (flo === 0) return 0;
-  if (fhi === 0) return 1;
+export function cubicLevelCrossing(c: CubicCoefficients, level: number, lo = 0, hi = 1): number {
+  let flo = cubicValue(c, lo) - level;
+  const fhi = cubicValue(c, hi) - level;
+  if (flo === 0) return lo;
+  if (fhi === 0) return hi;
   // Linear guess: exact when the samples lie on a straight line.
-  let u = flo / (flo - fhi);
-  if (!(u > 0 && u < 1)) u = 0.5;
+  let u = lo + (flo / (flo - fhi)) * (hi - lo);
+  if (!(u > lo && u < hi)) u = 0.5 * (lo + hi);
   for (let iter = 0; iter < 60; iter++) {
     const f = cubicValue(c, u) - level;
     if (f === 0) return u;
-    if ((f < 0) === (flo < 0)) {
+    if (f < 0 === flo < 0) {
       lo = u;
       flo = f;
     } else {
       hi = u;
     }
-    const slope = cubicSlope(c, u);
-    let next = u - f / slope;
+    let next = u - f / cubicSlope(c, u);
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - u) <= 1e-15) return next;
+    if (Math.abs(next - u) <= 1e-15 || hi - lo <= 1e-15) return next;
     u = next;
-    if (hi - lo <= 1e-15) break;
   }
   return u;
 }

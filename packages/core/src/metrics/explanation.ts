@@ -1,0 +1,59 @@
+import type { CycleTable } from "./cycles.js";
+import type { TailTrend } from "./envelope-trend.js";
+import { formatPercent, formatQuantity, formatRate } from "./format.js";
+import type { StartupSettings } from "./startup-options.js";
+import { MIN_CYCLES, SILENT_RATIO } from "./verdict.js";
+import type { SilentReason, TrendReason } from "./verdict.js";
+
+// One line per verdict for the report; numbers with SI prefixes, changes per cycle in percent.
+
+export function explainSilent(cycles: CycleTable, reason: SilentReason, settings: StartupSettings): string {
+  if (reason.kind === "below-noise-floor") {
+    return (
+      `no oscillation: the envelope never exceeded ${SILENT_RATIO}× the noise floor ` +
+      `(largest ${formatQuantity(reason.largest, "V")} peak against ${formatQuantity(settings.noiseFloor, "V")})`
+    );
+  }
+  if (cycles.count === 0) return "no oscillation: the probe makes no complete cycle through its mean";
+  const plural = cycles.count === 1 ? "" : "s";
+  return `no oscillation: only ${cycles.count} complete cycle${plural} in the record (at least ${MIN_CYCLES} needed)`;
+}
+
+export function explainSettled(amplitude: number, frequency: number, startupTime: number | null, settings: StartupSettings): string {
+  return (
+    `settled at ${formatQuantity(amplitude, "V")} peak and ${formatQuantity(frequency, "Hz")}` +
+    (startupTime === null ? "" : `, 90 % reached at ${formatQuantity(startupTime, "s")}`) +
+    `; envelope steady within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
+  );
+}
+
+export function explainGrowing(trend: TailTrend, period: number, extraTime: number): string {
+  return (
+    `still growing at the end: envelope ${formatPercent(Math.expm1(trend.meanLogChange), true)}/cycle ` +
+    `(σ ≈ ${formatRate(trend.meanLogChange / period)}); run about ${formatQuantity(extraTime, "s")} longer`
+  );
+}
+
+export function explainDecaying(trend: TailTrend, growthRate: number | null): string {
+  return (
+    `no oscillation: the envelope dies away, ${formatPercent(Math.expm1(trend.meanLogChange), true)}/cycle` +
+    (growthRate === null ? "" : ` (σ ≈ ${formatRate(growthRate)})`)
+  );
+}
+
+export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend: TailTrend, settings: StartupSettings): string {
+  if (reason.kind === "too-short-to-judge") {
+    return `only ${cycles.count} cycles: too few to judge settling (need ${settings.settleCycles + 1}); run longer`;
+  }
+  const limit = `settled needs under ${formatPercent(settings.settleTolerance)}`;
+  if (reason.kind === "relaxing") {
+    return (
+      `amplitude still relaxing after its peak: envelope ${formatPercent(Math.expm1(trend.meanLogChange), true)}/cycle ` +
+      `over the last ${trend.changes} cycles (${limit}); run longer`
+    );
+  }
+  return (
+    `amplitude still wandering: envelope changes up to ${formatPercent(trend.largestChange)}/cycle ` +
+    `over the last ${trend.changes} cycles (${limit})`
+  );
+}

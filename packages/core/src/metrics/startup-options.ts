@@ -1,0 +1,81 @@
+/** Options of {@link measureStartup}. */
+export interface StartupMetricsOptions {
+  /**
+   * Peak level (V) that the kick or the injected noise leaves at the probe. An envelope that
+   * never rises above twice this is `silent`; the hysteresis band and the growth-fit floor are
+   * kept above it.
+   * @defaultValue 0
+   */
+  readonly noiseFloor?: number;
+  /**
+   * Half-width (V) of the band around the mean that a rising crossing must clear.
+   * @defaultValue the largest of `noiseFloor`, 1e-3 of the half swing over the last half of the
+   * record, and 1e-9 of the largest |v| (so rounding noise on a DC level makes no cycles)
+   */
+  readonly hysteresis?: number;
+  /**
+   * Highest harmonic in `thd` and `harmonics`.
+   * @defaultValue 10
+   */
+  readonly maxOrder?: number;
+  /**
+   * Cycles over which settling is judged and the settled quantities are measured.
+   * @defaultValue 10
+   */
+  readonly settleCycles?: number;
+  /**
+   * Largest relative envelope change per cycle that still counts as settled.
+   * @defaultValue 0.001
+   */
+  readonly settleTolerance?: number;
+  /**
+   * The largest envelope (V peak) the circuit could reach, e.g. half its supply span. Used only
+   * to estimate how much longer a signal still growing exponentially needs; without it one more
+   * decade of growth is assumed.
+   */
+  readonly amplitudeLimit?: number;
+}
+
+/** Options with defaults filled in and checked. */
+export interface StartupSettings {
+  readonly noiseFloor: number;
+  readonly hysteresis: number | undefined;
+  readonly maxOrder: number;
+  readonly settleCycles: number;
+  readonly settleTolerance: number;
+  readonly amplitudeLimit: number | undefined;
+}
+
+function positiveOrZero(name: string, value: number): number {
+  if (!(value >= 0) || !Number.isFinite(value)) {
+    throw new RangeError(`measureStartup: ${name} must be a finite number >= 0 (got ${value})`);
+  }
+  return value;
+}
+
+export function resolveStartupOptions(options: StartupMetricsOptions): StartupSettings {
+  const maxOrder = options.maxOrder ?? 10;
+  if (!(Number.isInteger(maxOrder) && maxOrder >= 1)) {
+    throw new RangeError(`measureStartup: maxOrder must be a whole number >= 1 (got ${maxOrder})`);
+  }
+  const settleCycles = options.settleCycles ?? 10;
+  if (!(Number.isInteger(settleCycles) && settleCycles >= 2)) {
+    throw new RangeError(`measureStartup: settleCycles must be a whole number >= 2 (got ${settleCycles})`);
+  }
+  const settleTolerance = options.settleTolerance ?? 0.001;
+  if (!(settleTolerance > 0 && settleTolerance < 1)) {
+    throw new RangeError(`measureStartup: settleTolerance must lie between 0 and 1 (got ${settleTolerance})`);
+  }
+  const amplitudeLimit = options.amplitudeLimit;
+  if (amplitudeLimit !== undefined && !(amplitudeLimit > 0 && Number.isFinite(amplitudeLimit))) {
+    throw new RangeError(`measureStartup: amplitudeLimit must be a positive voltage (got ${amplitudeLimit})`);
+  }
+  return {
+    noiseFloor: positiveOrZero("noiseFloor", options.noiseFloor ?? 0),
+    hysteresis: options.hysteresis === undefined ? undefined : positiveOrZero("hysteresis", options.hysteresis),
+    maxOrder,
+    settleCycles,
+    settleTolerance,
+    amplitudeLimit,
+  };
+}

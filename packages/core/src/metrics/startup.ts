@@ -1,0 +1,221 @@
+import { centreLevel } from "./centre-level.js";
+import { findRisingCrossings } from "./crossings.js";
+import { cyclesBetween } from "./cycles.js";
+import type { CycleTable } from "./cycles.js";
+import { firstExcursion } from "./excursion.js";
+import { explainDecaying, explainGrowing, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
+import { startupGrowthRate } from "./growth-rate.js";
+import { analyseCycles } from "./harmonic-analysis.js";
+import { crossingsPerPeriod, periodCrossings } from "./period-grouping.js";
+import { lastHalfStatistics } from "./record-statistics.js";
+import type { RecordStatistics } from "./record-statistics.js";
+import { extraRunCycles } from "./run-longer.js";
+import { settlingTime } from "./settling.js";
+import type { Harmonic } from "./spectrum.js";
+import { resolveStartupOptions } from "./startup-options.js";
+import type { StartupMetricsOptions, StartupSettings } from "./startup-options.js";
+import { judgeEnvelope } from "./verdict.js";
+import type { StartupVerdict } from "./verdict.js";
+import { checkWaveform } from "./waveform-check.js";
+
+/** The start-up report's numbers and verdict for one probe waveform (SI units throughout). */
+export interface StartupMetrics {
+  readonly verdict: StartupVerdict;
+  /** One line for the report. */
+  readonly explanation: string;
+  /** Hz: mean of 1/period over the measured cycles. */
+  readonly frequency: number | null;
+  /** Hz: sample standard deviation of 1/period over the same cycles. */
+  readonly frequencySpread: number | null;
+  /** V peak: the settled envelope; otherwise the last cycle's envelope. */
+  readonly amplitude: number | null;
+  /** V: largest cycle maximum minus smallest cycle minimum over the measured cycles. */
+  readonly peakToPeak: number | null;
+  /** V: r.m.s. over the measured cycles, the offset included. */
+  readonly rms: number | null;
+  /** V: mean over the measured cycles. */
+  readonly offset: number | null;
+  /** s: first time |v − offset| reaches 90 % of the settled amplitude (settled only). */
+  readonly startupTime: number | null;
+  /** s: time after which the per-cycle envelope stays within ±1 % of it (settled only). */
+  readonly settlingTime: number | null;
+  /** 1/s: exponential growth rate σ of the small-signal envelope (negative when decaying). */
+  readonly growthRate: number | null;
+  /** THD_F over harmonics 2 … maxOrder, a fraction (settled only). */
+  readonly thd: number | null;
+  /** Harmonics 1 … maxOrder of the settled cycles; empty unless settled. */
+  readonly harmonics: Harmonic[];
+  /** Complete cycles in the whole record. */
+  readonly cycles: number;
+  /** s: roughly how much longer to run a `growing` record before it can settle. */
+  readonly suggestedExtraTime?: number;
+  /** Per-cycle envelope against cycle mid-time, for plots. */
+  readonly envelope: { readonly time: Float64Array; readonly value: Float64Array };
+}
+
+/** Fraction of the settled amplitude that marks start-up. */
+const STARTUP_FRACTION = 0.9;
+/** Default hysteresis parts, relative to the late half swing and to the largest |v|. */
+const RELATIVE_HYSTERESIS = 1e-3;
+const ROUNDING_HYSTERESIS = 1e-9;
+
+function hysteresisFor(v: Float64Array, tail: RecordStatistics, settings: StartupSettings): number {
+  if (settings.hysteresis !== undefined) return settings.hysteresis;
+  let largest = 0;
+  for (let i = 0; i < v.length; i++) largest = Math.max(largest, Math.abs(v[i]));
+  return Math.max(
+    settings.noiseFloor,
+    RELATIVE_HYSTERESIS * 0.5 * (tail.maximum - tail.minimum),
+    ROUNDING_HYSTERESIS * largest,
+  );
+}
+
+// Whole periods: crossing-to-crossing cycles, regrouped when a period holds several crossings.
+function periodsThrough(t: Float64Array, v: Float64Array, level: number, hysteresis: number, window: number): CycleTable {
+  const crossings = findRisingCrossings(t, v, level, hysteresis);
+  const cycles = cyclesBetween(t, v, crossings);
+  const m = crossingsPerPeriod(cycles, window);
+  return m === 1 ? cycles : cyclesBetween(t, v, periodCrossings(crossings, m, window));
+}
+
+// Periods through the centre of the last (up to) settleCycles periods: a first pass through the
+// mean of the record's last half finds those periods, a second pass uses their centre level
+// (their mean when the envelope is steady). Over whole periods that level does not depend on
+// where they start, so a further pass would not move it.
+function measuredCycles(t: Float64Array, v: Float64Array, tail: RecordStatistics, hysteresis: number, window: number): CycleTable {
+  const first = periodsThrough(t, v, tail.mean, hysteresis, window);
+  if (first.count === 0) return first;
+  const level = centreLevel(t, v, first, Math.min(window, first.count));
+  return periodsThrough(t, v, level, hysteresis, window);
+}
+
+/** Frequency, its spread and extremes over cycles `from … count − 1`. */
+function windowFigures(cycles: CycleTable, from: number) {
+  const n = cycles.count;
+  const w = n - from;
+  let sum = 0;
+  let envelopeSum = 0;
+  let maximum = -Infinity;
+  let minimum = Infinity;
+  for (let k = from; k < n; k++) {
+    sum += 1 / (cycles.start[k + 1] - cycles.start[k]);
+    envelopeSum += cycles.envelope[k];
+    maximum = Math.max(maximum, cycles.maximum[k]);
+    minimum = Math.min(minimum, cycles.minimum[k]);
+  }
+  const frequency = sum / w;
+  let deviations = 0;
+  for (let k = from; k < n; k++) deviations += (1 / (cycles.start[k + 1] - cycles.start[k]) - frequency) ** 2;
+  return {
+    frequency,
+    frequencySpread: w > 1 ? Math.sqrt(deviations / (w - 1)) : 0,
+    meanEnvelope: envelopeSum / w,
+    peakToPeak: maximum - minimum,
+  };
+}
+
+/**
+ * Start-up metrics of one probe waveform sampled at the solver's accepted time points
+ * (strictly increasing, any spacing, about 30 or more samples per period).
+ *
+ * Cycles are delimited by rising crossings through the mean of the last `settleCycles` cycles
+ * (weighted by the inverse envelope while it grows or decays, see `centreLevel`), with a
+ * hysteresis band (see {@link StartupMetricsOptions.hysteresis}); when the waveform's tail
+ * shows a period holding m > 1 such crossings, every m-th one delimits a cycle (see
+ * `crossingsPerPeriod`). Crossing times and cycle extremes come from the local cubic through
+ * four samples. The verdict follows
+ * `judgeEnvelope`. The measured cycles are the last `settleCycles` (fewer if the record has
+ * fewer): frequency, spread, peak-to-peak, r.m.s. and offset come from them whatever the
+ * verdict; THD, harmonics, start-up and settling times only when `settled`. A `silent` record
+ * reports only the trapezoidal offset, r.m.s. and peak-to-peak of its last half.
+ *
+ * Growth rate: see `startupGrowthRate` (a least-squares line through ln(envelope) between
+ * max(10·noiseFloor, 10⁻³·final) and 30 % of the final envelope). "Final" is the settled
+ * amplitude, the mean envelope of the measured cycles when `unsettled`, or the largest
+ * envelope when `growing`.
+ *
+ * Start-up time is resolved on the signal itself (the first moment |v − offset| reaches
+ * 0.9·amplitude, where the signal touches its envelope); settling time on the per-cycle
+ * envelope (see `settlingTime`).
+ */
+export function measureStartup(t: Float64Array, v: Float64Array, options: StartupMetricsOptions = {}): StartupMetrics {
+  checkWaveform("measureStartup", t, v);
+  const settings = resolveStartupOptions(options);
+  const tail = lastHalfStatistics(t, v);
+  const cycles = measuredCycles(t, v, tail, hysteresisFor(v, tail, settings), settings.settleCycles);
+  const judgement = judgeEnvelope(cycles, settings);
+  const envelope = { time: cycles.midTime, value: cycles.envelope };
+  const n = cycles.count;
+
+  if (judgement.verdict === "silent") {
+    return {
+      verdict: "silent",
+      explanation: explainSilent(cycles, judgement.reason, settings),
+      frequency: null,
+      frequencySpread: null,
+      amplitude: null,
+      peakToPeak: tail.maximum - tail.minimum,
+      rms: tail.rms,
+      offset: tail.mean,
+      startupTime: null,
+      settlingTime: null,
+      growthRate: null,
+      thd: null,
+      harmonics: [],
+      cycles: n,
+      envelope,
+    };
+  }
+
+  const { verdict, trend } = judgement;
+  const from = n - Math.min(settings.settleCycles, n);
+  const figures = windowFigures(cycles, from);
+  const analysis = analyseCycles(t, v, cycles.start[from], cycles.start[n], n - from, settings.maxOrder, figures.frequency);
+  const settled = verdict === "settled";
+  let largest = 0;
+  for (let k = 0; k < n; k++) largest = Math.max(largest, cycles.envelope[k]);
+  const amplitude = settled ? figures.meanEnvelope : cycles.envelope[n - 1];
+  const growthRate = startupGrowthRate(cycles, verdict, verdict === "growing" ? largest : figures.meanEnvelope, settings);
+  const period = 1 / figures.frequency;
+
+  let explanation: string;
+  let startupTime: number | null = null;
+  let settling: number | null = null;
+  let suggestedExtraTime: number | undefined;
+  switch (verdict) {
+    case "settled":
+      startupTime = firstExcursion(t, v, analysis.offset, STARTUP_FRACTION * amplitude);
+      settling = settlingTime(cycles, amplitude);
+      explanation = explainSettled(amplitude, figures.frequency, startupTime, settings);
+      break;
+    case "growing":
+      suggestedExtraTime = extraRunCycles(cycles.envelope, trend, settings) * period;
+      explanation = explainGrowing(trend, period, suggestedExtraTime);
+      break;
+    case "decaying":
+      explanation = explainDecaying(trend, growthRate);
+      break;
+    case "unsettled":
+      explanation = explainUnsettled(cycles, judgement.reason, trend, settings);
+      break;
+  }
+
+  const result: StartupMetrics = {
+    verdict,
+    explanation,
+    frequency: figures.frequency,
+    frequencySpread: figures.frequencySpread,
+    amplitude,
+    peakToPeak: figures.peakToPeak,
+    rms: analysis.rms,
+    offset: analysis.offset,
+    startupTime,
+    settlingTime: settling,
+    growthRate,
+    thd: settled ? analysis.thd : null,
+    harmonics: settled ? analysis.harmonics : [],
+    cycles: n,
+    envelope,
+  };
+  return suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime };
+}

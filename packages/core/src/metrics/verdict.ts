@@ -1,0 +1,99 @@
+import type { CycleTable } from "./cycles.js";
+import { tailTrend } from "./envelope-trend.js";
+import type { TailTrend } from "./envelope-trend.js";
+import type { StartupSettings } from "./startup-options.js";
+
+/** What the start-up record shows. */
+export type StartupVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled";
+
+/** Fewest complete cycles for anything but `silent`. */
+export const MIN_CYCLES = 3;
+/** An envelope that never exceeds this multiple of the noise floor is `silent`. */
+export const SILENT_RATIO = 2;
+/** Share of the tail's cycle-to-cycle changes that must go one way for `growing` or `decaying`. */
+export const TREND_CONSISTENCY = 0.8;
+/** `decaying` also needs the last envelope at or below this fraction of the largest one… */
+export const DECAY_LOSS = 0.5;
+/** …or the record never to have grown: no envelope above this multiple of the first one. */
+export const NO_GROWTH = 1.1;
+
+/** Why a record is `silent`. */
+export type SilentReason =
+  | { readonly kind: "too-few-cycles" }
+  | { readonly kind: "below-noise-floor"; readonly largest: number };
+
+/**
+ * Why an oscillating record got its verdict: its trend; for `unsettled`, also too few cycles to
+ * judge settling, or a steady fall after the envelope's peak that is not a decay (the recovery
+ * from an overshoot).
+ */
+export type TrendReason =
+  | { readonly kind: "trend" }
+  | { readonly kind: "too-short-to-judge" }
+  | { readonly kind: "relaxing" };
+
+/**
+ * A verdict, why, and the trend over the last min(settleCycles, cycles − 1) changes (absent
+ * only when there were too few cycles for one).
+ */
+export type Judgement =
+  | { readonly verdict: "silent"; readonly reason: SilentReason; readonly trend: TailTrend | null }
+  | { readonly verdict: Exclude<StartupVerdict, "silent">; readonly reason: TrendReason; readonly trend: TailTrend };
+
+/**
+ * The verdict from the per-cycle envelope E_k, checked in this order:
+ * 1. `silent` if there are fewer than {@link MIN_CYCLES} complete cycles;
+ * 2. `decaying` if over the tail ln E falls by more than `settleTolerance` per cycle on average,
+ *    at least {@link TREND_CONSISTENCY} of those changes are falls, and either the last
+ *    envelope is at most {@link DECAY_LOSS} of the largest, or the record never grew (no
+ *    envelope above {@link NO_GROWTH} times the first, and that share of all its changes
+ *    falls). A ring-down above the hysteresis band is thus `decaying` even when it stays under
+ *    twice the noise floor; an amplitude swinging up and down, or an overshoot recovering, is not;
+ * 3. `silent` if a noise floor was given and no envelope exceeds {@link SILENT_RATIO} times it;
+ * 4. `settled` if each of the last `settleCycles` changes is below `settleTolerance` relative
+ *    (which needs `settleCycles + 1` cycles);
+ * 5. `growing` if ln E rises by more than `settleTolerance` per cycle on average over the tail
+ *    with at least {@link TREND_CONSISTENCY} of the changes rises;
+ * 6. `unsettled` otherwise: too short to tell, relaxing (the tail falls as in 2 and so do that
+ *    share of the changes since the largest envelope), or wandering.
+ */
+export function judgeEnvelope(cycles: CycleTable, settings: StartupSettings): Judgement {
+  const n = cycles.count;
+  if (n < MIN_CYCLES) return { verdict: "silent", reason: { kind: "too-few-cycles" }, trend: null };
+  const envelope = cycles.envelope;
+  const trend = tailTrend(envelope, Math.min(settings.settleCycles, n - 1));
+  const tol = settings.settleTolerance;
+  let largest = envelope[0];
+  let largestAt = 0;
+  let falls = 0;
+  let fallsSincePeak = 0;
+  for (let k = 1; k < n; k++) {
+    if (envelope[k] > largest) {
+      largest = envelope[k];
+      largestAt = k;
+      fallsSincePeak = 0;
+    }
+    if (envelope[k] < envelope[k - 1]) {
+      falls++;
+      fallsSincePeak++;
+    }
+  }
+  const falling = trend.meanLogChange < -tol && trend.fallingFraction >= TREND_CONSISTENCY;
+  const lostMuch = envelope[n - 1] <= DECAY_LOSS * largest;
+  const neverGrew = largest <= NO_GROWTH * envelope[0] && falls >= TREND_CONSISTENCY * (n - 1);
+  if (falling && (lostMuch || neverGrew)) {
+    return { verdict: "decaying", reason: { kind: "trend" }, trend };
+  }
+  if (settings.noiseFloor > 0 && largest <= SILENT_RATIO * settings.noiseFloor) {
+    return { verdict: "silent", reason: { kind: "below-noise-floor", largest }, trend };
+  }
+  if (n >= settings.settleCycles + 1 && trend.largestChange < tol) {
+    return { verdict: "settled", reason: { kind: "trend" }, trend };
+  }
+  if (trend.meanLogChange > tol && trend.risingFraction >= TREND_CONSISTENCY) {
+    return { verdict: "growing", reason: { kind: "trend" }, trend };
+  }
+  if (n < settings.settleCycles + 1) return { verdict: "unsettled", reason: { kind: "too-short-to-judge" }, trend };
+  const relaxing = falling && fallsSincePeak >= TREND_CONSISTENCY * (n - 1 - largestAt);
+  return { verdict: "unsettled", reason: { kind: relaxing ? "relaxing" : "trend" }, trend };
+}
