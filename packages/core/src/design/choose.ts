@@ -1,0 +1,66 @@
+import { E_SERIES, snapToSeries, type SeriesName } from "./eseries.js";
+
+/** A value as written in a circuit file: up to four significant digits and an SI prefix (`13.7k`, `4.7n`). */
+export function writeValue(value: number): string {
+  if (value === 0) return "0";
+  const prefixes: Array<[number, string]> = [
+    [1e12, "T"],
+    [1e9, "G"],
+    [1e6, "M"],
+    [1e3, "k"],
+    [1, ""],
+    [1e-3, "m"],
+    [1e-6, "u"],
+    [1e-9, "n"],
+    [1e-12, "p"],
+    [1e-15, "f"],
+  ];
+  const magnitude = Math.abs(value);
+  const [scale, prefix] = prefixes.find(([s]) => magnitude >= s * 0.99995) ?? prefixes[prefixes.length - 1]!;
+  const mantissa = Number((value / scale).toPrecision(4));
+  return `${mantissa}${prefix}`;
+}
+
+/** The impedance level resistors are aimed at when the capacitor is free (common practice). */
+export const TARGET_RESISTANCE = 10e3;
+/** The band the resistors may land in: large next to an op-amp's output resistance, small next to its input resistance. */
+export const RESISTANCE_BAND: readonly [number, number] = [2e3, 50e3];
+
+/**
+ * A capacitor from the E6 decade values (100 pF … 1 µF) for which the resistor the formula
+ * asks for lies between 2 kΩ and 50 kΩ and, once snapped to `series`, lands the formula's
+ * frequency nearest the target; among near-equal choices (within 0.1 %) the one whose resistor
+ * is nearest 10 kΩ.
+ */
+export function chooseCapacitor(
+  resistanceFor: (c: number) => number,
+  frequencyWith: (r: number, c: number) => number,
+  target: number,
+  series: SeriesName,
+): number {
+  let best = { c: 10e-9, error: Infinity, distance: Infinity };
+  for (let decade = -10; decade <= -7; decade++) {
+    for (const m of E_SERIES.E6) {
+      const c = Number((m * Math.pow(10, decade)).toPrecision(12));
+      const ideal = resistanceFor(c);
+      if (ideal < RESISTANCE_BAND[0] || ideal > RESISTANCE_BAND[1]) continue;
+      const error = Math.abs(frequencyWith(snapToSeries(ideal, series), c) / target - 1);
+      const distance = Math.abs(Math.log(ideal / TARGET_RESISTANCE));
+      if (error < best.error - 1e-3 || (Math.abs(error - best.error) <= 1e-3 && distance < best.distance)) best = { c, error, distance };
+    }
+  }
+  return best.c;
+}
+
+/**
+ * Values of `series` from `from` upwards in steps of about a twelfth of a decade (whatever the
+ * series' own spacing), `count` of them: a search that reaches far quickly.
+ */
+export function seriesUpwards(from: number, series: SeriesName, count: number): number[] {
+  const values: number[] = [];
+  for (let k = 0; values.length < count && k < 4 * count; k++) {
+    const v = snapToSeries(from * Math.pow(10, k / 12), series);
+    if (values.length === 0 || v > values[values.length - 1]!) values.push(v);
+  }
+  return values;
+}

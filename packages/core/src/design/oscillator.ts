@@ -1,0 +1,364 @@
+import type { Circuit, OptionValue, PartSpec } from "../circuit/circuit.js";
+import { inputError } from "../circuit/diagnostic.js";
+import { runPoles } from "../analyses/poles.js";
+import { builtinPresets } from "../devices/registry.js";
+import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
+import { snapToSeries, type SeriesName } from "./eseries.js";
+
+export type Topology = "wien" | "twin-t" | "phase-shift";
+
+export interface DesignRequest {
+  readonly topology: Topology;
+  /** Target frequency (Hz). */
+  readonly frequency: number;
+  /** Capacitor (F); chosen from the E6 decade values when absent. */
+  readonly capacitor?: number;
+  /** Resistor series; default E24. */
+  readonly series?: SeriesName;
+  /** Op-amp preset; default `general`. */
+  readonly preset?: string;
+  /** Start-up time to design the gain for (s); default 200 periods of the target. */
+  readonly startupTime?: number;
+  /** Supply rails (V); default (−12, 12). */
+  readonly rails?: readonly [number, number];
+}
+
+/** One value the design chose, with the formula's ideal beside it. */
+export interface DesignChoice {
+  readonly part: string;
+  readonly ideal: number;
+  readonly chosen: number;
+  readonly unit: "Ω" | "F";
+}
+
+export interface DesignResult {
+  readonly request: Required<Omit<DesignRequest, "capacitor">> & { readonly capacitor: number };
+  readonly choices: readonly DesignChoice[];
+  /** The frequency formula evaluated with the snapped values (Hz). */
+  readonly formulaFrequency: number;
+  /** The dominant pole pair of the snapped circuit at its bias point (Hz, 1/s). */
+  readonly predicted: { readonly frequency: number; readonly growthRate: number };
+  /** predicted.frequency / target − 1 */
+  readonly error: number;
+  /** ln(10¹²)/growthRate: the start-up time the chosen gain gives (s). */
+  readonly startupEstimate: number;
+  /** What was chosen and why, one sentence each. */
+  readonly notes: readonly string[];
+  /** A ready-to-run circuit file in the Onset language. */
+  readonly text: string;
+}
+
+/**
+ * Growth the start-up estimate assumes: from the simulator's kick (about 1 pV at an op-amp
+ * output) to a volt-scale amplitude, a factor of 10¹², i.e. ln(10¹²) ≈ 27.6 envelope time
+ * constants (measured on the examples: 21–26).
+ */
+export const STARTUP_GROWTH = Math.log(1e12);
+
+/** One line of the generated file: a part with its value, tolerance and options. */
+interface Line {
+  readonly kind: string;
+  readonly name: string;
+  readonly nodes: readonly string[];
+  readonly value?: number;
+  readonly tolerance?: number;
+  readonly options?: Readonly<Record<string, OptionValue>>;
+  /** Written after the line. */
+  readonly comment?: string;
+}
+
+interface Sizing {
+  readonly lines: readonly Line[];
+  readonly probe: string;
+  readonly formulaFrequency: number;
+  readonly choices: readonly DesignChoice[];
+  readonly gainNote: string;
+  readonly thdLimit: number;
+  readonly description: readonly string[];
+}
+
+const RESISTOR_TOLERANCE = 0.01;
+const CAPACITOR_TOLERANCE = 0.05;
+
+function opampLine(nodes: readonly string[], preset: string, rails: readonly [number, number]): Line {
+  return { kind: "opamp", name: "U1", nodes, options: { preset, rails: [rails[0], rails[1]] } };
+}
+
+function partsOf(lines: readonly Line[]): PartSpec[] {
+  return lines.map((l) => {
+    let options: Record<string, OptionValue> = { ...l.options };
+    const preset = typeof options.preset === "string" ? builtinPresets[l.kind]?.[options.preset] : undefined;
+    if (preset) options = { ...preset, ...options };
+    return l.value === undefined ? { kind: l.kind, name: l.name, nodes: l.nodes, options } : { kind: l.kind, name: l.name, nodes: l.nodes, value: l.value, options };
+  });
+}
+
+function predict(lines: readonly Line[]): { frequency: number; growthRate: number } {
+  const circuit: Circuit = { parts: partsOf(lines), analyses: [], tolerances: [] };
+  const poles = runPoles(circuit, { kind: "poles" });
+  return { frequency: poles.frequency ?? Number.NaN, growthRate: poles.growthRate ?? Number.NaN };
+}
+
+/**
+ * Steps a gain-setting resistor up through the series until the snapped circuit's growth
+ * rate reaches `required` (at most 40 values); returns the lines with it.
+ */
+function raiseUntilStarts(build: (r: number) => Line[], from: number, series: SeriesName, required: number): { lines: Line[]; value: number } {
+  let last: { lines: Line[]; value: number } | undefined;
+  for (const value of seriesUpwards(from, series, 40)) {
+    const lines = build(value);
+    last = { lines, value };
+    if (predict(lines).growthRate >= required) return last;
+  }
+  return last!;
+}
+
+function wien(req: DesignResult["request"], required: number): Sizing {
+  const { frequency: f, capacitor: c, series } = req;
+  const ideal = 1 / (2 * Math.PI * f * c);
+  const r = snapToSeries(ideal, series);
+  const rg = 10e3;
+  // Diodes on: 1 + Rf1/Rg = 2.8 < 3, so the amplitude settles; Rf2 adds the start margin.
+  const rf1 = snapToSeries(1.8 * rg, series);
+  const lines = (rf2: number): Line[] => [
+    { kind: "resistor", name: "R1", nodes: ["o", "s"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "capacitor", name: "C1", nodes: ["s", "p"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "R2", nodes: ["p", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "capacitor", name: "C2", nodes: ["p", "gnd"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "Rg", nodes: ["n", "gnd"], value: rg, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diodes across it settle the amplitude" },
+    { kind: "diode", name: "D1", nodes: ["f", "o"] },
+    { kind: "diode", name: "D2", nodes: ["o", "f"] },
+    opampLine(["p", "n", "o"], req.preset, req.rails),
+  ];
+  const chosen = raiseUntilStarts(lines, 0.25 * rg, series, required);
+  const gain = 1 + (rf1 + chosen.value) / rg;
+  return {
+    lines: chosen.lines,
+    probe: "o",
+    formulaFrequency: 1 / (2 * Math.PI * r * c),
+    choices: [
+      { part: "R1, R2", ideal, chosen: r, unit: "Ω" },
+      { part: "C1, C2", ideal: c, chosen: c, unit: "F" },
+    ],
+    gainNote: `small-signal gain 1 + (Rf1 + Rf2)/Rg = ${gain.toFixed(3)} (the bridge needs 3); with the diodes conducting 1 + Rf1/Rg = ${(1 + rf1 / rg).toFixed(2)}`,
+    thdLimit: 0.03,
+    description: [
+      "Wien bridge: series R1–C1 and parallel R2∥C2 from the output to the non-inverting input;",
+      "f = 1/(2πRC) and the bridge passes 1/3 there, so the amplifier needs a gain of 3.",
+    ],
+  };
+}
+
+function phaseShift(req: DesignResult["request"], required: number): Sizing {
+  const { frequency: f, capacitor: c, series } = req;
+  const ideal = 1 / (2 * Math.PI * Math.sqrt(6) * f * c);
+  const r = snapToSeries(ideal, series);
+  // Diodes on: Rf1/R ≈ 26 < 29; Rf2 adds the start margin.
+  const rf1 = snapToSeries(26 * r, series);
+  const lines = (rf2: number): Line[] => [
+    { kind: "capacitor", name: "C1", nodes: ["o", "a"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "R1", nodes: ["a", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "capacitor", name: "C2", nodes: ["a", "b"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "R2", nodes: ["b", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "capacitor", name: "C3", nodes: ["b", "c"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "R3", nodes: ["c", "n"], value: r, tolerance: RESISTOR_TOLERANCE, comment: "the last shunt R, to the virtual ground" },
+    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diodes across it settle the amplitude" },
+    { kind: "diode", name: "D1", nodes: ["f", "o"] },
+    { kind: "diode", name: "D2", nodes: ["o", "f"] },
+    opampLine(["gnd", "n", "o"], req.preset, req.rails),
+  ];
+  const chosen = raiseUntilStarts(lines, 3 * r, series, required);
+  return {
+    lines: chosen.lines,
+    probe: "o",
+    formulaFrequency: 1 / (2 * Math.PI * Math.sqrt(6) * r * c),
+    choices: [
+      { part: "R1, R2, R3", ideal, chosen: r, unit: "Ω" },
+      { part: "C1, C2, C3", ideal: c, chosen: c, unit: "F" },
+    ],
+    gainNote: `small-signal inverting gain (Rf1 + Rf2)/R3 = ${((rf1 + chosen.value) / r).toFixed(2)} (the ladder needs 29); with the diodes conducting Rf1/R3 = ${(rf1 / r).toFixed(1)}`,
+    thdLimit: 0.03,
+    description: [
+      "Three-section C–R ladder into an inverting stage; f = 1/(2π·√6·RC), where the ladder passes",
+      "−1/29 of the output (references: the series-C, shunt-R ladder), so the stage needs a gain of 29.",
+    ],
+  };
+}
+
+/** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (references §2.3). */
+export function twinTCrossing(k: number): number {
+  const a = k * (2 * k + 1);
+  const b = k * (1 - 2 * k);
+  return Math.sqrt((-b + Math.sqrt(b * b + 4 * a)) / (2 * a));
+}
+
+function twinTLines(r: number, rs: number, c: number, rin: number, rf1: number, rf2: number, rp1: number, rp2: number, req: DesignResult["request"]): Line[] {
+  return [
+    { kind: "resistor", name: "Ra", nodes: ["o", "m1"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rb", nodes: ["m1", "t"], value: r, tolerance: RESISTOR_TOLERANCE },
+    { kind: "capacitor", name: "Cs1", nodes: ["m1", "gnd"], value: c, tolerance: CAPACITOR_TOLERANCE, comment: "Cs1 ∥ Cs2 is the 2C shunt" },
+    { kind: "capacitor", name: "Cs2", nodes: ["m1", "gnd"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "capacitor", name: "Ca", nodes: ["o", "m2"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "capacitor", name: "Cb", nodes: ["m2", "t"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    { kind: "resistor", name: "Rs", nodes: ["m2", "gnd"], value: rs, tolerance: RESISTOR_TOLERANCE, comment: "under half of Ra: the notch turns the phase by −180°" },
+    { kind: "resistor", name: "Rin", nodes: ["t", "n"], value: rin, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diode pairs across it settle the amplitude" },
+    { kind: "diode", name: "D1", nodes: ["f", "x1"] },
+    { kind: "diode", name: "D2", nodes: ["x1", "o"] },
+    { kind: "diode", name: "D3", nodes: ["o", "x2"] },
+    { kind: "diode", name: "D4", nodes: ["x2", "f"] },
+    { kind: "resistor", name: "Rp1", nodes: ["o", "p"], value: rp1, tolerance: RESISTOR_TOLERANCE, comment: "with Rp2: positive feedback for the start" },
+    { kind: "resistor", name: "Rp2", nodes: ["p", "gnd"], value: rp2, tolerance: RESISTOR_TOLERANCE },
+    opampLine(["p", "n", "o"], req.preset, req.rails),
+  ];
+}
+
+/** The setting in [lo, hi] where the growth rate of `build(setting)` changes sign (growth rising with the setting). */
+function startThreshold(build: (setting: number) => Line[], lo: number, hi: number): number {
+  for (let k = 0; k < 40 && hi / lo > 1.001; k++) {
+    const mid = Math.sqrt(lo * hi);
+    if (predict(build(mid)).growthRate > 0) hi = mid;
+    else lo = mid;
+  }
+  return Math.sqrt(lo * hi);
+}
+
+function twinT(req: DesignResult["request"], required: number): Sizing {
+  const { frequency: f, capacitor: c, series } = req;
+  const kTarget = 0.45;
+  const omega = twinTCrossing(kTarget);
+  const ideal = omega / (2 * Math.PI * f * c);
+  const r = snapToSeries(ideal, series);
+  const rs = snapToSeries(kTarget * r, series);
+  const rin = snapToSeries(4.2 * r, series);
+  const rf1 = snapToSeries(32 * rin, series);
+  const rp2 = 1e3;
+  // The divider is set from the snapped network itself: the positive feedback at which the
+  // loop would just start with the diodes fully conducting (Rf2 shorted), found by bisection on
+  // the poles, and 80 % of it — so the diodes, not the rails, settle the amplitude.
+  const threshold = startThreshold((beta) => twinTLines(r, rs, c, rin, rf1, 1e-3, rp2 * (1 / beta - 1), rp2, req), 1e-4, 0.3);
+  const rp1 = snapToSeries(rp2 * (1 / (0.8 * threshold) - 1), series);
+  const lines = (rf2: number) => twinTLines(r, rs, c, rin, rf1, rf2, rp1, rp2, req);
+  const picked = raiseUntilStarts(lines, 4 * rin, series, required);
+  const chosen = picked.lines;
+  const rf2 = picked.value;
+  return {
+    lines: chosen,
+    probe: "o",
+    formulaFrequency: (twinTCrossing(rs / r) / (2 * Math.PI * r * c)),
+    choices: [
+      { part: "Ra, Rb", ideal, chosen: r, unit: "Ω" },
+      { part: "Rs", ideal: kTarget * ideal, chosen: rs, unit: "Ω" },
+      { part: "Ca, Cb, Cs1, Cs2", ideal: c, chosen: c, unit: "F" },
+    ],
+    gainNote: `inverting gain (Rf1 + Rf2)/Rin = ${((rf1 + rf2) / rin).toFixed(1)}, ${(rf1 / rin).toFixed(1)} with the diodes conducting; divider Rp1/Rp2 = ${writeValue(rp1)}/${writeValue(rp2)} (positive feedback ${((rp2 / (rp1 + rp2)) * 100).toFixed(2)} %)`,
+    thdLimit: 0.01,
+    description: [
+      "Twin-T notch (R, R with 2C; C, C with k·R, k = 0.45) from the output into an inverting stage.",
+      "With k under ½ the network reaches −180° at Ω = 1.0274 above f0 = 1/(2πRC) (references §2.3);",
+      "a divider on the non-inverting input adds positive feedback for the start margin.",
+    ],
+  };
+}
+
+function renderLine(l: Line, widths: number[]): string {
+  const value = l.value === undefined ? "" : `${writeValue(l.value)}${l.tolerance ? `±${Math.round(l.tolerance * 100)}%` : ""}`;
+  const options = Object.entries(l.options ?? {}).map(([k, v]) => `${k}=${Array.isArray(v) ? `(${v.join(", ")})` : String(v)}`);
+  const cells = [l.kind, l.name, ...l.nodes];
+  const head = cells.map((c, i) => c.padEnd(widths[i] ?? c.length)).join("  ");
+  const tail = [value, ...options].filter((x) => x !== "").join("  ");
+  return `${head}  ${tail}`.trimEnd() + (l.comment ? `   # ${l.comment}` : "");
+}
+
+function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string {
+  const { request: req } = result;
+  const widths: number[] = [];
+  for (const l of sizing.lines) [l.kind, l.name, ...l.nodes].forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
+  const pct = (x: number) => `${(x * 100).toFixed(2)} %`;
+  const header = [
+    `# Designed by onset design ${req.topology} for ${writeValue(req.frequency)}Hz (${req.series}, op-amp preset ${req.preset}).`,
+    ...sizing.description.map((d) => `# ${d}`),
+    "#",
+    ...result.choices.map((ch) =>
+      ch.ideal === ch.chosen
+        ? `# ${ch.part}: ${writeValue(ch.chosen)}${ch.unit === "Ω" ? "Ω" : "F"}`
+        : `# ${ch.part}: ideal ${writeValue(ch.ideal)}Ω → ${writeValue(ch.chosen)}Ω (${req.series}, nearest in the log sense)`,
+    ),
+    `# formula with the snapped values: ${result.formulaFrequency.toFixed(2)} Hz`,
+    `# predicted by the poles of the snapped circuit: ${result.predicted.frequency.toFixed(2)} Hz (error ${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
+    `# gain: ${sizing.gainNote};`,
+    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from the start-up kick to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+  ];
+  const startupLimit = writeValue(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate));
+  return [
+    ...header,
+    "",
+    `title "${req.topology} oscillator, ${writeValue(req.frequency)}Hz"`,
+    "",
+    ...sizing.lines.map((l) => renderLine(l, widths)),
+    "",
+    `startup probe=${sizing.probe} until=auto`,
+    "poles",
+    "tolerance runs=100 seed=1 dist=normal",
+    `spec frequency=${writeValue(req.frequency)}±5% thd<${Math.round(sizing.thdLimit * 100)}% startup<${startupLimit} yield>90%`,
+    "",
+  ].join("\n");
+}
+
+/**
+ * Designs an RC oscillator for a target frequency: picks the capacitor (unless given), snaps the
+ * resistors to an E-series, chooses the gain network so the snapped circuit starts within the
+ * requested time (checked on its poles), and writes a ready-to-run circuit file.
+ */
+export function designOscillator(request: DesignRequest): DesignResult {
+  const f = request.frequency;
+  if (!(f > 0) || !Number.isFinite(f)) throw inputError("out-of-range", `design needs a positive frequency, got ${f} Hz`, { hint: "e.g. --freq 2.5k" });
+  if (request.capacitor !== undefined && !(request.capacitor > 0)) {
+    throw inputError("out-of-range", `design needs a positive capacitor, got ${request.capacitor} F`, { hint: "e.g. --cap 4.7n" });
+  }
+  const preset = request.preset ?? "general";
+  if (!builtinPresets.opamp?.[preset]) {
+    throw inputError("unknown-preset", `unknown op-amp preset '${preset}'`, { hint: `use one of ${Object.keys(builtinPresets.opamp ?? {}).join(", ")}` });
+  }
+  // The frequency each topology's formula gives for R and C (twin-T at k = 0.45).
+  const scale = request.topology === "wien" ? 1 : request.topology === "phase-shift" ? 1 / Math.sqrt(6) : twinTCrossing(0.45);
+  const series = request.series ?? "E24";
+  const base = {
+    topology: request.topology,
+    frequency: f,
+    series,
+    preset,
+    startupTime: request.startupTime ?? 200 / f,
+    rails: request.rails ?? ([-12, 12] as const),
+  };
+  const required = STARTUP_GROWTH / base.startupTime;
+  const size = (c: number) => {
+    const req = { ...base, capacitor: c };
+    return { req, sizing: req.topology === "wien" ? wien(req, required) : req.topology === "phase-shift" ? phaseShift(req, required) : twinT(req, required) };
+  };
+  const frequencyWith = (r: number, c: number) => scale / (2 * Math.PI * r * c);
+  const best = size(request.capacitor ?? chooseCapacitor((c) => scale / (2 * Math.PI * f * c), frequencyWith, f, series));
+  const { req, sizing } = best;
+  const predicted = predict(sizing.lines);
+  const short = predicted.growthRate < required;
+  const notes = [
+    `capacitor ${writeValue(req.capacitor)}F ${request.capacitor === undefined ? "chosen from the E6 values: of those that put the resistors between 2 kΩ and 50 kΩ, the one whose snapped resistors land the formula nearest the target" : "as given"}`,
+    ...sizing.choices.filter((c) => c.ideal !== c.chosen).map((c) => `${c.part}: ideal ${writeValue(c.ideal)}Ω, snapped to ${writeValue(c.chosen)}Ω (${req.series})`),
+    sizing.gainNote,
+    ...(short ? [`the gain network reached only ${predicted.growthRate.toFixed(1)} 1/s of the ${required.toFixed(1)} 1/s a ${writeValue(req.startupTime)}s start-up needs`] : []),
+  ];
+  const partial = {
+    request: req,
+    choices: sizing.choices,
+    formulaFrequency: sizing.formulaFrequency,
+    predicted,
+    error: predicted.frequency / f - 1,
+    startupEstimate: STARTUP_GROWTH / predicted.growthRate,
+    notes,
+  };
+  return { ...partial, text: renderText(partial, sizing) };
+}
