@@ -1,0 +1,52 @@
+import type { AnalysisSpec, Circuit, Diagnostic } from "@onset/core";
+import { hasErrors } from "../errors.js";
+import type { Program } from "../syntax.js";
+import { elaborateAnalysis } from "./analyses.js";
+import { Elaboration, type Overrides } from "./context.js";
+import { indexProgram } from "./index-program.js";
+import { elaborateScope } from "./instances.js";
+import { checkPreset } from "./presets.js";
+import { Scope } from "./scope.js";
+
+/** The full state after elaborating, for the checker and `overrideTargets`. */
+export function runElaboration(program: Program, overrides: Overrides): { ctx: Elaboration; analyses: AnalysisSpec[] } {
+  const index = indexProgram(program);
+  const ctx = new Elaboration(index, overrides);
+  ctx.diagnostics.push(...index.diagnostics);
+  const globals = new Scope(undefined, "");
+  const failedPresets = new Set<string>();
+  for (const [name, preset] of index.presets) if (!checkPreset(ctx, preset, globals)) failedPresets.add(name);
+  elaborateScope(ctx, globals, globals, index.statements, failedPresets, []);
+  const analyses: AnalysisSpec[] = [];
+  for (const a of index.analyses) {
+    const spec = ctx.attempt(() => elaborateAnalysis(ctx, a, globals));
+    if (spec) analyses.push(spec);
+  }
+  ctx.diagnostics.push(...ctx.unusedOverrides());
+  return { ctx, analyses };
+}
+
+/**
+ * Elaborates a program into the engine's circuit model: blocks flattened into hierarchical
+ * names, expressions evaluated, options checked and defaulted, presets merged, overrides applied
+ * by name and tolerances kept for Monte Carlo. The circuit is undefined when any error is found.
+ * Cheap to repeat with different overrides on the same program (the index is cached).
+ */
+export function elaborate(program: Program, options: { overrides?: Overrides } = {}): { circuit: Circuit | undefined; diagnostics: Diagnostic[] } {
+  const { ctx, analyses } = runElaboration(program, options.overrides ?? {});
+  const diagnostics = ctx.diagnostics;
+  if (hasErrors(diagnostics)) return { circuit: undefined, diagnostics };
+  const title = ctx.index.title?.node.text;
+  const circuit: Circuit = {
+    ...(title === undefined ? {} : { title }),
+    parts: ctx.parts,
+    analyses,
+    tolerances: ctx.tolerances,
+  };
+  return { circuit, diagnostics };
+}
+
+/** Every name `--set` and `sweep` accept: parameters, part values, numeric part options, instance parameters. */
+export function overrideTargets(program: Program): string[] {
+  return [...runElaboration(program, {}).ctx.targets.keys()];
+}

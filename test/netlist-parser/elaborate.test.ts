@@ -1,0 +1,271 @@
+import { describe, expect, test } from "vitest";
+import type { Circuit, PartSpec } from "@onset/core";
+import { elaborate, overrideTargets, parseText, type Program } from "@onset/netlist-parser";
+
+function program(text: string): Program {
+  const { program, diagnostics } = parseText(text, "t.onset");
+  expect(diagnostics).toEqual([]);
+  return program;
+}
+function circuit(p: Program, overrides: Record<string, string | number> = {}): Circuit {
+  const r = elaborate(p, { overrides });
+  expect(r.diagnostics).toEqual([]);
+  return r.circuit!;
+}
+function part(c: Circuit, name: string): PartSpec {
+  const found = c.parts.find((p) => p.name === name);
+  if (!found) throw new Error(`no part ${name}`);
+  return found;
+}
+
+const twinT = program(`param R = 11k±1%
+param C = 33n
+block notch (in, out, ref) R=11k C=33n k=0.5
+  resistor  Ra in m1  (R)
+  resistor  Rb m1 out (R)
+  capacitor Cs m1 ref (2*C)±5%
+  capacitor Ca in m2  (C)
+  capacitor Cb m2 out (C)
+  resistor  Rs m2 ref (k*R)
+  pot       P1 m2 w ref 1k at=0.5
+end
+use N1 notch o n gnd R=(R) k=0.46±2%
+opamp U1 gnd n o gbw=1M
+resistor Rl o gnd 10k
+resistor Rd w2 gnd (R/2)
+resistor Rw N1w gnd 1k
+`);
+
+describe("expressions", () => {
+  test("precedence: ^ binds tighter than unary minus, and is right-associative; functions and pi", () => {
+    const c = circuit(
+      program(`param a = (-2^2)
+param b = (2^3^2)
+param c = (1 - 2 - 3)
+param d = (12/2/3)
+param e = (min(3, 1, 2) + max(4, 5) + abs(-1) + sqrt(16) + exp(0) + ln(1) + log10(1000) + atan(0) + sin(0) + cos(0) + tan(0))
+param f = (1/(2*pi*10k*10n))
+vsource Va a gnd (a)
+vsource Vb b gnd (b)
+vsource Vc c gnd (c)
+vsource Vd d gnd (d)
+vsource Ve e gnd (e)
+vsource Vf f gnd (f)
+`),
+    );
+    expect(c.parts.map((p) => p.value)).toEqual([-4, 512, -4, 2, 1 + 5 + 1 + 4 + 1 + 0 + 3 + 0 + 0 + 1 + 0, 1 / (2 * Math.PI * 10e3 * 10e-9)]);
+  });
+
+  test("parameters may be used before they are defined, and see overrides of the ones they use", () => {
+    const p = program("param R2 = (2*R)\nparam R = 1k\nresistor Ra a gnd (R2)\n");
+    expect(part(circuit(p), "Ra").value).toBe(2000);
+    expect(part(circuit(p, { R: "3k" }), "Ra").value).toBe(6000);
+  });
+
+  test("a unit on a parameter's plain literal is checked where the parameter is used alone", () => {
+    expect(part(circuit(program("param C = 33nF\ncapacitor C1 a gnd (C)\nresistor R1 a gnd 1k\n")), "C1").value).toBe(33e-9);
+  });
+});
+
+describe("blocks", () => {
+  test("instances flatten with hierarchical part and node names; ports map to outer nodes", () => {
+    const c = circuit(twinT);
+    expect(part(c, "N1.Ra").nodes).toEqual(["o", "N1.m1"]);
+    expect(part(c, "N1.Rb").nodes).toEqual(["N1.m1", "n"]);
+    expect(part(c, "N1.Cs").nodes).toEqual(["N1.m1", "gnd"]);
+    expect(part(c, "N1.P1").nodes).toEqual(["N1.m2", "N1.w", "gnd"]);
+    expect(part(c, "N1.Rs").value).toBeCloseTo(0.46 * 11e3, 9);
+  });
+
+  test("parts inside an instance carry the span of their line inside the block", () => {
+    const c = circuit(twinT);
+    const span = part(c, "N1.Ra").span!;
+    expect(twinT.text.slice(span.start, span.end)).toBe("resistor  Ra in m1  (R)");
+  });
+
+  test("nested instances join names with dots", () => {
+    const c = circuit(
+      program(`block leg (a, b) R=1k
+  resistor Rx a mid (R)
+  resistor Ry mid b (R)
+end
+block pair (p, q)
+  use L1 leg p q R=2k
+  use L2 leg p q
+end
+use X pair n1 gnd
+resistor R0 n1 gnd 1k
+`),
+    );
+    expect(c.parts.map((p) => `${p.name}:${p.nodes.join(",")}:${p.value}`)).toEqual([
+      "X.L1.Rx:n1,X.L1.mid:2000",
+      "X.L1.Ry:X.L1.mid,gnd:2000",
+      "X.L2.Rx:n1,X.L2.mid:1000",
+      "X.L2.Ry:X.L2.mid,gnd:1000",
+      "R0:n1,gnd:1000",
+    ]);
+  });
+
+  test("a block default may read the file parameter of the same name: R=(R)", () => {
+    const c = circuit(program("param R = 15k\nblock arm (a) R=(R) C2=(2*R)\n  resistor Ra a gnd (R)\n  resistor Rb a gnd (C2)\nend\nuse A arm x\nuse B arm x R=1k\n"));
+    expect(c.parts.map((p) => `${p.name}=${p.value}`)).toEqual(["A.Ra=15000", "A.Rb=30000", "B.Ra=1000", "B.Rb=2000"]);
+  });
+
+  test("node-pair options resolve like pins inside an instance", () => {
+    const c = circuit(
+      program(`block amp (i, o, vee, vcc)
+  opamp U i o o supply=(vee, vcc)
+  resistor Rload o local 1k
+  resistor Rg local gnd 1k
+end
+use A amp x y vm vp
+vsource Vm vm gnd -12
+vsource Vp vp gnd 12
+resistor Rx x gnd 1k
+`),
+    );
+    expect(part(c, "A.U").options.supply).toEqual(["vm", "vp"]);
+    expect(part(c, "A.Rload").nodes).toEqual(["y", "A.local"]);
+  });
+});
+
+describe("presets", () => {
+  test("a file preset merges under explicit options and stays named in the options", () => {
+    const c = circuit(program("preset quick opamp gbw=10M slew=15V/us\nopamp U1 p n o preset=quick gbw=5M\nresistor R o n 1k\nresistor Rp p gnd 1k\nresistor Rn n gnd 1k\n"));
+    expect(part(c, "U1").options).toMatchObject({ preset: "quick", gbw: 5e6, slew: 15e6, gain: 200e3 });
+  });
+
+  test("a built-in preset supplies its values, explicit options win", () => {
+    const c = circuit(program("opamp U1 p n o preset=ideal rout=1\nresistor R o n 1k\nresistor Rp p gnd 1k\nresistor Rn n gnd 1k\n"));
+    expect(part(c, "U1").options).toMatchObject({ preset: "ideal", gain: 1e7, gbw: 1e9, slew: Infinity, rin: Infinity, rout: 1 });
+  });
+
+  test("defaults are filled in from the schema, words included", () => {
+    const c = circuit(program("pot P1 a w gnd 10k\ninductor L1 a gnd 1m\n"));
+    expect(part(c, "P1").options).toEqual({ at: 0.5, taper: "linear" });
+    expect(part(c, "L1").options).toEqual({ initial: 0, series: 0 });
+  });
+
+  test("inf is Infinity where the option allows it", () => {
+    const c = circuit(program("opamp U1 p n o slew=inf rin=inf\nresistor R o n 1k\nresistor Rp p gnd 1k\nresistor Rn n gnd 1k\n"));
+    expect(part(c, "U1").options).toMatchObject({ slew: Infinity, rin: Infinity });
+  });
+});
+
+describe("overrides (--set)", () => {
+  test("a parameter, an instance parameter, a part value, a part option and an inner option", () => {
+    const c = circuit(twinT, { R: "12k", "N1.k": 0.5, Rl: "22k", "U1.gbw": "3M", "N1.P1.at": "0.25" });
+    expect(part(c, "N1.Ra").value).toBe(12e3); // N1's R= is (R), which follows the file parameter
+    expect(part(c, "N1.Rs").value).toBe(6e3);
+    expect(part(c, "Rd").value).toBe(6e3);
+    expect(part(c, "Rl").value).toBe(22e3);
+    expect(part(c, "U1").options.gbw).toBe(3e6);
+    expect(part(c, "N1.P1").options.at).toBe(0.25);
+  });
+
+  test("an instance parameter override shadows the value given on the use line", () => {
+    const c = circuit(twinT, { "N1.R": "10k" });
+    expect(part(c, "N1.Ra").value).toBe(10e3);
+    expect(part(c, "Rd").value).toBe(5.5e3);
+  });
+
+  test("a param written inside a block is set per instance as INSTANCE.NAME", () => {
+    const p = program("block b (x)\n  param Rl = 2k\n  resistor Ra x gnd (Rl)\nend\nuse A b n\nuse B b n\n");
+    const c = circuit(p, { "B.Rl": "3k" });
+    expect(c.parts.map((x) => `${x.name}=${x.value}`)).toEqual(["A.Ra=2000", "B.Ra=3000"]);
+    expect(overrideTargets(p)).toEqual(expect.arrayContaining(["A.Rl", "B.Rl", "A.Ra", "B.Ra"]));
+  });
+
+  test("an option that is not written can still be set (its default is replaced)", () => {
+    expect(part(circuit(twinT, { "U1.slew": "1V/us" }), "U1").options.slew).toBe(1e6);
+  });
+
+  test("an unknown name is reported with the closest target, and no circuit is made", () => {
+    const r = elaborate(twinT, { overrides: { "N1.Rx": "1k" } });
+    expect(r.circuit).toBeUndefined();
+    expect(r.diagnostics.map((d) => d.message)).toEqual([
+      "cannot set 'N1.Rx': no parameter, part value or part option has that name (did you mean 'N1.R'?)",
+    ]);
+  });
+
+  test("an override value in the wrong unit, or out of range, is an error", () => {
+    expect(elaborate(twinT, { overrides: { Rl: "1uF" } }).diagnostics.map((d) => d.code)).toEqual(["unit-mismatch"]);
+    expect(elaborate(twinT, { overrides: { "N1.P1.at": "1.5" } }).diagnostics.map((d) => d.code)).toEqual(["out-of-range"]);
+    expect(elaborate(twinT, { overrides: { Rl: -5 } }).diagnostics.map((d) => d.code)).toEqual(["out-of-range"]);
+  });
+
+  test("override problems are typed diagnostics without a span", () => {
+    expect(elaborate(twinT, { overrides: { Rl: "12 k" } }).diagnostics).toEqual([
+      { severity: "error", stage: "input", code: "bad-quantity", message: "the value set for Rl: '12 k' is not a number", hint: "write a number such as 2.5k, 33n, 10% or 106dB" },
+    ]);
+    expect(elaborate(twinT, { overrides: { Rl: Number.NaN } }).diagnostics).toEqual([
+      { severity: "error", stage: "input", code: "bad-override", message: "the value set for Rl is not a finite number", hint: "give a number such as 10k" },
+    ]);
+  });
+
+  test("overrideTargets lists parameters, instance parameters, part values and numeric options", () => {
+    const names = overrideTargets(twinT);
+    for (const n of ["R", "C", "N1.R", "N1.C", "N1.k", "N1.Ra", "N1.P1", "N1.P1.at", "U1.gbw", "U1.gain", "U1.slew", "Rl", "N1.Cs.initial"]) expect(names).toContain(n);
+    expect(names).not.toContain("U1.taper");
+    expect(names).not.toContain("U1.preset");
+  });
+
+  test("elaboration is repeatable: the same program gives the same circuit, and overrides do not leak", () => {
+    const a = circuit(twinT);
+    circuit(twinT, { R: "99k" });
+    expect(circuit(twinT)).toEqual(a);
+  });
+});
+
+describe("tolerances for Monte Carlo", () => {
+  test("entries keep the written nominal; targets are override names", () => {
+    const c = circuit(twinT);
+    expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([
+      { target: "R", nominal: 11e3, relative: 0.01 },
+      { target: "N1.k", nominal: 0.46, relative: 0.02 },
+      { target: "N1.Cs", nominal: 66e-9, relative: 0.05 },
+    ]);
+  });
+
+  test("giving a target back as an override sets exactly that value (shared for a param, per part otherwise)", () => {
+    const c = circuit(twinT, { R: 11.1e3, "N1.Cs": 70e-9, "N1.k": 0.47 });
+    expect(part(c, "N1.Ra").value).toBe(11.1e3);
+    expect(part(c, "N1.Rb").value).toBe(11.1e3);
+    expect(part(c, "Rd").value).toBe(11.1e3 / 2);
+    expect(part(c, "N1.Cs").value).toBe(70e-9);
+    expect(part(c, "N1.Rs").value).toBeCloseTo(0.47 * 11.1e3, 9);
+    // The entries themselves stay as written.
+    expect(c.tolerances.map((t) => t.nominal)).toEqual([11e3, 0.46, 66e-9]);
+  });
+
+  test("a tolerance on a part option is kept under PART.option", () => {
+    const c = circuit(program("opamp U1 p n o gbw=1M±20%\nresistor R o n 1k\nresistor Rp p gnd 1k\nresistor Rn n gnd 1k\n"));
+    expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([{ target: "U1.gbw", nominal: 1e6, relative: 0.2 }]);
+  });
+
+  test("an absolute tolerance is in the value's unit and checked against it", () => {
+    const c = circuit(program("vsource V1 a gnd 5±10mV\nresistor R a gnd 1k\n"));
+    expect(c.tolerances[0]).toMatchObject({ target: "V1", nominal: 5, absolute: 10e-3 });
+    expect(elaborate(program("vsource V1 a gnd 5±10mA\nresistor R a gnd 1k\n")).diagnostics.map((d) => d.code)).toEqual(["unit-mismatch"]);
+  });
+});
+
+describe("node pairs", () => {
+  test("supply= takes node names; a number there is expected-node", () => {
+    const r = elaborate(program("opamp U1 p n o supply=(1, vcc)\nresistor R o n 1k\n"));
+    expect(r.diagnostics.map((d) => `${d.code}: ${d.message}`)).toEqual(["expected-node: supply= of opamp U1 takes node names, not '1'"]);
+  });
+});
+
+describe("several independent errors are all reported", () => {
+  test("one diagnostic per faulty line, in order", () => {
+    const r = elaborate(program("resistor R1 a gnd -1k\ncapacitor C1 a gnd 1nH\npot P1 a w gnd 1k at=2\nresistor R2 a gnd 1k\n"));
+    expect(r.diagnostics.map((d) => `${d.code}@${d.span?.start}`)).toEqual(["out-of-range@18", "unit-mismatch@41", "out-of-range@66"]);
+  });
+
+  test("parse errors on several lines are all reported (recovery at the next line)", () => {
+    const r = parseText("resistor R1 a 0 1k\nresistr R2 a b 1k\ncapacitor C1 a b 1meg\nresistor R3 a b 1k\n", "t.onset");
+    expect(r.diagnostics.map((d) => d.code)).toEqual(["node-zero", "unknown-kind", "bad-prefix"]);
+    expect(r.program.statements.map((s) => s.kind)).toEqual(["part"]);
+  });
+});
