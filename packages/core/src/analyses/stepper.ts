@@ -105,6 +105,7 @@ export class TransientStepper {
     }
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
     this.solver.chordLimit = Infinity;
+    this.solver.predictedStop = true;
     this.nextBreak = this.findBreakpoint(0);
     this.collectSolverCounts();
   }

@@ -43,6 +43,14 @@ export class NewtonSolver {
    * prediction, where a stale Jacobian is refreshed only when the iteration stops contracting.
    */
   chordLimit = CHORD_NEAR;
+  /** The contraction factor the last iterations showed, for the stopping rule. */
+  private contraction = 0.5;
+  /**
+   * Accept an iterate once the predicted remaining error is within tolerance (time steps, whose
+   * error is dominated by the truncation error anyway); the bias point iterates until the update
+   * itself is within tolerance.
+   */
+  predictedStop = false;
   factorizations = 0;
   iterations = 0;
 
@@ -72,6 +80,7 @@ export class NewtonSolver {
     this.residual = new Float64Array(n);
     this.update = new Float64Array(n);
     this.tol = new Float64Array(n);
+    this.baseRowStart = new Int32Array(n + 1);
     this.linear = system.nonlinear.length === 0;
     system.unknowns.forEach((u, i) => {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
@@ -155,23 +164,40 @@ export class NewtonSolver {
         if (u.isNode) base[i * n + i] += this.gmin;
       });
     }
+    // The nonzeros of the assembled matrix, row by row, for the residual product.
+    let count = 0;
+    for (let k = 0; k < n * n; k++) if (base[k] !== 0) count++;
+    if (this.baseCols.length < count) {
+      this.baseCols = new Int32Array(count);
+      this.baseValues = new Float64Array(count);
+    }
+    let k = 0;
+    for (let i = 0; i < n; i++) {
+      this.baseRowStart[i] = k;
+      for (let j = 0; j < n; j++) {
+        const v = base[i * n + j]!;
+        if (v === 0) continue;
+        this.baseCols[k] = j;
+        this.baseValues[k++] = v;
+      }
+    }
+    this.baseRowStart[n] = k;
     this.baseValid = true;
   }
 
-  /** r = G·x + a·C·x + gmin·x − history − u (the linear part of the residual). */
+  // Compressed rows of the assembled G + a·C (+ gmin), rebuilt with it.
+  private baseRowStart: Int32Array;
+  private baseCols = new Int32Array(0);
+  private baseValues = new Float64Array(0);
+
+  /** r = (G + a·C + gmin)·x − history − u (the linear part of the residual). */
   private linearResidual(x: Float64Array): void {
-    const { n, residual: r, a, history, u, system } = this;
-    for (let i = 0; i < n; i++) r[i] = -history[i]! - u[i]!;
-    const g = system.gTriplets;
-    for (let k = 0; k < g.values.length; k++) r[g.rows[k]!] += g.values[k]! * x[g.cols[k]!]!;
-    const c = system.cTriplets;
-    for (let k = 0; k < c.values.length; k++) {
-      const row = c.rows[k]!;
-      r[row] += a[row]! * c.values[k]! * x[c.cols[k]!]!;
-    }
-    if (this.gmin > 0) {
-      const unknowns = system.unknowns;
-      for (let i = 0; i < n; i++) if (unknowns[i]!.isNode) r[i] += this.gmin * x[i]!;
+    const { n, residual: r, history, u, baseRowStart: start, baseCols: cols, baseValues: values } = this;
+    for (let i = 0; i < n; i++) {
+      let sum = -history[i]! - u[i]!;
+      const end = start[i + 1]!;
+      for (let k = start[i]!; k < end; k++) sum += values[k]! * x[cols[k]!]!;
+      r[i] = sum;
     }
   }
 
@@ -256,7 +282,14 @@ export class NewtonSolver {
           worst = i;
         }
       }
-      if (norm <= 1 && lambda === 1) return this.finish(true, iter, worst);
+      // Stopping rule of simplified Newton (Hairer & Wanner, Solving ODEs II, §IV.8): with the
+      // contraction ρ = ‖Δₖ‖/‖Δₖ₋₁‖ (or the last solve's), the error left after this update is
+      // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance.
+      if (lambda === 1) {
+        const rho = iter > 1 ? norm / previousNorm : this.contraction;
+        if (iter > 1 && rho < 1) this.contraction = Math.max(1e-3, rho);
+        if (norm <= 1 || (this.predictedStop && rho < 1 && (iter > 1 || norm <= 100) && (rho / (1 - rho)) * norm <= 1)) return this.finish(true, iter, worst);
+      }
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
