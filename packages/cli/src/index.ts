@@ -1,1 +1,23 @@
-export const placeholder = 1;
+/**
+ * The `onset` command line as a library: `runCli` runs a command line against given streams;
+ * the formatting and plotting helpers the reports use are exported too.
+ */
+export { runCli } from "./cli.js";
+export type { CliIo } from "./io.js";
+export { processIo } from "./io.js";
+export { EXIT } from "./exit.js";
+export type { ExitStatus } from "./exit.js";
+export { CliError } from "./cli-error.js";
+export { parseArgs, valueOf } from "./args.js";
+export type { OptionSpec, ParsedArgs } from "./args.js";
+export { COMMANDS } from "./commands/table.js";
+export type { CommandSpec } from "./commands/table.js";
+export { writeFileAtomic } from "./atomic.js";
+export { numberedPath } from "./output-files.js";
+export { csvDocument, csvField, csvNumber } from "./csv/csv.js";
+export { readResults } from "./study/results-file.js";
+export type { ResultsContent } from "./study/results-file.js";
+export type { StoredSample, StudyHeader, WindowSweep } from "./study/header.js";
+export { predictedStartupTime } from "./report/prediction.js";
+export * from "./format/index.js";
+export * from "./plot/index.js";

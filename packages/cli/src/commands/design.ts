@@ -1,0 +1,53 @@
+import { resolve } from "node:path";
+import { designOscillator, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
+import { parseQuantity } from "@onset/netlist-parser";
+import { valueOf, type ParsedArgs } from "../args.js";
+import { writeFileAtomic } from "../atomic.js";
+import { CliError, usageError } from "../cli-error.js";
+import { EXIT } from "../exit.js";
+import type { CommandContext } from "./context.js";
+
+/** The topologies `onset design` knows. */
+export const DESIGN_TOPOLOGIES: readonly Topology[] = ["wien", "twin-t", "phase-shift"];
+
+function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number {
+  const value = parseQuantity(text, unit, option);
+  if (typeof value !== "number") throw new CliError([value]);
+  if (!(value > 0)) throw usageError("out-of-range", `${option} must be above zero, got ${text}`);
+  return value;
+}
+
+/**
+ * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T]`:
+ * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`.
+ */
+export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
+  const topology = args.positionals[0]!;
+  if (!(DESIGN_TOPOLOGIES as readonly string[]).includes(topology)) {
+    throw usageError("bad-topology", `design: unknown topology '${topology}'`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
+  }
+  const freq = valueOf(args, "freq");
+  if (freq === undefined) throw usageError("missing-option", "design needs --freq", "write for example: onset design wien --freq 1k");
+  const cap = valueOf(args, "cap");
+  const series = valueOf(args, "series");
+  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'`, "choose E12, E24 or E96");
+  const preset = valueOf(args, "preset");
+  const startup = valueOf(args, "startup");
+  const request: DesignRequest = {
+    topology: topology as Topology,
+    frequency: quantity(freq, "Hz", "--freq"),
+    ...(cap === undefined ? {} : { capacitor: quantity(cap, "F", "--cap") }),
+    ...(series === undefined ? {} : { series }),
+    ...(preset === undefined ? {} : { preset }),
+    ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
+  };
+  const result = designOscillator(request);
+  const output = valueOf(args, "output");
+  if (output !== undefined) {
+    writeFileAtomic(resolve(ctx.io.cwd, output), result.text);
+    ctx.note(`wrote ${output}`);
+  }
+  if (ctx.json) ctx.io.stdout(`${JSON.stringify({ ...result, exit: EXIT.ok }, null, 2)}\n`);
+  else if (output === undefined) ctx.io.stdout(result.text);
+  return EXIT.ok;
+}

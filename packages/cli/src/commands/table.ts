@@ -1,0 +1,113 @@
+import type { OptionSpec, ParsedArgs } from "../args.js";
+import { checkCommand } from "./check.js";
+import type { CommandContext } from "./context.js";
+import { designCommand } from "./design.js";
+import { formatCommand } from "./format.js";
+import { mergeCommand } from "./merge.js";
+import { runCommand } from "./run.js";
+
+/** A command: its usage line, what it does, its options and how many positional words it takes. */
+export interface CommandSpec {
+  readonly name: string;
+  readonly usage: string;
+  readonly summary: string;
+  readonly details: readonly string[];
+  readonly options: readonly OptionSpec[];
+  readonly positionals: { readonly min: number; readonly max: number; readonly name: string };
+  readonly action: (ctx: CommandContext, args: ParsedArgs) => number | Promise<number>;
+}
+
+const common: OptionSpec[] = [
+  { name: "quiet", short: "q", summary: "print no report or notes; errors and the exit status only" },
+  { name: "no-color", summary: "plain text without colour (also when NO_COLOR is set)" },
+  { name: "debug", summary: "show the stack trace of an internal error" },
+  { name: "help", short: "h", summary: "show this help" },
+];
+
+const json: OptionSpec = { name: "json", summary: "print exactly one JSON document on stdout (errors too)" };
+const set: OptionSpec = { name: "set", value: "NAME=VALUE", repeat: true, summary: "override a parameter, part value or part option (repeatable)" };
+const csv: OptionSpec = { name: "csv", value: "FILE", summary: "write the data as CSV (several analyses: FILE, FILE-2, …)" };
+const svg: OptionSpec = { name: "svg", value: "FILE", summary: "write a plot as SVG (several analyses: FILE, FILE-2, …)" };
+
+/** Every command, in the order help lists them. */
+export const COMMANDS: readonly CommandSpec[] = [
+  {
+    name: "run",
+    usage: "onset run FILE [options]",
+    summary: "run every analysis in FILE and report the results",
+    details: [
+      "FILE may be - to read the circuit from standard input.",
+      "A file with a tolerance analysis runs the Monte Carlo study, with a sweep the sweep and its",
+      "start threshold, with both the design window (yield at each setting). Study samples are",
+      "appended to a results file as they finish (by default NAME.results.jsonl beside FILE).",
+      "",
+      "Exit status: 0 done and every spec met, 1 a spec not met, 2 bad input or usage,",
+      "3 the simulation failed.",
+    ],
+    options: [
+      json,
+      csv,
+      svg,
+      set,
+      { name: "jobs", value: "N", summary: "worker threads for a tolerance study (default: the number of cores)" },
+      { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
+      { name: "results", value: "FILE", summary: "the study's results file (JSON Lines)" },
+      { name: "resume", summary: "continue the study in the results file, running only missing samples" },
+      { name: "sample", value: "I", summary: "rerun sample I of the tolerance study alone, with full reports and plots" },
+      { name: "nominal", summary: "run the file's analyses once, without its sweep or tolerance study" },
+      ...common,
+    ],
+    positionals: { min: 1, max: 1, name: "FILE" },
+    action: runCommand,
+  },
+  {
+    name: "check",
+    usage: "onset check FILE [options]",
+    summary: "parse and validate FILE without simulating",
+    details: ["Reports every problem found, with its line and a caret. Exit status 0 when the file is valid, 2 when not."],
+    options: [json, set, ...common],
+    positionals: { min: 1, max: 1, name: "FILE" },
+    action: checkCommand,
+  },
+  {
+    name: "format",
+    usage: "onset format FILE [--write]",
+    summary: "print FILE in the canonical layout",
+    details: ["Aligns part columns, one blank line between sections, comments kept."],
+    options: [{ name: "write", short: "w", summary: "replace FILE with the canonical layout (atomically)" }, ...common],
+    positionals: { min: 1, max: 1, name: "FILE" },
+    action: formatCommand,
+  },
+  {
+    name: "design",
+    usage: "onset design (wien|twin-t|phase-shift) --freq F [options]",
+    summary: "write a ready-to-run oscillator file for a frequency",
+    details: ["Values snap to the chosen E series; the file is printed on stdout unless --output is given."],
+    options: [
+      { name: "freq", value: "F", summary: "the oscillation frequency, e.g. 1k or 440Hz" },
+      { name: "cap", value: "C", summary: "the capacitor to design around, e.g. 33n" },
+      { name: "series", value: "E12|E24|E96", summary: "the resistor series values snap to" },
+      { name: "preset", value: "NAME", summary: "the op-amp preset to use" },
+      { name: "startup", value: "T", summary: "the start-up time to size the gain for (default: 200 periods)" },
+      { name: "output", short: "o", value: "FILE", summary: "write the circuit file instead of printing it" },
+      json,
+      ...common,
+    ],
+    positionals: { min: 1, max: 1, name: "TOPOLOGY" },
+    action: designCommand,
+  },
+  {
+    name: "merge",
+    usage: "onset merge RESULTS... [options]",
+    summary: "combine results files of a sharded or resumed study into one report",
+    details: ["The report is the one a single run of the whole study prints, byte for byte."],
+    options: [json, csv, svg, { name: "results", value: "FILE", summary: "also write the merged results file" }, ...common],
+    positionals: { min: 1, max: Infinity, name: "RESULTS" },
+    action: mergeCommand,
+  },
+];
+
+/** The command named `name`, if any. */
+export function commandNamed(name: string): CommandSpec | undefined {
+  return COMMANDS.find((c) => c.name === name);
+}

@@ -1,0 +1,16 @@
+/** A CSV cell (RFC 4180): quoted when it holds a comma, a quote or a line break. */
+export function csvField(text: string): string {
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+/** A number as the shortest text that reads back to the same double; empty when absent or not finite. */
+export function csvNumber(value: number | null | undefined): string {
+  return value === null || value === undefined || !Number.isFinite(value) ? "" : String(value);
+}
+
+/** A whole CSV document: the header row, then the rows, each line ended by CRLF-free `\n`. */
+export function csvDocument(header: readonly string[], rows: Iterable<readonly string[]>): string {
+  const lines = [header.map(csvField).join(",")];
+  for (const row of rows) lines.push(row.join(","));
+  return `${lines.join("\n")}\n`;
+}

@@ -1,0 +1,30 @@
+import { SAMPLE_METRICS } from "@onset/core";
+import type { StoredSample, StudyHeader } from "../study/header.js";
+import type { StudyReport } from "../study/study-report.js";
+import { csvDocument, csvField, csvNumber } from "./csv.js";
+
+const METRIC_COLUMNS = [...SAMPLE_METRICS, "rms", "peakToPeak", "predictedGrowthRate"] as const;
+
+function sampleCells(h: StudyHeader, s: StoredSample): string[] {
+  const metrics = s.metrics as Record<string, unknown> | null;
+  return [
+    String(s.index),
+    ...h.tolerances.map((t) => csvNumber(s.drawn[t.target])),
+    metrics ? csvField(String(metrics.verdict)) : "failed",
+    ...METRIC_COLUMNS.map((k) => csvNumber(typeof metrics?.[k] === "number" ? (metrics[k] as number) : null)),
+    s.pass ? "1" : "0",
+  ];
+}
+
+/**
+ * The CSV of a study: one row per sample with `index`, the drawn values (one column per
+ * toleranced name), `verdict`, the metrics and `pass` (1 or 0). A design window puts the
+ * setting first, in a column named after the swept target.
+ */
+export function studyCsv(r: StudyReport): string {
+  const h = r.header;
+  const header = ["index", ...h.tolerances.map((t) => t.target), "verdict", ...METRIC_COLUMNS, "pass"];
+  if (r.kind === "tolerance") return csvDocument(header, r.samples.map((s) => sampleCells(h, s)));
+  const rows = r.points.flatMap((p) => p.samples.map((s) => [csvNumber(p.value), ...sampleCells(h, s)]));
+  return csvDocument([h.sweep!.target, ...header], rows);
+}

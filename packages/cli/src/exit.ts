@@ -1,0 +1,13 @@
+/** Exit statuses of the `onset` command. */
+export const EXIT = {
+  /** Done, and every spec criterion met. */
+  ok: 0,
+  /** Done, but a spec criterion was not met. */
+  specFailed: 1,
+  /** Bad input: the file, an option or the command line. */
+  badInput: 2,
+  /** The simulation failed on a valid file (no convergence, singular circuit). */
+  simulationFailed: 3,
+} as const;
+
+export type ExitStatus = (typeof EXIT)[keyof typeof EXIT];

@@ -1,0 +1,56 @@
+import type { ToleranceSummary } from "@onset/core";
+import type { StoredSample, StudyHeader } from "../study/header.js";
+import { reproduceCommand } from "../study/reproduce.js";
+import type { StudyReport } from "../study/study-report.js";
+import type { Json } from "./results.js";
+
+function sampleJson(s: StoredSample): Json {
+  return { index: s.index, drawn: { ...s.drawn }, pass: s.pass, failures: [...s.failures], error: s.error, metrics: s.metrics ? { ...s.metrics } : null };
+}
+
+function summaryJson(summary: ToleranceSummary): Json {
+  return {
+    runs: summary.runs,
+    verdicts: { ...summary.verdicts },
+    percentiles: JSON.parse(JSON.stringify(summary.percentiles)) as Json,
+    yield: { passed: summary.yield.passed, runs: summary.yield.runs, value: summary.yield.value, interval: { low: summary.yield.interval.low, high: summary.yield.interval.high } },
+    yieldCriterion: summary.yieldCriterion ? { text: summary.yieldCriterion.criterion.text, pass: summary.yieldCriterion.pass } : null,
+    worst: [...summary.worst],
+  };
+}
+
+function studyCommon(h: StudyHeader): Record<string, Json> {
+  return {
+    runs: h.runs,
+    seed: h.seed,
+    dist: h.dist,
+    shard: h.shard ? { ...h.shard } : null,
+    tolerances: h.tolerances.map((t) => ({ ...t })),
+  };
+}
+
+/** A study result for the JSON document: every sample (index, drawn values, metrics) and the summaries. */
+export function studyJson(r: StudyReport): Json {
+  if (r.kind === "tolerance") {
+    return {
+      analysis: "tolerance",
+      ...studyCommon(r.header),
+      samples: r.samples.map(sampleJson),
+      summary: summaryJson(r.summary),
+      reproduce: r.summary.worst.map((index) => ({ index, command: reproduceCommand(r.header, index) })),
+      missing: [...r.missing],
+    };
+  }
+  const sweep = r.header.sweep!;
+  return {
+    analysis: "window",
+    target: sweep.target,
+    unit: sweep.unit,
+    log: sweep.log,
+    required: sweep.required,
+    ...studyCommon(r.header),
+    points: r.points.map((p) => ({ value: p.value, pass: p.pass, summary: summaryJson(p.summary), samples: p.samples.map(sampleJson) })),
+    window: r.window ? { ...r.window } : null,
+    missing: [...r.missing],
+  };
+}

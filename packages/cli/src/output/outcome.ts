@@ -1,0 +1,36 @@
+import type { SimulatingAnalysis } from "@onset/core";
+import type { AnalysisRun } from "../report/plain-types.js";
+import type { SpecChecks } from "../report/spec.js";
+import type { StudyReport } from "../study/study-report.js";
+import type { SweepReport } from "../study/sweep-report.js";
+
+/** What the report is about: the file, its title and the `--set` overrides. */
+export interface ReportSubject {
+  readonly file: string;
+  readonly title: string | null;
+  readonly overrides: Readonly<Record<string, string>>;
+}
+
+/** A sample of a tolerance study rerun on its own (`--sample I`). */
+export interface SampleRerun {
+  readonly index: number;
+  readonly drawn: Readonly<Record<string, number>>;
+}
+
+/** What one `onset run` (or `onset merge`) produced. */
+export type Outcome =
+  | { readonly kind: "plain"; readonly runs: readonly AnalysisRun[]; readonly spec: SpecChecks | null; readonly sample?: SampleRerun }
+  | { readonly kind: "study"; readonly report: StudyReport }
+  | { readonly kind: "sweep"; readonly report: SweepReport; readonly analyses: readonly SimulatingAnalysis[] };
+
+/** The spec outcome the exit status follows; a shard alone judges nothing (its yield is partial). */
+export function outcomeSpec(outcome: Outcome): SpecChecks | null {
+  switch (outcome.kind) {
+    case "plain":
+      return outcome.spec;
+    case "study":
+      return outcome.report.header.shard ? null : outcome.report.spec;
+    case "sweep":
+      return outcome.report.spec;
+  }
+}

@@ -1,0 +1,62 @@
+import type { StartupResult } from "@onset/core";
+import type { Paint } from "../color.js";
+import { biasReport } from "../report/bias.js";
+import { probeUnit } from "../report/plain-types.js";
+import { polesReport } from "../report/poles.js";
+import { predictionCheck } from "../report/prediction.js";
+import { responseReport } from "../report/response.js";
+import { specReport } from "../report/spec.js";
+import { startupReport } from "../report/startup.js";
+import { studyText } from "../report/study.js";
+import { sweepText } from "../report/sweep.js";
+import { transientReport } from "../report/transient.js";
+import type { Outcome, ReportSubject } from "./outcome.js";
+
+function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[][] {
+  const firstStartup = outcome.runs.find((x) => x.result.analysis === "startup");
+  return outcome.runs.map(({ analysis, result }) => {
+    switch (result.analysis) {
+      case "bias":
+        return biasReport(result, p);
+      case "transient":
+        return transientReport(analysis as Extract<typeof analysis, { kind: "transient" }>, result, p);
+      case "startup":
+        return startupReport(result, probeUnit(analysis), p);
+      case "poles": {
+        const check = firstStartup ? predictionCheck(result, firstStartup.result as StartupResult) : null;
+        return polesReport(result, check, firstStartup ? probeUnit(firstStartup.analysis) : "V", p);
+      }
+      case "response":
+        return responseReport(result, p);
+    }
+  });
+}
+
+/** The readable report: a heading, one section per analysis (or the study), then the spec. */
+export function outcomeText(subject: ReportSubject, outcome: Outcome, p: Paint): string {
+  const heading = subject.title ? `${p.bold(subject.title)}  ${p.dim(subject.file)}` : p.bold(subject.file);
+  const head = [heading];
+  const sets = Object.entries(subject.overrides);
+  if (sets.length > 0) head.push(p.dim(`set ${sets.map(([k, v]) => `${k}=${v}`).join(", ")}`));
+  if (outcome.kind === "plain" && outcome.sample) {
+    const drawn = Object.entries(outcome.sample.drawn).map(([k, v]) => `${k} = ${v.toPrecision(6)}`);
+    head.push(p.dim(`tolerance sample #${outcome.sample.index}: ${drawn.join(", ") || "nothing drawn"}`));
+  }
+  const sections: string[][] = [head];
+  if (outcome.kind === "plain") {
+    sections.push(...plainSections(outcome, p));
+    if (outcome.runs.length === 0) sections.push(["no analyses to run: add one such as: startup probe=o"]);
+    if (outcome.spec) sections.push(specReport(outcome.spec, p));
+  } else if (outcome.kind === "study") {
+    sections.push(studyText(outcome.report, p));
+    if (outcome.report.spec) {
+      const spec = specReport(outcome.report.spec, p);
+      if (outcome.report.header.shard) spec.push(p.dim("  (one shard only: merge every shard with onset merge to judge the spec)"));
+      sections.push(spec);
+    }
+  } else {
+    sections.push(sweepText(outcome.report, p));
+    if (outcome.report.spec) sections.push(specReport(outcome.report.spec, p));
+  }
+  return `${sections.map((s) => s.join("\n")).join("\n\n")}\n`;
+}

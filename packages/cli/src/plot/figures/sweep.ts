@@ -1,0 +1,39 @@
+import { formatSI } from "../../format/si.js";
+import type { Figure, Marker, Panel } from "../types.js";
+
+/** Input of {@link sweepFigure}; metrics are NaN where a step did not oscillate. */
+export interface SweepPlot {
+  readonly title: string;
+  /** The swept setting: its name (`R`, `P1.at`), unit and the value at each step. */
+  readonly setting: { readonly name: string; readonly unit: string; readonly values: ArrayLike<number>; readonly log?: boolean };
+  readonly amplitude: ArrayLike<number>;
+  /** @defaultValue `"V"` */
+  readonly amplitudeUnit?: string;
+  readonly frequency: ArrayLike<number>;
+  /** THD as fractions; drawn in percent. */
+  readonly thd: ArrayLike<number>;
+  /** The setting at which oscillation starts, marked on every panel. */
+  readonly threshold?: number;
+}
+
+// Dots make a sweep of a few steps readable; past this many they only add weight.
+const DOTS_UP_TO = 60;
+
+/** Amplitude, frequency and THD against a swept setting: three panels on one x axis. */
+export function sweepFigure(input: SweepPlot): Figure {
+  const { setting } = input;
+  const x = setting.values;
+  const dots = x.length <= DOTS_UP_TO;
+  const markers: Marker[] =
+    input.threshold === undefined || !Number.isFinite(input.threshold)
+      ? []
+      : [{ x: input.threshold, label: `start threshold ${formatSI(input.threshold, setting.unit, 3)}` }];
+  const amplitudeUnit = input.amplitudeUnit ?? "V";
+  const common = { xLabel: setting.name, xUnit: setting.unit, xLog: setting.log === true, markers, height: 300 };
+  const panels: Panel[] = [
+    { ...common, yLabel: "amplitude (peak)", yUnit: amplitudeUnit, series: [{ name: "", x, y: input.amplitude, tone: 0, style: "line", dots }] },
+    { ...common, yLabel: "frequency", yUnit: "Hz", series: [{ name: "", x, y: input.frequency, tone: 1, style: "line", dots }] },
+    { ...common, yLabel: "THD", yUnit: "%", series: [{ name: "", x, y: Float64Array.from(input.thd, (v) => v * 100), tone: 2, style: "line", dots }] },
+  ];
+  return { title: input.title, panels, sharedX: true };
+}

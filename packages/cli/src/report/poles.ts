@@ -1,0 +1,40 @@
+import type { PolesResult } from "@onset/core";
+import type { Paint } from "../color.js";
+import type { PredictionCheck } from "./prediction.js";
+import { table } from "./table.js";
+import { perSecond, si } from "./values.js";
+
+/** The poles table (rightmost first), the dominant pair and, with a start-up run, prediction against simulation. */
+export function polesReport(r: PolesResult, check: PredictionCheck | null, unit: "V" | "A", p: Paint): string[] {
+  const lines = [p.bold("poles at the bias point") + p.dim(`  (${r.poles.length} finite, rightmost first)`)];
+  lines.push(
+    ...table(
+      [{ header: "real", align: "right" }, { header: "imaginary", align: "right" }, { header: "frequency", align: "right" }],
+      r.poles.map((pole) => [perSecond(pole.real), si(pole.imag, "rad/s"), pole.imag === 0 ? "" : si(Math.abs(pole.imag) / (2 * Math.PI), "Hz")]),
+    ),
+  );
+  if (r.dominant === null) lines.push("  no complex pair: the circuit does not ring at its bias point");
+  else {
+    const where = r.starts ? p.green("right half-plane: an oscillation starts") : p.red("not in the right half-plane: it decays, no oscillation starts");
+    lines.push(`  dominant pair ${si(r.frequency, "Hz")}, growth rate ${perSecond(r.growthRate)}; ${where}`);
+  }
+  if (check) {
+    lines.push("", `  predicted against simulated (start-up on ${check.probe})`);
+    lines.push(
+      ...table(
+        [{ header: "" }, { header: "predicted", align: "right" }, { header: "simulated", align: "right" }],
+        [
+          ["frequency", si(check.predicted.frequency, "Hz"), si(check.simulated.frequency, "Hz")],
+          ["growth rate", perSecond(check.predicted.growthRate), perSecond(check.simulated.growthRate)],
+          ["start-up time", si(check.predicted.startupTime, "s"), si(check.simulated.startupTime, "s")],
+        ],
+        "    ",
+      ),
+    );
+    lines.push(
+      p.dim(`    predicted start-up time = ln(0.9 × settled amplitude / kick response) / growth rate, kick response ${si(check.kickResponse, unit, 3)}`),
+      p.dim("    (largest departure of the probe during the kick)"),
+    );
+  }
+  return lines;
+}

@@ -1,0 +1,65 @@
+import type { SpecMetric } from "@onset/core";
+import { formatPercent, formatPlain, formatSI } from "../format/index.js";
+import { NOT_A_NUMBER } from "../format/symbols.js";
+
+/** A value in SI base units with a prefix (`4.73 V`, `1.012 kHz`), or `—` when absent. */
+export function si(value: number | null | undefined, unit: string, significant = 4): string {
+  return value === null || value === undefined ? NOT_A_NUMBER : formatSI(value, unit, significant);
+}
+
+/** A fraction as percent, or `—`. */
+export function percent(value: number | null | undefined, significant = 4): string {
+  return value === null || value === undefined ? NOT_A_NUMBER : formatPercent(value, significant);
+}
+
+/** A rate in 1/s (growth rates, pole real parts): `983.2 /s`; prefixes would read as ks. */
+export function perSecond(value: number | null | undefined): string {
+  return value === null || value === undefined ? NOT_A_NUMBER : `${formatPlain(value, 4)} /s`;
+}
+
+/** The unit a spec metric is measured in (`1` for a fraction shown as percent). */
+export function metricUnit(metric: SpecMetric | string): string {
+  switch (metric) {
+    case "frequency":
+    case "predictedFrequency":
+      return "Hz";
+    case "amplitude":
+    case "offset":
+    case "rms":
+    case "peakToPeak":
+      return "V";
+    case "startup":
+    case "settling":
+    case "startupTime":
+    case "settlingTime":
+      return "s";
+    case "growthRate":
+    case "predictedGrowthRate":
+      return "/s";
+    default:
+      return "1";
+  }
+}
+
+/** A metric's value in its unit: THD and yield as percent, growth rates per second. */
+export function metric(metricName: SpecMetric | string, value: number | null | undefined): string {
+  const unit = metricUnit(metricName);
+  if (unit === "1") return percent(value);
+  if (unit === "/s") return perSecond(value);
+  return si(value, unit);
+}
+
+/** How metrics are called in reports. */
+export const METRIC_LABELS: Readonly<Record<string, string>> = {
+  frequency: "frequency",
+  amplitude: "amplitude",
+  thd: "THD",
+  startupTime: "start-up time",
+  settlingTime: "settling time",
+  growthRate: "growth rate",
+  offset: "offset",
+  rms: "rms",
+  peakToPeak: "peak-to-peak",
+  predictedFrequency: "predicted frequency",
+  predictedGrowthRate: "predicted growth rate",
+};

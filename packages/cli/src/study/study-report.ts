@@ -1,0 +1,111 @@
+import { DEFAULT_REQUIRED_YIELD, meets, summarizeSamples, shardIndices, type ToleranceSummary } from "@onset/core";
+import type { SpecChecks } from "../report/spec.js";
+import type { StoredSample, StudyHeader } from "./header.js";
+
+/** A tolerance study's report: the samples in index order, their summary and the yield check. */
+export interface ToleranceReport {
+  readonly kind: "tolerance";
+  readonly header: StudyHeader;
+  readonly samples: readonly StoredSample[];
+  readonly summary: ToleranceSummary;
+  readonly spec: SpecChecks | null;
+  /** Indices of this study (or shard) that have no sample yet. */
+  readonly missing: readonly number[];
+}
+
+/** One setting of a design window. */
+export interface WindowPointReport {
+  readonly value: number;
+  readonly samples: readonly StoredSample[];
+  readonly summary: ToleranceSummary;
+  readonly pass: boolean;
+}
+
+/** Sweep × tolerance: the yield at each setting and the widest run of settings that meet it. */
+export interface WindowReport {
+  readonly kind: "window";
+  readonly header: StudyHeader;
+  readonly points: readonly WindowPointReport[];
+  readonly window: { readonly from: number; readonly to: number } | null;
+  readonly spec: SpecChecks | null;
+  readonly missing: readonly number[];
+}
+
+export type StudyReport = ToleranceReport | WindowReport;
+
+/** The yield required of a design window: the spec's `yield>` limit, else 99 % (common practice). */
+export function requiredYield(header: Pick<StudyHeader, "criteria">): number {
+  const c = header.criteria.find((x) => x.metric === "yield");
+  return c && c.test !== "within" ? c.limit : DEFAULT_REQUIRED_YIELD;
+}
+
+function byIndex(samples: readonly StoredSample[]): StoredSample[] {
+  return [...samples].sort((a, b) => a.index - b.index);
+}
+
+function missingOf(header: StudyHeader, samples: readonly StoredSample[]): number[] {
+  const have = new Set(samples.map((s) => s.index));
+  return shardIndices(header.runs, header.shard ?? undefined).filter((i) => !have.has(i));
+}
+
+/**
+ * The spec of a tolerance study: the `yield>` criterion against the yield when the spec has
+ * one; otherwise every sample must meet the spec (a yield of 100 %).
+ */
+function toleranceSpec(header: StudyHeader, summary: ToleranceSummary): SpecChecks | null {
+  if (header.criteria.length === 0) return null;
+  const measured = summary.yield.value;
+  const yc = header.criteria.find((c) => c.metric === "yield");
+  const on = `the yield of ${summary.runs} ${summary.runs === 1 ? "sample" : "samples"}`;
+  if (yc) {
+    const pass = meets(yc, measured);
+    return { pass, on, criteria: [{ text: yc.text, metric: "yield", measured, pass }] };
+  }
+  const pass = summary.runs > 0 && summary.yield.passed === summary.runs;
+  return { pass, on, criteria: [{ text: "every sample meets the spec", metric: "yield", measured, pass }] };
+}
+
+/** Builds the tolerance report from a header and samples, whichever order they finished in. */
+export function toleranceReport(header: StudyHeader, samples: readonly StoredSample[]): ToleranceReport {
+  const ordered = byIndex(samples);
+  const summary = summarizeSamples(ordered, header.criteria);
+  return { kind: "tolerance", header, samples: ordered, summary, spec: toleranceSpec(header, summary), missing: missingOf(header, ordered) };
+}
+
+/** Builds the design-window report: one summary per setting and the widest passing range. */
+export function windowReport(header: StudyHeader, samples: readonly StoredSample[]): WindowReport {
+  const sweep = header.sweep!;
+  const required = sweep.required;
+  const points = sweep.values.map((value, k) => {
+    const mine = byIndex(samples.filter((s) => (s.point ?? 0) === k));
+    const summary = summarizeSamples(mine, header.criteria);
+    return { value, samples: mine, summary, pass: summary.runs > 0 && summary.yield.value >= required };
+  });
+  let best: { from: number; to: number; count: number } | null = null;
+  let current: { from: number; to: number; count: number } | null = null;
+  for (const p of points) {
+    if (!p.pass) {
+      current = null;
+      continue;
+    }
+    current = current ? { from: current.from, to: p.value, count: current.count + 1 } : { from: p.value, to: p.value, count: 1 };
+    if (!best || current.count > best.count) best = current;
+  }
+  const yc = header.criteria.find((c) => c.metric === "yield");
+  const bestYield = Math.max(0, ...points.map((p) => p.summary.yield.value));
+  const spec: SpecChecks | null =
+    header.criteria.length === 0
+      ? null
+      : {
+          pass: best !== null,
+          on: `the yield at each setting of ${sweep.target}`,
+          criteria: [{ text: `${yc?.text ?? `yield>${required * 100}%`} at some setting`, metric: "yield", measured: bestYield, pass: best !== null }],
+        };
+  const missing = points.flatMap((p, k) => missingOf(header, p.samples).map((i) => k * header.runs + i));
+  return { kind: "window", header, points, window: best ? { from: best.from, to: best.to } : null, spec, missing };
+}
+
+/** The report of a study, tolerance or design window, from its header and samples. */
+export function studyReport(header: StudyHeader, samples: readonly StoredSample[]): StudyReport {
+  return header.sweep ? windowReport(header, samples) : toleranceReport(header, samples);
+}

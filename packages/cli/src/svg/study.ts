@@ -1,0 +1,62 @@
+import type { SpecCriterion } from "@onset/core";
+import { toleranceFigure, type Figure, type SpecLimit } from "../plot/index.js";
+import type { StoredSample } from "../study/header.js";
+import type { StudyReport } from "../study/study-report.js";
+
+function limitOf(criteria: readonly SpecCriterion[], metric: SpecCriterion["metric"]): SpecLimit | undefined {
+  const c = criteria.find((x) => x.metric === metric);
+  if (!c) return undefined;
+  if (c.test === "within") return { min: c.low, max: c.high, minLabel: `${c.text} low`, maxLabel: `${c.text} high` };
+  return c.test === "below" ? { max: c.limit, maxLabel: c.text } : { min: c.limit, minLabel: c.text };
+}
+
+const column = (samples: readonly StoredSample[], key: "frequency" | "amplitude" | "thd" | "startupTime") =>
+  Float64Array.from(samples, (s) => (typeof s.metrics?.[key] === "number" ? (s.metrics[key] as number) : Number.NaN));
+
+/** A tolerance study's histograms with the spec limits; a design window's yield against the setting. */
+export function studyFigure(r: StudyReport, title: string): Figure {
+  const h = r.header;
+  if (r.kind === "tolerance") {
+    const limits: Record<string, SpecLimit> = {};
+    for (const [key, metric] of [["frequency", "frequency"], ["amplitude", "amplitude"], ["thd", "thd"], ["startupTime", "startup"]] as const) {
+      const l = limitOf(h.criteria, metric);
+      if (l) limits[key] = l;
+    }
+    return toleranceFigure({
+      title: `${title} \u2014 tolerance`,
+      frequency: column(r.samples, "frequency"),
+      amplitude: column(r.samples, "amplitude"),
+      thd: column(r.samples, "thd"),
+      startupTime: column(r.samples, "startupTime"),
+      limits,
+    });
+  }
+  const sweep = h.sweep!;
+  const x = sweep.values;
+  const markers = r.window
+    ? [
+        { x: r.window.from, label: "window from" },
+        { x: r.window.to, label: "window to" },
+      ]
+    : [];
+  return {
+    title: `${title} \u2014 design window over ${sweep.target}`,
+    sharedX: true,
+    panels: [
+      {
+        xLabel: sweep.target,
+        xUnit: sweep.unit,
+        xLog: sweep.log,
+        yLabel: "yield",
+        yUnit: "%",
+        yRange: [0, 100],
+        markers,
+        series: [
+          { name: "yield", x, y: r.points.map((p) => p.summary.yield.value * 100), dots: true, tone: 0, style: "line" },
+          { name: "95 % interval low", x, y: r.points.map((p) => p.summary.yield.interval.low * 100), tone: 1, style: "dotted" },
+          { name: "required", x, y: x.map(() => sweep.required * 100), tone: 3, style: "dashed" },
+        ],
+      },
+    ],
+  };
+}

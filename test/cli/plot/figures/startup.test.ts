@@ -1,0 +1,53 @@
+import { describe, expect, it } from "vitest";
+import { renderFigure } from "../../../../packages/cli/src/plot/figure.js";
+import { SPECTRUM_FLOOR_DBC, startupFigure } from "../../../../packages/cli/src/plot/figures/startup.js";
+import { byClass, byName, parseSvg, type SvgNode } from "../svg-tree.js";
+
+const time = Float64Array.from({ length: 3001 }, (_, i) => i * 1e-5);
+const envelopeAt = (t: number): number => 2 / (1 + Math.exp(-(t - 0.012) / 0.002));
+const values = Float64Array.from(time, (t) => envelopeAt(t) * Math.sin(2 * Math.PI * 1000 * t));
+const cycles = Float64Array.from({ length: 30 }, (_, k) => (k + 0.5) * 1e-3);
+const harmonics = [
+  { order: 1, frequency: 1000, amplitude: 2 },
+  { order: 2, frequency: 2000, amplitude: 0.02 },
+  { order: 3, frequency: 3000, amplitude: 0.002 },
+  { order: 4, frequency: 4000, amplitude: 0 },
+];
+
+describe("startupFigure(input)", () => {
+  const figure = startupFigure({
+    title: "start-up",
+    time,
+    probe: { name: "out", unit: "V", values },
+    envelope: { time: cycles, values: cycles.map(envelopeAt) },
+    startupTime: 0.0132,
+    settlingTime: 0.0201,
+    harmonics,
+    thd: 0.01012,
+  });
+  const root = parseSvg(renderFigure(figure));
+  const [wavePanel, spectrum] = byClass(root, "panel") as [SvgNode, SvgNode];
+
+  it("marks the start-up and settling times with their values", () => {
+    expect(byClass(wavePanel, "marker-label").map((m) => m.text)).toEqual(["start-up 13.2 ms", "settled 20.1 ms"]);
+  });
+
+  it("draws ± envelope as one legend entry and two lines beside the waveform", () => {
+    expect(byClass(wavePanel, "legend-entry").map((e) => byName(e, "text")[0]?.text)).toEqual(["out", "\u00b1 envelope"]);
+    expect(byName(wavePanel, "polyline")).toHaveLength(3);
+  });
+
+  // dBc is 20·log10 of the amplitude relative to the carrier, here the fundamental (common
+  // practice): 0.02 V against 2 V is −40 dBc.
+  it("puts the spectrum below, as bars in dBc, floored for a zero harmonic", () => {
+    expect(figure.panels[1]?.series[0]?.y).toEqual(Float64Array.from([0, -40, -60, SPECTRUM_FLOOR_DBC]));
+    expect(byName(spectrum, "rect").filter((r) => r.attributes["fill-opacity"] === "0.55")).toHaveLength(4);
+    expect(byClass(spectrum, "panel-title")[0]?.text).toBe("spectrum, fundamental 1 kHz, THD 1.01 %");
+  });
+
+  it("leaves the spectrum out without harmonics and the markers out without times", () => {
+    const bare = startupFigure({ title: "bare", time, probe: { name: "out", unit: "V", values } });
+    expect(bare.panels).toHaveLength(1);
+    expect(bare.panels[0]?.markers).toEqual([]);
+  });
+});

@@ -1,0 +1,161 @@
+import { readFileSync, writeFileSync } from "node:fs";
+import { afterAll, beforeAll, describe, expect, test } from "vitest";
+import { Workspace, wien, type Ran } from "./support/onset.js";
+
+const ws = new Workspace();
+afterAll(() => ws.remove());
+
+// A tiny study keeps the suite fast: six samples of a short start-up.
+const STUDY = wien("startup probe=o until=30m\ntolerance runs=6 seed=11\nspec frequency=1.55k±5% amplitude=10..16 yield>50%\n");
+
+interface Sample {
+  index: number;
+  drawn: Record<string, number>;
+  metrics: { frequency: number; amplitude: number } | null;
+  pass: boolean;
+}
+interface StudyDoc {
+  exit: number;
+  results: [{ analysis: string; samples: Sample[]; summary: { yield: { value: number; interval: { low: number; high: number } }; percentiles: Record<string, { median: number }> } }];
+}
+
+let single: Ran;
+beforeAll(async () => {
+  ws.write("study.onset", STUDY);
+  single = await ws.run(["run", "study.onset", "--json", "--jobs", "1", "--results", "single.jsonl"]);
+});
+
+describe("a tolerance study", () => {
+  test("reports every sample with its drawn values and metrics, and the yield with its Wilson interval", () => {
+    expect(single.status).toBe(0);
+    const doc = JSON.parse(single.stdout) as StudyDoc;
+    const study = doc.results[0];
+    expect(study.analysis).toBe("tolerance");
+    expect(study.samples.map((s) => s.index)).toEqual([0, 1, 2, 3, 4, 5]);
+    for (const s of study.samples) {
+      expect(Object.keys(s.drawn)).toEqual(["R1", "C1", "R2", "C2", "Rf", "Rg"]);
+      // ±1 % and ±5 % tolerances: every drawn value stays within its band (normal draws are cut at ±tol).
+      expect(Math.abs(s.drawn.R1! / 10e3 - 1)).toBeLessThanOrEqual(0.01);
+      expect(Math.abs(s.drawn.C1! / 10e-9 - 1)).toBeLessThanOrEqual(0.05);
+      expect(s.metrics).not.toBeNull();
+    }
+    const y = study.summary.yield;
+    expect(y.value).toBe(study.samples.filter((s) => s.pass).length / 6);
+    expect(y.interval.low).toBeLessThanOrEqual(y.value);
+    expect(y.interval.high).toBeGreaterThanOrEqual(y.value);
+  });
+
+  test("the results file holds a header and one line per sample", () => {
+    const lines = readFileSync(ws.path("single.jsonl"), "utf8").trimEnd().split("\n");
+    expect(lines).toHaveLength(7);
+    expect(JSON.parse(lines[0]!)).toMatchObject({ onset: "tolerance-results", file: "study.onset", runs: 6, seed: 11, dist: "normal", shard: null });
+  });
+
+  test("one worker and two workers give the same document, byte for byte", async () => {
+    const two = await ws.run(["run", "study.onset", "--json", "--jobs", "2", "--results", "two.jsonl"]);
+    expect(two.status).toBe(0);
+    expect(two.stdout).toBe(single.stdout);
+  });
+
+  test("shards run as separate concurrent processes, merged, equal the single run byte for byte", async () => {
+    const shards = await Promise.all([
+      ws.run(["run", "study.onset", "--shard", "0/3", "--jobs", "1", "--json"]),
+      ws.run(["run", "study.onset", "--shard", "1/3", "--jobs", "1", "--quiet"]),
+      ws.run(["run", "study.onset", "--shard", "env:SHARD_INDEX/3", "--jobs", "1", "--quiet"], undefined, { SHARD_INDEX: "2" }),
+    ]);
+    for (const s of shards) expect(s.status).toBe(0);
+    const partial = JSON.parse(shards[0]!.stdout) as StudyDoc;
+    expect(partial.results[0].samples.map((s) => s.index)).toEqual([0, 1]);
+    const files = [0, 1, 2].map((k) => `study.shard-${k}-of-3.results.jsonl`);
+    const merged = await ws.run(["merge", ...files, "--json"]);
+    expect(merged.status).toBe(0);
+    expect(merged.stdout).toBe(single.stdout);
+    const text = await Promise.all([ws.run(["merge", ...files.reverse()]), ws.run(["run", "study.onset", "--jobs", "1", "--results", "text.jsonl"])]);
+    expect(text[0]!.stdout).toBe(text[1]!.stdout);
+  });
+
+  test("merging without every shard is an error that names the missing one", async () => {
+    const r = await ws.run(["merge", "study.shard-0-of-3.results.jsonl", "study.shard-2-of-3.results.jsonl"]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain("shards 1/3 not given");
+  });
+
+  test("--resume after an interrupted run (a cut-off last line) runs only the missing samples and reports as one run", async () => {
+    const full = readFileSync(ws.path("single.jsonl"), "utf8");
+    const lines = full.split("\n");
+    // header + three whole samples + half of the fourth, as a kill in mid-write leaves it
+    const cut = `${lines.slice(0, 4).join("\n")}\n${lines[4]!.slice(0, 40)}`;
+    writeFileSync(ws.path("cut.jsonl"), cut);
+    const r = await ws.run(["run", "study.onset", "--json", "--jobs", "1", "--results", "cut.jsonl", "--resume"]);
+    expect(r.status).toBe(0);
+    expect(r.stderr).toContain("cut off");
+    expect(r.stdout).toBe(single.stdout);
+    const after = readFileSync(ws.path("cut.jsonl"), "utf8");
+    expect(after.startsWith(`${lines.slice(0, 4).join("\n")}\n`)).toBe(true);
+    expect(after.trimEnd().split("\n")).toHaveLength(7);
+  });
+
+  test("--resume refuses a results file of another study", async () => {
+    const r = await ws.run(["run", "study.onset", "--results", "single.jsonl", "--resume", "--set", "Rf=23k"]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain("holds a different study");
+  });
+
+  test("the text report lists percentiles, the yield and a command that reproduces a worst sample", async () => {
+    const r = await ws.run(["run", "study.onset", "--jobs", "1", "--results", "text.jsonl"]);
+    expect(r.stdout).toMatch(/metric +min +p1 +p5 +median +p95 +p99 +max/);
+    expect(r.stdout).toMatch(/yield \d+(\.\d+)? % \(\d of 6 pass\), 95 % Wilson interval/);
+    expect(r.stdout).toMatch(/reproduce: onset run study\.onset --sample \d/);
+  });
+
+  test("--sample I reruns sample I alone with the same drawn values and metrics", async () => {
+    const doc = JSON.parse(single.stdout) as StudyDoc;
+    const target = doc.results[0].samples[4]!;
+    const r = await ws.run(["run", "study.onset", "--sample", "4", "--json"]);
+    const rerun = JSON.parse(r.stdout) as { sample: { index: number; drawn: Record<string, number> }; results: { frequency: number; amplitude: number }[] };
+    expect(rerun.sample).toEqual({ index: 4, drawn: target.drawn });
+    expect(rerun.results[0]!.frequency).toBe(target.metrics!.frequency);
+    expect(rerun.results[0]!.amplitude).toBe(target.metrics!.amplitude);
+  });
+});
+
+describe("sweeps and the design window", () => {
+  test("a sweep of the feedback resistor finds the start threshold near Rf = 2·Rg (gain 3, Barkhausen)", async () => {
+    ws.write("sweep.onset", wien("startup probe=o until=30m\nsweep Rf from=18k to=24k steps=3\n"));
+    const r = await ws.run(["run", "sweep.onset", "--json", "--csv", "sweep.csv"]);
+    expect(r.status).toBe(0);
+    const sweep = (JSON.parse(r.stdout) as { results: [{ analysis: string; points: unknown[]; threshold: { value: number; startsAbove: boolean; margin: number } }] }).results[0];
+    expect(sweep.analysis).toBe("sweep");
+    expect(sweep.points).toHaveLength(3);
+    // Wien bridge: the loop gain reaches 1 at an amplifier gain of 3, i.e. Rf = 2·Rg = 20 kΩ
+    // (Sedra & Smith); the op-amp's finite gain and bandwidth move it by less than 5 %.
+    expect(sweep.threshold.value / 20e3).toBeCloseTo(1, 1);
+    expect(sweep.threshold.startsAbove).toBe(true);
+    expect(sweep.threshold.margin).toBeGreaterThan(0);
+    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,pass");
+  });
+
+  test("sweep × tolerance gives the yield at each setting and the window that meets it", async () => {
+    ws.write("window.onset", wien("startup probe=o until=30m\nsweep Rf from=19k to=23k steps=2\ntolerance runs=3 seed=2\nspec amplitude=10..16 yield>60%\n"));
+    const r = await ws.run(["run", "window.onset", "--json", "--jobs", "1"]);
+    expect(r.status).toBe(0);
+    const w = (JSON.parse(r.stdout) as { results: [{ analysis: string; points: { value: number; pass: boolean; samples: { drawn: Record<string, number> }[] }[]; window: { from: number; to: number } }] }).results[0];
+    expect(w.analysis).toBe("window");
+    expect(w.points.map((p) => [p.value, p.pass])).toEqual([
+      [19e3, false],
+      [23e3, true],
+    ]);
+    expect(w.window).toEqual({ from: 23e3, to: 23e3 });
+    // The swept resistor is set, not drawn.
+    expect(Object.keys(w.points[0]!.samples[0]!.drawn)).not.toContain("Rf");
+  });
+});
+
+describe("onset design", () => {
+  test("writes a circuit file that checks clean", async () => {
+    const designed = await ws.run(["design", "wien", "--freq", "1k", "--output", "designed.onset"]);
+    expect(designed.status).toBe(0);
+    const checked = await ws.run(["check", "designed.onset"]);
+    expect(checked.status).toBe(0);
+  });
+});
