@@ -30,3 +30,27 @@ export function sampleAt(time: ArrayLike<number>, values: ArrayLike<number>, t: 
   }
   return sum;
 }
+
+/**
+ * The Wien network from output `o` to input `p`: series R1–C1 (through node s) and parallel
+ * R2 ∥ C2 to gnd (references §2.1).
+ */
+export function wienNetwork(v: { R1: number; R2: number; C1: number; C2: number }): PartSpec[] {
+  return [
+    part("resistor", "R1", ["o", "s"], v.R1),
+    part("capacitor", "C1", ["s", "p"], v.C1),
+    part("resistor", "R2", ["p", "gnd"], v.R2),
+    part("capacitor", "C2", ["p", "gnd"], v.C2),
+  ];
+}
+
+/** The C–R ladder of a phase-shift oscillator from `o` to node c (its last R is added by the caller). */
+export function crLadder(R: number, C: number): PartSpec[] {
+  return [
+    part("capacitor", "C1", ["o", "a"], C),
+    part("resistor", "R1", ["a", "gnd"], R),
+    part("capacitor", "C2", ["a", "b"], C),
+    part("resistor", "R2", ["b", "gnd"], R),
+    part("capacitor", "C3", ["b", "c"], C),
+  ];
+}

@@ -1,19 +1,13 @@
 import { describe, expect, test } from "vitest";
 import { runPoles, runResponse, type PartSpec } from "@onset/core";
-import { circuit, part } from "../../support/circuits.js";
+import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js";
 
 const R = 1e3;
 const C = 100e-9;
 
 /** Equal-RC Wien bridge around an ideal amplifier of gain A (a VCVS), references §2.1. */
 function wien(A: number): PartSpec[] {
-  return [
-    part("resistor", "R1", ["o", "s"], R),
-    part("capacitor", "C1", ["s", "p"], C),
-    part("resistor", "R2", ["p", "gnd"], R),
-    part("capacitor", "C2", ["p", "gnd"], C),
-    part("vcvs", "E1", ["o", "gnd", "p", "gnd"], A),
-  ];
+  return [...wienNetwork({ R1: R, R2: R, C1: C, C2: C }), part("vcvs", "E1", ["o", "gnd", "p", "gnd"], A)];
 }
 
 describe("poles (generalized eigenvalues of G + sC)", () => {
@@ -50,11 +44,7 @@ describe("poles (generalized eigenvalues of G + sC)", () => {
   test("three-section C–R ladder with an inverting gain of 30: x = 0.002591 + 0.402882j, σ = 25.913 s⁻¹, f = 641.2059 Hz (references §2.2)", () => {
     const r = runPoles(
       circuit([
-        part("capacitor", "C1", ["o", "a"], C),
-        part("resistor", "R1", ["a", "gnd"], R),
-        part("capacitor", "C2", ["a", "b"], C),
-        part("resistor", "R2", ["b", "gnd"], R),
-        part("capacitor", "C3", ["b", "c"], C),
+        ...crLadder(R, C),
         part("resistor", "R3", ["c", "gnd"], R),
         part("vcvs", "E1", ["o", "gnd", "c", "gnd"], -30),
       ]),

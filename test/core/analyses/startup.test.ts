@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
 import { opampPresets, runStartup, type PartSpec } from "@onset/core";
-import { circuit, part } from "../../support/circuits.js";
+import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js";
 
 const R = 1e3;
 const C = 100e-9;
@@ -13,10 +13,7 @@ const startup = (parts: PartSpec[], probe = "o", until: number | "auto" = "auto"
 /** Equal-RC Wien bridge; the op-amp's gain is set by Rf/Rg to A, clipping at ±10 V. */
 function wien(A: number): PartSpec[] {
   return [
-    part("resistor", "R1", ["o", "s"], R),
-    part("capacitor", "C1", ["s", "p"], C),
-    part("resistor", "R2", ["p", "gnd"], R),
-    part("capacitor", "C2", ["p", "gnd"], C),
+    ...wienNetwork({ R1: R, R2: R, C1: C, C2: C }),
     part("resistor", "Rf", ["o", "n"], (A - 1) * R),
     part("resistor", "Rg", ["n", "gnd"], R),
     part("opamp", "U1", ["p", "n", "o"], undefined, nearIdeal([-10, 10])),
@@ -26,11 +23,7 @@ function wien(A: number): PartSpec[] {
 /** Three-section C–R ladder into an inverting stage: the third R is the input resistor to the virtual ground (references §2.2). */
 function phaseShift(A: number): PartSpec[] {
   return [
-    part("capacitor", "C1", ["o", "a"], C),
-    part("resistor", "R1", ["a", "gnd"], R),
-    part("capacitor", "C2", ["a", "b"], C),
-    part("resistor", "R2", ["b", "gnd"], R),
-    part("capacitor", "C3", ["b", "c"], C),
+    ...crLadder(R, C),
     part("resistor", "R3", ["c", "n"], R),
     part("resistor", "Rf", ["n", "o"], A * R),
     part("opamp", "U1", ["gnd", "n", "o"], undefined, nearIdeal([-10, 10])),

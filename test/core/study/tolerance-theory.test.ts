@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
 import { drawSample, pencilPoles, dominantPair, linearize, buildSystem, NewtonSolver, DEFAULT_TOLERANCES, solveBias, shardIndices, type ToleranceSpec } from "@onset/core";
-import { circuit, part } from "../../support/circuits.js";
+import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 const tolerances: ToleranceSpec[] = [
   { target: "R1", nominal: 1e3, relative: 0.01 },
@@ -11,13 +11,7 @@ const tolerances: ToleranceSpec[] = [
 
 /** Frequency of the linearised equal-RC Wien bridge around an ideal gain of 3 for drawn values. */
 function wienFrequency(v: Record<string, number>): number {
-  const c = circuit([
-    part("resistor", "R1", ["o", "s"], v.R1!),
-    part("capacitor", "C1", ["s", "p"], v.C1!),
-    part("resistor", "R2", ["p", "gnd"], v.R2!),
-    part("capacitor", "C2", ["p", "gnd"], v.C2!),
-    part("vcvs", "E1", ["o", "gnd", "p", "gnd"], 3),
-  ]);
+  const c = circuit([...wienNetwork({ R1: v.R1!, R2: v.R2!, C1: v.C1!, C2: v.C2! }), part("vcvs", "E1", ["o", "gnd", "p", "gnd"], 3)]);
   const system = buildSystem(c);
   const bias = solveBias(system, new NewtonSolver(system, DEFAULT_TOLERANCES));
   return dominantPair(pencilPoles(linearize(system, bias.x)))!.imag / (2 * Math.PI);

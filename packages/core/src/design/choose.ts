@@ -1,24 +1,12 @@
+import { withPrefix } from "../units/si-prefix.js";
 import { E_SERIES, snapToSeries, type SeriesName } from "./eseries.js";
 
 /** A value as written in a circuit file: up to four significant digits and an SI prefix (`13.7k`, `4.7n`). */
 export function writeValue(value: number): string {
   if (value === 0) return "0";
-  const prefixes: Array<[number, string]> = [
-    [1e12, "T"],
-    [1e9, "G"],
-    [1e6, "M"],
-    [1e3, "k"],
-    [1, ""],
-    [1e-3, "m"],
-    [1e-6, "u"],
-    [1e-9, "n"],
-    [1e-12, "p"],
-    [1e-15, "f"],
-  ];
-  const magnitude = Math.abs(value);
-  const [scale, prefix] = prefixes.find(([s]) => magnitude >= s * 0.99995) ?? prefixes[prefixes.length - 1]!;
-  const mantissa = Number((value / scale).toPrecision(4));
-  return `${mantissa}${prefix}`;
+  const { mantissa, prefix } = withPrefix(value);
+  // The language also accepts µ; u keeps generated files plain ASCII.
+  return `${mantissa}${prefix === "µ" ? "u" : prefix}`;
 }
 
 /** The impedance level resistors are aimed at when the capacitor is free (common practice). */

@@ -113,6 +113,30 @@ function raiseUntilStarts(build: (r: number) => Line[], from: number, series: Se
   return last!;
 }
 
+/**
+ * Rf1 from `from` to f, Rf2 from f to the output o, and anti-parallel diode strings across Rf2
+ * (`perString` diodes in series each way): the gain falls as the swing turns the diodes on.
+ */
+function limitedFeedback(from: string, rf1: number, rf2: number, perString: 1 | 2, rf2Comment: string): Line[] {
+  const diodes: Line[] =
+    perString === 1
+      ? [
+          { kind: "diode", name: "D1", nodes: ["f", "o"] },
+          { kind: "diode", name: "D2", nodes: ["o", "f"] },
+        ]
+      : [
+          { kind: "diode", name: "D1", nodes: ["f", "x1"] },
+          { kind: "diode", name: "D2", nodes: ["x1", "o"] },
+          { kind: "diode", name: "D3", nodes: ["o", "x2"] },
+          { kind: "diode", name: "D4", nodes: ["x2", "f"] },
+        ];
+  return [
+    { kind: "resistor", name: "Rf1", nodes: [from, "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
+    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: rf2Comment },
+    ...diodes,
+  ];
+}
+
 function wien(req: DesignResult["request"], required: number): Sizing {
   const { frequency: f, capacitor: c, series } = req;
   const ideal = 1 / (2 * Math.PI * f * c);
@@ -126,10 +150,7 @@ function wien(req: DesignResult["request"], required: number): Sizing {
     { kind: "resistor", name: "R2", nodes: ["p", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
     { kind: "capacitor", name: "C2", nodes: ["p", "gnd"], value: c, tolerance: CAPACITOR_TOLERANCE },
     { kind: "resistor", name: "Rg", nodes: ["n", "gnd"], value: rg, tolerance: RESISTOR_TOLERANCE },
-    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
-    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diodes across it settle the amplitude" },
-    { kind: "diode", name: "D1", nodes: ["f", "o"] },
-    { kind: "diode", name: "D2", nodes: ["o", "f"] },
+    ...limitedFeedback("n", rf1, rf2, 1, "start margin; the diodes across it settle the amplitude"),
     opampLine(["p", "n", "o"], req.preset, req.rails),
   ];
   const chosen = raiseUntilStarts(lines, 0.25 * rg, series, required);
@@ -164,10 +185,7 @@ function phaseShift(req: DesignResult["request"], required: number): Sizing {
     { kind: "resistor", name: "R2", nodes: ["b", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
     { kind: "capacitor", name: "C3", nodes: ["b", "c"], value: c, tolerance: CAPACITOR_TOLERANCE },
     { kind: "resistor", name: "R3", nodes: ["c", "n"], value: r, tolerance: RESISTOR_TOLERANCE, comment: "the last shunt R, to the virtual ground" },
-    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
-    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diodes across it settle the amplitude" },
-    { kind: "diode", name: "D1", nodes: ["f", "o"] },
-    { kind: "diode", name: "D2", nodes: ["o", "f"] },
+    ...limitedFeedback("n", rf1, rf2, 1, "start margin; the diodes across it settle the amplitude"),
     opampLine(["gnd", "n", "o"], req.preset, req.rails),
   ];
   const chosen = raiseUntilStarts(lines, 3 * r, series, required);
@@ -205,12 +223,7 @@ function twinTLines(r: number, rs: number, c: number, rin: number, rf1: number, 
     { kind: "capacitor", name: "Cb", nodes: ["m2", "t"], value: c, tolerance: CAPACITOR_TOLERANCE },
     { kind: "resistor", name: "Rs", nodes: ["m2", "gnd"], value: rs, tolerance: RESISTOR_TOLERANCE, comment: "under half of Ra: the notch turns the phase by −180°" },
     { kind: "resistor", name: "Rin", nodes: ["t", "n"], value: rin, tolerance: RESISTOR_TOLERANCE },
-    { kind: "resistor", name: "Rf1", nodes: ["n", "f"], value: rf1, tolerance: RESISTOR_TOLERANCE },
-    { kind: "resistor", name: "Rf2", nodes: ["f", "o"], value: rf2, tolerance: RESISTOR_TOLERANCE, comment: "start margin; the diode pairs across it settle the amplitude" },
-    { kind: "diode", name: "D1", nodes: ["f", "x1"] },
-    { kind: "diode", name: "D2", nodes: ["x1", "o"] },
-    { kind: "diode", name: "D3", nodes: ["o", "x2"] },
-    { kind: "diode", name: "D4", nodes: ["x2", "f"] },
+    ...limitedFeedback("n", rf1, rf2, 2, "start margin; the diode pairs across it settle the amplitude"),
     { kind: "resistor", name: "Rp1", nodes: ["o", "p"], value: rp1, tolerance: RESISTOR_TOLERANCE, comment: "with Rp2: positive feedback for the start" },
     { kind: "resistor", name: "Rp2", nodes: ["p", "gnd"], value: rp2, tolerance: RESISTOR_TOLERANCE },
     opampLine(["p", "n", "o"], req.preset, req.rails),

@@ -1,20 +1,10 @@
-const PREFIXES: ReadonlyArray<readonly [number, string]> = [
-  [1e9, "G"],
-  [1e6, "M"],
-  [1e3, "k"],
-  [1, ""],
-  [1e-3, "m"],
-  [1e-6, "µ"],
-  [1e-9, "n"],
-  [1e-12, "p"],
-];
+import { withPrefix } from "../units/si-prefix.js";
 
 /** `value` with an SI prefix and four significant digits, for explanation lines: 1.581 kHz. */
 export function formatQuantity(value: number, unit: string): string {
   if (value === 0 || !Number.isFinite(value)) return `${value} ${unit}`;
-  const magnitude = Math.abs(value);
-  const [scale, prefix] = PREFIXES.find(([s]) => magnitude >= s * 0.99995) ?? PREFIXES[PREFIXES.length - 1];
-  return `${Number((value / scale).toPrecision(4))} ${prefix}${unit}`;
+  const { mantissa, prefix } = withPrefix(value);
+  return `${mantissa} ${prefix}${unit}`;
 }
 
 /** A fraction as a percentage with two significant digits (one decimal from 10 % up): 2.3 %. */
