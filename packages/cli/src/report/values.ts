@@ -12,9 +12,17 @@ export function percent(value: number | null | undefined, significant = 4): stri
   return value === null || value === undefined ? NOT_A_NUMBER : formatPercent(value, significant);
 }
 
-/** A rate in 1/s (growth rates, pole real parts): `983.2 /s`; prefixes would read as ks. */
+/**
+ * A rate in 1/s (growth rates, pole real parts): `983.2 /s`; prefixes would read as ks, so
+ * rates beyond 10⁵ /s (the far poles of op-amps) are written with a power of ten: `−2.046e6 /s`.
+ */
 export function perSecond(value: number | null | undefined): string {
-  return value === null || value === undefined ? NOT_A_NUMBER : `${formatPlain(value, 4)} /s`;
+  if (value === null || value === undefined) return NOT_A_NUMBER;
+  if (Math.abs(value) >= 1e5 && Number.isFinite(value)) {
+    const [mantissa, exponent] = value.toExponential(3).split("e");
+    return `${formatPlain(Number(mantissa), 4)}e${Number(exponent)} /s`;
+  }
+  return `${formatPlain(value, 4)} /s`;
 }
 
 /** The unit a spec metric is measured in (`1` for a fraction shown as percent). */
