@@ -10,6 +10,9 @@ export interface SamplePool {
   close(): Promise<void>;
 }
 
+/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
+const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
+
 /** The default number of workers: the machine's cores. */
 export function defaultJobs(): number {
   return Math.max(1, availableParallelism());
@@ -43,7 +46,8 @@ interface Pending {
 export function createSamplePool(jobs: number, settings: SampleSettings): SamplePool {
   const entry = workerEntry();
   if (jobs <= 1 || entry === null) return inThread(settings);
-  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type"));
+  // Workers inherit the parent's flags, except those Node refuses in a worker.
+  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
   const idle: Worker[] = [];
   const waiting: Array<{ circuit: Circuit; pending: Pending }> = [];
   const busy = new Map<Worker, Pending>();
