@@ -82,7 +82,12 @@ export const COMMANDS: readonly CommandSpec[] = [
     name: "design",
     usage: "onset design (wien|twin-t|phase-shift) --freq F [options]",
     summary: "write a ready-to-run oscillator file for a frequency",
-    details: ["Values snap to the chosen E series; the file is printed on stdout unless --output is given."],
+    details: [
+      "Resistors snap to the chosen IEC 60063 series (default E24) at the nearest value in the log sense:",
+      "between neighbours a < b the boundary is √(ab). Without --cap the capacitor comes from the E6 values.",
+      "The gain network is sized on the poles of the snapped circuit so that it starts within --startup.",
+      "The file is printed on stdout unless --output is given.",
+    ],
     options: [
       { name: "freq", value: "F", summary: "the oscillation frequency, e.g. 1k or 440Hz" },
       { name: "cap", value: "C", summary: "the capacitor to design around, e.g. 33n" },
