@@ -41,6 +41,9 @@ export const DEFAULT_RAILS: readonly [number, number] = [-15, 15];
 /** Scale of the internal transconductance (A/V); it sets the pole node's impedance level only. */
 const STAGE_TRANSCONDUCTANCE = 1e-3;
 
+/** Knee widths inside a limit beyond which its clamp is left out (e^−40 ≈ 4e-18). */
+const CLAMP_REACH = 40;
+
 /** Stable softplus w·ln(1 + e^(z/w)) and its slope, the logistic σ(z/w). */
 function softplus(z: number, w: number): number {
   const u = z / w;
@@ -114,7 +117,7 @@ export function opampConstants(part: PartSpec): OpampConstants {
  * limit (rail ∓ headroom), so x itself, not only the output, stays at the limit (fully
  * overdriven, about half a knee width past it; lightly, a few widths inside): there is no
  * integrator wind-up, and the output leaves the rail as soon as the input turns. At the bias
- * point inside the limits the clamp's slope is below 1e-300 and tanh′(0) = 1, so the
+ * point inside the limits the clamp's slope is zero and tanh′(0) = 1, so the
  * linearised model is exactly the single-pole amplifier gain/(1 + s·gain/(2π·gbw)).
  */
 export const opamp: DeviceModel = {
@@ -172,13 +175,17 @@ export const opamp: DeviceModel = {
         s.addG(out, p, -1 / k.rout);
         if (Number.isFinite(k.rin)) stampConductance(s, plus, minus, 1 / k.rin);
       },
-      source: {
-        addSource(_t, scale, u) {
-          // The offset drives the pole node like an input voltage.
-          if (!slewLimited && k.vos !== 0) u[p] += scale * k.gm * k.vos;
-        },
-        nextBreakpoint: () => Infinity,
-      },
+      // Without a slew limit the input stage is linear and the offset drives the pole node like
+      // an input voltage; with one, the offset sits inside the tanh (see load).
+      source:
+        !slewLimited && k.vos !== 0
+          ? {
+              addSource(_t, scale, u) {
+                u[p] += scale * k.gm * k.vos;
+              },
+              nextBreakpoint: () => Infinity,
+            }
+          : undefined,
       nonlinear: {
         load(x, o) {
           const xp = x[p]!;
@@ -190,9 +197,17 @@ export const opamp: DeviceModel = {
           }
           const w = k.knee;
           const g = k.gClamp;
-          o.addF(p, g * (softplus(xp - hi, w) - softplus(lo - xp, w)));
-          const sHi = g * logistic(xp - hi, w);
-          const sLo = g * logistic(lo - xp, w);
+          // More than CLAMP_REACH knee widths inside a limit its clamp carries < 1e-17 of g·w: none.
+          let sHi = 0;
+          let sLo = 0;
+          if (xp - hi > -CLAMP_REACH * w) {
+            o.addF(p, g * softplus(xp - hi, w));
+            sHi = g * logistic(xp - hi, w);
+          }
+          if (lo - xp > -CLAMP_REACH * w) {
+            o.addF(p, -g * softplus(lo - xp, w));
+            sLo = g * logistic(lo - xp, w);
+          }
           if (o.jacobian) {
             o.adddF(p, p, sHi + sLo);
             if (supply) {

@@ -1,5 +1,5 @@
 import { simulationError } from "../circuit/diagnostic.js";
-import type { NonlinearLoad } from "../devices/device.js";
+import type { NonlinearLoad, NonlinearTerm } from "../devices/device.js";
 import { LuSolver } from "./lu.js";
 import type { MnaSystem } from "./system.js";
 import type { Tolerances } from "./tolerances.js";
@@ -64,6 +64,8 @@ export class NewtonSolver {
   private baseValid = false;
   private luValid = false;
   private readonly linear: boolean;
+  /** The nonlinear devices with a step-limiting hook. */
+  private readonly limiters: readonly NonlinearTerm[];
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
     const n = system.n;
@@ -82,6 +84,7 @@ export class NewtonSolver {
     this.tol = new Float64Array(n);
     this.baseRowStart = new Int32Array(n + 1);
     this.linear = system.nonlinear.length === 0;
+    this.limiters = system.nonlinear.filter((d) => d.limitStep !== undefined);
     system.unknowns.forEach((u, i) => {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
     });
@@ -236,7 +239,7 @@ export class NewtonSolver {
    * set. Throws OnsetError only for a singular matrix; non-convergence is reported in the outcome.
    */
   solve(x: Float64Array, maxIterations: number): NewtonOutcome {
-    const { n, residual: r, update: dx, tolerances: t, system, load } = this;
+    const { n, residual: r, update: dx, tolerances: t, load } = this;
     if (!this.baseValid) this.assembleBase();
     let previousNorm = Infinity;
     let worst = 0;
@@ -263,11 +266,9 @@ export class NewtonSolver {
       }
       for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
       let lambda = 1;
-      for (const device of system.nonlinear) {
-        if (device.limitStep) {
-          const l = device.limitStep(x, dx);
-          if (l < lambda) lambda = l;
-        }
+      for (const device of this.limiters) {
+        const l = device.limitStep!(x, dx);
+        if (l < lambda) lambda = l;
       }
       let norm = 0;
       for (let i = 0; i < n; i++) {
