@@ -104,8 +104,7 @@ export class TransientStepper {
       this.consistentStart();
     }
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
-    this.solver.chordLimit = Infinity;
-    this.solver.predictedStop = true;
+    this.solver.setMode("step");
     this.nextBreak = this.findBreakpoint(0);
     this.collectSolverCounts();
   }

@@ -25,6 +25,8 @@ const BUILT_IN = 0.7;
 const GRADING = 0.5;
 /** Forward-bias fraction of the built-in potential beyond which the capacitance is linearised. */
 const FORWARD_KNEE = 0.5;
+/** How far (relative to the current) the stamped tangent may miss before a fresh Jacobian is asked for. */
+const STALE_TANGENT = 0.3;
 /** Beyond this many thermal voltages the exponential continues as its tangent (no overflow). */
 const EXP_LIMIT = 40;
 
@@ -100,8 +102,10 @@ export const diode: DeviceModel = {
     const c = cathode;
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
     const state: JunctionState = { current: 0, conductance: 0 };
-    // Conductance in the last factored Jacobian, to tell when a reused one has gone stale.
-    let stamped = 0;
+    // The tangent in the last factored Jacobian: voltage, current and slope.
+    let stampedV = 0;
+    let stampedI = 0;
+    let stampedG = 0;
     const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
     return {
       part,
@@ -117,14 +121,21 @@ export const diode: DeviceModel = {
           junctionCurrent(vd, is, nvt, state);
           out.addF(a, state.current);
           out.addF(c, -state.current);
+          // With a reused Jacobian, the stamped tangent i_s + g_s·(v − v_s) must still describe the
+          // junction: when it misses the current by more than STALE_TANGENT of it, ask for a fresh one.
           const g = state.conductance;
           if (out.jacobian) {
             out.adddF(a, a, g);
             out.adddF(a, c, -g);
             out.adddF(c, a, -g);
             out.adddF(c, c, g);
-            stamped = g;
-          } else if (Math.abs(g - stamped) > 0.2 * Math.max(g, stamped) + 1e3 * JUNCTION_LEAK) out.requestJacobian();
+            stampedV = vd;
+            stampedI = state.current;
+            stampedG = g;
+          } else {
+            const miss = Math.abs(state.current - stampedI - stampedG * (vd - stampedV));
+            if (miss > STALE_TANGENT * Math.max(Math.abs(state.current), Math.abs(stampedI)) + 1e-15) out.requestJacobian();
+          }
           if (cj0 > 0) {
             junctionCharge(vd, cj0, state);
             out.addQ(a, state.current);

@@ -37,20 +37,25 @@ export class NewtonSolver {
   readonly qNonlinear: Float64Array;
   /** Conductance to ground added on every node row (gmin stepping). */
   gmin = 0;
-  /**
-   * Largest scaled update after which the next iteration may still reuse the Jacobian. Finite
-   * for the bias point, which starts far from the solution; a transient step starts from a
-   * prediction, where a stale Jacobian is refreshed only when the iteration stops contracting.
-   */
-  chordLimit = CHORD_NEAR;
   /** The contraction factor the last iterations showed, for the stopping rule. */
   private contraction = 0.5;
   /**
-   * Accept an iterate once the predicted remaining error is within tolerance (time steps, whose
-   * error is dominated by the truncation error anyway); the bias point iterates until the update
-   * itself is within tolerance.
+   * `bias`: the iteration starts far from the solution, so a stale Jacobian is kept only near it
+   * (`CHORD_NEAR`), and it stops when the update is within `biasRelative`. `step`: a time step
+   * starts from a prediction; a stale Jacobian is refreshed only when the iteration stops
+   * contracting, and an iterate is accepted once its predicted remaining error is within
+   * `newtonRelative` (a tenth of the truncation-error tolerance).
    */
-  predictedStop = false;
+  private mode: "bias" | "step" = "bias";
+  private chordLimit = CHORD_NEAR;
+  private relative: number;
+
+  /** Selects the bias-point or the time-step iteration (see `mode`). */
+  setMode(mode: "bias" | "step"): void {
+    this.mode = mode;
+    this.chordLimit = mode === "bias" ? CHORD_NEAR : Infinity;
+    this.relative = mode === "bias" ? this.tolerances.biasRelative : this.tolerances.newtonRelative;
+  }
   factorizations = 0;
   iterations = 0;
 
@@ -82,6 +87,7 @@ export class NewtonSolver {
     this.residual = new Float64Array(n);
     this.update = new Float64Array(n);
     this.tol = new Float64Array(n);
+    this.relative = tolerances.biasRelative;
     this.baseRowStart = new Int32Array(n + 1);
     this.linear = system.nonlinear.length === 0;
     this.limiters = system.nonlinear.filter((d) => d.limitStep !== undefined);
@@ -239,7 +245,7 @@ export class NewtonSolver {
    * set. Throws OnsetError only for a singular matrix; non-convergence is reported in the outcome.
    */
   solve(x: Float64Array, maxIterations: number): NewtonOutcome {
-    const { n, residual: r, update: dx, tolerances: t, load } = this;
+    const { n, residual: r, update: dx, load } = this;
     if (!this.baseValid) this.assembleBase();
     let previousNorm = Infinity;
     let worst = 0;
@@ -276,7 +282,7 @@ export class NewtonSolver {
         const xi = x[i]!;
         const next = xi + step;
         x[i] = next;
-        const scale = t.newtonRelative * Math.max(Math.abs(xi), Math.abs(next)) + this.tol[i]!;
+        const scale = this.relative * Math.max(Math.abs(xi), Math.abs(next)) + this.tol[i]!;
         const ratio = Math.abs(step) / scale;
         if (ratio > norm) {
           norm = ratio;
@@ -289,7 +295,7 @@ export class NewtonSolver {
       if (lambda === 1) {
         const rho = iter > 1 ? norm / previousNorm : this.contraction;
         if (iter > 1 && rho < 1) this.contraction = Math.max(1e-3, rho);
-        if (norm <= 1 || (this.predictedStop && rho < 1 && (iter > 1 || norm <= 100) && (rho / (1 - rho)) * norm <= 1)) return this.finish(true, iter, worst);
+        if (norm <= 1 || (this.mode === "step" && rho < 1 && (iter > 1 || norm <= 100) && (rho / (1 - rho)) * norm <= 1)) return this.finish(true, iter, worst);
       }
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it

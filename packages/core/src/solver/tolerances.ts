@@ -1,7 +1,9 @@
 /** Accuracy settings of the solvers. Defaults are documented in DEVELOPERS.md. */
 export interface Tolerances {
-  /** Relative tolerance of a Newton update. @defaultValue 1e-6 */
+  /** Relative tolerance of a Newton update: a tenth of the LTE tolerance. @defaultValue 1e-5 */
   readonly newtonRelative: number;
+  /** Relative tolerance of the bias point's last Newton update. @defaultValue 1e-9 */
+  readonly biasRelative: number;
   /** Absolute tolerance of a Newton update on a voltage (V). @defaultValue 1e-9 */
   readonly newtonVoltage: number;
   /** Absolute tolerance of a Newton update on a current (A). @defaultValue 1e-12 */
@@ -19,7 +21,8 @@ export interface Tolerances {
 }
 
 export const DEFAULT_TOLERANCES: Tolerances = {
-  newtonRelative: 1e-6,
+  newtonRelative: 1e-5,
+  biasRelative: 1e-9,
   newtonVoltage: 1e-9,
   newtonCurrent: 1e-12,
   lteRelative: 1e-4,
