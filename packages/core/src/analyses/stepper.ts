@@ -118,9 +118,9 @@ export class TransientStepper {
   /** q = C·x + q_nl(x) for the linear part; the nonlinear part is taken from the last load. */
   private chargesAt(x: Float64Array, q: Float64Array): void {
     const { n } = this;
-    const c = this.system.cTriplets;
+    const { rows, cols, values } = this.system.cTriplets;
     q.fill(0);
-    for (let k = 0; k < c.values.length; k++) q[c.rows[k]!] += c.values[k]! * x[c.cols[k]!]!;
+    for (let k = 0; k < values.length; k++) q[rows[k]!] += values[k]! * x[cols[k]!]!;
     const nl = this.solver.qNonlinear;
     for (let i = 0; i < n; i++) q[i] += nl[i]!;
   }
@@ -169,38 +169,41 @@ export class TransientStepper {
   private truncationRatio(tNew: number, backwardEuler: boolean): number {
     const needed = backwardEuler ? 2 : 3;
     if (this.historyCount < needed) return -1;
+    const { xNew, peak, lteAbs } = this;
     const cols = this.system.stateColumns;
-    const tol = this.tolerances;
-    const h = tNew - this.historyTimes[this.slot(0)]!;
+    const rel = this.tolerances.lteRelative;
     const t0 = this.historyTimes[this.slot(0)]!;
     const t1 = this.historyTimes[this.slot(1)]!;
     const x0 = this.historyValues[this.slot(0)]!;
     const x1 = this.historyValues[this.slot(1)]!;
+    const h = tNew - t0;
+    // Divided differences share their denominators across states: invert them once.
+    const i10 = 1 / (tNew - t0);
+    const i01 = 1 / (t0 - t1);
+    const i20 = 1 / (tNew - t1);
     let ratio = 0;
     if (backwardEuler) {
+      const scale = h * h;
       for (let k = 0; k < cols.length; k++) {
         const j = cols[k]!;
-        const d1a = (this.xNew[j]! - x0[j]!) / (tNew - t0);
-        const d1b = (x0[j]! - x1[j]!) / (t0 - t1);
-        const dd2 = (d1a - d1b) / (tNew - t1);
-        const lte = h * h * Math.abs(dd2);
-        const r = lte / (tol.lteRelative * Math.max(this.peak[j]!, Math.abs(this.xNew[j]!)) + this.lteAbs[j]!);
+        const dd2 = ((xNew[j]! - x0[j]!) * i10 - (x0[j]! - x1[j]!) * i01) * i20;
+        const r = (scale * Math.abs(dd2)) / (rel * Math.max(peak[j]!, Math.abs(xNew[j]!)) + lteAbs[j]!);
         if (r > ratio) ratio = r;
       }
       return ratio;
     }
     const t2 = this.historyTimes[this.slot(2)]!;
     const x2 = this.historyValues[this.slot(2)]!;
+    const i12 = 1 / (t1 - t2);
+    const i02 = 1 / (t0 - t2);
+    const i30 = 1 / (tNew - t2);
+    const scale = 0.5 * h * h * h;
     for (let k = 0; k < cols.length; k++) {
       const j = cols[k]!;
-      const d1a = (this.xNew[j]! - x0[j]!) / (tNew - t0);
-      const d1b = (x0[j]! - x1[j]!) / (t0 - t1);
-      const d1c = (x1[j]! - x2[j]!) / (t1 - t2);
-      const d2a = (d1a - d1b) / (tNew - t1);
-      const d2b = (d1b - d1c) / (t0 - t2);
-      const dd3 = (d2a - d2b) / (tNew - t2);
-      const lte = 0.5 * h * h * h * Math.abs(dd3);
-      const r = lte / (tol.lteRelative * Math.max(this.peak[j]!, Math.abs(this.xNew[j]!)) + this.lteAbs[j]!);
+      const d1b = (x0[j]! - x1[j]!) * i01;
+      const d2a = ((xNew[j]! - x0[j]!) * i10 - d1b) * i20;
+      const d2b = (d1b - (x1[j]! - x2[j]!) * i12) * i02;
+      const r = (scale * Math.abs((d2a - d2b) * i30)) / (rel * Math.max(peak[j]!, Math.abs(xNew[j]!)) + lteAbs[j]!);
       if (r > ratio) ratio = r;
     }
     return ratio;
@@ -324,19 +327,20 @@ export class TransientStepper {
   }
 
   private accept(target: number, h: number, be: boolean, landing: boolean): void {
-    const { n } = this;
+    const { n, q, qNew, qdot, x, xNew, dxdt, peak } = this;
     const a = this.solver.a;
     const beRows = this.system.backwardEulerRows;
-    this.chargesAt(this.xNew, this.qNew);
+    this.chargesAt(xNew, qNew);
     for (let i = 0; i < n; i++) {
       const rowBe = be || beRows[i] === 1;
-      this.qdot[i] = a[i]! * (this.qNew[i]! - this.q[i]!) - (rowBe ? 0 : this.qdot[i]!);
-      this.dxdt[i] = rowBe ? (this.xNew[i]! - this.x[i]!) / h : (2 * (this.xNew[i]! - this.x[i]!)) / h - this.dxdt[i]!;
-      const mag = Math.abs(this.xNew[i]!);
-      if (mag > this.peak[i]!) this.peak[i] = mag;
+      qdot[i] = a[i]! * (qNew[i]! - q[i]!) - (rowBe ? 0 : qdot[i]!);
+      const dx = xNew[i]! - x[i]!;
+      dxdt[i] = rowBe ? dx / h : (2 * dx) / h - dxdt[i]!;
+      const mag = Math.abs(xNew[i]!);
+      if (mag > peak[i]!) peak[i] = mag;
     }
-    this.q.set(this.qNew);
-    this.x.set(this.xNew);
+    q.set(qNew);
+    x.set(xNew);
     this.t = target;
     this.stats.accepted++;
     if (landing) {

@@ -277,12 +277,14 @@ export class NewtonSolver {
         if (l < lambda) lambda = l;
       }
       let norm = 0;
+      const relative = this.relative;
+      const tol = this.tol;
       for (let i = 0; i < n; i++) {
         const step = lambda * dx[i]!;
         const xi = x[i]!;
         const next = xi + step;
         x[i] = next;
-        const scale = this.relative * Math.max(Math.abs(xi), Math.abs(next)) + this.tol[i]!;
+        const scale = relative * Math.max(Math.abs(xi), Math.abs(next)) + tol[i]!;
         const ratio = Math.abs(step) / scale;
         if (ratio > norm) {
           norm = ratio;
