@@ -107,5 +107,5 @@ export { runToleranceStudy, shardIndices } from "./study/tolerance.js";
 export type { CircuitBuilder, Shard, ToleranceStudyOptions } from "./study/tolerance.js";
 export { oscillates, runSweep, sweepValues } from "./study/sweep.js";
 export type { StartThreshold, SweepOptions, SweepPoint, SweepResult } from "./study/sweep.js";
-export { DEFAULT_REQUIRED_YIELD, runDesignWindow } from "./study/window.js";
+export { DEFAULT_REQUIRED_YIELD, requiredYield, runDesignWindow, widestPassingRange } from "./study/window.js";
 export type { DesignWindow, WindowPoint } from "./study/window.js";

@@ -1,4 +1,4 @@
-import { DEFAULT_REQUIRED_YIELD, meets, summarizeSamples, shardIndices, type ToleranceSummary } from "@onset/core";
+import { meets, requiredYield as requiredYieldOf, summarizeSamples, shardIndices, widestPassingRange, type ToleranceSummary } from "@onset/core";
 import type { SpecChecks } from "../report/spec.js";
 import type { StoredSample, StudyHeader } from "./header.js";
 
@@ -33,10 +33,9 @@ export interface WindowReport {
 
 export type StudyReport = ToleranceReport | WindowReport;
 
-/** The yield required of a design window: the spec's `yield>` limit, else 99 % (common practice). */
+/** The yield required of a design window (core's rule: the spec's `yield>` limit, else 99 %). */
 export function requiredYield(header: Pick<StudyHeader, "criteria">): number {
-  const c = header.criteria.find((x) => x.metric === "yield");
-  return c && c.test !== "within" ? c.limit : DEFAULT_REQUIRED_YIELD;
+  return requiredYieldOf(header.criteria);
 }
 
 function byIndex(samples: readonly StoredSample[]): StoredSample[] {
@@ -81,16 +80,7 @@ export function windowReport(header: StudyHeader, samples: readonly StoredSample
     const summary = summarizeSamples(mine, header.criteria);
     return { value, samples: mine, summary, pass: summary.runs > 0 && summary.yield.value >= required };
   });
-  let best: { from: number; to: number; count: number } | null = null;
-  let current: { from: number; to: number; count: number } | null = null;
-  for (const p of points) {
-    if (!p.pass) {
-      current = null;
-      continue;
-    }
-    current = current ? { from: current.from, to: p.value, count: current.count + 1 } : { from: p.value, to: p.value, count: 1 };
-    if (!best || current.count > best.count) best = current;
-  }
+  const best = widestPassingRange(points);
   const yc = header.criteria.find((c) => c.metric === "yield");
   const bestYield = Math.max(0, ...points.map((p) => p.summary.yield.value));
   const spec: SpecChecks | null =
@@ -102,7 +92,7 @@ export function windowReport(header: StudyHeader, samples: readonly StoredSample
           criteria: [{ text: `${yc?.text ?? `yield>${required * 100}%`} at some setting`, metric: "yield", measured: bestYield, pass: best !== null }],
         };
   const missing = points.flatMap((p, k) => missingOf(header, p.samples).map((i) => k * header.runs + i));
-  return { kind: "window", header, points, window: best ? { from: best.from, to: best.to } : null, spec, missing };
+  return { kind: "window", header, points, window: best, spec, missing };
 }
 
 /** The report of a study, tolerance or design window, from its header and samples. */

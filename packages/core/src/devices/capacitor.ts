@@ -2,7 +2,7 @@ import type { PartSpec } from "../circuit/circuit.js";
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive } from "./options.js";
-import { stampCapacitance } from "./stamps.js";
+import { stampCapacitance, valueAt } from "./stamps.js";
 
 export const capacitorSchema: PartKindSchema = {
   kind: "capacitor",
@@ -37,7 +37,7 @@ export const capacitor: DeviceModel = {
         if (b >= 0) q[b] -= c * initial;
       },
       current(_x, dxdt) {
-        return c * ((a >= 0 ? dxdt[a]! : 0) - (b >= 0 ? dxdt[b]! : 0));
+        return c * (valueAt(dxdt, a) - valueAt(dxdt, b));
       },
     };
   },

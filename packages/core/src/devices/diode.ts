@@ -1,7 +1,7 @@
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
-import { stampConductance } from "./stamps.js";
+import { stampConductance, valueAt } from "./stamps.js";
 
 export const diodeSchema: PartKindSchema = {
   kind: "diode",
@@ -106,7 +106,7 @@ export const diode: DeviceModel = {
     let stampedV = 0;
     let stampedI = 0;
     let stampedG = 0;
-    const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
+    const v = valueAt;
     return {
       part,
       stampLinear:

@@ -3,7 +3,7 @@ import { inputError } from "../circuit/diagnostic.js";
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
-import { stampConductance } from "./stamps.js";
+import { stampConductance, valueAt } from "./stamps.js";
 
 export const opampSchema: PartKindSchema = {
   kind: "opamp",
@@ -157,7 +157,7 @@ export const opamp: DeviceModel = {
     const p = setup.addUnknown(`${part.name}.pole`, "voltage", { backwardEuler: true });
     const k = opampConstants(part);
     const slewLimited = Number.isFinite(k.iMax);
-    const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
+    const v = valueAt;
     // Slopes in the last factored Jacobian, to tell when a reused one has gone stale.
     let stampedClamp = 0;
     let stampedInput = k.gm;

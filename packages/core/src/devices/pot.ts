@@ -3,7 +3,7 @@ import { inputError } from "../circuit/diagnostic.js";
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive, wordOption } from "./options.js";
-import { stampConductance } from "./stamps.js";
+import { stampConductance, valueAt } from "./stamps.js";
 
 export const potSchema: PartKindSchema = {
   kind: "pot",
@@ -74,8 +74,7 @@ export const pot: DeviceModel = {
       },
       // Current entering end1 along the track towards the wiper.
       current(x) {
-        const v = (i: number) => (i >= 0 ? x[i]! : 0);
-        return (v(e1) - v(w)) / r1;
+        return (valueAt(x, e1) - valueAt(x, w)) / r1;
       },
     };
   },

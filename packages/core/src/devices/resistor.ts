@@ -2,7 +2,7 @@ import type { PartSpec } from "../circuit/circuit.js";
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { partValue, requirePositive } from "./options.js";
-import { stampConductance } from "./stamps.js";
+import { stampConductance, valueAt } from "./stamps.js";
 
 export const resistorSchema: PartKindSchema = {
   kind: "resistor",
@@ -30,7 +30,7 @@ export const resistor: DeviceModel = {
         stampConductance(s, a, b, g);
       },
       current(x) {
-        return ((a >= 0 ? x[a]! : 0) - (b >= 0 ? x[b]! : 0)) * g;
+        return (valueAt(x, a) - valueAt(x, b)) * g;
       },
     };
   },

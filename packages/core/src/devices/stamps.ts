@@ -31,3 +31,8 @@ export function stampBranch(s: LinearStamp, a: number, b: number, k: number): vo
   s.addG(k, a, 1);
   s.addG(k, b, -1);
 }
+
+/** The value of unknown `i` in `x`; ground (-1) reads 0 V. */
+export function valueAt(x: Float64Array, i: number): number {
+  return i >= 0 ? x[i]! : 0;
+}

@@ -1,7 +1,7 @@
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { partValue } from "./options.js";
-import { stampTransconductance } from "./stamps.js";
+import { stampTransconductance, valueAt } from "./stamps.js";
 
 export const vccsSchema: PartKindSchema = {
   kind: "vccs",
@@ -22,7 +22,7 @@ export const vccs: DeviceModel = {
     const cp = setup.node(part.nodes[2]!);
     const cn = setup.node(part.nodes[3]!);
     const gm = partValue(part);
-    const v = (x: Float64Array, i: number) => (i >= 0 ? x[i]! : 0);
+    const v = valueAt;
     return {
       part,
       stampLinear(s) {

@@ -23,6 +23,27 @@ export interface DesignWindow {
 /** Yield required when the spec states none. */
 export const DEFAULT_REQUIRED_YIELD = 0.99;
 
+/** The yield a design window must meet: the spec's `yield>` limit, else 99 % (common practice). */
+export function requiredYield(criteria: readonly SpecCriterion[]): number {
+  const c = criteria.find((x) => x.metric === "yield");
+  return c && c.test !== "within" ? c.limit : DEFAULT_REQUIRED_YIELD;
+}
+
+/** The widest contiguous run of passing settings (the first of equal width), or null. */
+export function widestPassingRange(points: ReadonlyArray<{ readonly value: number; readonly pass: boolean }>): { from: number; to: number } | null {
+  let best: { from: number; to: number; count: number } | null = null;
+  let current: { from: number; to: number; count: number } | null = null;
+  for (const p of points) {
+    if (!p.pass) {
+      current = null;
+      continue;
+    }
+    current = current ? { from: current.from, to: p.value, count: current.count + 1 } : { from: p.value, to: p.value, count: 1 };
+    if (!best || current.count > best.count) best = current;
+  }
+  return best ? { from: best.from, to: best.to } : null;
+}
+
 /**
  * Sweep × tolerance: the tolerance study at every sweep setting, and the range of settings in
  * which the yield meets the spec — the window a designer should set the trimmer in.
@@ -35,8 +56,7 @@ export async function runDesignWindow(
   criteria: readonly SpecCriterion[],
   options: ToleranceStudyOptions & { readonly onPoint?: (point: WindowPoint, done: number, total: number) => void } = {},
 ): Promise<DesignWindow> {
-  const yieldCriterion = criteria.find((c) => c.metric === "yield");
-  const required = yieldCriterion && yieldCriterion.test !== "within" ? yieldCriterion.limit : DEFAULT_REQUIRED_YIELD;
+  const required = requiredYield(criteria);
   const values = sweepValues(sweep);
   const points: WindowPoint[] = [];
   // The swept value overrides its own tolerance: the trimmer is set, not drawn.
@@ -48,18 +68,5 @@ export async function runDesignWindow(
     points.push(point);
     options.onPoint?.(point, points.length, values.length);
   }
-  interface Run {
-    from: number;
-    to: number;
-    count: number;
-  }
-  let best: Run | null = null;
-  let current: Run | null = null;
-  for (const p of points) {
-    if (p.pass) {
-      current = current ? { from: current.from, to: p.value, count: current.count + 1 } : { from: p.value, to: p.value, count: 1 };
-      if (!best || current.count > best.count) best = current;
-    } else current = null;
-  }
-  return { analysis: "window", target: sweep.target, required, points, window: best ? { from: best.from, to: best.to } : null };
+  return { analysis: "window", target: sweep.target, required, points, window: widestPassingRange(points) };
 }
