@@ -1,6 +1,5 @@
 import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
-import { runPoles } from "../analyses/poles.js";
 import { runStartup } from "../analyses/startup.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
@@ -63,13 +62,8 @@ export function runSample(circuit: Circuit, settings: SampleSettings): SampleOut
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {
     const r = runStartup(circuit, analysis, { tolerances: settings.tolerances });
-    let predictedFrequency: number | null = r.run.predicted.frequency;
-    let predictedGrowthRate: number | null = r.run.predicted.growthRate;
-    if (circuit.analyses.some((a) => a.kind === "poles")) {
-      const p = runPoles(circuit, { kind: "poles" }, { tolerances: settings.tolerances });
-      predictedFrequency = p.frequency;
-      predictedGrowthRate = p.growthRate;
-    }
+    // The startup run already linearised this circuit at its bias point: that is the poles analysis.
+    const { frequency: predictedFrequency, growthRate: predictedGrowthRate } = r.run.predicted;
     const metrics: SampleMetrics = {
       verdict: r.verdict,
       frequency: r.frequency,
