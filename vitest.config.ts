@@ -9,6 +9,7 @@ export default defineConfig({
   ssr: { resolve: { conditions, externalConditions: conditions } },
   test: {
     include: ["test/**/*.test.ts"],
+    setupFiles: ["./test/support/fast-check-seed.ts"],
     reporters: ["default", "./test/support/tally-reporter.ts"],
     testTimeout: 60_000,
     hookTimeout: 120_000,
