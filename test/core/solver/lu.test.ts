@@ -1,6 +1,7 @@
 import { describe, expect, test } from "vitest";
 import fc from "fast-check";
 import { LuSolver } from "@onset/core";
+import { residual, sparseCase } from "./sparse-matrices.js";
 
 /** Random n×n matrices made well conditioned by a dominant diagonal of random sign. */
 const wellConditioned = fc.integer({ min: 1, max: 12 }).chain((n) =>
@@ -21,24 +22,30 @@ const wellConditioned = fc.integer({ min: 1, max: 12 }).chain((n) =>
     }),
 );
 
+/** (L·U)ᵢⱼ equals entry (perm[i], colPerm[j]) of A within `relative`·n·max|A| (colPerm is the identity when dense). */
+function expectFactorsReproduce(lu: LuSolver, a: Float64Array, relative: number): void {
+  const n = lu.n;
+  let scale = 0;
+  for (const v of a) scale = Math.max(scale, Math.abs(v));
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      let s = 0;
+      for (let k = 0; k <= Math.min(i, j); k++) {
+        const l = k === i ? 1 : lu.lu[i * n + k]!;
+        s += l * lu.lu[k * n + j]!;
+      }
+      expect(Math.abs(s - a[lu.perm[i]! * n + lu.colPerm[j]!]!)).toBeLessThanOrEqual(relative * n * scale);
+    }
+  }
+}
+
 describe("LuSolver (Golub & Van Loan, Algorithm 3.4.1)", () => {
   test("P·A = L·U entry by entry on random well-conditioned matrices (mathematics: the defining identity)", () => {
     fc.assert(
       fc.property(wellConditioned, ({ n, a }) => {
         const lu = new LuSolver(n);
         expect(lu.factor(a)).toBe(true);
-        let scale = 0;
-        for (const v of a) scale = Math.max(scale, Math.abs(v));
-        for (let i = 0; i < n; i++) {
-          for (let j = 0; j < n; j++) {
-            let s = 0;
-            for (let k = 0; k <= Math.min(i, j); k++) {
-              const l = k === i ? 1 : lu.lu[i * n + k]!;
-              s += l * lu.lu[k * n + j]!;
-            }
-            expect(Math.abs(s - a[lu.perm[i]! * n + j]!)).toBeLessThanOrEqual(1e-13 * n * scale);
-          }
-        }
+        expectFactorsReproduce(lu, a, 1e-13);
       }),
       { numRuns: 300 },
     );
@@ -73,5 +80,82 @@ describe("LuSolver (Golub & Van Loan, Algorithm 3.4.1)", () => {
     const a = Float64Array.from([1, 2, 3, 4, 5, 9, 7, 8, 15]);
     expect(lu.factor(a)).toBe(false);
     expect(lu.singularColumn).toBe(2);
+  });
+});
+
+describe("LuSolver on a declared pattern (sparse ordering, P·A·Q = L·U)", () => {
+  test("P·A·Q = L·U entry by entry on random sparse matrices (mathematics: the defining identity)", () => {
+    fc.assert(
+      fc.property(sparseCase, ({ n, a, pattern }) => {
+        const lu = new LuSolver(n);
+        lu.setPattern(pattern);
+        expect(lu.factor(a)).toBe(true);
+        expectFactorsReproduce(lu, a, 1e-12);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  test("a refactorisation with moved values reuses the order and solves as a fresh dense factorisation does", () => {
+    fc.assert(
+      fc.property(sparseCase, fc.double({ min: -0.01, max: 0.01, noNaN: true }), ({ n, a, pattern, b }, wobble) => {
+        const lu = new LuSolver(n);
+        lu.setPattern(pattern);
+        lu.factor(a);
+        const moved = a.map((v, k) => v * (1 + wobble * Math.sin(k + 1)));
+        expect(lu.factor(moved)).toBe(true);
+        expect(lu.pivotings).toBe(1);
+        const x = new Float64Array(n);
+        lu.solve(b, x);
+        const dense = new LuSolver(n);
+        dense.factor(moved);
+        const y = new Float64Array(n);
+        dense.solve(b, y);
+        for (let i = 0; i < n; i++) expect(Math.abs(x[i]! - y[i]!)).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(y[i]!)));
+        const { worst, scale } = residual(n, moved, x, b);
+        expect(worst).toBeLessThanOrEqual(1e-13 * n * scale + 1e-300);
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  test("when a kept pivot collapses the order is chosen afresh and the solution stays right", () => {
+    const n = 3;
+    const a = Float64Array.from([4, 1, 0, 1, 3, 1, 0, 1, 2]);
+    const lu = new LuSolver(n);
+    lu.setPattern(Uint8Array.from(a, (v) => (v !== 0 ? 1 : 0)));
+    lu.factor(a);
+    expect(lu.pivotings).toBe(1);
+    // Shrink the first chosen pivot far below the other entries of its column.
+    const collapsed = Float64Array.from(a);
+    collapsed[lu.perm[0]! * n + lu.colPerm[0]!] = 1e-9;
+    expect(lu.factor(collapsed)).toBe(true);
+    expect(lu.pivotings).toBe(2);
+    const b = Float64Array.from([1, 2, 3]);
+    const x = new Float64Array(n);
+    lu.solve(b, x);
+    const { worst, scale } = residual(n, collapsed, x, b);
+    expect(worst).toBeLessThanOrEqual(1e-14 * scale);
+  });
+
+  test("a singular matrix is still reported with the column of the zero pivot", () => {
+    const lu = new LuSolver(3);
+    lu.setPattern(new Uint8Array(9).fill(1));
+    expect(lu.factor(Float64Array.from([1, 2, 3, 4, 5, 9, 7, 8, 15]))).toBe(false);
+    expect(lu.singularColumn).toBe(2);
+  });
+
+  test("solveNegated gives −A⁻¹·b on both paths", () => {
+    const a = Float64Array.from([2, 1, 1, 3]);
+    for (const pattern of [undefined, new Uint8Array(4).fill(1)]) {
+      const lu = new LuSolver(2);
+      if (pattern) lu.setPattern(pattern);
+      lu.factor(a);
+      const x = new Float64Array(2);
+      lu.solveNegated(Float64Array.from([3, 5]), x);
+      // [2 1; 1 3]·[0.8, 1.4] = [3, 5]
+      expect(x[0]).toBeCloseTo(-0.8, 14);
+      expect(x[1]).toBeCloseTo(-1.4, 14);
+    }
   });
 });

@@ -20,7 +20,6 @@ export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
   const G = Float64Array.from(system.G);
   const C = Float64Array.from(system.C);
   const load: NonlinearLoad = {
-    jacobian: true,
     addF() {},
     adddF(row, col, value) {
       if (row >= 0 && col >= 0) G[row * n + col] += value;
@@ -29,7 +28,6 @@ export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
     adddQ(row, col, value) {
       if (row >= 0 && col >= 0) C[row * n + col] += value;
     },
-    requestJacobian() {},
   };
   for (const device of system.nonlinear) device.load(x, load);
   return { n, G, C };

@@ -29,6 +29,14 @@ export type StepObserver = (t: number, x: Float64Array, dxdt: Float64Array) => v
 
 const HISTORY = 4;
 
+/** Error ratios up to this leave the step factor 0.9·ratio^(−1/(p+1)) ≥ 1 for both orders (0.9³). */
+const GROWTH_SURE = 0.729;
+
+/** (1/ratio)^(1/(p+1)) for the error ratio of a step of order p (backward Euler 1, trapezoidal 2). */
+function stepRatio(ratio: number, backwardEuler: boolean): number {
+  return backwardEuler ? 1 / Math.sqrt(ratio) : 1 / Math.cbrt(ratio);
+}
+
 /**
  * The transient integrator: trapezoidal companion models, backward Euler on the first step and
  * right after each breakpoint (source corners are landed on exactly), local-truncation-error
@@ -61,9 +69,14 @@ export class TransientStepper {
   private backwardEulerNext = true;
   private readonly q: Float64Array;
   private readonly qdot: Float64Array;
-  private readonly qNew: Float64Array;
   private readonly xNew: Float64Array;
   private readonly peak: Float64Array;
+  /** C by compressed rows (the triplets are in row order), for q = C·x. */
+  private readonly chargeRowStart: Int32Array;
+  private readonly chargeCols: Int32Array;
+  private readonly chargeValues: Float64Array;
+  /** 1 on rows integrated by the trapezoidal rule between breakpoints, 0 on backward-Euler rows. */
+  private readonly trapezoidalRows: Float64Array;
   private readonly lteAbs: Float64Array;
   private readonly historyTimes = new Float64Array(HISTORY);
   private readonly historyValues: Float64Array[];
@@ -85,9 +98,15 @@ export class TransientStepper {
     this.dxdt = new Float64Array(n);
     this.q = new Float64Array(n);
     this.qdot = new Float64Array(n);
-    this.qNew = new Float64Array(n);
     this.xNew = new Float64Array(n);
     this.peak = new Float64Array(n);
+    this.trapezoidalRows = Float64Array.from(system.backwardEulerRows, (be) => (be ? 0 : 1));
+    const { rows, cols, values } = system.cTriplets;
+    this.chargeRowStart = new Int32Array(n + 1);
+    for (let k = 0; k < rows.length; k++) this.chargeRowStart[rows[k]! + 1]++;
+    for (let i = 0; i < n; i++) this.chargeRowStart[i + 1] += this.chargeRowStart[i]!;
+    this.chargeCols = cols;
+    this.chargeValues = values;
     this.lteAbs = new Float64Array(n);
     system.unknowns.forEach((u, i) => {
       this.lteAbs[i] = u.kind === "current" ? this.tolerances.lteCurrent : this.tolerances.lteVoltage;
@@ -104,6 +123,7 @@ export class TransientStepper {
       this.consistentStart();
     }
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
+    this.solver.reference.set(this.peak);
     this.solver.setMode("step");
     this.nextBreak = this.findBreakpoint(0);
     this.collectSolverCounts();
@@ -210,32 +230,45 @@ export class TransientStepper {
   }
 
   /**
-   * The Newton starting guess: the polynomial through the last three history points (two just
-   * after a breakpoint), extrapolated to tNew, so the first update is small.
+   * Prepares a step to tNew in one pass over the unknowns: the charge history (a·qₙ, plus q̇ₙ on
+   * trapezoidal rows after the first step) and the Newton starting guess, the polynomial through
+   * the last three history points (two just after a breakpoint) extrapolated to tNew, so the
+   * first update is small.
    */
-  private predict(tNew: number): void {
-    const { n, xNew } = this;
+  private prepareStep(tNew: number, be: boolean): void {
+    const { n, xNew, q, qdot, trapezoidalRows } = this;
+    const a = this.solver.a;
+    const history = this.solver.history;
     const count = this.historyCount;
-    if (count < 2) {
-      xNew.set(this.x);
-      return;
+    let x0 = this.x;
+    let x1 = x0;
+    let x2 = x0;
+    let w0 = 1;
+    let w1 = 0;
+    let w2 = 0;
+    if (count >= 2) {
+      const t0 = this.historyTimes[this.slot(0)]!;
+      const t1 = this.historyTimes[this.slot(1)]!;
+      x0 = this.historyValues[this.slot(0)]!;
+      x1 = this.historyValues[this.slot(1)]!;
+      if (count < 3) {
+        const s = (tNew - t0) / (t0 - t1);
+        w0 = 1 + s;
+        w1 = -s;
+      } else {
+        const t2 = this.historyTimes[this.slot(2)]!;
+        x2 = this.historyValues[this.slot(2)]!;
+        // Lagrange weights of the quadratic through (t0, x0), (t1, x1), (t2, x2) at tNew.
+        w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
+        w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
+        w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
+      }
     }
-    const t0 = this.historyTimes[this.slot(0)]!;
-    const t1 = this.historyTimes[this.slot(1)]!;
-    const x0 = this.historyValues[this.slot(0)]!;
-    const x1 = this.historyValues[this.slot(1)]!;
-    if (count < 3) {
-      const s = (tNew - t0) / (t0 - t1);
-      for (let i = 0; i < n; i++) xNew[i] = x0[i]! + s * (x0[i]! - x1[i]!);
-      return;
+    const rate = be ? 0 : 1;
+    for (let i = 0; i < n; i++) {
+      history[i] = a[i]! * q[i]! + rate * trapezoidalRows[i]! * qdot[i]!;
+      xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
     }
-    const t2 = this.historyTimes[this.slot(2)]!;
-    const x2 = this.historyValues[this.slot(2)]!;
-    // Lagrange weights of the quadratic through (t0, x0), (t1, x1), (t2, x2) at tNew.
-    const w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
-    const w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
-    const w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
-    for (let i = 0; i < n; i++) xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
   }
 
   private collectSolverCounts(): void {
@@ -245,7 +278,7 @@ export class TransientStepper {
 
   /** Integrates until `tEnd` (landing on it exactly). */
   advance(tEnd: number): void {
-    const { n, solver, tolerances } = this;
+    const { solver, tolerances } = this;
     const minStep = 1e-14 * Math.max(tEnd, this.maxStep);
     while (tEnd - this.t > 1e-12 * this.h) {
       const hTry = Math.min(this.h, this.maxStep);
@@ -271,13 +304,8 @@ export class TransientStepper {
       const h = adjusted ? target - this.t : hTry;
       const be = this.backwardEulerNext;
       solver.setCoefficients(be ? 1 / h : 2 / h, 1 / h);
-      const a = solver.a;
-      const beRows = this.system.backwardEulerRows;
-      for (let i = 0; i < n; i++) {
-        solver.history[i] = a[i]! * this.q[i]! + (be || beRows[i] ? 0 : this.qdot[i]!);
-      }
+      this.prepareStep(target, be);
       solver.loadSources(target, 1, landing);
-      this.predict(target);
       const outcome = solver.solve(this.xNew, tolerances.stepIterations);
       if (!outcome.converged) {
         this.stats.rejected++;
@@ -296,10 +324,9 @@ export class TransientStepper {
         continue;
       }
       const ratio = this.truncationRatio(target, be);
-      const order = be ? 2 : 3;
       if (ratio > 1) {
         this.stats.rejected++;
-        this.h = h * Math.max(0.2, 0.9 * Math.pow(ratio, -1 / order));
+        this.h = h * Math.max(0.2, 0.9 * stepRatio(ratio, be));
         if (this.h < minStep) {
           this.collectSolverCounts();
           throw simulationError("step-too-small", `the time step fell below ${minStep.toExponential(1)} s at t = ${this.t.toPrecision(6)} s to meet the error tolerance`, {
@@ -316,42 +343,65 @@ export class TransientStepper {
         this.segmentStep = hTry;
         this.segmentCount = 0;
       }
-      let factor = ratio < 0 ? 1.5 : ratio === 0 ? 2 : Math.min(2, Math.max(0.2, 0.9 * Math.pow(ratio, -1 / order)));
-      // Keep the step (and with it the factorisation) unless a change is worth it.
-      if (factor > 1 && factor < 1.2) factor = 1;
       const nominal = h < hTry ? hTry : h;
-      this.h = factor < 1 ? Math.min(nominal, h * factor) : nominal * factor;
+      if (nominal >= this.maxStep && ratio <= GROWTH_SURE) {
+        // The step would grow, but it is already the largest allowed.
+        this.h = nominal;
+      } else {
+        let factor = ratio < 0 ? 1.5 : ratio === 0 ? 2 : Math.min(2, Math.max(0.2, 0.9 * stepRatio(ratio, be)));
+        // Keep the step (and with it the factorisation) unless a change is worth it.
+        if (factor > 1 && factor < 1.2) factor = 1;
+        this.h = factor < 1 ? Math.min(nominal, h * factor) : nominal * factor;
+      }
       if (landing) this.h = Math.min(this.h, hTry) * 0.25;
     }
     this.collectSolverCounts();
   }
 
   private accept(target: number, h: number, be: boolean, landing: boolean): void {
-    const { n, q, qNew, qdot, x, xNew, dxdt, peak } = this;
+    const { n, q, qdot, x, xNew, dxdt, peak } = this;
     const a = this.solver.a;
+    const reference = this.solver.reference;
+    const nonlinear = this.solver.qNonlinear;
     const beRows = this.system.backwardEulerRows;
-    this.chargesAt(xNew, qNew);
+    const { chargeRowStart, chargeCols, chargeValues } = this;
+    this.historyHead = (this.historyHead + 1) % HISTORY;
+    this.historyTimes[this.historyHead] = target;
+    const stored = this.historyValues[this.historyHead]!;
+    if (this.historyCount < HISTORY) this.historyCount++;
+    // One pass: charges q = C·x + q_nl (the triplets run row by row), their rates, the unknowns'
+    // rates and peaks, and the copies into x and the history.
+    const inverse = 1 / h;
     for (let i = 0; i < n; i++) {
+      let charge = nonlinear[i]!;
+      const end = chargeRowStart[i + 1]!;
+      for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * xNew[chargeCols[k]!]!;
       const rowBe = be || beRows[i] === 1;
-      qdot[i] = a[i]! * (qNew[i]! - q[i]!) - (rowBe ? 0 : qdot[i]!);
-      const dx = xNew[i]! - x[i]!;
-      dxdt[i] = rowBe ? dx / h : (2 * dx) / h - dxdt[i]!;
-      const mag = Math.abs(xNew[i]!);
-      if (mag > peak[i]!) peak[i] = mag;
+      qdot[i] = a[i]! * (charge - q[i]!) - (rowBe ? 0 : qdot[i]!);
+      q[i] = charge;
+      const value = xNew[i]!;
+      const dx = value - x[i]!;
+      dxdt[i] = rowBe ? dx * inverse : 2 * dx * inverse - dxdt[i]!;
+      x[i] = value;
+      stored[i] = value;
+      const mag = Math.abs(value);
+      if (mag > peak[i]!) {
+        peak[i] = mag;
+        reference[i] = mag;
+      }
     }
-    q.set(qNew);
-    x.set(xNew);
     this.t = target;
     this.stats.accepted++;
     if (landing) {
       this.stats.breakpoints++;
-      this.historyCount = 0;
       this.backwardEulerNext = true;
       this.nextBreak = this.findBreakpoint(this.t);
+      // The history restarts at the corner: only this point is kept.
+      this.historyCount = 1;
     } else {
       this.backwardEulerNext = false;
     }
-    this.pushHistory(this.t, this.x);
-    for (const o of this.observers) o(this.t, this.x, this.dxdt);
+    const observers = this.observers;
+    for (let o = 0; o < observers.length; o++) observers[o]!(target, x, dxdt);
   }
 }

@@ -30,11 +30,10 @@ export interface LinearStamp {
 
 /**
  * Accumulates a nonlinear device's contribution at one Newton iterate: currents `f(x)` and
- * charges `q(x)` per row, with their derivatives when the Jacobian is being rebuilt.
- * `jacobian` is false on iterations that reuse the previous factorisation.
+ * charges `q(x)` per row, and their derivatives. Devices stamp the derivatives on every
+ * iterate; the solver decides from them whether its factorisation is still good enough.
  */
 export interface NonlinearLoad {
-  readonly jacobian: boolean;
   /** Adds to the residual row (a current for node rows, a voltage for branch rows). */
   addF(row: number, value: number): void;
   /** Adds ∂f_row/∂x_col. */
@@ -43,11 +42,6 @@ export interface NonlinearLoad {
   addQ(row: number, value: number): void;
   /** Adds ∂q_row/∂x_col. */
   adddQ(row: number, col: number, value: number): void;
-  /**
-   * On an iteration that reuses the factorisation, a device whose slopes have moved far from
-   * those it last stamped asks for a fresh Jacobian; the iteration is then redone with one.
-   */
-  requestJacobian(): void;
 }
 
 /** An independent excitation: adds its value at time `t` to the source vector. */

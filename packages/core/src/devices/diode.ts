@@ -1,5 +1,5 @@
 import type { PartKindSchema } from "../circuit/schema.js";
-import type { DeviceModel } from "./device.js";
+import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
 
@@ -25,8 +25,6 @@ const BUILT_IN = 0.7;
 const GRADING = 0.5;
 /** Forward-bias fraction of the built-in potential beyond which the capacitance is linearised. */
 const FORWARD_KNEE = 0.5;
-/** How far (relative to the current) the stamped tangent may miss before a fresh Jacobian is asked for. */
-const STALE_TANGENT = 0.3;
 /** Beyond this many thermal voltages the exponential continues as its tangent (no overflow). */
 const EXP_LIMIT = 40;
 
@@ -82,6 +80,58 @@ export function limitJunctionVoltage(vOld: number, vNew: number, nvt: number, vc
   return vNew;
 }
 
+/**
+ * The diode's nonlinear term between junction nodes a and c. A class, so all diodes share one
+ * `load` and one `limitStep` (the solver's calls then stay monomorphic however many there are).
+ */
+class Junction implements NonlinearTerm {
+  private readonly state: JunctionState = { current: 0, conductance: 0 };
+
+  constructor(
+    private readonly a: number,
+    private readonly c: number,
+    private readonly is: number,
+    private readonly nvt: number,
+    private readonly cj0: number,
+    private readonly vcrit: number,
+  ) {}
+
+  load(x: Float64Array, out: NonlinearLoad): void {
+    const { a, c, state } = this;
+    const vd = valueAt(x, a) - valueAt(x, c);
+    junctionCurrent(vd, this.is, this.nvt, state);
+    out.addF(a, state.current);
+    out.addF(c, -state.current);
+    const g = state.conductance;
+    out.adddF(a, a, g);
+    out.adddF(a, c, -g);
+    out.adddF(c, a, -g);
+    out.adddF(c, c, g);
+    if (this.cj0 > 0) {
+      junctionCharge(vd, this.cj0, state);
+      // The depletion charge from a to c, row by row (sign +1 on a, −1 on c).
+      for (let side = 0; side < 2; side++) {
+        const row = side === 0 ? a : c;
+        const sign = side === 0 ? 1 : -1;
+        out.addQ(row, sign * state.current);
+        out.adddQ(row, a, sign * state.conductance);
+        out.adddQ(row, c, -sign * state.conductance);
+      }
+    }
+  }
+
+  limitStep(x: Float64Array, dx: Float64Array): number {
+    const { a, c, nvt, vcrit } = this;
+    const vOld = valueAt(x, a) - valueAt(x, c);
+    const step = valueAt(dx, a) - valueAt(dx, c);
+    const vNew = vOld + step;
+    // Exactly 1 unless the step is really limited (a ratio of tiny differences is not).
+    if (!(vNew > vcrit && Math.abs(step) > 2 * nvt)) return 1;
+    const fraction = (limitJunctionVoltage(vOld, vNew, nvt, vcrit) - vOld) / step;
+    return fraction > 0 && fraction < 1 ? fraction : 1;
+  }
+}
+
 export const diode: DeviceModel = {
   schema: diodeSchema,
   validate(part) {
@@ -102,10 +152,6 @@ export const diode: DeviceModel = {
     const c = cathode;
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
     const state: JunctionState = { current: 0, conductance: 0 };
-    // The tangent in the last factored Jacobian: voltage, current and slope.
-    let stampedV = 0;
-    let stampedI = 0;
-    let stampedG = 0;
     const v = valueAt;
     return {
       part,
@@ -115,50 +161,7 @@ export const diode: DeviceModel = {
               stampConductance(s, anode, a, 1 / series);
             }
           : undefined,
-      nonlinear: {
-        load(x, out) {
-          const vd = v(x, a) - v(x, c);
-          junctionCurrent(vd, is, nvt, state);
-          out.addF(a, state.current);
-          out.addF(c, -state.current);
-          // With a reused Jacobian, the stamped tangent i_s + g_s·(v − v_s) must still describe the
-          // junction: when it misses the current by more than STALE_TANGENT of it, ask for a fresh one.
-          const g = state.conductance;
-          if (out.jacobian) {
-            out.adddF(a, a, g);
-            out.adddF(a, c, -g);
-            out.adddF(c, a, -g);
-            out.adddF(c, c, g);
-            stampedV = vd;
-            stampedI = state.current;
-            stampedG = g;
-          } else {
-            const miss = Math.abs(state.current - stampedI - stampedG * (vd - stampedV));
-            if (miss > STALE_TANGENT * Math.max(Math.abs(state.current), Math.abs(stampedI)) + 1e-15) out.requestJacobian();
-          }
-          if (cj0 > 0) {
-            junctionCharge(vd, cj0, state);
-            out.addQ(a, state.current);
-            out.addQ(c, -state.current);
-            if (out.jacobian) {
-              const cj = state.conductance;
-              out.adddQ(a, a, cj);
-              out.adddQ(a, c, -cj);
-              out.adddQ(c, a, -cj);
-              out.adddQ(c, c, cj);
-            }
-          }
-        },
-        limitStep(x, dx) {
-          const vOld = v(x, a) - v(x, c);
-          const step = v(dx, a) - v(dx, c);
-          const vNew = vOld + step;
-          // Exactly 1 unless the step is really limited (a ratio of tiny differences is not).
-          if (!(vNew > vcrit && Math.abs(step) > 2 * nvt)) return 1;
-          const fraction = (limitJunctionVoltage(vOld, vNew, nvt, vcrit) - vOld) / step;
-          return fraction > 0 && fraction < 1 ? fraction : 1;
-        },
-      },
+      nonlinear: new Junction(a, c, is, nvt, cj0, vcrit),
       current(x, dxdt) {
         if (series > 0) return (v(x, anode) - v(x, a)) / series;
         const vd = v(x, a) - v(x, c);

@@ -1,7 +1,7 @@
 import type { OptionValue, PartSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
 import type { PartKindSchema } from "../circuit/schema.js";
-import type { DeviceModel } from "./device.js";
+import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
 
@@ -110,6 +110,62 @@ export function opampConstants(part: PartSpec): OpampConstants {
 }
 
 /**
+ * The macromodel's nonlinear part on its pole node p: the rail clamps and, with a slew limit,
+ * the tanh input stage (see `opamp`). A class, so every op-amp shares one `load`.
+ */
+class OutputStage implements NonlinearTerm {
+  private readonly slewLimited: boolean;
+
+  constructor(
+    private readonly plus: number,
+    private readonly minus: number,
+    private readonly p: number,
+    /** Supply nodes (neg, pos) followed instead of fixed rails. */
+    private readonly supply: readonly [number, number] | undefined,
+    private readonly k: OpampConstants,
+  ) {
+    this.slewLimited = Number.isFinite(k.iMax);
+  }
+
+  load(x: Float64Array, o: NonlinearLoad): void {
+    const { k, p, supply } = this;
+    const xp = x[p]!;
+    let hi = k.rails[1] - k.headroom;
+    let lo = k.rails[0] + k.headroom;
+    if (supply) {
+      hi = valueAt(x, supply[1]) - k.headroom;
+      lo = valueAt(x, supply[0]) + k.headroom;
+    }
+    const w = k.knee;
+    const g = k.gClamp;
+    // More than CLAMP_REACH knee widths inside a limit its clamp carries < 1e-17 of g·w: none.
+    let sHi = 0;
+    let sLo = 0;
+    if (xp - hi > -CLAMP_REACH * w) {
+      o.addF(p, g * softplus(xp - hi, w));
+      sHi = g * logistic(xp - hi, w);
+    }
+    if (lo - xp > -CLAMP_REACH * w) {
+      o.addF(p, -g * softplus(lo - xp, w));
+      sLo = g * logistic(lo - xp, w);
+    }
+    o.adddF(p, p, sHi + sLo);
+    if (supply) {
+      o.adddF(p, supply[1], -sHi);
+      o.adddF(p, supply[0], -sLo);
+    }
+    if (this.slewLimited) {
+      const vd = valueAt(x, this.plus) - valueAt(x, this.minus) + k.vos;
+      const t = Math.tanh((k.gm * vd) / k.iMax);
+      o.addF(p, -k.iMax * t);
+      const slope = k.gm * (1 - t * t);
+      o.adddF(p, this.plus, -slope);
+      o.adddF(p, this.minus, slope);
+    }
+  }
+}
+
+/**
  * The macromodel. An internal pole node x obeys
  *   C·dx/dt + x/R + i_clamp(x) = i_in(vd),  vd = v(plus) − v(minus) + vos,
  * with i_in = g·vd (or I_max·tanh(g·vd/I_max) under a slew limit, which bounds dx/dt at the
@@ -157,11 +213,6 @@ export const opamp: DeviceModel = {
     const p = setup.addUnknown(`${part.name}.pole`, "voltage", { backwardEuler: true });
     const k = opampConstants(part);
     const slewLimited = Number.isFinite(k.iMax);
-    const v = valueAt;
-    // Slopes in the last factored Jacobian, to tell when a reused one has gone stale.
-    let stampedClamp = 0;
-    let stampedInput = k.gm;
-    const moved = (now: number, then: number) => Math.abs(now - then) > 0.2 * Math.max(Math.abs(now), Math.abs(then)) + 1e-3 * k.gm;
     return {
       part,
       stampLinear(s) {
@@ -186,51 +237,9 @@ export const opamp: DeviceModel = {
               nextBreakpoint: () => Infinity,
             }
           : undefined,
-      nonlinear: {
-        load(x, o) {
-          const xp = x[p]!;
-          let hi = k.rails[1] - k.headroom;
-          let lo = k.rails[0] + k.headroom;
-          if (supply) {
-            hi = v(x, pos) - k.headroom;
-            lo = v(x, neg) + k.headroom;
-          }
-          const w = k.knee;
-          const g = k.gClamp;
-          // More than CLAMP_REACH knee widths inside a limit its clamp carries < 1e-17 of g·w: none.
-          let sHi = 0;
-          let sLo = 0;
-          if (xp - hi > -CLAMP_REACH * w) {
-            o.addF(p, g * softplus(xp - hi, w));
-            sHi = g * logistic(xp - hi, w);
-          }
-          if (lo - xp > -CLAMP_REACH * w) {
-            o.addF(p, -g * softplus(lo - xp, w));
-            sLo = g * logistic(lo - xp, w);
-          }
-          if (o.jacobian) {
-            o.adddF(p, p, sHi + sLo);
-            if (supply) {
-              o.adddF(p, pos, -sHi);
-              o.adddF(p, neg, -sLo);
-            }
-            stampedClamp = sHi + sLo;
-          } else if (moved(sHi + sLo, stampedClamp)) o.requestJacobian();
-          if (slewLimited) {
-            const vd = v(x, plus) - v(x, minus) + k.vos;
-            const t = Math.tanh((k.gm * vd) / k.iMax);
-            o.addF(p, -k.iMax * t);
-            const slope = k.gm * (1 - t * t);
-            if (o.jacobian) {
-              o.adddF(p, plus, -slope);
-              o.adddF(p, minus, slope);
-              stampedInput = slope;
-            } else if (moved(slope, stampedInput)) o.requestJacobian();
-          }
-        },
-      },
+      nonlinear: new OutputStage(plus, minus, p, supply ? [neg, pos] : undefined, k),
       current(x) {
-        return (x[p]! - v(x, out)) / k.rout;
+        return (x[p]! - valueAt(x, out)) / k.rout;
       },
     };
   },

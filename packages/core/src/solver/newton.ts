@@ -1,11 +1,20 @@
 import { simulationError } from "../circuit/diagnostic.js";
-import type { NonlinearLoad, NonlinearTerm } from "../devices/device.js";
+import type { NonlinearTerm } from "../devices/device.js";
+import { DeviceJacobian } from "./device-jacobian.js";
+import { IterateLoad } from "./iterate-load.js";
 import { LuSolver } from "./lu.js";
 import type { MnaSystem } from "./system.js";
 import type { Tolerances } from "./tolerances.js";
 
 /** Largest scaled update (in tolerances) after which the next iteration may reuse the Jacobian. */
 const CHORD_NEAR = 1e3;
+/**
+ * A factorisation is reused while no device entry of the matrix has moved by more than this
+ * fraction of the entry; the chord iteration then contracts about as fast.
+ */
+const STALE_ENTRY = 0.25;
+/** Entry changes below this fraction of their row's largest constant entry are ignored. */
+const ENTRY_FLOOR = 1e-9;
 
 /** Outcome of one Newton solve; `worst` is the unknown with the largest scaled update. */
 export interface NewtonOutcome {
@@ -35,6 +44,11 @@ export class NewtonSolver {
   readonly u: Float64Array;
   /** Nonlinear charges per row at the last iterate. */
   readonly qNonlinear: Float64Array;
+  /**
+   * Magnitude each unknown's update is judged against besides its own value: the transient
+   * sets it to the running peaks, the scale its truncation error is judged on (0 at the bias point).
+   */
+  readonly reference: Float64Array;
   /** Conductance to ground added on every node row (gmin stepping). */
   gmin = 0;
   /** The contraction factor the last iterations showed, for the stopping rule. */
@@ -61,10 +75,13 @@ export class NewtonSolver {
 
   private readonly matrix: Float64Array;
   private readonly base: Float64Array;
-  private readonly lu: LuSolver;
+  readonly lu: LuSolver;
   private readonly residual: Float64Array;
   private readonly update: Float64Array;
-  private readonly load: NonlinearLoad & { jacobian: boolean; requested: boolean };
+  private readonly load: IterateLoad;
+  private readonly deviceJacobian: DeviceJacobian;
+  /** Per row: changes of a device entry below this never force a new factorisation. */
+  private readonly entryFloor: Float64Array;
   private readonly tol: Float64Array;
   private baseValid = false;
   private luValid = false;
@@ -81,6 +98,7 @@ export class NewtonSolver {
     this.history = new Float64Array(n);
     this.u = new Float64Array(n);
     this.qNonlinear = new Float64Array(n);
+    this.reference = new Float64Array(n);
     this.matrix = new Float64Array(n * n);
     this.base = new Float64Array(n * n);
     this.lu = new LuSolver(n);
@@ -94,32 +112,9 @@ export class NewtonSolver {
     system.unknowns.forEach((u, i) => {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
     });
-    const matrix = this.matrix;
-    const r = this.residual;
-    const a = this.a;
-    const q = this.qNonlinear;
-    this.load = {
-      jacobian: false,
-      requested: false,
-      requestJacobian() {
-        this.requested = true;
-      },
-      addF(row, value) {
-        if (row >= 0) r[row] += value;
-      },
-      adddF(row, col, value) {
-        if (row >= 0 && col >= 0) matrix[row * n + col] += value;
-      },
-      addQ(row, value) {
-        if (row >= 0) {
-          r[row] += a[row]! * value;
-          q[row] += value;
-        }
-      },
-      adddQ(row, col, value) {
-        if (row >= 0 && col >= 0) matrix[row * n + col] += a[row]! * value;
-      },
-    };
+    this.entryFloor = new Float64Array(n);
+    this.deviceJacobian = new DeviceJacobian(n);
+    this.load = new IterateLoad(this.residual, this.a, this.qNonlinear, this.deviceJacobian);
   }
 
   private lastUniform = Number.NaN;
@@ -156,8 +151,10 @@ export class NewtonSolver {
 
   /** Fills `u` with every source's value at `t`, scaled by `scale`. */
   loadSources(t: number, scale: number, left: boolean): void {
+    const sources = this.system.sources;
+    if (sources.length === 0) return; // u stays zero
     this.u.fill(0);
-    for (const s of this.system.sources) s.addSource(t, scale, this.u, left);
+    for (let k = 0; k < sources.length; k++) sources[k]!.addSource(t, scale, this.u, left);
   }
 
   private assembleBase(): void {
@@ -172,6 +169,11 @@ export class NewtonSolver {
       system.unknowns.forEach((u, i) => {
         if (u.isNode) base[i * n + i] += this.gmin;
       });
+    }
+    for (let i = 0; i < n; i++) {
+      let largest = 0;
+      for (let j = 0; j < n; j++) largest = Math.max(largest, Math.abs(base[i * n + j]!));
+      this.entryFloor[i] = ENTRY_FLOOR * largest;
     }
     // The nonzeros of the assembled matrix, row by row, for the residual product.
     let count = 0;
@@ -221,15 +223,30 @@ export class NewtonSolver {
     return o;
   }
 
-  private loadDevices(x: Float64Array, jacobian: boolean): void {
+  private loadDevices(x: Float64Array): void {
     const load = this.load;
-    this.qNonlinear.fill(0);
-    load.jacobian = jacobian;
-    load.requested = false;
+    if (this.load.charged) this.qNonlinear.fill(0);
+    this.deviceJacobian.clear();
     for (const device of this.system.nonlinear) device.load(x, load);
   }
 
+  /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
+  private patternEntries = -1;
+
+  /** The entries that can ever be nonzero: G, C, every node's diagonal (gmin) and the device entries. */
+  private updatePattern(): void {
+    const { n, system } = this;
+    const pattern = new Uint8Array(n * n);
+    for (let k = 0; k < n * n; k++) if (system.G[k] !== 0 || system.C[k] !== 0) pattern[k] = 1;
+    for (let i = 0; i < n; i++) pattern[i * n + i] = 1;
+    this.deviceJacobian.markInto(pattern);
+    this.lu.setPattern(pattern);
+    this.patternEntries = this.deviceJacobian.entryCount;
+  }
+
   private factor(): void {
+    if (this.deviceJacobian.entryCount !== this.patternEntries) this.updatePattern();
+    this.deviceJacobian.assemble(this.base, this.matrix);
     if (!this.lu.factor(this.matrix)) {
       const label = this.system.unknowns[this.lu.singularColumn]?.label ?? "?";
       throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
@@ -245,46 +262,38 @@ export class NewtonSolver {
    * set. Throws OnsetError only for a singular matrix; non-convergence is reported in the outcome.
    */
   solve(x: Float64Array, maxIterations: number): NewtonOutcome {
-    const { n, residual: r, update: dx, load } = this;
+    const { n, residual: r, update: dx } = this;
     if (!this.baseValid) this.assembleBase();
     let previousNorm = Infinity;
     let worst = 0;
     for (let iter = 1; iter <= maxIterations; iter++) {
       this.iterations++;
-      let rebuild = !this.luValid;
       this.linearResidual(x);
-      if (rebuild) this.matrix.set(this.base);
-      if (!this.linear) {
-        this.loadDevices(x, rebuild);
-        if (!rebuild && load.requested) {
-          rebuild = true;
-          this.linearResidual(x);
-          this.matrix.set(this.base);
-          this.loadDevices(x, true);
-        }
-      }
+      if (!this.linear) this.loadDevices(x);
+      const rebuild = !this.luValid || (!this.linear && this.deviceJacobian.moved(this.base, STALE_ENTRY, this.entryFloor));
       if (rebuild) this.factor();
-      this.lu.solve(r, dx);
+      this.lu.solveNegated(r, dx);
       if (this.linear) {
         // One solve is exact for a linear system: x ← x − M⁻¹·r.
-        for (let i = 0; i < n; i++) x[i] -= dx[i]!;
+        for (let i = 0; i < n; i++) x[i] += dx[i]!;
         return this.finish(true, iter, worst);
       }
-      for (let i = 0; i < n; i++) dx[i] = -dx[i]!;
       let lambda = 1;
-      for (const device of this.limiters) {
-        const l = device.limitStep!(x, dx);
+      const limiters = this.limiters;
+      for (let d = 0; d < limiters.length; d++) {
+        const l = limiters[d]!.limitStep!(x, dx);
         if (l < lambda) lambda = l;
       }
       let norm = 0;
       const relative = this.relative;
       const tol = this.tol;
+      const reference = this.reference;
       for (let i = 0; i < n; i++) {
         const step = lambda * dx[i]!;
         const xi = x[i]!;
         const next = xi + step;
         x[i] = next;
-        const scale = relative * Math.max(Math.abs(xi), Math.abs(next)) + tol[i]!;
+        const scale = relative * Math.max(Math.abs(xi), Math.abs(next), reference[i]!) + tol[i]!;
         const ratio = Math.abs(step) / scale;
         if (ratio > norm) {
           norm = ratio;
@@ -302,7 +311,7 @@ export class NewtonSolver {
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
-      if (norm > this.chordLimit || lambda < 1 || (iter > 1 && norm > 0.3 * previousNorm)) this.luValid = false;
+      if (norm > this.chordLimit || lambda < 1 || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) this.luValid = false;
       previousNorm = norm;
     }
     return this.finish(false, maxIterations, worst);

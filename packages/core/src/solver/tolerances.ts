@@ -1,6 +1,9 @@
 /** Accuracy settings of the solvers. Defaults are documented in DEVELOPERS.md. */
 export interface Tolerances {
-  /** Relative tolerance of a Newton update: a tenth of the LTE tolerance. @defaultValue 1e-5 */
+  /**
+   * Relative tolerance of a time step's Newton update, against max(|x|, the unknown's running
+   * peak): a tenth of the LTE tolerance, on the same scale. @defaultValue 1e-5
+   */
   readonly newtonRelative: number;
   /** Relative tolerance of the bias point's last Newton update. @defaultValue 1e-9 */
   readonly biasRelative: number;

@@ -1,0 +1,89 @@
+/**
+ * The nonlinear devices' share of the Newton matrix (∂f/∂x + a·∂q/∂x), kept apart from the
+ * constant G + a·C so that each iteration can tell whether the factorisation in use still
+ * describes the circuit. Devices stamp on every iteration; only the entries they have ever
+ * touched are visited, so an iteration costs O(device entries), not O(n²).
+ */
+export class DeviceJacobian {
+  readonly n: number;
+  /** Row-major n×n, nonzero only at touched entries. */
+  readonly values: Float64Array;
+  /** The values that went into the last factorisation. */
+  private readonly factored: Float64Array;
+  private readonly marked: Uint8Array;
+  private entries: Int32Array;
+  /** The row of each touched entry. */
+  private rows: Int32Array;
+  private count = 0;
+
+  constructor(n: number) {
+    this.n = n;
+    this.values = new Float64Array(n * n);
+    this.factored = new Float64Array(n * n);
+    this.marked = new Uint8Array(n * n);
+    this.entries = new Int32Array(16);
+    this.rows = new Int32Array(16);
+  }
+
+  /** How many entries the devices have touched so far (it only grows). */
+  get entryCount(): number {
+    return this.count;
+  }
+
+  /** Sets mask[k] = 1 at every touched entry. */
+  markInto(mask: Uint8Array): void {
+    for (let e = 0; e < this.count; e++) mask[this.entries[e]!] = 1;
+  }
+
+  /** Zeroes the touched entries before the devices stamp again. */
+  clear(): void {
+    const { values, entries } = this;
+    for (let e = 0; e < this.count; e++) values[entries[e]!] = 0;
+  }
+
+  /** Adds to entry (row, col); both are ≥ 0. */
+  add(row: number, col: number, value: number): void {
+    const k = row * this.n + col;
+    if (this.marked[k] === 0) {
+      this.marked[k] = 1;
+      if (this.count === this.entries.length) {
+        const entries = new Int32Array(2 * this.count);
+        entries.set(this.entries);
+        this.entries = entries;
+        const rows = new Int32Array(2 * this.count);
+        rows.set(this.rows);
+        this.rows = rows;
+      }
+      this.rows[this.count] = row;
+      this.entries[this.count++] = k;
+    }
+    this.values[k] += value;
+  }
+
+  /** matrix ← base + these values, remembered as the factored ones. */
+  assemble(base: Float64Array, matrix: Float64Array): void {
+    const { values, factored, entries } = this;
+    matrix.set(base);
+    for (let e = 0; e < this.count; e++) {
+      const k = entries[e]!;
+      matrix[k] += values[k]!;
+      factored[k] = values[k]!;
+    }
+  }
+
+  /**
+   * True when some entry has moved by more than `fraction` of the whole matrix entry it was
+   * factored with (base + device part), ignoring changes below `floor[row]`. The chord iteration
+   * on the old factorisation then contracts at about that fraction or worse.
+   */
+  moved(base: Float64Array, fraction: number, floor: Float64Array): boolean {
+    const { values, factored, entries, rows } = this;
+    for (let e = 0; e < this.count; e++) {
+      const k = entries[e]!;
+      const was = factored[k]!;
+      const change = Math.abs(values[k]! - was);
+      if (change > fraction * Math.abs(base[k]! + was) && change > floor[rows[e]!]!) return true;
+    }
+    return false;
+  }
+}
