@@ -8,15 +8,16 @@ export function printTable(rows) {
   for (const r of rows) console.log(line(keys.map((k) => r[k])));
 }
 
-/** Best of `repeat` wall times (ms) of `fn`, after one warm-up call. */
+/** Best and median of `repeat` wall times (ms) of `fn`, after one warm-up call. */
 export function timeBest(fn, repeat = 3) {
   fn();
-  let best = Infinity;
+  const times = [];
   let result;
   for (let i = 0; i < repeat; i++) {
     const t0 = performance.now();
     result = fn();
-    best = Math.min(best, performance.now() - t0);
+    times.push(performance.now() - t0);
   }
-  return { ms: best, result };
+  times.sort((a, b) => a - b);
+  return { ms: times[0], median: times[Math.floor(times.length / 2)], result };
 }
