@@ -10,7 +10,8 @@ export class DeviceJacobian {
   readonly values: Float64Array;
   /** The values that went into the last factorisation. */
   private readonly factored: Float64Array;
-  private readonly marked: Uint8Array;
+  /** 1 at the entries touched so far. */
+  readonly marked: Uint8Array;
   private entries: Int32Array;
   /** The row of each touched entry. */
   private rows: Int32Array;
@@ -44,20 +45,25 @@ export class DeviceJacobian {
   /** Adds to entry (row, col); both are ≥ 0. */
   add(row: number, col: number, value: number): void {
     const k = row * this.n + col;
-    if (this.marked[k] === 0) {
-      this.marked[k] = 1;
-      if (this.count === this.entries.length) {
-        const entries = new Int32Array(2 * this.count);
-        entries.set(this.entries);
-        this.entries = entries;
-        const rows = new Int32Array(2 * this.count);
-        rows.set(this.rows);
-        this.rows = rows;
-      }
-      this.rows[this.count] = row;
-      this.entries[this.count++] = k;
-    }
+    if (this.marked[k] === 0) this.touch(row, col);
     this.values[k] += value;
+  }
+
+  /** Records entry (row, col) as touched (callers adding in their own hot loop check `marked` first). */
+  touch(row: number, col: number): void {
+    const k = row * this.n + col;
+    if (this.marked[k] === 1) return;
+    this.marked[k] = 1;
+    if (this.count === this.entries.length) {
+      const entries = new Int32Array(2 * this.count);
+      entries.set(this.entries);
+      this.entries = entries;
+      const rows = new Int32Array(2 * this.count);
+      rows.set(this.rows);
+      this.rows = rows;
+    }
+    this.rows[this.count] = row;
+    this.entries[this.count++] = k;
   }
 
   /** matrix ← base + these values, remembered as the factored ones. */

@@ -1,5 +1,6 @@
 import { simulationError } from "../circuit/diagnostic.js";
 import type { NonlinearTerm } from "../devices/device.js";
+import { compileResidual, type ResidualProduct } from "./compiled-residual.js";
 import { DeviceJacobian } from "./device-jacobian.js";
 import { IterateLoad } from "./iterate-load.js";
 import { LuSolver } from "./lu.js";
@@ -113,6 +114,7 @@ export class NewtonSolver {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
     });
     this.entryFloor = new Float64Array(n);
+    this.residualProduct = compileResidual(n, this.linearPattern());
     this.deviceJacobian = new DeviceJacobian(n);
     this.load = new IterateLoad(this.residual, this.a, this.qNonlinear, this.deviceJacobian);
   }
@@ -175,6 +177,8 @@ export class NewtonSolver {
       for (let j = 0; j < n; j++) largest = Math.max(largest, Math.abs(base[i * n + j]!));
       this.entryFloor[i] = ENTRY_FLOOR * largest;
     }
+    this.baseValid = true;
+    if (this.residualProduct) return;
     // The nonzeros of the assembled matrix, row by row, for the residual product.
     let count = 0;
     for (let k = 0; k < n * n; k++) if (base[k] !== 0) count++;
@@ -193,16 +197,21 @@ export class NewtonSolver {
       }
     }
     this.baseRowStart[n] = k;
-    this.baseValid = true;
   }
 
-  // Compressed rows of the assembled G + a·C (+ gmin), rebuilt with it.
+  /** The product over the pattern of G, C and the node diagonals, generated once per circuit. */
+  private readonly residualProduct: ResidualProduct | undefined;
+  // Compressed rows of the assembled G + a·C (+ gmin), rebuilt with it (when not generated).
   private baseRowStart: Int32Array;
   private baseCols = new Int32Array(0);
   private baseValues = new Float64Array(0);
 
   /** r = (G + a·C + gmin)·x − history − u (the linear part of the residual). */
   private linearResidual(x: Float64Array): void {
+    if (this.residualProduct) {
+      this.residualProduct(this.base, x, this.history, this.u, this.residual);
+      return;
+    }
     const { n, residual: r, history, u, baseRowStart: start, baseCols: cols, baseValues: values } = this;
     for (let i = 0; i < n; i++) {
       let sum = -history[i]! - u[i]!;
@@ -233,12 +242,18 @@ export class NewtonSolver {
   /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
   private patternEntries = -1;
 
-  /** The entries that can ever be nonzero: G, C, every node's diagonal (gmin) and the device entries. */
-  private updatePattern(): void {
+  /** The entries G + a·C + gmin can have: those of G and C, and every diagonal. */
+  private linearPattern(): Uint8Array {
     const { n, system } = this;
     const pattern = new Uint8Array(n * n);
     for (let k = 0; k < n * n; k++) if (system.G[k] !== 0 || system.C[k] !== 0) pattern[k] = 1;
     for (let i = 0; i < n; i++) pattern[i * n + i] = 1;
+    return pattern;
+  }
+
+  /** The entries that can ever be nonzero: the linear pattern and the device entries. */
+  private updatePattern(): void {
+    const pattern = this.linearPattern();
     this.deviceJacobian.markInto(pattern);
     this.lu.setPattern(pattern);
     this.patternEntries = this.deviceJacobian.entryCount;
