@@ -13,6 +13,7 @@ export const title = "Start-up: the 440 Hz twin-T tuning reference, engine again
 
 const UNTIL = 0.15;
 const FROM = 0.1; // frequency measured from the crossings in [FROM, UNTIL]
+const MAX_STEP = 1 / 440 / 100; // T0/100, as the startup analysis chooses
 const RUNS = 30; // the engine's run is timed this often (best and median reported)
 
 /** The example circuit, with the diodes' series resistance set to 0 and a 0.5 V start on Ca (same initial state in both runs). */
@@ -30,23 +31,17 @@ function frequencyOf(t, v) {
   return (c.length - 1) / (c[c.length - 1] - c[0]);
 }
 
-function engineRun(c, tolerances) {
+function engineRun(c, tolerances, capacity = Math.ceil((4 * UNTIL) / MAX_STEP)) {
   const system = buildSystem(c);
-  const stepper = new TransientStepper(system, { start: "rest", maxStep: 1 / 440 / 100, tolerances });
+  const stepper = new TransientStepper(system, { start: "rest", maxStep: MAX_STEP, tolerances });
   const o = system.nodeIndex.get("o");
-  // Recorded into typed arrays, as the startup analysis records its probe.
-  let t = new Float64Array(8192);
-  let v = new Float64Array(8192);
+  // Recorded into typed arrays, as the startup analysis records its probe; at the default
+  // tolerances the steps are about UNTIL/maxStep (the largest step binds), so 4× that is ample.
+  const t = new Float64Array(capacity);
+  const v = new Float64Array(capacity);
   let count = 0;
   stepper.observe((time, x) => {
-    if (count === t.length) {
-      const t2 = new Float64Array(2 * count);
-      t2.set(t);
-      t = t2;
-      const v2 = new Float64Array(2 * count);
-      v2.set(v);
-      v = v2;
-    }
+    if (count === capacity) throw new Error("bench recorder full: raise its capacity");
     t[count] = time;
     v[count++] = x[o];
   });
@@ -161,7 +156,7 @@ export async function run() {
   let stepping = Infinity;
   for (let i = 0; i < RUNS; i++) stepping = Math.min(stepping, engineRun(c, undefined).stepping);
   // The reference run comes after the timed ones, so its tiny steps do not shape the compiled code being timed.
-  const precise = engineRun(c, { lteRelative: 1e-8, lteVoltage: 1e-10 });
+  const precise = engineRun(c, { lteRelative: 1e-8, lteVoltage: 1e-10 }, 4_000_000);
   const reference = frequencyOf(precise.t, precise.v);
   const fEngine = frequencyOf(engine.result.t, engine.result.v);
   const model = stateEquations(c);

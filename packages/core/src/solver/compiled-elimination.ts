@@ -1,4 +1,5 @@
 import type { EliminationSchedule } from "./elimination-schedule.js";
+import { generatedFunction } from "./generated-code.js";
 
 /** Refactorisation and solve of one elimination schedule as straight-line code. */
 export interface CompiledElimination {
@@ -37,13 +38,11 @@ export function compileElimination(s: EliminationSchedule, n: number, rowOrder: 
     for (let e = s.lowerStart[k]!; e < s.lowerStart[k + 1]!; e++) {
       const ik = s.lowerAt[e]!;
       f.push(`m = lu[${ik}] / p; lu[${ik}] = m;`);
-      if (s.upperStart[k + 1]! === s.upperStart[k]!) continue;
-      f.push("if (m !== 0) {");
+      // No skip when m is 0: a branch that warm-up never takes would cost a deoptimisation later.
       for (let u = s.upperStart[k]!; u < s.upperStart[k + 1]!; u++) {
         const d = s.upperAt[u]!;
         f.push(`lu[${ik + d}] -= m * lu[${kk + d}];`);
       }
-      f.push("}");
     }
   }
   f.push("return true;");
@@ -66,12 +65,8 @@ export function compileElimination(s: EliminationSchedule, n: number, rowOrder: 
     g.push(`${line}) / lu[${ii}];`);
   }
   for (let j = 0; j < n; j++) g.push(`x[${colOrder[j]}] = sign * y${j};`);
-  try {
-    // Built from integers only (see above).
-    const refactor = new Function("a", "lu", "keep", "tolerance", f.join("\n")) as CompiledElimination["refactor"];
-    const solve = new Function("lu", "b", "x", "sign", g.join("\n")) as CompiledElimination["solve"];
-    return { refactor, solve };
-  } catch {
-    return undefined; // a host that forbids generated code keeps the loops
-  }
+  // Built from integers only (see above).
+  const refactor = generatedFunction<CompiledElimination["refactor"]>(["a", "lu", "keep", "tolerance"], f.join("\n"));
+  const solve = generatedFunction<CompiledElimination["solve"]>(["lu", "b", "x", "sign"], g.join("\n"));
+  return refactor && solve ? { refactor, solve } : undefined;
 }

@@ -1,3 +1,5 @@
+import { generatedFunction } from "./generated-code.js";
+
 /** r = M·x − history − u for a dense row-major M whose nonzeros lie in a fixed pattern. */
 export type ResidualProduct = (matrix: Float64Array, x: Float64Array, history: Float64Array, u: Float64Array, r: Float64Array) => void;
 
@@ -19,9 +21,5 @@ export function compileResidual(n: number, pattern: Uint8Array): ResidualProduct
     for (let j = 0; j < n; j++) if (pattern[i * n + j]) line += ` + m[${i * n + j}] * x[${j}]`;
     lines.push(`${line};`);
   }
-  try {
-    return new Function("m", "x", "history", "u", "r", lines.join("\n")) as ResidualProduct;
-  } catch {
-    return undefined;
-  }
+  return generatedFunction<ResidualProduct>(["m", "x", "history", "u", "r"], lines.join("\n"));
 }

@@ -117,7 +117,6 @@ export class LuSolver {
         const ik = lowerAt[e]!;
         const m = lu[ik]! / pivot;
         lu[ik] = m;
-        if (m === 0) continue;
         // Entry (i, j) sits at ik + (j − k); the upper offsets are stored relative to (k, k).
         for (let u = uStart; u < uEnd; u++) {
           const d = upperAt[u]!;
