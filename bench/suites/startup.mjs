@@ -14,7 +14,7 @@ export const title = "Start-up: the 440 Hz twin-T tuning reference, engine again
 const UNTIL = 0.15;
 const FROM = 0.1; // frequency measured from the crossings in [FROM, UNTIL]
 const MAX_STEP = 1 / 440 / 100; // T0/100, as the startup analysis chooses
-const RUNS = 30; // the engine's run is timed this often (best and median reported)
+const RUNS = 60; // the engine's run is timed this often (best and median reported)
 
 /** The example circuit, with the diodes' series resistance set to 0 and a 0.5 V start on Ca (same initial state in both runs). */
 function circuit() {
