@@ -42,14 +42,10 @@ export class DeviceJacobian {
     for (let e = 0; e < this.count; e++) values[entries[e]!] = 0;
   }
 
-  /** Adds to entry (row, col); both are ≥ 0. */
-  add(row: number, col: number, value: number): void {
-    const k = row * this.n + col;
-    if (this.marked[k] === 0) this.touch(row, col);
-    this.values[k] += value;
-  }
-
-  /** Records entry (row, col) as touched (callers adding in their own hot loop check `marked` first). */
+  /**
+   * Records entry (row, col), both ≥ 0, as touched; callers then add to `values` themselves
+   * (the solver's load checks `marked` first, so this runs once per entry).
+   */
   touch(row: number, col: number): void {
     const k = row * this.n + col;
     if (this.marked[k] === 1) return;

@@ -17,6 +17,15 @@ const STALE_ENTRY = 0.25;
 /** Entry changes below this fraction of their row's largest constant entry are ignored. */
 const ENTRY_FLOOR = 1e-9;
 
+/** The entries G + a·C + gmin can have: those of G and C, and every diagonal. */
+function linearPatternOf(system: MnaSystem): Uint8Array {
+  const n = system.n;
+  const pattern = new Uint8Array(n * n);
+  for (let k = 0; k < n * n; k++) if (system.G[k] !== 0 || system.C[k] !== 0) pattern[k] = 1;
+  for (let i = 0; i < n; i++) pattern[i * n + i] = 1;
+  return pattern;
+}
+
 /** Outcome of one Newton solve; `worst` is the unknown with the largest scaled update. */
 export interface NewtonOutcome {
   converged: boolean;
@@ -76,7 +85,7 @@ export class NewtonSolver {
 
   private readonly matrix: Float64Array;
   private readonly base: Float64Array;
-  readonly lu: LuSolver;
+  private readonly lu: LuSolver;
   private readonly residual: Float64Array;
   private readonly update: Float64Array;
   private readonly load: IterateLoad;
@@ -114,7 +123,8 @@ export class NewtonSolver {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
     });
     this.entryFloor = new Float64Array(n);
-    this.residualProduct = compileResidual(n, this.linearPattern());
+    this.linearPattern = linearPatternOf(system);
+    this.residualProduct = compileResidual(n, this.linearPattern);
     this.deviceJacobian = new DeviceJacobian(n);
     this.load = new IterateLoad(this.residual, this.a, this.qNonlinear, this.deviceJacobian);
   }
@@ -242,18 +252,12 @@ export class NewtonSolver {
   /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
   private patternEntries = -1;
 
-  /** The entries G + a·C + gmin can have: those of G and C, and every diagonal. */
-  private linearPattern(): Uint8Array {
-    const { n, system } = this;
-    const pattern = new Uint8Array(n * n);
-    for (let k = 0; k < n * n; k++) if (system.G[k] !== 0 || system.C[k] !== 0) pattern[k] = 1;
-    for (let i = 0; i < n; i++) pattern[i * n + i] = 1;
-    return pattern;
-  }
+  /** The entries G + a·C + gmin can have. */
+  private readonly linearPattern: Uint8Array;
 
   /** The entries that can ever be nonzero: the linear pattern and the device entries. */
   private updatePattern(): void {
-    const pattern = this.linearPattern();
+    const pattern = Uint8Array.from(this.linearPattern);
     this.deviceJacobian.markInto(pattern);
     this.lu.setPattern(pattern);
     this.patternEntries = this.deviceJacobian.entryCount;
