@@ -53,6 +53,8 @@ export interface SourceTerm {
   addSource(t: number, scale: number, u: Float64Array, left: boolean): void;
   /** The first time strictly after `t` where the waveform has a corner, or Infinity. */
   nextBreakpoint(t: number): number;
+  /** After this time the source adds nothing (a start-up kick that has ended); default never. */
+  readonly quietAfter?: number;
 }
 
 /** A device whose equations depend nonlinearly on the unknowns. */

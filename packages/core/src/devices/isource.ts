@@ -32,6 +32,7 @@ export const isource: DeviceModel = {
           if (to >= 0) u[to] += i;
         },
         nextBreakpoint: (t) => wave.nextBreakpoint(t),
+        quietAfter: wave.quietAfter,
       },
       current(_x, _dxdt, t) {
         return wave.value(t, false);

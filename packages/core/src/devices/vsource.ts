@@ -37,6 +37,7 @@ export const vsource: DeviceModel = {
           u[k] += scale * wave.value(t, left);
         },
         nextBreakpoint: (t) => wave.nextBreakpoint(t),
+        quietAfter: wave.quietAfter,
       },
       current(x) {
         return x[k]!;

@@ -109,6 +109,7 @@ export class NewtonSolver {
     this.u = new Float64Array(n);
     this.qNonlinear = new Float64Array(n);
     this.reference = new Float64Array(n);
+    this.quietAfter = Float64Array.from(system.sources, (s) => s.quietAfter ?? Infinity);
     this.matrix = new Float64Array(n * n);
     this.base = new Float64Array(n * n);
     this.lu = new LuSolver(n);
@@ -161,12 +162,32 @@ export class NewtonSolver {
     this.luValid = false;
   }
 
+  /** Per source: after this time it adds nothing. */
+  private readonly quietAfter: Float64Array;
+  /** Whether `u` holds zeros (set when every source was silent). */
+  private uZero = false;
+
   /** Fills `u` with every source's value at `t`, scaled by `scale`. */
   loadSources(t: number, scale: number, left: boolean): void {
     const sources = this.system.sources;
-    if (sources.length === 0) return; // u stays zero
-    this.u.fill(0);
-    for (let k = 0; k < sources.length; k++) sources[k]!.addSource(t, scale, this.u, left);
+    const quietAfter = this.quietAfter;
+    const u = this.u;
+    let active = false;
+    for (let k = 0; k < sources.length; k++) {
+      if (!(t > quietAfter[k]!)) {
+        active = true;
+        break;
+      }
+    }
+    if (!active) {
+      // Every source is silent: u is zero, and stays so without refilling it at each step.
+      if (!this.uZero) u.fill(0);
+      this.uZero = true;
+      return;
+    }
+    for (let i = 0; i < u.length; i++) u[i] = 0;
+    for (let k = 0; k < sources.length; k++) sources[k]!.addSource(t, scale, u, left);
+    this.uZero = false;
   }
 
   private assembleBase(): void {

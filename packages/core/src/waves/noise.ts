@@ -67,5 +67,7 @@ export function noiseWave(s: NoiseSettings): Wave {
       return scale * (w[0]! * sample(k - 1) + w[1]! * sample(k) + w[2]! * sample(k + 1) + w[3]! * sample(k + 2));
     },
     nextBreakpoint: () => Infinity,
+    // value() is 0 once k − 1 > lastSample, i.e. from t = (lastSample + 2)·interval on.
+    quietAfter: Number.isFinite(lastSample) ? (lastSample + 2) * interval : undefined,
   };
 }

@@ -4,6 +4,8 @@ export interface Wave {
   value(t: number, left: boolean): number;
   /** The first corner strictly after `t`, or Infinity. */
   nextBreakpoint(t: number): number;
+  /** After this time the level is 0 for good (absent: never). */
+  readonly quietAfter?: number;
 }
 
 export function constantWave(level: number): Wave {
