@@ -36,15 +36,11 @@ export interface JunctionState {
 /** Shockley current and its slope at junction voltage v, exponential linearised past EXP_LIMIT. */
 export function junctionCurrent(v: number, is: number, nvt: number, out: JunctionState): void {
   const z = v / nvt;
-  if (z > EXP_LIMIT) {
-    const e = Math.exp(EXP_LIMIT);
-    out.current = is * (e * (1 + z - EXP_LIMIT) - 1) + JUNCTION_LEAK * v;
-    out.conductance = (is * e) / nvt + JUNCTION_LEAK;
-  } else {
-    const e = Math.exp(z);
-    out.current = is * (e - 1) + JUNCTION_LEAK * v;
-    out.conductance = (is * e) / nvt + JUNCTION_LEAK;
-  }
+  // Past the limit the exponential continues along its tangent: e·(1 + z − limit).
+  const beyond = z > EXP_LIMIT ? z - EXP_LIMIT : 0;
+  const e = Math.exp(beyond > 0 ? EXP_LIMIT : z);
+  out.current = is * (e * (1 + beyond) - 1) + JUNCTION_LEAK * v;
+  out.conductance = (is * e) / nvt + JUNCTION_LEAK;
 }
 
 /** Depletion charge and capacitance at v: Cj0/(1 − v/φ)^m, linear past FORWARD_KNEE·φ. */

@@ -267,7 +267,8 @@ export class NewtonSolver {
     const load = this.load;
     if (this.load.charged) this.qNonlinear.fill(0);
     this.deviceJacobian.clear();
-    for (const device of this.system.nonlinear) device.load(x, load);
+    const devices = this.system.nonlinear;
+    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load);
   }
 
   /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
