@@ -137,12 +137,14 @@ export class TransientStepper {
 
   /** q = C·x + q_nl(x) for the linear part; the nonlinear part is taken from the last load. */
   private chargesAt(x: Float64Array, q: Float64Array): void {
-    const { n } = this;
-    const { rows, cols, values } = this.system.cTriplets;
-    q.fill(0);
-    for (let k = 0; k < values.length; k++) q[rows[k]!] += values[k]! * x[cols[k]!]!;
+    const { n, chargeRowStart, chargeCols, chargeValues } = this;
     const nl = this.solver.qNonlinear;
-    for (let i = 0; i < n; i++) q[i] += nl[i]!;
+    for (let i = 0; i < n; i++) {
+      let charge = nl[i]!;
+      const end = chargeRowStart[i + 1]!;
+      for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * x[chargeCols[k]!]!;
+      q[i] = charge;
+    }
   }
 
   /**
