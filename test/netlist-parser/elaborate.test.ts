@@ -269,3 +269,24 @@ describe("several independent errors are all reported", () => {
     expect(r.program.statements.map((s) => s.kind)).toEqual(["part"]);
   });
 });
+
+describe("state probes", () => {
+  test("PART.state names a state the part's kind lists; a difference may take voltage states", () => {
+    const c = circuit(
+      program(`resistor R1 o k 1k
+diode D1 o k series=2
+resistor R2 k gnd 1k
+opamp U1 gnd k o
+transient until=1m probes=(o, U1.pole, D1.junction, (D1.junction, k), R1.i)
+`),
+    );
+    const t = c.analyses[0]!;
+    expect(t.kind === "transient" && t.probes).toEqual([
+      { kind: "node", node: "o" },
+      { kind: "state", part: "U1", state: "pole" },
+      { kind: "state", part: "D1", state: "junction" },
+      { kind: "difference", plus: "D1.junction", minus: "k" },
+      { kind: "current", part: "R1" },
+    ]);
+  });
+});

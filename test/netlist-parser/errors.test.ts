@@ -775,7 +775,17 @@ const cases: readonly Case[] = [
       "t.onset:2:28: error: unknown node 'n2' (did you mean 'n1'?)",
       "  transient until=1m probes=(n2)",
       "                             ^~",
-      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), or a current R1.i",
+      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), a current R1.i or a part's state such as U1.pole",
+    ].join("\n"),
+  },
+  {
+    code: "unknown-state",
+    source: "resistor R1 o gnd 1k\nopamp U1 gnd o o\ntransient until=1m probes=(o, U1.pol)",
+    expected: [
+      "t.onset:3:31: error: opamp U1 has no state 'pol' (did you mean 'U1.pole'?)",
+      "  transient until=1m probes=(o, U1.pol)",
+      "                                ^~~~~~",
+      "hint: U1 can be probed as U1.pole, U1.i",
     ].join("\n"),
   },
   {
@@ -815,7 +825,7 @@ const cases: readonly Case[] = [
       "t.onset:2:35: error: '1' is not a probe",
       "  transient until=1m probes=(a, (a, 1))",
       "                                    ^",
-      "hint: a probe is a node (o), a difference (o, ref) or a current (R1.i)",
+      "hint: a probe is a node (o), a difference (o, ref), a current (R1.i) or a part's state (U1.pole)",
     ].join("\n"),
   },
   {

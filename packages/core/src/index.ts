@@ -28,6 +28,7 @@ export type {
   OptionSchema,
   PartKindSchema,
   PointsOption,
+  StateSchema,
   UnitSymbol,
   ValueSchema,
   WordOption,
@@ -46,19 +47,21 @@ export { LuSolver } from "./solver/lu.js";
 export { randomStream } from "./random/stream.js";
 export type { RandomStream } from "./random/stream.js";
 export { buildSystem } from "./solver/system.js";
-export type { MnaSystem, UnknownInfo } from "./solver/system.js";
+export type { MnaSystem, UnknownInfo, UnknownRole } from "./solver/system.js";
+export { QUANTITIES, isQuantity, unitOf } from "./solver/quantities.js";
+export type { Quantity, QuantityUnit } from "./solver/quantities.js";
 export { NewtonSolver } from "./solver/newton.js";
-export { DEFAULT_TOLERANCES } from "./solver/tolerances.js";
+export { DEFAULT_TOLERANCES, resolveTolerances } from "./solver/tolerances.js";
 export type { Tolerances } from "./solver/tolerances.js";
 
 // Analyses
 export { solveBias } from "./analyses/bias.js";
 export type { BiasMethod, BiasPoint } from "./analyses/bias.js";
 export { TransientStepper } from "./analyses/stepper.js";
-export type { StepObserver, StepperSettings, StepperStats } from "./analyses/stepper.js";
+export type { CircuitState, StepObserver, StepperSettings, StepperSnapshot, StepperStats } from "./analyses/stepper.js";
 export { ProbeRecorder, defaultMaxStep, runTransient } from "./analyses/transient.js";
 export type { ProgressListener, RunOptions, Signal, TransientResult } from "./analyses/transient.js";
-export { allNodeProbes, probeReader } from "./analyses/probes.js";
+export { allNodeProbes, probeReader, probeUnit } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
 export { linearize } from "./analyses/linearize.js";

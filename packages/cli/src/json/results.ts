@@ -24,6 +24,7 @@ export function startupJson(r: StartupResult): Json {
   return {
     analysis: "startup",
     probe: r.probe,
+    unit: r.unit,
     verdict: r.verdict,
     explanation: r.explanation,
     frequency: r.frequency,
@@ -62,6 +63,7 @@ function polesJson(r: PolesResult, startup: StartupResult | undefined): Json {
 function responseJson(r: ResponseResult): Json {
   return {
     analysis: "response",
+    unit: r.unit,
     from: r.from,
     to: r.to,
     points: r.points.map((p) => ({ frequency: p.frequency, magnitude: p.magnitude, magnitudeDb: p.magnitudeDb, phase: p.phase })),

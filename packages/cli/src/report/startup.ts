@@ -1,4 +1,4 @@
-import type { StartupResult } from "@onset/core";
+import type { QuantityUnit, StartupResult } from "@onset/core";
 import type { Paint } from "../color.js";
 import { formatDecibel } from "../format/index.js";
 import { SPECTRUM_FLOOR_DBC } from "../plot/index.js";
@@ -30,7 +30,7 @@ function level(dBc: number): string {
  * The start-up report: the verdict and its one-line explanation first, then every metric with
  * its unit, the harmonics table and the solver's counts.
  */
-export function startupReport(r: StartupResult, unit: "V" | "A", p: Paint): string[] {
+export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): string[] {
   const lines = [`${p.bold(`start-up on ${r.probe}`)}: ${verdictText(r.verdict, p)}`, `  ${r.explanation}`, ""];
   const entries: [string, string][] = [
     ["frequency", si(r.frequency, "Hz")],

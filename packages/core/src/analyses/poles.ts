@@ -4,7 +4,7 @@ import { simulationError } from "../circuit/diagnostic.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
@@ -99,7 +99,7 @@ export function startsFrom(pole: Pole): boolean {
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
 export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
   const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   const poles = pencilPoles(linearize(system, bias.x));
   const dominant = dominantPair(poles);

@@ -1,6 +1,7 @@
 import type { Probe } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
+import type { QuantityUnit } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
 
 /** Reads a probe's value from the unknowns `x`, their rates `dxdt`, at time `t`. */
@@ -8,11 +9,33 @@ export type ProbeReader = (x: Float64Array, dxdt: Float64Array, t: number) => nu
 
 function nodeReader(system: MnaSystem, node: string, probe: Probe): (x: Float64Array) => number {
   if (node === GROUND) return () => 0;
-  const i = system.nodeIndex.get(node);
+  const i = system.stateIndex.get(node);
   if (i === undefined) {
     throw inputError("unknown-node", `probe '${probeName(probe)}' names unknown node '${node}'`);
   }
   return (x) => x[i]!;
+}
+
+/** The index of a part's internal state in the unknowns. */
+export function stateIndexOf(system: MnaSystem, probe: Extract<Probe, { kind: "state" }>): number {
+  const i = system.stateIndex.get(probeName(probe));
+  if (i === undefined) {
+    throw inputError("unknown-state", `probe '${probeName(probe)}': part '${probe.part}' has no state '${probe.state}' in this circuit`);
+  }
+  return i;
+}
+
+/** The unit a probe's values are in (SI base units): volts, amperes, kelvin. */
+export function probeUnit(system: MnaSystem, probe: Probe): QuantityUnit {
+  switch (probe.kind) {
+    case "node":
+    case "difference":
+      return "V";
+    case "current":
+      return "A";
+    case "state":
+      return system.unknowns[stateIndexOf(system, probe)]!.unit;
+  }
 }
 
 export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
@@ -33,6 +56,10 @@ export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
       }
       const current = device.current.bind(device);
       return (x, dxdt, t) => current(x, dxdt, t);
+    }
+    case "state": {
+      const i = stateIndexOf(system, probe);
+      return (x) => x[i]!;
     }
   }
 }

@@ -1,12 +1,14 @@
 import type { Circuit, Probe, ResponseAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError, simulationError } from "../circuit/diagnostic.js";
+import type { QuantityUnit } from "../solver/quantities.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
+import { probeUnit, stateIndexOf } from "./probes.js";
 import type { RunOptions } from "./transient.js";
 
 export interface ResponsePoint {
@@ -32,6 +34,8 @@ export interface ResponseResult {
   readonly analysis: "response";
   readonly from: string;
   readonly to: string;
+  /** The unit of the probe (the response's magnitude is in this unit per unit of the source). */
+  readonly unit: QuantityUnit;
   readonly points: readonly ResponsePoint[];
   /** The deepest interior minimum of |H|, refined, with its depth below the sweep's maximum. */
   readonly notch: { readonly frequency: number; readonly magnitude: number; readonly depthDb: number } | null;
@@ -67,11 +71,12 @@ function probeWeights(system: MnaSystem, probe: Probe): Float64Array {
   const w = new Float64Array(system.n);
   const add = (node: string, sign: number) => {
     if (node === GROUND) return;
-    const i = system.nodeIndex.get(node);
+    const i = system.stateIndex.get(node);
     if (i === undefined) throw inputError("unknown-node", `response to='${probeName(probe)}' names unknown node '${node}'`);
     w[i] += sign;
   };
-  if (probe.kind === "node") add(probe.node, 1);
+  if (probe.kind === "state") w[stateIndexOf(system, probe)] = 1;
+  else if (probe.kind === "node") add(probe.node, 1);
   else if (probe.kind === "difference") {
     add(probe.plus, 1);
     add(probe.minus, -1);
@@ -185,7 +190,7 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 /** Runs a `response` analysis: small-signal |H| and phase of `to` for a unit signal at `from`. */
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
   const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   const ss = linearize(system, bias.x);
   const phasor = new PhasorSolver(ss, excitation(system, analysis.from), probeWeights(system, analysis.to));
@@ -247,5 +252,5 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
     const b = points[k]!;
     if (a.magnitude - level > 0 !== b.magnitude - level > 0) cutoffs.push(bisect((f) => mag(f) - level, a.frequency, b.frequency, a.magnitude - level));
   }
-  return { analysis: "response", from: analysis.from, to: probeName(analysis.to), points, notch, phaseCrossings, cutoffs };
+  return { analysis: "response", from: analysis.from, to: probeName(analysis.to), unit: probeUnit(system, analysis.to), points, notch, phaseCrossings, cutoffs };
 }

@@ -1,16 +1,17 @@
 import type { Circuit, PartSpec, Probe, StartupAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
-import { opampConstants } from "../devices/opamp.js";
+import { deviceModels } from "../devices/registry.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
 import { NewtonSolver } from "../solver/newton.js";
+import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { GrowableSeries } from "./growable.js";
 import { linearize } from "./linearize.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
-import { probeReader } from "./probes.js";
+import { probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
 
@@ -41,6 +42,8 @@ export interface StartupRun {
 export interface StartupResult extends StartupMetrics {
   readonly analysis: "startup";
   readonly probe: string;
+  /** The unit of the probe's values, and so of amplitude, peak-to-peak, rms and offset. */
+  readonly unit: QuantityUnit;
   readonly run: StartupRun;
   /** The probe waveform at every accepted step (for plots and CSV). */
   readonly waveform: { readonly time: Float64Array; readonly values: Float64Array };
@@ -53,7 +56,8 @@ function kickNodes(probe: Probe, circuit: Circuit): [string, string] {
       return [GROUND, probe.node];
     case "difference":
       return [probe.minus, probe.plus];
-    case "current": {
+    case "current":
+    case "state": {
       const p = circuit.parts.find((x) => x.name === probe.part);
       if (!p) throw inputError("unknown-part", `startup probe '${probeName(probe)}' names no part`);
       return [GROUND, p.nodes[0] === GROUND ? p.nodes[1]! : p.nodes[0]!];
@@ -70,14 +74,12 @@ function predict(system: MnaSystem, x: Float64Array): { pole: Pole | null } {
   }
 }
 
-/** Half the widest op-amp output range: the largest envelope the circuit could reach. */
+/** Half the widest output range any part declares: the largest envelope the circuit could reach. */
 function amplitudeLimit(circuit: Circuit): number | undefined {
   let limit: number | undefined;
   for (const p of circuit.parts) {
-    if (p.kind !== "opamp" || p.options.supply !== undefined) continue;
-    const k = opampConstants(p);
-    const span = (k.rails[1] - k.rails[0]) / 2 - k.headroom;
-    limit = Math.max(limit ?? 0, span);
+    const range = deviceModels[p.kind]?.outputRange?.(p);
+    if (range) limit = Math.max(limit ?? 0, (range.high - range.low) / 2);
   }
   return limit;
 }
@@ -89,7 +91,7 @@ function amplitudeLimit(circuit: Circuit): number | undefined {
  * then the start-up metrics of the probe waveform.
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
-  const tolerances = { ...DEFAULT_TOLERANCES, ...options.tolerances };
+  const tolerances = resolveTolerances(options.tolerances);
   // The prediction comes from the circuit without the kick (the kick source is off at DC anyway).
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
@@ -164,6 +166,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   return {
     analysis: "startup",
     probe: probeName(analysis.probe),
+    unit: probeUnit(system, analysis.probe),
     ...metrics,
     run: {
       until: stepper.t,

@@ -1,12 +1,49 @@
 import { simulationError } from "../circuit/diagnostic.js";
-import { NewtonSolver } from "../solver/newton.js";
+import { NewtonSolver, type NewtonState } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES, type Tolerances } from "../solver/tolerances.js";
+import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { solveBias, type BiasPoint } from "./bias.js";
 
+/** A state of the circuit: every unknown at one time. A run may start from one. */
+export interface CircuitState {
+  readonly t: number;
+  /** The unknowns in the system's order (see `MnaSystem.unknowns`). */
+  readonly x: Float64Array;
+}
+
+/**
+ * A state taken at an accepted step together with everything the stepper and its Newton core
+ * carry forward (history, step size, running peaks, the factorisation in use), so that a run
+ * started from it continues exactly, bit for bit, as the original would have.
+ */
+export interface StepperSnapshot extends CircuitState {
+  readonly continuation: Continuation;
+}
+
+interface Continuation {
+  readonly dxdt: Float64Array;
+  readonly q: Float64Array;
+  readonly qdot: Float64Array;
+  readonly peak: Float64Array;
+  readonly h: number;
+  readonly segment: readonly [start: number, step: number, count: number];
+  readonly firstOrderNext: boolean;
+  readonly nextBreak: number;
+  readonly historyTimes: Float64Array;
+  readonly historyValues: readonly Float64Array[];
+  readonly historyCount: number;
+  readonly historyHead: number;
+  readonly stats: StepperStats;
+  readonly solver: NewtonState;
+}
+
 export interface StepperSettings {
-  /** Begin at the DC operating point, or from rest (capacitors and inductors at `initial`). */
-  readonly start: "bias" | "rest";
+  /**
+   * Begin at the DC operating point, from rest (capacitors and inductors at `initial`), from a
+   * given state (a first-order step first, like after a breakpoint), or from a snapshot
+   * (continuing exactly).
+   */
+  readonly start: "bias" | "rest" | CircuitState | StepperSnapshot;
   /** Largest step (s). */
   readonly maxStep: number;
   /** First step (s); defaults to maxStep/100. */
@@ -66,6 +103,7 @@ export class TransientStepper {
   private segmentStart = 0;
   private segmentStep = 0;
   private segmentCount = 0;
+  /** The next step is a backward-Euler step (the first, and the first after a breakpoint). */
   private backwardEulerNext = true;
   private readonly q: Float64Array;
   private readonly qdot: Float64Array;
@@ -82,14 +120,14 @@ export class TransientStepper {
   private readonly historyValues: Float64Array[];
   private historyCount = 0;
   private historyHead = 0;
-  private nextBreak: number;
+  private nextBreak = Infinity;
   private readonly observers: StepObserver[] = [];
 
   constructor(system: MnaSystem, settings: StepperSettings) {
     this.system = system;
     const n = system.n;
     this.n = n;
-    this.tolerances = { ...DEFAULT_TOLERANCES, ...settings.tolerances };
+    this.tolerances = resolveTolerances(settings.tolerances);
     this.solver = new NewtonSolver(system, this.tolerances);
     if (!(settings.maxStep > 0)) throw simulationError("bad-step", `maximum step must be positive, got ${settings.maxStep}`);
     this.maxStep = settings.maxStep;
@@ -100,33 +138,92 @@ export class TransientStepper {
     this.qdot = new Float64Array(n);
     this.xNew = new Float64Array(n);
     this.peak = new Float64Array(n);
-    this.trapezoidalRows = Float64Array.from(system.backwardEulerRows, (be) => (be ? 0 : 1));
+    this.trapezoidalRows = Float64Array.from(system.stiffRows, (stiff) => (stiff ? 0 : 1));
     const { rows, cols, values } = system.cTriplets;
     this.chargeRowStart = new Int32Array(n + 1);
     for (let k = 0; k < rows.length; k++) this.chargeRowStart[rows[k]! + 1]++;
     for (let i = 0; i < n; i++) this.chargeRowStart[i + 1] += this.chargeRowStart[i]!;
     this.chargeCols = cols;
     this.chargeValues = values;
-    this.lteAbs = new Float64Array(n);
-    system.unknowns.forEach((u, i) => {
-      this.lteAbs[i] = u.kind === "current" ? this.tolerances.lteCurrent : this.tolerances.lteVoltage;
-    });
+    this.lteAbs = absoluteTolerances(system.unknowns, this.tolerances, "lte");
     this.historyValues = Array.from({ length: HISTORY }, () => new Float64Array(n));
-    if (settings.start === "bias") {
+    const start = settings.start;
+    this.bias = undefined;
+    if (typeof start === "object" && "continuation" in start) {
+      this.resume(start);
+      return;
+    }
+    if (start === "bias") {
       this.bias = solveBias(system, this.solver, this.tolerances);
       this.x.set(this.bias.x);
       this.chargesAt(this.x, this.q);
       this.pushHistory(0, this.x);
-    } else {
-      this.bias = undefined;
+    } else if (start === "rest") {
       for (const d of system.devices) d.initialCharge?.(this.q);
       this.consistentStart();
+    } else {
+      if (start.x.length !== n) throw simulationError("bad-state", `the start state has ${start.x.length} unknowns; the circuit has ${n}`);
+      this.t = start.t;
+      this.x.set(start.x);
+      this.solver.setCoefficients(0, 0);
+      this.solver.chargesAt(this.x);
+      this.chargesAt(this.x, this.q);
+      this.pushHistory(start.t, this.x);
     }
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
     this.solver.reference.set(this.peak);
     this.solver.setMode("step");
-    this.nextBreak = this.findBreakpoint(0);
+    this.nextBreak = this.findBreakpoint(this.t);
+    this.segmentStart = this.t;
     this.collectSolverCounts();
+  }
+
+  /**
+   * The state at the last accepted step with everything needed to continue from it exactly;
+   * call it between `advance` calls or from an observer.
+   */
+  snapshot(): StepperSnapshot {
+    return {
+      t: this.t,
+      x: Float64Array.from(this.x),
+      continuation: {
+        dxdt: Float64Array.from(this.dxdt),
+        q: Float64Array.from(this.q),
+        qdot: Float64Array.from(this.qdot),
+        peak: Float64Array.from(this.peak),
+        h: this.h,
+        segment: [this.segmentStart, this.segmentStep, this.segmentCount],
+        firstOrderNext: this.backwardEulerNext,
+        nextBreak: this.nextBreak,
+        historyTimes: Float64Array.from(this.historyTimes),
+        historyValues: this.historyValues.map((v) => Float64Array.from(v)),
+        historyCount: this.historyCount,
+        historyHead: this.historyHead,
+        stats: { ...this.stats },
+        solver: this.solver.state(),
+      },
+    };
+  }
+
+  private resume(snapshot: StepperSnapshot): void {
+    const c = snapshot.continuation;
+    if (snapshot.x.length !== this.n) throw simulationError("bad-state", `the snapshot has ${snapshot.x.length} unknowns; the circuit has ${this.n}`);
+    this.t = snapshot.t;
+    this.x.set(snapshot.x);
+    this.dxdt.set(c.dxdt);
+    this.q.set(c.q);
+    this.qdot.set(c.qdot);
+    this.peak.set(c.peak);
+    this.h = c.h;
+    [this.segmentStart, this.segmentStep, this.segmentCount] = c.segment;
+    this.backwardEulerNext = c.firstOrderNext;
+    this.nextBreak = c.nextBreak;
+    this.historyTimes.set(c.historyTimes);
+    c.historyValues.forEach((v, k) => this.historyValues[k]!.set(v));
+    this.historyCount = c.historyCount;
+    this.historyHead = c.historyHead;
+    Object.assign(this.stats, c.stats);
+    this.solver.restore(c.solver);
   }
 
   /** Calls `observer` now (for t = 0) and after every accepted step. */
@@ -356,6 +453,8 @@ export class TransientStepper {
         this.h = factor < 1 ? Math.min(nominal, h * factor) : nominal * factor;
       }
       if (landing) this.h = Math.min(this.h, hTry) * 0.25;
+      // Observers run once the next step is chosen, so a snapshot taken by one is complete.
+      this.notify();
     }
     this.collectSolverCounts();
   }
@@ -365,7 +464,7 @@ export class TransientStepper {
     const a = this.solver.a;
     const reference = this.solver.reference;
     const nonlinear = this.solver.qNonlinear;
-    const beRows = this.system.backwardEulerRows;
+    const beRows = this.system.stiffRows;
     const { chargeRowStart, chargeCols, chargeValues } = this;
     this.historyHead = (this.historyHead + 1) % HISTORY;
     this.historyTimes[this.historyHead] = target;
@@ -403,7 +502,10 @@ export class TransientStepper {
     } else {
       this.backwardEulerNext = false;
     }
+  }
+
+  private notify(): void {
     const observers = this.observers;
-    for (let o = 0; o < observers.length; o++) observers[o]!(target, x, dxdt);
+    for (let o = 0; o < observers.length; o++) observers[o]!(this.t, this.x, this.dxdt);
   }
 }

@@ -1,9 +1,10 @@
 import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
+import type { QuantityUnit } from "../solver/quantities.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { GrowableSeries } from "./growable.js";
-import { allNodeProbes, probeReader } from "./probes.js";
+import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 
 /** One recorded signal. */
@@ -11,7 +12,7 @@ export interface Signal {
   /** As the probe is written: `o`, `o-ref`, `R1.i`. */
   readonly name: string;
   readonly probe: Probe;
-  readonly unit: "V" | "A";
+  readonly unit: QuantityUnit;
   readonly values: Float64Array;
 }
 
@@ -38,10 +39,12 @@ export class ProbeRecorder {
   readonly time = new GrowableSeries();
   private readonly series: GrowableSeries[];
   private readonly readers: ReturnType<typeof probeReader>[];
+  private readonly units: QuantityUnit[];
   readonly probes: readonly Probe[];
 
   constructor(system: MnaSystem, probes: readonly Probe[]) {
     this.probes = probes;
+    this.units = probes.map((p) => probeUnit(system, p));
     this.readers = probes.map((p) => probeReader(system, p));
     this.series = probes.map(() => new GrowableSeries());
   }
@@ -55,7 +58,7 @@ export class ProbeRecorder {
     return this.probes.map((probe, k) => ({
       name: probeName(probe),
       probe,
-      unit: probe.kind === "current" ? "A" : "V",
+      unit: this.units[k]!,
       values: this.series[k]!.toArray(),
     }));
   }

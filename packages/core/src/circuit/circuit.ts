@@ -23,9 +23,11 @@ export interface PartSpec {
 export type Probe =
   | { readonly kind: "node"; readonly node: string }
   | { readonly kind: "difference"; readonly plus: string; readonly minus: string }
-  | { readonly kind: "current"; readonly part: string };
+  | { readonly kind: "current"; readonly part: string }
+  /** A state inside a part that its kind lists (`U1.pole`, `D1.junction`). */
+  | { readonly kind: "state"; readonly part: string; readonly state: string };
 
-/** The name a probe has in reports, CSV and JSON: `o`, `o-ref`, `R1.i`. */
+/** The name a probe has in reports, CSV and JSON: `o`, `o-ref`, `R1.i`, `U1.pole`. */
 export function probeName(probe: Probe): string {
   switch (probe.kind) {
     case "node":
@@ -34,6 +36,8 @@ export function probeName(probe: Probe): string {
       return `${probe.plus}-${probe.minus}`;
     case "current":
       return `${probe.part}.i`;
+    case "state":
+      return `${probe.part}.${probe.state}`;
   }
 }
 

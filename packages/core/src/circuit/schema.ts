@@ -1,3 +1,5 @@
+import type { Quantity } from "../solver/quantities.js";
+
 /**
  * What each part kind accepts, declared by the device file itself so that the language checker,
  * the formatter, the docs and the engine agree on names, units, defaults and ranges.
@@ -70,6 +72,11 @@ export interface ValueSchema {
   readonly summary: string;
 }
 
+export interface StateSchema {
+  readonly quantity: Quantity;
+  readonly summary: string;
+}
+
 export interface PartKindSchema {
   readonly kind: string;
   readonly summary: string;
@@ -86,6 +93,11 @@ export interface PartKindSchema {
     readonly key: string;
     readonly sets: Readonly<Record<string, Readonly<Record<string, OptionSchema>>>>;
   };
+  /**
+   * States inside the part that a probe may name as `PART.state` (`U1.pole`, `D1.junction`),
+   * with the quantity each one is; branch currents are probed as `PART.i` and are not listed.
+   */
+  readonly states?: Readonly<Record<string, StateSchema>>;
   /** True when the language accepts the kind but the engine does not simulate it yet. */
   readonly planned?: boolean;
 }

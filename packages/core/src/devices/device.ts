@@ -1,25 +1,42 @@
 import type { PartSpec } from "../circuit/circuit.js";
 import type { PartKindSchema } from "../circuit/schema.js";
+import type { Quantity } from "../solver/quantities.js";
 
-/** What an unknown of the MNA vector is, for messages and tolerances. */
-export type UnknownKind = "voltage" | "current";
+/** What an unknown of the MNA vector measures: it decides its unit and tolerances. */
+export type UnknownKind = Quantity;
+
+/** Where an extra unknown comes from: a branch current of an ideal element, or a state inside a part. */
+export type UnknownRole = "branch" | "internal";
 
 export interface UnknownOptions {
+  /** `branch` for the current of a voltage-defining element; default `internal`. */
+  readonly role?: UnknownRole;
   /**
-   * Integrate this unknown's own charge row with backward Euler even between breakpoints.
+   * Integrate this unknown's own charge row with an L-stable formula even between breakpoints.
    * For internal states whose closed-loop time constant is far below the step (an op-amp's
    * pole node), where the trapezoidal rule would leave an undamped, sign-alternating error
-   * (A-stable but not L-stable, references §3). Such states are left out of the LTE estimate.
+   * (A-stable but not L-stable, docs/references.md §3).
    */
-  readonly backwardEuler?: boolean;
+  readonly stiff?: boolean;
 }
 
 /** Handed to a device factory: resolves nodes and allocates extra unknowns. */
 export interface SetupContext {
   /** Index of a node in the unknown vector; -1 for ground. */
   node(name: string): number;
-  /** Allocates an extra unknown (a branch current or an internal state). */
-  addUnknown(label: string, kind: UnknownKind, options?: UnknownOptions): number;
+  /**
+   * Allocates an extra unknown (a branch current or an internal state). `label` is its probe
+   * name, `PART.state` (`U1.pole`, `L1.i`); states a user may probe are listed in the schema.
+   */
+  addUnknown(label: string, quantity: UnknownKind, options?: UnknownOptions): number;
+  /** Gives an existing unknown a second probe name (a diode without series resistance: its junction is its anode). */
+  alias(label: string, index: number): void;
+  /**
+   * Declares that the nonlinear charge the device adds to `row` depends on the unknowns `cols`
+   * (every `adddQ(row, col)` it may stamp). Step control judges every unknown that any charge,
+   * linear or nonlinear, depends on.
+   */
+  declareCharge(row: number, cols: readonly number[]): void;
 }
 
 /** Accumulates the constant (linear) parts of G and C. Indices of -1 (ground) are ignored. */
@@ -99,4 +116,9 @@ export interface DeviceModel {
   topology(part: PartSpec): PartTopology;
   /** Checks the values the schema cannot express (e.g. cross-option rules); throws OnsetError. */
   validate?(part: PartSpec): void;
+  /**
+   * The voltages the part can drive its output between, when they are fixed by its options (an
+   * amplifier's rails less headroom); analyses size their runs and judge saturation by it.
+   */
+  outputRange?(part: PartSpec): { readonly low: number; readonly high: number } | undefined;
 }

@@ -14,6 +14,9 @@ export const diodeSchema: PartKindSchema = {
     series: { type: "number", unit: "Ω", default: 0.5, min: 0, summary: "ohmic series resistance" },
     junction: { type: "number", unit: "F", default: 0, min: 0, summary: "zero-bias junction capacitance (0: none)" },
   },
+  states: {
+    junction: { quantity: "voltage", summary: "the junction's anode side, behind the series resistance (the anode itself when series=0)" },
+  },
 };
 
 /** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (references §7: 25.8649 mV). */
@@ -146,6 +149,11 @@ export const diode: DeviceModel = {
     const cj0 = numberOption(part, diodeSchema, "junction");
     const a = series > 0 ? setup.addUnknown(`${part.name}.junction`, "voltage") : anode;
     const c = cathode;
+    if (series === 0) setup.alias(`${part.name}.junction`, anode);
+    if (cj0 > 0) {
+      setup.declareCharge(a, [a, c]);
+      setup.declareCharge(c, [a, c]);
+    }
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
     const state: JunctionState = { current: 0, conductance: 0 };
     const v = valueAt;

@@ -31,7 +31,7 @@ export const inductor: DeviceModel = {
   create(part, setup) {
     const a = setup.node(part.nodes[0]!);
     const b = setup.node(part.nodes[1]!);
-    const k = setup.addUnknown(`${part.name}.i`, "current");
+    const k = setup.addUnknown(`${part.name}.i`, "current", { role: "branch" });
     const l = partValue(part);
     const series = numberOption(part, inductorSchema, "series");
     const initial = numberOption(part, inductorSchema, "initial");

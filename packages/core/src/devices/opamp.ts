@@ -23,6 +23,9 @@ export const opampSchema: PartKindSchema = {
     rin: { type: "number", unit: "Ω", default: 2e6, min: 0, minExclusive: true, allowInfinite: true, summary: "differential input resistance (inf: none)" },
     knee: { type: "number", unit: "V", default: 10e-3, min: 0, minExclusive: true, summary: "smoothing width of the rail limiting; → 0 approaches an ideal limiter" },
   },
+  states: {
+    pole: { quantity: "voltage", summary: "the internal pole node: the output voltage before the output resistance and the rail limits" },
+  },
 };
 
 /**
@@ -195,6 +198,11 @@ export const opamp: DeviceModel = {
       });
     }
   },
+  outputRange(part) {
+    if (part.options.supply !== undefined) return undefined;
+    const k = opampConstants(part);
+    return { low: k.rails[0] + k.headroom, high: k.rails[1] - k.headroom };
+  },
   topology(part) {
     const [plus, minus, out] = part.nodes as [string, string, string];
     const rin = numberOption(part, opampSchema, "rin");
@@ -210,7 +218,7 @@ export const opamp: DeviceModel = {
     const supply = part.options.supply as readonly string[] | undefined;
     const neg = supply ? setup.node(supply[0]!) : -1;
     const pos = supply ? setup.node(supply[1]!) : -1;
-    const p = setup.addUnknown(`${part.name}.pole`, "voltage", { backwardEuler: true });
+    const p = setup.addUnknown(`${part.name}.pole`, "voltage", { stiff: true });
     const k = opampConstants(part);
     const slewLimited = Number.isFinite(k.iMax);
     return {

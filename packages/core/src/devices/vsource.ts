@@ -25,7 +25,7 @@ export const vsource: DeviceModel = {
   create(part, setup) {
     const a = setup.node(part.nodes[0]!);
     const b = setup.node(part.nodes[1]!);
-    const k = setup.addUnknown(`${part.name}.i`, "current");
+    const k = setup.addUnknown(`${part.name}.i`, "current", { role: "branch" });
     const wave = waveFromPart(part, vsourceSchema);
     return {
       part,

@@ -1,17 +1,34 @@
 import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
-import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownKind } from "../devices/device.js";
+import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownRole as UnknownRoleOfPart } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
+import { unitOf, type Quantity, type QuantityUnit } from "./quantities.js";
 
+/** Where an unknown comes from: a node's voltage, a branch current, or a state inside a part. */
+export type UnknownRole = "node" | UnknownRoleOfPart;
+
+/**
+ * One row of the state table: what an unknown is, in what unit it is reported, how it is
+ * integrated and whether its truncation error steers the step.
+ */
 export interface UnknownInfo {
-  /** Node name, or `PART.i` / `PART.pole` for branch currents and internal states. */
+  /** Its probe name: the node name, or `PART.i` / `PART.pole` / `PART.junction`. */
   readonly label: string;
-  readonly kind: UnknownKind;
+  readonly role: UnknownRole;
+  /** The physical quantity (decides the unit and the absolute tolerances). */
+  readonly quantity: Quantity;
+  readonly unit: QuantityUnit;
   /** True for node voltages (rows that are KCL equations). */
   readonly isNode: boolean;
-  readonly backwardEuler: boolean;
+  /** Its own charge row is integrated by an L-stable formula at every step (see `UnknownOptions.stiff`). */
+  readonly stiff: boolean;
+  /**
+   * Some charge, linear or nonlinear, depends on it on a row integrated by the trapezoidal rule,
+   * so its local truncation error is estimated and steers the step.
+   */
+  readonly errorControl: boolean;
 }
 
 /** Sparse list of (row, col, value) entries. */
@@ -39,10 +56,12 @@ export interface MnaSystem {
   readonly C: Float64Array;
   readonly gTriplets: Triplets;
   readonly cTriplets: Triplets;
-  /** 1 where the row's charge is integrated with backward Euler at every step. */
-  readonly backwardEulerRows: Uint8Array;
-  /** Unknowns whose local truncation error steers the step: columns of C outside BE rows. */
+  /** 1 where the row's charge is integrated with an L-stable formula at every step. */
+  readonly stiffRows: Uint8Array;
+  /** Unknowns whose local truncation error steers the step (`errorControl`), in order. */
   readonly stateColumns: Int32Array;
+  /** Every probe name of an unknown (labels and aliases) and its index. */
+  readonly stateIndex: ReadonlyMap<string, number>;
 }
 
 function toTriplets(dense: Float64Array, n: number): Triplets {
@@ -64,16 +83,39 @@ function toTriplets(dense: Float64Array, n: number): Triplets {
   return { rows, cols, values };
 }
 
+/** An unknown as allocated, before the charges decide its error control. */
+type Allocated = Omit<UnknownInfo, "errorControl">;
+
+/**
+ * The unknowns every charge depends on, per row: the linear C and the devices' declared
+ * nonlinear charges. An unknown takes part in error control when some trapezoidal row's charge
+ * depends on it; rows integrated by the L-stable formula carry their own (first-order) error,
+ * which the step does not follow.
+ */
+function errorControlled(n: number, C: Float64Array, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
+  const judged = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    if (stiff[i]) continue;
+    for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) judged[j] = 1;
+  }
+  for (const [row, col] of declared) if (!stiff[row]) judged[col] = 1;
+  for (let j = 0; j < n; j++) if (stiff[j]) judged[j] = 0;
+  return judged;
+}
+
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
 export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = []): MnaSystem {
   const parts = [...circuit.parts, ...extraParts];
   const nodeIndex = new Map<string, number>();
-  const unknowns: UnknownInfo[] = [];
+  const stateIndex = new Map<string, number>();
+  const allocated: Allocated[] = [];
+  const declared: [number, number][] = [];
   for (const part of parts) {
     for (const node of nodesOfPart(part)) {
       if (node === GROUND || nodeIndex.has(node)) continue;
-      nodeIndex.set(node, unknowns.length);
-      unknowns.push({ label: node, kind: "voltage", isNode: true, backwardEuler: false });
+      nodeIndex.set(node, allocated.length);
+      stateIndex.set(node, allocated.length);
+      allocated.push({ label: node, role: "node", quantity: "voltage", unit: "V", isNode: true, stiff: false });
     }
   }
   const devices: Device[] = [];
@@ -92,9 +134,17 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
           if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'`, { span: part.span });
           return i;
         },
-        addUnknown(label, kind, options) {
-          unknowns.push({ label, kind, isNode: false, backwardEuler: options?.backwardEuler ?? false });
-          return unknowns.length - 1;
+        addUnknown(label, quantity, options) {
+          stateIndex.set(label, allocated.length);
+          allocated.push({ label, role: options?.role ?? "internal", quantity, unit: unitOf(quantity), isNode: false, stiff: options?.stiff ?? false });
+          return allocated.length - 1;
+        },
+        alias(label, index) {
+          if (index >= 0) stateIndex.set(label, index);
+        },
+        declareCharge(row, cols) {
+          if (row < 0) return;
+          for (const col of cols) if (col >= 0) declared.push([row, col]);
         },
       });
       devices.push(device);
@@ -106,7 +156,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
       throw error;
     }
   }
-  const n = unknowns.length;
+  const n = allocated.length;
   const G = new Float64Array(n * n);
   const C = new Float64Array(n * n);
   const stamp: LinearStamp = {
@@ -118,20 +168,11 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     },
   };
   for (const device of devices) device.stampLinear?.(stamp);
-  const backwardEulerRows = new Uint8Array(n);
-  unknowns.forEach((u, i) => {
-    if (u.backwardEuler) backwardEulerRows[i] = 1;
-  });
+  const stiffRows = Uint8Array.from(allocated, (u) => (u.stiff ? 1 : 0));
+  const judged = errorControlled(n, C, declared, stiffRows);
+  const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j] === 1 }));
   const states: number[] = [];
-  for (let j = 0; j < n; j++) {
-    if (backwardEulerRows[j]) continue;
-    for (let i = 0; i < n; i++) {
-      if (C[i * n + j] !== 0 && !backwardEulerRows[i]) {
-        states.push(j);
-        break;
-      }
-    }
-  }
+  for (let j = 0; j < n; j++) if (judged[j]) states.push(j);
   return {
     n,
     unknowns,
@@ -144,7 +185,8 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     C,
     gTriplets: toTriplets(G, n),
     cTriplets: toTriplets(C, n),
-    backwardEulerRows,
+    stiffRows,
     stateColumns: Int32Array.from(states),
+    stateIndex,
   };
 }

@@ -2,7 +2,8 @@ import type { AnalysisSpec, Probe, SourceSpan, SpecCriterion, SpecMetric, UnitSy
 import { raise } from "../errors.js";
 import { didYouMean } from "../suggest.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
-import { checkRange, type Elaboration, type NumberExpectation, type RangeRule } from "./context.js";
+import type { Elaboration } from "./context.js";
+import { checkRange, type NumberExpectation, type RangeRule } from "./value-checks.js";
 import { spanIn, type Located } from "./index-program.js";
 import { probeOf, probesOf } from "./probes.js";
 import type { Scope } from "./scope.js";

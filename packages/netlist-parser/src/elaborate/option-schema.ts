@@ -2,7 +2,8 @@ import type { OptionSchema, OptionValue, PartKindSchema } from "@onset/core";
 import { raise } from "../errors.js";
 import { didYouMean } from "../suggest.js";
 import type { OptionNode, Value } from "../syntax.js";
-import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
+import type { Elaboration, TargetInfo } from "./context.js";
+import { checkRange } from "./value-checks.js";
 import { spanIn } from "./index-program.js";
 import { convertOption, type ValueSite } from "./option-values.js";
 

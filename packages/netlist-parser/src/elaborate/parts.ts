@@ -1,7 +1,8 @@
 import { deviceModels, isOnsetError, partKinds, type OptionSchema, type OptionValue, type PartKindSchema, type PartSpec, type SourceSpan } from "@onset/core";
 import { raise } from "../errors.js";
 import type { OptionNode, PartStatement } from "../syntax.js";
-import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
+import type { Elaboration, TargetInfo } from "./context.js";
+import { checkRange } from "./value-checks.js";
 import { spanIn, type Located } from "./index-program.js";
 import { allowedOptions, targetOf, unknownOption, type OptionSource } from "./option-schema.js";
 import { convertOption, type ValueSite } from "./option-values.js";
