@@ -24,7 +24,7 @@ describe("buildSystem(circuit): the state table", () => {
       ["V1.i", "branch", "current", "A", false, false],
       ["L1.i", "branch", "current", "A", false, true],
       ["D1.junction", "internal", "voltage", "V", false, false],
-      ["U1.pole", "internal", "voltage", "V", true, false],
+      ["U1.pole", "internal", "voltage", "V", true, true],
     ]);
     expect([...system.stateIndex.keys()]).toEqual(["in", "a", "b", "o", "V1.i", "L1.i", "D1.junction", "U1.pole"]);
   });

@@ -1,8 +1,10 @@
 import { simulationError } from "../circuit/diagnostic.js";
-import { NewtonSolver, type NewtonState } from "../solver/newton.js";
+import { NewtonSolver, type NewtonOutcome, type NewtonState } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { solveBias, type BiasPoint } from "./bias.js";
+import { StepHistory, type StepHistoryState } from "./step-history.js";
+import { doublingRatio, secondOrderRatio, type ErrorScale } from "./truncation-error.js";
 
 /** A state of the circuit: every unknown at one time. A run may start from one. */
 export interface CircuitState {
@@ -20,19 +22,28 @@ export interface StepperSnapshot extends CircuitState {
   readonly continuation: Continuation;
 }
 
+/** The second half of a checked first step, solved but not yet accepted. */
+interface PendingHalf {
+  readonly target: number;
+  readonly step: number;
+  readonly landing: boolean;
+  readonly x: Float64Array;
+  readonly qNonlinear: Float64Array;
+}
+
 interface Continuation {
   readonly dxdt: Float64Array;
   readonly q: Float64Array;
   readonly qdot: Float64Array;
+  readonly qPrevious: Float64Array;
   readonly peak: Float64Array;
   readonly h: number;
+  readonly lastStep: number;
   readonly segment: readonly [start: number, step: number, count: number];
   readonly firstOrderNext: boolean;
   readonly nextBreak: number;
-  readonly historyTimes: Float64Array;
-  readonly historyValues: readonly Float64Array[];
-  readonly historyCount: number;
-  readonly historyHead: number;
+  readonly pending: PendingHalf | undefined;
+  readonly history: StepHistoryState;
   readonly stats: StepperStats;
   readonly solver: NewtonState;
 }
@@ -40,7 +51,7 @@ interface Continuation {
 export interface StepperSettings {
   /**
    * Begin at the DC operating point, from rest (capacitors and inductors at `initial`), from a
-   * given state (a first-order step first, like after a breakpoint), or from a snapshot
+   * given state (a checked first-order step first, like after a breakpoint), or from a snapshot
    * (continuing exactly).
    */
   readonly start: "bias" | "rest" | CircuitState | StepperSnapshot;
@@ -64,26 +75,32 @@ export interface StepperStats {
 /** Called after every accepted point with the time, the unknowns and their rates. */
 export type StepObserver = (t: number, x: Float64Array, dxdt: Float64Array) => void;
 
-const HISTORY = 4;
-
-/** Error ratios up to this leave the step factor 0.9·ratio^(−1/(p+1)) ≥ 1 for both orders (0.9³). */
+/** Error ratios up to this leave the step factor 0.9·ratio^(−1/3) ≥ 1 (0.9³). */
 const GROWTH_SURE = 0.729;
 
-/** (1/ratio)^(1/(p+1)) for the error ratio of a step of order p (backward Euler 1, trapezoidal 2). */
-function stepRatio(ratio: number, backwardEuler: boolean): number {
-  return backwardEuler ? 1 / Math.sqrt(ratio) : 1 / Math.cbrt(ratio);
+/**
+ * Largest ratio of a step to the one before it while BDF2 rows are integrated: variable-step
+ * BDF2 is zero-stable only for ratios below 1 + √2 (Grigorieff 1983; docs/references.md §7).
+ */
+const BDF2_GROWTH = 2;
+
+/** The step factor 0.9·(1/ratio)^(1/(p+1)) for a step of order p, within [0.2, 2]. */
+function stepFactor(ratio: number, order: 1 | 2): number {
+  if (ratio <= 0) return 2;
+  const root = order === 1 ? Math.sqrt(ratio) : Math.cbrt(ratio);
+  return Math.min(2, Math.max(0.2, 0.9 / root));
 }
 
 /**
- * The transient integrator: trapezoidal companion models, backward Euler on the first step and
- * right after each breakpoint (source corners are landed on exactly), local-truncation-error
- * step control with rejection, and a maximum step. It advances on request, so an analysis can
- * run in stages (`advance(t1)`, then `advance(t2)`).
- *
- * Step control (Hairer, Nørsett & Wanner, *Solving ODEs I*, §II.4; references §7): the LTE of
- * the trapezoidal rule is −(h³/12)·x‴ with x‴ ≈ 6·DD₃ (third divided difference over the last
- * four points), that of backward Euler −(h²/2)·x″ with x″ ≈ 2·DD₂; each state is judged against
- * reltol·(its running peak) + abstol, and h_new = h·clamp(0.9·(tol/LTE)^(1/(p+1)), 0.2, 2).
+ * The transient integrator. Between breakpoints the trapezoidal rule integrates every row but
+ * the stiff ones (an op-amp's pole node), which take the variable-step BDF2 formula: both are
+ * second order, and BDF2 is also L-stable, so a closed-loop pole far faster than the step is
+ * damped instead of ringing (the trapezoidal rule is A-stable but not L-stable). The first step,
+ * and the first after each breakpoint (source corners are landed on exactly), is taken by
+ * backward Euler as one step of h and two of h/2, whose difference checks it; the two halves are
+ * kept. Every unknown some charge depends on is under local-truncation-error control, judged
+ * against reltol·(its running peak) + abstol, and h_new = h·clamp(0.9·(tol/LTE)^(1/3), 0.2, 2).
+ * It advances on request, so an analysis can run in stages (`advance(t1)`, then `advance(t2)`).
  */
 export class TransientStepper {
   readonly system: MnaSystem;
@@ -98,28 +115,38 @@ export class TransientStepper {
 
   private readonly n: number;
   private readonly maxStep: number;
+  /** The step the next attempt starts from. */
   private h: number;
+  /** Length of the last accepted step (the BDF2 rows' previous step). */
+  private lastStep = 0;
   /** Time points of a run of equal steps are segmentStart + k·segmentStep, so they do not drift. */
   private segmentStart = 0;
   private segmentStep = 0;
   private segmentCount = 0;
-  /** The next step is a backward-Euler step (the first, and the first after a breakpoint). */
-  private backwardEulerNext = true;
+  /** The next step is the checked first-order start (the first, and the first after a breakpoint). */
+  private firstOrderNext = true;
+  private pending: PendingHalf | undefined;
   private readonly q: Float64Array;
   private readonly qdot: Float64Array;
+  /** The charges one accepted step before `q` (the BDF2 rows' second history point). */
+  private readonly qPrevious: Float64Array;
   private readonly xNew: Float64Array;
   private readonly peak: Float64Array;
   /** C by compressed rows (the triplets are in row order), for q = C·x. */
   private readonly chargeRowStart: Int32Array;
   private readonly chargeCols: Int32Array;
   private readonly chargeValues: Float64Array;
-  /** 1 on rows integrated by the trapezoidal rule between breakpoints, 0 on backward-Euler rows. */
+  /** 1 on rows integrated by the trapezoidal rule between breakpoints, 0 on BDF2 rows. */
   private readonly trapezoidalRows: Float64Array;
-  private readonly lteAbs: Float64Array;
-  private readonly historyTimes = new Float64Array(HISTORY);
-  private readonly historyValues: Float64Array[];
-  private historyCount = 0;
-  private historyHead = 0;
+  private readonly stiffRows: Uint8Array;
+  private readonly stiffRowIndex: Int32Array;
+  private readonly scale: ErrorScale;
+  private readonly history: StepHistory;
+  // Scratch of the checked first step: the whole step, the first half and its charges.
+  private readonly xWhole: Float64Array;
+  private readonly xHalf: Float64Array;
+  private readonly qHalf: Float64Array;
+  private readonly qMiddle: Float64Array;
   private nextBreak = Infinity;
   private readonly observers: StepObserver[] = [];
 
@@ -136,17 +163,24 @@ export class TransientStepper {
     this.dxdt = new Float64Array(n);
     this.q = new Float64Array(n);
     this.qdot = new Float64Array(n);
+    this.qPrevious = new Float64Array(n);
     this.xNew = new Float64Array(n);
     this.peak = new Float64Array(n);
+    this.xWhole = new Float64Array(n);
+    this.xHalf = new Float64Array(n);
+    this.qHalf = new Float64Array(n);
+    this.qMiddle = new Float64Array(n);
+    this.stiffRows = system.stiffRows;
     this.trapezoidalRows = Float64Array.from(system.stiffRows, (stiff) => (stiff ? 0 : 1));
+    this.stiffRowIndex = Int32Array.from(Array.from(system.stiffRows).flatMap((stiff, i) => (stiff ? [i] : [])));
     const { rows, cols, values } = system.cTriplets;
     this.chargeRowStart = new Int32Array(n + 1);
     for (let k = 0; k < rows.length; k++) this.chargeRowStart[rows[k]! + 1]++;
     for (let i = 0; i < n; i++) this.chargeRowStart[i + 1] += this.chargeRowStart[i]!;
     this.chargeCols = cols;
     this.chargeValues = values;
-    this.lteAbs = absoluteTolerances(system.unknowns, this.tolerances, "lte");
-    this.historyValues = Array.from({ length: HISTORY }, () => new Float64Array(n));
+    this.scale = { relative: this.tolerances.lteRelative, peak: this.peak, absolute: absoluteTolerances(system.unknowns, this.tolerances, "lte") };
+    this.history = new StepHistory(n);
     const start = settings.start;
     this.bias = undefined;
     if (typeof start === "object" && "continuation" in start) {
@@ -156,8 +190,7 @@ export class TransientStepper {
     if (start === "bias") {
       this.bias = solveBias(system, this.solver, this.tolerances);
       this.x.set(this.bias.x);
-      this.chargesAt(this.x, this.q);
-      this.pushHistory(0, this.x);
+      this.chargesAt(this.x, this.solver.qNonlinear, this.q);
     } else if (start === "rest") {
       for (const d of system.devices) d.initialCharge?.(this.q);
       this.consistentStart();
@@ -167,9 +200,9 @@ export class TransientStepper {
       this.x.set(start.x);
       this.solver.setCoefficients(0, 0);
       this.solver.chargesAt(this.x);
-      this.chargesAt(this.x, this.q);
-      this.pushHistory(start.t, this.x);
+      this.chargesAt(this.x, this.solver.qNonlinear, this.q);
     }
+    this.history.push(this.t, this.x);
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
     this.solver.reference.set(this.peak);
     this.solver.setMode("step");
@@ -183,22 +216,24 @@ export class TransientStepper {
    * call it between `advance` calls or from an observer.
    */
   snapshot(): StepperSnapshot {
+    const copy = (v: Float64Array) => Float64Array.from(v);
+    const pending = this.pending && { ...this.pending, x: copy(this.pending.x), qNonlinear: copy(this.pending.qNonlinear) };
     return {
       t: this.t,
-      x: Float64Array.from(this.x),
+      x: copy(this.x),
       continuation: {
-        dxdt: Float64Array.from(this.dxdt),
-        q: Float64Array.from(this.q),
-        qdot: Float64Array.from(this.qdot),
-        peak: Float64Array.from(this.peak),
+        dxdt: copy(this.dxdt),
+        q: copy(this.q),
+        qdot: copy(this.qdot),
+        qPrevious: copy(this.qPrevious),
+        peak: copy(this.peak),
         h: this.h,
+        lastStep: this.lastStep,
         segment: [this.segmentStart, this.segmentStep, this.segmentCount],
-        firstOrderNext: this.backwardEulerNext,
+        firstOrderNext: this.firstOrderNext,
         nextBreak: this.nextBreak,
-        historyTimes: Float64Array.from(this.historyTimes),
-        historyValues: this.historyValues.map((v) => Float64Array.from(v)),
-        historyCount: this.historyCount,
-        historyHead: this.historyHead,
+        pending,
+        history: this.history.state(),
         stats: { ...this.stats },
         solver: this.solver.state(),
       },
@@ -213,31 +248,30 @@ export class TransientStepper {
     this.dxdt.set(c.dxdt);
     this.q.set(c.q);
     this.qdot.set(c.qdot);
+    this.qPrevious.set(c.qPrevious);
     this.peak.set(c.peak);
     this.h = c.h;
+    this.lastStep = c.lastStep;
     [this.segmentStart, this.segmentStep, this.segmentCount] = c.segment;
-    this.backwardEulerNext = c.firstOrderNext;
+    this.firstOrderNext = c.firstOrderNext;
     this.nextBreak = c.nextBreak;
-    this.historyTimes.set(c.historyTimes);
-    c.historyValues.forEach((v, k) => this.historyValues[k]!.set(v));
-    this.historyCount = c.historyCount;
-    this.historyHead = c.historyHead;
+    this.pending = c.pending && { ...c.pending, x: Float64Array.from(c.pending.x), qNonlinear: Float64Array.from(c.pending.qNonlinear) };
+    this.history.restore(c.history);
     Object.assign(this.stats, c.stats);
     this.solver.restore(c.solver);
   }
 
-  /** Calls `observer` now (for t = 0) and after every accepted step. */
+  /** Calls `observer` now (for the start) and after every accepted step. */
   observe(observer: StepObserver): void {
     this.observers.push(observer);
     observer(this.t, this.x, this.dxdt);
   }
 
-  /** q = C·x + q_nl(x) for the linear part; the nonlinear part is taken from the last load. */
-  private chargesAt(x: Float64Array, q: Float64Array): void {
+  /** q = C·x + the nonlinear charges `nonlinear` (loaded at x). */
+  private chargesAt(x: Float64Array, nonlinear: Float64Array, q: Float64Array): void {
     const { n, chargeRowStart, chargeCols, chargeValues } = this;
-    const nl = this.solver.qNonlinear;
     for (let i = 0; i < n; i++) {
-      let charge = nl[i]!;
+      let charge = nonlinear[i]!;
       const end = chargeRowStart[i + 1]!;
       for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * x[chargeCols[k]!]!;
       q[i] = charge;
@@ -260,114 +294,62 @@ export class TransientStepper {
     s.invalidate();
   }
 
+  /**
+   * The first source corner after `after`. A corner within rounding of `after` (the same corner
+   * computed another way, e.g. delay + k·period against the time landed on) is the one just
+   * landed on, not a new one.
+   */
   private findBreakpoint(after: number): number {
-    let next = Infinity;
-    for (const s of this.system.sources) {
-      const b = s.nextBreakpoint(after);
-      if (b < next) next = b;
-    }
-    return next;
-  }
-
-  private pushHistory(t: number, x: Float64Array): void {
-    this.historyHead = (this.historyHead + 1) % HISTORY;
-    this.historyTimes[this.historyHead] = t;
-    this.historyValues[this.historyHead]!.set(x);
-    if (this.historyCount < HISTORY) this.historyCount++;
-  }
-
-  /** History point `back` steps before the newest (0 = newest). */
-  private slot(back: number): number {
-    return (this.historyHead - back + HISTORY) % HISTORY;
-  }
-
-  /**
-   * Largest ratio |LTE|/tolerance over the states for a candidate point (t, xNew), or -1 when
-   * the history is too short to estimate it.
-   */
-  private truncationRatio(tNew: number, backwardEuler: boolean): number {
-    const needed = backwardEuler ? 2 : 3;
-    if (this.historyCount < needed) return -1;
-    const { xNew, peak, lteAbs } = this;
-    const cols = this.system.stateColumns;
-    const rel = this.tolerances.lteRelative;
-    const t0 = this.historyTimes[this.slot(0)]!;
-    const t1 = this.historyTimes[this.slot(1)]!;
-    const x0 = this.historyValues[this.slot(0)]!;
-    const x1 = this.historyValues[this.slot(1)]!;
-    const h = tNew - t0;
-    // Divided differences share their denominators across states: invert them once.
-    const i10 = 1 / (tNew - t0);
-    const i01 = 1 / (t0 - t1);
-    const i20 = 1 / (tNew - t1);
-    let ratio = 0;
-    if (backwardEuler) {
-      const scale = h * h;
-      for (let k = 0; k < cols.length; k++) {
-        const j = cols[k]!;
-        const dd2 = ((xNew[j]! - x0[j]!) * i10 - (x0[j]! - x1[j]!) * i01) * i20;
-        const r = (scale * Math.abs(dd2)) / (rel * Math.max(peak[j]!, Math.abs(xNew[j]!)) + lteAbs[j]!);
-        if (r > ratio) ratio = r;
+    const same = 1e-12 * Math.max(Math.abs(after), this.maxStep);
+    let from = after;
+    for (;;) {
+      let next = Infinity;
+      for (const s of this.system.sources) {
+        const b = s.nextBreakpoint(from);
+        if (b < next) next = b;
       }
-      return ratio;
+      if (next - after > same) return next;
+      from = next;
     }
-    const t2 = this.historyTimes[this.slot(2)]!;
-    const x2 = this.historyValues[this.slot(2)]!;
-    const i12 = 1 / (t1 - t2);
-    const i02 = 1 / (t0 - t2);
-    const i30 = 1 / (tNew - t2);
-    const scale = 0.5 * h * h * h;
-    for (let k = 0; k < cols.length; k++) {
-      const j = cols[k]!;
-      const d1b = (x0[j]! - x1[j]!) * i01;
-      const d2a = ((xNew[j]! - x0[j]!) * i10 - d1b) * i20;
-      const d2b = (d1b - (x1[j]! - x2[j]!) * i12) * i02;
-      const r = (scale * Math.abs((d2a - d2b) * i30)) / (rel * Math.max(peak[j]!, Math.abs(xNew[j]!)) + lteAbs[j]!);
-      if (r > ratio) ratio = r;
-    }
-    return ratio;
   }
 
   /**
-   * Prepares a step to tNew in one pass over the unknowns: the charge history (a·qₙ, plus q̇ₙ on
-   * trapezoidal rows after the first step) and the Newton starting guess, the polynomial through
-   * the last three history points (two just after a breakpoint) extrapolated to tNew, so the
-   * first update is small.
+   * Prepares a second-order step of length h to tNew: the charge history (2/h·qₙ + q̇ₙ on
+   * trapezoidal rows, ((1 + ω)·qₙ − ω²/(1 + ω)·qₙ₋₁)/h on BDF2 rows) and the Newton starting
+   * guess, the quadratic through the last three accepted points extrapolated to tNew.
    */
-  private prepareStep(tNew: number, be: boolean): void {
-    const { n, xNew, q, qdot, trapezoidalRows } = this;
+  private prepareStep(tNew: number, h: number, omega: number): void {
+    const { n, xNew, q, qdot, trapezoidalRows, history } = this;
     const a = this.solver.a;
-    const history = this.solver.history;
-    const count = this.historyCount;
-    let x0 = this.x;
-    let x1 = x0;
-    let x2 = x0;
-    let w0 = 1;
-    let w1 = 0;
-    let w2 = 0;
-    if (count >= 2) {
-      const t0 = this.historyTimes[this.slot(0)]!;
-      const t1 = this.historyTimes[this.slot(1)]!;
-      x0 = this.historyValues[this.slot(0)]!;
-      x1 = this.historyValues[this.slot(1)]!;
-      if (count < 3) {
-        const s = (tNew - t0) / (t0 - t1);
-        w0 = 1 + s;
-        w1 = -s;
-      } else {
-        const t2 = this.historyTimes[this.slot(2)]!;
-        x2 = this.historyValues[this.slot(2)]!;
-        // Lagrange weights of the quadratic through (t0, x0), (t1, x1), (t2, x2) at tNew.
-        w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
-        w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
-        w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
-      }
-    }
-    const rate = be ? 0 : 1;
+    const charges = this.solver.history;
+    const t0 = history.time(0);
+    const t1 = history.time(1);
+    const t2 = history.time(2);
+    const x0 = history.value(0);
+    const x1 = history.value(1);
+    const x2 = history.value(2);
+    // Lagrange weights of the quadratic through (t0, x0), (t1, x1), (t2, x2) at tNew.
+    const w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
+    const w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
+    const w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
     for (let i = 0; i < n; i++) {
-      history[i] = a[i]! * q[i]! + rate * trapezoidalRows[i]! * qdot[i]!;
+      charges[i] = a[i]! * q[i]! + trapezoidalRows[i]! * qdot[i]!;
       xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
     }
+    const stiff = this.stiffRowIndex;
+    const now = (1 + omega) / h;
+    const before = (omega * omega) / ((1 + omega) * h);
+    for (let k = 0; k < stiff.length; k++) {
+      const i = stiff[k]!;
+      charges[i] = now * q[i]! - before * this.qPrevious[i]!;
+    }
+  }
+
+  /** Backward-Euler history q/h from the charges `q`, on every row. */
+  private firstOrderHistory(q: Float64Array, h: number): void {
+    const charges = this.solver.history;
+    const inverse = 1 / h;
+    for (let i = 0; i < this.n; i++) charges[i] = q[i]! * inverse;
   }
 
   private collectSolverCounts(): void {
@@ -375,13 +357,72 @@ export class TransientStepper {
     this.stats.factorizations = this.solver.factorizations;
   }
 
+  /**
+   * The checked first-order step from the current point to `target`: one backward-Euler step of
+   * h into xWhole, two of h/2 into xHalf and xNew (the first half's nonlinear charges kept in
+   * qHalf). Returns the doubling error ratio, or the failed Newton outcome.
+   */
+  private firstOrderTrial(target: number, h: number, landing: boolean): number | NewtonOutcome {
+    const { solver, tolerances, xWhole, xHalf, xNew, q } = this;
+    const iterations = tolerances.stepIterations;
+    solver.setCoefficients(1 / h, 1 / h);
+    this.firstOrderHistory(q, h);
+    solver.loadSources(target, 1, landing);
+    xWhole.set(this.x);
+    let outcome = solver.solve(xWhole, iterations);
+    if (!outcome.converged) return outcome;
+    const half = 0.5 * h;
+    solver.setCoefficients(1 / half, 1 / half);
+    this.firstOrderHistory(q, half);
+    solver.loadSources(this.t + half, 1, false);
+    for (let i = 0; i < this.n; i++) xHalf[i] = 0.5 * (this.x[i]! + xWhole[i]!);
+    outcome = solver.solve(xHalf, iterations);
+    if (!outcome.converged) return outcome;
+    this.qHalf.set(solver.qNonlinear);
+    this.chargesAt(xHalf, this.qHalf, this.qMiddle);
+    this.firstOrderHistory(this.qMiddle, half);
+    solver.loadSources(target, 1, landing);
+    xNew.set(xWhole);
+    outcome = solver.solve(xNew, iterations);
+    if (!outcome.converged) return outcome;
+    return doublingRatio(xNew, xWhole, this.system.stateColumns, this.scale);
+  }
+
+  /** A step that could not be taken: the next attempt is shorter, or the run fails below `minStep`. */
+  private reject(h: number, cause: NewtonOutcome | number, minStep: number): void {
+    this.stats.rejected++;
+    if (typeof cause === "number") {
+      this.h = h * stepFactor(cause, this.firstOrderNext ? 1 : 2);
+      if (this.h < minStep) {
+        this.collectSolverCounts();
+        throw simulationError("step-too-small", `the time step fell below ${minStep.toExponential(1)} s at t = ${Number(this.t.toPrecision(6))} s to meet the error tolerance`, {
+          hint: "a very fast edge or a stiff loop; relax the tolerance or smooth the source edges",
+        });
+      }
+      return;
+    }
+    this.stats.newtonFailures++;
+    this.h = h / 8;
+    this.solver.refreshJacobian();
+    if (this.h < minStep) {
+      const worst = this.system.unknowns[cause.worst]?.label ?? "?";
+      this.collectSolverCounts();
+      throw simulationError(
+        "newton-not-converged",
+        `Newton did not converge at t = ${Number(this.t.toPrecision(6))} s after ${cause.iterations} iterations (largest change at '${worst}'); the step fell below ${minStep.toExponential(1)} s`,
+        { hint: "the circuit may have a discontinuity the model cannot follow; check the parts at that node, or soften limits (op-amp knee=)" },
+      );
+    }
+  }
+
   /** Integrates until `tEnd` (landing on it exactly). */
   advance(tEnd: number): void {
     const { solver, tolerances } = this;
     const minStep = 1e-14 * Math.max(tEnd, this.maxStep);
+    if (this.pending) this.acceptPending();
     while (tEnd - this.t > 1e-12 * this.h) {
       const hTry = Math.min(this.h, this.maxStep);
-      const fromSegment = hTry === this.segmentStep;
+      const fromSegment = hTry === this.segmentStep && !this.firstOrderNext;
       let target = fromSegment ? this.segmentStart + (this.segmentCount + 1) * hTry : this.t + hTry;
       let adjusted = false;
       let landing = false;
@@ -401,40 +442,36 @@ export class TransientStepper {
       }
       // The nominal step keeps the coefficients (and the factorisation) bit-identical across a run.
       const h = adjusted ? target - this.t : hTry;
-      const be = this.backwardEulerNext;
-      solver.setCoefficients(be ? 1 / h : 2 / h, 1 / h);
-      this.prepareStep(target, be);
+      if (this.firstOrderNext) {
+        const trial = this.firstOrderTrial(target, h, landing);
+        if (typeof trial !== "number" || trial > 1) {
+          this.reject(h, trial, minStep);
+          continue;
+        }
+        const half = 0.5 * h;
+        this.accept(this.t + half, half, true, false, this.xHalf, this.qHalf);
+        this.pending = { target, step: half, landing, x: this.xNew, qNonlinear: solver.qNonlinear };
+        this.segmentStep = 0;
+        this.h = landing ? Math.min(h, hTry) * 0.25 : this.limitGrowth(h * stepFactor(trial, 1), half);
+        this.notify();
+        this.acceptPending();
+        continue;
+      }
+      const omega = h / this.lastStep;
+      solver.setCoefficients(2 / h, (1 + 2 * omega) / ((1 + omega) * h));
+      this.prepareStep(target, h, omega);
       solver.loadSources(target, 1, landing);
       const outcome = solver.solve(this.xNew, tolerances.stepIterations);
       if (!outcome.converged) {
-        this.stats.rejected++;
-        this.stats.newtonFailures++;
-        this.h = h / 8;
-        solver.refreshJacobian();
-        if (this.h < minStep) {
-          const worst = this.system.unknowns[outcome.worst]?.label ?? "?";
-          this.collectSolverCounts();
-          throw simulationError(
-            "newton-not-converged",
-            `Newton did not converge at t = ${this.t.toPrecision(6)} s after ${outcome.iterations} iterations (largest change at '${worst}'); the step fell below ${minStep.toExponential(1)} s`,
-            { hint: "the circuit may have a discontinuity the model cannot follow; check the parts at that node, or soften limits (op-amp knee=)" },
-          );
-        }
+        this.reject(h, outcome, minStep);
         continue;
       }
-      const ratio = this.truncationRatio(target, be);
+      const ratio = secondOrderRatio(this.history, target, this.xNew, this.system.stateColumns, this.system.stiffStates, this.scale);
       if (ratio > 1) {
-        this.stats.rejected++;
-        this.h = h * Math.max(0.2, 0.9 * stepRatio(ratio, be));
-        if (this.h < minStep) {
-          this.collectSolverCounts();
-          throw simulationError("step-too-small", `the time step fell below ${minStep.toExponential(1)} s at t = ${this.t.toPrecision(6)} s to meet the error tolerance`, {
-            hint: "a very fast edge or a stiff loop; relax the tolerance or smooth the source edges",
-          });
-        }
+        this.reject(h, ratio, minStep);
         continue;
       }
-      this.accept(target, h, be, landing);
+      this.accept(target, h, false, landing, this.xNew, solver.qNonlinear);
       if (fromSegment && !adjusted) {
         this.segmentCount++;
       } else {
@@ -447,60 +484,84 @@ export class TransientStepper {
         // The step would grow, but it is already the largest allowed.
         this.h = nominal;
       } else {
-        let factor = ratio < 0 ? 1.5 : ratio === 0 ? 2 : Math.min(2, Math.max(0.2, 0.9 * stepRatio(ratio, be)));
+        let factor = ratio < 0 ? 1.5 : stepFactor(ratio, 2);
         // Keep the step (and with it the factorisation) unless a change is worth it.
         if (factor > 1 && factor < 1.2) factor = 1;
         this.h = factor < 1 ? Math.min(nominal, h * factor) : nominal * factor;
       }
-      if (landing) this.h = Math.min(this.h, hTry) * 0.25;
+      this.h = landing ? Math.min(this.h, hTry) * 0.25 : this.limitGrowth(this.h, h);
       // Observers run once the next step is chosen, so a snapshot taken by one is complete.
       this.notify();
     }
     this.collectSolverCounts();
   }
 
-  private accept(target: number, h: number, be: boolean, landing: boolean): void {
-    const { n, q, qdot, x, xNew, dxdt, peak } = this;
+  /** The next step, no more than BDF2_GROWTH times the last one when BDF2 rows are integrated. */
+  private limitGrowth(next: number, last: number): number {
+    return this.stiffRowIndex.length > 0 ? Math.min(next, BDF2_GROWTH * last) : next;
+  }
+
+  /** Accepts the second half of a checked first step (solved with the first). */
+  private acceptPending(): void {
+    const p = this.pending!;
+    this.pending = undefined;
+    this.accept(p.target, p.step, true, p.landing, p.x, p.qNonlinear);
+    this.notify();
+  }
+
+  /**
+   * Makes (target, xNew) the current point: its charges from xNew and the nonlinear charges
+   * loaded there, the charges' and unknowns' rates by the step's formula row by row (backward
+   * Euler on a first-order step, else trapezoidal or BDF2), the running peaks and the history.
+   */
+  private accept(target: number, h: number, firstOrder: boolean, landing: boolean, xNew: Float64Array, nonlinear: Float64Array): void {
+    const { n, q, qdot, qPrevious, x, dxdt, peak, stiffRows } = this;
     const a = this.solver.a;
     const reference = this.solver.reference;
-    const nonlinear = this.solver.qNonlinear;
-    const beRows = this.system.stiffRows;
     const { chargeRowStart, chargeCols, chargeValues } = this;
-    this.historyHead = (this.historyHead + 1) % HISTORY;
-    this.historyTimes[this.historyHead] = target;
-    const stored = this.historyValues[this.historyHead]!;
-    if (this.historyCount < HISTORY) this.historyCount++;
-    // One pass: charges q = C·x + q_nl (the triplets run row by row), their rates, the unknowns'
-    // rates and peaks, and the copies into x and the history.
     const inverse = 1 / h;
+    const omega = firstOrder ? 0 : h / this.lastStep;
+    // BDF2 weights of xₙ₊₁, xₙ and xₙ₋₁ in the derivative at tₙ₊₁ (times 1/h).
+    const wNew = (1 + 2 * omega) / (1 + omega);
+    const wNow = -(1 + omega);
+    const wBefore = (omega * omega) / (1 + omega);
+    const xBefore = this.history.value(1);
     for (let i = 0; i < n; i++) {
       let charge = nonlinear[i]!;
       const end = chargeRowStart[i + 1]!;
       for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * xNew[chargeCols[k]!]!;
-      const rowBe = be || beRows[i] === 1;
-      qdot[i] = a[i]! * (charge - q[i]!) - (rowBe ? 0 : qdot[i]!);
-      q[i] = charge;
       const value = xNew[i]!;
-      const dx = value - x[i]!;
-      dxdt[i] = rowBe ? dx * inverse : 2 * dx * inverse - dxdt[i]!;
+      if (firstOrder) {
+        qdot[i] = a[i]! * (charge - q[i]!);
+        dxdt[i] = (value - x[i]!) * inverse;
+      } else if (stiffRows[i] === 1) {
+        qdot[i] = (wNew * charge + wNow * q[i]! + wBefore * qPrevious[i]!) * inverse;
+        dxdt[i] = (wNew * value + wNow * x[i]! + wBefore * xBefore[i]!) * inverse;
+      } else {
+        qdot[i] = a[i]! * (charge - q[i]!) - qdot[i]!;
+        dxdt[i] = 2 * (value - x[i]!) * inverse - dxdt[i]!;
+      }
+      qPrevious[i] = q[i]!;
+      q[i] = charge;
       x[i] = value;
-      stored[i] = value;
       const mag = Math.abs(value);
       if (mag > peak[i]!) {
         peak[i] = mag;
         reference[i] = mag;
       }
     }
+    this.history.push(target, x);
     this.t = target;
+    this.lastStep = h;
     this.stats.accepted++;
     if (landing) {
       this.stats.breakpoints++;
-      this.backwardEulerNext = true;
+      this.firstOrderNext = true;
       this.nextBreak = this.findBreakpoint(this.t);
       // The history restarts at the corner: only this point is kept.
-      this.historyCount = 1;
+      this.history.restart();
     } else {
-      this.backwardEulerNext = false;
+      this.firstOrderNext = false;
     }
   }
 

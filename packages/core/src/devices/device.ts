@@ -83,6 +83,12 @@ export interface NonlinearTerm {
    * that keeps this device in a region where its linearisation is trustworthy.
    */
   limitStep?(x: Float64Array, dx: Float64Array): number;
+  /**
+   * True when the device's derivatives at `x` differ from those at `x − dx` by no more than
+   * `fraction` of their size: the Newton core then trusts the last solve's contraction to judge
+   * an iterate after a single update. A device without this hook is never trusted that way.
+   */
+  linearisationHolds?(x: Float64Array, dx: Float64Array, fraction: number): boolean;
 }
 
 /** A part once placed in the unknown vector. */

@@ -119,6 +119,12 @@ class Junction implements NonlinearTerm {
     }
   }
 
+  linearisationHolds(_x: Float64Array, dx: Float64Array, fraction: number): boolean {
+    const step = valueAt(dx, this.a) - valueAt(dx, this.c);
+    // The conductance scales as e^(v/nVt) (and the depletion capacitance far more slowly).
+    return Math.abs(step) <= this.nvt * Math.log1p(fraction);
+  }
+
   limitStep(x: Float64Array, dx: Float64Array): number {
     const { a, c, nvt, vcrit } = this;
     const vOld = valueAt(x, a) - valueAt(x, c);

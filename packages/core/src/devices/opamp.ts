@@ -130,6 +130,26 @@ class OutputStage implements NonlinearTerm {
     this.slewLimited = Number.isFinite(k.iMax);
   }
 
+  /** The clamps' slopes (relative to g) and the input stage's, at pole value xp and input vd. */
+  private slopes(x: Float64Array, dx: Float64Array | undefined): [number, number, number] {
+    const { k, p, supply } = this;
+    const back = (i: number) => valueAt(x, i) - (dx ? valueAt(dx, i) : 0);
+    const xp = back(p);
+    const hi = (supply ? back(supply[1]) : k.rails[1]) - k.headroom;
+    const lo = (supply ? back(supply[0]) : k.rails[0]) + k.headroom;
+    const t = this.slewLimited ? Math.tanh((k.gm * (back(this.plus) - back(this.minus) + k.vos)) / k.iMax) : 0;
+    return [logistic(xp - hi, k.knee), logistic(lo - xp, k.knee), 1 - t * t];
+  }
+
+  linearisationHolds(x: Float64Array, dx: Float64Array, fraction: number): boolean {
+    const now = this.slopes(x, undefined);
+    const before = this.slopes(x, dx);
+    // The clamp's slope is measured against the pole node's own conductance, g·s against 1/R.
+    const floor = 1 / (this.k.rPole * this.k.gClamp);
+    for (let m = 0; m < 2; m++) if (Math.abs(now[m]! - before[m]!) > fraction * (Math.max(now[m]!, before[m]!) + floor)) return false;
+    return Math.abs(now[2] - before[2]) <= fraction * Math.max(now[2], before[2]);
+  }
+
   load(x: Float64Array, o: NonlinearLoad): void {
     const { k, p, supply } = this;
     const xp = x[p]!;

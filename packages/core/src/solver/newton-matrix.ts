@@ -8,7 +8,7 @@ import type { MnaSystem } from "./system.js";
  * A factorisation is reused while no device entry of the matrix has moved by more than this
  * fraction of the entry; the chord iteration then contracts about as fast.
  */
-const STALE_ENTRY = 0.25;
+export const STALE_ENTRY = 0.25;
 /** Entry changes below this fraction of their row's largest constant entry are ignored. */
 const ENTRY_FLOOR = 1e-9;
 

@@ -1,6 +1,6 @@
 import type { NonlinearTerm } from "../devices/device.js";
 import { IterateLoad } from "./iterate-load.js";
-import { NewtonMatrix, type NewtonMatrixState } from "./newton-matrix.js";
+import { NewtonMatrix, STALE_ENTRY, type NewtonMatrixState } from "./newton-matrix.js";
 import { SourceVector } from "./source-vector.js";
 import type { MnaSystem } from "./system.js";
 import { absoluteTolerances, type Tolerances } from "./tolerances.js";
@@ -55,6 +55,8 @@ export class NewtonSolver {
   private readonly linear: boolean;
   /** The nonlinear devices with a step-limiting hook. */
   private readonly limiters: readonly NonlinearTerm[];
+  /** Whether every nonlinear device can tell that its linearisation held over an update. */
+  private readonly checkable: boolean;
   /** The contraction factor the last iterations showed, for the stopping rule. */
   private contraction = 0.5;
   /**
@@ -84,6 +86,7 @@ export class NewtonSolver {
     this.relative = tolerances.biasRelative;
     this.linear = system.nonlinear.length === 0;
     this.limiters = system.nonlinear.filter((d) => d.limitStep !== undefined);
+    this.checkable = system.nonlinear.every((d) => d.linearisationHolds !== undefined);
     this.load = new IterateLoad(this.residual, this.matrix.a, this.qNonlinear, this.matrix.devices);
   }
 
@@ -151,6 +154,18 @@ export class NewtonSolver {
     if (!this.linear) this.loadDevices(x);
   }
 
+  /**
+   * Whether every device's derivatives at the updated x are close to those the update was
+   * computed with (STALE_ENTRY): only then does the last solve's contraction predict this one.
+   * A clamp letting go or a junction turning on inside the step shows here, not in the update.
+   */
+  private linearisationHeld(x: Float64Array, dx: Float64Array): boolean {
+    if (!this.checkable) return false;
+    const devices = this.system.nonlinear;
+    for (let d = 0; d < devices.length; d++) if (!devices[d]!.linearisationHolds!(x, dx, STALE_ENTRY)) return false;
+    return true;
+  }
+
   // One outcome object, reused: a solve runs every time step and must not allocate.
   private readonly outcome: NewtonOutcome = { converged: false, iterations: 0, worst: 0 };
 
@@ -207,11 +222,13 @@ export class NewtonSolver {
       }
       // Stopping rule of simplified Newton (Hairer & Wanner, Solving ODEs II, §IV.8): with the
       // contraction ρ = ‖Δₖ‖/‖Δₖ₋₁‖ (or the last solve's), the error left after this update is
-      // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance.
+      // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance. The last
+      // solve's ρ stands for the first update only while the devices' linearisation has not moved
+      // (a clamp letting go or a junction turning on makes the first update a poor guide).
       if (lambda === 1) {
         const rho = iter > 1 ? norm / previousNorm : this.contraction;
         if (iter > 1 && rho < 1) this.contraction = Math.max(1e-3, rho);
-        if (norm <= 1 || (this.mode === "step" && rho < 1 && (iter > 1 || norm <= 100) && (rho / (1 - rho)) * norm <= 1)) {
+        if (norm <= 1 || (this.mode === "step" && rho < 1 && (rho / (1 - rho)) * norm <= 1 && (iter > 1 || (norm <= 100 && this.linearisationHeld(x, dx))))) {
           // The charges were loaded before the last update; the integrator's history needs them at the solution.
           if (this.load.charged) this.loadDevices(x);
           return this.finish(true, iter, worst);

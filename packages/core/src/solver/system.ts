@@ -25,8 +25,8 @@ export interface UnknownInfo {
   /** Its own charge row is integrated by an L-stable formula at every step (see `UnknownOptions.stiff`). */
   readonly stiff: boolean;
   /**
-   * Some charge, linear or nonlinear, depends on it on a row integrated by the trapezoidal rule,
-   * so its local truncation error is estimated and steers the step.
+   * Some charge, linear or nonlinear, depends on it, so its local truncation error is estimated
+   * and steers the step.
    */
   readonly errorControl: boolean;
 }
@@ -60,6 +60,8 @@ export interface MnaSystem {
   readonly stiffRows: Uint8Array;
   /** Unknowns whose local truncation error steers the step (`errorControl`), in order. */
   readonly stateColumns: Int32Array;
+  /** Per state column: 1 when an L-stable row's charge depends on it (its error follows that formula). */
+  readonly stiffStates: Uint8Array;
   /** Every probe name of an unknown (labels and aliases) and its index. */
   readonly stateIndex: ReadonlyMap<string, number>;
 }
@@ -87,19 +89,17 @@ function toTriplets(dense: Float64Array, n: number): Triplets {
 type Allocated = Omit<UnknownInfo, "errorControl">;
 
 /**
- * The unknowns every charge depends on, per row: the linear C and the devices' declared
- * nonlinear charges. An unknown takes part in error control when some trapezoidal row's charge
- * depends on it; rows integrated by the L-stable formula carry their own (first-order) error,
- * which the step does not follow.
+ * Which unknowns some charge depends on (the linear C and the devices' declared nonlinear
+ * charges): 1 on a trapezoidal row's charge, 2 on an L-stable row's (whose formula has the
+ * larger error constant, so it decides where both apply), 0 for algebraic unknowns.
  */
-function errorControlled(n: number, C: Float64Array, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
+function chargeDependence(n: number, C: Float64Array, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
   const judged = new Uint8Array(n);
-  for (let i = 0; i < n; i++) {
-    if (stiff[i]) continue;
-    for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) judged[j] = 1;
-  }
-  for (const [row, col] of declared) if (!stiff[row]) judged[col] = 1;
-  for (let j = 0; j < n; j++) if (stiff[j]) judged[j] = 0;
+  const mark = (row: number, col: number) => {
+    judged[col] = Math.max(judged[col]!, stiff[row] ? 2 : 1);
+  };
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) mark(i, j);
+  for (const [row, col] of declared) mark(row, col);
   return judged;
 }
 
@@ -169,8 +169,8 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
   };
   for (const device of devices) device.stampLinear?.(stamp);
   const stiffRows = Uint8Array.from(allocated, (u) => (u.stiff ? 1 : 0));
-  const judged = errorControlled(n, C, declared, stiffRows);
-  const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j] === 1 }));
+  const judged = chargeDependence(n, C, declared, stiffRows);
+  const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j]! > 0 }));
   const states: number[] = [];
   for (let j = 0; j < n; j++) if (judged[j]) states.push(j);
   return {
@@ -187,6 +187,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     cTriplets: toTriplets(C, n),
     stiffRows,
     stateColumns: Int32Array.from(states),
+    stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
     stateIndex,
   };
 }
