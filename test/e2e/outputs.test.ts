@@ -1,5 +1,5 @@
 import { spawn } from "node:child_process";
-import { lstatSync, mkdirSync, readdirSync, readFileSync, statSync, symlinkSync, writeFileSync } from "node:fs";
+import { chmodSync, lstatSync, mkdirSync, readdirSync, readFileSync, statSync, symlinkSync, writeFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, test } from "vitest";
 import { mkfifo, mknodNull, readFifo } from "../support/special-files.js";
 import { MAIN, onset, RC_STEP, Workspace } from "./support/onset.js";
@@ -197,6 +197,27 @@ describe("every output is checked before the simulation starts: exit 2, a plain 
     expect(csv.status).toBe(2);
     // The study never started: its default results file was not even begun.
     expect(readdirSync(ws.dir)).not.toContain("study.results.jsonl");
+  });
+
+  // Root may write anywhere, so unwritable places are tried as an unprivileged user (nobody),
+  // which only root can switch to: the CI user is root.
+  const root = process.getuid?.() === 0;
+  test.skipIf(!root)("an unwritable folder and a read-only file, for an unprivileged user (skipped only when the tests do not run as root)", async () => {
+    const asNobody = (args: string[]) =>
+      new Promise<{ status: number | null; stderr: string }>((done, fail) => {
+        const child = spawn(process.execPath, [MAIN, ...args], { cwd: ws.dir, uid: 65534, gid: 65534, stdio: ["ignore", "ignore", "pipe"] });
+        let stderr = "";
+        child.stderr.setEncoding("utf8").on("data", (d: string) => (stderr += d));
+        child.on("error", fail);
+        child.on("close", (status) => done({ status, stderr }));
+      });
+    chmodSync(ws.dir, 0o755);
+    mkdirSync(ws.path("locked"), 0o555);
+    writeFileSync(ws.path("frozen.csv"), "kept\n", { mode: 0o444 });
+    const [folder, file] = await Promise.all([asNobody(["run", "endless.onset", "--csv", "locked/data.csv"]), asNobody(["run", "endless.onset", "--csv", "frozen.csv"])]);
+    expect(folder).toEqual({ status: 2, stderr: "error: cannot write --csv 'locked/data.csv': the folder 'locked' is not writable: permission denied (EACCES)\nhint: choose a folder you can write to\n" });
+    expect(file).toEqual({ status: 2, stderr: "error: cannot write --csv 'frozen.csv': it is not writable: permission denied (EACCES)\nhint: make it writable or give another path\n" });
+    expect(readFileSync(ws.path("frozen.csv"), "utf8")).toBe("kept\n");
   });
 
   test("no temporary files are left anywhere in the folder", () => {

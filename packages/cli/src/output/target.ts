@@ -92,7 +92,7 @@ function checkFolder(folder: string, shown: string, fail: (reason: string, hint?
   try {
     accessSync(folder, constants.W_OK | constants.X_OK);
   } catch (error) {
-    throw fail(`the folder '${shown}' is not writable (${errnoReason(error)})`, "choose a folder you can write to");
+    throw fail(`the folder '${shown}' is not writable: ${errnoReason(error)}`, "choose a folder you can write to");
   }
 }
 
@@ -100,7 +100,7 @@ function checkWritable(path: string, fail: (reason: string, hint?: string) => Cl
   try {
     accessSync(path, constants.W_OK);
   } catch (error) {
-    throw fail(`it is not writable (${errnoReason(error)})`, "make it writable or give another path");
+    throw fail(`it is not writable: ${errnoReason(error)}`, "make it writable or give another path");
   }
 }
 
