@@ -1,5 +1,6 @@
-import { readFileSync, writeFileSync } from "node:fs";
+import { lstatSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, test } from "vitest";
+import { mkfifo, readFifo } from "../support/special-files.js";
 import { Workspace, wien, type Ran } from "./support/onset.js";
 
 const ws = new Workspace();
@@ -88,11 +89,64 @@ describe("a tolerance study", () => {
     writeFileSync(ws.path("cut.jsonl"), cut);
     const r = await ws.run(["run", "study.onset", "--json", "--jobs", "1", "--results", "cut.jsonl", "--resume"]);
     expect(r.status).toBe(0);
-    expect(r.stderr).toContain("cut off");
+    // Reported at its place, naming the sample that runs again (line 5 held sample 3).
+    expect(r.stderr).toContain("cut.jsonl:5: warning: the last line was cut off (an interrupted run): sample 3 is not counted as done and runs again");
     expect(r.stdout).toBe(single.stdout);
     const after = readFileSync(ws.path("cut.jsonl"), "utf8");
     expect(after.startsWith(`${lines.slice(0, 4).join("\n")}\n`)).toBe(true);
-    expect(after.trimEnd().split("\n")).toHaveLength(7);
+    expect(after.endsWith("\n")).toBe(true);
+    // The final file holds every sample once, complete: the same lines as the uninterrupted run's.
+    expect(after.trimEnd().split("\n").sort()).toEqual(full.trimEnd().split("\n").sort());
+  });
+
+  test("--resume through a symlink resumes the real file and keeps the link", async () => {
+    const full = readFileSync(ws.path("single.jsonl"), "utf8");
+    writeFileSync(ws.path("real-cut.jsonl"), full.slice(0, full.length - 50));
+    symlinkSync("real-cut.jsonl", ws.path("link-cut.jsonl"));
+    const r = await ws.run(["run", "study.onset", "--json", "--jobs", "1", "--results", "link-cut.jsonl", "--resume"]);
+    expect(r.status).toBe(0);
+    expect(r.stderr).toContain("link-cut.jsonl:7: warning: the last line was cut off (an interrupted run): sample 5 is not counted as done and runs again");
+    expect(r.stdout).toBe(single.stdout);
+    expect(lstatSync(ws.path("link-cut.jsonl")).isSymbolicLink()).toBe(true);
+    expect(readFileSync(ws.path("real-cut.jsonl"), "utf8").trimEnd().split("\n").sort()).toEqual(full.trimEnd().split("\n").sort());
+  });
+
+  test("merge of a file with a cut-off last line warns with file:line and refuses while that sample is missing", async () => {
+    const full = readFileSync(ws.path("single.jsonl"), "utf8");
+    writeFileSync(ws.path("merge-cut.jsonl"), full.slice(0, full.length - 50));
+    const alone = await ws.run(["merge", "merge-cut.jsonl"]);
+    expect(alone.status).toBe(2);
+    expect(alone.stderr).toContain("merge-cut.jsonl:7: warning: the last line was cut off (an interrupted run): sample 5 is left out");
+    expect(alone.stderr).toContain("error: the results files hold 5 of the study's samples; 1 is missing (a line was cut off at merge-cut.jsonl:7)");
+    // With a file that holds the sample whole, the merge is complete and equals the single run.
+    const both = await ws.run(["merge", "merge-cut.jsonl", "single.jsonl", "--json"]);
+    expect(both.status).toBe(0);
+    expect(both.stderr).toContain("merge-cut.jsonl:7: warning");
+    expect(both.stdout).toBe(single.stdout);
+  });
+
+  test("--results to a FIFO streams the header and each sample to its reader; the FIFO stays", async () => {
+    mkfifo(ws.path("results.fifo"));
+    const reader = readFifo(ws.path("results.fifo"), ws.path("from-fifo.jsonl"));
+    const r = await ws.run(["run", "study.onset", "--json", "--jobs", "1", "--results", "results.fifo"]);
+    expect(r.status).toBe(0);
+    expect(await reader).toBe(0);
+    expect(r.stdout).toBe(single.stdout);
+    const lines = readFileSync(ws.path("from-fifo.jsonl"), "utf8").trimEnd().split("\n");
+    expect(lines).toHaveLength(7);
+    expect(lstatSync(ws.path("results.fifo")).isFIFO()).toBe(true);
+    const resume = await ws.run(["run", "study.onset", "--jobs", "1", "--results", "results.fifo", "--resume"]);
+    expect(resume.status).toBe(2);
+    expect(resume.stderr).toContain("--resume reads the results file back, but --results results.fifo is not a file");
+  });
+
+  test("--results - streams the samples on stdout; the text report moves to stderr", async () => {
+    const r = await ws.run(["run", "study.onset", "--jobs", "1", "--results", "-"]);
+    expect(r.status).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n").map((l) => JSON.parse(l) as { onset?: string; index?: number });
+    expect(lines[0]!.onset).toBe("tolerance-results");
+    expect(lines.slice(1).map((l) => l.index).sort()).toEqual([0, 1, 2, 3, 4, 5]);
+    expect(r.stderr).toMatch(/yield \d/);
   });
 
   test("--resume refuses a results file of another study", async () => {

@@ -1,11 +1,12 @@
-import { resolve } from "node:path";
 import { designOscillator, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
 import { parseQuantity } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
-import { writeFileAtomic } from "../atomic.js";
 import { CliError, usageError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
+import { checkOutputs } from "../output/plan.js";
+import { writeOutput } from "../output/write.js";
 import type { CommandContext } from "./context.js";
+import { optionTarget } from "./output-options.js";
 
 /** The topologies `onset design` knows. */
 export const DESIGN_TOPOLOGIES: readonly Topology[] = ["wien", "twin-t", "phase-shift"];
@@ -19,10 +20,13 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
 
 /**
  * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T]`:
- * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`.
+ * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`
+ * (checked before the design work; `-` is stdout).
  */
 export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
   const topology = args.positionals[0]!;
+  const output = optionTarget(ctx, args, "output");
+  checkOutputs([output], ctx.json);
   if (!(DESIGN_TOPOLOGIES as readonly string[]).includes(topology)) {
     throw usageError("bad-topology", `design: unknown topology '${topology}'`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
   }
@@ -42,12 +46,11 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
   };
   const result = designOscillator(request);
-  const output = valueOf(args, "output");
-  if (output !== undefined) {
-    writeFileAtomic(resolve(ctx.io.cwd, output), result.text);
-    ctx.note(`wrote ${output}`);
+  if (output !== null) {
+    writeOutput(output, result.text, ctx.io.stdout);
+    if (output.kind !== "stdout") ctx.note(`wrote ${output.shown}`);
   }
   if (ctx.json) ctx.io.stdout(`${JSON.stringify({ ...result, exit: EXIT.ok }, null, 2)}\n`);
-  else if (output === undefined) ctx.io.stdout(result.text);
+  else if (output === null) ctx.io.stdout(result.text);
   return EXIT.ok;
 }
