@@ -779,6 +779,16 @@ const cases: readonly Case[] = [
     ].join("\n"),
   },
   {
+    code: "unknown-node",
+    source: "resistor R1 o gnd 1k\nstartup probe=out",
+    expected: [
+      "t.onset:2:15: error: unknown node 'out' (did you mean 'o'?)",
+      "  startup probe=out",
+      "                ^~~",
+      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), or a current R1.i",
+    ].join("\n"),
+  },
+  {
     code: "unknown-part",
     source: "resistor R1 a gnd 1k\ntransient until=1m probes=(Rx.i)",
     expected: [
@@ -832,7 +842,7 @@ const cases: readonly Case[] = [
     code: "unknown-metric",
     source: "resistor R1 a gnd 1k\nspec freq=1k±1%",
     expected: [
-      "t.onset:2:6: error: unknown spec metric 'freq'",
+      "t.onset:2:6: error: unknown spec metric 'freq' (did you mean 'frequency'?)",
       "  spec freq=1k±1%",
       "       ^~~~",
       "hint: metrics are frequency, amplitude, thd, startup, settling, offset, rms, peak-to-peak, yield",

@@ -33,6 +33,7 @@ export type {
   WordOption,
 } from "./circuit/schema.js";
 export { checkTopology, nodesOfPart } from "./circuit/topology.js";
+export { closestName, didYouMean, editDistance, suggestionScore } from "./circuit/suggest.js";
 
 // Devices
 export { builtinPresets, deviceModels, partKinds } from "./devices/registry.js";

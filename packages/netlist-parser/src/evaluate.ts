@@ -1,7 +1,7 @@
 import type { SourceSpan } from "@onset/core";
 import { raise } from "./errors.js";
 import { formatSI } from "./format-number.js";
-import { didYouMean } from "./suggest.js";
+import { didYouMean } from "@onset/core";
 import type { Expr, Span } from "./syntax.js";
 
 /** What an expression needs from its surroundings: the file, and the value of a parameter. */

@@ -1,10 +1,9 @@
-import { partKinds, type Diagnostic, type PartKindSchema } from "@onset/core";
+import { didYouMean, partKinds, type Diagnostic, type PartKindSchema } from "@onset/core";
 import { raisedDiagnostic } from "./errors.js";
 import { isAnalysisKeyword, statementWords } from "./keywords.js";
 import { tokenize } from "./lexer.js";
 import { ParserState, cover, sp } from "./parser-state.js";
 import { atOption, atValueStart, parseKey, parseOption, parseOptions, parseValue } from "./parse-values.js";
-import { didYouMean } from "./suggest.js";
 import type {
   AnalysisArg,
   AnalysisStatement,

@@ -1,5 +1,5 @@
 import { resolve } from "node:path";
-import { designOscillator, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
+import { designOscillator, didYouMean, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
 import { parseQuantity } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { writeFileAtomic } from "../atomic.js";
@@ -24,13 +24,13 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
 export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
   const topology = args.positionals[0]!;
   if (!(DESIGN_TOPOLOGIES as readonly string[]).includes(topology)) {
-    throw usageError("bad-topology", `design: unknown topology '${topology}'`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
+    throw usageError("bad-topology", `design: unknown topology '${topology}'${didYouMean(topology, DESIGN_TOPOLOGIES)}`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
   }
   const freq = valueOf(args, "freq");
   if (freq === undefined) throw usageError("missing-option", "design needs --freq", "write for example: onset design wien --freq 1k");
   const cap = valueOf(args, "cap");
   const series = valueOf(args, "series");
-  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'`, "choose E12, E24 or E96");
+  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'${didYouMean(series, ["E12", "E24", "E96"])}`, "choose E12, E24 or E96");
   const preset = valueOf(args, "preset");
   const startup = valueOf(args, "startup");
   const request: DesignRequest = {

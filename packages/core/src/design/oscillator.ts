@@ -1,5 +1,6 @@
 import type { Circuit, OptionValue, PartSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
+import { didYouMean } from "../circuit/suggest.js";
 import { runPoles } from "../analyses/poles.js";
 import { builtinPresets } from "../devices/registry.js";
 import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
@@ -335,7 +336,7 @@ export function designOscillator(request: DesignRequest): DesignResult {
   }
   const preset = request.preset ?? "general";
   if (!builtinPresets.opamp?.[preset]) {
-    throw inputError("unknown-preset", `unknown op-amp preset '${preset}'`, { hint: `use one of ${Object.keys(builtinPresets.opamp ?? {}).join(", ")}` });
+    throw inputError("unknown-preset", `unknown op-amp preset '${preset}'${didYouMean(preset, Object.keys(builtinPresets.opamp ?? {}))}`, { hint: `use one of ${Object.keys(builtinPresets.opamp ?? {}).join(", ")}` });
   }
   // The frequency each topology's formula gives for R and C (twin-T at k = 0.45).
   const scale = request.topology === "wien" ? 1 : request.topology === "phase-shift" ? 1 / Math.sqrt(6) : twinTCrossing(0.45);

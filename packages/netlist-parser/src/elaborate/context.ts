@@ -1,9 +1,8 @@
-import { type Diagnostic, type PartSpec, type SourceSpan, type ToleranceSpec, type UnitSymbol } from "@onset/core";
+import { didYouMean, type Diagnostic, type PartSpec, type SourceSpan, type ToleranceSpec, type UnitSymbol } from "@onset/core";
 import { AlreadyReported, raise, raisedDiagnostic } from "../errors.js";
 import { evaluate, soleLiteral, soleName, type EvalContext } from "../evaluate.js";
 import { formatQuantity } from "../format-number.js";
 import { parseQuantityWith } from "../quantity.js";
-import { didYouMean } from "../suggest.js";
 import type { Tolerance, Value } from "../syntax.js";
 import { unitMismatch, unitName, unitSuffix, type NumberLiteral, type UnitExpectation } from "../units.js";
 import { spanIn, type Located, type ProgramIndex } from "./index-program.js";

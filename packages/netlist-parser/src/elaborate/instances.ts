@@ -2,7 +2,7 @@ import type { UnitSymbol } from "@onset/core";
 import { problem, raise } from "../errors.js";
 import { soleLiteral } from "../evaluate.js";
 import { reservedNames } from "../keywords.js";
-import { didYouMean } from "../suggest.js";
+import { didYouMean } from "@onset/core";
 import type { BlockStatement, OptionNode, PartStatement, Statement, UseStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { located, placeOf, spanIn, type Located } from "./index-program.js";

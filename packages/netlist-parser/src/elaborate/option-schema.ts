@@ -1,6 +1,6 @@
 import type { OptionSchema, OptionValue, PartKindSchema } from "@onset/core";
 import { raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
+import { didYouMean } from "@onset/core";
 import type { OptionNode, Value } from "../syntax.js";
 import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
 import { spanIn } from "./index-program.js";
