@@ -330,7 +330,17 @@ const cases: readonly Case[] = [
       "t.onset:1:23: error: at= of pot P1 must be between 0 and 1, got 1.2",
       "  pot P1 a w gnd 10k at=1.2",
       "                        ^~~",
-      "hint: at= is the wiper position from end1 (0) to end2 (1)",
+      "hint: at= is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "vsource V1 a gnd 1\npot P1 a w gnd 10k\nresistor R w gnd 1k\nbias\nsweep P1.at from=0 to=1.5 steps=3",
+    expected: [
+      "t.onset:5:23: error: to= of sweep P1.at must be between 0 and 1, got 1.5",
+      "  sweep P1.at from=0 to=1.5 steps=3",
+      "                        ^~~",
+      "hint: P1.at is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
     ].join("\n"),
   },
   {

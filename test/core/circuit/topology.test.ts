@@ -100,6 +100,7 @@ describe("bad circuits give typed errors that name parts and nodes", () => {
   test("a wiper position outside 0..1 is rejected", () => {
     const d = thrown(() => buildSystem(circuit([part("pot", "P1", ["a", "w", "gnd"], 10e3, { at: 1.2 })])));
     expect(d.message).toBe("pot P1: at=1.2 is outside 0..1");
+    expect(d.hint).toBe("at= is measured from end1: 0 puts the wiper on end1, 1 on end2 (end1 to wiper is at × the track on a linear taper)");
   });
 
   test("solving a floating node anyway reports a singular system at that node", () => {

@@ -38,6 +38,8 @@ interface OverrideSlot {
 export interface TargetInfo {
   readonly expect: NumberExpectation;
   readonly range?: RangeRule;
+  /** What the value is, for hints (`wiper position …`). */
+  readonly summary?: string;
 }
 
 /** The state of one elaboration: overrides, what has been found, and the problems so far. */

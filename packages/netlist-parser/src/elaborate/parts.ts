@@ -124,7 +124,7 @@ export function elaboratePart(ctx: Elaboration, l: Located<PartStatement>, scope
   for (const [key, source] of merged) if (!allowed[key] && !("fixed" in source)) unknownOption(key, schema, allowed, label, source.site, source.node.keySpan);
 
   const valueInfo: TargetInfo | undefined = schema.value
-    ? { expect: { unit: schema.value.unit }, range: { min: schema.value.min, minExclusive: schema.value.minExclusive } }
+    ? { expect: { unit: schema.value.unit }, range: { min: schema.value.min, minExclusive: schema.value.minExclusive }, summary: schema.value.summary }
     : undefined;
   if (valueInfo) ctx.registerTarget(name, valueInfo);
   for (const [key, option] of Object.entries(allowed)) {
