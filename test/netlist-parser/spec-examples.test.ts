@@ -3,8 +3,8 @@ import { elaborate, loadProgram, checkProgram, type Program } from "@onset/netli
 import type { Circuit } from "@onset/core";
 import { memoryResolver } from "./support/helpers.js";
 
-// Every example of /work/shared/circuit-language.md (the language spec), completed where the spec
-// shows only a fragment, must parse and elaborate.
+// Every example of the language's first specification (version 1, restated in docs/language.md),
+// completed where it shows only a fragment, must parse and elaborate.
 
 const amplifiers = `# shared op-amp settings
 preset quick opamp gbw=10M slew=15V/us rails=(-12, 12)

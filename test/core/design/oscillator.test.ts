@@ -16,7 +16,7 @@ const inSeries = (v: number, series: keyof typeof E_SERIES) => {
 };
 
 describe("onset design: E-series choices", () => {
-  test("Wien at 440 Hz with 33 nF: R ideal 10 961.08 Ω snaps to 12 k / 11 k / 11.0 k in E12 / E24 / E96 (references §1)", () => {
+  test("Wien at 440 Hz with 33 nF: R ideal 10 961.08 Ω snaps to 12 k / 11 k / 11.0 k in E12 / E24 / E96 (docs/references.md §1)", () => {
     for (const [series, expected] of [["E12", 12e3], ["E24", 11e3], ["E96", 11e3]] as const) {
       const d = designOscillator({ topology: "wien", frequency: 440, capacitor: 33e-9, series });
       const r = d.choices.find((c) => c.part === "R1, R2")!;
@@ -25,7 +25,7 @@ describe("onset design: E-series choices", () => {
     }
   });
 
-  test("the twin-T crossing Ω(k) solves k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0: Ω(0.45) = 1.027366 (references §2.3)", () => {
+  test("the twin-T crossing Ω(k) solves k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0: Ω(0.45) = 1.027366 (docs/references.md §2.3)", () => {
     expect(twinTCrossing(0.45)).toBeCloseTo(1.027366, 6);
     expect(twinTCrossing(0.47)).toBeCloseTo(1.015825, 6);
     expect(twinTCrossing(0.5)).toBeCloseTo(1, 12);

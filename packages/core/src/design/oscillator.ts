@@ -202,12 +202,12 @@ function phaseShift(req: DesignResult["request"], required: number): Sizing {
     thdLimit: 0.03,
     description: [
       "Three-section C–R ladder into an inverting stage; f = 1/(2π·√6·RC), where the ladder passes",
-      "−1/29 of the output (references: the series-C, shunt-R ladder), so the stage needs a gain of 29.",
+      "−1/29 of the output (H = x³/(x³ + 6x² + 5x + 1), x = sRC, is real at ωRC = 1/√6), so the stage needs a gain of 29.",
     ],
   };
 }
 
-/** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (references §2.3). */
+/** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (docs/references.md §2.3). */
 export function twinTCrossing(k: number): number {
   const a = k * (2 * k + 1);
   const b = k * (1 - 2 * k);
@@ -273,7 +273,7 @@ function twinT(req: DesignResult["request"], required: number): Sizing {
     thdLimit: 0.01,
     description: [
       "Twin-T notch (R, R with 2C; C, C with k·R, k = 0.45) from the output into an inverting stage.",
-      "With k under ½ the network reaches −180° at Ω = 1.0274 above f0 = 1/(2πRC) (references §2.3);",
+      "With k under ½ the network reaches −180° at Ω = ωRC = 1.0274, the root of k(2k+1)Ω⁴ + k(1−2k)Ω² = 1;",
       "a divider on the non-inverting input adds positive feedback for the start margin.",
     ],
   };

@@ -15,7 +15,7 @@ export interface YieldSummary {
   readonly passed: number;
   readonly runs: number;
   readonly value: number;
-  /** 95 % Wilson score interval (references §6). */
+  /** 95 % Wilson score interval (docs/references.md §6). */
   readonly interval: Interval;
 }
 
