@@ -973,6 +973,26 @@ const cases: readonly Case[] = [
       "hint: check the node name for a typo, or connect the pin",
     ].join("\n"),
   },
+  {
+    code: "shared-tolerance",
+    source: "param R = 15.8k±1%\nresistor R1 a gnd (R)\nresistor R2 a gnd (R)\nvsource V1 a gnd 1\ntolerance runs=10", warnings: true,
+    expected: [
+      "t.onset:1:11: warning: parameter R is drawn once per sample and shared by 2 parts (R1, R2)",
+      "  param R = 15.8k±1%",
+      "            ^~~~~~~~",
+      "hint: one draw suits matched parts (a resistor network, a dual capacitor); for separate components write: param R = 15.8k±1% each",
+    ].join("\n"),
+  },
+  {
+    code: "each-without-tolerance",
+    source: "param R = 15.8k each\nresistor R1 a gnd (R)",
+    expected: [
+      "t.onset:1:17: error: parameter R is marked each but has no tolerance to draw",
+      "  param R = 15.8k each",
+      "                  ^~~~",
+      "hint: write a tolerance on the value, e.g. param R = 10k±1% each, or remove each",
+    ].join("\n"),
+  },
 ];
 
 describe("diagnostics: exact text and position for every error kind", () => {

@@ -1,5 +1,4 @@
-import type { UnitSymbol } from "@onset/core";
-import { closestName } from "@onset/core";
+import { closestName, type UnitSymbol } from "@onset/core";
 
 /** SI prefixes and their powers of ten; `u`, `µ` (micro sign) and `μ` (Greek mu) are micro. */
 export const SI_PREFIXES: Readonly<Record<string, number>> = {

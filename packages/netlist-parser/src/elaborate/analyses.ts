@@ -1,6 +1,5 @@
-import type { AnalysisSpec, Probe, SourceSpan, SpecCriterion, SpecMetric, UnitSymbol } from "@onset/core";
+import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type UnitSymbol } from "@onset/core";
 import { raise } from "../errors.js";
-import { didYouMean } from "@onset/core";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
 import { checkRange, type Elaboration, type NumberExpectation, type RangeRule } from "./context.js";
 import { spanIn, type Located } from "./index-program.js";
