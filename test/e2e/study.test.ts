@@ -208,6 +208,21 @@ describe("sweeps and the design window", () => {
 });
 
 describe("onset design", () => {
+  test("phase-shift --freq 1k reports the simulated settled frequency beside the small-signal poles, in the file and on stderr", async () => {
+    const r = await ws.run(["design", "phase-shift", "--freq", "1k", "--output", "ladder.onset"]);
+    expect(r.status).toBe(0);
+    // The ladder's poles sit about 5 % low (start margin: gain 33 > 29); the file settles within 1 %.
+    const line = /design: simulated start-up settles at ([\d.]+) Hz \(([+−])([\d.]+) % from the target\); small-signal poles ([\d.]+) Hz/.exec(r.stderr)!;
+    expect(line).not.toBeNull();
+    expect(Math.abs(Number(line[1]) / 1000 - 1)).toBeLessThan(0.01);
+    expect(Number(line[4]) / 1000 - 1).toBeLessThan(-0.03);
+    const file = readFileSync(ws.path("ladder.onset"), "utf8");
+    expect(file).toContain(`# simulated start-up of this file: settles at ${line[1]} Hz`);
+    const ran = await ws.run(["run", "ladder.onset", "--nominal", "--json"]);
+    expect((JSON.parse(ran.stdout) as { results: { frequency: number }[] }).results[0]!.frequency.toFixed(2)).toBe(line[1]);
+  });
+
+
   test("writes a circuit file that checks clean", async () => {
     const designed = await ws.run(["design", "wien", "--freq", "1k", "--output", "designed.onset"]);
     expect(designed.status).toBe(0);

@@ -73,7 +73,7 @@ export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/re
 export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";
 export { designOscillator, STARTUP_GROWTH, twinTCrossing } from "./design/oscillator.js";
-export type { DesignChoice, DesignRequest, DesignResult, Topology } from "./design/oscillator.js";
+export type { DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
 export type { SeriesName } from "./design/eseries.js";
 export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";

@@ -1,6 +1,6 @@
 import { resolve } from "node:path";
-import { designOscillator, didYouMean, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
-import { parseQuantity } from "@onset/netlist-parser";
+import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
+import { elaborate, parseQuantity, parseText } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { writeFileAtomic } from "../atomic.js";
 import { CliError, usageError } from "../cli-error.js";
@@ -15,6 +15,24 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
   if (typeof value !== "number") throw new CliError([value]);
   if (!(value > 0)) throw usageError("out-of-range", `${option} must be above zero, got ${text}`);
   return value;
+}
+
+/** Runs the start-up analysis of a designed file exactly as `onset run` would (nominal values). */
+function simulateDesign(text: string) {
+  const parsed = parseText(text, "design.onset");
+  const { circuit, diagnostics } = elaborate(parsed.program);
+  const analysis = circuit && startupAnalysisOf(circuit);
+  if (!analysis) throw new CliError([...parsed.diagnostics, ...diagnostics]);
+  return runStartup(circuit, analysis);
+}
+
+/** One line for standard error: what the designed file settles at, and what the poles predicted. */
+function designSummary(r: DesignResult): string {
+  const pct = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x * 100).toFixed(2)} %`;
+  const poles = `small-signal poles ${r.predicted.frequency.toFixed(2)} Hz (${pct(r.error)})`;
+  const sim = r.simulated;
+  if (!sim || sim.frequency === null || sim.error === null) return `design: simulated start-up ${sim?.verdict ?? "not run"}; ${poles}`;
+  return `design: simulated start-up settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target); ${poles}`;
 }
 
 /**
@@ -41,7 +59,8 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(preset === undefined ? {} : { preset }),
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
   };
-  const result = designOscillator(request);
+  const result = designOscillator(request, { simulate: simulateDesign });
+  ctx.note(designSummary(result));
   const output = valueOf(args, "output");
   if (output !== undefined) {
     writeFileAtomic(resolve(ctx.io.cwd, output), result.text);
