@@ -100,8 +100,9 @@ export const COMMANDS: readonly CommandSpec[] = [
     details: [
       "Resistors snap to the chosen IEC 60063 series (default E24) at the nearest value in the log sense:",
       "between neighbours a < b the boundary is √(ab). Without --cap the capacitor comes from the E6 values.",
-      "The gain network is sized on the poles of the snapped circuit so that it starts within --startup.",
-      "The file is printed on stdout unless --output is given.",
+      "The gain network is sized on the poles of the snapped circuit so that it starts within --startup;",
+      "then the file's start-up is simulated, and its header (and a note on stderr) gives the frequency it",
+      "settles at beside the poles' prediction. The file is printed on stdout unless --output is given.",
       "",
       ...OUTPUTS,
     ],

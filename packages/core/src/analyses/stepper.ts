@@ -43,7 +43,7 @@ function stepRatio(ratio: number, backwardEuler: boolean): number {
  * step control with rejection, and a maximum step. It advances on request, so an analysis can
  * run in stages (`advance(t1)`, then `advance(t2)`).
  *
- * Step control (Hairer, Nørsett & Wanner, *Solving ODEs I*, §II.4; references §7): the LTE of
+ * Step control (Hairer, Nørsett & Wanner, *Solving ODEs I*, §II.4; docs/references.md §7): the LTE of
  * the trapezoidal rule is −(h³/12)·x‴ with x‴ ≈ 6·DD₃ (third divided difference over the last
  * four points), that of backward Euler −(h²/2)·x″ with x″ ≈ 2·DD₂; each state is judged against
  * reltol·(its running peak) + abstol, and h_new = h·clamp(0.9·(tol/LTE)^(1/(p+1)), 0.2, 2).

@@ -9,7 +9,7 @@ export interface UnknownOptions {
    * Integrate this unknown's own charge row with backward Euler even between breakpoints.
    * For internal states whose closed-loop time constant is far below the step (an op-amp's
    * pole node), where the trapezoidal rule would leave an undamped, sign-alternating error
-   * (A-stable but not L-stable, references §3). Such states are left out of the LTE estimate.
+   * (A-stable but not L-stable, docs/references.md §3). Such states are left out of the LTE estimate.
    */
   readonly backwardEuler?: boolean;
 }

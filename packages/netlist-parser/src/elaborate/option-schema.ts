@@ -1,6 +1,5 @@
-import type { OptionSchema, OptionValue, PartKindSchema } from "@onset/core";
+import { didYouMean, type OptionSchema, type OptionValue, type PartKindSchema } from "@onset/core";
 import { raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
 import type { OptionNode, Value } from "../syntax.js";
 import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
 import { spanIn } from "./index-program.js";
@@ -21,6 +20,7 @@ export function targetOf(option: OptionSchema): TargetInfo | undefined {
   return {
     expect: { unit: option.unit, decibel: option.decibel ?? false, allowInfinite: option.allowInfinite ?? false },
     range: { min: option.min, minExclusive: option.minExclusive, max: option.max, integer: option.integer },
+    summary: option.summary,
   };
 }
 
