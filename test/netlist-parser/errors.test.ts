@@ -330,7 +330,17 @@ const cases: readonly Case[] = [
       "t.onset:1:23: error: at= of pot P1 must be between 0 and 1, got 1.2",
       "  pot P1 a w gnd 10k at=1.2",
       "                        ^~~",
-      "hint: at= is the wiper position from end1 (0) to end2 (1)",
+      "hint: at= is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "vsource V1 a gnd 1\npot P1 a w gnd 10k\nresistor R w gnd 1k\nbias\nsweep P1.at from=0 to=1.5 steps=3",
+    expected: [
+      "t.onset:5:23: error: to= of sweep P1.at must be between 0 and 1, got 1.5",
+      "  sweep P1.at from=0 to=1.5 steps=3",
+      "                        ^~~",
+      "hint: P1.at is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
     ].join("\n"),
   },
   {
@@ -789,6 +799,16 @@ const cases: readonly Case[] = [
     ].join("\n"),
   },
   {
+    code: "unknown-node",
+    source: "resistor R1 o gnd 1k\nstartup probe=out",
+    expected: [
+      "t.onset:2:15: error: unknown node 'out' (did you mean 'o'?)",
+      "  startup probe=out",
+      "                ^~~",
+      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), a current R1.i or a part's state such as U1.pole",
+    ].join("\n"),
+  },
+  {
     code: "unknown-part",
     source: "resistor R1 a gnd 1k\ntransient until=1m probes=(Rx.i)",
     expected: [
@@ -842,7 +862,7 @@ const cases: readonly Case[] = [
     code: "unknown-metric",
     source: "resistor R1 a gnd 1k\nspec freq=1k±1%",
     expected: [
-      "t.onset:2:6: error: unknown spec metric 'freq'",
+      "t.onset:2:6: error: unknown spec metric 'freq' (did you mean 'frequency'?)",
       "  spec freq=1k±1%",
       "       ^~~~",
       "hint: metrics are frequency, amplitude, thd, startup, settling, offset, rms, peak-to-peak, yield",
@@ -961,6 +981,26 @@ const cases: readonly Case[] = [
       "  resistor R1 a gnd 1k",
       "  ^~~~~~~~~~~~~~~~~~~~",
       "hint: check the node name for a typo, or connect the pin",
+    ].join("\n"),
+  },
+  {
+    code: "shared-tolerance",
+    source: "param R = 15.8k±1%\nresistor R1 a gnd (R)\nresistor R2 a gnd (R)\nvsource V1 a gnd 1\ntolerance runs=10", warnings: true,
+    expected: [
+      "t.onset:1:11: warning: parameter R is drawn once per sample and shared by 2 parts (R1, R2)",
+      "  param R = 15.8k±1%",
+      "            ^~~~~~~~",
+      "hint: one draw suits matched parts (a resistor network, a dual capacitor); for separate components write: param R = 15.8k±1% each",
+    ].join("\n"),
+  },
+  {
+    code: "each-without-tolerance",
+    source: "param R = 15.8k each\nresistor R1 a gnd (R)",
+    expected: [
+      "t.onset:1:17: error: parameter R is marked each but has no tolerance to draw",
+      "  param R = 15.8k each",
+      "                  ^~~~",
+      "hint: write a tolerance on the value, e.g. param R = 10k±1% each, or remove each",
     ].join("\n"),
   },
 ];

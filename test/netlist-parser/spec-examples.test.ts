@@ -3,8 +3,8 @@ import { elaborate, loadProgram, checkProgram, type Program } from "@onset/netli
 import type { Circuit } from "@onset/core";
 import { memoryResolver } from "./support/helpers.js";
 
-// Every example of /work/shared/circuit-language.md (the language spec), completed where the spec
-// shows only a fragment, must parse and elaborate.
+// Every example of the language's first specification (version 1, restated in docs/language.md),
+// completed where it shows only a fragment, must parse and elaborate.
 
 const amplifiers = `# shared op-amp settings
 preset quick opamp gbw=10M slew=15V/us rails=(-12, 12)
@@ -59,8 +59,8 @@ vsource   Vkick k gnd  wave=pulse low=0 high=10m width=10u
     expect(part(circuit, "U1").options).toMatchObject({ preset: "general", gain: 200e3, gbw: 1e6 });
     expect(part(circuit, "Vkick").options).toMatchObject({ wave: "pulse", low: 0, high: 10e-3, width: 10e-6, period: Infinity });
     expect(circuit.tolerances).toEqual([
-      { target: "Ra", nominal: 11e3, relative: 0.01, span: expect.anything() },
-      { target: "Cs", nominal: 2 * 33e-9, relative: 0.05, span: expect.anything() },
+      { target: "Ra", nominal: 11e3, relative: 0.01, unit: "Ω", span: expect.anything() },
+      { target: "Cs", nominal: 2 * 33e-9, relative: 0.05, unit: "F", span: expect.anything() },
     ]);
   });
 
@@ -182,9 +182,9 @@ vsource Vos a gnd 0±2mV
 capacitor C1 a gnd 10n+-5%
 `);
     expect(circuit.tolerances.map(({ span: _s, ...t }) => t)).toEqual([
-      { target: "R", nominal: 11e3, relative: 0.01 },
-      { target: "Vos", nominal: 0, absolute: 2e-3 },
-      { target: "C1", nominal: 10e-9, relative: 0.05 },
+      { target: "R", nominal: 11e3, relative: 0.01, unit: "Ω" },
+      { target: "Vos", nominal: 0, absolute: 2e-3, unit: "V" },
+      { target: "C1", nominal: 10e-9, relative: 0.05, unit: "F" },
     ]);
   });
 });

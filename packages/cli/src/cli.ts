@@ -1,4 +1,4 @@
-import { isOnsetError } from "@onset/core";
+import { didYouMean, isOnsetError } from "@onset/core";
 import { parseArgs, type ParsedArgs } from "./args.js";
 import { CliError, usageError } from "./cli-error.js";
 import { colorWanted, paint } from "./color.js";
@@ -8,8 +8,8 @@ import { errorDocument, exitOf, renderError } from "./commands/problems.js";
 import { COMMANDS, commandNamed, type CommandSpec } from "./commands/table.js";
 import { EXIT } from "./exit.js";
 import { processIo, type CliIo } from "./io.js";
+import { errnoReason, isSystemError } from "./output/write-error.js";
 import { Progress } from "./progress.js";
-import { closestName } from "./suggest.js";
 import { cliVersion } from "./version.js";
 
 function contextFor(io: CliIo, args: ParsedArgs | undefined): CommandContext {
@@ -26,6 +26,9 @@ function contextFor(io: CliIo, args: ParsedArgs | undefined): CommandContext {
     note: (text) => {
       if (!quiet) io.stderr(`${paintErr.dim(text)}\n`);
     },
+    warn: (place, message) => {
+      if (!quiet) io.stderr(`${paintErr.bold(place)}: ${paintErr.yellow("warning")}: ${message}\n`);
+    },
     sources: new Map(),
   };
 }
@@ -40,6 +43,10 @@ function fail(error: unknown, ctx: CommandContext, debug: boolean): number {
   } else if (isOnsetError(error)) {
     problem = new CliError([error.diagnostic]);
     exit = exitOf(problem);
+  } else if (isSystemError(error)) {
+    // The machine refused something (a file vanished, the disk filled up): not a bug in onset.
+    problem = usageError("system-error", `${error.syscall ?? "a system call"}${error.path ? ` '${error.path}'` : ""} failed: ${errnoReason(error)}`);
+    exit = EXIT.badInput;
   } else {
     const message = error instanceof Error ? error.message : String(error);
     problem = new CliError([
@@ -120,10 +127,9 @@ export async function runCli(argv: readonly string[], io: CliIo = processIo()): 
 }
 
 function unknownCommand(word: string): CliError {
-  const guess = closestName(word, [...COMMANDS.map((c) => c.name), "help"]);
   return usageError(
     "unknown-command",
-    `unknown command '${word}'${guess ? ` (did you mean '${guess}'?)` : ""}`,
+    `unknown command '${word}'${didYouMean(word, [...COMMANDS.map((c) => c.name), "help"])}`,
     `commands: ${COMMANDS.map((c) => c.name).join(", ")}, help`,
   );
 }

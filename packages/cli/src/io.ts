@@ -16,10 +16,21 @@ export interface CliIo {
   readonly progressStream?: NodeJS.WriteStream;
 }
 
-/** The process's own streams and environment. */
+/**
+ * The process's own streams and environment. When the program reading stdout goes away
+ * (`onset run … --csv - | head`), the rest of the output is dropped quietly, as a pipeline
+ * expects, instead of ending in an unhandled EPIPE.
+ */
 export function processIo(): CliIo {
+  let readerGone = false;
+  process.stdout.on("error", (error: NodeJS.ErrnoException) => {
+    if (error.code !== "EPIPE") throw error;
+    readerGone = true;
+  });
   return {
-    stdout: (text) => process.stdout.write(text),
+    stdout: (text) => {
+      if (!readerGone) process.stdout.write(text);
+    },
     stderr: (text) => process.stderr.write(text),
     readStdin: () => readFileSync(0, "utf8"),
     stdoutIsTerminal: process.stdout.isTTY === true,

@@ -34,6 +34,7 @@ export type {
   WordOption,
 } from "./circuit/schema.js";
 export { checkTopology, nodesOfPart } from "./circuit/topology.js";
+export { closestName, didYouMean, editDistance, suggestionScore } from "./circuit/suggest.js";
 
 // Devices
 export { builtinPresets, deviceModels, partKinds } from "./devices/registry.js";
@@ -75,7 +76,7 @@ export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/re
 export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";
 export { designOscillator, STARTUP_GROWTH, twinTCrossing } from "./design/oscillator.js";
-export type { DesignChoice, DesignRequest, DesignResult, Topology } from "./design/oscillator.js";
+export type { DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
 export type { SeriesName } from "./design/eseries.js";
 export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";
@@ -94,8 +95,8 @@ export { periodicSpectrum, thdOfPeriodicSamples } from "./metrics/spectrum.js";
 export type { Harmonic, PeriodicSpectrum } from "./metrics/spectrum.js";
 export { isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
 export type { AnalysisResult, CircuitRun, SimulatingAnalysis } from "./analyses/run.js";
-export { evaluateSpec, meets, metricValue, sampleCriteria } from "./spec/evaluate.js";
-export type { CriterionResult, SpecReport } from "./spec/evaluate.js";
+export { evaluateSpec, judgedValue, meets, metricValue, sampleCriteria } from "./spec/evaluate.js";
+export type { CriterionResult, JudgedMetrics, SpecReport } from "./spec/evaluate.js";
 
 // Studies: sweeps, tolerance Monte Carlo, design window
 export { drawSample } from "./study/draw.js";
@@ -103,7 +104,7 @@ export type { Distribution } from "./study/draw.js";
 export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
 export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
 export { summarizeSamples } from "./study/summary.js";
-export type { ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";
+export type { CriterionYield, ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";
 export { createSamplePool, defaultJobs } from "./study/pool.js";
 export type { SamplePool } from "./study/pool.js";
 export { runToleranceStudy, shardIndices } from "./study/tolerance.js";

@@ -1,5 +1,4 @@
-import type { UnitSymbol } from "@onset/core";
-import { closest } from "./suggest.js";
+import { closestName, type UnitSymbol } from "@onset/core";
 
 /** SI prefixes and their powers of ten; `u`, `µ` (micro sign) and `μ` (Greek mu) are micro. */
 export const SI_PREFIXES: Readonly<Record<string, number>> = {
@@ -131,7 +130,7 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
     }
   }
   spellingCache ??= allSpellings();
-  const near = closest(suffix, spellingCache);
+  const near = closestName(suffix, spellingCache);
   return {
     code: "bad-unit",
     message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,

@@ -3,7 +3,7 @@ import { Solver } from "odex";
 import { buildSystem, runTransient, TransientStepper, THERMAL_VOLTAGE } from "@onset/core";
 import { circuit, part, sampleAt } from "../../support/circuits.js";
 
-describe("LC tank at a fixed step (references §3: the trapezoidal rule on an undamped oscillator)", () => {
+describe("LC tank at a fixed step (docs/references.md §3: the trapezoidal rule on an undamped oscillator)", () => {
   const L = 1e-3;
   const C = 1e-6;
   const h = 10e-6;
@@ -58,7 +58,7 @@ describe("LC tank at a fixed step (references §3: the trapezoidal rule on an un
     const w = 1 / Math.sqrt(L * C);
     const expected = (2 / h) * Math.atan((w * h) / 2);
     expect(expected).toBeCloseTo(31363.137069, 5);
-    // Linear-interpolated crossings match f_num to 3.5e-7 at 20 samples per period (references §3).
+    // Linear-interpolated crossings match f_num to 3.5e-7 at 20 samples per period (docs/references.md §3).
     expect(Math.abs(omega / expected - 1)).toBeLessThan(1e-6);
   });
 });

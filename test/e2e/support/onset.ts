@@ -14,21 +14,27 @@ export interface Ran {
   readonly stderr: string;
 }
 
-/** Runs `node packages/cli/dist/main.js ...args` in `cwd`, with `input` on standard input. */
-export function onset(args: readonly string[], options: { cwd: string; input?: string; env?: Record<string, string> }): Promise<Ran> {
+/**
+ * Runs `node packages/cli/dist/main.js ...args` in `cwd`, with `input` on standard input. With
+ * `fd3`, the command also gets a pipe as descriptor 3 (what `/dev/fd/3` names inside it), and
+ * what it wrote there comes back as `fd3`.
+ */
+export function onset(args: readonly string[], options: { cwd: string; input?: string; env?: Record<string, string>; fd3?: boolean }): Promise<Ran & { fd3?: string }> {
   if (!existsSync(MAIN)) throw new Error(`${MAIN} is missing: build first (pnpm build), the e2e tests run the built command`);
   return new Promise((done, fail) => {
     const env: Record<string, string | undefined> = { ...process.env, ...options.env };
     delete env.NO_COLOR;
     delete env.FORCE_COLOR;
-    const child = spawn(process.execPath, [MAIN, ...args], { cwd: options.cwd, env, stdio: ["pipe", "pipe", "pipe"] });
+    const child = spawn(process.execPath, [MAIN, ...args], { cwd: options.cwd, env, stdio: options.fd3 ? ["pipe", "pipe", "pipe", "pipe"] : ["pipe", "pipe", "pipe"] });
     let stdout = "";
     let stderr = "";
-    child.stdout.setEncoding("utf8").on("data", (d: string) => (stdout += d));
-    child.stderr.setEncoding("utf8").on("data", (d: string) => (stderr += d));
+    let fd3 = "";
+    child.stdout!.setEncoding("utf8").on("data", (d: string) => (stdout += d));
+    child.stderr!.setEncoding("utf8").on("data", (d: string) => (stderr += d));
+    if (options.fd3) (child.stdio[3] as NodeJS.ReadableStream).setEncoding("utf8").on("data", (d: string) => (fd3 += d));
     child.on("error", fail);
-    child.on("close", (status) => done({ status, stdout, stderr }));
-    child.stdin.end(options.input ?? "");
+    child.on("close", (status) => done({ status, stdout, stderr, ...(options.fd3 ? { fd3 } : {}) }));
+    child.stdin!.end(options.input ?? "");
   });
 }
 

@@ -13,6 +13,8 @@ export interface CommandContext {
   readonly progress: Progress;
   /** A line for standard error, dropped under --quiet. */
   readonly note: (text: string) => void;
+  /** `place: warning: message` on standard error, dropped under --quiet. */
+  readonly warn: (place: string, message: string) => void;
   /** Source texts of the file being worked on, so errors raised later still show their line. */
   sources: ReadonlyMap<string, string>;
 }

@@ -1,11 +1,12 @@
-import { resolve } from "node:path";
-import { designOscillator, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
-import { parseQuantity } from "@onset/netlist-parser";
+import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
+import { elaborate, parseQuantity, parseText } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
-import { writeFileAtomic } from "../atomic.js";
 import { CliError, usageError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
+import { checkOutputs } from "../output/plan.js";
+import { writeOutput } from "../output/write.js";
 import type { CommandContext } from "./context.js";
+import { optionTarget } from "./output-options.js";
 
 /** The topologies `onset design` knows. */
 export const DESIGN_TOPOLOGIES: readonly Topology[] = ["wien", "twin-t", "phase-shift"];
@@ -17,20 +18,41 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
   return value;
 }
 
+/** Runs the start-up analysis of a designed file exactly as `onset run` would (nominal values). */
+function simulateDesign(text: string) {
+  const parsed = parseText(text, "design.onset");
+  const { circuit, diagnostics } = elaborate(parsed.program);
+  const analysis = circuit && startupAnalysisOf(circuit);
+  if (!analysis) throw new CliError([...parsed.diagnostics, ...diagnostics]);
+  return runStartup(circuit, analysis);
+}
+
+/** One line for standard error: what the designed file settles at, and what the poles predicted. */
+function designSummary(r: DesignResult): string {
+  const pct = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x * 100).toFixed(2)} %`;
+  const poles = `small-signal poles ${r.predicted.frequency.toFixed(2)} Hz (${pct(r.error)})`;
+  const sim = r.simulated;
+  if (!sim || sim.frequency === null || sim.error === null) return `design: simulated start-up ${sim?.verdict ?? "not run"}; ${poles}`;
+  return `design: simulated start-up settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target); ${poles}`;
+}
+
 /**
  * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T]`:
- * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`.
+ * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`
+ * (checked before the design work; `-` is stdout).
  */
 export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
   const topology = args.positionals[0]!;
+  const output = optionTarget(ctx, args, "output");
+  checkOutputs([output], ctx.json);
   if (!(DESIGN_TOPOLOGIES as readonly string[]).includes(topology)) {
-    throw usageError("bad-topology", `design: unknown topology '${topology}'`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
+    throw usageError("bad-topology", `design: unknown topology '${topology}'${didYouMean(topology, DESIGN_TOPOLOGIES)}`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
   }
   const freq = valueOf(args, "freq");
   if (freq === undefined) throw usageError("missing-option", "design needs --freq", "write for example: onset design wien --freq 1k");
   const cap = valueOf(args, "cap");
   const series = valueOf(args, "series");
-  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'`, "choose E12, E24 or E96");
+  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'${didYouMean(series, ["E12", "E24", "E96"])}`, "choose E12, E24 or E96");
   const preset = valueOf(args, "preset");
   const startup = valueOf(args, "startup");
   const request: DesignRequest = {
@@ -41,13 +63,13 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(preset === undefined ? {} : { preset }),
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
   };
-  const result = designOscillator(request);
-  const output = valueOf(args, "output");
-  if (output !== undefined) {
-    writeFileAtomic(resolve(ctx.io.cwd, output), result.text);
-    ctx.note(`wrote ${output}`);
+  const result = designOscillator(request, { simulate: simulateDesign });
+  ctx.note(designSummary(result));
+  if (output !== null) {
+    writeOutput(output, result.text, ctx.io.stdout);
+    if (output.kind !== "stdout") ctx.note(`wrote ${output.shown}`);
   }
   if (ctx.json) ctx.io.stdout(`${JSON.stringify({ ...result, exit: EXIT.ok }, null, 2)}\n`);
-  else if (output === undefined) ctx.io.stdout(result.text);
+  else if (output === null) ctx.io.stdout(result.text);
   return EXIT.ok;
 }

@@ -1,8 +1,10 @@
-import { resolve } from "node:path";
 import { checkTopology, drawSample, isSimulating, runCircuit, runSweep, sweepValues, type Circuit, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
-import { valueOf, type ParsedArgs } from "../args.js";
+import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
-import { elaborateSource, loadSource, type LoadedSource } from "../input/source.js";
+import { elaborateSource, loadSource, STDIN_NAME, type LoadedSource } from "../input/source.js";
+import { documentCounts } from "../output/files.js";
+import { checkOutputs, documentTargets, refuseInputs } from "../output/plan.js";
+import { outputTarget } from "../output/target.js";
 import type { Outcome, ReportSubject } from "../output/outcome.js";
 import { specChecks } from "../report/spec.js";
 import { defaultResultsPath, drawnTolerances, runStudy } from "../study/run-study.js";
@@ -10,6 +12,7 @@ import { sweepReport } from "../study/sweep-report.js";
 import { targetInfo } from "../study/target.js";
 import type { CommandContext } from "./context.js";
 import { emitOutcome } from "./emit.js";
+import { optionTarget } from "./output-options.js";
 import { renderWarnings } from "./problems.js";
 import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
 
@@ -56,10 +59,16 @@ function refuseStudyOptions(ctx: CommandContext, given: readonly string[], hasTo
   if (given.includes("results")) ctx.note("--results: this file has no tolerance study, so no results file is written");
 }
 
+/** The files a run reads (the circuit and its includes), which no output may overwrite. */
+function inputFiles(source: LoadedSource): string[] {
+  return [...source.sources.keys()].filter((f) => f !== STDIN_NAME);
+}
+
 /**
  * `onset run FILE`: every analysis of the file and its spec. A `tolerance` analysis makes it a
  * Monte Carlo study, a `sweep` a sweep, both a design window; `--nominal` runs the file's
- * plain analyses once instead, `--sample I` reruns one sample of the study.
+ * plain analyses once instead, `--sample I` reruns one sample of the study. Every output is
+ * checked before the simulation starts (see `outputTarget`), so a bad path costs no time.
  */
 export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise<number> {
   const path = args.positionals[0]!;
@@ -67,6 +76,9 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
   const jobs = jobsOf(args);
   const shard = shardOf(args, ctx.io.env);
   const sample = sampleOf(args);
+  const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg") };
+  const givenResults = optionTarget(ctx, args, "results");
+  checkOutputs([outputs.csv, outputs.svg, givenResults], ctx.json);
   const source = loadSource(path, ctx.io);
   ctx.sources = source.sources;
   renderWarnings(ctx, source.warnings);
@@ -80,16 +92,23 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   const sweeps = circuit.analyses.filter((a): a is SweepAnalysis => a.kind === "sweep");
   const studyOnly = ["shard", "resume", "results"].filter((o) => args.values.has(o) || args.flags.has(o));
+  const plain = sample !== undefined || args.flags.has("nominal") || (!tolerance && sweeps.length === 0);
+  if (plain && sample === undefined) refuseStudyOptions(ctx, studyOnly, tolerance !== undefined);
+  const study = !plain && tolerance !== undefined;
+  const defaultResults = defaultResultsPath(source.file, shard);
+  const results = !study ? null : (givenResults ?? (defaultResults === null ? null : outputTarget(defaultResults, ctx.io.cwd, "the results file")));
+  // The checks that need the file: how many documents each output gets, and no input overwritten.
+  const counts = documentCounts(plain ? circuit.analyses.filter(isSimulating).map((a) => a.kind) : null);
+  if (outputs.csv) documentTargets(outputs.csv, counts.csv, ctx.io.cwd, "CSV tables");
+  if (outputs.svg) documentTargets(outputs.svg, counts.svg, ctx.io.cwd, "plots");
+  checkOutputs([outputs.csv, outputs.svg, results], ctx.json);
+  refuseInputs([outputs.csv, outputs.svg, results], inputFiles(source), ctx.io.cwd);
   let outcome: Outcome;
   if (sample !== undefined) outcome = sampleRerun(ctx, source, sets, circuit, sample);
-  else if (args.flags.has("nominal") || (!tolerance && sweeps.length === 0)) {
-    refuseStudyOptions(ctx, studyOnly, tolerance !== undefined);
-    outcome = plainOutcome(ctx, circuit);
-  } else {
+  else if (plain) outcome = plainOutcome(ctx, circuit);
+  else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {
-      const given = valueOf(args, "results");
-      const resultsPath = given ?? defaultResultsPath(source.file, shard);
       const report = await runStudy({
         source,
         overrides: sets,
@@ -99,17 +118,18 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
         jobs,
         shard,
         resume: args.flags.has("resume"),
-        resultsPath: resultsPath === null ? null : resolve(ctx.io.cwd, resultsPath),
-        ...(resultsPath === null ? {} : { resultsName: resultsPath }),
+        results,
+        stdout: ctx.io.stdout,
         progress: ctx.progress,
         note: ctx.note,
+        warn: ctx.warn,
       });
       outcome = { kind: "study", report };
-      if (resultsPath !== null) ctx.note(`samples in ${resultsPath}`);
+      if (results !== null && results.kind !== "stdout") ctx.note(`samples in ${results.shown}`);
     } else {
       refuseStudyOptions(ctx, studyOnly, false);
       outcome = sweepOutcome(ctx, source, sets, circuit, sweeps[0]!);
     }
   }
-  return emitOutcome(ctx, args, subject, outcome);
+  return emitOutcome(ctx, { ...outputs, results }, subject, outcome);
 }

@@ -26,8 +26,17 @@ const common: OptionSpec[] = [
 
 const json: OptionSpec = { name: "json", summary: "print exactly one JSON document on stdout (errors too)" };
 const set: OptionSpec = { name: "set", value: "NAME=VALUE", repeat: true, summary: "override a parameter, part value or part option (repeatable)" };
-const csv: OptionSpec = { name: "csv", value: "FILE", summary: "write the data as CSV (several analyses: FILE, FILE-2, …)" };
-const svg: OptionSpec = { name: "svg", value: "FILE", summary: "write a plot as SVG (several analyses: FILE, FILE-2, …)" };
+const csv: OptionSpec = { name: "csv", value: "FILE", summary: "write the data as CSV (several analyses: FILE, FILE-2, …; - for stdout)" };
+const svg: OptionSpec = { name: "svg", value: "FILE", summary: "write a plot as SVG (several analyses: FILE, FILE-2, …; - for stdout)" };
+
+/** How every command writes its outputs (help text shared by the commands that write). */
+const OUTPUTS: readonly string[] = [
+  "Outputs: - is standard output (the text report then goes to stderr; --json cannot share it).",
+  "A regular file is replaced atomically; through a symlink, the real file is (the link stays).",
+  "A pipe, a FIFO, a terminal or /dev/fd/N is written directly, never replaced; it takes one",
+  "document, so a run with several analyses needs a file name there. Every output path is",
+  "checked before any work starts: a missing folder or a folder given as FILE is exit status 2.",
+];
 
 /** Every command, in the order help lists them. */
 export const COMMANDS: readonly CommandSpec[] = [
@@ -39,10 +48,13 @@ export const COMMANDS: readonly CommandSpec[] = [
       "FILE may be - to read the circuit from standard input.",
       "A file with a tolerance analysis runs the Monte Carlo study, with a sweep the sweep and its",
       "start threshold, with both the design window (yield at each setting). Study samples are",
-      "appended to a results file as they finish (by default NAME.results.jsonl beside FILE).",
+      "appended to a results file as they finish (by default NAME.results.jsonl beside FILE);",
+      "--resume keeps its whole samples and reruns the rest, a cut-off last line included.",
       "",
-      "Exit status: 0 done and every spec met, 1 a spec not met, 2 bad input or usage,",
-      "3 the simulation failed.",
+      ...OUTPUTS,
+      "",
+      "Exit status: 0 done and every spec met, 1 a spec not met, 2 bad input, usage or an",
+      "output that cannot be written, 3 the simulation failed.",
     ],
     options: [
       json,
@@ -51,7 +63,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       set,
       { name: "jobs", value: "N", summary: "worker threads for a tolerance study (default: the number of cores)" },
       { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
-      { name: "results", value: "FILE", summary: "the study's results file (JSON Lines)" },
+      { name: "results", value: "FILE", summary: "the study's results file (JSON Lines; a pipe or - streams it)" },
       { name: "resume", summary: "continue the study in the results file, running only missing samples" },
       { name: "sample", value: "I", summary: "rerun sample I of the tolerance study alone, with full reports and plots" },
       { name: "nominal", summary: "run the file's analyses once, without its sweep or tolerance study" },
@@ -73,7 +85,10 @@ export const COMMANDS: readonly CommandSpec[] = [
     name: "format",
     usage: "onset format FILE [--write]",
     summary: "print FILE in the canonical layout",
-    details: ["Aligns part columns, one blank line between sections, comments kept."],
+    details: [
+      "Aligns part columns, one blank line between sections, comments kept.",
+      "With --write FILE is replaced atomically; a symlink's real file is, and the link stays.",
+    ],
     options: [{ name: "write", short: "w", summary: "replace FILE with the canonical layout (atomically)" }, ...common],
     positionals: { min: 1, max: 1, name: "FILE" },
     action: formatCommand,
@@ -85,8 +100,11 @@ export const COMMANDS: readonly CommandSpec[] = [
     details: [
       "Resistors snap to the chosen IEC 60063 series (default E24) at the nearest value in the log sense:",
       "between neighbours a < b the boundary is √(ab). Without --cap the capacitor comes from the E6 values.",
-      "The gain network is sized on the poles of the snapped circuit so that it starts within --startup.",
-      "The file is printed on stdout unless --output is given.",
+      "The gain network is sized on the poles of the snapped circuit so that it starts within --startup;",
+      "then the file's start-up is simulated, and its header (and a note on stderr) gives the frequency it",
+      "settles at beside the poles' prediction. The file is printed on stdout unless --output is given.",
+      "",
+      ...OUTPUTS,
     ],
     options: [
       { name: "freq", value: "F", summary: "the oscillation frequency, e.g. 1k or 440Hz" },
@@ -105,7 +123,13 @@ export const COMMANDS: readonly CommandSpec[] = [
     name: "merge",
     usage: "onset merge RESULTS... [options]",
     summary: "combine results files of a sharded or resumed study into one report",
-    details: ["The report is the one a single run of the whole study prints, byte for byte."],
+    details: [
+      "The report is the one a single run of the whole study prints, byte for byte. A file whose",
+      "last line was cut off (an interrupted run) is merged without it, with a warning (file:line);",
+      "the merge still needs every sample of the study.",
+      "",
+      ...OUTPUTS,
+    ],
     options: [json, csv, svg, { name: "results", value: "FILE", summary: "also write the merged results file" }, ...common],
     positionals: { min: 1, max: Infinity, name: "RESULTS" },
     action: mergeCommand,

@@ -1,14 +1,14 @@
-import { resolve } from "node:path";
-import { writeFileAtomic } from "../atomic.js";
 import { resultCsv } from "../csv/plain.js";
 import { studyCsv } from "../csv/study.js";
 import { sweepCsv } from "../csv/sweep.js";
-import { numberedPath } from "../output-files.js";
 import { renderFigure, type Figure } from "../plot/index.js";
-import { resultFigure } from "../svg/plain.js";
+import { hasFigure, resultFigure } from "../svg/plain.js";
 import { studyFigure } from "../svg/study.js";
 import { sweepSvgFigure } from "../svg/sweep.js";
 import type { Outcome } from "./outcome.js";
+import { documentTargets } from "./plan.js";
+import { isStream, type OutputTarget } from "./target.js";
+import { writeOutput, type StdoutWriter } from "./write.js";
 
 /** The CSV documents of an outcome, in file order (analyses without one are skipped). */
 export function outcomeCsvs(outcome: Outcome): string[] {
@@ -23,6 +23,15 @@ export function outcomeCsvs(outcome: Outcome): string[] {
     case "sweep":
       return [sweepCsv(outcome.report)];
   }
+}
+
+/**
+ * How many CSV and SVG documents an outcome makes, known before simulating: one each for a
+ * study or a sweep; for plain runs a CSV per analysis and a plot per analysis that has one.
+ */
+export function documentCounts(plainKinds: readonly string[] | null): { csv: number; svg: number } {
+  if (plainKinds === null) return { csv: 1, svg: 1 };
+  return { csv: plainKinds.length, svg: plainKinds.filter(hasFigure).length };
 }
 
 /** The figures of an outcome, in file order (bias and poles have none). */
@@ -41,15 +50,15 @@ export function outcomeFigures(outcome: Outcome, title: string): Figure[] {
 }
 
 /**
- * Writes the documents to `path`, `path-2`, `path-3`, … (see `numberedPath`), each replaced
- * atomically; returns the names written.
+ * Writes the documents of one option to its target: a file name takes them as `FILE`,
+ * `FILE-2`, … (see `documentTargets`), a stream takes the one document. Returns the targets
+ * written. A stream is written even with no document, so a reader waiting on it sees its end.
  */
-export function writeNumbered(path: string, cwd: string, documents: readonly string[]): string[] {
-  return documents.map((text, k) => {
-    const name = numberedPath(path, k);
-    writeFileAtomic(resolve(cwd, name), text);
-    return name;
-  });
+export function writeDocuments(target: OutputTarget, documents: readonly string[], cwd: string, what: string, stdout: StdoutWriter): OutputTarget[] {
+  const targets = documentTargets(target, documents.length, cwd, what);
+  if (isStream(target) && documents.length === 0) writeOutput(target, "", stdout);
+  targets.forEach((t, k) => writeOutput(t, documents[k]!, stdout));
+  return targets;
 }
 
 export function svgDocuments(outcome: Outcome, title: string): string[] {

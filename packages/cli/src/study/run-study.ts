@@ -12,11 +12,13 @@ import {
 } from "@onset/core";
 import { usageError } from "../cli-error.js";
 import { elaborateSource, STDIN_NAME, type LoadedSource } from "../input/source.js";
+import type { OutputTarget } from "../output/target.js";
+import type { StdoutWriter } from "../output/write.js";
 import type { Progress } from "../progress.js";
 import { headerDifferences, sampleKey, throughJson, type StoredSample, type StudyHeader } from "./header.js";
-import { readResults, ResultsWriter, resultsExist } from "./results-file.js";
+import { cutSample, readResults, ResultsWriter } from "./results-file.js";
 import { requiredYield, studyReport, type StudyReport } from "./study-report.js";
-import { targetInfo } from "./target.js";
+import { shownUnit, targetInfo } from "./target.js";
 
 /** Everything a tolerance study (or design window) run needs. */
 export interface StudySettings {
@@ -30,13 +32,15 @@ export interface StudySettings {
   readonly jobs: number;
   readonly shard: Shard | null;
   readonly resume: boolean;
-  /** Where samples are appended; null writes none. */
-  readonly resultsPath: string | null;
-  /** The results file as the user named it, for messages. */
-  readonly resultsName?: string;
+  /** Where samples are appended (classified and checked before the study); null writes none. */
+  readonly results: OutputTarget | null;
+  /** Where a results target of `-` goes. */
+  readonly stdout: StdoutWriter;
   readonly progress: Progress;
   /** A note for standard error (dropped under --quiet). */
   readonly note: (text: string) => void;
+  /** A warning for standard error at a place (`file:line`): something was wrong and is dealt with. */
+  readonly warn: (place: string, message: string) => void;
 }
 
 /**
@@ -79,9 +83,9 @@ export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "cir
     seed: s.tolerance.seed,
     dist: s.tolerance.dist,
     shard: s.shard ? { index: s.shard.index, count: s.shard.count } : null,
-    tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, ...t }) => ({
+    tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, unit, ...t }) => ({
       target,
-      unit: targetInfo(s.circuit, s.source.program, target, s.overrides).unit,
+      unit: unit === undefined ? targetInfo(s.circuit, s.source.program, target, s.overrides).unit : shownUnit(unit),
       ...t,
     })),
     criteria,
@@ -89,23 +93,29 @@ export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "cir
   });
 }
 
-/** Samples kept from an earlier, interrupted run of the same study (`--resume`). */
-function resumed(s: StudySettings, header: StudyHeader, path: string): StoredSample[] {
-  const name = s.resultsName ?? path;
-  if (!resultsExist(path)) {
-    s.note(`no results file ${name} yet: starting the study`);
+/**
+ * Samples kept from an earlier, interrupted run of the same study (`--resume`). A cut-off last
+ * line is named (file:line) and its sample is not kept, so it runs again.
+ */
+function resumed(s: StudySettings, header: StudyHeader, target: OutputTarget): StoredSample[] {
+  if (target.kind !== "file") {
+    throw usageError("bad-option", `--resume reads the results file back, but ${target.label} ${target.shown} is not a file`, "give --results the file of the interrupted run");
+  }
+  if (target.existing === null) {
+    s.note(`no results file ${target.shown} yet: starting the study`);
     return [];
   }
-  const content = readResults(path, name);
+  const content = readResults(target.path, target.shown);
   const differences = headerDifferences(content.header, header);
   if (differences.length > 0) {
     throw usageError(
       "results-mismatch",
-      `cannot resume from ${name}: it holds a different study (${differences.join(", ")} differ)`,
+      `cannot resume from ${target.shown}: it holds a different study (${differences.join(", ")} differ)`,
       "run without --resume to start afresh, or give the same file, --set values and --shard as before",
     );
   }
-  if (content.truncated) s.note(`${name}: the last line was cut off (interrupted run); that sample runs again`);
+  const cut = content.truncated;
+  if (cut) s.warn(`${target.shown}:${cut.line}`, `the last line was cut off (an interrupted run): ${cutSample(cut)} is not counted as done and runs again`);
   const seen = new Set<string>();
   return content.samples.filter((sample) => {
     const key = sampleKey(sample);
@@ -121,9 +131,9 @@ function resumed(s: StudySettings, header: StudyHeader, path: string): StoredSam
  */
 export async function runStudy(s: StudySettings): Promise<StudyReport> {
   const header = studyHeader(s);
-  if (s.resume && !s.resultsPath) throw usageError("no-results-file", "--resume needs a results file", "give --results FILE (standard input has no default results file)");
-  const kept = s.resultsPath && s.resume ? resumed(s, header, s.resultsPath) : [];
-  const writer = s.resultsPath ? new ResultsWriter(s.resultsPath) : null;
+  if (s.resume && !s.results) throw usageError("no-results-file", "--resume needs a results file", "give --results FILE (standard input has no default results file)");
+  const kept = s.results && s.resume ? resumed(s, header, s.results) : [];
+  const writer = s.results ? new ResultsWriter(s.results, s.stdout) : null;
   writer?.start(header, kept);
   const samples: StoredSample[] = [...kept];
   const settings = header.sweep ? header.sweep.values : [null];

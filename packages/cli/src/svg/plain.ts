@@ -2,6 +2,11 @@ import type { Figure } from "../plot/index.js";
 import { responseFigure, startupFigure, transientFigure } from "../plot/index.js";
 import type { AnalysisRun } from "../report/plain-types.js";
 
+/** True when an analysis of this kind has a figure; bias and poles are tables (see `resultFigure`). */
+export function hasFigure(kind: string): boolean {
+  return kind !== "bias" && kind !== "poles";
+}
+
 /**
  * The figure of one analysis, or null when it has none (bias and poles are tables):
  * transient → probes against time; start-up → waveform with its envelope, start-up and

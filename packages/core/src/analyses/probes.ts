@@ -2,6 +2,7 @@ import type { Probe } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
 import type { QuantityUnit } from "../solver/quantities.js";
+import { didYouMean } from "../circuit/suggest.js";
 import type { MnaSystem } from "../solver/system.js";
 
 /** Reads a probe's value from the unknowns `x`, their rates `dxdt`, at time `t`. */
@@ -11,7 +12,7 @@ function nodeReader(system: MnaSystem, node: string, probe: Probe): (x: Float64A
   if (node === GROUND) return () => 0;
   const i = system.stateIndex.get(node);
   if (i === undefined) {
-    throw inputError("unknown-node", `probe '${probeName(probe)}' names unknown node '${node}'`);
+    throw inputError("unknown-node", `probe '${probeName(probe)}' names unknown node '${node}'${didYouMean(node, system.nodeIndex.keys())}`);
   }
   return (x) => x[i]!;
 }
@@ -52,7 +53,8 @@ export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
     case "current": {
       const device = system.deviceByName.get(probe.part);
       if (!device?.current) {
-        throw inputError("unknown-part", `probe '${probeName(probe)}': no part '${probe.part}' with a current`);
+        const withCurrent = [...system.deviceByName].flatMap(([name, d]) => (d.current ? [name] : []));
+        throw inputError("unknown-part", `probe '${probeName(probe)}': no part '${probe.part}' with a current${didYouMean(probe.part, withCurrent)}`);
       }
       const current = device.current.bind(device);
       return (x, dxdt, t) => current(x, dxdt, t);

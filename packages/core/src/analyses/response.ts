@@ -2,6 +2,7 @@ import type { Circuit, Probe, ResponseAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError, simulationError } from "../circuit/diagnostic.js";
 import type { QuantityUnit } from "../solver/quantities.js";
+import { didYouMean } from "../circuit/suggest.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
@@ -52,7 +53,8 @@ function excitation(system: MnaSystem, from: string): Float64Array {
   const b = new Float64Array(system.n);
   const device = system.deviceByName.get(from);
   if (!device || (device.part.kind !== "vsource" && device.part.kind !== "isource")) {
-    throw inputError("bad-response-source", `response from='${from}' must name a vsource or isource`, {
+    const sources = [...system.deviceByName.values()].flatMap((d) => (d.part.kind === "vsource" || d.part.kind === "isource" ? [d.part.name] : []));
+    throw inputError("bad-response-source", `response from='${from}' must name a vsource or isource${device ? "" : didYouMean(from, sources)}`, {
       hint: "the response is of the probe to a unit small signal at that source",
     });
   }
@@ -72,7 +74,7 @@ function probeWeights(system: MnaSystem, probe: Probe): Float64Array {
   const add = (node: string, sign: number) => {
     if (node === GROUND) return;
     const i = system.stateIndex.get(node);
-    if (i === undefined) throw inputError("unknown-node", `response to='${probeName(probe)}' names unknown node '${node}'`);
+    if (i === undefined) throw inputError("unknown-node", `response to='${probeName(probe)}' names unknown node '${node}'${didYouMean(node, system.nodeIndex.keys())}`);
     w[i] += sign;
   };
   if (probe.kind === "state") w[stateIndexOf(system, probe)] = 1;

@@ -99,7 +99,8 @@ function stepFactor(ratio: number, order: 1 | 2): number {
  * and the first after each breakpoint (source corners are landed on exactly), is taken by
  * backward Euler as one step of h and two of h/2, whose difference checks it; the two halves are
  * kept. Every unknown some charge depends on is under local-truncation-error control, judged
- * against reltol·(its running peak) + abstol, and h_new = h·clamp(0.9·(tol/LTE)^(1/3), 0.2, 2).
+ * against reltol·(its running peak) + abstol, and h_new = h·clamp(0.9·(tol/LTE)^(1/3), 0.2, 2)
+ * (Hairer, Nørsett & Wanner, *Solving ODEs I*, §II.4; docs/references.md §7).
  * It advances on request, so an analysis can run in stages (`advance(t1)`, then `advance(t2)`).
  */
 export class TransientStepper {

@@ -1,4 +1,5 @@
 import type { SourceSpan } from "./diagnostic.js";
+import type { UnitSymbol } from "./schema.js";
 
 /** The reserved ground node. */
 export const GROUND = "gnd";
@@ -163,6 +164,8 @@ export interface ToleranceSpec {
   readonly nominal: number;
   readonly relative?: number;
   readonly absolute?: number;
+  /** Unit of the drawn values, for reports; absent when it cannot be told (a parameter used only inside expressions). */
+  readonly unit?: UnitSymbol;
   readonly span?: SourceSpan;
 }
 

@@ -43,7 +43,15 @@ export interface NumberPairOption extends OptionBase {
 /** Two node names in parentheses, e.g. `supply=(vee, vcc)`; resolved like pins. */
 export interface NodePairOption extends OptionBase {
   readonly type: "node-pair";
+  /**
+   * What the nodes need when nothing else sets their voltage, for the hint of a floating node.
+   * @defaultValue {@link SENSED_NODE_NEEDS}: the part senses these nodes and draws no current.
+   */
+  readonly needs?: string;
 }
+
+/** What a node only sensed by a part (a node option such as `supply=`) needs by default. */
+export const SENSED_NODE_NEEDS = "a voltage source to gnd";
 
 /** `[t0 v0, t1 v1, ...]`: pairs of numbers with the given units. */
 export interface PointsOption extends OptionBase {
@@ -82,6 +90,11 @@ export interface PartKindSchema {
   readonly summary: string;
   /** Pin names in the order they are written. */
   readonly pins: readonly string[];
+  /**
+   * What a node reached only through a pin needs so that its DC voltage is defined, by pin name,
+   * where that is more than the usual DC path to gnd (for the hint of a floating node).
+   */
+  readonly pinNeeds?: Readonly<Record<string, string>>;
   /** The positional value after the pins, or `null` when the kind takes none. */
   readonly value: ValueSchema | null;
   readonly options: Readonly<Record<string, OptionSchema>>;

@@ -19,7 +19,7 @@ export const diodeSchema: PartKindSchema = {
   },
 };
 
-/** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (references §7: 25.8649 mV). */
+/** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (docs/references.md §7: 25.8649 mV). */
 export const THERMAL_VOLTAGE = (1.380649e-23 * 300.15) / 1.602176634e-19;
 /** A conductance across every junction so a reverse-biased diode never leaves a node floating. */
 export const JUNCTION_LEAK = 1e-12;
@@ -65,7 +65,7 @@ export function junctionCharge(v: number, cj0: number, out: JunctionState): void
 }
 
 /**
- * Junction-voltage limiting after the 1970s circuit-analysis practice (references §7): past the
+ * Junction-voltage limiting after the 1970s circuit-analysis practice (docs/references.md §7): past the
  * critical voltage a large Newton step is replaced by a logarithmic one.
  */
 export function limitJunctionVoltage(vOld: number, vNew: number, nvt: number, vcrit: number): number {

@@ -1,6 +1,7 @@
 import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
+import { didYouMean } from "../circuit/suggest.js";
 import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownRole as UnknownRoleOfPart } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
@@ -123,7 +124,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
   for (const part of parts) {
     const model = deviceModels[part.kind];
     if (!model) {
-      throw inputError("unknown-kind", `unknown part kind '${part.kind}' (${part.name})`, { span: part.span });
+      throw inputError("unknown-kind", `unknown part kind '${part.kind}' (${part.name})${didYouMean(part.kind, Object.keys(deviceModels))}`, { span: part.span });
     }
     try {
       model.validate?.(part);
@@ -131,7 +132,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
         node(name) {
           if (name === GROUND) return -1;
           const i = nodeIndex.get(name);
-          if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'`, { span: part.span });
+          if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'${didYouMean(name, nodeIndex.keys())}`, { span: part.span });
           return i;
         },
         addUnknown(label, quantity, options) {

@@ -3,7 +3,7 @@ import { isOnsetError } from "../circuit/diagnostic.js";
 import { runStartup } from "../analyses/startup.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
-import { meets, metricValue } from "../spec/evaluate.js";
+import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 
 /** The metrics kept for every Monte Carlo sample (SI units). */
 export interface SampleMetrics {
@@ -78,9 +78,8 @@ export function runSample(circuit: Circuit, settings: SampleSettings): SampleOut
       predictedFrequency,
       predictedGrowthRate,
     };
-    const failures = settings.criteria
-      .filter((c) => c.metric !== "yield")
-      .filter((c) => !meets(c, r.verdict === "settled" || c.metric === "frequency" ? metricValue(r, c.metric) : null))
+    const failures = sampleCriteria(settings.criteria)
+      .filter((c) => !meets(c, judgedValue(r, c)))
       .map((c) => c.text);
     return { metrics, pass: failures.length === 0 && r.verdict === "settled", failures: r.verdict === "settled" ? failures : [`verdict ${r.verdict}`, ...failures] };
   } catch (error) {

@@ -21,6 +21,19 @@ export function shardIndices(runs: number, shard: Shard | undefined): number[] {
   return Array.from({ length: to - from }, (_, k) => from + k);
 }
 
+/**
+ * The tolerances with their nominals at a setting (a sweep value): a part written `(R)±1%`, or a
+ * per-use draw of `R`, is drawn around the swept R, not around the file's. The same values
+ * `onset run --sample I --set R=…` draws around, so a sample reproduces.
+ */
+export function nominalsAt(build: CircuitBuilder, tolerances: readonly ToleranceSpec[], fixed: Readonly<Record<string, number>>): ToleranceSpec[] {
+  const at = new Map(build(fixed).tolerances.map((t) => [t.target, t.nominal]));
+  return tolerances.map((t) => {
+    const nominal = at.get(t.target);
+    return nominal === undefined || nominal === t.nominal ? t : { ...t, nominal };
+  });
+}
+
 export interface ToleranceStudyOptions {
   /** Worker threads; default the number of cores. */
   readonly jobs?: number;
@@ -51,6 +64,7 @@ export async function runToleranceStudy(
     throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
   }
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
+  const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
   const pool = createSamplePool(Math.min(options.jobs ?? defaultJobs(), Math.max(1, indices.length)), { criteria, tolerances: options.tolerances });
   const samples: ToleranceSample[] = [];
   let next = 0;
@@ -59,7 +73,7 @@ export async function runToleranceStudy(
   const lane = async () => {
     while (next < indices.length) {
       const index = indices[next++]!;
-      const drawn = drawSample(tolerances, analysis.seed, index, analysis.dist);
+      const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
       const outcome = await pool.run(circuit);
       const sample: ToleranceSample = { index, drawn, ...outcome };

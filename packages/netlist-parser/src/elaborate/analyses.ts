@@ -1,6 +1,5 @@
-import type { AnalysisSpec, Probe, SourceSpan, SpecCriterion, SpecMetric, UnitSymbol } from "@onset/core";
+import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type UnitSymbol } from "@onset/core";
 import { raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { checkRange, type NumberExpectation, type RangeRule } from "./value-checks.js";
@@ -242,7 +241,8 @@ function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, 
   if (log && !(from! > 0 && to! > 0)) raise("out-of-range", "a log sweep needs from= and to= above 0", spanIn(l, o.given.get(from! > 0 ? "to" : "from")!.value.span), { hint: "remove log, or sweep positive values" });
   for (const key of ["from", "to"] as const) {
     const v = o.num[key]!;
-    if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span));
+    const hint = info.summary === undefined ? undefined : `${target.name} is the ${info.summary}`;
+    if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span), hint);
   }
   return {
     kind: "sweep",

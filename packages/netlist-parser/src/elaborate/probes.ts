@@ -1,7 +1,6 @@
-import { GROUND, partKinds, type Probe, type SourceSpan } from "@onset/core";
+import { didYouMean, GROUND, partKinds, type Probe, type SourceSpan } from "@onset/core";
 import { raise } from "../errors.js";
 import { soleLiteral, soleName } from "../evaluate.js";
-import { didYouMean } from "../suggest.js";
 import type { Expr, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { spanIn, type Located } from "./index-program.js";
