@@ -3,6 +3,7 @@ import { NewtonSolver, type NewtonOutcome, type NewtonState } from "../solver/ne
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { solveBias, type BiasPoint } from "./bias.js";
+import { IntegrationState, type IntegrationMemory } from "./integration-state.js";
 import { StepHistory, type StepHistoryState } from "./step-history.js";
 import { doublingRatio, secondOrderRatio, type ErrorScale } from "./truncation-error.js";
 
@@ -32,13 +33,9 @@ interface PendingHalf {
 }
 
 interface Continuation {
-  readonly dxdt: Float64Array;
-  readonly q: Float64Array;
-  readonly qdot: Float64Array;
-  readonly qPrevious: Float64Array;
+  readonly memory: IntegrationMemory;
   readonly peak: Float64Array;
   readonly h: number;
-  readonly lastStep: number;
   readonly segment: readonly [start: number, step: number, count: number];
   readonly firstOrderNext: boolean;
   readonly nextBreak: number;
@@ -118,8 +115,8 @@ export class TransientStepper {
   private readonly maxStep: number;
   /** The step the next attempt starts from. */
   private h: number;
-  /** Length of the last accepted step (the BDF2 rows' previous step). */
-  private lastStep = 0;
+  /** Unknowns, charges and their rates at the current point. */
+  private readonly state: IntegrationState;
   /** Time points of a run of equal steps are segmentStart + k·segmentStep, so they do not drift. */
   private segmentStart = 0;
   private segmentStep = 0;
@@ -127,20 +124,8 @@ export class TransientStepper {
   /** The next step is the checked first-order start (the first, and the first after a breakpoint). */
   private firstOrderNext = true;
   private pending: PendingHalf | undefined;
-  private readonly q: Float64Array;
-  private readonly qdot: Float64Array;
-  /** The charges one accepted step before `q` (the BDF2 rows' second history point). */
-  private readonly qPrevious: Float64Array;
   private readonly xNew: Float64Array;
   private readonly peak: Float64Array;
-  /** C by compressed rows (the triplets are in row order), for q = C·x. */
-  private readonly chargeRowStart: Int32Array;
-  private readonly chargeCols: Int32Array;
-  private readonly chargeValues: Float64Array;
-  /** 1 on rows integrated by the trapezoidal rule between breakpoints, 0 on BDF2 rows. */
-  private readonly trapezoidalRows: Float64Array;
-  private readonly stiffRows: Uint8Array;
-  private readonly stiffRowIndex: Int32Array;
   private readonly scale: ErrorScale;
   private readonly history: StepHistory;
   // Scratch of the checked first step: the whole step, the first half and its charges.
@@ -160,26 +145,15 @@ export class TransientStepper {
     if (!(settings.maxStep > 0)) throw simulationError("bad-step", `maximum step must be positive, got ${settings.maxStep}`);
     this.maxStep = settings.maxStep;
     this.h = Math.min(settings.firstStep ?? settings.maxStep / 100, settings.maxStep);
-    this.x = new Float64Array(n);
-    this.dxdt = new Float64Array(n);
-    this.q = new Float64Array(n);
-    this.qdot = new Float64Array(n);
-    this.qPrevious = new Float64Array(n);
+    this.state = new IntegrationState(system);
+    this.x = this.state.x;
+    this.dxdt = this.state.dxdt;
     this.xNew = new Float64Array(n);
     this.peak = new Float64Array(n);
     this.xWhole = new Float64Array(n);
     this.xHalf = new Float64Array(n);
     this.qHalf = new Float64Array(n);
     this.qMiddle = new Float64Array(n);
-    this.stiffRows = system.stiffRows;
-    this.trapezoidalRows = Float64Array.from(system.stiffRows, (stiff) => (stiff ? 0 : 1));
-    this.stiffRowIndex = Int32Array.from(Array.from(system.stiffRows).flatMap((stiff, i) => (stiff ? [i] : [])));
-    const { rows, cols, values } = system.cTriplets;
-    this.chargeRowStart = new Int32Array(n + 1);
-    for (let k = 0; k < rows.length; k++) this.chargeRowStart[rows[k]! + 1]++;
-    for (let i = 0; i < n; i++) this.chargeRowStart[i + 1] += this.chargeRowStart[i]!;
-    this.chargeCols = cols;
-    this.chargeValues = values;
     this.scale = { relative: this.tolerances.lteRelative, peak: this.peak, absolute: absoluteTolerances(system.unknowns, this.tolerances, "lte") };
     this.history = new StepHistory(n);
     const start = settings.start;
@@ -191,9 +165,9 @@ export class TransientStepper {
     if (start === "bias") {
       this.bias = solveBias(system, this.solver, this.tolerances);
       this.x.set(this.bias.x);
-      this.chargesAt(this.x, this.solver.qNonlinear, this.q);
+      this.state.chargesAt(this.x, this.solver.qNonlinear, this.state.q);
     } else if (start === "rest") {
-      for (const d of system.devices) d.initialCharge?.(this.q);
+      for (const d of system.devices) d.initialCharge?.(this.state.q);
       this.consistentStart();
     } else {
       if (start.x.length !== n) throw simulationError("bad-state", `the start state has ${start.x.length} unknowns; the circuit has ${n}`);
@@ -201,7 +175,7 @@ export class TransientStepper {
       this.x.set(start.x);
       this.solver.setCoefficients(0, 0);
       this.solver.chargesAt(this.x);
-      this.chargesAt(this.x, this.solver.qNonlinear, this.q);
+      this.state.chargesAt(this.x, this.solver.qNonlinear, this.state.q);
     }
     this.history.push(this.t, this.x);
     for (let i = 0; i < n; i++) this.peak[i] = Math.abs(this.x[i]!);
@@ -223,13 +197,9 @@ export class TransientStepper {
       t: this.t,
       x: copy(this.x),
       continuation: {
-        dxdt: copy(this.dxdt),
-        q: copy(this.q),
-        qdot: copy(this.qdot),
-        qPrevious: copy(this.qPrevious),
+        memory: this.state.memory(),
         peak: copy(this.peak),
         h: this.h,
-        lastStep: this.lastStep,
         segment: [this.segmentStart, this.segmentStep, this.segmentCount],
         firstOrderNext: this.firstOrderNext,
         nextBreak: this.nextBreak,
@@ -245,14 +215,9 @@ export class TransientStepper {
     const c = snapshot.continuation;
     if (snapshot.x.length !== this.n) throw simulationError("bad-state", `the snapshot has ${snapshot.x.length} unknowns; the circuit has ${this.n}`);
     this.t = snapshot.t;
-    this.x.set(snapshot.x);
-    this.dxdt.set(c.dxdt);
-    this.q.set(c.q);
-    this.qdot.set(c.qdot);
-    this.qPrevious.set(c.qPrevious);
+    this.state.restore(snapshot.x, c.memory);
     this.peak.set(c.peak);
     this.h = c.h;
-    this.lastStep = c.lastStep;
     [this.segmentStart, this.segmentStep, this.segmentCount] = c.segment;
     this.firstOrderNext = c.firstOrderNext;
     this.nextBreak = c.nextBreak;
@@ -268,17 +233,6 @@ export class TransientStepper {
     observer(this.t, this.x, this.dxdt);
   }
 
-  /** q = C·x + the nonlinear charges `nonlinear` (loaded at x). */
-  private chargesAt(x: Float64Array, nonlinear: Float64Array, q: Float64Array): void {
-    const { n, chargeRowStart, chargeCols, chargeValues } = this;
-    for (let i = 0; i < n; i++) {
-      let charge = nonlinear[i]!;
-      const end = chargeRowStart[i + 1]!;
-      for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * x[chargeCols[k]!]!;
-      q[i] = charge;
-    }
-  }
-
   /**
    * From rest the node voltages at t = 0 follow from the stored charges: a backward-Euler step
    * of negligible length fixes every state and solves the algebraic rest. It is recorded at
@@ -288,7 +242,7 @@ export class TransientStepper {
     const h = this.h * 1e-6;
     const s = this.solver;
     s.setCoefficients(1 / h, 1 / h);
-    for (let i = 0; i < this.n; i++) s.history[i] = this.q[i]! / h;
+    this.state.firstOrderHistory(s.history, this.state.q, h);
     s.loadSources(0, 1, false);
     const outcome = s.solve(this.x, this.tolerances.biasIterations);
     if (!outcome.converged) this.x.fill(0);
@@ -315,14 +269,12 @@ export class TransientStepper {
   }
 
   /**
-   * Prepares a second-order step of length h to tNew: the charge history (2/h·qₙ + q̇ₙ on
-   * trapezoidal rows, ((1 + ω)·qₙ − ω²/(1 + ω)·qₙ₋₁)/h on BDF2 rows) and the Newton starting
+   * Prepares a second-order step of length h to tNew: the charge history and the Newton starting
    * guess, the quadratic through the last three accepted points extrapolated to tNew.
    */
   private prepareStep(tNew: number, h: number, omega: number): void {
-    const { n, xNew, q, qdot, trapezoidalRows, history } = this;
-    const a = this.solver.a;
-    const charges = this.solver.history;
+    const { n, xNew, history } = this;
+    this.state.secondOrderHistory(this.solver.history, this.solver.a, h, omega);
     const t0 = history.time(0);
     const t1 = history.time(1);
     const t2 = history.time(2);
@@ -333,24 +285,7 @@ export class TransientStepper {
     const w0 = ((tNew - t1) * (tNew - t2)) / ((t0 - t1) * (t0 - t2));
     const w1 = ((tNew - t0) * (tNew - t2)) / ((t1 - t0) * (t1 - t2));
     const w2 = ((tNew - t0) * (tNew - t1)) / ((t2 - t0) * (t2 - t1));
-    for (let i = 0; i < n; i++) {
-      charges[i] = a[i]! * q[i]! + trapezoidalRows[i]! * qdot[i]!;
-      xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
-    }
-    const stiff = this.stiffRowIndex;
-    const now = (1 + omega) / h;
-    const before = (omega * omega) / ((1 + omega) * h);
-    for (let k = 0; k < stiff.length; k++) {
-      const i = stiff[k]!;
-      charges[i] = now * q[i]! - before * this.qPrevious[i]!;
-    }
-  }
-
-  /** Backward-Euler history q/h from the charges `q`, on every row. */
-  private firstOrderHistory(q: Float64Array, h: number): void {
-    const charges = this.solver.history;
-    const inverse = 1 / h;
-    for (let i = 0; i < this.n; i++) charges[i] = q[i]! * inverse;
+    for (let i = 0; i < n; i++) xNew[i] = w0 * x0[i]! + w1 * x1[i]! + w2 * x2[i]!;
   }
 
   private collectSolverCounts(): void {
@@ -364,24 +299,25 @@ export class TransientStepper {
    * qHalf). Returns the doubling error ratio, or the failed Newton outcome.
    */
   private firstOrderTrial(target: number, h: number, landing: boolean): number | NewtonOutcome {
-    const { solver, tolerances, xWhole, xHalf, xNew, q } = this;
+    const { solver, tolerances, xWhole, xHalf, xNew, state } = this;
+    const q = state.q;
     const iterations = tolerances.stepIterations;
     solver.setCoefficients(1 / h, 1 / h);
-    this.firstOrderHistory(q, h);
+    state.firstOrderHistory(solver.history, q, h);
     solver.loadSources(target, 1, landing);
     xWhole.set(this.x);
     let outcome = solver.solve(xWhole, iterations);
     if (!outcome.converged) return outcome;
     const half = 0.5 * h;
     solver.setCoefficients(1 / half, 1 / half);
-    this.firstOrderHistory(q, half);
+    state.firstOrderHistory(solver.history, q, half);
     solver.loadSources(this.t + half, 1, false);
     for (let i = 0; i < this.n; i++) xHalf[i] = 0.5 * (this.x[i]! + xWhole[i]!);
     outcome = solver.solve(xHalf, iterations);
     if (!outcome.converged) return outcome;
     this.qHalf.set(solver.qNonlinear);
-    this.chargesAt(xHalf, this.qHalf, this.qMiddle);
-    this.firstOrderHistory(this.qMiddle, half);
+    state.chargesAt(xHalf, this.qHalf, this.qMiddle);
+    state.firstOrderHistory(solver.history, this.qMiddle, half);
     solver.loadSources(target, 1, landing);
     xNew.set(xWhole);
     outcome = solver.solve(xNew, iterations);
@@ -458,8 +394,8 @@ export class TransientStepper {
         this.acceptPending();
         continue;
       }
-      const omega = h / this.lastStep;
-      solver.setCoefficients(2 / h, (1 + 2 * omega) / ((1 + omega) * h));
+      const omega = h / this.state.lastStep;
+      solver.setCoefficients(2 / h, IntegrationState.bdf2Coefficient(h, omega));
       this.prepareStep(target, h, omega);
       solver.loadSources(target, 1, landing);
       const outcome = solver.solve(this.xNew, tolerances.stepIterations);
@@ -499,7 +435,7 @@ export class TransientStepper {
 
   /** The next step, no more than BDF2_GROWTH times the last one when BDF2 rows are integrated. */
   private limitGrowth(next: number, last: number): number {
-    return this.stiffRowIndex.length > 0 ? Math.min(next, BDF2_GROWTH * last) : next;
+    return this.state.stiffRowIndex.length > 0 ? Math.min(next, BDF2_GROWTH * last) : next;
   }
 
   /** Accepts the second half of a checked first step (solved with the first). */
@@ -511,41 +447,15 @@ export class TransientStepper {
   }
 
   /**
-   * Makes (target, xNew) the current point: its charges from xNew and the nonlinear charges
-   * loaded there, the charges' and unknowns' rates by the step's formula row by row (backward
-   * Euler on a first-order step, else trapezoidal or BDF2), the running peaks and the history.
+   * Makes (target, xNew) the current point: charges and rates (see IntegrationState.commit), the
+   * running peaks and the history.
    */
   private accept(target: number, h: number, firstOrder: boolean, landing: boolean, xNew: Float64Array, nonlinear: Float64Array): void {
-    const { n, q, qdot, qPrevious, x, dxdt, peak, stiffRows } = this;
-    const a = this.solver.a;
+    const { n, x, peak } = this;
     const reference = this.solver.reference;
-    const { chargeRowStart, chargeCols, chargeValues } = this;
-    const inverse = 1 / h;
-    const omega = firstOrder ? 0 : h / this.lastStep;
-    // BDF2 weights of xₙ₊₁, xₙ and xₙ₋₁ in the derivative at tₙ₊₁ (times 1/h).
-    const wNew = (1 + 2 * omega) / (1 + omega);
-    const wNow = -(1 + omega);
-    const wBefore = (omega * omega) / (1 + omega);
-    const xBefore = this.history.value(1);
+    this.state.commit(xNew, nonlinear, h, firstOrder, this.solver.a, this.history.value(1));
     for (let i = 0; i < n; i++) {
-      let charge = nonlinear[i]!;
-      const end = chargeRowStart[i + 1]!;
-      for (let k = chargeRowStart[i]!; k < end; k++) charge += chargeValues[k]! * xNew[chargeCols[k]!]!;
-      const value = xNew[i]!;
-      if (firstOrder) {
-        qdot[i] = a[i]! * (charge - q[i]!);
-        dxdt[i] = (value - x[i]!) * inverse;
-      } else if (stiffRows[i] === 1) {
-        qdot[i] = (wNew * charge + wNow * q[i]! + wBefore * qPrevious[i]!) * inverse;
-        dxdt[i] = (wNew * value + wNow * x[i]! + wBefore * xBefore[i]!) * inverse;
-      } else {
-        qdot[i] = a[i]! * (charge - q[i]!) - qdot[i]!;
-        dxdt[i] = 2 * (value - x[i]!) * inverse - dxdt[i]!;
-      }
-      qPrevious[i] = q[i]!;
-      q[i] = charge;
-      x[i] = value;
-      const mag = Math.abs(value);
+      const mag = Math.abs(x[i]!);
       if (mag > peak[i]!) {
         peak[i] = mag;
         reference[i] = mag;
@@ -553,7 +463,6 @@ export class TransientStepper {
     }
     this.history.push(target, x);
     this.t = target;
-    this.lastStep = h;
     this.stats.accepted++;
     if (landing) {
       this.stats.breakpoints++;
