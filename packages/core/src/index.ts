@@ -72,6 +72,17 @@ export type { Pole, PolesResult } from "./analyses/poles.js";
 export { PhasorSolver, RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
 export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/response.js";
 
+// Periodic steady state (shooting)
+export { PeriodicMap } from "./steady/periodic-map.js";
+export type { MapSensitivity, PeriodStart } from "./steady/periodic-map.js";
+export { shootOrbit } from "./steady/shooting.js";
+export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } from "./steady/shooting.js";
+export { orbitMetrics } from "./steady/orbit-metrics.js";
+export type { OrbitMetrics } from "./steady/orbit-metrics.js";
+export { recordPeriod, refineOrbit } from "./steady/refine.js";
+export type { NumericalError, RefinedOrbit } from "./steady/refine.js";
+export { Linearisation } from "./solver/linearisation.js";
+
 // Design and statistics
 export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";

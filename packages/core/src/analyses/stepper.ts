@@ -32,7 +32,7 @@ interface PendingHalf {
   readonly qNonlinear: Float64Array;
 }
 
-interface Continuation {
+export interface Continuation {
   readonly memory: IntegrationMemory;
   readonly peak: Float64Array;
   readonly h: number;

@@ -63,6 +63,8 @@ export interface MnaSystem {
   readonly stateColumns: Int32Array;
   /** Per state column: 1 when an L-stable row's charge depends on it (its error follows that formula). */
   readonly stiffStates: Uint8Array;
+  /** 1 on rows that carry a charge (a linear C entry or a declared nonlinear charge); 0 on algebraic rows. */
+  readonly chargedRows: Uint8Array;
   /** Every probe name of an unknown (labels and aliases) and its index. */
   readonly stateIndex: ReadonlyMap<string, number>;
 }
@@ -102,6 +104,13 @@ function chargeDependence(n: number, C: Float64Array, declared: readonly (readon
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) mark(i, j);
   for (const [row, col] of declared) mark(row, col);
   return judged;
+}
+
+function chargedRowsOf(n: number, C: Float64Array, declared: readonly (readonly [number, number])[]): Uint8Array {
+  const charged = new Uint8Array(n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) charged[i] = 1;
+  for (const [row] of declared) charged[row] = 1;
+  return charged;
 }
 
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
@@ -189,6 +198,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     stiffRows,
     stateColumns: Int32Array.from(states),
     stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
+    chargedRows: chargedRowsOf(n, C, declared),
     stateIndex,
   };
 }
