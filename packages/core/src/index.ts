@@ -63,6 +63,7 @@ export type { CircuitState, StepObserver, StepperSettings, StepperSnapshot, Step
 export { ProbeRecorder, defaultMaxStep, runTransient } from "./analyses/transient.js";
 export type { ProgressListener, RunOptions, Signal, TransientResult } from "./analyses/transient.js";
 export { allNodeProbes, probeReader, probeUnit } from "./analyses/probes.js";
+export type { ProbeReader } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
 export { linearize } from "./analyses/linearize.js";

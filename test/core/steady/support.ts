@@ -1,4 +1,4 @@
-import { buildSystem, opampPresets, probeReader, recordPeriod, TransientStepper, type Circuit, type PartSpec } from "@onset/core";
+import { buildSystem, opampPresets, probeReader, recordPeriod, TransientStepper, type Circuit, type MnaSystem, type PartSpec, type PeriodStart, type ProbeReader } from "@onset/core";
 import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 /** R = 1 k, C = 100 nF Wien bridge at gain A around a near-ideal amplifier clipping at ±10 V (docs/references.md §2.4). */
@@ -18,7 +18,15 @@ export function clippedWien(A: number): Circuit {
  * A settled run of a circuit started by a 10 mV step on a charged node, and one recorded period
  * of it (the shooting guess and the run's own grid), as the start-up analysis hands them over.
  */
-export function settledPeriod(c: Circuit, kickNode: string, period: number, until: number, maxStep = period / 100) {
+export interface SettledPeriod {
+  readonly system: MnaSystem;
+  readonly guess: PeriodStart;
+  readonly fractions: Float64Array;
+  readonly trajectory: Float64Array[];
+  readonly read: ProbeReader;
+}
+
+export function settledPeriod(c: Circuit, kickNode: string, period: number, until: number, maxStep = period / 100): SettledPeriod {
   const system = buildSystem(c);
   const rest = new TransientStepper(system, { start: "bias", maxStep });
   const x = Float64Array.from(rest.x);
