@@ -2,6 +2,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { BOLTZMANN, thermalCurrent } from "./thermal-noise.js";
 
 export const diodeSchema: PartKindSchema = {
   kind: "diode",
@@ -20,7 +21,7 @@ export const diodeSchema: PartKindSchema = {
 };
 
 /** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (docs/references.md §7: 25.8649 mV). */
-export const THERMAL_VOLTAGE = (1.380649e-23 * 300.15) / 1.602176634e-19;
+export const THERMAL_VOLTAGE = (BOLTZMANN * 300.15) / 1.602176634e-19;
 /** A conductance across every junction so a reverse-biased diode never leaves a node floating. */
 export const JUNCTION_LEAK = 1e-12;
 /** Junction potential and grading coefficient of the depletion capacitance (abrupt junction). */
@@ -28,6 +29,8 @@ const BUILT_IN = 0.7;
 const GRADING = 0.5;
 /** Forward-bias fraction of the built-in potential beyond which the capacitance is linearised. */
 const FORWARD_KNEE = 0.5;
+/** ln 1.1: the junction-voltage change over which the Shockley conductance moves by a tenth. */
+const TANGENT_SPAN = Math.log1p(0.1);
 /** Beyond this many thermal voltages the exponential continues as its tangent (no overflow). */
 const EXP_LIMIT = 40;
 
@@ -119,10 +122,11 @@ class Junction implements NonlinearTerm {
     }
   }
 
-  linearisationHolds(_x: Float64Array, dx: Float64Array, fraction: number): boolean {
+  tangentHolds(_x: Float64Array, dx: Float64Array): boolean {
     const step = valueAt(dx, this.a) - valueAt(dx, this.c);
-    // The conductance scales as e^(v/nVt) (and the depletion capacitance far more slowly).
-    return Math.abs(step) <= this.nvt * Math.log1p(fraction);
+    // The conductance scales as e^(v/nVt) (the depletion capacitance far more slowly): within a
+    // tenth while the junction voltage moves by nVt·ln 1.1.
+    return Math.abs(step) <= this.nvt * TANGENT_SPAN;
   }
 
   limitStep(x: Float64Array, dx: Float64Array): number {
@@ -183,6 +187,8 @@ export const diode: DeviceModel = {
         }
         return i;
       },
+      // The series resistance is an ohmic resistor; the junction's shot noise is not modelled.
+      noise: series > 0 ? (kelvin) => [thermalCurrent(`${part.name}.series`, series, kelvin, anode, a)] : undefined,
     };
   },
 };

@@ -24,14 +24,14 @@ export class Linearisation implements NonlinearLoad {
     this.C = new Float64Array(n * n);
   }
 
-  /** Loads every device at x. */
-  at(x: Float64Array): this {
+  /** Loads every device at x and time t (Infinity: the circuit fully powered). */
+  at(x: Float64Array, t = Infinity): this {
     this.f.fill(0);
     this.charges.fill(0);
     this.G.set(this.system.G);
     this.C.set(this.system.C);
     const devices = this.system.nonlinear;
-    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, this);
+    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, this, t);
     return this;
   }
 

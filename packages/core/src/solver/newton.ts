@@ -1,6 +1,6 @@
 import type { NonlinearTerm } from "../devices/device.js";
 import { IterateLoad } from "./iterate-load.js";
-import { NewtonMatrix, STALE_ENTRY, type NewtonMatrixState } from "./newton-matrix.js";
+import { NewtonMatrix, type NewtonMatrixState } from "./newton-matrix.js";
 import { SourceVector } from "./source-vector.js";
 import type { MnaSystem } from "./system.js";
 import { absoluteTolerances, type Tolerances } from "./tolerances.js";
@@ -55,8 +55,12 @@ export class NewtonSolver {
   private readonly linear: boolean;
   /** The nonlinear devices with a step-limiting hook. */
   private readonly limiters: readonly NonlinearTerm[];
-  /** Whether every nonlinear device can tell that its linearisation held over an update. */
+  /** The nonlinear devices that check their tangents over an update. */
+  private readonly tangentCheckers: readonly NonlinearTerm[];
+  /** Whether every nonlinear device checks its tangents (then a first update may be judged by the last solve's contraction). */
   private readonly checkable: boolean;
+  /** The time of the next solve (set by `loadSources`), handed to time-dependent devices. */
+  private time = 0;
   /** The contraction factor the last iterations showed, for the stopping rule. */
   private contraction = 0.5;
   /**
@@ -86,7 +90,8 @@ export class NewtonSolver {
     this.relative = tolerances.biasRelative;
     this.linear = system.nonlinear.length === 0;
     this.limiters = system.nonlinear.filter((d) => d.limitStep !== undefined);
-    this.checkable = system.nonlinear.every((d) => d.linearisationHolds !== undefined);
+    this.tangentCheckers = system.nonlinear.filter((d) => d.tangentHolds !== undefined);
+    this.checkable = this.tangentCheckers.length === system.nonlinear.length;
     this.load = new IterateLoad(this.residual, this.matrix.a, this.qNonlinear, this.matrix.devices);
   }
 
@@ -135,8 +140,9 @@ export class NewtonSolver {
     this.matrix.refresh();
   }
 
-  /** Fills `u` with every source's value at `t`, scaled by `scale`. */
+  /** Fills `u` with every source's value at `t`, scaled by `scale`; `t` is also the time devices are loaded at. */
   loadSources(t: number, scale: number, left: boolean): void {
+    this.time = t;
     this.sources.load(t, scale, left);
   }
 
@@ -145,25 +151,14 @@ export class NewtonSolver {
     if (load.charged) this.qNonlinear.fill(0);
     this.matrix.devices.clear();
     const devices = this.system.nonlinear;
-    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load);
+    const t = this.time;
+    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load, t);
   }
 
   /** The devices' nonlinear charges at `x` into `qNonlinear` (for a run that starts from a given state). */
   chargesAt(x: Float64Array): void {
     this.residual.fill(0);
     if (!this.linear) this.loadDevices(x);
-  }
-
-  /**
-   * Whether every device's derivatives at the updated x are close to those the update was
-   * computed with (STALE_ENTRY): only then does the last solve's contraction predict this one.
-   * A clamp letting go or a junction turning on inside the step shows here, not in the update.
-   */
-  private linearisationHeld(x: Float64Array, dx: Float64Array): boolean {
-    if (!this.checkable) return false;
-    const devices = this.system.nonlinear;
-    for (let d = 0; d < devices.length; d++) if (!devices[d]!.linearisationHolds!(x, dx, STALE_ENTRY)) return false;
-    return true;
   }
 
   // One outcome object, reused: a solve runs every time step and must not allocate.
@@ -204,6 +199,9 @@ export class NewtonSolver {
         const l = limiters[d]!.limitStep!(x, dx);
         if (l < lambda) lambda = l;
       }
+      let trusted = lambda === 1;
+      const checkers = this.tangentCheckers;
+      for (let d = 0; trusted && d < checkers.length; d++) trusted = checkers[d]!.tangentHolds!(x, dx);
       let norm = 0;
       const relative = this.relative;
       const tol = this.tol;
@@ -222,13 +220,13 @@ export class NewtonSolver {
       }
       // Stopping rule of simplified Newton (Hairer & Wanner, Solving ODEs II, §IV.8): with the
       // contraction ρ = ‖Δₖ‖/‖Δₖ₋₁‖ (or the last solve's), the error left after this update is
-      // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance. The last
-      // solve's ρ stands for the first update only while the devices' linearisation has not moved
-      // (a clamp letting go or a junction turning on makes the first update a poor guide).
-      if (lambda === 1) {
+      // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance. No iterate is
+      // accepted on an update a device does not trust (its tangents moved); and the last solve's
+      // ρ stands for the first update only when every device can vouch for its tangents.
+      if (trusted) {
         const rho = iter > 1 ? norm / previousNorm : this.contraction;
         if (iter > 1 && rho < 1) this.contraction = Math.max(1e-3, rho);
-        if (norm <= 1 || (this.mode === "step" && rho < 1 && (rho / (1 - rho)) * norm <= 1 && (iter > 1 || (norm <= 100 && this.linearisationHeld(x, dx))))) {
+        if (norm <= 1 || (this.mode === "step" && rho < 1 && (rho / (1 - rho)) * norm <= 1 && (iter > 1 || (norm <= 100 && this.checkable)))) {
           // The charges were loaded before the last update; the integrator's history needs them at the solution.
           if (this.load.charged) this.loadDevices(x);
           return this.finish(true, iter, worst);
@@ -237,7 +235,7 @@ export class NewtonSolver {
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
-      if (norm > this.chordLimit || lambda < 1 || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) matrix.refresh();
+      if (norm > this.chordLimit || !trusted || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) matrix.refresh();
       previousNorm = norm;
     }
     return this.finish(false, maxIterations, worst);

@@ -2,7 +2,7 @@ import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
 import { didYouMean } from "../circuit/suggest.js";
-import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownRole as UnknownRoleOfPart } from "../devices/device.js";
+import type { Device, LinearStamp, NonlinearTerm, PowerOn, SourceTerm, UnknownRole as UnknownRoleOfPart } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
 import { unitOf, type Quantity, type QuantityUnit } from "./quantities.js";
@@ -52,6 +52,8 @@ export interface MnaSystem {
   readonly deviceByName: ReadonlyMap<string, Device>;
   readonly sources: readonly SourceTerm[];
   readonly nonlinear: readonly NonlinearTerm[];
+  /** The nonlinear devices that watch their own change per step (see `NonlinearTerm.changeRatio`). */
+  readonly changeWatchers: readonly NonlinearTerm[];
   /** Row-major n×n. */
   readonly G: Float64Array;
   readonly C: Float64Array;
@@ -113,8 +115,14 @@ function chargedRowsOf(n: number, C: Float64Array, declared: readonly (readonly 
   return charged;
 }
 
+/** How the circuit is set up for a run. */
+export interface BuildOptions {
+  /** Start from the unpowered circuit: DC levels and fixed rails ramp up (see `PowerOn`). */
+  readonly powerOn?: PowerOn;
+}
+
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
-export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = []): MnaSystem {
+export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = [], options: BuildOptions = {}): MnaSystem {
   const parts = [...circuit.parts, ...extraParts];
   const nodeIndex = new Map<string, number>();
   const stateIndex = new Map<string, number>();
@@ -156,6 +164,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
           if (row < 0) return;
           for (const col of cols) if (col >= 0) declared.push([row, col]);
         },
+        ...(options.powerOn ? { powerOn: options.powerOn } : {}),
       });
       devices.push(device);
       deviceByName.set(part.name, device);
@@ -191,6 +200,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     deviceByName,
     sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
     nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
+    changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
     G,
     C,
     gTriplets: toTriplets(G, n),
@@ -201,4 +211,9 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     chargedRows: chargedRowsOf(n, C, declared),
     stateIndex,
   };
+}
+
+/** The same system with further excitations (a noise bank built from its devices). */
+export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
+  return { ...system, sources: [...system.sources, ...sources] };
 }
