@@ -43,6 +43,15 @@ const STAGE_TRANSCONDUCTANCE = 1e-3;
 
 /** Knee widths inside a limit beyond which its clamp is left out (e^−40 ≈ 4e-18). */
 const CLAMP_REACH = 40;
+/**
+ * Largest change of the tanh input stage's argument g·vd/I_max that one Newton update may make
+ * unless both ends lie deep in the same saturation (`TANH_FLAT`): the stage's tangent is good
+ * only within about one unit of its argument.
+ */
+const TANH_REACH = 2;
+const TANH_FLAT = 8;
+/** Largest step of the pole node past a limit, in knee widths, from a point inside it. */
+const CLAMP_ENTRY = 4;
 
 /** Stable softplus w·ln(1 + e^(z/w)) and its slope, the logistic σ(z/w). */
 function softplus(z: number, w: number): number {
@@ -162,6 +171,40 @@ class OutputStage implements NonlinearTerm {
       o.adddF(p, this.plus, -slope);
       o.adddF(p, this.minus, slope);
     }
+  }
+
+  /**
+   * Newton updates are trusted only where the tangents they came from hold: the tanh stage's
+   * argument moves by at most {@link TANH_REACH} unless it stays saturated, and the pole node
+   * enters a clamp by at most {@link CLAMP_ENTRY} knee widths from inside it (from inside, the
+   * clamp's tangent is flat and the update would overshoot the limit by whatever the rest of the
+   * circuit asks; from there the next iteration's tangent sees the clamp). At a clip corner the
+   * first update of a step would otherwise look small enough to accept while the stage still
+   * owes many times its current.
+   */
+  limitStep(x: Float64Array, dx: Float64Array): number {
+    const { k, p, supply } = this;
+    let lambda = 1;
+    if (this.slewLimited) {
+      const scale = k.gm / k.iMax;
+      const u0 = scale * (valueAt(x, this.plus) - valueAt(x, this.minus) + k.vos);
+      const du = scale * (valueAt(dx, this.plus) - valueAt(dx, this.minus));
+      const u1 = u0 + du;
+      const saturated = (u0 > TANH_FLAT && u1 > TANH_FLAT) || (u0 < -TANH_FLAT && u1 < -TANH_FLAT);
+      if (Math.abs(du) > TANH_REACH && !saturated) lambda = TANH_REACH / Math.abs(du);
+    }
+    const xp = x[p]!;
+    const step = dx[p]!;
+    let hi = k.rails[1] - k.headroom;
+    let lo = k.rails[0] + k.headroom;
+    if (supply) {
+      hi = valueAt(x, supply[1]) - k.headroom;
+      lo = valueAt(x, supply[0]) + k.headroom;
+    }
+    const reach = CLAMP_ENTRY * k.knee;
+    if (xp < hi && xp + step > hi + reach) lambda = Math.min(lambda, (hi + reach - xp) / step);
+    if (xp > lo && xp + step < lo - reach) lambda = Math.min(lambda, (lo - reach - xp) / step);
+    return lambda;
   }
 }
 
