@@ -48,7 +48,7 @@ export function waveFromPart(part: PartSpec, schema: PartKindSchema): Wave {
       return stepsWave(times, levels);
     }
     case "noise":
-      return noiseWave({ rms: num("rms"), seed: num("seed"), corner: num("corner"), stop: num("stop") });
+      return noiseWave({ rms: num("rms"), seed: num("seed"), corner: num("corner"), stop: num("stop"), stream: part.name });
     default:
       throw inputError("unknown-wave", `${part.kind} ${part.name}: unknown wave '${String(kind)}'`, {
         span: part.span,

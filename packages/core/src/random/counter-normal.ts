@@ -1,0 +1,74 @@
+/**
+ * Counter-based random numbers: sample k of a stream is a pure function of the stream's key and
+ * k, so a noise source needs no memory of what it drew, any sample can be recomputed (a time
+ * step that is retried shorter), and streams keyed by a part's name do not shift when parts are
+ * added, removed or reordered.
+ */
+
+/** A stream's key: two 32-bit words. */
+export interface StreamKey {
+  readonly k0: number;
+  readonly k1: number;
+}
+
+// The 32-bit finaliser of MurmurHash3 (Appleby, public domain): a bijective avalanche mix.
+function fmix32(h: number): number {
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h >>> 0;
+}
+
+// 32-bit FNV-1a over the UTF-16 code units of a name (Fowler, Noll, Vo; public domain).
+function fnv1a(text: string, basis: number): number {
+  let h = basis >>> 0;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193);
+  }
+  return h >>> 0;
+}
+
+/** The key of the stream named `name` under `seed` (an integer, up to 2⁵³). */
+export function streamKey(seed: number, name: string): StreamKey {
+  const lo = seed >>> 0;
+  const hi = Math.floor(seed / 2 ** 32) >>> 0;
+  return {
+    k0: fmix32(fnv1a(name, 0x811c9dc5) ^ fmix32(lo ^ 0x9e3779b9)),
+    k1: fmix32(fnv1a(name, 0x6c62272e) ^ fmix32(hi ^ 0x7f4a7c15) ^ lo),
+  };
+}
+
+// Word `lane` of the hash of (key, counter): four rounds of the finaliser over the key words,
+// the counter's two halves and the lane, each round folding one word in.
+function word(key: StreamKey, counter: number, lane: number): number {
+  const lo = counter >>> 0;
+  const hi = Math.floor(counter / 2 ** 32) >>> 0;
+  let h = fmix32(key.k0 ^ Math.imul(lane + 1, 0x9e3779b9));
+  h = fmix32(h ^ lo);
+  h = fmix32(h ^ key.k1 ^ Math.imul(lane + 1, 0x85ebca77));
+  h = fmix32(h ^ hi ^ 0x27d4eb2f);
+  return h;
+}
+
+const TWO_POW_32 = 2 ** 32;
+const TWO_POW_53 = 2 ** 53;
+
+/** Uniform on (0, 1] with 53 random bits: never 0, so its logarithm is finite. */
+function uniform53(key: StreamKey, counter: number, lane: number): number {
+  const a = word(key, counter, lane) >>> 5; // 27 bits
+  const b = word(key, counter, lane + 1) >>> 6; // 26 bits
+  return (a * 67108864 + b + 1) / TWO_POW_53;
+}
+
+/**
+ * Sample `counter` (a whole number ≥ 0) of the standard normal stream `key`: the Box–Muller
+ * transform √(−2 ln u₁)·cos(2π u₂) of two uniforms drawn from the hash of (key, counter).
+ */
+export function normalAt(key: StreamKey, counter: number): number {
+  const u1 = uniform53(key, counter, 0);
+  const u2 = word(key, counter, 2) / TWO_POW_32;
+  return Math.sqrt(-2 * Math.log(u1)) * Math.cos(2 * Math.PI * u2);
+}
