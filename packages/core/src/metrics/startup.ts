@@ -3,9 +3,10 @@ import { findRisingCrossings } from "./crossings.js";
 import { cyclesBetween } from "./cycles.js";
 import type { CycleTable } from "./cycles.js";
 import { firstExcursion } from "./excursion.js";
-import { explainDecaying, explainGrowing, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
+import { explainDecaying, explainGrowing, explainOther, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
 import { startupGrowthRate } from "./growth-rate.js";
 import { analyseCycles } from "./harmonic-analysis.js";
+import { steadyKind } from "./oscillation-kind.js";
 import { crossingsPerPeriod, periodCrossings } from "./period-grouping.js";
 import { lastHalfStatistics } from "./record-statistics.js";
 import type { RecordStatistics } from "./record-statistics.js";
@@ -17,6 +18,7 @@ import type { StartupMetricsOptions, StartupSettings } from "./startup-options.j
 import { judgeEnvelope } from "./verdict.js";
 import type { StartupVerdict } from "./verdict.js";
 import { checkWaveform } from "./waveform-check.js";
+import { waveformShape } from "./waveform-shape.js";
 
 /** The start-up report's numbers and verdict for one probe waveform (SI units throughout). */
 export interface StartupMetrics {
@@ -35,15 +37,17 @@ export interface StartupMetrics {
   readonly rms: number | null;
   /** V: mean over the measured cycles. */
   readonly offset: number | null;
-  /** s: first time |v − offset| reaches 90 % of the settled amplitude (settled only). */
+  /** s: first time |v − offset| reaches 90 % of the settled amplitude (steady oscillations only). */
   readonly startupTime: number | null;
-  /** s: time after which the per-cycle envelope stays within ±1 % of it (settled only). */
+  /** s: time after which the per-cycle envelope stays within ±1 % of it (steady oscillations only). */
   readonly settlingTime: number | null;
+  /** Fraction of the period above the offset (relaxation oscillations only). */
+  readonly dutyCycle: number | null;
   /** 1/s: exponential growth rate σ of the small-signal envelope (negative when decaying). */
   readonly growthRate: number | null;
-  /** THD_F over harmonics 2 … maxOrder, a fraction (settled only). */
+  /** THD_F over harmonics 2 … maxOrder, a fraction (steady oscillations only). */
   readonly thd: number | null;
-  /** Harmonics 1 … maxOrder of the settled cycles; empty unless settled. */
+  /** Harmonics 1 … maxOrder of the settled cycles; empty unless steady. */
   readonly harmonics: Harmonic[];
   /** Complete cycles in the whole record. */
   readonly cycles: number;
@@ -159,6 +163,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       offset: tail.mean,
       startupTime: null,
       settlingTime: null,
+      dutyCycle: null,
       growthRate: null,
       thd: null,
       harmonics: [],
@@ -167,7 +172,8 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     };
   }
 
-  const { verdict, trend } = judgement;
+  const { trend } = judgement;
+  let verdict: StartupVerdict = judgement.verdict;
   const from = n - Math.min(settings.settleCycles, n);
   const figures = windowFigures(cycles, from);
   const analysis = analyseCycles(t, v, cycles.start[from], cycles.start[n], n - from, settings.maxOrder, figures.frequency);
@@ -181,13 +187,26 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   let explanation: string;
   let startupTime: number | null = null;
   let settling: number | null = null;
+  let dutyCycle: number | null = null;
   let suggestedExtraTime: number | undefined;
-  switch (verdict) {
-    case "settled":
-      startupTime = firstExcursion(t, v, analysis.offset, STARTUP_FRACTION * amplitude);
-      settling = settlingTime(cycles, amplitude);
-      explanation = explainSettled(amplitude, figures.frequency, startupTime, settings);
+  switch (judgement.verdict) {
+    case "settled": {
+      startupTime = firstExcursion(t, v, analysis.offset, STARTUP_FRACTION * amplitude, settings.searchFrom);
+      const steadyOn = judgement.steadyOn ?? "envelope";
+      const measure = steadyOn === "envelope" ? cycles.envelope : cycles.strength;
+      let level = 0;
+      for (let k = from; k < n; k++) level += measure[k] / (n - from);
+      settling = settlingTime(cycles.midTime, measure, level);
+      const shape = waveformShape(t, v, cycles.start[from], cycles.start[n], analysis.offset);
+      const kind = steadyKind(shape, figures.frequency, settings.prediction, settings.drives);
+      verdict = kind.kind;
+      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven);
+      else {
+        if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
+        explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle);
+      }
       break;
+    }
     case "growing":
       suggestedExtraTime = extraRunCycles(cycles.envelope, trend, settings) * period;
       explanation = explainGrowing(trend, period, suggestedExtraTime);
@@ -212,6 +231,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     startupTime,
     settlingTime: settling,
     growthRate,
+    dutyCycle,
     thd: settled ? analysis.thd : null,
     harmonics: settled ? analysis.harmonics : [],
     cycles: n,

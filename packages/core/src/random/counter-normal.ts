@@ -41,34 +41,38 @@ export function streamKey(seed: number, name: string): StreamKey {
   };
 }
 
-// Word `lane` of the hash of (key, counter): four rounds of the finaliser over the key words,
-// the counter's two halves and the lane, each round folding one word in.
+// Word `lane` of the hash of (key, counter): two rounds of the finaliser, the first folding in
+// one key word, the counter's low half and the lane, the second the other key word and the
+// counter's high half.
 function word(key: StreamKey, counter: number, lane: number): number {
   const lo = counter >>> 0;
   const hi = Math.floor(counter / 2 ** 32) >>> 0;
-  let h = fmix32(key.k0 ^ Math.imul(lane + 1, 0x9e3779b9));
-  h = fmix32(h ^ lo);
-  h = fmix32(h ^ key.k1 ^ Math.imul(lane + 1, 0x85ebca77));
-  h = fmix32(h ^ hi ^ 0x27d4eb2f);
-  return h;
+  const h = fmix32(key.k0 ^ lo ^ Math.imul(lane + 1, 0x9e3779b9));
+  return fmix32(h ^ key.k1 ^ Math.imul(hi + 1, 0x85ebca77));
 }
 
-const TWO_POW_32 = 2 ** 32;
 const TWO_POW_53 = 2 ** 53;
-
-/** Uniform on (0, 1] with 53 random bits: never 0, so its logarithm is finite. */
-function uniform53(key: StreamKey, counter: number, lane: number): number {
-  const a = word(key, counter, lane) >>> 5; // 27 bits
-  const b = word(key, counter, lane + 1) >>> 6; // 26 bits
-  return (a * 67108864 + b + 1) / TWO_POW_53;
-}
+const TWO_PI_OVER_2_POW_32 = (2 * Math.PI) / 2 ** 32;
 
 /**
- * Sample `counter` (a whole number ≥ 0) of the standard normal stream `key`: the Box–Muller
- * transform √(−2 ln u₁)·cos(2π u₂) of two uniforms drawn from the hash of (key, counter).
+ * Samples 2m and 2m + 1 of the standard normal stream `key` into `out[0]`, `out[1]`: the
+ * Box–Muller pair √(−2 ln u₁)·(cos, sin)(2π u₂) of two uniforms drawn from the hash of
+ * (key, m), u₁ ∈ (0, 1] with 53 random bits (so its logarithm is finite) (Box & Muller 1958).
  */
+export function normalPairAt(key: StreamKey, m: number, out: Float64Array): void {
+  const a = word(key, m, 0) >>> 5; // 27 bits
+  const b = word(key, m, 1) >>> 6; // 26 bits
+  const u1 = (a * 67108864 + b + 1) / TWO_POW_53;
+  const angle = word(key, m, 2) * TWO_PI_OVER_2_POW_32;
+  const r = Math.sqrt(-2 * Math.log(u1));
+  out[0] = r * Math.cos(angle);
+  out[1] = r * Math.sin(angle);
+}
+
+const pair = new Float64Array(2);
+
+/** Sample `counter` (a whole number ≥ 0) of the standard normal stream `key`. */
 export function normalAt(key: StreamKey, counter: number): number {
-  const u1 = uniform53(key, counter, 0);
-  const u2 = word(key, counter, 2) / TWO_POW_32;
-  return Math.sqrt(-2 * Math.log(u1)) * Math.cos(2 * Math.PI * u2);
+  normalPairAt(key, Math.floor(counter / 2), pair);
+  return pair[counter % 2]!;
 }

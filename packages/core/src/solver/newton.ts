@@ -167,8 +167,12 @@ export class NewtonSolver {
   /** Whether `u` holds zeros (set when every source was silent). */
   private uZero = false;
 
+  /** The time of the next solve (set by `loadSources`), handed to time-dependent devices. */
+  private time = 0;
+
   /** Fills `u` with every source's value at `t`, scaled by `scale`. */
   loadSources(t: number, scale: number, left: boolean): void {
+    this.time = t;
     const sources = this.system.sources;
     const quietAfter = this.quietAfter;
     const u = this.u;
@@ -268,7 +272,8 @@ export class NewtonSolver {
     if (this.load.charged) this.qNonlinear.fill(0);
     this.deviceJacobian.clear();
     const devices = this.system.nonlinear;
-    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load);
+    const t = this.time;
+    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load, t);
   }
 
   /** Device entries already in the pattern handed to the LU (-1: none handed yet). */

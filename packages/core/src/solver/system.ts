@@ -1,7 +1,7 @@
 import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
-import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownKind } from "../devices/device.js";
+import type { Device, LinearStamp, NonlinearTerm, PowerOn, SourceTerm, UnknownKind } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
 
@@ -64,8 +64,14 @@ function toTriplets(dense: Float64Array, n: number): Triplets {
   return { rows, cols, values };
 }
 
+/** How the circuit is set up for a run. */
+export interface BuildOptions {
+  /** Start from the unpowered circuit: DC levels and fixed rails ramp up (see `PowerOn`). */
+  readonly powerOn?: PowerOn;
+}
+
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
-export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = []): MnaSystem {
+export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = [], options: BuildOptions = {}): MnaSystem {
   const parts = [...circuit.parts, ...extraParts];
   const nodeIndex = new Map<string, number>();
   const unknowns: UnknownInfo[] = [];
@@ -92,10 +98,11 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
           if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'`, { span: part.span });
           return i;
         },
-        addUnknown(label, kind, options) {
-          unknowns.push({ label, kind, isNode: false, backwardEuler: options?.backwardEuler ?? false });
+        addUnknown(label, kind, unknownOptions) {
+          unknowns.push({ label, kind, isNode: false, backwardEuler: unknownOptions?.backwardEuler ?? false });
           return unknowns.length - 1;
         },
+        ...(options.powerOn ? { powerOn: options.powerOn } : {}),
       });
       devices.push(device);
       deviceByName.set(part.name, device);
@@ -147,4 +154,9 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     backwardEulerRows,
     stateColumns: Int32Array.from(states),
   };
+}
+
+/** The same system with further excitations (a noise bank built from its devices). */
+export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
+  return { ...system, sources: [...system.sources, ...sources] };
 }

@@ -1,4 +1,4 @@
-import { normalAt, type StreamKey } from "../random/counter-normal.js";
+import { normalPairAt, type StreamKey } from "../random/counter-normal.js";
 
 // Catmull–Rom weights of the four samples around a point u ∈ [0, 1) of an interval.
 function weights(u: number, w: Float64Array): void {
@@ -64,6 +64,9 @@ export class SmoothNoise {
   private readonly window: Float64Array;
   private base = Number.NaN;
   private readonly w = new Float64Array(4);
+  /** Per stream, the Box–Muller pair last drawn and its pair index (samples come in pairs). */
+  private readonly pairs: Float64Array;
+  private readonly pairIndex: Float64Array;
 
   constructor(keys: readonly StreamKey[], sigmas: ArrayLike<number>, corner: number, stop = Infinity) {
     this.count = keys.length;
@@ -74,12 +77,23 @@ export class SmoothNoise {
     // value() is 0 once k − 1 > lastSample, i.e. from t = (lastSample + 2)·interval on.
     this.quietAfter = Number.isFinite(this.lastSample) ? (this.lastSample + 2) * this.interval : Infinity;
     this.window = new Float64Array(4 * this.count);
+    this.pairs = new Float64Array(2 * this.count);
+    this.pairIndex = new Float64Array(this.count).fill(-1);
   }
 
   private sample(stream: number, k: number): number {
     if (k <= 0 || k > this.lastSample) return 0;
-    return this.sigmas[stream]! * normalAt(this.keys[stream]!, k);
+    const m = Math.floor(k / 2);
+    if (this.pairIndex[stream] !== m) {
+      normalPairAt(this.keys[stream]!, m, this.pair);
+      this.pairs[2 * stream] = this.pair[0]!;
+      this.pairs[2 * stream + 1] = this.pair[1]!;
+      this.pairIndex[stream] = m;
+    }
+    return this.sigmas[stream]! * this.pairs[2 * stream + (k - 2 * m)]!;
   }
+
+  private readonly pair = new Float64Array(2);
 
   /** Makes the window hold samples base … base + 3 of every stream. */
   private slide(base: number): void {
