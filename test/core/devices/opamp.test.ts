@@ -174,3 +174,67 @@ describe("clip corners: every accepted step is a solution, not a guess", () => {
     expect(worst - 10).toBeLessThan(2 * knee);
   });
 });
+
+describe("ideal limits of the options (issue 12: each accepted and simulated as its closed form)", () => {
+  const vOut = (parts: PartSpec[], node = "o") => runBias(circuit(parts), { kind: "bias" }).nodes.find((n) => n.node === node)!.voltage;
+
+  test("rout=0: an ideal voltage output, so a 10 Ω load does not move it: v = vin·A/(1 + A·β) (feedback formula, mathematics)", () => {
+    const A = 200e3;
+    const beta = 1e3 / 11e3;
+    const parts = (rout: number) => [
+      part("vsource", "V1", ["i", "gnd"], 0.2),
+      part("opamp", "U1", ["i", "n", "o"], undefined, { gain: A, rout, rin: Infinity }),
+      part("resistor", "Rf", ["o", "n"], 10e3),
+      part("resistor", "Rg", ["n", "gnd"], 1e3),
+      part("resistor", "RL", ["o", "gnd"], 10),
+    ];
+    expect(Math.abs(vOut(parts(0)) / ((0.2 * A) / (1 + A * beta)) - 1)).toBeLessThan(1e-12);
+    // 75 Ω into 10 Ω inside the loop: the loop gain drops by (10 + 75)/10 and the output with it
+    expect(Math.abs(vOut(parts(75)) / ((0.2 * A) / (1 + A * beta)) - 1)).toBeGreaterThan(1e-6);
+    const r = runTransient(circuit(parts(0)), { kind: "transient", until: 1e-3, start: "bias", probes: [{ kind: "current", part: "U1" }] });
+    // the current the output drives: into RL and the feedback divider
+    const v = (0.2 * A) / (1 + A * beta);
+    expect(r.signals[0]!.values[r.time.length - 1]).toBeCloseTo(v / 10 + v / 11e3, 9);
+  });
+
+  test("gbw=inf with slew=inf: no pole, the follower tracks a 1 kHz sine at every step with the static gain A/(1 + A)", () => {
+    const A = 1e5;
+    const r = run(
+      [
+        part("vsource", "V1", ["i", "gnd"], undefined, { wave: "sine", amp: 1, freq: 1e3 }),
+        part("opamp", "U1", ["i", "o", "o"], undefined, { gain: A, gbw: Infinity, slew: Infinity, rin: Infinity, rout: 0 }),
+      ],
+      2e-3,
+      10e-6,
+      [node("o"), node("i")],
+    );
+    r.time.forEach((_, k) => expect(r.signals[0]!.values[k]).toBeCloseTo((A / (1 + A)) * r.signals[1]!.values[k]!, 12));
+  });
+
+  test("gain=inf: an integrator with DC feedback holds the inverting amplifier at exactly −Rf/Rin (mathematics)", () => {
+    const v = vOut([
+      part("vsource", "V1", ["i", "gnd"], 0.1),
+      part("resistor", "Rin", ["i", "n"], 2e3),
+      part("resistor", "Rf", ["n", "o"], 20e3),
+      part("opamp", "U1", ["gnd", "n", "o"], undefined, { gain: Infinity, rin: Infinity }),
+    ]);
+    expect(v).toBeCloseTo(-1, 10);
+  });
+
+  test("gain=inf, gbw=inf, slew=inf, rout=0, headroom=0: a nullor that amplifies by exactly 1 + Rf/Rg and clips at the rails themselves", () => {
+    const parts = (vin: number) => [
+      part("vsource", "V1", ["i", "gnd"], vin),
+      part("opamp", "U1", ["i", "n", "o"], undefined, { gain: Infinity, gbw: Infinity, slew: Infinity, rout: 0, rin: Infinity, headroom: 0, knee: 1e-4, rails: [-5, 5] }),
+      part("resistor", "Rf", ["o", "n"], 2e3),
+      part("resistor", "Rg", ["n", "gnd"], 1e3),
+    ];
+    expect(vOut(parts(0.5))).toBeCloseTo(1.5, 10);
+    // overdriven: the clamp balances within a knee width or two of the rail
+    expect(Math.abs(vOut(parts(3)) - 5)).toBeLessThan(3e-4);
+    expect(Math.abs(vOut(parts(-3)) + 5)).toBeLessThan(3e-4);
+  });
+
+  test("gbw=inf with a finite slew limit is refused with a hint", () => {
+    expect(() => vOut([part("vsource", "V1", ["i", "gnd"], 0.1), part("opamp", "U1", ["i", "o", "o"], undefined, { gbw: Infinity })])).toThrow(/gbw=inf leaves the slew limit nothing to act on/);
+  });
+});

@@ -102,6 +102,18 @@ export interface NonlinearTerm {
    * that keeps this device in a region where its linearisation is trustworthy.
    */
   limitStep?(x: Float64Array, dx: Float64Array): number;
+  /**
+   * Whether the device's tangents at `x` still describe it at x + dx. The Newton core does not
+   * accept a solve on an update a device does not trust, however small: near a steep, curved
+   * characteristic (a clamp's knee) a tiny update can hide a large residual.
+   */
+  tangentHolds?(x: Float64Array, dx: Float64Array): boolean;
+  /**
+   * Step-control hook for a state the truncation-error estimate does not watch: how much of
+   * the largest change one time step may make, from `x` to the candidate `xNew`, the candidate
+   * makes (above 1: the step is retried shorter).
+   */
+  changeRatio?(x: Float64Array, xNew: Float64Array): number;
 }
 
 /** A part once placed in the unknown vector. */

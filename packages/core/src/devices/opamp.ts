@@ -55,6 +55,15 @@ const TANH_REACH = 2;
 const TANH_FLAT = 8;
 /** Largest step of the pole node past a limit, in knee widths, from a point inside it. */
 const CLAMP_ENTRY = 4;
+/** A tangent (a clamp's or the tanh stage's slope) that changes by more than this share over an update does not hold. */
+const TANGENT_CHANGE = 0.1;
+/**
+ * Largest change of the pole node in one time step, as a share of the output range. The pole
+ * row is integrated by backward Euler and left out of the truncation-error estimate; without
+ * this, a step could carry the output from rail to rail, and a bistable loop (a comparator with
+ * positive feedback) could settle each step on the other rail, the implicit step's other root.
+ */
+const MAX_SWING_PER_STEP = 0.25;
 
 /** Stable softplus w·ln(1 + e^(z/w)) and its slope, the logistic σ(z/w). */
 function softplus(z: number, w: number): number {
@@ -189,6 +198,30 @@ class OutputStage implements NonlinearTerm {
       o.adddF(p, this.plus, -slope);
       o.adddF(p, this.minus, slope);
     }
+  }
+
+  tangentHolds(x: Float64Array, dx: Float64Array): boolean {
+    const { k, p } = this;
+    const w = k.knee;
+    const x0 = x[p]!;
+    const x1 = x0 + dx[p]!;
+    const hi = this.limit(x, true);
+    const lo = this.limit(x, false);
+    const holds = (a: number, b: number) => Math.abs(a - b) <= TANGENT_CHANGE * Math.max(a, b) || Math.max(a, b) < 1e-6;
+    if (!holds(logistic(x0 - hi, w), logistic(x1 - hi, w)) || !holds(logistic(lo - x0, w), logistic(lo - x1, w))) return false;
+    if (!this.slewLimited) return true;
+    const scale = k.gm / k.iMax;
+    const u0 = scale * (valueAt(x, this.plus) - valueAt(x, this.minus) + k.vos);
+    const u1 = u0 + scale * (valueAt(dx, this.plus) - valueAt(dx, this.minus));
+    const t0 = Math.tanh(u0);
+    const t1 = Math.tanh(u1);
+    return holds(1 - t0 * t0, 1 - t1 * t1);
+  }
+
+  changeRatio(x: Float64Array, xNew: Float64Array): number {
+    const span = this.limit(x, true) - this.limit(x, false);
+    if (!(span > 0)) return 0;
+    return Math.abs(xNew[this.p]! - x[this.p]!) / (MAX_SWING_PER_STEP * span);
   }
 
   /**

@@ -34,6 +34,8 @@ export interface MnaSystem {
   readonly deviceByName: ReadonlyMap<string, Device>;
   readonly sources: readonly SourceTerm[];
   readonly nonlinear: readonly NonlinearTerm[];
+  /** The nonlinear devices that watch their own change per step (see `NonlinearTerm.changeRatio`). */
+  readonly changeWatchers: readonly NonlinearTerm[];
   /** Row-major n×n. */
   readonly G: Float64Array;
   readonly C: Float64Array;
@@ -147,6 +149,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     deviceByName,
     sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
     nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
+    changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
     G,
     C,
     gTriplets: toTriplets(G, n),

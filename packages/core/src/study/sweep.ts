@@ -61,9 +61,13 @@ export function sweepValues(s: SweepAnalysis): number[] {
   return values;
 }
 
-/** An oscillating verdict: it settled, is still growing, or oscillates without settling. */
+/**
+ * An oscillating verdict: it settled (as the predicted sine, a relaxation or a parasitic
+ * oscillation), is still growing, or oscillates without settling. Silent, decaying and latched
+ * records do not oscillate.
+ */
 export function oscillates(verdict: StartupVerdict): boolean {
-  return verdict === "settled" || verdict === "growing" || verdict === "unsettled";
+  return verdict === "settled" || verdict === "relaxation" || verdict === "parasitic" || verdict === "growing" || verdict === "unsettled";
 }
 
 export interface SweepOptions extends RunOptions {
