@@ -1,7 +1,7 @@
 // Issue 12: the start-up run's excitation is physical (thermal noise everywhere, or power-on),
 // reproducible and independent of the probe; every outcome is classified.
 import { describe, expect, test } from "vitest";
-import { NoiseBank, runStartup, type NoiseGenerator, type PartSpec, type StartupAnalysis } from "@onset/core";
+import { NoiseBank, runCircuit, runStartup, runSweep, type NoiseGenerator, type PartSpec, type StartupAnalysis, type StartupResult } from "@onset/core";
 import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;
@@ -96,6 +96,18 @@ describe("thermal excitation (kick=thermal, the default)", () => {
   });
 });
 
+describe("seeds=N: the start-up time as a distribution", () => {
+  test("each seed's start-up time is that seed's own run, and min, median and max are theirs", () => {
+    const c = circuit(wien(), [{ kind: "startup", probe: node("o"), until: "auto", seeds: 3, seed: 5 }]);
+    const r = runCircuit(c).results[0] as StartupResult;
+    const spread = r.startupTimeSpread!;
+    expect(spread.seeds).toEqual([5, 6, 7]);
+    spread.seeds.forEach((seed, k) => expect(spread.times[k]).toBe(run(wien(), "o", { seed }).startupTime));
+    const sorted = [...(spread.times as number[])].sort((a, b) => a - b);
+    expect([spread.min, spread.median, spread.max]).toEqual(sorted);
+  });
+});
+
 describe("power-on (kick=power-on)", () => {
   test("a DC source ramped over T into R–C: v = V·(t − τ(1 − e^(−t/τ)))/T during the ramp (mathematics), within 1e-4 V", () => {
     const V = 5;
@@ -183,6 +195,13 @@ describe("every outcome classified", () => {
     // rail to rail: 2·(9 − 1.7) V, less the drop across the 75 Ω output resistance
     expect(Math.abs(r.peakToPeak! / 14.6 - 1)).toBeLessThan(0.015);
     expect(r.dutyCycle!).toBeCloseTo(0.5, 2);
+  });
+
+  test("a sweep of the pot counts the relaxation oscillation as oscillating: no false start threshold", () => {
+    const build = (o: Readonly<Record<string, number>>) => circuit(twinT(o["P1.at"]!), [{ kind: "startup", probe: node("o"), until: "auto" }]);
+    const sweep = runSweep(build, { kind: "sweep", target: "P1.at", from: 0.03, to: 0.99, steps: 3, log: false });
+    expect(sweep.points.map((p) => (p.run.results[0] as StartupResult).verdict)).toEqual(["relaxation", "relaxation", "settled"]);
+    expect(sweep.threshold).toBeNull();
   });
 
   test("with the wiper at the output the twin-T latches: the output stuck at a limit is 'latched'", () => {

@@ -90,7 +90,7 @@ export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, options
   const values = sweepValues(analysis);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
-    const point = { value, run: runCircuit(build({ [analysis.target]: value }), options) };
+    const point = { value, run: runCircuit(build({ [analysis.target]: value }), { ...options, seedSpread: false }) };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
   });
