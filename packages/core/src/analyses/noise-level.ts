@@ -75,7 +75,23 @@ export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: rea
   const { n, G, C } = ss;
   if (generators.length === 0 || n === 0) return 0;
   const n2 = 2 * n;
-  const lu = new LuSolver(n2);
+  // The real form of (G + jωC)ᵀ has the same nonzeros at every frequency: a sparse LU on that
+  // pattern keeps a large circuit's hundreds of solves cheap.
+  const pattern = new Uint8Array(n2 * n2);
+  for (let i = 0; i < n; i++) {
+    pattern[i * n2 + i] = 1;
+    pattern[(n + i) * n2 + n + i] = 1;
+    for (let j = 0; j < n; j++) {
+      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
+        pattern[i * n2 + j] = 1;
+        pattern[i * n2 + n + j] = 1;
+        pattern[(n + i) * n2 + j] = 1;
+        pattern[(n + i) * n2 + n + j] = 1;
+      }
+    }
+  }
+  const lu = new LuSolver(n2, { compile: false });
+  lu.setPattern(pattern);
   const m = new Float64Array(n2 * n2);
   const rhs = new Float64Array(n2);
   const y = new Float64Array(n2);
