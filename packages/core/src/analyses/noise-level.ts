@@ -1,6 +1,7 @@
 import type { NoiseGenerator } from "../devices/device.js";
 import { LuSolver } from "../solver/lu.js";
 import type { SmallSignal } from "./linearize.js";
+import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { Pole } from "./poles.js";
 import type { ProbeWeights } from "./probes.js";
 
@@ -100,16 +101,9 @@ export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: rea
   for (let k = 0; k < grid.length; k++) {
     const f = grid[k]!;
     const omega = 2 * Math.PI * f;
+    // the adjoint (G + jωC)ᵀ in real form
+    fillPhasorMatrix(ss, omega, m, true);
     for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        // (G + jωC)ᵀ as the real system [[Gᵀ, −ωCᵀ], [ωCᵀ, Gᵀ]]
-        const g = G[j * n + i]!;
-        const c = omega * C[j * n + i]!;
-        m[i * n2 + j] = g;
-        m[i * n2 + n + j] = -c;
-        m[(n + i) * n2 + j] = c;
-        m[(n + i) * n2 + n + j] = g;
-      }
       rhs[i] = probe.value[i]!;
       rhs[n + i] = omega * probe.rate[i]!;
     }

@@ -5,21 +5,14 @@
  * added, removed or reordered.
  */
 
+import { fmix32 } from "./mix.js";
+
 /** A stream's key: two 32-bit words. */
 export interface StreamKey {
   readonly k0: number;
   readonly k1: number;
 }
 
-// The 32-bit finaliser of MurmurHash3 (Appleby, public domain): a bijective avalanche mix.
-function fmix32(h: number): number {
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h >>> 0;
-}
 
 // 32-bit FNV-1a over the UTF-16 code units of a name (Fowler, Noll, Vo; public domain).
 function fnv1a(text: string, basis: number): number {
