@@ -143,6 +143,45 @@ describe("power-on (kick=power-on)", () => {
       expect(values[k]).toBeCloseTo(10 * Math.min(time[k]! / T, 1), 2);
     }
   });
+  test("a single-supply Wien whose mid-rail reference charges slowly: the DC settles first, and start-up is the oscillation's, not the DC ramp's", () => {
+    const parts: PartSpec[] = [
+      part("vsource", "Vcc", ["vcc", "gnd"], 12),
+      part("resistor", "Rb1", ["vcc", "mid"], 10e3),
+      part("resistor", "Rb2", ["mid", "gnd"], 10e3),
+      part("capacitor", "Cb", ["mid", "gnd"], 10e-6),
+      part("resistor", "R1", ["o", "s"], 10e3),
+      part("capacitor", "C1", ["s", "p"], 10e-9),
+      part("resistor", "R2", ["p", "mid"], 10e3),
+      part("capacitor", "C2", ["p", "mid"], 10e-9),
+      part("resistor", "Rf1", ["o", "f"], 6.8e3),
+      part("resistor", "Rf2", ["f", "n"], 15e3),
+      part("diode", "D1", ["f", "o"]),
+      part("diode", "D2", ["o", "f"]),
+      part("resistor", "Rg", ["n", "x"], 10e3),
+      part("capacitor", "Cg", ["x", "mid"], 10e-6),
+      part("opamp", "U1", ["p", "n", "o"], undefined, { supply: ["gnd", "vcc"] }),
+    ];
+    const r = run(parts, "o", { kick: "power-on" });
+    expect(r.verdict).toBe("settled");
+    // the reference's 50 ms time constant has run out: the offset is the half supply
+    expect(r.offset!).toBeCloseTo(6, 1);
+    // the envelope (half the swing over one period around a time) reaches 90 % of the settled
+    // amplitude at the reported start-up time, not at the end of the 1 ms ramp
+    const { time, values } = r.waveform;
+    const halfSwing = (at: number) => {
+      let high = -Infinity;
+      let low = Infinity;
+      for (let k = 0; k < time.length; k++) {
+        if (time[k]! < at - 0.5 / r.frequency! || time[k]! > at + 0.5 / r.frequency!) continue;
+        high = Math.max(high, values[k]!);
+        low = Math.min(low, values[k]!);
+      }
+      return (high - low) / 2;
+    };
+    expect(r.startupTime!).toBeGreaterThan(10e-3);
+    expect(halfSwing(r.startupTime! - 2 / r.frequency!)).toBeLessThan(0.9 * r.amplitude!);
+    expect(halfSwing(r.startupTime! + 1 / r.frequency!)).toBeGreaterThan(0.88 * r.amplitude!);
+  });
 });
 
 describe("every outcome classified", () => {

@@ -19,6 +19,8 @@ export interface CycleTable {
    * (its share of the cycle's power is its share of the time), so settling is judged on it.
    */
   readonly strength: Float64Array;
+  /** Per-cycle mean, V: moves while the DC levels still settle (a power-on transient). */
+  readonly mean: Float64Array;
   /** Midpoint of each cycle, the time its envelope value is plotted and fitted at. */
   readonly midTime: Float64Array;
 }
@@ -79,8 +81,8 @@ function linearAt(t: Float64Array, v: Float64Array, i: number, time: number): nu
   return h > 0 ? v[i] + ((v[i + 1] - v[i]) * (time - t[i])) / h : v[i];
 }
 
-/** √2 × the r.m.s. about the mean between two crossing times, by the trapezoid rule. */
-function cycleStrength(t: Float64Array, v: Float64Array, from: number, fromInterval: number, to: number, toInterval: number): number {
+/** The mean between two crossing times and √2 × the r.m.s. about it, by the trapezoid rule, into `out`. */
+function cycleStrength(t: Float64Array, v: Float64Array, from: number, fromInterval: number, to: number, toInterval: number, out: Float64Array): void {
   let area = 0;
   let squares = 0;
   const piece = (ta: number, va: number, tb: number, vb: number) => {
@@ -98,7 +100,8 @@ function cycleStrength(t: Float64Array, v: Float64Array, from: number, fromInter
   piece(time, value, to, linearAt(t, v, toInterval, to));
   const span = to - from;
   const mean = area / span;
-  return Math.sqrt(2 * Math.max(0, squares / span - mean * mean));
+  out[0] = mean;
+  out[1] = Math.sqrt(2 * Math.max(0, squares / span - mean * mean));
 }
 
 /** A corner's second difference exceeds its neighbours' by this factor. */
@@ -127,6 +130,8 @@ export function cyclesBetween(t: Float64Array, v: Float64Array, crossings: Cross
   const minimum = new Float64Array(count);
   const envelope = new Float64Array(count);
   const strength = new Float64Array(count);
+  const mean = new Float64Array(count);
+  const pair = new Float64Array(2);
   const midTime = new Float64Array(count);
   const c = cubicScratch();
   const roots = new Float64Array(2);
@@ -145,8 +150,10 @@ export function cyclesBetween(t: Float64Array, v: Float64Array, crossings: Cross
     maximum[k] = refinedExtreme(t, v, iMax, 1, from, to, c, roots);
     minimum[k] = refinedExtreme(t, v, iMin, -1, from, to, c, roots);
     envelope[k] = 0.5 * (maximum[k] - minimum[k]);
-    strength[k] = cycleStrength(t, v, from, crossings.intervals[k], to, crossings.intervals[k + 1]);
+    cycleStrength(t, v, from, crossings.intervals[k], to, crossings.intervals[k + 1], pair);
+    mean[k] = pair[0]!;
+    strength[k] = pair[1]!;
     midTime[k] = 0.5 * (from + to);
   }
-  return { count, start: crossings.times, maximum, minimum, envelope, strength, midTime };
+  return { count, start: crossings.times, maximum, minimum, envelope, strength, mean, midTime };
 }

@@ -75,6 +75,12 @@ export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend:
     return `only ${cycles.count} cycles: too few to judge settling (need ${settings.settleCycles + 1}); run longer`;
   }
   const limit = `settled needs under ${formatPercent(settings.settleTolerance)}`;
+  if (reason.kind === "drifting") {
+    return (
+      `the amplitude is steady but the mean level still drifts, up to ${formatPercent(reason.largest)} of the amplitude per cycle ` +
+      `over the last ${trend.changes} cycles (${limit}): the DC levels are still settling; run longer`
+    );
+  }
   if (reason.kind === "relaxing") {
     return (
       `amplitude still relaxing after its peak: envelope ${formatPercent(Math.expm1(trend.meanLogChange), true)}/cycle ` +

@@ -2,7 +2,7 @@ import { centreLevel } from "./centre-level.js";
 import { findRisingCrossings } from "./crossings.js";
 import { cyclesBetween } from "./cycles.js";
 import type { CycleTable } from "./cycles.js";
-import { firstExcursion } from "./excursion.js";
+import { startupMoment } from "./excursion.js";
 import { explainDecaying, explainGrowing, explainOther, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
 import { startupGrowthRate } from "./growth-rate.js";
 import { analyseCycles } from "./harmonic-analysis.js";
@@ -138,9 +138,9 @@ function windowFigures(cycles: CycleTable, from: number) {
  * amplitude, the mean envelope of the measured cycles when `unsettled`, or the largest
  * envelope when `growing`.
  *
- * Start-up time is resolved on the signal itself (the first moment |v − offset| reaches
- * 0.9·amplitude, where the signal touches its envelope); settling time on the per-cycle
- * envelope (see `settlingTime`).
+ * Start-up time is resolved on the signal itself (the first moment |v − c| reaches
+ * 0.9·amplitude, c the centre of the first cycle whose envelope reaches it, see
+ * `startupMoment`); settling time on the per-cycle envelope (see `settlingTime`).
  */
 export function measureStartup(t: Float64Array, v: Float64Array, options: StartupMetricsOptions = {}): StartupMetrics {
   checkWaveform("measureStartup", t, v);
@@ -181,7 +181,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   let largest = 0;
   for (let k = 0; k < n; k++) largest = Math.max(largest, cycles.envelope[k]);
   const amplitude = settled ? figures.meanEnvelope : cycles.envelope[n - 1];
-  const growthRate = startupGrowthRate(cycles, verdict, verdict === "growing" ? largest : figures.meanEnvelope, settings);
+  const growthRate = startupGrowthRate(cycles, verdict, verdict === "growing" ? largest : figures.meanEnvelope, settings, analysis.offset);
   const period = 1 / figures.frequency;
 
   let explanation: string;
@@ -191,7 +191,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   let suggestedExtraTime: number | undefined;
   switch (judgement.verdict) {
     case "settled": {
-      startupTime = firstExcursion(t, v, analysis.offset, STARTUP_FRACTION * amplitude, settings.searchFrom);
+      startupTime = startupMoment(t, v, cycles, analysis.offset, STARTUP_FRACTION * amplitude, settings.searchFrom);
       const steadyOn = judgement.steadyOn ?? "envelope";
       const measure = steadyOn === "envelope" ? cycles.envelope : cycles.strength;
       let level = 0;

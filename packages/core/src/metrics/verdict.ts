@@ -37,7 +37,19 @@ export type SilentReason =
 export type TrendReason =
   | { readonly kind: "trend" }
   | { readonly kind: "too-short-to-judge" }
-  | { readonly kind: "relaxing" };
+  | { readonly kind: "relaxing" }
+  | { readonly kind: "drifting"; readonly largest: number };
+
+/**
+ * The largest change of the per-cycle mean between neighbouring cycles over the last `changes`
+ * changes, relative to the envelope: a DC level still settling (after a power-on ramp).
+ */
+export function meanDrift(cycles: CycleTable, changes: number): number {
+  const n = cycles.count;
+  let largest = 0;
+  for (let k = n - changes; k < n; k++) largest = Math.max(largest, Math.abs(cycles.mean[k] - cycles.mean[k - 1]) / cycles.envelope[k]);
+  return largest;
+}
 
 /**
  * A verdict, why, and the trend over the last min(settleCycles, cycles − 1) changes (absent
@@ -69,7 +81,9 @@ export type SteadyMeasure = "envelope" | "strength";
  *    strength (√2 × r.m.s.). Each is fooled by a different numerical artefact and neither by
  *    a real change of amplitude: a sample overshooting at a clip corner moves a cycle's peak
  *    but hardly its power; a sharp corner between samples moves the power's quadrature by a
- *    little but not a flat top's peak. A wandering amplitude moves both;
+ *    little but not a flat top's peak. A wandering amplitude moves both. The per-cycle mean
+ *    must be steady too, within `settleTolerance` of the envelope per cycle (else `unsettled`,
+ *    drifting: the DC levels still settle);
  * 5. `growing` if ln E rises by more than `settleTolerance` per cycle on average over the tail
  *    with at least {@link TREND_CONSISTENCY} of the changes rises;
  * 6. `unsettled` otherwise: too short to tell, relaxing (the tail falls as in 2 and so do that
@@ -106,8 +120,12 @@ export function judgeEnvelope(cycles: CycleTable, settings: StartupSettings): Ju
     return { verdict: "silent", reason: { kind: "below-noise-floor", largest }, trend };
   }
   if (n >= settings.settleCycles + 1) {
-    if (trend.largestChange < tol) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn: "envelope" };
-    if (tailTrend(cycles.strength, trend.changes).largestChange < tol) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn: "strength" };
+    const steadyOn = trend.largestChange < tol ? "envelope" : tailTrend(cycles.strength, trend.changes).largestChange < tol ? "strength" : null;
+    if (steadyOn) {
+      const drift = meanDrift(cycles, trend.changes);
+      if (drift < tol) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn };
+      return { verdict: "unsettled", reason: { kind: "drifting", largest: drift }, trend };
+    }
   }
   if (trend.meanLogChange > tol && trend.risingFraction >= TREND_CONSISTENCY) {
     return { verdict: "growing", reason: { kind: "trend" }, trend };
