@@ -230,7 +230,7 @@ const cases: readonly Case[] = [
       "t.onset:1:19: error: unknown unit 'kOhm' in '1kOhm' (did you mean 'kohm'?)",
       "  resistor R1 a gnd 1kOhm",
       "                    ^~~~~",
-      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
     ].join("\n"),
   },
   {
@@ -991,6 +991,96 @@ const cases: readonly Case[] = [
       "  param R = 15.8k each",
       "                  ^~~~",
       "hint: write a tolerance on the value, e.g. param R = 10k±1% each, or remove each",
+    ].join("\n"),
+  },
+  {
+    code: "bad-word",
+    source: "resistor R1 o gnd 1k\nstartup probe=o kick=termal",
+    expected: [
+      "t.onset:2:22: error: kick=termal is not a choice for startup (did you mean 'thermal'?)",
+      "  startup probe=o kick=termal",
+      "                       ^~~~~~",
+      "hint: kick= is one of thermal, power-on, noise, none",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o temperature=-300",
+    expected: [
+      "t.onset:2:29: error: temperature= of startup must be between -273.15 and 1k, got -300",
+      "  startup probe=o temperature=-300",
+      "                              ^~~~",
+      "hint: temperature= is the temperature of the resistances in °C (kick=thermal, power-on)",
+    ].join("\n"),
+  },
+  {
+    code: "not-integer",
+    source: "resistor R1 o gnd 1k\nstartup probe=o seeds=2.5",
+    expected: [
+      "t.onset:2:23: error: seeds= of startup must be a whole number, got 2.5",
+      "  startup probe=o seeds=2.5",
+      "                        ^~~",
+      "hint: seeds= is the number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o seeds=0",
+    expected: [
+      "t.onset:2:23: error: seeds= of startup must be between 1 and 10k, got 0",
+      "  startup probe=o seeds=0",
+      "                        ^",
+      "hint: seeds= is the number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o ramp=-1m kick=power-on",
+    expected: [
+      "t.onset:2:22: error: ramp= of startup must be at least 0 s, got -1m s",
+      "  startup probe=o ramp=-1m kick=power-on",
+      "                       ^~~",
+      "hint: ramp= is the time the DC levels take to rise from 0 (kick=power-on)",
+    ].join("\n"),
+  },
+  {
+    code: "unused-option",
+    source: "capacitor C1 o gnd 1u\nresistor R1 o gnd 1k\nstartup probe=o kick=thermal ramp=2m", warnings: true,
+    expected: [
+      "t.onset:3:30: warning: ramp= has no effect with kick=thermal",
+      "  startup probe=o kick=thermal ramp=2m",
+      "                               ^~~~",
+      "hint: ramp= is the time the DC levels take to rise from 0 (kick=power-on); it acts with kick=power-on",
+    ].join("\n"),
+  },
+  {
+    code: "unit-mismatch",
+    source: "opamp U1 p gnd o noise=20nV\nresistor R1 o p 1k",
+    expected: [
+      "t.onset:1:24: error: unit mismatch: '20nV' is in volts (V), but noise= of opamp U1 is in volts per root hertz (V/rtHz or V/√Hz, e.g. 20nV/rtHz)",
+      "  opamp U1 p gnd o noise=20nV",
+      "                         ^~~~",
+      "hint: write 20n or 20nV/√Hz",
+    ].join("\n"),
+  },
+  {
+    code: "conflicting-options",
+    source: "opamp U1 p gnd o noise=20nV/rtHz gbw=inf\nresistor R1 o p 1k",
+    expected: [
+      "t.onset:1:1: error: opamp U1: gbw=inf leaves the slew limit nothing to act on",
+      "  opamp U1 p gnd o noise=20nV/rtHz gbw=inf",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: the slew rate limits how fast the pole's capacitance charges; with gbw=inf write slew=inf too (or give a finite gbw=)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "vsource V1 a gnd wave=pulse low=0 high=1 rise=1m fall=1m width=0.5m period=2m\nresistor R1 a gnd 1k",
+    expected: [
+      "t.onset:1:1: error: vsource V1: rise + width + fall (0.0025 s) is longer than the period (0.002 s)",
+      "  vsource V1 a gnd wave=pulse low=0 high=1 rise=1m fall=1m width=0.5m period=2m",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: shorten width= or the edges: width = period − rise − fall leaves no time at low; width=0 with rise + fall = period is a triangle",
     ].join("\n"),
   },
 ];

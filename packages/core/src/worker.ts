@@ -1,8 +1,7 @@
-// Worker-thread entry of the Monte Carlo pool: runs one sample per message.
+// Worker-thread entry of the job pool: runs one job (a Monte Carlo sample, a start-up seed) per message.
 import { parentPort } from "node:worker_threads";
-import type { Circuit } from "./circuit/circuit.js";
-import { runSample, type SampleSettings } from "./study/sample.js";
+import { runJob, type Job } from "./study/jobs.js";
 
-parentPort?.on("message", (message: { circuit: Circuit; settings: SampleSettings }) => {
-  parentPort!.postMessage(runSample(message.circuit, message.settings));
+parentPort?.on("message", (job: Job) => {
+  parentPort!.postMessage(runJob(job));
 });

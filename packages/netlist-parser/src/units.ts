@@ -110,6 +110,11 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
     const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "V/s", form: "si", value: scaled(coefficient, exponent, shift) };
     return slew[1] ? { ...literal, prefix: slew[1] } : literal;
   }
+  const density = /^([fpnuµμmkMGT])?V\/(?:rtHz|√Hz)$/.exec(suffix);
+  if (density) {
+    const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "V/√Hz", form: "si", value: scaled(coefficient, exponent, density[1] ? SI_PREFIXES[density[1]]! : 0) };
+    return density[1] ? { ...literal, prefix: density[1] } : literal;
+  }
   const whole = UNIT_SPELLINGS[suffix];
   if (whole) return withUnit(text, mantissa, undefined, suffix, coefficient, exponent);
   const first = suffix[0]!;
@@ -134,7 +139,7 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
   return {
     code: "bad-unit",
     message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,
-    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
   };
 }
 
@@ -180,6 +185,7 @@ const UNIT_NAMES: Readonly<Record<UnitSymbol, string>> = {
   s: "seconds (s)",
   Hz: "hertz (Hz)",
   "V/s": "volts per second (V/s, or V/us)",
+  "V/√Hz": "volts per root hertz (V/rtHz or V/√Hz, e.g. 20nV/rtHz)",
   rad: "radians (rad, or deg)",
   "1": "a plain ratio",
 };

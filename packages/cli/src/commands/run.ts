@@ -1,4 +1,4 @@
-import { checkTopology, drawSample, isSimulating, runCircuit, runSweep, sweepValues, type Circuit, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { checkTopology, drawSample, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
 import { elaborateSource, loadSource, STDIN_NAME, type LoadedSource } from "../input/source.js";
@@ -16,8 +16,9 @@ import { optionTarget } from "./output-options.js";
 import { renderWarnings } from "./problems.js";
 import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
 
-function plainOutcome(ctx: CommandContext, circuit: Circuit, sample?: { index: number; drawn: Record<string, number> }): Outcome {
-  const run = runCircuit(circuit, { onProgress: ctx.progress.simulation("simulating") });
+/** The file's plain analyses; the further seeds of `startup seeds=N` run on `jobs` workers. */
+async function plainOutcome(ctx: CommandContext, circuit: Circuit, jobs: number, sample?: { index: number; drawn: Record<string, number> }): Promise<Outcome> {
+  const run = await runCircuitInParallel(circuit, { onProgress: ctx.progress.simulation("simulating"), jobs });
   ctx.progress.stop();
   const analyses = circuit.analyses.filter(isSimulating);
   return {
@@ -41,14 +42,14 @@ function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<st
   return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: circuit.analyses.filter(isSimulating) };
 }
 
-function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number): Outcome {
+function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, jobs: number): Promise<Outcome> {
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   if (!tolerance) throw usageError("no-tolerance", "--sample needs a file with a tolerance analysis", "add a line such as: tolerance runs=200");
   if (index >= tolerance.runs) throw usageError("bad-option", `--sample ${index} is past the study's ${tolerance.runs} runs`, `give an index from 0 to ${tolerance.runs - 1}`);
   const sweep = circuit.analyses.find((a): a is SweepAnalysis => a.kind === "sweep");
   const drawn = drawSample(drawnTolerances(circuit, sweep), tolerance.seed, index, tolerance.dist);
   const sampled = elaborateSource(source, { ...sets, ...drawn }).circuit;
-  return plainOutcome(ctx, sampled, { index, drawn });
+  return plainOutcome(ctx, sampled, jobs, { index, drawn });
 }
 
 /** --shard and --resume need a tolerance study to act on; --results without one is only noted. */
@@ -104,8 +105,8 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
   checkOutputs([outputs.csv, outputs.svg, results], ctx.json);
   refuseInputs([outputs.csv, outputs.svg, results], inputFiles(source), ctx.io.cwd);
   let outcome: Outcome;
-  if (sample !== undefined) outcome = sampleRerun(ctx, source, sets, circuit, sample);
-  else if (plain) outcome = plainOutcome(ctx, circuit);
+  if (sample !== undefined) outcome = await sampleRerun(ctx, source, sets, circuit, sample, jobs);
+  else if (plain) outcome = await plainOutcome(ctx, circuit, jobs);
   else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {

@@ -33,7 +33,9 @@ export function startupJson(r: StartupResult): Json {
     rms: r.rms,
     offset: r.offset,
     startupTime: r.startupTime,
+    startupTimeSpread: r.startupTimeSpread ? { ...r.startupTimeSpread, seeds: [...r.startupTimeSpread.seeds], times: [...r.startupTimeSpread.times] } : undefined,
     settlingTime: r.settlingTime,
+    dutyCycle: r.dutyCycle,
     growthRate: r.growthRate,
     thd: r.thd,
     harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),
@@ -41,9 +43,10 @@ export function startupJson(r: StartupResult): Json {
     suggestedExtraTime: r.suggestedExtraTime,
     until: r.run.until,
     maxStep: r.run.maxStep,
-    kick: { ...r.run.kick },
+    excitation: { ...r.run.excitation },
     predicted: { ...r.run.predicted },
     solver: { ...r.run.solver },
+    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, hint: w.hint })),
   };
 }
 

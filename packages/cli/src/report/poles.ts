@@ -32,8 +32,8 @@ export function polesReport(r: PolesResult, check: PredictionCheck | null, unit:
       ),
     );
     lines.push(
-      p.dim(`    predicted start-up time = ln(0.9 × settled amplitude / kick response) / growth rate, kick response ${si(check.kickResponse, unit, 3)}`),
-      p.dim("    (largest departure of the probe during the kick)"),
+      p.dim(`    predicted start-up time = ln(0.9 × settled amplitude / start level) / growth rate, start level ${si(check.startLevel, unit, 3)}`),
+      p.dim("    (√2 × the excitation's noise r.m.s. at the probe, linearised at the bias point)"),
     );
   }
   return lines;

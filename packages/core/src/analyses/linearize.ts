@@ -13,7 +13,7 @@ export interface SmallSignal {
 /**
  * Linearises every part at `x`: an op-amp becomes its single-pole small-signal model (the clamp
  * and slew terms contribute their slopes, which vanish inside the limits), a diode its
- * small-signal conductance and junction capacitance.
+ * small-signal conductance and junction capacitance. The circuit is taken fully powered.
  */
 export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
   const n = system.n;
@@ -29,6 +29,6 @@ export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
       if (row >= 0 && col >= 0) C[row * n + col] += value;
     },
   };
-  for (const device of system.nonlinear) device.load(x, load);
+  for (const device of system.nonlinear) device.load(x, load, Infinity);
   return { n, G, C };
 }

@@ -43,3 +43,38 @@ export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
 export function allNodeProbes(system: MnaSystem): Probe[] {
   return system.unknowns.filter((u) => u.isNode).map((u) => ({ kind: "node", node: u.label }) as const);
 }
+
+/** A probe's small-signal weights: its change per unit change of each unknown and of each rate. */
+export interface ProbeWeights {
+  readonly value: Float64Array;
+  readonly rate: Float64Array;
+}
+
+/**
+ * The probe linearised at the operating point x (rates 0): central differences of its reader,
+ * exact for a node, a difference and the current of a linear part.
+ */
+export function probeWeights(system: MnaSystem, probe: Probe, x: Float64Array): ProbeWeights {
+  const read = probeReader(system, probe);
+  const n = system.n;
+  const value = new Float64Array(n);
+  const rate = new Float64Array(n);
+  const at = Float64Array.from(x);
+  const rates = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const h = 1e-6 * Math.max(1, Math.abs(x[i]!));
+    at[i] = x[i]! + h;
+    const up = read(at, rates, 0);
+    at[i] = x[i]! - h;
+    const down = read(at, rates, 0);
+    at[i] = x[i]!;
+    value[i] = (up - down) / (2 * h);
+    rates[i] = h;
+    const rateUp = read(at, rates, 0);
+    rates[i] = -h;
+    const rateDown = read(at, rates, 0);
+    rates[i] = 0;
+    rate[i] = (rateUp - rateDown) / (2 * h);
+  }
+  return { value, rate };
+}

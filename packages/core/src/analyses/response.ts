@@ -8,6 +8,7 @@ import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
+import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { RunOptions } from "./transient.js";
 
 export interface ResponsePoint {
@@ -106,20 +107,9 @@ export class PhasorSolver {
 
   /** The probe's phasor [re, im] at frequency f (Hz). */
   at(f: number): [number, number] {
-    const { n, G, C } = this.ss;
-    const n2 = 2 * n;
-    const omega = 2 * Math.PI * f;
+    const n = this.ss.n;
     const m = this.m;
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const g = G[i * n + j]!;
-        const c = omega * C[i * n + j]!;
-        m[i * n2 + j] = g;
-        m[i * n2 + n + j] = -c;
-        m[(n + i) * n2 + j] = c;
-        m[(n + i) * n2 + n + j] = g;
-      }
-    }
+    fillPhasorMatrix(this.ss, 2 * Math.PI * f, m, false);
     if (!this.lu.factor(m)) throw simulationError("singular-response", `the small-signal circuit is singular at ${f} Hz`);
     this.lu.solve(this.rhs, this.x);
     let re = 0;

@@ -5,6 +5,7 @@ import { runPoles, type PolesResult } from "./poles.js";
 import { runResponse, type ResponseResult } from "./response.js";
 import { runStartup, type StartupResult } from "./startup.js";
 import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
+import { startupSpread } from "../study/startup-spread.js";
 
 /** The result of one simulating analysis. */
 export type AnalysisResult = BiasResult | TransientResult | StartupResult | ResponseResult | PolesResult;
@@ -23,8 +24,11 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
       return runBias(circuit, analysis, options);
     case "transient":
       return runTransient(circuit, analysis, options);
-    case "startup":
-      return runStartup(circuit, analysis, options);
+    case "startup": {
+      const first = runStartup(circuit, analysis, options);
+      if (!((analysis.seeds ?? 1) > 1) || options.seedSpread === false) return first;
+      return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, options.tolerances) };
+    }
     case "response":
       return runResponse(circuit, analysis, options);
     case "poles":
@@ -43,11 +47,15 @@ export function specCriteria(circuit: Circuit): SpecAnalysis["criteria"] {
   return circuit.analyses.flatMap((a) => (a.kind === "spec" ? a.criteria : []));
 }
 
+/** The file's spec checked on the first start-up result (null without either). */
+export function circuitSpec(circuit: Circuit, results: readonly AnalysisResult[]): SpecReport | null {
+  const criteria = sampleCriteria(specCriteria(circuit));
+  const startup = results.find((r): r is StartupResult => r.analysis === "startup");
+  return criteria.length > 0 && startup ? evaluateSpec(criteria, startup) : null;
+}
+
 /** Runs every simulating analysis of a circuit in file order and checks its spec. */
 export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
   const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, options));
-  const criteria = sampleCriteria(specCriteria(circuit));
-  const startup = results.find((r): r is StartupResult => r.analysis === "startup");
-  const spec = criteria.length > 0 && startup ? evaluateSpec(criteria, startup) : null;
-  return { results, spec };
+  return { results, spec: circuitSpec(circuit, results) };
 }

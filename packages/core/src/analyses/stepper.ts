@@ -273,6 +273,17 @@ export class TransientStepper {
     }
   }
 
+  /** The largest share of its allowed change per step any watched state makes (0: none watched). */
+  private changeRatio(): number {
+    const watchers = this.system.changeWatchers;
+    let ratio = 0;
+    for (let d = 0; d < watchers.length; d++) {
+      const r = watchers[d]!.changeRatio!(this.x, this.xNew);
+      if (r > ratio) ratio = r;
+    }
+    return ratio;
+  }
+
   private collectSolverCounts(): void {
     this.stats.newtonIterations = this.solver.iterations;
     this.stats.factorizations = this.solver.factorizations;
@@ -325,6 +336,18 @@ export class TransientStepper {
         }
         continue;
       }
+      const change = this.changeRatio();
+      if (change > 1) {
+        this.stats.rejected++;
+        this.h = h * Math.max(0.2, 0.9 / change);
+        if (this.h < minStep) {
+          this.collectSolverCounts();
+          throw simulationError("step-too-small", `the time step fell below ${minStep.toExponential(1)} s at t = ${this.t.toPrecision(6)} s to follow an amplifier's output`, {
+            hint: "an output that jumps between its limits faster than the solver can follow; give the op-amp a finite gbw= or slew=",
+          });
+        }
+        continue;
+      }
       const ratio = this.truncationRatio(target, be);
       if (ratio > 1) {
         this.stats.rejected++;
@@ -351,6 +374,8 @@ export class TransientStepper {
         this.h = nominal;
       } else {
         let factor = ratio < 0 ? 1.5 : ratio === 0 ? 2 : Math.min(2, Math.max(0.2, 0.9 * stepRatio(ratio, be)));
+        // A watched state's change grows about in proportion to the step.
+        if (change > 0) factor = Math.min(factor, Math.max(1, 0.9 / change));
         // Keep the step (and with it the factorisation) unless a change is worth it.
         if (factor > 1 && factor < 1.2) factor = 1;
         this.h = factor < 1 ? Math.min(nominal, h * factor) : nominal * factor;

@@ -31,6 +31,11 @@ export interface RunOptions {
   readonly onProgress?: ProgressListener;
   /** Parts added for this run only (a start-up kick). */
   readonly extraParts?: readonly PartSpec[];
+  /**
+   * Whether a `startup` with `seeds=N` repeats its run for the other N − 1 seeds (default true);
+   * sweeps and tolerance studies run each setting or sample with the first seed only.
+   */
+  readonly seedSpread?: boolean;
 }
 
 /** Records the chosen probes at every accepted point. */

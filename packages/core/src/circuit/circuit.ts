@@ -53,16 +53,31 @@ export interface TransientAnalysis {
   readonly span?: SourceSpan;
 }
 
+/**
+ * How a start-up run is excited: `thermal` (every resistance's Johnson–Nyquist noise and every
+ * op-amp's input noise, the whole run), `power-on` (the same noise, with every DC level rising
+ * from 0 over a ramp), `noise` (a seeded current into the probe node for a few cycles), `none`.
+ */
+export type StartupKick = "thermal" | "power-on" | "noise" | "none";
+
 export interface StartupAnalysis {
   readonly kind: "startup";
   readonly probe: Probe;
   /** Seconds, or `auto`: run (bounded) until the verdict is settled or clearly silent. */
   readonly until: number | "auto";
   readonly maxStep?: number;
-  readonly kick: "noise" | "none";
-  /** Kick current level (A r.m.s.). */
+  /** Default `thermal`. */
+  readonly kick?: StartupKick;
+  /** `kick=noise`: the injected current (A r.m.s.; default 1 nA). */
   readonly level?: number;
+  /** Seed of every noise stream (default 1). */
   readonly seed?: number;
+  /** `kick=thermal` and `power-on`: the temperature of the resistances (°C; default 27). */
+  readonly temperature?: number;
+  /** `kick=power-on`: how long the DC levels take to rise from 0 (s; default 1 ms). */
+  readonly ramp?: number;
+  /** The start-up run repeated with this many seeds (seed, seed + 1, …) for the start-up time's spread (default 1). */
+  readonly seeds?: number;
   readonly span?: SourceSpan;
 }
 

@@ -4,7 +4,7 @@
  */
 
 /** Unit symbols as the language writes them; `1` is a plain ratio; `S` is siemens (A/V). */
-export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "rad" | "1";
+export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "1";
 
 interface OptionBase {
   /** One line for docs and hints. */

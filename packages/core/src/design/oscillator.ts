@@ -56,11 +56,12 @@ export interface DesignResult {
 }
 
 /**
- * Growth the start-up estimate assumes: from the simulator's kick (about 1 pV at an op-amp
- * output) to a volt-scale amplitude, a factor of 10¹², i.e. ln(10¹²) ≈ 27.6 envelope time
- * constants (measured on the examples: 21–26).
+ * Growth the start-up estimate assumes: from the circuit's own thermal noise (tens of µV at an
+ * op-amp output, the start-up analysis's default excitation) to a volt-scale amplitude, a
+ * factor of about 10⁶, i.e. ln(10⁶) ≈ 13.8 envelope time constants (measured on the examples
+ * with kick=thermal: 10.5–16).
  */
-export const STARTUP_GROWTH = Math.log(1e12);
+export const STARTUP_GROWTH = Math.log(1e6);
 
 /** What a run of the designed file measured; `error` is frequency / target − 1. */
 export interface SimulatedStartup {
@@ -350,7 +351,7 @@ function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string 
     `# small-signal poles of the snapped circuit (the start): ${result.predicted.frequency.toFixed(2)} Hz (${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
     ...simulatedLine(result.simulated, pct),
     `# gain: ${sizing.gainNote};`,
-    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from the start-up kick to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
   ];
   const startupLimit = writeValue(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate));
   return [

@@ -14,12 +14,45 @@ export interface UnknownOptions {
   readonly backwardEuler?: boolean;
 }
 
+/**
+ * The circuit switched on at t = 0: every DC level of every source, and the fixed rails of
+ * op-amps without supply pins, rise linearly from 0 to their value over `ramp` seconds.
+ */
+export interface PowerOn {
+  readonly ramp: number;
+}
+
+/** The fraction of its final value a ramped DC level has reached at time t. */
+export function powerOnLevel(powerOn: PowerOn, t: number): number {
+  return t <= 0 ? 0 : t >= powerOn.ramp ? 1 : t / powerOn.ramp;
+}
+
 /** Handed to a device factory: resolves nodes and allocates extra unknowns. */
 export interface SetupContext {
   /** Index of a node in the unknown vector; -1 for ground. */
   node(name: string): number;
   /** Allocates an extra unknown (a branch current or an internal state). */
   addUnknown(label: string, kind: UnknownKind, options?: UnknownOptions): number;
+  /** Set when the run starts from the unpowered circuit (`startup kick=power-on`). */
+  readonly powerOn?: PowerOn;
+}
+
+/**
+ * One independent noise generator of a part, described by its small-signal injection: its level
+ * x(t) (a current in A, or an input voltage in V) adds gain·x to excitation row `to` and
+ * subtracts it from row `from` (-1: none). For a current source between two nodes the gain is
+ * 1 (it leaves `from` and enters `to`); for a voltage in series with a branch it is 1 on the
+ * branch row; an op-amp's input noise voltage enters its pole row through the input stage's
+ * transconductance.
+ */
+export interface NoiseGenerator {
+  /** Names the generator's random stream under the seed: `R1`, `P1.end1`, `D1.series`, `U1.input`. */
+  readonly name: string;
+  /** One-sided spectral density of x (A²/Hz for a current, V²/Hz for a voltage). */
+  readonly density: number;
+  readonly from: number;
+  readonly to: number;
+  readonly gain: number;
 }
 
 /** Accumulates the constant (linear) parts of G and C. Indices of -1 (ground) are ignored. */
@@ -59,13 +92,28 @@ export interface SourceTerm {
 
 /** A device whose equations depend nonlinearly on the unknowns. */
 export interface NonlinearTerm {
-  /** Adds f(x), q(x) and, when asked, their Jacobians. */
-  load(x: Float64Array, out: NonlinearLoad): void;
+  /**
+   * Adds f(x), q(x) and, when asked, their Jacobians, at time `t` (only devices with a ramped
+   * supply depend on it; small-signal analyses pass Infinity: the circuit fully powered).
+   */
+  load(x: Float64Array, out: NonlinearLoad, t: number): void;
   /**
    * Voltage-limiting hook: the largest fraction λ ∈ (0, 1] of the Newton update `dx` from `x`
    * that keeps this device in a region where its linearisation is trustworthy.
    */
   limitStep?(x: Float64Array, dx: Float64Array): number;
+  /**
+   * Whether the device's tangents at `x` still describe it at x + dx. The Newton core does not
+   * accept a solve on an update a device does not trust, however small: near a steep, curved
+   * characteristic (a clamp's knee) a tiny update can hide a large residual.
+   */
+  tangentHolds?(x: Float64Array, dx: Float64Array): boolean;
+  /**
+   * Step-control hook for a state the truncation-error estimate does not watch: how much of
+   * the largest change one time step may make, from `x` to the candidate `xNew`, the candidate
+   * makes (above 1: the step is retried shorter).
+   */
+  changeRatio?(x: Float64Array, xNew: Float64Array): number;
 }
 
 /** A part once placed in the unknown vector. */
@@ -81,6 +129,13 @@ export interface Device {
   initialCharge?(q: Float64Array): void;
   /** The part's current (pin 1 → pin 2 through the part) at time t, given the unknowns and their rates. */
   current?(x: Float64Array, dxdt: Float64Array, t: number): number;
+  /** The part's own noise at an absolute temperature (K): thermal noise of its resistances, an op-amp's input noise. */
+  noise?(kelvin: number): readonly NoiseGenerator[];
+  /**
+   * For a limiting amplifier: the unknown that its limits confine (an op-amp's pole node) and
+   * the range (low, high) it is confined to at operating point x, fully powered.
+   */
+  outputLimits?(x: Float64Array): { readonly state: number; readonly low: number; readonly high: number };
 }
 
 /** Which pins conduct at DC and which pins an ideal voltage constraint ties together. */

@@ -2,6 +2,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { BOLTZMANN, thermalCurrent } from "./thermal-noise.js";
 
 export const diodeSchema: PartKindSchema = {
   kind: "diode",
@@ -17,7 +18,7 @@ export const diodeSchema: PartKindSchema = {
 };
 
 /** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (docs/references.md §7: 25.8649 mV). */
-export const THERMAL_VOLTAGE = (1.380649e-23 * 300.15) / 1.602176634e-19;
+export const THERMAL_VOLTAGE = (BOLTZMANN * 300.15) / 1.602176634e-19;
 /** A conductance across every junction so a reverse-biased diode never leaves a node floating. */
 export const JUNCTION_LEAK = 1e-12;
 /** Junction potential and grading coefficient of the depletion capacitance (abrupt junction). */
@@ -169,6 +170,8 @@ export const diode: DeviceModel = {
         }
         return i;
       },
+      // The series resistance is an ohmic resistor; the junction's shot noise is not modelled.
+      noise: series > 0 ? (kelvin) => [thermalCurrent(`${part.name}.series`, series, kelvin, anode, a)] : undefined,
     };
   },
 };

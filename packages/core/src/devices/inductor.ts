@@ -2,6 +2,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive } from "./options.js";
 import { stampBranch } from "./stamps.js";
+import { thermalVoltage } from "./thermal-noise.js";
 
 export const inductorSchema: PartKindSchema = {
   kind: "inductor",
@@ -48,6 +49,7 @@ export const inductor: DeviceModel = {
       current(x) {
         return x[k]!;
       },
+      noise: series > 0 ? (kelvin) => [thermalVoltage(`${part.name}.series`, series, kelvin, k)] : undefined,
     };
   },
 };

@@ -4,6 +4,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive, wordOption } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { thermalCurrent } from "./thermal-noise.js";
 
 export const potSchema: PartKindSchema = {
   kind: "pot",
@@ -76,6 +77,8 @@ export const pot: DeviceModel = {
       current(x) {
         return (valueAt(x, e1) - valueAt(x, w)) / r1;
       },
+      // Each half of the track is a resistor of its own, with its own noise.
+      noise: (kelvin) => [thermalCurrent(`${part.name}.end1`, r1, kelvin, e1, w), thermalCurrent(`${part.name}.end2`, r2, kelvin, w, e2)],
     };
   },
 };

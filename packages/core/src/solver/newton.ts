@@ -96,8 +96,9 @@ export class NewtonSolver {
   private baseValid = false;
   private luValid = false;
   private readonly linear: boolean;
-  /** The nonlinear devices with a step-limiting hook. */
+  /** The nonlinear devices with a step-limiting hook, and those that check their tangents. */
   private readonly limiters: readonly NonlinearTerm[];
+  private readonly tangentCheckers: readonly NonlinearTerm[];
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
     const n = system.n;
@@ -120,6 +121,7 @@ export class NewtonSolver {
     this.baseRowStart = new Int32Array(n + 1);
     this.linear = system.nonlinear.length === 0;
     this.limiters = system.nonlinear.filter((d) => d.limitStep !== undefined);
+    this.tangentCheckers = system.nonlinear.filter((d) => d.tangentHolds !== undefined);
     system.unknowns.forEach((u, i) => {
       this.tol[i] = u.kind === "current" ? tolerances.newtonCurrent : tolerances.newtonVoltage;
     });
@@ -167,8 +169,12 @@ export class NewtonSolver {
   /** Whether `u` holds zeros (set when every source was silent). */
   private uZero = false;
 
+  /** The time of the next solve (set by `loadSources`), handed to time-dependent devices. */
+  private time = 0;
+
   /** Fills `u` with every source's value at `t`, scaled by `scale`. */
   loadSources(t: number, scale: number, left: boolean): void {
+    this.time = t;
     const sources = this.system.sources;
     const quietAfter = this.quietAfter;
     const u = this.u;
@@ -268,7 +274,8 @@ export class NewtonSolver {
     if (this.load.charged) this.qNonlinear.fill(0);
     this.deviceJacobian.clear();
     const devices = this.system.nonlinear;
-    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load);
+    const t = this.time;
+    for (let d = 0; d < devices.length; d++) devices[d]!.load(x, load, t);
   }
 
   /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
@@ -325,6 +332,9 @@ export class NewtonSolver {
         const l = limiters[d]!.limitStep!(x, dx);
         if (l < lambda) lambda = l;
       }
+      let trusted = lambda === 1;
+      const checkers = this.tangentCheckers;
+      for (let d = 0; trusted && d < checkers.length; d++) trusted = checkers[d]!.tangentHolds!(x, dx);
       let norm = 0;
       const relative = this.relative;
       const tol = this.tol;
@@ -344,7 +354,7 @@ export class NewtonSolver {
       // Stopping rule of simplified Newton (Hairer & Wanner, Solving ODEs II, §IV.8): with the
       // contraction ρ = ‖Δₖ‖/‖Δₖ₋₁‖ (or the last solve's), the error left after this update is
       // about ρ/(1 − ρ)·‖Δₖ‖, so the iterate is accepted once that is within tolerance.
-      if (lambda === 1) {
+      if (trusted) {
         const rho = iter > 1 ? norm / previousNorm : this.contraction;
         if (iter > 1 && rho < 1) this.contraction = Math.max(1e-3, rho);
         if (norm <= 1 || (this.mode === "step" && rho < 1 && (iter > 1 || norm <= 100) && (rho / (1 - rho)) * norm <= 1)) return this.finish(true, iter, worst);
@@ -352,7 +362,7 @@ export class NewtonSolver {
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
-      if (norm > this.chordLimit || lambda < 1 || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) this.luValid = false;
+      if (norm > this.chordLimit || !trusted || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) this.luValid = false;
       previousNorm = norm;
     }
     return this.finish(false, maxIterations, worst);

@@ -2,7 +2,7 @@ import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
 import { didYouMean } from "../circuit/suggest.js";
-import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownKind } from "../devices/device.js";
+import type { Device, LinearStamp, NonlinearTerm, PowerOn, SourceTerm, UnknownKind } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
 
@@ -35,6 +35,8 @@ export interface MnaSystem {
   readonly deviceByName: ReadonlyMap<string, Device>;
   readonly sources: readonly SourceTerm[];
   readonly nonlinear: readonly NonlinearTerm[];
+  /** The nonlinear devices that watch their own change per step (see `NonlinearTerm.changeRatio`). */
+  readonly changeWatchers: readonly NonlinearTerm[];
   /** Row-major n×n. */
   readonly G: Float64Array;
   readonly C: Float64Array;
@@ -65,8 +67,14 @@ function toTriplets(dense: Float64Array, n: number): Triplets {
   return { rows, cols, values };
 }
 
+/** How the circuit is set up for a run. */
+export interface BuildOptions {
+  /** Start from the unpowered circuit: DC levels and fixed rails ramp up (see `PowerOn`). */
+  readonly powerOn?: PowerOn;
+}
+
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
-export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = []): MnaSystem {
+export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = [], options: BuildOptions = {}): MnaSystem {
   const parts = [...circuit.parts, ...extraParts];
   const nodeIndex = new Map<string, number>();
   const unknowns: UnknownInfo[] = [];
@@ -93,10 +101,11 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
           if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'${didYouMean(name, nodeIndex.keys())}`, { span: part.span });
           return i;
         },
-        addUnknown(label, kind, options) {
-          unknowns.push({ label, kind, isNode: false, backwardEuler: options?.backwardEuler ?? false });
+        addUnknown(label, kind, unknownOptions) {
+          unknowns.push({ label, kind, isNode: false, backwardEuler: unknownOptions?.backwardEuler ?? false });
           return unknowns.length - 1;
         },
+        ...(options.powerOn ? { powerOn: options.powerOn } : {}),
       });
       devices.push(device);
       deviceByName.set(part.name, device);
@@ -141,6 +150,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     deviceByName,
     sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
     nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
+    changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
     G,
     C,
     gTriplets: toTriplets(G, n),
@@ -148,4 +158,9 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     backwardEulerRows,
     stateColumns: Int32Array.from(states),
   };
+}
+
+/** The same system with further excitations (a noise bank built from its devices). */
+export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
+  return { ...system, sources: [...system.sources, ...sources] };
 }

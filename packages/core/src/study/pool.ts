@@ -1,7 +1,15 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import type { Circuit } from "../circuit/circuit.js";
-import { runSample, type SampleOutcome, type SampleSettings } from "./sample.js";
+import { runJob, type Job, type JobResult } from "./jobs.js";
+import type { SampleOutcome, SampleSettings } from "./sample.js";
+
+/** Runs jobs, in this thread or on worker threads. */
+export interface JobPool {
+  readonly jobs: number;
+  run<J extends Job>(job: J): Promise<JobResult<J>>;
+  close(): Promise<void>;
+}
 
 /** Runs samples, in this thread or on worker threads. */
 export interface SamplePool {
@@ -29,40 +37,40 @@ function workerEntry(): URL | null {
   return new URL(here.endsWith(".cjs") ? "./worker.cjs" : "./worker.js", here);
 }
 
-function inThread(settings: SampleSettings): SamplePool {
+function inThread(): JobPool {
   return {
     jobs: 1,
-    run: (circuit) => Promise.resolve(runSample(circuit, settings)),
+    run: <J extends Job>(job: J) => Promise.resolve(runJob(job) as JobResult<J>),
     close: () => Promise.resolve(),
   };
 }
 
 interface Pending {
-  resolve(outcome: SampleOutcome): void;
+  resolve(outcome: unknown): void;
   reject(error: Error): void;
 }
 
-/** A pool of `jobs` workers (one sample each at a time); one job, or sources, run in this thread. */
-export function createSamplePool(jobs: number, settings: SampleSettings): SamplePool {
+/** A pool of `jobs` workers (one job each at a time); one job, or sources, run in this thread. */
+export function createJobPool(jobs: number): JobPool {
   const entry = workerEntry();
-  if (jobs <= 1 || entry === null) return inThread(settings);
+  if (jobs <= 1 || entry === null) return inThread();
   // Workers inherit the parent's flags, except those Node refuses in a worker.
   const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
   const idle: Worker[] = [];
-  const waiting: Array<{ circuit: Circuit; pending: Pending }> = [];
+  const waiting: Array<{ job: Job; pending: Pending }> = [];
   const busy = new Map<Worker, Pending>();
   const workers: Worker[] = [];
-  const dispatch = (worker: Worker, circuit: Circuit, pending: Pending) => {
+  const dispatch = (worker: Worker, job: Job, pending: Pending) => {
     busy.set(worker, pending);
-    worker.postMessage({ circuit, settings });
+    worker.postMessage(job);
   };
   for (let k = 0; k < jobs; k++) {
     const worker = new Worker(entry, { execArgv });
-    worker.on("message", (outcome: SampleOutcome) => {
+    worker.on("message", (outcome: unknown) => {
       const pending = busy.get(worker)!;
       busy.delete(worker);
       const next = waiting.shift();
-      if (next) dispatch(worker, next.circuit, next.pending);
+      if (next) dispatch(worker, next.job, next.pending);
       else idle.push(worker);
       pending.resolve(outcome);
     });
@@ -75,15 +83,22 @@ export function createSamplePool(jobs: number, settings: SampleSettings): Sample
   }
   return {
     jobs,
-    run(circuit) {
-      return new Promise<SampleOutcome>((resolve, reject) => {
+    run<J extends Job>(job: J) {
+      return new Promise<JobResult<J>>((resolve, reject) => {
+        const pending: Pending = { resolve: (o) => resolve(o as JobResult<J>), reject };
         const worker = idle.pop();
-        if (worker) dispatch(worker, circuit, { resolve, reject });
-        else waiting.push({ circuit, pending: { resolve, reject } });
+        if (worker) dispatch(worker, job, pending);
+        else waiting.push({ job, pending });
       });
     },
     async close() {
       await Promise.all(workers.map((w) => w.terminate()));
     },
   };
+}
+
+/** A pool that runs Monte Carlo samples with the given settings. */
+export function createSamplePool(jobs: number, settings: SampleSettings): SamplePool {
+  const pool = createJobPool(jobs);
+  return { jobs: pool.jobs, run: (circuit) => pool.run({ kind: "sample", circuit, settings }), close: () => pool.close() };
 }
