@@ -40,7 +40,7 @@ function check(parts: PartSpec[], reference: SettledReference) {
 }
 
 describe("hard-clipped oscillators against their ideal-amplifier state equations (odex, Gragg–Bulirsch–Stoer)", () => {
-  // Wien at A = 3.3: odex gives 1541.4769 Hz, the fundamental 11.3473 V (references §2.4 lists the same digits).
+  // Wien at A = 3.3: odex gives 1541.4769 Hz, the fundamental 11.3473 V (docs/references.md §2.4 lists the same digits).
   let wienRef: SettledReference;
   let ladderRef: SettledReference;
 
