@@ -7,7 +7,8 @@ import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, withSources, type MnaSystem } from "../solver/system.js";
-import { resolveTolerances } from "../solver/tolerances.js";
+import { accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import type { NumericalError } from "../steady/refine.js";
 import { NoiseBank } from "../waves/noise-bank.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -17,6 +18,7 @@ import { latchedAt, outputRange } from "./latch.js";
 import { linearize } from "./linearize.js";
 import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
+import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
@@ -33,6 +35,10 @@ const AUTO_MAX_CYCLES = 4000;
 const AUTO_FIRST_CYCLES = 60;
 /** Frequency assumed when the linearised circuit has no complex poles (Hz). */
 const FALLBACK_FREQUENCY = 1e3;
+/** THD counts harmonics 2 … this order unless `harmonics=` or `bandwidth=` says otherwise. */
+export const DEFAULT_THD_ORDER = 30;
+/** A measured frequency within this fraction of a periodic source's is that source's (a driven circuit). */
+const DRIVE_MATCH = 1e-3;
 /**
  * The peak a stationary noise of r.m.s. σ is taken to reach: the largest per-cycle envelope of
  * narrow-band Gaussian noise over thousands of cycles is about √(2 ln 4000)·σ ≈ 4.1σ (a Rayleigh
@@ -62,8 +68,33 @@ export interface StartupTimeSpread {
   readonly max: number | null;
 }
 
+/** Where the settled figures come from, and how sure they are. */
+export interface SettledFigures {
+  /**
+   * `orbit`: the periodic steady state next to the settled run, found by shooting on the run's
+   * own step pattern and on it halved, and extrapolated in the step; `run`: the run's last
+   * cycles (when no orbit was found, or the run did not settle).
+   */
+  readonly from: "orbit" | "run";
+  /** Why the orbit was not used, when it was tried. */
+  readonly note: string | null;
+  /** Shooting iterations (periods integrated) on the two grids. */
+  readonly iterations: readonly [number, number] | null;
+  /** Grid points per period on the two grids. */
+  readonly points: readonly [number, number] | null;
+}
+
 export interface StartupResult extends StartupMetrics {
   readonly analysis: "startup";
+  /**
+   * The estimated numerical error of each settled figure (absolute, in its own unit: Hz, the
+   * probe's unit, a fraction for THD), from the difference between the two grids; null when the
+   * figures come from the run.
+   */
+  readonly numericalError: NumericalError | null;
+  /** The harmonic orders THD counts: [2, N]. */
+  readonly thdOrders: readonly [number, number];
+  readonly settled: SettledFigures;
   readonly probe: string;
   /** The unit of the probe's values, and so of amplitude, peak-to-peak, rms and offset. */
   readonly unit: QuantityUnit;
@@ -111,7 +142,7 @@ function corner(at: number): SourceTerm {
  * outcome's class.
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
-  const tolerances = resolveTolerances(options.tolerances);
+  const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const kick = analysis.kick ?? DEFAULT_KICK;
   // The prediction comes from the powered circuit without any excitation.
   const plain = buildSystem(circuit, options.extraParts);
@@ -152,8 +183,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
   const searchFrom = powerOn ? powerOn.ramp : 0;
   const drives = periodicDrives(circuit);
+  const windowOrder = thdOrder(analysis, f0);
   const measure = () =>
     measureStartup(time.view(), values.view(), {
+      maxOrder: windowOrder,
       noiseFloor: NOISE_PEAK * noiseAtProbe,
       ...(limit === undefined ? {} : { amplitudeLimit: limit }),
       ...(prediction ? { prediction } : {}),
@@ -191,6 +224,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const t = time.toArray();
   const v = values.toArray();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
+  const refined = refineSettled(metrics, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder });
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -200,7 +234,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     analysis: "startup",
     probe: probeName(analysis.probe),
     unit: probeUnit(system, analysis.probe),
-    ...metrics,
+    ...refined.metrics,
+    numericalError: refined.numericalError,
+    thdOrders: [2, refined.orders],
+    settled: refined.settled,
     run: {
       until: stepper.t,
       maxStep,
@@ -242,4 +279,50 @@ function reclassify(
     };
   }
   return metrics;
+}
+
+/** The highest harmonic THD counts: `harmonics=`, or the last below `bandwidth=` at frequency f. */
+function thdOrder(analysis: StartupAnalysis, f: number): number {
+  if (analysis.bandwidth !== undefined) return Math.max(2, Math.floor(analysis.bandwidth / f));
+  return analysis.harmonics ?? DEFAULT_THD_ORDER;
+}
+
+/**
+ * A settled run's figures replaced by those of the periodic steady state next to it (see
+ * `settledOrbit`), with their error bars; other outcomes keep the run's figures.
+ */
+function refineSettled(
+  metrics: StartupMetrics,
+  s: {
+    readonly quiet: MnaSystem;
+    readonly stepper: TransientStepper;
+    readonly analysis: StartupAnalysis;
+    readonly drives: readonly number[];
+    readonly maxStep: number;
+    readonly tolerances: Tolerances;
+    readonly orders: number;
+  },
+): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
+  const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
+  if (metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
+  const f = metrics.frequency;
+  const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
+  const orders = thdOrder(s.analysis, drive ?? f);
+  const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders);
+  if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);
+  return {
+    metrics: {
+      ...metrics,
+      frequency: orbit.frequency,
+      amplitude: orbit.amplitude,
+      peakToPeak: orbit.peakToPeak,
+      rms: orbit.rms,
+      offset: orbit.offset,
+      thd: orbit.thd,
+      harmonics: orbit.harmonics,
+    },
+    numericalError: orbit.numericalError,
+    orders,
+    settled: { from: "orbit", note: null, iterations: orbit.iterations, points: orbit.points },
+  };
 }

@@ -82,6 +82,14 @@ export interface StartupAnalysis {
   readonly ramp?: number;
   /** The start-up run repeated with this many seeds (seed, seed + 1, …) for the start-up time's spread (default 1). */
   readonly seeds?: number;
+  /** THD counts harmonics 2 … this order (default 30); see also `bandwidth`. */
+  readonly harmonics?: number;
+  /** THD counts the harmonics below this frequency (Hz) instead of up to an order. */
+  readonly bandwidth?: number;
+  /** Relative accuracy of the step control and of the settled figures (default 1e-4). */
+  readonly accuracy?: number;
+  /** Absolute accuracy floor of a voltage (V; default 1 µV; currents 1 nA per µV, temperatures 0.1 mK per µV). */
+  readonly accuracyFloor?: number;
   readonly span?: SourceSpan;
 }
 

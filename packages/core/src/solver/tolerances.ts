@@ -67,3 +67,17 @@ export function resolveTolerances(given: Partial<Tolerances> = {}): Tolerances {
   }
   return out as unknown as Tolerances;
 }
+
+/**
+ * The step-control settings of an analysis's `accuracy=` (relative) and `accuracy-floor=` (the
+ * absolute floor of a voltage): every quantity's floor scales with the voltage's, keeping the
+ * defaults' ratios (1 nA and 0.1 mK per µV). Unset values leave the defaults.
+ */
+export function accuracyTolerances(relative: number | undefined, voltageFloor: number | undefined): Partial<Tolerances> {
+  const out: Record<string, number> = {};
+  if (relative !== undefined) out.lteRelative = relative;
+  if (voltageFloor !== undefined) {
+    for (const { lte } of Object.values(QUANTITIES)) out[lte] = (voltageFloor * DEFAULT_TOLERANCES[lte]) / DEFAULT_TOLERANCES.lteVoltage;
+  }
+  return out as Partial<Tolerances>;
+}

@@ -50,7 +50,7 @@ function orbitRates(times: Float64Array, states: readonly Float64Array[], n: num
  * local cubics (the same interpolant the start-up metrics use) see a periodic signal; the
  * harmonics come from its uniform resampling over exactly one period.
  */
-export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number): OrbitMetrics {
+export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number, corners: readonly number[] = []): OrbitMetrics {
   const { states, fractions } = orbit;
   const T = orbit.start.period;
   const N = fractions.length;
@@ -70,7 +70,11 @@ export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
   t[N + 2] = T + times[1]!;
   v[N + 2] = v[2]!;
   const analysis = analyseCycles(t, v, 0, T, 1, maxOrder, 1 / T);
-  const { maximum, minimum } = extremes(t, v);
+  // Grid points on a source's corner (times from t₀): the waveform bends there, so no cubic spans them for the extremes.
+  const span = 1e-9 * T;
+  const bent = new Uint8Array(t.length);
+  for (const c of corners) for (let k = 1; k < t.length - 1; k++) if (Math.abs(t[k]! - c) <= span) bent[k] = 1;
+  const { maximum, minimum } = extremes(t, v, bent);
   return {
     frequency: 1 / T,
     amplitude: 0.5 * (maximum - minimum),
@@ -82,8 +86,11 @@ export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
   };
 }
 
-/** The largest and smallest values of the local cubics over the samples' intervals (one period). */
-function extremes(t: Float64Array, v: Float64Array): { maximum: number; minimum: number } {
+/**
+ * The largest and smallest values over the samples' intervals (one period): the samples, and the
+ * local cubics' stationary points on intervals whose cubic does not span a bent point.
+ */
+function extremes(t: Float64Array, v: Float64Array, bent: Uint8Array): { maximum: number; minimum: number } {
   const c = cubicScratch();
   const roots = new Float64Array(2);
   let maximum = -Infinity;
@@ -91,6 +98,8 @@ function extremes(t: Float64Array, v: Float64Array): { maximum: number; minimum:
   for (let i = 1; i < t.length - 2; i++) {
     maximum = Math.max(maximum, v[i]!);
     minimum = Math.min(minimum, v[i]!);
+    // The cubic on interval i passes through samples i − 1 … i + 2.
+    if (bent[i - 1] || bent[i] || bent[i + 1] || bent[i + 2]) continue;
     cubicOnInterval(t, v, i, c);
     const count = cubicStationaryPoints(c, roots);
     for (let r = 0; r < count; r++) {

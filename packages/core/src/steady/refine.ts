@@ -113,12 +113,30 @@ function halvedPredictor(states: readonly Float64Array[]): Float64Array[] {
  * m = m½ + (m½ − m₁)/3) and each carries the error bar |m½ − m₁|/3, the estimated error of the
  * finer grid's value, which bounds the extrapolated one's while the error follows h².
  */
-export function refineOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, trajectory: readonly Float64Array[], read: ProbeReader, maxOrder: number, tolerances?: Partial<Tolerances>): RefinedOrbit {
-  const options = { autonomous: true, ...(tolerances ? { tolerances } : {}) };
+export function refineOrbit(
+  system: MnaSystem,
+  guess: PeriodStart,
+  fractions: Float64Array,
+  trajectory: readonly Float64Array[],
+  read: ProbeReader,
+  maxOrder: number,
+  settings: {
+    readonly tolerances?: Partial<Tolerances>;
+    readonly autonomous?: boolean;
+    readonly relative?: number;
+    /** Times after the orbit's start where a source has a corner (a driven waveform bends there). */
+    readonly corners?: readonly number[];
+  } = {},
+): RefinedOrbit {
+  const options = {
+    autonomous: settings.autonomous ?? true,
+    ...(settings.tolerances ? { tolerances: settings.tolerances } : {}),
+    ...(settings.relative === undefined ? {} : { relative: settings.relative }),
+  };
   const coarse = shootOrbit(system, guess, fractions, trajectory, options);
   const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian });
-  const m1 = orbitMetrics(coarse, read, maxOrder);
-  const m2 = orbitMetrics(fine, read, maxOrder);
+  const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
+  const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   const extrapolate = (a: number, b: number) => b + (b - a) / 3;
   const bar = (a: number, b: number) => Math.abs(b - a) / 3;
   return {
