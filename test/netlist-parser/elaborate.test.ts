@@ -184,7 +184,7 @@ describe("overrides (--set)", () => {
     const r = elaborate(twinT, { overrides: { "N1.Rx": "1k" } });
     expect(r.circuit).toBeUndefined();
     expect(r.diagnostics.map((d) => d.message)).toEqual([
-      "cannot set 'N1.Rx': no parameter, part value or part option has that name (did you mean 'N1.R'?)",
+      "cannot set 'N1.Rx': no parameter, part value, part option or analysis option has that name (did you mean 'N1.R'?)",
     ]);
   });
 

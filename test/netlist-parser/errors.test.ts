@@ -1004,6 +1004,16 @@ const cases: readonly Case[] = [
     ].join("\n"),
   },
   {
+    code: "conflicting-options",
+    source: "resistor R1 o gnd 1k\nstartup probe=o harmonics=20 bandwidth=20k",
+    expected: [
+      "t.onset:2:30: error: startup takes harmonics= or bandwidth=, not both",
+      "  startup probe=o harmonics=20 bandwidth=20k",
+      "                               ^~~~~~~~~",
+      "hint: harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency",
+    ].join("\n"),
+  },
+  {
     code: "bad-word",
     source: "resistor R1 o gnd 1k\nstartup probe=o kick=termal",
     expected: [

@@ -1,6 +1,6 @@
 import type { Excitation, QuantityUnit, StartupResult, StartupTimeSpread } from "@onset/core";
 import type { Paint } from "../color.js";
-import { formatDecibel, formatPlain } from "../format/index.js";
+import { formatDecibel, formatPlain, formatWithError } from "../format/index.js";
 import { SPECTRUM_FLOOR_DBC } from "../plot/index.js";
 import { pairs, table } from "./table.js";
 import { percent, perSecond, si } from "./values.js";
@@ -52,20 +52,32 @@ export function excitationText(e: Excitation, unit: QuantityUnit): string {
  * The start-up report: the verdict and its one-line explanation first, then every metric with
  * its unit, the harmonics table, the excitation and the solver's counts; warnings last.
  */
+/** How many harmonics the table lists; THD may count more (see `thdOrders`). */
+const LISTED_HARMONICS = 10;
+
+/** A settled figure with its error bar when the result has one, else as measured. */
+function withBar(value: number | null, error: number | undefined, unit: string): string {
+  if (value === null) return si(null, unit);
+  if (error === undefined) return unit === "1" ? percent(value) : si(value, unit);
+  return formatWithError(value, error, unit);
+}
+
 export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): string[] {
   const lines = [`${p.bold(`start-up on ${r.probe}`)}: ${verdictText(r.verdict, p)}`, `  ${r.explanation}`, ""];
+  const e = r.numericalError ?? undefined;
+  const [, lastOrder] = r.thdOrders;
   const entries: [string, string][] = [
-    ["frequency", si(r.frequency, "Hz")],
+    ["frequency", withBar(r.frequency, e?.frequency, "Hz")],
     ["frequency spread", si(r.frequencySpread, "Hz", 3)],
-    ["amplitude", r.amplitude === null ? si(null, unit) : `${si(r.amplitude, unit)} peak`],
+    ["amplitude", r.amplitude === null ? si(null, unit) : `${withBar(r.amplitude, e?.amplitude, unit)} peak`],
     ["peak-to-peak", si(r.peakToPeak, unit)],
-    ["rms", si(r.rms, unit)],
+    ["rms", withBar(r.rms, e?.rms, unit)],
     ["offset", si(r.offset, unit, 3)],
     ["start-up time", si(r.startupTime, "s")],
     ...(r.startupTimeSpread ? [spreadEntry(r.startupTimeSpread)] : []),
     ["settling time", si(r.settlingTime, "s")],
     ["growth rate", perSecond(r.growthRate)],
-    ["THD", percent(r.thd)],
+    [`THD (2–${lastOrder})`, withBar(r.thd, e?.thd, "1")],
     ...(r.dutyCycle === null ? [] : [["duty cycle", percent(r.dutyCycle)] as [string, string]]),
     ["cycles", String(r.cycles)],
   ];
@@ -76,17 +88,22 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
     lines.push(
       ...table(
         [{ header: "order", align: "right" }, { header: "frequency", align: "right" }, { header: "amplitude", align: "right" }, { header: "level", align: "right" }],
-        r.harmonics.map((h) => [String(h.order), si(h.frequency, "Hz"), si(h.amplitude, unit), level(h.dBc)]),
+        r.harmonics.slice(0, LISTED_HARMONICS).map((h) => [String(h.order), si(h.frequency, "Hz"), si(h.amplitude, unit), level(h.dBc)]),
         "    ",
       ),
     );
   }
+  const rest = r.harmonics.slice(LISTED_HARMONICS);
+  if (rest.length > 0) {
+    const loudest = Math.max(...rest.map((h) => h.dBc));
+    lines.push(p.dim(`    harmonics ${LISTED_HARMONICS + 1}–${lastOrder}: each ${level(loudest).startsWith("<") ? level(loudest) : `at most ${level(loudest)}`}`));
+  }
   const s = r.run.solver;
-  const e = r.run.excitation;
-  const first = e.firstCycleRms === null ? "" : `; ${si(e.firstCycleRms, unit, 3)} rms at the probe over the first cycle${e.kind === "power-on" ? " after the ramp" : ""}`;
+  const x = r.run.excitation;
+  const first = x.firstCycleRms === null ? "" : `; ${si(x.firstCycleRms, unit, 3)} rms at the probe over the first cycle${x.kind === "power-on" ? " after the ramp" : ""}`;
+  lines.push("", p.dim(`  settled figures: ${settledText(r)}`));
   lines.push(
-    "",
-    p.dim(`  excitation: ${excitationText(e, unit)}${first}`),
+    p.dim(`  excitation: ${excitationText(x, unit)}${first}`),
     p.dim(`  simulated ${si(r.run.until, "s")}, largest step ${si(r.run.maxStep, "s", 3)}`),
     p.dim(`  solver: ${s.accepted} steps, ${s.rejected} rejected, ${s.newtonIterations} Newton iterations, ${s.factorizations} factorizations`),
   );
@@ -99,4 +116,13 @@ function spreadEntry(s: StartupTimeSpread): [string, string] {
   const missing = s.times.filter((x) => x === null).length;
   const tail = missing > 0 ? `; ${missing} of ${s.seeds.length} seeds did not settle` : "";
   return ["start-up spread", `${si(s.min, "s")} … ${si(s.max, "s")}, median ${si(s.median, "s")} over ${s.seeds.length} seeds${tail}`];
+}
+
+/** Where the settled figures come from and what their ± means. */
+function settledText(r: StartupResult): string {
+  const s = r.settled;
+  if (s.from === "orbit" && s.points && s.iterations) {
+    return `the periodic orbit next to the run, found by shooting on ${s.points[0]} and ${s.points[1]} points per period and extrapolated; ± is their difference, a bound on the numerical error`;
+  }
+  return s.note ?? "the run's last cycles";
 }

@@ -2,6 +2,7 @@ import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.j
 import { probeName } from "../circuit/circuit.js";
 import type { Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
+import { formatQuantity } from "../metrics/format.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
 import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
@@ -313,6 +314,8 @@ function refineSettled(
   return {
     metrics: {
       ...metrics,
+      // The one-line explanation names the settled amplitude and frequency: the orbit's now.
+      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, "V")} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,

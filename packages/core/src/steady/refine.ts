@@ -110,8 +110,7 @@ function halvedPredictor(states: readonly Float64Array[]): Float64Array[] {
 /**
  * The periodic steady state near a settled run, on the run's own grid and on that grid halved;
  * the figures are extrapolated to zero step (Richardson, the formulas being second order:
- * m = m½ + (m½ − m₁)/3) and each carries the error bar |m½ − m₁|/3, the estimated error of the
- * finer grid's value, which bounds the extrapolated one's while the error follows h².
+ * m = m½ + (m½ − m₁)/3) and each carries the error bar |m½ − m₁|.
  */
 export function refineOrbit(
   system: MnaSystem,
@@ -137,8 +136,13 @@ export function refineOrbit(
   const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian });
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
-  const extrapolate = (a: number, b: number) => b + (b - a) / 3;
-  const bar = (a: number, b: number) => Math.abs(b - a) / 3;
+  // A figure extrapolates only while the two grids agree on it to a part in two; one at the
+  // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
+  const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
+  // The whole difference between the grids, three times the finer grid's estimated error: it
+  // bounds the extrapolated value's error even where the error falls only as fast as the step
+  // (a waveform's corners resolved by the grid's points, not between them).
+  const bar = (a: number, b: number) => Math.abs(b - a);
   return {
     frequency: extrapolate(m1.frequency, m2.frequency),
     amplitude: extrapolate(m1.amplitude, m2.amplitude),

@@ -35,6 +35,10 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     level: { type: "number", unit: "A", ...positive, summary: "injected current, r.m.s. (kick=noise)" },
     seed: { type: "number", unit: "1", min: 0, max: Number.MAX_SAFE_INTEGER, integer: true, summary: "seed of every noise stream" },
     seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
+    harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
+    bandwidth: { type: "number", unit: "Hz", ...positive, summary: "THD counts the harmonics below this frequency instead" },
+    accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
+    "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
   },
   response: {
     from: { type: "source", summary: "independent source driven with a unit small signal" },
@@ -82,6 +86,24 @@ type Parsed = { num: Record<string, number>; word: Record<string, string>; probe
 function noTolerance(l: Located<unknown>, value: Value, what: string): void {
   if ((value.kind === "number" || value.kind === "paren") && value.tolerance) {
     raise("tolerance-here", `${what} cannot have a tolerance`, spanIn(l, value.tolerance.span), { hint: "tolerances go on part values, part options and parameters" });
+  }
+}
+
+/**
+ * `--set startup.accuracy=1e-6`: every number option of an analysis is also an override target
+ * `KEYWORD.option`, whose value wins over the written one (in every statement of that kind).
+ */
+function setFromOverrides(ctx: Elaboration, analysis: string, table: Readonly<Record<string, AnalysisOption>>, out: Parsed): void {
+  for (const [key, option] of Object.entries(table)) {
+    if (option.type !== "number") continue;
+    const target = `${analysis}.${key}`;
+    const info = { expect: { unit: option.unit }, range: option, summary: option.summary };
+    ctx.registerTarget(target, info);
+    const set = ctx.override(target, info);
+    if (set === undefined) continue;
+    checkRange(set, option, option.unit, `the value set for ${target}`, undefined, `${key}= is the ${option.summary}`);
+    out.num[key] = set;
+    delete out.word[key];
   }
 }
 
@@ -149,6 +171,7 @@ function readOptions(ctx: Elaboration, l: Located<AnalysisStatement>, globals: S
       }
     }
   }
+  setFromOverrides(ctx, stmt.analysis, table, out);
   for (const key of required[stmt.analysis] ?? []) {
     if (!out.given.has(key)) {
       raise("missing-option", `${stmt.analysis} needs ${key}=`, spanIn(l, stmt.keywordSpan), { hint: `${key}= is the ${table[key]!.summary}` });
@@ -189,6 +212,12 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
       const o = readOptions(ctx, a, globals, () => undefined);
       const kick = (o.word.kick ?? "thermal") as StartupKick;
       warnUnused(ctx, a, o, kick);
+      const bandwidth = o.given.get("bandwidth");
+      if (bandwidth && o.given.has("harmonics")) {
+        raise("conflicting-options", "startup takes harmonics= or bandwidth=, not both", spanIn(a, bandwidth.keySpan), {
+          hint: "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency",
+        });
+      }
       return withSpan(
         {
           kind: "startup" as const,
@@ -201,6 +230,10 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
           ...(o.num.temperature === undefined ? {} : { temperature: o.num.temperature }),
           ...(o.num.ramp === undefined ? {} : { ramp: o.num.ramp }),
           ...(o.num.seeds === undefined ? {} : { seeds: o.num.seeds }),
+          ...(o.num.harmonics === undefined ? {} : { harmonics: o.num.harmonics }),
+          ...(o.num.bandwidth === undefined ? {} : { bandwidth: o.num.bandwidth }),
+          ...(o.num.accuracy === undefined ? {} : { accuracy: o.num.accuracy }),
+          ...(o.num["accuracy-floor"] === undefined ? {} : { accuracyFloor: o.num["accuracy-floor"] }),
         },
         span,
       );

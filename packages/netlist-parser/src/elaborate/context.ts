@@ -129,8 +129,8 @@ export class Elaboration {
         severity: "error",
         stage: "input",
         code: "unknown-override",
-        message: `cannot set '${name}': no parameter, part value or part option has that name${didYouMean(name, this.targets.keys())}`,
-        hint: "set a parameter (R), a part's value (Ra, N1.Ra), a part option (P1.at) or an instance parameter (N1.R)",
+        message: `cannot set '${name}': no parameter, part value, part option or analysis option has that name${didYouMean(name, this.targets.keys())}`,
+        hint: "set a parameter (R), a part's value (Ra, N1.Ra), a part option (P1.at), an instance parameter (N1.R) or an analysis option (startup.accuracy)",
       });
     }
     return out;
