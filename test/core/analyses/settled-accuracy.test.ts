@@ -85,3 +85,19 @@ describe("the stepper's formulas are second order on every state, the op-amp's p
     expect(Math.max(...x)).toBeLessThan(10.01);
   });
 });
+
+describe("THD+N counts everything in the band but the fundamental", () => {
+  test("a 1 kHz sine plus 0.01 % at 2.5 kHz (no harmonic): THD ≈ 0, THD+N = 1e-4 (mathematics: orthogonal sines over whole periods)", () => {
+    const r = runStartup(
+      circuit([
+        part("vsource", "V1", ["m", "gnd"], undefined, { wave: "sine", amp: 1, freq: 1e3 }),
+        part("vsource", "V2", ["o", "m"], undefined, { wave: "sine", amp: 1e-4, freq: 2.5e3 }),
+        part("resistor", "R1", ["o", "gnd"], 1e3),
+      ]),
+      { kind: "startup", probe: node("o"), until: 20e-3, kick: "none", harmonics: 10 },
+    );
+    expect(r.verdict).toBe("settled");
+    expect(r.thd!).toBeLessThan(1e-6);
+    expect(Math.abs(r.thdPlusNoise! / 1e-4 - 1)).toBeLessThan(1e-2);
+  });
+});

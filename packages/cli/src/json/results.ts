@@ -40,6 +40,7 @@ export function startupJson(r: StartupResult): Json {
     growthRate: r.growthRate,
     thd: r.thd,
     thdOrders: [...r.thdOrders],
+    thdPlusNoise: r.thdPlusNoise,
     numericalError: r.numericalError ? { ...r.numericalError } : null,
     settled: { from: r.settled.from, note: r.settled.note, iterations: r.settled.iterations && [...r.settled.iterations], points: r.settled.points && [...r.settled.points] },
     harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),

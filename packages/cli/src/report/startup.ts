@@ -78,6 +78,10 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
     ["settling time", si(r.settlingTime, "s")],
     ["growth rate", perSecond(r.growthRate)],
     [`THD (2–${lastOrder})`, withBar(r.thd, e?.thd, "1")],
+    // THD+N is the run's own: its noise over its last cycles (the orbit is noiseless).
+    ...(r.thdPlusNoise !== null && (r.run.excitation.kind === "thermal" || r.run.excitation.kind === "power-on")
+      ? [[`THD+N (to ${lastOrder}·f)`, percent(r.thdPlusNoise)] as [string, string]]
+      : []),
     ...(r.dutyCycle === null ? [] : [["duty cycle", percent(r.dutyCycle)] as [string, string]]),
     ["cycles", String(r.cycles)],
   ];

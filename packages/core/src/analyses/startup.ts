@@ -308,6 +308,11 @@ function refineSettled(
   if (metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
   const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
+  // A driven circuit is periodic in the measured period only if every source repeats within it.
+  const harmonic = (d: number) => Math.abs(d / f - Math.round(d / f)) < DRIVE_MATCH * (d / f) && Math.round(d / f) >= 1;
+  if (s.drives.length > 0 && !s.drives.every(harmonic)) {
+    return fromRun("the settled figures are the run's last cycles: the sources have no common period with the measured one");
+  }
   const orders = thdOrder(s.analysis, drive ?? f);
   const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders);
   if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);

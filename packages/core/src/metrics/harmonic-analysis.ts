@@ -8,6 +8,8 @@ import type { Harmonic } from "./spectrum.js";
 export interface HarmonicAnalysis {
   /** THD_F over harmonics 2 … maxOrder, a fraction. */
   readonly thd: number;
+  /** THD+N: everything in the band up to harmonic maxOrder but the fundamental and DC, over the fundamental. */
+  readonly thdPlusNoise: number;
   /** Harmonics 1 … maxOrder. */
   readonly harmonics: Harmonic[];
   /** Mean over the cycles (V). */
@@ -93,6 +95,7 @@ export function analyseCycles(
   const spectrum = spectrumOfCheckedSamples(samples, cycles, maxOrder);
   return {
     thd: thdOfAmplitudes(spectrum.amplitudes),
+    thdPlusNoise: Math.sqrt(spectrum.bandResidual) / spectrum.amplitudes[0]!,
     harmonics: harmonicList(spectrum.amplitudes, fundamental),
     offset: spectrum.mean,
     rms: spectrum.rms,

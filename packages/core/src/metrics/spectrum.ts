@@ -20,6 +20,11 @@ export interface PeriodicSpectrum {
   readonly mean: number;
   /** r.m.s. of the samples, the mean included. */
   readonly rms: number;
+  /**
+   * The sum of squared peak amplitudes of every bin from the lowest up to harmonic `maxOrder`,
+   * the fundamental and DC excluded: harmonics and whatever noise lies in the band.
+   */
+  readonly bandResidual: number;
 }
 
 interface Transform {
@@ -85,7 +90,13 @@ export function spectrumOfCheckedSamples(samples: Float64Array, cycles: number, 
   }
   let sumSquares = 0;
   for (let m = 0; m < size; m++) sumSquares += samples[m] * samples[m];
-  return { amplitudes, mean: spectrum[0] / size, rms: Math.sqrt(sumSquares / size) };
+  let bandResidual = 0;
+  for (let bin = 1; bin <= maxOrder * cycles; bin++) {
+    if (bin === cycles) continue;
+    const a = ((bin === size / 2 ? 1 : 2) * Math.hypot(spectrum[2 * bin], spectrum[2 * bin + 1])) / size;
+    bandResidual += a * a;
+  }
+  return { amplitudes, mean: spectrum[0] / size, rms: Math.sqrt(sumSquares / size), bandResidual };
 }
 
 /**

@@ -47,6 +47,11 @@ export interface StartupMetrics {
   readonly growthRate: number | null;
   /** THD_F over harmonics 2 … maxOrder, a fraction (steady oscillations only). */
   readonly thd: number | null;
+  /**
+   * THD+N of the measured cycles of the record (settled only): everything in the band up to
+   * harmonic maxOrder but the fundamental, over it — the harmonics and the noise the run carries.
+   */
+  readonly thdPlusNoise: number | null;
   /** Harmonics 1 … maxOrder of the settled cycles; empty unless steady. */
   readonly harmonics: Harmonic[];
   /** Complete cycles in the whole record. */
@@ -166,6 +171,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       dutyCycle: null,
       growthRate: null,
       thd: null,
+      thdPlusNoise: null,
       harmonics: [],
       cycles: n,
       envelope,
@@ -233,6 +239,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     growthRate,
     dutyCycle,
     thd: settled ? analysis.thd : null,
+    thdPlusNoise: settled ? analysis.thdPlusNoise : null,
     harmonics: settled ? analysis.harmonics : [],
     cycles: n,
     envelope,
