@@ -15,40 +15,39 @@ def wien(c, r1, c1, r2, c2):
     c.capacitor("C2", "p", "gnd", c2)
 
 
-def wien_diode_2k():
-    c = Circuit("wien-diode-2k")
-    wien(c, 8.2e3, 10e-9, 8.2e3, 10e-9)
-    c.resistor("Rg", "n", "gnd", 10e3)
-    c.resistor("Rf1", "n", "f", 15e3)
-    c.resistor("Rf2", "f", "o", 6.8e3)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
-    c.opamp("U1", "p", "n", "o", preset="general")
+def antiparallel(c, a, b):
+    """The usual limiting pair: D1 from a to b, D2 from b to a (default diodes)."""
+    c.diode("D1", a, b)
+    c.diode("D2", b, a)
+
+
+def limited_feedback(c, rf1, rf2):
+    """Feedback n → o through Rf1 then Rf2, with the diode pair across Rf2."""
+    c.resistor("Rf1", "n", "f", rf1)
+    c.resistor("Rf2", "f", "o", rf2)
+    antiparallel(c, "f", "o")
+
+
+def diode_limited_wien(title, r, cap, rg, rf1, rf2, **opamp):
+    """Wien bridge (equal R, C) with gain 1 + (Rf1 + Rf2)/Rg and the diode pair across Rf2."""
+    c = Circuit(title)
+    wien(c, r, cap, r, cap)
+    c.resistor("Rg", "n", "gnd", rg)
+    limited_feedback(c, rf1, rf2)
+    c.opamp("U1", "p", "n", "o", **opamp)
     return c
+
+
+def wien_diode_2k():
+    return diode_limited_wien("wien-diode-2k", 8.2e3, 10e-9, 10e3, 15e3, 6.8e3, preset="general")
 
 
 def wien_diode_9k5():
-    c = Circuit("wien-diode-9k5")
-    wien(c, 3.4e3, 4.7e-9, 3.4e3, 4.7e-9)
-    c.resistor("Rg", "n", "gnd", 10e3)
-    c.resistor("Rf1", "n", "f", 15e3)
-    c.resistor("Rf2", "f", "o", 8.2e3)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
-    c.opamp("U1", "p", "n", "o", gain=200e3, gbw=1e6)
-    return c
+    return diode_limited_wien("wien-diode-9k5", 3.4e3, 4.7e-9, 10e3, 15e3, 8.2e3, gain=200e3, gbw=1e6)
 
 
 def wien_diode_ideal():
-    c = Circuit("wien-diode-ideal")
-    wien(c, 10e3, 10e-9, 10e3, 10e-9)
-    c.resistor("Rg", "n", "gnd", 4.7e3)
-    c.resistor("Rf1", "n", "f", 6.8e3)
-    c.resistor("Rf2", "f", "o", 3.3e3)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
-    c.opamp("U1", "p", "n", "o", gain=1e6, gbw=1e9, slew=float("inf"))
-    return c
+    return diode_limited_wien("wien-diode-ideal", 10e3, 10e-9, 4.7e3, 6.8e3, 3.3e3, gain=1e6, gbw=1e9, slew=float("inf"))
 
 
 def wien_rail_clipped():
@@ -60,20 +59,22 @@ def wien_rail_clipped():
     return c
 
 
-def phase_shift_ladder():
-    c = Circuit("phase-shift-ladder")
-    c.capacitor("C1", "o", "a", 10e-9)
-    c.resistor("R1", "a", "gnd", 10e3)
-    c.capacitor("C2", "a", "b", 10e-9)
-    c.resistor("R2", "b", "gnd", 10e3)
-    c.capacitor("C3", "b", "c", 10e-9)
-    c.resistor("R3", "c", "n", 10e3)
-    c.resistor("Rf1", "n", "f", 250e3)
-    c.resistor("Rf2", "f", "o", 68e3)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
-    c.opamp("U1", "gnd", "n", "o", preset="precision")
+def cr_ladder(title, r, cap, rf1, rf2, **opamp):
+    """Three C–R sections into an inverting stage (R3 its input resistor), diodes across Rf2."""
+    c = Circuit(title)
+    c.capacitor("C1", "o", "a", cap)
+    c.resistor("R1", "a", "gnd", r)
+    c.capacitor("C2", "a", "b", cap)
+    c.resistor("R2", "b", "gnd", r)
+    c.capacitor("C3", "b", "c", cap)
+    c.resistor("R3", "c", "n", r)
+    limited_feedback(c, rf1, rf2)
+    c.opamp("U1", "gnd", "n", "o", **opamp)
     return c
+
+
+def phase_shift_ladder():
+    return cr_ladder("phase-shift-ladder", 10e3, 10e-9, 250e3, 68e3, preset="precision")
 
 
 def twin_t():
@@ -85,10 +86,7 @@ def twin_t():
     c.capacitor("Cb", "m2", "t", 10e-9)
     c.resistor("Rs", "m2", "gnd", 4.5e3)
     c.resistor("Rin", "t", "n", 47e3)
-    c.resistor("Rf1", "n", "f", 1.3e6)
-    c.resistor("Rf2", "f", "o", 1.7e6)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
+    limited_feedback(c, 1.3e6, 1.7e6)
     c.resistor("Rp1", "o", "p", 47e3)
     c.resistor("Rp2", "p", "gnd", 1e3)
     c.opamp("U1", "p", "n", "o", preset="fast")
@@ -104,8 +102,7 @@ def bridge_excitation():
     c.resistor("Rf1", "n", "f1", 13e3)
     c.pot("P1", "f1", "f2", "f2", 5e3, at=0.5)
     c.resistor("Rf2", "f2", "o", 5.6e3)
-    c.diode("D1", "f2", "o")
-    c.diode("D2", "o", "f2")
+    antiparallel(c, "f2", "o")
     c.opamp("U1", "p", "n", "o", preset="general", rails=(-12.0, 12.0))
     return c
 
@@ -135,20 +132,7 @@ def tuning_reference():
 
 def cable_tracer():
     """examples/cable-tracer.onset."""
-    c = Circuit("cable-tracer")
-    R, C = 5.36e3, 10e-9
-    c.capacitor("C1", "o", "a", C)
-    c.resistor("R1", "a", "gnd", R)
-    c.capacitor("C2", "a", "b", C)
-    c.resistor("R2", "b", "gnd", R)
-    c.capacitor("C3", "b", "c", C)
-    c.resistor("R3", "c", "n", R)
-    c.resistor("Rf1", "n", "f", 150e3)
-    c.resistor("Rf2", "f", "o", 33e3)
-    c.diode("D1", "f", "o")
-    c.diode("D2", "o", "f")
-    c.opamp("U1", "gnd", "n", "o", preset="general", rails=(-9.0, 9.0))
-    return c
+    return cr_ladder("cable-tracer", 5.36e3, 10e-9, 150e3, 33e3, preset="general", rails=(-9.0, 9.0))
 
 
 # Case name (test/validation/cases.json) → builder.
