@@ -1,0 +1,54 @@
+// Issue 18: the validation table. Each case at default settings against its scipy reference
+// (test/validation/references.json; how it was computed: test/validation/references.md).
+import { LIMITS, caseCircuit, compareRows, runCase, validationCases } from "../../test/validation/validation-cases.mjs";
+import { printTable } from "../table.mjs";
+
+export const title = "Validation table: settled metrics at default settings against independent references (scipy Radau)";
+
+const UNITS = { frequency: "Hz", amplitude: "V", rms: "V", thd: "" };
+
+function value(metric, x) {
+  if (x === null || x === undefined) return "—";
+  return metric === "thd" ? `${(100 * x).toPrecision(7)} %` : `${x.toPrecision(9)} ${UNITS[metric]}`;
+}
+
+function bar(metric, x) {
+  if (x === null) return "—";
+  return metric === "thd" ? `± ${(100 * x).toPrecision(2)} %` : `± ${x.toPrecision(2)} ${UNITS[metric]}`;
+}
+
+export async function run() {
+  const rows = [];
+  let within = 0;
+  let judged = 0;
+  for (const c of validationCases()) {
+    if (!c.reference) {
+      rows.push({ case: c.name, metric: "—", reference: "not computed", Onset: "", error: "", "reported bar": "", covers: "", "wall ms": "" });
+      continue;
+    }
+    const { result, ms } = runCase(caseCircuit(c.file));
+    for (const r of compareRows(c.reference, result)) {
+      const ok = r.error !== null && Math.abs(r.error) <= r.limit;
+      if (r.judged) {
+        judged++;
+        if (ok) within++;
+      }
+      rows.push({
+        case: r.metric === "frequency" ? c.name : "",
+        metric: r.metric === "thd" && result.thdOrders ? `thd ${result.thdOrders.join("–")}` : r.metric,
+        reference: value(r.metric, r.reference),
+        Onset: value(r.metric, r.onset),
+        error: r.error === null ? "—" : `${r.error >= 0 ? "+" : "−"}${(100 * Math.abs(r.error)).toFixed(4)} %${r.judged ? (ok ? "" : " ✗") : " (below 0.01 %)"}`,
+        "reported bar": bar(r.metric, r.bar),
+        covers: r.covered === null ? "—" : r.covered ? "yes" : "NO",
+        "wall ms": r.metric === "frequency" ? ms.toFixed(0) : "",
+      });
+    }
+  }
+  printTable(rows);
+  console.log(
+    `\n${within} of ${judged} rows within issue 18's limits (frequency ${LIMITS.frequency * 100} %, amplitude and rms ${LIMITS.amplitude * 100} %, ` +
+      `THD ${LIMITS.thd * 100} % of itself above 0.01 %); ✗ marks the others. Error = (Onset − reference)/reference.`,
+  );
+  console.log("Reference: " + validationCases()[0].source);
+}
