@@ -110,7 +110,7 @@ function halvedPredictor(states: readonly Float64Array[]): Float64Array[] {
 /**
  * The periodic steady state near a settled run, on the run's own grid and on that grid halved;
  * the figures are extrapolated to zero step (Richardson, the formulas being second order:
- * m = m½ + (m½ − m₁)/3) and each carries the error bar |m½ − m₁|.
+ * m = m½ + (m½ − m₁)/3) and each carries the error bar |m − m₁|.
  */
 export function refineOrbit(
   system: MnaSystem,
@@ -139,10 +139,10 @@ export function refineOrbit(
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
-  // The whole difference between the grids, three times the finer grid's estimated error: it
-  // bounds the extrapolated value's error even where the error falls only as fast as the step
-  // (a waveform's corners resolved by the grid's points, not between them).
-  const bar = (a: number, b: number) => Math.abs(b - a);
+  // How far the extrapolation moved the value from the run's own grid, (4/3)·|m½ − m₁|: the true
+  // value lies within it whenever the error shrinks steadily as the grid is refined, even before
+  // it follows h² (a limiter's corners resolved by few points, a slowly attracting orbit).
+  const bar = (a: number, b: number) => Math.abs(extrapolate(a, b) - a);
   return {
     frequency: extrapolate(m1.frequency, m2.frequency),
     amplitude: extrapolate(m1.amplitude, m2.amplitude),

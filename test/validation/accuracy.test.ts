@@ -1,13 +1,8 @@
 // Issue 18's accuracy at default settings, row by row of the validation table: frequency within
 // 0.01 %, amplitude and r.m.s. within 0.1 %, THD within 1 % of itself (THD above 0.01 %), and a
 // reported error bar (`numericalError`) that covers the difference from the reference. The
-// references are scipy's (test/validation/references.json; references.md).
-//
-// Not part of the default suite: today's engine misses the frequency row on every case (the
-// trapezoidal warp at T/100, about −0.03 %) and has no error bars yet; the settled-orbit
-// refinement and error bars of issue 18 are meant to make every row pass. Run it with
-//   npx vitest run -c test/validation/vitest.strict.config.ts
-// and, once it passes, move it into the default suite (rename it to accuracy.test.ts).
+// references are scipy's (test/validation/references.json; references.md). The settled figures
+// come from the periodic orbit next to the run (see packages/core/src/steady/refine.ts).
 import { beforeAll, describe, expect, test } from "vitest";
 import type { StartupResult } from "@onset/core";
 import { caseCircuit, compareRows, LIMITS, METRICS, runCase, validationCases } from "./validation-cases.mjs";
