@@ -4,6 +4,7 @@ import { buildSystem } from "../solver/system.js";
 import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
 import type { RunOptions } from "./transient.js";
 import { solveBias, type BiasMethod } from "./bias.js";
+import { budgetOf } from "./limits.js";
 
 export interface BiasResult {
   readonly analysis: "bias";
@@ -17,6 +18,7 @@ export interface BiasResult {
 
 /** Runs a `bias` analysis: the DC operating point with node voltages and source currents. */
 export function runBias(circuit: Circuit, _analysis: BiasAnalysis, options: RunOptions = {}): BiasResult {
+  budgetOf(options).check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
   const point = solveBias(system, solver, solver.tolerances);

@@ -8,6 +8,7 @@ import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
 export interface Pole {
   /** rad/s */
@@ -98,9 +99,12 @@ export function startsFrom(pole: Pole): boolean {
 
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
 export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
+  const budget = budgetOf(options);
+  budget.check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
   const bias = solveBias(system, solver, solver.tolerances);
+  budget.check("after the bias point");
   const poles = pencilPoles(linearize(system, bias.x));
   const dominant = dominantPair(poles);
   return {

@@ -8,6 +8,7 @@ import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
 export interface ResponsePoint {
   /** Hz */
@@ -184,6 +185,7 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 
 /** Runs a `response` analysis: small-signal |H| and phase of `to` for a unit signal at `from`. */
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
+  const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
   const bias = solveBias(system, solver, solver.tolerances);
@@ -200,6 +202,7 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
   let previousPhase = 0;
   for (let k = 0; k < count; k++) {
     const f = start * Math.pow(stop / start, k / (count - 1));
+    budget.check("in the response sweep");
     const [re, im] = phasor.at(f);
     const magnitude = Math.hypot(re, im);
     const phase = k === 0 ? degrees(re, im) : unwrapNear(degrees(re, im), previousPhase);

@@ -5,6 +5,7 @@ import { runPoles, type PolesResult } from "./poles.js";
 import { runResponse, type ResponseResult } from "./response.js";
 import { runStartup, type StartupResult } from "./startup.js";
 import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
 /** The result of one simulating analysis. */
 export type AnalysisResult = BiasResult | TransientResult | StartupResult | ResponseResult | PolesResult;
@@ -45,7 +46,9 @@ export function specCriteria(circuit: Circuit): SpecAnalysis["criteria"] {
 
 /** Runs every simulating analysis of a circuit in file order and checks its spec. */
 export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
-  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, options));
+  const budget = budgetOf(options);
+  const shared = { ...options, budget };
+  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, shared));
   const criteria = sampleCriteria(specCriteria(circuit));
   const startup = results.find((r): r is StartupResult => r.analysis === "startup");
   const spec = criteria.length > 0 && startup ? evaluateSpec(criteria, startup) : null;

@@ -13,6 +13,7 @@ import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { probeReader } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
 /** The default r.m.s. kick current (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -90,10 +91,13 @@ function amplitudeLimit(circuit: Circuit): number | undefined {
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
   const tolerances = { ...DEFAULT_TOLERANCES, ...options.tolerances };
+  const budget = budgetOf(options);
+  if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run");
   // The prediction comes from the circuit without the kick (the kick source is off at DC anyway).
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
   const { pole } = predict(plain, bias.x);
+  budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;
   const level = analysis.level ?? DEFAULT_KICK_LEVEL;
@@ -123,6 +127,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     values.push(read(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
+  budget.watch(stepper, "the start-up run");
   // The kick's own peak response bounds what counts as silence.
   let kickPeak = 0;
   const restLevel = values.view()[0]!;

@@ -1,89 +1,40 @@
-import { availableParallelism } from "node:os";
-import { Worker } from "node:worker_threads";
 import type { Circuit } from "../circuit/circuit.js";
+import type { RunBudget } from "../analyses/limits.js";
 import { runSample, type SampleOutcome, type SampleSettings } from "./sample.js";
 
-/** Runs samples, in this thread or on worker threads. */
+/** Runs the samples of a study, in this thread or on worker threads. */
 export interface SamplePool {
+  /** How many samples it runs at once. */
   readonly jobs: number;
+  /** Runs one sample; rejects with a `RunLimitError` when the study's budget runs out. */
   run(circuit: Circuit): Promise<SampleOutcome>;
+  /** Stops the pool; samples still running are rejected. */
   close(): Promise<void>;
 }
 
-/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
-const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
-
-/** The default number of workers: the machine's cores. */
-export function defaultJobs(): number {
-  return Math.max(1, availableParallelism());
+/** What a pool is made for: the samples' shared settings, how many samples at most, and the study's budget. */
+export interface SamplePoolContext {
+  readonly settings: SampleSettings;
+  /** The number of samples the study will run (no use for more workers than that). */
+  readonly samples: number;
+  readonly budget: RunBudget;
 }
 
 /**
- * The built worker entry next to this module (`worker.js` beside the ESM build, `worker.cjs`
- * beside the CJS build), or null when running from TypeScript sources, which Node cannot load
- * in a worker.
+ * Makes the pool a study runs on. {@link inThreadPool} is the default; `workerPool(jobs)` from
+ * `@onset/core/node` runs samples on worker threads.
  */
-function workerEntry(): URL | null {
-  const here = import.meta.url;
-  if (here.endsWith(".ts")) return null;
-  return new URL(here.endsWith(".cjs") ? "./worker.cjs" : "./worker.js", here);
-}
+export type SamplePoolFactory = (context: SamplePoolContext) => SamplePool;
 
-function inThread(settings: SampleSettings): SamplePool {
-  return {
-    jobs: 1,
-    run: (circuit) => Promise.resolve(runSample(circuit, settings)),
-    close: () => Promise.resolve(),
-  };
-}
-
-interface Pending {
-  resolve(outcome: SampleOutcome): void;
-  reject(error: Error): void;
-}
-
-/** A pool of `jobs` workers (one sample each at a time); one job, or sources, run in this thread. */
-export function createSamplePool(jobs: number, settings: SampleSettings): SamplePool {
-  const entry = workerEntry();
-  if (jobs <= 1 || entry === null) return inThread(settings);
-  // Workers inherit the parent's flags, except those Node refuses in a worker.
-  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
-  const idle: Worker[] = [];
-  const waiting: Array<{ circuit: Circuit; pending: Pending }> = [];
-  const busy = new Map<Worker, Pending>();
-  const workers: Worker[] = [];
-  const dispatch = (worker: Worker, circuit: Circuit, pending: Pending) => {
-    busy.set(worker, pending);
-    worker.postMessage({ circuit, settings });
-  };
-  for (let k = 0; k < jobs; k++) {
-    const worker = new Worker(entry, { execArgv });
-    worker.on("message", (outcome: SampleOutcome) => {
-      const pending = busy.get(worker)!;
-      busy.delete(worker);
-      const next = waiting.shift();
-      if (next) dispatch(worker, next.circuit, next.pending);
-      else idle.push(worker);
-      pending.resolve(outcome);
-    });
-    worker.on("error", (error) => {
-      busy.get(worker)?.reject(error);
-      busy.delete(worker);
-    });
-    workers.push(worker);
-    idle.push(worker);
-  }
-  return {
-    jobs,
-    run(circuit) {
-      return new Promise<SampleOutcome>((resolve, reject) => {
-        const worker = idle.pop();
-        if (worker) dispatch(worker, circuit, { resolve, reject });
-        else waiting.push({ circuit, pending: { resolve, reject } });
-      });
-    },
-    async close() {
-      await Promise.all(workers.map((w) => w.terminate()));
-    },
-  };
-}
+/** Runs every sample in this thread, one at a time (works on any JavaScript platform). */
+export const inThreadPool: SamplePoolFactory = ({ settings, budget }) => ({
+  jobs: 1,
+  run: (circuit) => {
+    try {
+      return Promise.resolve(runSample(circuit, settings, budget));
+    } catch (error) {
+      return Promise.reject(error);
+    }
+  },
+  close: () => Promise.resolve(),
+});

@@ -1,6 +1,7 @@
 import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { runStartup } from "../analyses/startup.js";
+import { isRunLimitError, RunBudget, type RunLimits } from "../analyses/limits.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { meets, metricValue } from "../spec/evaluate.js";
@@ -43,9 +44,14 @@ export interface SampleOutcome {
   readonly error?: string;
 }
 
+/** What every sample of a study shares: plain data, so it can be posted to a worker thread. */
 export interface SampleSettings {
+  /** The spec criteria each sample is judged on. */
   readonly criteria: readonly SpecCriterion[];
+  /** Solver tolerances to change from their defaults. */
   readonly tolerances?: Partial<Tolerances>;
+  /** Limits of each sample's run when no budget is handed to {@link runSample} (no signal: it cannot be posted). */
+  readonly limits?: Omit<RunLimits, "signal">;
 }
 
 /** The first startup analysis of a circuit, which every sample is judged on. */
@@ -55,13 +61,14 @@ export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined
 
 /**
  * Runs one sample: the circuit's startup analysis (and the linear prediction) with the drawn
- * values already elaborated into it, then its criteria. A simulation failure fails the sample.
+ * values already elaborated into it, then its criteria. A simulation failure fails the sample;
+ * a limit that runs out ({@link RunLimitError}) stops it and is thrown, so the study stops too.
  */
-export function runSample(circuit: Circuit, settings: SampleSettings): SampleOutcome {
+export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget(settings.limits)): SampleOutcome {
   const analysis = startupAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {
-    const r = runStartup(circuit, analysis, { tolerances: settings.tolerances });
+    const r = runStartup(circuit, analysis, { tolerances: settings.tolerances, budget });
     // The startup run already linearised this circuit at its bias point: that is the poles analysis.
     const { frequency: predictedFrequency, growthRate: predictedGrowthRate } = r.run.predicted;
     const metrics: SampleMetrics = {
@@ -84,6 +91,7 @@ export function runSample(circuit: Circuit, settings: SampleSettings): SampleOut
       .map((c) => c.text);
     return { metrics, pass: failures.length === 0 && r.verdict === "settled", failures: r.verdict === "settled" ? failures : [`verdict ${r.verdict}`, ...failures] };
   } catch (error) {
+    if (isRunLimitError(error)) throw error;
     const message = isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
     return { metrics: null, pass: false, failures: ["simulation failed"], error: message };
   }

@@ -3,6 +3,7 @@ import { inputError } from "../circuit/diagnostic.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
 import { runStartup, type StartupResult } from "../analyses/startup.js";
 import type { RunOptions } from "../analyses/transient.js";
+import { budgetOf } from "../analyses/limits.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
 import type { CircuitBuilder } from "./tolerance.js";
@@ -82,10 +83,13 @@ function firstStartup(run: CircuitRun): StartupResult | undefined {
  * Runs the file's analyses at every setting of the sweep, then refines the start threshold by
  * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
  */
-export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, options: SweepOptions = {}): SweepResult {
+export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: SweepOptions = {}): SweepResult {
+  // One budget for every setting and the bisection: the wall time counts from here.
+  const options = { ...given, budget: budgetOf(given) };
   const values = sweepValues(analysis);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
+    options.budget.check(`before the sweep setting ${analysis.target} = ${value}`);
     const point = { value, run: runCircuit(build({ [analysis.target]: value }), options) };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
@@ -112,6 +116,7 @@ function bisectThreshold(
   const precision = options.precision ?? (analysis.log ? 1e-3 : 1e-3 * span);
   const narrow = (a: number, b: number) => (analysis.log ? Math.abs(Math.log(b / a)) < precision : Math.abs(b - a) < precision);
   const startsAt = (value: number): boolean => {
+    options.budget?.check(`while bisecting for the start threshold`);
     const circuit: Circuit = build({ [analysis.target]: value });
     const startup = startupAnalysisOf(circuit);
     if (!startup) return false;

@@ -1,6 +1,7 @@
 import type { SpecCriterion, SweepAnalysis, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { summarizeSamples, type ToleranceSample, type ToleranceSummary } from "./summary.js";
 import { sweepValues } from "./sweep.js";
+import { budgetOf } from "../analyses/limits.js";
 import { runToleranceStudy, type CircuitBuilder, type ToleranceStudyOptions } from "./tolerance.js";
 
 export interface WindowPoint {
@@ -61,8 +62,9 @@ export async function runDesignWindow(
   const points: WindowPoint[] = [];
   // The swept value overrides its own tolerance: the trimmer is set, not drawn.
   const drawnTolerances = tolerances.filter((t) => t.target !== sweep.target);
+  const budget = budgetOf(options);
   for (const value of values) {
-    const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, fixed: { ...options.fixed, [sweep.target]: value } });
+    const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, budget, fixed: { ...options.fixed, [sweep.target]: value } });
     const summary = summarizeSamples(samples, criteria);
     const point = { value, summary, samples, pass: summary.yield.value >= required };
     points.push(point);

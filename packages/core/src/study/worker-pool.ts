@@ -1,0 +1,124 @@
+import { availableParallelism } from "node:os";
+import { Worker } from "node:worker_threads";
+import type { Circuit } from "../circuit/circuit.js";
+import { runLimitError, type RunLimitRecord } from "../analyses/limits.js";
+import { inThreadPool, type SamplePool, type SamplePoolFactory } from "./pool.js";
+import type { SampleOutcome } from "./sample.js";
+
+/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
+const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
+
+/** A worker's answer: the sample's outcome, or the limit that stopped it. */
+export type WorkerReply = { readonly outcome: SampleOutcome } | { readonly limit: RunLimitRecord };
+
+/** The default number of workers: the machine's cores. */
+export function defaultJobs(): number {
+  return Math.max(1, availableParallelism());
+}
+
+/**
+ * The built worker entry next to this module (`worker.js` beside the ESM build, `worker.cjs`
+ * beside the CJS build), or null when running from TypeScript sources, which Node cannot load
+ * in a worker.
+ */
+function workerEntry(): URL | null {
+  const here = import.meta.url;
+  if (here.endsWith(".ts")) return null;
+  return new URL(here.endsWith(".cjs") ? "./worker.cjs" : "./worker.js", here);
+}
+
+interface Pending {
+  resolve(outcome: SampleOutcome): void;
+  reject(error: unknown): void;
+}
+
+/**
+ * Runs samples on `jobs` worker threads (one sample each at a time); one job, or running from
+ * TypeScript sources, runs them in this thread. The study's budget goes with every sample
+ * (its wall time as what is left); an aborted signal or the end of the wall time terminates
+ * the workers at once, so a sample stuck between its checks cannot hold the study.
+ */
+export function workerPool(jobs: number = defaultJobs()): SamplePoolFactory {
+  return (context) => {
+    const entry = workerEntry();
+    const count = Math.min(jobs, Math.max(1, context.samples));
+    if (count <= 1 || entry === null) return inThreadPool(context);
+    return startWorkers(entry, count, context);
+  };
+}
+
+function startWorkers(entry: URL, jobs: number, { settings, budget }: Parameters<SamplePoolFactory>[0]): SamplePool {
+  // Workers inherit the parent's flags, except those Node refuses in a worker.
+  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
+  const idle: Worker[] = [];
+  const waiting: Array<{ circuit: Circuit; pending: Pending }> = [];
+  const busy = new Map<Worker, Pending>();
+  const workers: Worker[] = [];
+  let stopped: unknown = null;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const stop = (reason: unknown) => {
+    if (stopped !== null) return;
+    stopped = reason;
+    for (const pending of [...busy.values(), ...waiting.map((w) => w.pending)]) pending.reject(reason);
+    busy.clear();
+    waiting.length = 0;
+    clearTimeout(timer);
+    budget.signal?.removeEventListener("abort", onAbort);
+    for (const w of workers) void w.terminate();
+  };
+  const stopByBudget = () => {
+    try {
+      budget.check("while samples ran on worker threads");
+    } catch (error) {
+      stop(error);
+    }
+  };
+  const onAbort = () => stopByBudget();
+  budget.signal?.addEventListener("abort", onAbort);
+  // A little after the deadline, in case a worker is busy between its own checks.
+  const left = budget.remaining();
+  if (left !== Infinity) timer = setTimeout(stopByBudget, Math.max(0, left * 1000) + 20);
+  timer?.unref?.();
+  const dispatch = (worker: Worker, circuit: Circuit, pending: Pending) => {
+    busy.set(worker, pending);
+    worker.postMessage({ circuit, settings: { ...settings, limits: budget.forWorker() } });
+  };
+  for (let k = 0; k < jobs; k++) {
+    const worker = new Worker(entry, { execArgv });
+    worker.on("message", (reply: WorkerReply) => {
+      const pending = busy.get(worker);
+      busy.delete(worker);
+      if (!pending) return;
+      if ("limit" in reply) {
+        stop(runLimitError(reply.limit));
+        return;
+      }
+      const next = waiting.shift();
+      if (next) dispatch(worker, next.circuit, next.pending);
+      else idle.push(worker);
+      pending.resolve(reply.outcome);
+    });
+    // A worker that fails outside a sample leaves the study without it: stop rather than wait.
+    worker.on("error", (error) => stop(error));
+    workers.push(worker);
+    idle.push(worker);
+  }
+  return {
+    jobs,
+    run(circuit) {
+      return new Promise<SampleOutcome>((resolve, reject) => {
+        if (stopped !== null) {
+          reject(stopped);
+          return;
+        }
+        const worker = idle.pop();
+        if (worker) dispatch(worker, circuit, { resolve, reject });
+        else waiting.push({ circuit, pending: { resolve, reject } });
+      });
+    },
+    async close() {
+      stop(new Error("the sample pool was closed"));
+      await Promise.all(workers.map((w) => w.terminate()));
+    },
+  };
+}
