@@ -17,6 +17,12 @@ export interface CliIo {
   readonly cwd: string;
   /** The stream progress bars draw on (a terminal); absent when none may be drawn. */
   readonly progressStream?: NodeJS.WriteStream;
+  /**
+   * Calls `stop` when the user interrupts (Ctrl-C, or a termination request) and returns the
+   * function that stops listening; without a listener an interrupt ends the process at once.
+   * `onset run --watch` listens while it waits for changes.
+   */
+  readonly onInterrupt?: (stop: () => void) => () => void;
 }
 
 /** Waits a few milliseconds without spinning (a non-blocking descriptor with nothing to read yet). */
@@ -71,5 +77,13 @@ export function processIo(): CliIo {
     env: process.env,
     cwd: process.cwd(),
     ...(process.stderr.isTTY ? { progressStream: process.stderr } : {}),
+    onInterrupt: (stop) => {
+      process.on("SIGINT", stop);
+      process.on("SIGTERM", stop);
+      return () => {
+        process.off("SIGINT", stop);
+        process.off("SIGTERM", stop);
+      };
+    },
   };
 }

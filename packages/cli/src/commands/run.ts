@@ -16,6 +16,7 @@ import { emitOutcome } from "./emit.js";
 import { optionTarget } from "./output-options.js";
 import { renderWarnings } from "./problems.js";
 import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
+import { watchCommand } from "./watch.js";
 
 function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, sample?: { index: number; drawn: Record<string, number> }): Outcome {
   const run = runCircuit(circuit, { onProgress: ctx.progress.simulation("simulating"), limits });
@@ -72,7 +73,12 @@ function inputFiles(source: LoadedSource): string[] {
  * plain analyses once instead, `--sample I` reruns one sample of the study. Every output is
  * checked before the simulation starts (see `outputTarget`), so a bad path costs no time.
  */
-export async function runCommand(ctx: CommandContext, args: ParsedArgs, signal?: AbortSignal): Promise<number> {
+export function runCommand(ctx: CommandContext, args: ParsedArgs): Promise<number> {
+  return args.flags.has("watch") ? watchCommand(ctx, args, runOnce) : runOnce(ctx, args);
+}
+
+/** One run of `onset run FILE`; `signal` stops a study (`--watch` aborts one when a file changes). */
+async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSignal): Promise<number> {
   const path = args.positionals[0]!;
   const sets = overridesOf(args);
   const given = limitsOf(args);
