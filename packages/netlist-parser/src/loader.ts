@@ -1,7 +1,7 @@
 import { isOnsetError, type Diagnostic, type SourceSpan } from "@onset/core";
 import { problem } from "./errors.js";
 import { parseText } from "./parser.js";
-import { byteSize, raiseHint, sourceLimits, utf8Length, type SourceLimits } from "./source-limits.js";
+import { exactSize, raiseHint, sourceLimits, tooLargeWords, utf8Length, type SourceLimits } from "./source-limits.js";
 import type { IncludeStatement, Program, Statement } from "./syntax.js";
 
 /** A source file as a reader returns it. */
@@ -37,9 +37,8 @@ export interface LoadedProgram {
 
 /** A `source-too-large` problem for a text already in memory. */
 function tooLarge(file: string, bytes: number, limit: number, at: SourceSpan): Diagnostic {
-  return problem("source-too-large", `'${file}' is ${byteSize(bytes)} (${bytes} bytes), above the source-file size limit of ${byteSize(limit)}`, at, {
-    hint: raiseHint("maxSourceBytes", "10M"),
-  });
+  const { message, hint } = tooLargeWords(file, exactSize(bytes), limit);
+  return problem("source-too-large", message, at, { hint });
 }
 
 /**

@@ -77,3 +77,13 @@ export function byteSize(bytes: number): string {
   if (bytes >= 1e3) return `${Number((bytes / 1e3).toPrecision(3))} kB`;
   return `${bytes} bytes`;
 }
+
+/** A byte count with its exact value when rounded: `12 kB (12000 bytes)`, `31 bytes`. */
+export function exactSize(bytes: number): string {
+  return bytes >= 1e3 ? `${byteSize(bytes)} (${bytes} bytes)` : byteSize(bytes);
+}
+
+/** The words of a `source-too-large` problem: the file, what was met, the limit and how to raise it. */
+export function tooLargeWords(file: string, size: string, limit: number): { message: string; hint: string } {
+  return { message: `'${file}' is ${size}, above the source-file size limit of ${byteSize(limit)}`, hint: raiseHint("maxSourceBytes", "10M") };
+}

@@ -58,7 +58,7 @@ export function fileReader(options: FileReaderOptions = {}): IncludeResolver {
   const cwd = resolve(options.cwd ?? process.cwd());
   const roots = (options.roots ?? [cwd]).map((r) => resolve(cwd, r));
   const realRoots = roots.map(realFolder);
-  const shownRoots = roots.map((r) => displayName(r, cwd) || ".").join(", ");
+  const shownRoots = roots.map((r) => (r === cwd ? "." : displayName(r, cwd))).join(", ");
   const refuse = (path: string) =>
     inputError("include-outside", `'${path}' is outside the folders includes may read (${shownRoots})`, {
       hint: "move the file below the including file's folder, or allow its folder: onset --include-root DIR (API: roots)",

@@ -1,6 +1,6 @@
 import { closeSync, constants, fstatSync, openSync, readSync, statSync, type Stats } from "node:fs";
 import { inputError } from "@onset/core";
-import { byteSize, raiseHint } from "../source-limits.js";
+import { byteSize, exactSize, tooLargeWords } from "../source-limits.js";
 
 /** What a file-system entry is, in words, when it is not a regular file. */
 function kindOf(stats: Stats): string {
@@ -19,9 +19,8 @@ function notRegular(shown: string, stats: Stats) {
 }
 
 function tooLarge(shown: string, size: string, maxBytes: number) {
-  return inputError("source-too-large", `'${shown}' is ${size}, above the source-file size limit of ${byteSize(maxBytes)}`, {
-    hint: raiseHint("maxSourceBytes", "10M"),
-  });
+  const { message, hint } = tooLargeWords(shown, size, maxBytes);
+  return inputError("source-too-large", message, { hint });
 }
 
 /** The reason a system call failed, in words. */
@@ -57,7 +56,7 @@ export function readRegularFile(path: string, maxBytes: number, shown: string = 
   try {
     const stats = statSync(path);
     if (!stats.isFile()) throw notRegular(shown, stats);
-    if (stats.size > maxBytes) throw tooLarge(shown, `${byteSize(stats.size)} (${stats.size} bytes)`, maxBytes);
+    if (stats.size > maxBytes) throw tooLarge(shown, exactSize(stats.size), maxBytes);
     // Non-blocking, so a FIFO put in the file's place after the check cannot hold the open.
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
   } catch (error) {
