@@ -62,7 +62,8 @@ describe("maxSteps", () => {
     expect([e.diagnostic.code, e.limit, e.value, e.reached, e.diagnostic.stage]).toEqual(["step-limit", "maxSteps", 150, 151, "simulation"]);
     // The step that broke the limit is the 151st: its time is that of the unlimited run's 151st point.
     expect(e.message).toBe(`the transient reached the step limit of 150 accepted steps at t = ${Number(full.time[151]!.toPrecision(4))} s`);
-    expect(e.diagnostic.hint).toMatch(/limits\.maxSteps .*--limit steps=N/);
+    expect(e.diagnostic.hint).toBe("raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step");
+    expect(e.diagnostic.span).toEqual({ file: "t.onset", start: RC.indexOf("transient"), end: RC.indexOf("\n", RC.indexOf("transient")) });
     expect(isOnsetError(e)).toBe(true);
   });
 
@@ -107,7 +108,7 @@ describe("maxWallTime and the abort signal", () => {
     const e = limitOf(() => runCircuit(circuit, { limits: { maxWallTime: 1e-12 } }));
     expect([e.diagnostic.code, e.limit, e.value]).toEqual(["wall-time-limit", "maxWallTime", 1e-12]);
     expect(e.reached).toBeGreaterThanOrEqual(1e-12);
-    expect(e.diagnostic.hint).toBe("raise limits.maxWallTime (onset run --time-limit SECONDS)");
+    expect(e.diagnostic.hint).toBe("raise the limit with --time-limit SECONDS (API: limits.maxWallTime)");
   });
 
   test("an abort from the run's own progress callback stops it at the next step", () => {

@@ -1,4 +1,4 @@
-import { inputError, OnsetError, type Diagnostic } from "../circuit/diagnostic.js";
+import { inputError, OnsetError, type Diagnostic, type SourceSpan } from "../circuit/diagnostic.js";
 
 /**
  * Bounds on the work of one call, for a service that runs circuits it did not write. Every
@@ -84,9 +84,9 @@ export function runLimitError(record: RunLimitRecord): RunLimitError {
 
 /** How to raise each limit, from the API and from the command line. */
 const RAISE: Readonly<Record<LimitName, string>> = {
-  maxSteps: "raise limits.maxSteps (onset run --limit steps=N), or give the analysis a larger max-step",
-  maxSimulatedTime: "raise limits.maxSimulatedTime (onset run --limit simulated-time=T), or shorten until=",
-  maxWallTime: "raise limits.maxWallTime (onset run --time-limit SECONDS)",
+  maxSteps: "raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step",
+  maxSimulatedTime: "raise the limit with --limit simulated-time=T (API: limits.maxSimulatedTime), or shorten until=",
+  maxWallTime: "raise the limit with --time-limit SECONDS (API: limits.maxWallTime)",
   signal: "the caller aborted the run",
 };
 
@@ -94,8 +94,9 @@ function seconds(value: number): string {
   return `${Number(value.toPrecision(4))} s`;
 }
 
-function limitError(limit: LimitName, value: number | null, reached: number, message: string): RunLimitError {
-  return new RunLimitError({ severity: "error", stage: "simulation", code: LIMIT_CODES[limit], message, hint: RAISE[limit] }, limit, value, reached);
+function limitError(limit: LimitName, value: number | null, reached: number, message: string, span?: SourceSpan): RunLimitError {
+  const diagnostic: Diagnostic = { severity: "error", stage: "simulation", code: LIMIT_CODES[limit], message, hint: RAISE[limit], ...(span ? { span } : {}) };
+  return new RunLimitError(diagnostic, limit, value, reached);
 }
 
 function checked(limits: RunLimits, name: "maxSteps" | "maxSimulatedTime" | "maxWallTime"): number {
@@ -159,47 +160,52 @@ export class RunBudget {
     return { maxSteps: this.maxSteps, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
   }
 
-  /** Throws a {@link RunLimitError} when the signal is aborted or the wall time has run out. */
-  check(where?: string): void {
+  /**
+   * Throws a {@link RunLimitError} when the signal is aborted or the wall time has run out;
+   * `where` ends its message ("between samples"), `span` places it (the analysis's line).
+   */
+  check(where?: string, span?: SourceSpan): void {
     const at = where === undefined ? "" : ` ${where}`;
-    if (this.signal?.aborted) throw limitError("signal", null, (epochMs() - this.started) / 1000, `the run was aborted${at}`);
+    if (this.signal?.aborted) throw limitError("signal", null, (epochMs() - this.started) / 1000, `the run was aborted${at}`, span);
     if (this.maxWallTime === Infinity) return;
     const now = epochMs();
     if (now >= this.deadline) {
       const spent = (now - this.started) / 1000;
-      throw limitError("maxWallTime", this.maxWallTime, spent, `the wall-time limit of ${seconds(this.maxWallTime)} ran out${at} (${seconds(spent)} spent)`);
+      throw limitError("maxWallTime", this.maxWallTime, spent, `the wall-time limit of ${seconds(this.maxWallTime)} ran out${at} (${seconds(spent)} spent)`, span);
     }
   }
 
   /** Refuses up front a time-domain run of fixed length `until` (s) longer than the simulated-time limit. */
-  refuseLength(until: number, what: string): void {
+  refuseLength(until: number, what: string, span?: SourceSpan): void {
     if (until > this.maxSimulatedTime) {
       throw limitError(
         "maxSimulatedTime",
         this.maxSimulatedTime,
         until,
         `${what} until=${seconds(until)} is longer than the simulated-time limit of ${seconds(this.maxSimulatedTime)}; it was not started`,
+        span,
       );
     }
   }
 
   /**
    * Watches a time-domain run: after every accepted step, the step count, the simulated time,
-   * the wall clock and the signal. `what` names the run in messages ("the transient").
+   * the wall clock and the signal. `what` names the run in messages ("the transient"), `span`
+   * places them (the analysis's line in the file).
    */
-  watch(run: SteppingRun, what: string): void {
+  watch(run: SteppingRun, what: string, span?: SourceSpan): void {
     let steps = -1;
     const { maxSteps, maxSimulatedTime } = this;
     const clocked = this.maxWallTime !== Infinity || this.signal !== undefined;
     run.observe((t) => {
       // The first call is the starting point, not a step.
       if (++steps > maxSteps) {
-        throw limitError("maxSteps", maxSteps, steps, `${what} reached the step limit of ${maxSteps} accepted steps at t = ${seconds(t)}`);
+        throw limitError("maxSteps", maxSteps, steps, `${what} reached the step limit of ${maxSteps} accepted steps at t = ${seconds(t)}`, span);
       }
       if (t > maxSimulatedTime) {
-        throw limitError("maxSimulatedTime", maxSimulatedTime, t, `${what} passed the simulated-time limit of ${seconds(maxSimulatedTime)} (at t = ${seconds(t)})`);
+        throw limitError("maxSimulatedTime", maxSimulatedTime, t, `${what} passed the simulated-time limit of ${seconds(maxSimulatedTime)} (at t = ${seconds(t)})`, span);
       }
-      if (clocked) this.check(`during ${what} at t = ${seconds(t)}`);
+      if (clocked) this.check(`during ${what} at t = ${seconds(t)}`, span);
     });
   }
 }

@@ -92,7 +92,7 @@ function amplitudeLimit(circuit: Circuit): number | undefined {
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
   const tolerances = { ...DEFAULT_TOLERANCES, ...options.tolerances };
   const budget = budgetOf(options);
-  if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run");
+  if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run", analysis.span);
   // The prediction comes from the circuit without the kick (the kick source is off at DC anyway).
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
@@ -127,7 +127,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     values.push(read(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
-  budget.watch(stepper, "the start-up run");
+  budget.watch(stepper, "the start-up run", analysis.span);
   // The kick's own peak response bounds what counts as silence.
   let kickPeak = 0;
   const restLevel = values.view()[0]!;

@@ -90,7 +90,7 @@ export function defaultMaxStep(until: number): number {
 /** Runs a `transient` analysis on a circuit. */
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
   const budget = budgetOf(options);
-  budget.refuseLength(analysis.until, "the transient");
+  budget.refuseLength(analysis.until, "the transient", analysis.span);
   const system = buildSystem(circuit, options.extraParts);
   const stepper = new TransientStepper(system, {
     start: analysis.start,
@@ -100,7 +100,7 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
   const recorder = new ProbeRecorder(system, probes);
   stepper.observe(recorder.record);
-  budget.watch(stepper, "the transient");
+  budget.watch(stepper, "the transient", analysis.span);
   advanceWithProgress(stepper, analysis.until, options.onProgress);
   return { analysis: "transient", time: recorder.time.toArray(), signals: recorder.signals(), stats: { ...stepper.stats } };
 }

@@ -89,7 +89,7 @@ export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: 
   const values = sweepValues(analysis);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
-    options.budget.check(`before the sweep setting ${analysis.target} = ${value}`);
+    options.budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);
     const point = { value, run: runCircuit(build({ [analysis.target]: value }), options) };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
