@@ -6,6 +6,7 @@ import type { RunOptions } from "./transient.js";
 import { solveBias, type BiasMethod } from "./bias.js";
 import { budgetOf } from "./limits.js";
 
+/** What `runBias` returns: node voltages, voltage-source currents and how the operating point was found. */
 export interface BiasResult {
   readonly analysis: "bias";
   /** Node voltages (V), in the order nodes first appear in the file. */

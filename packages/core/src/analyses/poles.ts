@@ -10,6 +10,7 @@ import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
 import { budgetOf } from "./limits.js";
 
+/** A natural frequency s = real + j·imag of the linearised circuit (rad/s). */
 export interface Pole {
   /** rad/s */
   readonly real: number;
@@ -17,6 +18,7 @@ export interface Pole {
   readonly imag: number;
 }
 
+/** What `runPoles` returns: every finite pole and the dominant complex pair's frequency and growth rate. */
 export interface PolesResult {
   readonly analysis: "poles";
   /** Every finite natural frequency, rightmost first. */

@@ -15,6 +15,7 @@ function nodeReader(system: MnaSystem, node: string, probe: Probe): (x: Float64A
   return (x) => x[i]!;
 }
 
+/** A function that reads a probe's value (a node voltage, a difference or a part's current) from the unknowns. */
 export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
   switch (probe.kind) {
     case "node": {

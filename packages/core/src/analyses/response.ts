@@ -10,6 +10,7 @@ import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
 import { budgetOf } from "./limits.js";
 
+/** The small-signal response at one frequency: magnitude (also in dB) and unwrapped phase. */
 export interface ResponsePoint {
   /** Hz */
   readonly frequency: number;
@@ -20,6 +21,7 @@ export interface ResponsePoint {
   readonly phase: number;
 }
 
+/** Where the phase crosses a multiple of 180°, refined between sweep points. */
 export interface PhaseCrossing {
   /** The multiple of 180° crossed (0, −180, 180, −360, …). */
   readonly phase: number;
@@ -29,6 +31,7 @@ export interface PhaseCrossing {
   readonly value: number;
 }
 
+/** What `runResponse` returns: the swept points, the deepest notch, phase crossings and −3 dB points. */
 export interface ResponseResult {
   readonly analysis: "response";
   readonly from: string;

@@ -13,6 +13,7 @@ export type AnalysisResult = BiasResult | TransientResult | StartupResult | Resp
 /** Analyses that simulate the circuit once (as opposed to studies and specs). */
 export type SimulatingAnalysis = Extract<AnalysisSpec, { kind: "bias" | "transient" | "startup" | "response" | "poles" }>;
 
+/** True for an analysis that simulates the circuit once (bias, transient, startup, response, poles). */
 export function isSimulating(a: AnalysisSpec): a is SimulatingAnalysis {
   return a.kind === "bias" || a.kind === "transient" || a.kind === "startup" || a.kind === "response" || a.kind === "poles";
 }
@@ -33,6 +34,7 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
   }
 }
 
+/** What `runCircuit` returns: every simulating analysis's result in file order, and the spec checked. */
 export interface CircuitRun {
   readonly results: readonly AnalysisResult[];
   /** The file's `spec` checked on its first startup result (yield criteria are left to the tolerance study). */

@@ -39,6 +39,7 @@ export interface StartupRun {
   readonly solver: StepperStats;
 }
 
+/** What `runStartup` returns: the start-up metrics of the probe, how the run was made, and the waveform. */
 export interface StartupResult extends StartupMetrics {
   readonly analysis: "startup";
   readonly probe: string;

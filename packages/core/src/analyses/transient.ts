@@ -16,6 +16,7 @@ export interface Signal {
   readonly values: Float64Array;
 }
 
+/** What `runTransient` returns: the accepted time points, every probed signal and the stepper's counts. */
 export interface TransientResult {
   readonly analysis: "transient";
   /** Accepted time points (s), starting at 0. */

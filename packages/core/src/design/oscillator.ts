@@ -5,8 +5,10 @@ import { builtinPresets } from "../devices/registry.js";
 import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
 import { snapToSeries, type SeriesName } from "./eseries.js";
 
+/** The oscillator topologies `onset design` sizes. */
 export type Topology = "wien" | "twin-t" | "phase-shift";
 
+/** What to design: the topology and frequency, and optionally the capacitor, resistor series, op-amp preset, start-up time and rails. */
 export interface DesignRequest {
   readonly topology: Topology;
   /** Target frequency (Hz). */
@@ -31,6 +33,7 @@ export interface DesignChoice {
   readonly unit: "Ω" | "F";
 }
 
+/** A sized oscillator: the snapped part values, the frequency they give and the file text to run. */
 export interface DesignResult {
   readonly request: Required<Omit<DesignRequest, "capacitor">> & { readonly capacitor: number };
   readonly choices: readonly DesignChoice[];

@@ -35,6 +35,7 @@ export const SAMPLE_METRICS = [
   "predictedFrequency",
 ] as const satisfies ReadonlyArray<keyof SampleMetrics>;
 
+/** One Monte Carlo sample's result: its metrics (null when its simulation failed), pass/fail and why. */
 export interface SampleOutcome {
   readonly metrics: SampleMetrics | null;
   readonly pass: boolean;

@@ -11,6 +11,7 @@ export interface ToleranceSample extends SampleOutcome {
   readonly drawn: Readonly<Record<string, number>>;
 }
 
+/** The fraction of samples that pass, with its 95 % Wilson interval. */
 export interface YieldSummary {
   readonly passed: number;
   readonly runs: number;
@@ -19,6 +20,7 @@ export interface YieldSummary {
   readonly interval: Interval;
 }
 
+/** A tolerance study summed up: verdict counts, metric percentiles and the yield. */
 export interface ToleranceSummary {
   readonly runs: number;
   readonly verdicts: Readonly<Record<string, number>>;

@@ -8,6 +8,7 @@ import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
 import type { CircuitBuilder } from "./tolerance.js";
 
+/** One setting of a sweep and the file's analyses run at it. */
 export interface SweepPoint {
   readonly value: number;
   readonly run: CircuitRun;
@@ -26,6 +27,7 @@ export interface StartThreshold {
   readonly margin: number | null;
 }
 
+/** What `runSweep` returns: every setting's run and the start threshold, when the verdict changes. */
 export interface SweepResult {
   readonly analysis: "sweep";
   readonly target: string;
@@ -67,6 +69,7 @@ export function oscillates(verdict: StartupVerdict): boolean {
   return verdict === "settled" || verdict === "growing" || verdict === "unsettled";
 }
 
+/** How a sweep runs: the run options of each setting, the nominal value, the bisection's precision and a progress callback. */
 export interface SweepOptions extends RunOptions {
   /** The target's value as written, for the margin. */
   readonly nominal?: number;

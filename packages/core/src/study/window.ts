@@ -4,6 +4,7 @@ import { sweepValues } from "./sweep.js";
 import { budgetOf } from "../analyses/limits.js";
 import { runToleranceStudy, type CircuitBuilder, type ToleranceStudyOptions } from "./tolerance.js";
 
+/** One setting of a design window: the tolerance study there and whether its yield meets the spec. */
 export interface WindowPoint {
   readonly value: number;
   readonly summary: ToleranceSummary;
@@ -11,6 +12,7 @@ export interface WindowPoint {
   readonly pass: boolean;
 }
 
+/** What `runDesignWindow` returns: the yield at every setting and the widest range that meets the spec. */
 export interface DesignWindow {
   readonly analysis: "window";
   readonly target: string;
