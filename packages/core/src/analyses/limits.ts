@@ -111,9 +111,9 @@ function checked(limits: RunLimits, name: "maxSteps" | "maxSimulatedTime" | "max
   return value;
 }
 
-/** Milliseconds on a clock that every thread of the process shares. */
-function epochMs(): number {
-  return performance.timeOrigin + performance.now();
+/** Milliseconds on this thread's monotonic clock. */
+function clockMs(): number {
+  return performance.now();
 }
 
 /** Anything that reports its accepted time steps (the transient stepper). */
@@ -132,7 +132,7 @@ export class RunBudget {
   readonly maxSimulatedTime: number;
   readonly maxWallTime: number;
   readonly signal: AbortSignal | undefined;
-  /** When the wall time runs out (ms on the process-wide clock). */
+  /** When the wall time runs out (ms on this thread's clock; another thread gets what is left). */
   private readonly deadline: number;
   private readonly started: number;
 
@@ -146,18 +146,23 @@ export class RunBudget {
       throw inputError("bad-limit", "limits.signal must be an AbortSignal");
     }
     this.signal = limits.signal;
-    this.started = epochMs();
+    this.started = clockMs();
     this.deadline = this.started + this.maxWallTime * 1000;
   }
 
   /** Wall time left (s); Infinity without a limit. */
   remaining(): number {
-    return this.maxWallTime === Infinity ? Infinity : (this.deadline - epochMs()) / 1000;
+    return this.maxWallTime === Infinity ? Infinity : (this.deadline - clockMs()) / 1000;
   }
 
   /** The limits as plain data for another thread, the wall time as what is left of it now. */
   forWorker(): { maxSteps: number; maxSimulatedTime: number; maxWallTime: number } {
     return { maxSteps: this.maxSteps, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
+  }
+
+  /** True when the signal is aborted or the wall time has run out (cheap: no message is made). */
+  spent(): boolean {
+    return this.signal?.aborted === true || (this.maxWallTime !== Infinity && clockMs() >= this.deadline);
   }
 
   /**
@@ -166,9 +171,9 @@ export class RunBudget {
    */
   check(where?: string, span?: SourceSpan): void {
     const at = where === undefined ? "" : ` ${where}`;
-    if (this.signal?.aborted) throw limitError("signal", null, (epochMs() - this.started) / 1000, `the run was aborted${at}`, span);
+    if (this.signal?.aborted) throw limitError("signal", null, (clockMs() - this.started) / 1000, `the run was aborted${at}`, span);
     if (this.maxWallTime === Infinity) return;
-    const now = epochMs();
+    const now = clockMs();
     if (now >= this.deadline) {
       const spent = (now - this.started) / 1000;
       throw limitError("maxWallTime", this.maxWallTime, spent, `the wall-time limit of ${seconds(this.maxWallTime)} ran out${at} (${seconds(spent)} spent)`, span);
@@ -205,7 +210,7 @@ export class RunBudget {
       if (t > maxSimulatedTime) {
         throw limitError("maxSimulatedTime", maxSimulatedTime, t, `${what} passed the simulated-time limit of ${seconds(maxSimulatedTime)} (at t = ${seconds(t)})`, span);
       }
-      if (clocked) this.check(`during ${what} at t = ${seconds(t)}`, span);
+      if (clocked && this.spent()) this.check(`during ${what} at t = ${seconds(t)}`, span);
     });
   }
 }
