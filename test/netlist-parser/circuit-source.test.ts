@@ -1,17 +1,10 @@
 import { describe, expect, test } from "vitest";
 import { analysisOf, isOnsetError, runStartup } from "@onset/core";
 import { buildCircuit, loadSource, SourceError } from "@onset/netlist-parser";
+import { thrownBy } from "../support/thrown.js";
 import { memoryResolver } from "./support/helpers.js";
 
-function thrown(f: () => unknown): SourceError {
-  try {
-    f();
-  } catch (error) {
-    if (error instanceof SourceError) return error;
-    throw error;
-  }
-  throw new Error("nothing was thrown");
-}
+const thrown = (f: () => unknown): SourceError => thrownBy(SourceError, f);
 
 describe("loadSource and buildCircuit (the API's front door)", () => {
   test("a file with includes loads through the caller's reader and builds without assertions", () => {

@@ -15,6 +15,7 @@ import {
   type RunLimits,
 } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
+import { thrownBy } from "../../support/thrown.js";
 
 /** RC charging from rest (τ = 1 ms), 100 µs largest step: 100 steps per ms at most. */
 const RC = `vsource V1 in gnd 5
@@ -42,16 +43,8 @@ tolerance runs=6 seed=3
 
 const build = (text: string, overrides: Record<string, number> = {}): Circuit => buildCircuit(loadSource("t.onset", text), { overrides }).circuit;
 
-/** Runs `f` and returns the RunLimitError it throws (fails the test if it throws none or another). */
-function limitOf(f: () => unknown): RunLimitError {
-  try {
-    f();
-  } catch (error) {
-    if (error instanceof RunLimitError) return error;
-    throw error;
-  }
-  throw new Error("no limit was hit");
-}
+/** The RunLimitError `f` throws. */
+const limitOf = (f: () => unknown): RunLimitError => thrownBy(RunLimitError, f);
 
 describe("maxSteps", () => {
   test("a transient stops after exactly maxSteps accepted steps, with step-limit naming the limit and the hint", () => {
@@ -147,20 +140,15 @@ describe("studies honour the limits", () => {
     const settings: number[] = [];
     const circuit = build(WIEN);
     const sweep = analysisOf(circuit, "sweep");
-    const e = (() => {
-      try {
-        runSweep((o) => build(WIEN, o), sweep, {
-          limits: { signal: controller.signal, maxSimulatedTime: 0.2 },
-          onPoint: (point) => {
-            settings.push(point.value);
-            controller.abort();
-          },
-        });
-      } catch (error) {
-        return error as RunLimitError;
-      }
-      throw new Error("the sweep was not stopped");
-    })();
+    const e = limitOf(() =>
+      runSweep((o) => build(WIEN, o), sweep, {
+        limits: { signal: controller.signal, maxSimulatedTime: 0.2 },
+        onPoint: (point) => {
+          settings.push(point.value);
+          controller.abort();
+        },
+      }),
+    );
     expect(e.diagnostic.code).toBe("aborted");
     expect(e.message).toBe("the run was aborted before the sweep setting Rf = 20000");
     expect(settings).toEqual([15e3]);
