@@ -1,4 +1,5 @@
 import { createHash } from "node:crypto";
+import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { inputError, isOnsetError, type Circuit, type Diagnostic } from "@onset/core";
 import { elaborate, loadSource as parseSource, SourceError, sourceLimits, type Program, type SourceLimits } from "@onset/netlist-parser";
@@ -25,11 +26,22 @@ export interface SourceOptions {
   readonly roots?: readonly string[];
 }
 
+/** Reads a text file (a results file: a pipe or /dev/fd/N will do), turning a missing or unreadable file into a usage error. */
+export function readTextFile(path: string, what = "file", shown = path): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    const reason = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a folder" : code === "EACCES" ? "permission denied" : String(error);
+    throw usageError("cannot-read", `cannot read ${what} '${shown}': ${reason}`, code === "ENOENT" ? "check the path, or give - to read standard input" : undefined);
+  }
+}
+
 /**
- * Reads a text file of at most `maxBytes` bytes (regular files only), turning a missing,
- * refused or unreadable file into a usage error.
+ * Reads a circuit file of at most `maxBytes` bytes: regular files only (a FIFO or a device is
+ * refused by its kind before it is opened), a missing or refused file a usage error.
  */
-export function readTextFile(path: string, what = "file", shown = path, maxBytes = Infinity): string {
+function readCircuitFile(path: string, shown: string, maxBytes: number): string {
   let text: string | undefined;
   try {
     text = readRegularFile(path, maxBytes, shown);
@@ -37,7 +49,7 @@ export function readTextFile(path: string, what = "file", shown = path, maxBytes
     if (isOnsetError(error)) throw new CliError([error.diagnostic]);
     throw error;
   }
-  if (text === undefined) throw usageError("cannot-read", `cannot read ${what} '${shown}': no such file`, "check the path, or give - to read standard input");
+  if (text === undefined) throw usageError("cannot-read", `cannot read file '${shown}': no such file`, "check the path, or give - to read standard input");
   return text;
 }
 
@@ -56,7 +68,7 @@ function readStdin(io: CliIo, maxBytes: number): string {
 
 /** The text of a circuit file (standard input for `-`), at most `maxBytes` bytes. */
 export function readSourceText(path: string, absolute: string, io: CliIo, maxBytes: number): string {
-  return path === "-" ? readStdin(io, maxBytes) : readTextFile(absolute, "file", path, maxBytes);
+  return path === "-" ? readStdin(io, maxBytes) : readCircuitFile(absolute, path, maxBytes);
 }
 
 /**
