@@ -38,5 +38,7 @@ describe("parseArgs(argv, options, command)", () => {
     expect(problem(["--csv", "--json"])).toBe("run: --csv needs a value");
     expect(problem(["--json=yes"])).toBe("run: --json takes no value");
     expect(problem(["-x"])).toBe("run: unknown option '-x'");
+    expect(problem(["-json"])).toBe("run: unknown option '-json' (did you mean '--json'?)");
+    expect(problem(["-jsn"])).toBe("run: unknown option '-jsn' (did you mean '--json'?)");
   });
 });

@@ -21,7 +21,7 @@ describe("onset run --csv", () => {
     const r = await ws.run(["run", "rc.onset", "--csv", "rc.csv"]);
     expect(r.status).toBe(0);
     const { header, data } = rows(readFileSync(ws.path("rc.csv"), "utf8"));
-    expect(header).toEqual(["time", "o", "R1.i"]);
+    expect(header).toEqual(["time (s)", "o (V)", "R1.i (A)"]);
     expect(data.length).toBeGreaterThan(400);
     expect(data[0]![0]).toBe(0);
     expect(data[data.length - 1]![0]).toBeCloseTo(5e-3, 12);
@@ -38,11 +38,11 @@ describe("onset run --csv", () => {
   test("several analyses write FILE, then FILE-2: a start-up CSV holds time and its probe", async () => {
     ws.write("two.onset", `${RC_STEP}transient until=1m probes=(o)\n`);
     expect((await ws.run(["run", "two.onset", "--csv", "out.csv", "--quiet"])).status).toBe(0);
-    expect(rows(readFileSync(ws.path("out.csv"), "utf8")).header).toEqual(["time", "o", "R1.i"]);
-    expect(rows(readFileSync(ws.path("out-2.csv"), "utf8")).header).toEqual(["time", "o"]);
+    expect(rows(readFileSync(ws.path("out.csv"), "utf8")).header).toEqual(["time (s)", "o (V)", "R1.i (A)"]);
+    expect(rows(readFileSync(ws.path("out-2.csv"), "utf8")).header).toEqual(["time (s)", "o (V)"]);
     ws.write("osc.onset", wien("startup probe=(o, n) until=20m\n"));
     expect((await ws.run(["run", "osc.onset", "--csv", "osc.csv", "--quiet"])).status).toBe(0);
-    expect(rows(readFileSync(ws.path("osc.csv"), "utf8")).header).toEqual(["time", "o-n"]);
+    expect(rows(readFileSync(ws.path("osc.csv"), "utf8")).header).toEqual(["time (s)", "o-n (V)"]);
   });
 
   test("no temporary files are left beside the written ones", () => {

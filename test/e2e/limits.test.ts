@@ -77,14 +77,14 @@ describe("source limits and the include reader", () => {
     );
   });
 
-  test("--include-root lets includes read a shared folder", async () => {
-    mkdirSync(ws.path("shared"));
+  test("--include-root lets includes read a folder beside the project", async () => {
+    mkdirSync(ws.path("library"));
     mkdirSync(ws.path("proj"));
-    writeFileSync(ws.path("shared/values.onset"), "param R = 10k\n");
-    writeFileSync(ws.path("proj/main.onset"), 'include "../shared/values.onset"\nvsource V1 a gnd 1\nresistor R1 a gnd (R)\nbias\n');
+    writeFileSync(ws.path("library/values.onset"), "param R = 10k\n");
+    writeFileSync(ws.path("proj/main.onset"), 'include "../library/values.onset"\nvsource V1 a gnd 1\nresistor R1 a gnd (R)\nbias\n');
     const refused = await ws.run(["check", "proj/main.onset"]);
-    expect([refused.status, refused.stderr.split("\n")[0]]).toEqual([2, "proj/main.onset:1:9: error: '../shared/values.onset' is outside the folders includes may read (proj)"]);
-    const allowed = await ws.run(["check", "proj/main.onset", "--include-root", "shared"]);
+    expect([refused.status, refused.stderr.split("\n")[0]]).toEqual([2, "proj/main.onset:1:9: error: '../library/values.onset' is outside the folders includes may read (proj)"]);
+    const allowed = await ws.run(["check", "proj/main.onset", "--include-root", "library"]);
     expect([allowed.status, allowed.stdout]).toEqual([0, "proj/main.onset: ok (2 parts, analyses: bias)\n"]);
   });
 

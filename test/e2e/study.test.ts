@@ -173,6 +173,62 @@ describe("a tolerance study", () => {
   });
 });
 
+describe("per-use draws (param … each)", () => {
+  const EACH = `title "Bench Wien oscillator, separate parts"
+param R = 10k±1% each
+param C = 10n±5% each
+resistor  R1 o  s   (R)
+capacitor C1 s  p   (C)
+resistor  R2 p  gnd (R)
+capacitor C2 p  gnd (C)
+resistor  Rf o  n   22k
+resistor  Rg n  gnd 10k
+opamp     U1 p  n   o  preset=general
+startup probe=o until=30m
+`;
+
+  test("each use draws its own value; --sample I reproduces the sample exactly; the report prints drawn values with units", async () => {
+    ws.write("each.onset", `${EACH}tolerance runs=4 seed=5\n`);
+    const r = await ws.run(["run", "each.onset", "--json", "--jobs", "1", "--results", "each.jsonl"]);
+    expect(r.status).toBe(0);
+    const samples = (JSON.parse(r.stdout) as StudyDoc).results[0].samples;
+    for (const s of samples) {
+      expect(Object.keys(s.drawn)).toEqual(["R@R1", "C@C1", "R@R2", "C@C2"]);
+      expect(s.drawn["R@R1"]).not.toBe(s.drawn["R@R2"]);
+      expect(Math.abs(s.drawn["C@C2"]! / 10e-9 - 1)).toBeLessThanOrEqual(0.05);
+    }
+    const rerun = JSON.parse((await ws.run(["run", "each.onset", "--sample", "2", "--json"])).stdout) as { sample: { drawn: Record<string, number> }; results: { frequency: number; thd: number }[] };
+    expect(rerun.sample.drawn).toEqual(samples[2]!.drawn);
+    expect(rerun.results[0]!.frequency).toBe(samples[2]!.metrics!.frequency);
+    const text = await ws.run(["run", "each.onset", "--jobs", "1", "--results", "each-text.jsonl"]);
+    expect(text.stdout).toMatch(/drawn R@R1 = \d+(\.\d+)? kΩ, C@C1 = \d+(\.\d+)? nF, R@R2 = \d+(\.\d+)? kΩ, C@C2 = \d+(\.\d+)? nF/);
+  });
+
+  test("a shared parameter warns under a study, and its drawn value is printed in the unit of the parts that read it", async () => {
+    ws.write("shared.onset", `${EACH.replaceAll(" each", "")}tolerance runs=2 seed=5\n`);
+    const r = await ws.run(["run", "shared.onset", "--jobs", "1", "--results", "shared.jsonl"]);
+    expect(r.stderr).toContain("warning: parameter R is drawn once per sample and shared by 2 parts (R1, R2)");
+    expect(r.stderr).toContain("for separate components write: param R = 10k±1% each");
+    // Worst samples list the draws with SI prefixes and units (R = 9.987 kΩ, not R = 9987.2).
+    expect(r.stdout).toMatch(/drawn R = \d+(\.\d+)? kΩ, C = \d+(\.\d+)? nF\n/);
+  });
+
+  test("a design window sweeping R draws every use of R, and parts written (R)±1%, around the setting", async () => {
+    ws.write("each-window.onset", `${EACH}resistor Rx o gnd (R)±1%\nsweep R from=9k to=11k steps=2\ntolerance runs=2 seed=3\n`);
+    const r = await ws.run(["run", "each-window.onset", "--json", "--jobs", "1"]);
+    const w = (JSON.parse(r.stdout) as { results: [{ points: { value: number; samples: { drawn: Record<string, number> }[] }[] }] }).results[0];
+    for (const point of w.points) {
+      for (const s of point.samples) {
+        expect(Math.abs(s.drawn["R@R1"]! / point.value - 1)).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(s.drawn.Rx! / point.value - 1)).toBeLessThanOrEqual(0.01);
+      }
+    }
+    const first = w.points[0]!.samples[1]!;
+    const rerun = JSON.parse((await ws.run(["run", "each-window.onset", "--sample", "1", "--set", "R=9000", "--json"])).stdout) as { sample: { drawn: Record<string, number> } };
+    expect(rerun.sample.drawn).toEqual(first.drawn);
+  });
+});
+
 describe("sweeps and the design window", () => {
   test("a sweep of the feedback resistor finds the start threshold near Rf = 2·Rg (gain 3, Barkhausen)", async () => {
     ws.write("sweep.onset", wien("startup probe=o until=30m\nsweep Rf from=18k to=24k steps=3\n"));
@@ -206,6 +262,21 @@ describe("sweeps and the design window", () => {
 });
 
 describe("onset design", () => {
+  test("phase-shift --freq 1k reports the simulated settled frequency beside the small-signal poles, in the file and on stderr", async () => {
+    const r = await ws.run(["design", "phase-shift", "--freq", "1k", "--output", "ladder.onset"]);
+    expect(r.status).toBe(0);
+    // The ladder's poles sit about 5 % low (start margin: gain 33 > 29); the file settles within 1 %.
+    const line = /design: simulated start-up settles at ([\d.]+) Hz \(([+−])([\d.]+) % from the target\); small-signal poles ([\d.]+) Hz/.exec(r.stderr)!;
+    expect(line).not.toBeNull();
+    expect(Math.abs(Number(line[1]) / 1000 - 1)).toBeLessThan(0.01);
+    expect(Number(line[4]) / 1000 - 1).toBeLessThan(-0.03);
+    const file = readFileSync(ws.path("ladder.onset"), "utf8");
+    expect(file).toContain(`# simulated start-up of this file: settles at ${line[1]} Hz`);
+    const ran = await ws.run(["run", "ladder.onset", "--nominal", "--json"]);
+    expect((JSON.parse(ran.stdout) as { results: { frequency: number }[] }).results[0]!.frequency.toFixed(2)).toBe(line[1]);
+  });
+
+
   test("writes a circuit file that checks clean", async () => {
     const designed = await ws.run(["design", "wien", "--freq", "1k", "--output", "designed.onset"]);
     expect(designed.status).toBe(0);

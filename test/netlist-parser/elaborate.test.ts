@@ -221,9 +221,9 @@ describe("tolerances for Monte Carlo", () => {
   test("entries keep the written nominal; targets are override names", () => {
     const c = circuit(twinT);
     expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([
-      { target: "R", nominal: 11e3, relative: 0.01 },
+      { target: "R", nominal: 11e3, relative: 0.01, unit: "Ω" },
       { target: "N1.k", nominal: 0.46, relative: 0.02 },
-      { target: "N1.Cs", nominal: 66e-9, relative: 0.05 },
+      { target: "N1.Cs", nominal: 66e-9, relative: 0.05, unit: "F" },
     ]);
   });
 
@@ -240,13 +240,92 @@ describe("tolerances for Monte Carlo", () => {
 
   test("a tolerance on a part option is kept under PART.option", () => {
     const c = circuit(program("opamp U1 p n o gbw=1M±20%\nresistor R o n 1k\nresistor Rp p gnd 1k\nresistor Rn n gnd 1k\n"));
-    expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([{ target: "U1.gbw", nominal: 1e6, relative: 0.2 }]);
+    expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([{ target: "U1.gbw", nominal: 1e6, relative: 0.2, unit: "Hz" }]);
   });
 
   test("an absolute tolerance is in the value's unit and checked against it", () => {
     const c = circuit(program("vsource V1 a gnd 5±10mV\nresistor R a gnd 1k\n"));
     expect(c.tolerances[0]).toMatchObject({ target: "V1", nominal: 5, absolute: 10e-3 });
     expect(elaborate(program("vsource V1 a gnd 5±10mA\nresistor R a gnd 1k\n")).diagnostics.map((d) => d.code)).toEqual(["unit-mismatch"]);
+  });
+});
+
+describe("per-use draws: param … each", () => {
+  const wien = program(`param R = 15.8k±1% each
+param C = 10n±5% each
+param R2 = (R*2)
+block arm (a, b)
+  resistor Rx a b (R)
+end
+resistor  R1  o   s    (R)
+capacitor C1  s   p    (C)
+resistor  R2x p   gnd  (R)
+capacitor C2  p   gnd  (2*C)
+resistor  Rf  o   n    (R2)
+use A1 arm n gnd
+vsource   V1  o   gnd  1
+transient until=(R*1e-7)
+`);
+
+  test("each use gets its own entry PARAM@PLACE around the nominal, in the order the uses are read", () => {
+    const c = circuit(wien);
+    expect(c.tolerances.map(({ span: _s, ...t }) => t)).toEqual([
+      { target: "R@R2", nominal: 15.8e3, relative: 0.01, unit: "Ω" },
+      { target: "R@R1", nominal: 15.8e3, relative: 0.01, unit: "Ω" },
+      { target: "C@C1", nominal: 10e-9, relative: 0.05, unit: "F" },
+      { target: "R@R2x", nominal: 15.8e3, relative: 0.01, unit: "Ω" },
+      { target: "C@C2", nominal: 10e-9, relative: 0.05, unit: "F" },
+      { target: "R@A1.Rx", nominal: 15.8e3, relative: 0.01, unit: "Ω" },
+    ]);
+    expect(overrideTargets(wien)).toEqual(expect.arrayContaining(["R", "C", "R@R1", "R@R2x", "R@A1.Rx", "C@C2", "R@R2"]));
+  });
+
+  test("setting a per-use name moves only that use; setting the parameter moves every nominal", () => {
+    const c = circuit(wien, { "R@R1": 15.7e3, "C@C2": 11e-9, "R@R2": 16e3 });
+    expect(part(c, "R1").value).toBe(15.7e3);
+    expect(part(c, "R2x").value).toBe(15.8e3);
+    expect(part(c, "C2").value).toBe(22e-9);
+    expect(part(c, "C1").value).toBe(10e-9);
+    // R2 = (R*2) reads R once, as one use: every part that reads R2 sees that one draw.
+    expect(part(c, "Rf").value).toBe(32e3);
+    expect(part(c, "A1.Rx").value).toBe(15.8e3);
+    const shifted = circuit(wien, { R: 16e3 });
+    expect(part(shifted, "R1").value).toBe(16e3);
+    expect(shifted.tolerances.find((t) => t.target === "R@A1.Rx")?.nominal).toBe(16e3);
+  });
+
+  test("an analysis option reads the nominal, not a draw", () => {
+    const c = circuit(wien, { "R@R1": 1 });
+    expect(c.analyses[0]).toMatchObject({ kind: "transient", until: 15.8e3 * 1e-7 });
+  });
+
+  test("a shared draw under a tolerance study warns; each, a single user or no study does not", () => {
+    const warn = (text: string) => elaborate(program(text)).diagnostics.filter((d) => d.code === "shared-tolerance").map((d) => d.message);
+    const parts = "resistor R1 a gnd (R)\nresistor R2 a gnd (2*R)\nvsource V1 a gnd 1\n";
+    expect(warn(`param R = 10k±1%\n${parts}tolerance runs=5\n`)).toEqual(["parameter R is drawn once per sample and shared by 2 parts (R1, R2)"]);
+    expect(warn(`param R = 10k±1% each\n${parts}tolerance runs=5\n`)).toEqual([]);
+    expect(warn(`param R = 10k±1%\n${parts}`)).toEqual([]);
+    expect(warn("param R = 10k±1%\nresistor R1 a gnd (R)\nvsource V1 a gnd 1\ntolerance runs=5\n")).toEqual([]);
+    // Through another parameter and a block instance, and not when the study sweeps it.
+    const deep = "param R = 10k±1%\nparam Rh = (R/2)\nblock b (x)\n  resistor Ri x gnd (R)\nend\nuse B1 b a\nresistor R1 a gnd (Rh)\nvsource V1 a gnd 1\ntolerance runs=5\n";
+    expect(warn(deep)).toEqual(["parameter R is drawn once per sample and shared by 2 parts (R1, B1.Ri)"]);
+    expect(warn(`${deep}sweep R from=9k to=11k steps=2\n`)).toEqual([]);
+  });
+});
+
+describe("units of drawn values", () => {
+  test("a parameter without a written unit takes the unit of the places it stands in, alone or scaled", () => {
+    const c = circuit(program("param R = 10k±1%\nparam C = 1n±5%\nparam k = 0.5±2%\nresistor R1 a gnd (R/2)\ncapacitor C1 a gnd ((3*C))\nresistor R2 a gnd (k*R)\nvsource V1 a gnd 1\n"));
+    expect(c.tolerances.map((t) => [t.target, t.unit])).toEqual([
+      ["R", "Ω"],
+      ["C", "F"],
+      ["k", undefined],
+    ]);
+    const mixed = circuit(program("param x = 1k±1%\nresistor R1 a gnd (x)\nvsource V1 a gnd (x)\n"));
+    expect(mixed.tolerances[0]!.unit).toBeUndefined();
+    // Standing alone wins over scaled uses; analysis options do not count.
+    const both = circuit(program("param R = 1k±1%\nresistor R1 a gnd (R)\ncapacitor C1 a gnd (R*1e-12)\nvsource V1 a gnd 1\ntransient until=(R*1e-6)\n"));
+    expect(both.tolerances[0]!.unit).toBe("Ω");
   });
 });
 
@@ -267,5 +346,26 @@ describe("several independent errors are all reported", () => {
     const r = parseText("resistor R1 a 0 1k\nresistr R2 a b 1k\ncapacitor C1 a b 1meg\nresistor R3 a b 1k\n", "t.onset");
     expect(r.diagnostics.map((d) => d.code)).toEqual(["node-zero", "unknown-kind", "bad-prefix"]);
     expect(r.program.statements.map((s) => s.kind)).toEqual(["part"]);
+  });
+});
+
+describe("state probes", () => {
+  test("PART.state names a state the part's kind lists; a difference may take voltage states", () => {
+    const c = circuit(
+      program(`resistor R1 o k 1k
+diode D1 o k series=2
+resistor R2 k gnd 1k
+opamp U1 gnd k o
+transient until=1m probes=(o, U1.pole, D1.junction, (D1.junction, k), R1.i)
+`),
+    );
+    const t = c.analyses[0]!;
+    expect(t.kind === "transient" && t.probes).toEqual([
+      { kind: "node", node: "o" },
+      { kind: "state", part: "U1", state: "pole" },
+      { kind: "state", part: "D1", state: "junction" },
+      { kind: "difference", plus: "D1.junction", minus: "k" },
+      { kind: "current", part: "R1" },
+    ]);
   });
 });

@@ -230,7 +230,7 @@ const cases: readonly Case[] = [
       "t.onset:1:19: error: unknown unit 'kOhm' in '1kOhm' (did you mean 'kohm'?)",
       "  resistor R1 a gnd 1kOhm",
       "                    ^~~~~",
-      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
     ].join("\n"),
   },
   {
@@ -330,7 +330,17 @@ const cases: readonly Case[] = [
       "t.onset:1:23: error: at= of pot P1 must be between 0 and 1, got 1.2",
       "  pot P1 a w gnd 10k at=1.2",
       "                        ^~~",
-      "hint: at= is the wiper position from end1 (0) to end2 (1)",
+      "hint: at= is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "vsource V1 a gnd 1\npot P1 a w gnd 10k\nresistor R w gnd 1k\nbias\nsweep P1.at from=0 to=1.5 steps=3",
+    expected: [
+      "t.onset:5:23: error: to= of sweep P1.at must be between 0 and 1, got 1.5",
+      "  sweep P1.at from=0 to=1.5 steps=3",
+      "                        ^~~",
+      "hint: P1.at is the wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)",
     ].join("\n"),
   },
   {
@@ -775,7 +785,27 @@ const cases: readonly Case[] = [
       "t.onset:2:28: error: unknown node 'n2' (did you mean 'n1'?)",
       "  transient until=1m probes=(n2)",
       "                             ^~",
-      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), or a current R1.i",
+      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), a current R1.i or a part's state such as U1.pole",
+    ].join("\n"),
+  },
+  {
+    code: "unknown-state",
+    source: "resistor R1 o gnd 1k\nopamp U1 gnd o o\ntransient until=1m probes=(o, U1.pol)",
+    expected: [
+      "t.onset:3:31: error: opamp U1 has no state 'pol' (did you mean 'U1.pole'?)",
+      "  transient until=1m probes=(o, U1.pol)",
+      "                                ^~~~~~",
+      "hint: U1 can be probed as U1.pole, U1.i",
+    ].join("\n"),
+  },
+  {
+    code: "unknown-node",
+    source: "resistor R1 o gnd 1k\nstartup probe=out",
+    expected: [
+      "t.onset:2:15: error: unknown node 'out' (did you mean 'o'?)",
+      "  startup probe=out",
+      "                ^~~",
+      "hint: a probe names a node that a part touches (hierarchical inside instances: N1.m1), a difference (o, ref), a current R1.i or a part's state such as U1.pole",
     ].join("\n"),
   },
   {
@@ -815,7 +845,7 @@ const cases: readonly Case[] = [
       "t.onset:2:35: error: '1' is not a probe",
       "  transient until=1m probes=(a, (a, 1))",
       "                                    ^",
-      "hint: a probe is a node (o), a difference (o, ref) or a current (R1.i)",
+      "hint: a probe is a node (o), a difference (o, ref), a current (R1.i) or a part's state (U1.pole)",
     ].join("\n"),
   },
   {
@@ -832,7 +862,7 @@ const cases: readonly Case[] = [
     code: "unknown-metric",
     source: "resistor R1 a gnd 1k\nspec freq=1k±1%",
     expected: [
-      "t.onset:2:6: error: unknown spec metric 'freq'",
+      "t.onset:2:6: error: unknown spec metric 'freq' (did you mean 'frequency'?)",
       "  spec freq=1k±1%",
       "       ^~~~",
       "hint: metrics are frequency, amplitude, thd, startup, settling, offset, rms, peak-to-peak, yield",
@@ -951,6 +981,116 @@ const cases: readonly Case[] = [
       "  resistor R1 a gnd 1k",
       "  ^~~~~~~~~~~~~~~~~~~~",
       "hint: check the node name for a typo, or connect the pin",
+    ].join("\n"),
+  },
+  {
+    code: "shared-tolerance",
+    source: "param R = 15.8k±1%\nresistor R1 a gnd (R)\nresistor R2 a gnd (R)\nvsource V1 a gnd 1\ntolerance runs=10", warnings: true,
+    expected: [
+      "t.onset:1:11: warning: parameter R is drawn once per sample and shared by 2 parts (R1, R2)",
+      "  param R = 15.8k±1%",
+      "            ^~~~~~~~",
+      "hint: one draw suits matched parts (a resistor network, a dual capacitor); for separate components write: param R = 15.8k±1% each",
+    ].join("\n"),
+  },
+  {
+    code: "each-without-tolerance",
+    source: "param R = 15.8k each\nresistor R1 a gnd (R)",
+    expected: [
+      "t.onset:1:17: error: parameter R is marked each but has no tolerance to draw",
+      "  param R = 15.8k each",
+      "                  ^~~~",
+      "hint: write a tolerance on the value, e.g. param R = 10k±1% each, or remove each",
+    ].join("\n"),
+  },
+  {
+    code: "bad-word",
+    source: "resistor R1 o gnd 1k\nstartup probe=o kick=termal",
+    expected: [
+      "t.onset:2:22: error: kick=termal is not a choice for startup (did you mean 'thermal'?)",
+      "  startup probe=o kick=termal",
+      "                       ^~~~~~",
+      "hint: kick= is one of thermal, power-on, noise, none",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o temperature=-300",
+    expected: [
+      "t.onset:2:29: error: temperature= of startup must be between -273.15 and 1k, got -300",
+      "  startup probe=o temperature=-300",
+      "                              ^~~~",
+      "hint: temperature= is the temperature of the resistances in °C (kick=thermal, power-on)",
+    ].join("\n"),
+  },
+  {
+    code: "not-integer",
+    source: "resistor R1 o gnd 1k\nstartup probe=o seeds=2.5",
+    expected: [
+      "t.onset:2:23: error: seeds= of startup must be a whole number, got 2.5",
+      "  startup probe=o seeds=2.5",
+      "                        ^~~",
+      "hint: seeds= is the number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o seeds=0",
+    expected: [
+      "t.onset:2:23: error: seeds= of startup must be between 1 and 10k, got 0",
+      "  startup probe=o seeds=0",
+      "                        ^",
+      "hint: seeds= is the number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o ramp=-1m kick=power-on",
+    expected: [
+      "t.onset:2:22: error: ramp= of startup must be at least 0 s, got -1m s",
+      "  startup probe=o ramp=-1m kick=power-on",
+      "                       ^~~",
+      "hint: ramp= is the time the DC levels take to rise from 0 (kick=power-on)",
+    ].join("\n"),
+  },
+  {
+    code: "unused-option",
+    source: "capacitor C1 o gnd 1u\nresistor R1 o gnd 1k\nstartup probe=o kick=thermal ramp=2m", warnings: true,
+    expected: [
+      "t.onset:3:30: warning: ramp= has no effect with kick=thermal",
+      "  startup probe=o kick=thermal ramp=2m",
+      "                               ^~~~",
+      "hint: ramp= is the time the DC levels take to rise from 0 (kick=power-on); it acts with kick=power-on",
+    ].join("\n"),
+  },
+  {
+    code: "unit-mismatch",
+    source: "opamp U1 p gnd o noise=20nV\nresistor R1 o p 1k",
+    expected: [
+      "t.onset:1:24: error: unit mismatch: '20nV' is in volts (V), but noise= of opamp U1 is in volts per root hertz (V/rtHz or V/√Hz, e.g. 20nV/rtHz)",
+      "  opamp U1 p gnd o noise=20nV",
+      "                         ^~~~",
+      "hint: write 20n or 20nV/√Hz",
+    ].join("\n"),
+  },
+  {
+    code: "conflicting-options",
+    source: "opamp U1 p gnd o noise=20nV/rtHz gbw=inf\nresistor R1 o p 1k",
+    expected: [
+      "t.onset:1:1: error: opamp U1: gbw=inf leaves the slew limit nothing to act on",
+      "  opamp U1 p gnd o noise=20nV/rtHz gbw=inf",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: the slew rate limits how fast the pole's capacitance charges; with gbw=inf write slew=inf too (or give a finite gbw=)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "vsource V1 a gnd wave=pulse low=0 high=1 rise=1m fall=1m width=0.5m period=2m\nresistor R1 a gnd 1k",
+    expected: [
+      "t.onset:1:1: error: vsource V1: rise + width + fall (0.0025 s) is longer than the period (0.002 s)",
+      "  vsource V1 a gnd wave=pulse low=0 high=1 rise=1m fall=1m width=0.5m period=2m",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: shorten width= or the edges: width = period − rise − fall leaves no time at low; width=0 with rise + fall = period is a triangle",
     ].join("\n"),
   },
 ];

@@ -3,8 +3,8 @@ import { elaborate, loadProgram, checkProgram, type Program } from "@onset/netli
 import type { Circuit } from "@onset/core";
 import { memoryResolver } from "./support/helpers.js";
 
-// Every example of /work/shared/circuit-language.md (the language spec), completed where the spec
-// shows only a fragment, must parse and elaborate.
+// Every example of the language's first specification (version 1, restated in docs/language.md),
+// completed where it shows only a fragment, must parse and elaborate.
 
 const amplifiers = `# shared op-amp settings
 preset quick opamp gbw=10M slew=15V/us rails=(-12, 12)
@@ -59,8 +59,8 @@ vsource   Vkick k gnd  wave=pulse low=0 high=10m width=10u
     expect(part(circuit, "U1").options).toMatchObject({ preset: "general", gain: 200e3, gbw: 1e6 });
     expect(part(circuit, "Vkick").options).toMatchObject({ wave: "pulse", low: 0, high: 10e-3, width: 10e-6, period: Infinity });
     expect(circuit.tolerances).toEqual([
-      { target: "Ra", nominal: 11e3, relative: 0.01, span: expect.anything() },
-      { target: "Cs", nominal: 2 * 33e-9, relative: 0.05, span: expect.anything() },
+      { target: "Ra", nominal: 11e3, relative: 0.01, unit: "Ω", span: expect.anything() },
+      { target: "Cs", nominal: 2 * 33e-9, relative: 0.05, unit: "F", span: expect.anything() },
     ]);
   });
 
@@ -131,8 +131,9 @@ vsource Vin in gnd 0
 resistor Rin in a 1k
 bias
 transient until=20m max-step=1u start=rest probes=(a, (o, ref), R1.i)
-startup probe=o until=50m max-step=2u kick=none level=1u seed=3
+startup probe=o until=50m max-step=2u kick=noise level=1u seed=3
 startup probe=(o, ref)
+startup probe=o kick=power-on ramp=2m temperature=60 seeds=20 seed=7
 response from=Vin to=o start=10 stop=100k per-decade=20
 poles
 sweep P1.at from=0.1 to=0.9 steps=9
@@ -146,8 +147,9 @@ spec frequency=1k±2% thd<0.5% startup<40m amplitude=3..5 yield>99%
     expect(strip(circuit.analyses)).toEqual([
       { kind: "bias" },
       { kind: "transient", until: 20e-3, maxStep: 1e-6, start: "rest", probes: [{ kind: "node", node: "a" }, { kind: "difference", plus: "o", minus: "ref" }, { kind: "current", part: "R1" }] },
-      { kind: "startup", probe: { kind: "node", node: "o" }, until: 50e-3, maxStep: 2e-6, kick: "none", level: 1e-6, seed: 3 },
-      { kind: "startup", probe: { kind: "difference", plus: "o", minus: "ref" }, until: "auto", kick: "noise" },
+      { kind: "startup", probe: { kind: "node", node: "o" }, until: 50e-3, maxStep: 2e-6, kick: "noise", level: 1e-6, seed: 3 },
+      { kind: "startup", probe: { kind: "difference", plus: "o", minus: "ref" }, until: "auto", kick: "thermal" },
+      { kind: "startup", probe: { kind: "node", node: "o" }, until: "auto", kick: "power-on", seed: 7, temperature: 60, ramp: 2e-3, seeds: 20 },
       { kind: "response", from: "Vin", to: { kind: "node", node: "o" }, start: 10, stop: 100e3, perDecade: 20 },
       { kind: "poles" },
       { kind: "sweep", target: "P1.at", from: 0.1, to: 0.9, steps: 9, log: false },
@@ -182,9 +184,9 @@ vsource Vos a gnd 0±2mV
 capacitor C1 a gnd 10n+-5%
 `);
     expect(circuit.tolerances.map(({ span: _s, ...t }) => t)).toEqual([
-      { target: "R", nominal: 11e3, relative: 0.01 },
-      { target: "Vos", nominal: 0, absolute: 2e-3 },
-      { target: "C1", nominal: 10e-9, relative: 0.05 },
+      { target: "R", nominal: 11e3, relative: 0.01, unit: "Ω" },
+      { target: "Vos", nominal: 0, absolute: 2e-3, unit: "V" },
+      { target: "C1", nominal: 10e-9, relative: 0.05, unit: "F" },
     ]);
   });
 });

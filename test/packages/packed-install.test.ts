@@ -56,7 +56,7 @@ const { circuit } = buildCircuit(source);
 const startup = runStartup(circuit, analysisOf(circuit, "startup"), { limits: { maxWallTime: 60 } });
 const build = (overrides) => buildCircuit(source, { overrides }).circuit;
 const study = (pool, limits) => runToleranceStudy(build, circuit.tolerances, analysisOf(circuit, "tolerance"), [], { pool, limits });
-const pool = workerPool(2)({ settings: { criteria: [] }, samples: 4, budget: new RunBudget() });
+const pool = workerPool(2)({ count: 4, budget: new RunBudget() });
 const jobs = pool.jobs;
 await pool.close();
 const onWorkers = await study(workerPool(2));

@@ -33,7 +33,7 @@ export function sampleAt(time: ArrayLike<number>, values: ArrayLike<number>, t: 
 
 /**
  * The Wien network from output `o` to input `p`: series R1–C1 (through node s) and parallel
- * R2 ∥ C2 to gnd (references §2.1).
+ * R2 ∥ C2 to gnd (docs/references.md §2.1).
  */
 export function wienNetwork(v: { R1: number; R2: number; C1: number; C2: number }): PartSpec[] {
   return [

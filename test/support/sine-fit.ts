@@ -8,7 +8,7 @@ export interface SineFit {
 }
 
 // IEEE Std 1057 four-parameter sine fit (Händel, IEEE Trans. Instrum. Meas. 49(6), 2000;
-// references §5): y ≈ A·cos ωt + B·sin ωt + C, Gauss–Newton on ω with the extra column
+// docs/references.md §5): y ≈ A·cos ωt + B·sin ωt + C, Gauss–Newton on ω with the extra column
 // −A·t·sin ωt + B·t·cos ωt, least squares by ml-matrix (QR). Time is measured from the middle
 // of the record, which only conditions the columns.
 //

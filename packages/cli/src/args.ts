@@ -1,5 +1,5 @@
+import { didYouMean } from "@onset/core";
 import { usageError } from "./cli-error.js";
-import { closestName } from "./suggest.js";
 
 /** One option a command accepts. */
 export interface OptionSpec {
@@ -30,12 +30,18 @@ export function valueOf(args: ParsedArgs, name: string): string | undefined {
 function optionByName(options: readonly OptionSpec[], name: string, command: string): OptionSpec {
   const found = options.find((o) => o.name === name);
   if (found) return found;
-  const guess = closestName(name, options.map((o) => o.name));
   throw usageError(
     "unknown-option",
-    `${command}: unknown option '--${name}'${guess ? ` (did you mean '--${guess}'?)` : ""}`,
+    `${command}: unknown option '--${name}'${didYouMean(name, options.map((o) => o.name), (n) => `--${n}`)}`,
     `see: onset help ${command}`,
   );
+}
+
+/** For a long name written after one dash (`-json`): the long option meant. Single letters get no guess (each is one edit from every other). */
+function longSpelling(word: string, options: readonly OptionSpec[]): string {
+  if (word.length < 2) return "";
+  const names = options.map((o) => o.name);
+  return names.includes(word) ? ` (did you mean '--${word}'?)` : didYouMean(word, names, (n) => `--${n}`);
 }
 
 /**
@@ -67,7 +73,7 @@ export function parseArgs(argv: readonly string[], options: readonly OptionSpec[
     } else {
       const letter = word.slice(1);
       const found = options.find((o) => o.short === letter);
-      if (!found) throw usageError("unknown-option", `${command}: unknown option '${word}'`, `see: onset help ${command}`);
+      if (!found) throw usageError("unknown-option", `${command}: unknown option '${word}'${longSpelling(letter, options)}`, `see: onset help ${command}`);
       spec = found;
     }
     if (spec.value === undefined) {

@@ -1,3 +1,4 @@
+import { didYouMean } from "@onset/core";
 import { parseArgs, type ParsedArgs } from "./args.js";
 import { CliError, usageError } from "./cli-error.js";
 import { colorWanted, paint } from "./color.js";
@@ -8,7 +9,6 @@ import { COMMANDS, commandNamed, type CommandSpec } from "./commands/table.js";
 import { EXIT } from "./exit.js";
 import { processIo, type CliIo } from "./io.js";
 import { Progress } from "./progress.js";
-import { closestName } from "./suggest.js";
 import { cliVersion } from "./version.js";
 
 function contextFor(io: CliIo, args: ParsedArgs | undefined): CommandContext {
@@ -92,10 +92,9 @@ export async function runCli(argv: readonly string[], io: CliIo = processIo()): 
 }
 
 function unknownCommand(word: string): CliError {
-  const guess = closestName(word, [...COMMANDS.map((c) => c.name), "help"]);
   return usageError(
     "unknown-command",
-    `unknown command '${word}'${guess ? ` (did you mean '${guess}'?)` : ""}`,
+    `unknown command '${word}'${didYouMean(word, [...COMMANDS.map((c) => c.name), "help"])}`,
     `commands: ${COMMANDS.map((c) => c.name).join(", ")}, help`,
   );
 }

@@ -20,6 +20,7 @@ export type {
   SpecCriterion,
   SpecMetric,
   StartupAnalysis,
+  StartupKick,
   SweepAnalysis,
   ToleranceAnalysis,
   ToleranceSpec,
@@ -37,11 +38,13 @@ export type {
   OptionSchema,
   PartKindSchema,
   PointsOption,
+  StateSchema,
   UnitSymbol,
   ValueSchema,
   WordOption,
 } from "./circuit/schema.js";
 export { checkTopology, nodesOfPart } from "./circuit/topology.js";
+export { closestName, didYouMean } from "./circuit/suggest.js";
 
 // Parts
 export { builtinPresets, partKinds } from "./devices/registry.js";
@@ -51,44 +54,49 @@ export { THERMAL_VOLTAGE } from "./devices/diode.js";
 
 // Limits
 export { budgetOf, isRunLimitError, LIMIT_CODES, RunBudget, RunLimitError, runLimitError } from "./analyses/limits.js";
-export type { BudgetOptions, LimitName, RunLimitRecord, RunLimits, SteppingRun } from "./analyses/limits.js";
+export type { BudgetOptions, LimitName, RunLimitRecord, RunLimits, SteppingRun, WorkerLimits } from "./analyses/limits.js";
 
 // Analyses
 export { DEFAULT_TOLERANCES } from "./solver/tolerances.js";
 export type { Tolerances } from "./solver/tolerances.js";
+export type { QuantityUnit } from "./solver/quantities.js";
 export type { BiasMethod } from "./analyses/bias.js";
 export type { StepperStats } from "./analyses/stepper.js";
 export { runTransient } from "./analyses/transient.js";
 export type { ProgressListener, RunOptions, Signal, TransientResult } from "./analyses/transient.js";
+export { probeUnit } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
 export { runPoles, startsFrom } from "./analyses/poles.js";
 export type { Pole, PolesResult } from "./analyses/poles.js";
 export { RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
 export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/response.js";
-export { DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
-export type { StartupResult, StartupRun } from "./analyses/startup.js";
-export { isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
+export { DEFAULT_KICK, DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
+export type { StartupResult, StartupRun, StartupTimeSpread } from "./analyses/startup.js";
+export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";
+export type { Excitation } from "./analyses/excitation.js";
+export { circuitSpec, isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
 export type { AnalysisResult, CircuitRun, SimulatingAnalysis } from "./analyses/run.js";
 
 // Metrics and specs
 export { measureStartup } from "./metrics/startup.js";
 export type { StartupMetrics } from "./metrics/startup.js";
 export type { StartupMetricsOptions } from "./metrics/startup-options.js";
+export type { LinearPrediction } from "./metrics/oscillation-kind.js";
 export type { StartupVerdict } from "./metrics/verdict.js";
 export { harmonicAnalysis } from "./metrics/harmonic-analysis.js";
 export type { HarmonicAnalysis } from "./metrics/harmonic-analysis.js";
 export { risingCrossings } from "./metrics/crossings.js";
 export { periodicSpectrum, thdOfPeriodicSamples } from "./metrics/spectrum.js";
 export type { Harmonic, PeriodicSpectrum } from "./metrics/spectrum.js";
-export { evaluateSpec, meets, metricValue, sampleCriteria } from "./spec/evaluate.js";
-export type { CriterionResult, SpecReport } from "./spec/evaluate.js";
+export { evaluateSpec, judgedValue, meets, metricValue, sampleCriteria } from "./spec/evaluate.js";
+export type { CriterionResult, JudgedMetrics, SpecReport } from "./spec/evaluate.js";
 
 // Design and statistics
 export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";
 export { designOscillator, STARTUP_GROWTH, twinTCrossing } from "./design/oscillator.js";
-export type { DesignChoice, DesignRequest, DesignResult, Topology } from "./design/oscillator.js";
+export type { DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
 export type { SeriesName } from "./design/eseries.js";
 export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";
@@ -101,9 +109,14 @@ export type { Distribution } from "./study/draw.js";
 export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
 export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
 export { summarizeSamples } from "./study/summary.js";
-export type { ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";
+export type { CriterionYield, ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";
 export { inThreadPool } from "./study/pool.js";
-export type { SamplePool, SamplePoolContext, SamplePoolFactory } from "./study/pool.js";
+export type { JobPool, JobPoolContext, JobPoolFactory } from "./study/pool.js";
+export { runJob, runSeed } from "./study/jobs.js";
+export type { Job, JobResult, SeedOutcome } from "./study/jobs.js";
+export { seedsOf, startupSpread, startupSpreadOnPool, timeSpread } from "./study/startup-spread.js";
+export { runCircuitInParallel } from "./study/run-parallel.js";
+export type { ParallelRunOptions } from "./study/run-parallel.js";
 export { runToleranceStudy, shardIndices } from "./study/tolerance.js";
 export type { CircuitBuilder, Shard, ToleranceStudyOptions } from "./study/tolerance.js";
 export { oscillates, runSweep, sweepValues } from "./study/sweep.js";

@@ -1,14 +1,13 @@
-// Worker-thread entry of the Monte Carlo pool: runs one sample per message.
+// Worker-thread entry of the job pool: runs one job (a Monte Carlo sample, a start-up seed) per message.
 import { parentPort } from "node:worker_threads";
-import type { Circuit } from "./circuit/circuit.js";
-import { isRunLimitError } from "./analyses/limits.js";
-import { runSample, type SampleSettings } from "./study/sample.js";
-import type { WorkerReply } from "./study/worker-pool.js";
+import { isRunLimitError, RunBudget } from "./analyses/limits.js";
+import { runJob } from "./study/jobs.js";
+import type { WorkerReply, WorkerRequest } from "./study/worker-pool.js";
 
-parentPort?.on("message", (message: { circuit: Circuit; settings: SampleSettings }) => {
+parentPort?.on("message", ({ job, limits }: WorkerRequest) => {
   let reply: WorkerReply;
   try {
-    reply = { outcome: runSample(message.circuit, message.settings) };
+    reply = { outcome: runJob(job, new RunBudget(limits)) };
   } catch (error) {
     if (!isRunLimitError(error)) throw error;
     reply = { limit: { diagnostic: error.diagnostic, limit: error.limit, value: error.value, reached: error.reached } };

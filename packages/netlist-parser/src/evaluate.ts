@@ -1,7 +1,6 @@
-import type { SourceSpan } from "@onset/core";
+import { didYouMean, type SourceSpan } from "@onset/core";
 import { raise } from "./errors.js";
 import { formatSI } from "./format-number.js";
-import { didYouMean } from "./suggest.js";
 import type { Expr, Span } from "./syntax.js";
 
 /** What an expression needs from its surroundings: the file, and the value of a parameter. */
@@ -143,4 +142,31 @@ export function soleName(expr: Expr): { name: string; span: Span } | undefined {
   let e = expr;
   while (e.kind === "group" && e.items.length === 1) e = e.items[0]!;
   return e.kind === "name" ? { name: e.name, span: e.span } : undefined;
+}
+
+/** True for a plain number inside an expression (no unit; `%` is a plain hundredth). */
+function plainNumber(expr: Expr): boolean {
+  const lit = soleLiteral(expr);
+  return lit !== undefined && (lit.literal.symbol === undefined || lit.literal.form === "percent");
+}
+
+/**
+ * The one name an expression scales by plain numbers, if any — `(C)`, `(2*C)`, `(R/2)`, `(-R)`:
+ * its value is in the same unit as the name's, so the name's unit can be read from the place.
+ */
+export function scaledName(expr: Expr): { name: string; span: Span } | undefined {
+  switch (expr.kind) {
+    case "name":
+      return expr.name === "pi" ? undefined : { name: expr.name, span: expr.span };
+    case "group":
+      return expr.items.length === 1 ? scaledName(expr.items[0]!) : undefined;
+    case "unary":
+      return scaledName(expr.operand);
+    case "binary":
+      if (expr.op === "*") return plainNumber(expr.left) ? scaledName(expr.right) : plainNumber(expr.right) ? scaledName(expr.left) : undefined;
+      if (expr.op === "/") return plainNumber(expr.right) ? scaledName(expr.left) : undefined;
+      return undefined;
+    default:
+      return undefined;
+  }
 }

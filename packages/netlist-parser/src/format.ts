@@ -1,5 +1,6 @@
 import type { Diagnostic } from "@onset/core";
 import { hasErrors } from "./errors.js";
+import { EACH } from "./keywords.js";
 import { parseText } from "./parser.js";
 import { printArg, printCriterion, printOption, printString, printValue } from "./print.js";
 import type { Program, Statement } from "./syntax.js";
@@ -45,7 +46,7 @@ function rowOf(s: Statement): Row | undefined {
     case "use":
       return { cells: ["use", s.name, s.block, ...s.nodes.map((n) => n.name)], tail: s.params.map(printOption).join(" ") };
     case "param":
-      return { cells: ["param", s.name, "=", printValue(s.value)], tail: "" };
+      return { cells: ["param", s.name, "=", printValue(s.value)], tail: s.each ? EACH : "" };
     default:
       return undefined;
   }

@@ -19,6 +19,9 @@ export function statementWords(): string[] {
   return [...definitionKeywords, ...analysisKeywords, ...Object.keys(partKinds)];
 }
 
+/** After a parameter's toleranced value: each use draws its own value (`param R = 10k±1% each`). */
+export const EACH = "each";
+
 /** Names a parameter may not take (the expression constant and function names). */
 export const reservedNames: ReadonlySet<string> = new Set([
   "pi",

@@ -30,8 +30,8 @@ const SINGLE: Readonly<Record<string, TokenKind>> = {
 /** Characters that may follow a number as its prefix and unit (`µ` and `μ`, `Ω` and the ohm sign). */
 const SUFFIX_START = /[A-Za-z_µμΩ\u2126%]/;
 const SUFFIX_REST = /[A-Za-z0-9_µμΩ\u2126%]/;
-/** A slew-rate unit such as `V/us`, the only unit with a `/`. */
-const SLEW_UNIT = /^[fpnuµμmkMGT]?V\/[fpnuµμmkMGT]?s(?![A-Za-z0-9_])/;
+/** The units with a `/`: a slew rate such as `V/us`, a noise density such as `nV/rtHz` or `nV/√Hz`. */
+const SLASH_UNIT = /^[fpnuµμmkMGT]?V\/(?:[fpnuµμmkMGT]?s|rtHz|√Hz)(?![A-Za-z0-9_])/;
 const NAME_START = /[A-Za-z_]/;
 const NAME_REST = /[A-Za-z0-9_]/;
 
@@ -166,8 +166,8 @@ function scanNumber(text: string, start: number): number {
       while (isDigit(text[i])) i++;
     }
   }
-  const slew = SLEW_UNIT.exec(text.slice(i, i + 8));
-  if (slew) return i + slew[0].length;
+  const slash = SLASH_UNIT.exec(text.slice(i, i + 10));
+  if (slash) return i + slash[0].length;
   if (i < text.length && SUFFIX_START.test(text[i]!)) {
     i++;
     while (i < text.length && SUFFIX_REST.test(text[i]!)) i++;

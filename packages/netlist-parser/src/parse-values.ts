@@ -9,7 +9,7 @@ export function atValueStart(state: ParserState): boolean {
   return k === "number" || k === "minus" || k === "lparen" || k === "lbracket" || k === "name";
 }
 
-/** value := ['-'] number [tolerance] | ['-'] '(' items ')' [tolerance] | word | points */
+/** value := ['-'] number [tolerance] | ['-'] '(' items ')' [tolerance] | word ('-' word)* | points */
 export function parseValue(state: ParserState, what = "a value"): Value {
   const first = state.peek();
   const minus = state.eat("minus");
@@ -29,8 +29,9 @@ export function parseValue(state: ParserState, what = "a value"): Value {
   }
   if (minus) return state.fail("expected", `expected a number or '(' after '-', found ${describeToken(t)}`, t);
   if (t.kind === "name") {
-    state.next();
-    return { kind: "word", name: t.text, span: sp(t) };
+    // A word may have dashes, written without spaces like a key (`kick=power-on`).
+    const word = parseKey(state, what);
+    return { kind: "word", name: word.name, span: word.span };
   }
   if (t.kind === "lbracket") return parsePoints(state);
   return state.fail("expected", `expected ${what}, found ${describeToken(t)}`, t, {

@@ -1,10 +1,9 @@
-import { partKinds, type Diagnostic, type PartKindSchema } from "@onset/core";
+import { didYouMean, partKinds, type Diagnostic, type PartKindSchema } from "@onset/core";
 import { raisedDiagnostic } from "./errors.js";
-import { isAnalysisKeyword, statementWords } from "./keywords.js";
+import { EACH, isAnalysisKeyword, statementWords } from "./keywords.js";
 import { tokenize } from "./lexer.js";
 import { ParserState, cover, sp } from "./parser-state.js";
 import { atOption, atValueStart, parseKey, parseOption, parseOptions, parseValue } from "./parse-values.js";
-import { didYouMean } from "./suggest.js";
 import type {
   AnalysisArg,
   AnalysisStatement,
@@ -110,7 +109,8 @@ function parseStatement(state: ParserState, inBlock: boolean): Statement | undef
       const name = expectPlainName(state, "a parameter name");
       state.expect("equals", `'=' after the parameter name`, `write: param ${name.name} = 10k`);
       const value = parseValue(state, "the parameter's value");
-      return { kind: "param", name: name.name, nameSpan: name.span, value, span: spanFrom(state, t) };
+      const each = state.peek().kind === "name" && state.peek().text === EACH ? sp(state.next()) : undefined;
+      return { kind: "param", name: name.name, nameSpan: name.span, value, each: each !== undefined, ...(each ? { eachSpan: each } : {}), span: spanFrom(state, t) };
     }
     case "include": {
       topOnly("include");

@@ -1,6 +1,6 @@
 import type { Diagnostic, UnitSymbol } from "@onset/core";
 import { problem, raisedDiagnostic } from "./errors.js";
-import { checkUnit, type NumberExpectation } from "./elaborate/context.js";
+import { checkUnit, type NumberExpectation } from "./elaborate/value-checks.js";
 import { tokenize } from "./lexer.js";
 import { decodeNumber, isNumberProblem } from "./units.js";
 

@@ -79,6 +79,10 @@ export interface ParamStatement {
   readonly name: string;
   readonly nameSpan: Span;
   readonly value: Value;
+  /** The word `each` after a toleranced value: every use of the parameter draws its own value. */
+  readonly each: boolean;
+  /** Where `each` is written. */
+  readonly eachSpan?: Span;
   readonly span: Span;
 }
 

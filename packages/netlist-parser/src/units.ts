@@ -1,5 +1,4 @@
-import type { UnitSymbol } from "@onset/core";
-import { closest } from "./suggest.js";
+import { closestName, type UnitSymbol } from "@onset/core";
 
 /** SI prefixes and their powers of ten; `u`, `µ` (micro sign) and `μ` (Greek mu) are micro. */
 export const SI_PREFIXES: Readonly<Record<string, number>> = {
@@ -111,6 +110,11 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
     const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "V/s", form: "si", value: scaled(coefficient, exponent, shift) };
     return slew[1] ? { ...literal, prefix: slew[1] } : literal;
   }
+  const density = /^([fpnuµμmkMGT])?V\/(?:rtHz|√Hz)$/.exec(suffix);
+  if (density) {
+    const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "V/√Hz", form: "si", value: scaled(coefficient, exponent, density[1] ? SI_PREFIXES[density[1]]! : 0) };
+    return density[1] ? { ...literal, prefix: density[1] } : literal;
+  }
   const whole = UNIT_SPELLINGS[suffix];
   if (whole) return withUnit(text, mantissa, undefined, suffix, coefficient, exponent);
   const first = suffix[0]!;
@@ -131,11 +135,11 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
     }
   }
   spellingCache ??= allSpellings();
-  const near = closest(suffix, spellingCache);
+  const near = closestName(suffix, spellingCache);
   return {
     code: "bad-unit",
     message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,
-    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
   };
 }
 
@@ -181,6 +185,7 @@ const UNIT_NAMES: Readonly<Record<UnitSymbol, string>> = {
   s: "seconds (s)",
   Hz: "hertz (Hz)",
   "V/s": "volts per second (V/s, or V/us)",
+  "V/√Hz": "volts per root hertz (V/rtHz or V/√Hz, e.g. 20nV/rtHz)",
   rad: "radians (rad, or deg)",
   "1": "a plain ratio",
 };

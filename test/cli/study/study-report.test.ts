@@ -3,6 +3,10 @@ import { studyJson } from "../../../packages/cli/src/json/study.js";
 import type { StoredSample, StudyHeader } from "../../../packages/cli/src/study/header.js";
 import { reproduceCommand, shellWord } from "../../../packages/cli/src/study/reproduce.js";
 import { studyReport, windowReport } from "../../../packages/cli/src/study/study-report.js";
+import { specReport } from "../../../packages/cli/src/report/spec.js";
+import { paint } from "../../../packages/cli/src/color.js";
+import { studyCsv } from "../../../packages/cli/src/csv/study.js";
+import { wilsonInterval } from "@onset/core";
 
 const metrics = (frequency: number) => ({
   verdict: "settled" as const,
@@ -54,8 +58,68 @@ describe("studyReport(header, samples)", () => {
   test("checks the yield criterion: 3 of 4 pass is 75 %, above 70 %", () => {
     const r = studyReport(base, [sample(0, 1000), sample(1, 1020), sample(2, 995), sample(3, 1005)]);
     expect(r.kind === "tolerance" && r.summary.yield.value).toBe(0.75);
-    expect(r.spec).toEqual({ pass: true, on: "the yield of 4 samples", criteria: [{ text: "yield>70%", metric: "yield", measured: 0.75, pass: true }] });
+    const interval = wilsonInterval(3, 4);
+    const row = { metric: "yield", measured: 0.75, passed: 3, runs: 4, interval: { low: interval.low, high: interval.high }, pass: true };
+    expect(r.spec).toEqual({ pass: true, on: "the yield of 4 samples", criteria: [{ text: "frequency=1k±1%", ...row }, { text: "yield>70%", ...row, combined: true }] });
     expect(r.missing).toEqual([]);
+  });
+
+  test("a spec of three criteria and yield> lists every criterion with its own yield and interval, then the yield of all together", () => {
+    const header: StudyHeader = {
+      ...base,
+      runs: 5,
+      criteria: [
+        { metric: "frequency", test: "within", low: 990, high: 1010, text: "frequency=1k±1%" },
+        { metric: "thd", test: "below", limit: 0.02, text: "thd<2%" },
+        { metric: "amplitude", test: "within", low: 2, high: 4, text: "amplitude=2..4" },
+        { metric: "yield", test: "above", limit: 0.5, text: "yield>50%" },
+      ],
+    };
+    // Sample 3 is off frequency, sample 4 distorts; 0, 1, 2 meet everything.
+    const made = (index: number, frequency: number, thd: number): StoredSample => {
+      const m = { ...metrics(frequency), thd };
+      const failures = [...(frequency < 990 || frequency > 1010 ? ["frequency=1k±1%"] : []), ...(thd >= 0.02 ? ["thd<2%"] : [])];
+      return { index, drawn: { C1: 1e-8 }, metrics: m, pass: failures.length === 0, failures };
+    };
+    const samples = [made(0, 1000, 0.01), made(1, 1003, 0.01), made(2, 998, 0.015), made(3, 1030, 0.01), made(4, 1001, 0.05)];
+    const r = studyReport(header, samples);
+    if (r.kind !== "tolerance") throw new Error("tolerance report expected");
+    expect(r.summary.criteria.map((c) => [c.criterion.text, c.passed, c.runs])).toEqual([
+      ["frequency=1k±1%", 4, 5],
+      ["thd<2%", 4, 5],
+      ["amplitude=2..4", 5, 5],
+    ]);
+    expect(r.summary.criteria[0]!.interval).toEqual(wilsonInterval(4, 5));
+    expect(r.summary.yield).toEqual({ passed: 3, runs: 5, value: 0.6, interval: wilsonInterval(3, 5) });
+    expect(r.spec?.criteria.map((c) => [c.text, c.measured, c.pass, c.combined ?? false])).toEqual([
+      ["frequency=1k±1%", 0.8, true, false],
+      ["thd<2%", 0.8, true, false],
+      ["amplitude=2..4", 1, true, false],
+      ["yield>50%", 0.6, true, true],
+    ]);
+    expect(specReport(r.spec!, paint(false))).toEqual([
+      "spec met: 3 of 5 samples settle and meet all 3 criteria (yield 60 %, required: yield>50%)",
+      "  criterion                 yield  95 % interval       samples  result",
+      "  frequency=1k±1%            80 %  37.55 % to 96.38 %   4 of 5  pass",
+      "  thd<2%                     80 %  37.55 % to 96.38 %   4 of 5  pass",
+      "  amplitude=2..4            100 %    56.55 % to 100 %   5 of 5  pass",
+      "  all together (yield>50%)   60 %  23.07 % to 88.24 %   3 of 5  pass",
+    ]);
+    const json = studyJson(r) as { summary: { criteria: Array<{ text: string; value: number }> } };
+    expect(json.summary.criteria.map((c) => [c.text, c.value])).toEqual([["frequency=1k±1%", 0.8], ["thd<2%", 0.8], ["amplitude=2..4", 1]]);
+    const csv = studyCsv(r).split("\n");
+    expect(csv[0]!.endsWith(",pass frequency=1k±1%,pass thd<2%,pass amplitude=2..4,pass")).toBe(true);
+    expect(csv.slice(1, 6).map((line) => line.split(",").slice(-4).join(""))).toEqual(["1111", "1111", "1111", "0110", "1010"]);
+  });
+
+  test("without yield> every sample must meet the spec, and a criterion passes only at 100 %", () => {
+    const header: StudyHeader = { ...base, criteria: [base.criteria[0]!] };
+    const r = studyReport(header, [sample(0, 1000), sample(1, 1020), sample(2, 995), sample(3, 1005)]);
+    expect(r.spec?.criteria.map((c) => [c.text, c.measured, c.pass])).toEqual([
+      ["frequency=1k±1%", 0.75, false],
+      ["every sample", 0.75, false],
+    ]);
+    expect(specReport(r.spec!, paint(false))[0]).toBe("spec NOT met: 3 of 4 samples settle and meet the criterion (yield 75 %, required: every sample)");
   });
 
   test("names the samples a shard still lacks", () => {

@@ -12,11 +12,11 @@ function bias(c: ReturnType<typeof circuit>) {
 }
 
 describe("bias point", () => {
-  test("thermal voltage at 300.15 K is 25.8649 mV (references §7, SI 2019 exact k and e)", () => {
+  test("thermal voltage at 300.15 K is 25.8649 mV (docs/references.md §7, SI 2019 exact k and e)", () => {
     expect(THERMAL_VOLTAGE).toBeCloseTo(25.8649e-3, 7);
   });
 
-  test("diode + resistor: I = 4.307112168 mA, V_D = 0.692887832 V (references §7, Lambert W closed form)", () => {
+  test("diode + resistor: I = 4.307112168 mA, V_D = 0.692887832 V (docs/references.md §7, Lambert W closed form)", () => {
     const { at, point } = bias(
       circuit([
         part("vsource", "V1", ["in", "gnd"], 5),
@@ -27,7 +27,7 @@ describe("bias point", () => {
     // The junction leak (1e-12 S) shifts the current by under 1e-12 A, far below the digits checked.
     expect(at("a")).toBeCloseTo(0.692887832, 8);
     expect((5 - at("a")) / 1e3).toBeCloseTo(4.307112168e-3, 11);
-    // Junction-voltage limiting keeps plain Newton from 0 V in a few tens of iterations (references §7: 12).
+    // Junction-voltage limiting keeps plain Newton from 0 V in a few tens of iterations (docs/references.md §7: 12).
     expect(point.method).toBe("newton");
     expect(point.iterations).toBeLessThan(40);
   });

@@ -23,7 +23,7 @@ function truncatedThd(b: (h: number) => number): number {
   return Math.sqrt(sum) / Math.abs(b(1));
 }
 
-describe("THD of driven waveforms against their Fourier series (references §4)", () => {
+describe("THD of driven waveforms against their Fourier series (docs/references.md §4)", () => {
   test("square wave from a pulse source: odd harmonics 4/(πn), THD to the 10th = 0.428795", () => {
     const { t, v } = record([
       part("vsource", "V1", ["o", "gnd"], undefined, { wave: "pulse", low: -1, high: 1, width: 0.5 / f, period: 1 / f, delay: 0.25 / f }),
@@ -31,13 +31,16 @@ describe("THD of driven waveforms against their Fourier series (references §4)"
     ]);
     const expected = truncatedThd((n) => (n % 2 === 1 ? 4 / (Math.PI * n) : 0));
     expect(expected).toBeCloseTo(0.428795, 6);
-    const m = measureStartup(t, v);
+    // Told that a 1 kHz source drives it, the square wave is a settled (driven) waveform; alone its
+    // shape would make it a relaxation oscillation.
+    const m = measureStartup(t, v, { drives: [f] });
     expect(m.verdict).toBe("settled");
+    expect(measureStartup(t, v).verdict).toBe("relaxation");
     // edges are steps the solver lands on; resampling smooths them over one sample (≈ 0.3 %)
     expect(Math.abs(m.thd! / expected - 1)).toBeLessThan(0.01);
   });
 
-  test("triangle wave from a steps source: odd harmonics 8/(π²n²), THD to the 10th = 0.120477 (references §4 give 0.121142 to the 40th)", () => {
+  test("triangle wave from a steps source: odd harmonics 8/(π²n²), THD to the 10th = 0.120477 (docs/references.md §4 give 0.121142 to the 40th)", () => {
     const points: number[] = [];
     for (let k = 0; k <= 2 * cycles; k++) points.push(k / (2 * f), k % 2 === 0 ? -1 : 1);
     const { t, v } = record([part("vsource", "V1", ["o", "gnd"], undefined, { wave: "steps", points }), part("resistor", "R1", ["o", "gnd"], 1e3)]);
@@ -46,7 +49,7 @@ describe("THD of driven waveforms against their Fourier series (references §4)"
     expect(Math.abs(measureStartup(t, v).thd! / expected - 1)).toBeLessThan(0.005);
   });
 
-  test.each([0.9, 0.7, 0.5])("sine hard-clipped at c = %d by an ideal op-amp follower: the §4 closed form truncated to 10 harmonics", (c) => {
+  test.each([0.9, 0.7, 0.5])("sine hard-clipped at c = %d by an ideal op-amp follower: the docs/references.md §4 closed form truncated to 10 harmonics", (c) => {
     const { t, v } = record([
       part("vsource", "V1", ["i", "gnd"], undefined, { wave: "sine", amp: 1, freq: f }),
       part("opamp", "U1", ["i", "o", "o"], undefined, { ...opampPresets.ideal, rails: [-c, c], headroom: 0, knee: 1e-5 }),
@@ -58,13 +61,13 @@ describe("THD of driven waveforms against their Fourier series (references §4)"
         : n % 2 === 0
           ? 0
           : (4 / Math.PI) * (Math.sin((n - 1) * theta) / (2 * (n - 1)) - Math.sin((n + 1) * theta) / (2 * (n + 1)) + (c * Math.cos(n * theta)) / n);
-    // references §4 for c = 0.9, 0.7, 0.5: all-harmonic THD_F 0.042199, 0.137588, 0.232938
+    // docs/references.md §4 for c = 0.9, 0.7, 0.5: all-harmonic THD_F 0.042199, 0.137588, 0.232938
     const expected = truncatedThd(b);
     expect(Math.abs(measureStartup(t, v).thd! / expected - 1)).toBeLessThan(0.02);
   });
 });
 
-describe("a driven sine against an independent IEEE 1057 four-parameter fit (references §5)", () => {
+describe("a driven sine against an independent IEEE 1057 four-parameter fit (docs/references.md §5)", () => {
   test("a 1 kHz sine through an RC low-pass: frequency and amplitude agree to 1e-5", () => {
     const { t, v } = record([
       part("vsource", "V1", ["i", "gnd"], undefined, { wave: "sine", amp: 2, freq: f, offset: 0.3 }),

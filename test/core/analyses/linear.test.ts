@@ -5,13 +5,13 @@ import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js"
 const R = 1e3;
 const C = 100e-9;
 
-/** Equal-RC Wien bridge around an ideal amplifier of gain A (a VCVS), references §2.1. */
+/** Equal-RC Wien bridge around an ideal amplifier of gain A (a VCVS), docs/references.md §2.1. */
 function wien(A: number): PartSpec[] {
   return [...wienNetwork({ R1: R, R2: R, C1: C, C2: C }), part("vcvs", "E1", ["o", "gnd", "p", "gnd"], A)];
 }
 
 describe("poles (generalized eigenvalues of G + sC)", () => {
-  test("series RLC: −α ± jω_d to 1e-9 relative (references §3: α = 5000 s⁻¹, ω_d = 31224.98999 rad/s)", () => {
+  test("series RLC: −α ± jω_d to 1e-9 relative (docs/references.md §3: α = 5000 s⁻¹, ω_d = 31224.98999 rad/s)", () => {
     const r = runPoles(
       circuit([
         part("vsource", "V1", ["in", "gnd"], 0),
@@ -34,14 +34,14 @@ describe("poles (generalized eigenvalues of G + sC)", () => {
     [3, 0, 1591.5494],
     [3.1, 500, 1589.5587],
     [3.3, 1500, 1573.5426],
-  ])("Wien bridge with an ideal gain of %d: σ = (A − 3)/(2RC) = %d s⁻¹, f = %d Hz (references §2.1)", (A, sigma, f) => {
+  ])("Wien bridge with an ideal gain of %d: σ = (A − 3)/(2RC) = %d s⁻¹, f = %d Hz (docs/references.md §2.1)", (A, sigma, f) => {
     const r = runPoles(circuit(wien(A)), { kind: "poles" });
     expect(r.growthRate!).toBeCloseTo(sigma, 6);
     expect(r.frequency!).toBeCloseTo(f, 3);
     expect(r.starts).toBe(A > 3);
   });
 
-  test("three-section C–R ladder with an inverting gain of 30: x = 0.002591 + 0.402882j, σ = 25.913 s⁻¹, f = 641.2059 Hz (references §2.2)", () => {
+  test("three-section C–R ladder with an inverting gain of 30: x = 0.002591 + 0.402882j, σ = 25.913 s⁻¹, f = 641.2059 Hz (docs/references.md §2.2)", () => {
     const r = runPoles(
       circuit([
         ...crLadder(R, C),
@@ -66,7 +66,7 @@ describe("poles (generalized eigenvalues of G + sC)", () => {
 });
 
 describe("response (small-signal frequency response)", () => {
-  /** Twin-T: R, R with shunt 2C; C, C with shunt kR, driven by an ideal source, unloaded (references §2.3). */
+  /** Twin-T: R, R with shunt 2C; C, C with shunt kR, driven by an ideal source, unloaded (docs/references.md §2.3). */
   const twinT = (k: number) =>
     circuit([
       part("vsource", "Vin", ["in", "gnd"], 0),
@@ -82,14 +82,14 @@ describe("response (small-signal frequency response)", () => {
     [0.49, 440.6745, -0.0025061],
     [0.47, 445.3816, -0.0075531],
     [0.45, 450.4417, -0.0126409],
-  ])("twin-T with k = %d: −180° at %d Hz where H = %d (references §2.3)", (k, f, h) => {
+  ])("twin-T with k = %d: −180° at %d Hz where H = %d (docs/references.md §2.3)", (k, f, h) => {
     const r = runResponse(twinT(k), { kind: "response", from: "Vin", to: { kind: "node", node: "out" }, start: 100, stop: 2000, perDecade: 100 });
     const c = r.phaseCrossings.find((x) => x.phase === -180)!;
     expect(c.frequency).toBeCloseTo(f, 3);
     expect(c.value).toBeCloseTo(h, 6);
   });
 
-  test("twin-T with k = ½ has a deep notch at f0 = 1/(2πRC) = 438.4434 Hz (references §2.3)", () => {
+  test("twin-T with k = ½ has a deep notch at f0 = 1/(2πRC) = 438.4434 Hz (docs/references.md §2.3)", () => {
     const r = runResponse(twinT(0.5), { kind: "response", from: "Vin", to: { kind: "node", node: "out" }, start: 100, stop: 2000, perDecade: 100 });
     expect(r.notch!.frequency).toBeCloseTo(438.4434, 2);
     expect(r.notch!.depthDb).toBeGreaterThan(80);

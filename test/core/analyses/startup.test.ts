@@ -4,7 +4,7 @@ import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js"
 
 const R = 1e3;
 const C = 100e-9;
-/** Near ideal (references §2.4 uses a memoryless amplifier): no headroom, 1 GHz GBW, a 0.1 mV knee. */
+/** Near ideal (docs/references.md §2.4 uses a memoryless amplifier): no headroom, 1 GHz GBW, a 0.1 mV knee. */
 const nearIdeal = (rails: [number, number]) => ({ ...opampPresets.ideal, knee: 1e-4, rails });
 const node = (n: string) => ({ kind: "node", node: n }) as const;
 const startup = (parts: PartSpec[], probe = "o", until: number | "auto" = "auto") =>
@@ -20,7 +20,7 @@ function wien(A: number): PartSpec[] {
   ];
 }
 
-/** Three-section C–R ladder into an inverting stage: the third R is the input resistor to the virtual ground (references §2.2). */
+/** Three-section C–R ladder into an inverting stage: the third R is the input resistor to the virtual ground (docs/references.md §2.2). */
 function phaseShift(A: number): PartSpec[] {
   return [
     ...crLadder(R, C),
@@ -30,7 +30,7 @@ function phaseShift(A: number): PartSpec[] {
   ];
 }
 
-describe("Barkhausen thresholds (references §2.1–2.2)", () => {
+describe("Barkhausen thresholds (docs/references.md §2.1–2.2)", () => {
   test.each([
     [2.8, false],
     [3.3, true],
@@ -49,7 +49,7 @@ describe("Barkhausen thresholds (references §2.1–2.2)", () => {
   });
 });
 
-describe("early envelope growth equals the linear pole (references §2.1: σ = (A − 3)/(2RC))", () => {
+describe("early envelope growth equals the linear pole (docs/references.md §2.1: σ = (A − 3)/(2RC))", () => {
   test.each([3.1, 3.3])("Wien at A = %d grows at σ within 2 %", (A) => {
     const r = startup(wien(A));
     const sigma = (A - 3) / (2 * R * C);
@@ -59,7 +59,7 @@ describe("early envelope growth equals the linear pole (references §2.1: σ = (
   });
 });
 
-describe("hard-limited Wien oscillator (references §2.4: ideal clip(A·v₊, ±10 V), DOP853/Radau at rtol 1e-10)", () => {
+describe("hard-limited Wien oscillator (docs/references.md §2.4: ideal clip(A·v₊, ±10 V), DOP853/Radau at rtol 1e-10)", () => {
   test.each([
     [3.1, 1580.7013, 10.73461, 0.051234],
     [3.3, 1541.4769, 11.3473, 0.115782],

@@ -8,12 +8,12 @@ const tight = { tolerances: { lteRelative: 1e-9, lteVoltage: 1e-12, lteCurrent: 
 const step = (name: string, plus: string, level = 1) =>
   part("vsource", name, [plus, "gnd"], undefined, { wave: "pulse", low: 0, high: level });
 
-describe("transient against closed forms (references §3; Nilsson & Riedel, Electric Circuits, RC/RL/RLC chapters)", () => {
+describe("transient against closed forms (docs/references.md §3; Nilsson & Riedel, Electric Circuits, RC/RL/RLC chapters)", () => {
   test("RC step: v = V(1 − e^(−t/RC)) at τ, 2τ, 5τ with R = 1 kΩ, C = 1 µF", () => {
     const c = circuit([step("V1", "in"), part("resistor", "R1", ["in", "o"], 1e3), part("capacitor", "C1", ["o", "gnd"], 1e-6)]);
     const r = runTransient(c, { kind: "transient", until: 6e-3, start: "bias", probes: [{ kind: "node", node: "o" }] }, tight);
     const v = r.signals[0]!.values;
-    // references §3: v(τ) = 0.632120559, v(2τ) = 0.864664717, v(5τ) = 0.993262053
+    // docs/references.md §3: v(τ) = 0.632120559, v(2τ) = 0.864664717, v(5τ) = 0.993262053
     expect(sampleAt(r.time, v, 1e-3)).toBeCloseTo(0.632120559, 6);
     expect(sampleAt(r.time, v, 2e-3)).toBeCloseTo(0.864664717, 6);
     expect(sampleAt(r.time, v, 5e-3)).toBeCloseTo(0.993262053, 6);
@@ -41,7 +41,7 @@ describe("transient against closed forms (references §3; Nilsson & Riedel, Elec
     }, tight);
     const vc = r.signals[0]!.values;
     const i = r.signals[1]!.values;
-    // references §3: v_C(50 µs) = 0.8678627879, v_C(100 µs) = 1.6045657890, v_C(500 µs) = 1.0804582724, i(50 µs) = 24.940449712 mA
+    // docs/references.md §3: v_C(50 µs) = 0.8678627879, v_C(100 µs) = 1.6045657890, v_C(500 µs) = 1.0804582724, i(50 µs) = 24.940449712 mA
     expect(sampleAt(r.time, vc, 50e-6)).toBeCloseTo(0.8678627879, 5);
     expect(sampleAt(r.time, vc, 100e-6)).toBeCloseTo(1.604565789, 5);
     expect(sampleAt(r.time, vc, 500e-6)).toBeCloseTo(1.0804582724, 5);

@@ -4,7 +4,7 @@ import { runTransient, THERMAL_VOLTAGE } from "@onset/core";
 import { buildSystem, TransientStepper } from "@onset/core/engine";
 import { circuit, part, sampleAt } from "../../support/circuits.js";
 
-describe("LC tank at a fixed step (references §3: the trapezoidal rule on an undamped oscillator)", () => {
+describe("LC tank at a fixed step (docs/references.md §3: the trapezoidal rule on an undamped oscillator)", () => {
   const L = 1e-3;
   const C = 1e-6;
   const h = 10e-6;
@@ -33,16 +33,20 @@ describe("LC tank at a fixed step (references §3: the trapezoidal rule on an un
 
   test("every step has the same length and the matrix is factored once per coefficient set", () => {
     const { t, stepper } = run();
-    // (the last step is shorter: the run ends between two grid points)
-    for (let k = 2; k < t.length - 1; k++) expect(t[k]! - t[k - 1]!).toBeCloseTo(h, 15);
-    // the consistent start, the backward-Euler first step, the trapezoidal steps, the short last step
+    // The checked start is two backward-Euler steps of h/2; then every step is h (the last is
+    // shorter: the run ends between two grid points).
+    expect(t[1]! - t[0]!).toBeCloseTo(h / 2, 15);
+    expect(t[2]! - t[1]!).toBeCloseTo(h / 2, 15);
+    for (let k = 3; k < t.length - 1; k++) expect(t[k]! - t[k - 1]!).toBeCloseTo(h, 15);
+    // The consistent start, the whole first-order step that checks the halves, the halves (whose
+    // G + (2/h)·C is also the trapezoidal matrix at h), the short last step.
     expect(stepper.stats.factorizations).toBe(4);
   });
 
-  test("energy ½Cv² + ½Li² is conserved after the first (backward Euler) step", () => {
+  test("energy ½Cv² + ½Li² is conserved after the first-order start (two backward-Euler halves)", () => {
     const { energy } = run();
-    const e1 = energy[1]!;
-    for (let k = 1; k < energy.length; k++) expect(Math.abs(energy[k]! - e1) / e1).toBeLessThan(1e-11);
+    const e2 = energy[2]!;
+    for (let k = 2; k < energy.length; k++) expect(Math.abs(energy[k]! - e2) / e2).toBeLessThan(1e-11);
   });
 
   test("the frequency equals the warped ω_num = (2/h)·atan(ωh/2) = 31363.137069 rad/s", () => {
@@ -55,7 +59,7 @@ describe("LC tank at a fixed step (references §3: the trapezoidal rule on an un
     const w = 1 / Math.sqrt(L * C);
     const expected = (2 / h) * Math.atan((w * h) / 2);
     expect(expected).toBeCloseTo(31363.137069, 5);
-    // Linear-interpolated crossings match f_num to 3.5e-7 at 20 samples per period (references §3).
+    // Linear-interpolated crossings match f_num to 3.5e-7 at 20 samples per period (docs/references.md §3).
     expect(Math.abs(omega / expected - 1)).toBeLessThan(1e-6);
   });
 });

@@ -2,12 +2,12 @@ import { describe, expect, test } from "vitest";
 import fc from "fast-check";
 import { E_SERIES, snapToSeries } from "@onset/core";
 
-describe("IEC 60063 E-series (references §1)", () => {
-  test("E96 values are round(10^(i/96), 2) (checked three ways in references §1)", () => {
+describe("IEC 60063 E-series (docs/references.md §1)", () => {
+  test("E96 values are round(10^(i/96), 2) (checked three ways in docs/references.md §1)", () => {
     E_SERIES.E96.forEach((v, i) => expect(v).toBeCloseTo(Math.round(Math.pow(10, i / 96) * 100) / 100, 12));
   });
 
-  test("E24 departs from round(10^(i/24), 1) at exactly the eight positions of references §1", () => {
+  test("E24 departs from round(10^(i/24), 1) at exactly the eight positions of docs/references.md §1", () => {
     const differs = E_SERIES.E24.flatMap((v, i) => (Math.abs(v - Math.round(Math.pow(10, i / 24) * 10) / 10) > 1e-9 ? [v] : []));
     expect(differs).toEqual([2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 8.2]);
   });
@@ -28,7 +28,7 @@ describe("IEC 60063 E-series (references §1)", () => {
     [9080, "E12", 10e3],
     [9879.5, "E96", 10.0e3],
     [0.0995, "E96", 0.1],
-  ] as const)("snap %d to %s → %d (nearest in the log sense, references §1)", (x, series, expected) => {
+  ] as const)("snap %d to %s → %d (nearest in the log sense, docs/references.md §1)", (x, series, expected) => {
     // relative comparison: 0.1 is not exact in binary
     expect(Math.abs(snapToSeries(x, series) / expected - 1)).toBeLessThan(1e-12);
   });

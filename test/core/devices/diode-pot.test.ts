@@ -20,10 +20,10 @@ describe("diode", () => {
     );
   });
 
-  test("junction-voltage limiting replaces a large forward step by a logarithmic one (references §7)", () => {
+  test("junction-voltage limiting replaces a large forward step by a logarithmic one (docs/references.md §7)", () => {
     const nvt = 25.8649e-3;
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * 1e-14));
-    expect(vcrit).toBeCloseTo(0.73029, 5); // references §7: v_crit = 0.730290 V
+    expect(vcrit).toBeCloseTo(0.73029, 5); // docs/references.md §7: v_crit = 0.730290 V
     expect(limitJunctionVoltage(0.6, 5, nvt, vcrit)).toBeCloseTo(0.6 + nvt * Math.log(1 + 4.4 / nvt), 12);
     expect(limitJunctionVoltage(0.6, 0.61, nvt, vcrit)).toBe(0.61);
   });

@@ -2,7 +2,6 @@ import { describe, expect, test } from "vitest";
 import { tailTrend } from "../../../packages/core/src/metrics/envelope-trend.js";
 import { fitEnvelopeGrowth } from "../../../packages/core/src/metrics/growth-rate.js";
 import { settlingTime } from "../../../packages/core/src/metrics/settling.js";
-import type { CycleTable } from "../../../packages/core/src/metrics/cycles.js";
 import { formatPercent, formatQuantity, formatRate } from "../../../packages/core/src/metrics/format.js";
 
 describe("tailTrend and fitEnvelopeGrowth", () => {
@@ -30,21 +29,16 @@ describe("tailTrend and fitEnvelopeGrowth", () => {
 });
 
 describe("settlingTime", () => {
-  const table = (envelope: number[]): CycleTable => ({
-    count: envelope.length,
-    start: Float64Array.from({ length: envelope.length + 1 }, (_, k) => k),
-    maximum: Float64Array.from(envelope),
-    minimum: Float64Array.from(envelope, (e) => -e),
-    envelope: Float64Array.from(envelope),
-    midTime: Float64Array.from(envelope, (_, k) => k + 0.5),
-  });
+  // Cycle k has its mid-time at k + 0.5.
+  const settle = (envelope: number[], level: number) =>
+    settlingTime(Float64Array.from(envelope, (_, k) => k + 0.5), Float64Array.from(envelope), level);
 
   test("is where the envelope, linear between cycle mid-times, last enters the ±1 % band", () => {
     // Last outside: 0.97 at t = 2.5; next 0.995 at t = 3.5; the edge 0.99 is 80 % of the way.
-    expect(settlingTime(table([0.5, 0.9, 0.97, 0.995, 1.002, 1, 1]), 1)).toBeCloseTo(3.3, 12);
+    expect(settle([0.5, 0.9, 0.97, 0.995, 1.002, 1, 1], 1)).toBeCloseTo(3.3, 12);
     // From above: 1.05 at 1.5, 1.0 at 2.5; the edge 1.01 is 80 % of the way.
-    expect(settlingTime(table([1.2, 1.05, 1, 1, 1]), 1)).toBeCloseTo(2.3, 12);
-    expect(settlingTime(table([1, 1.001, 1]), 1)).toBe(0.5);
+    expect(settle([1.2, 1.05, 1, 1, 1], 1)).toBeCloseTo(2.3, 12);
+    expect(settle([1, 1.001, 1], 1)).toBe(0.5);
   });
 });
 

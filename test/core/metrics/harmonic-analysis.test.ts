@@ -19,7 +19,7 @@ function truncatedThd(b: (n: number) => number, maxOrder: number): number {
   return Math.sqrt(sum) / Math.abs(b(1));
 }
 
-describe("harmonicAnalysis on jittered samples against Fourier coefficients (references §4 [math])", () => {
+describe("harmonicAnalysis on jittered samples against Fourier coefficients (docs/references.md §4 [math])", () => {
   test("triangle, 8/(π²n²) for odd n: THD up to H = 10 and up to H = 40 (table 0.121142)", () => {
     const t = times(1000, 21);
     const v = sampled(t, (x) => (2 / Math.PI) * Math.asin(Math.sin(theta(x))));

@@ -3,12 +3,12 @@ import { measureStartup } from "../../../packages/core/src/metrics/startup.js";
 import { fourParameterFit } from "../../support/sine-fit.js";
 import { jitteredTimes, sampled } from "./signals.js";
 
-describe("measureStartup against an IEEE 1057 four-parameter sine fit (references §5)", () => {
-  test("the fit itself recovers the §5 check signal 1.234·cos(2π·997t + 0.3) + 0.05 from 1000 Hz", () => {
+describe("measureStartup against an IEEE 1057 four-parameter sine fit (docs/references.md §5)", () => {
+  test("the fit itself recovers the docs/references.md §5 check signal 1.234·cos(2π·997t + 0.3) + 0.05 from 1000 Hz", () => {
     const t = Float64Array.from({ length: 4800 }, (_, i) => i / 48_000);
     const y = sampled(t, (x) => 1.234 * Math.cos(2 * Math.PI * 997 * x + 0.3) + 0.05);
     const fit = fourParameterFit(t, y, 1000);
-    expect(fit.frequency).toBeCloseTo(997, 9); // references §5 [np]: 997.000000000 Hz
+    expect(fit.frequency).toBeCloseTo(997, 9); // docs/references.md §5 [np]: 997.000000000 Hz
     expect(fit.amplitude).toBeCloseTo(1.234, 10);
     expect(fit.offset).toBeCloseTo(0.05, 10);
   });
@@ -23,7 +23,7 @@ describe("measureStartup against an IEEE 1057 four-parameter sine fit (reference
   };
 
   // The frequency bias of the fit from a 1 % third harmonic is about 2e-7 over 100 cycles
-  // (references §5 [np]), so 1e-6 is the tolerance §5 recommends.
+  // (docs/references.md §5 [np]), so 1e-6 is the tolerance §5 recommends.
   test("sine + 1 % third harmonic + offset, jittered steps: frequency, fundamental and offset agree to 1e-6", () => {
     const t = jitteredTimes(0, 100 / f, 1 / (f * 200), 7, { jitter: 0.5 });
     const v = sampled(t, signal);

@@ -68,12 +68,12 @@ describe("periodicSpectrum and thdOfPeriodicSamples (fft.js) against a direct DF
   });
 });
 
-describe("thdOfPeriodicSamples on a sampled square wave (references §4, 'Sampled square wave' [math])", () => {
+describe("thdOfPeriodicSamples on a sampled square wave (docs/references.md §4, 'Sampled square wave' [math])", () => {
   // With N midpoint samples per period the DFT fundamental is 4/(N·sin(π/N)) and every other
   // bin holds aliased odd harmonics, so the THD over all bins is √(N²·sin²(π/N)/8 − 1), not the
   // continuous 0.483426. Counting harmonics up to N/2 − 1 per period takes in every bin. At
   // N = 2^16 the sampled value agrees with the continuous one to the six digits tabulated
-  // (references §4: [np] FFT at 2^16 samples per period, [js] fft.js gives the same).
+  // (docs/references.md §4: [np] FFT at 2^16 samples per period, [js] fft.js gives the same).
   test.each([
     [16, 0.466827],
     [64, 0.4824],

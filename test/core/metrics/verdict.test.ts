@@ -22,6 +22,26 @@ describe("measureStartup verdicts on synthetic records", () => {
     expect(metrics.suggestedExtraTime).toBeUndefined();
   });
 
+  test("settled: a hard-clipped sine whose first sample on each plateau overshoots by up to 2 % (numerical corner overshoot)", () => {
+    // clip(1.3·sin θ, ±1); the sample that lands first on each flat top or bottom is pushed
+    // 0–2 % past the limit, a different amount every cycle (seeded), as an integrator that
+    // rounds a clip corner coarsely would leave it. The peaks then wander by up to 2 % per
+    // cycle, the power of each cycle by far less than the settling tolerance.
+    const t = jitteredTimes(0, 40 * period, period / 200, 53);
+    const clipped = (x: number) => Math.max(-1, Math.min(1, 1.3 * Math.sin(omega * x)));
+    const v = sampled(t, clipped);
+    let state = 12345;
+    for (let i = 1; i < v.length; i++) {
+      if (Math.abs(v[i]!) === 1 && Math.abs(v[i - 1]!) < 1) {
+        state = (Math.imul(state, 1103515245) + 12345) >>> 0;
+        v[i] = v[i]! * (1 + 0.02 * (state / 2 ** 32));
+      }
+    }
+    const metrics = measureStartup(t, v);
+    expect(metrics.verdict).toBe("settled");
+    expect(Math.abs(metrics.frequency! / f - 1)).toBeLessThan(1e-4);
+  });
+
   test("growing: pure exponential growth, with the extra run time from σ and the amplitude limit", () => {
     const sigma = 200;
     const t = times(30, 52);

@@ -2,7 +2,7 @@ import { describe, expect, test } from "vitest";
 import jStat from "jstat";
 import { percentileOfSorted, summarize, wilsonInterval, Z95 } from "@onset/core";
 
-describe("Wilson score interval (references §6; Wilson 1927; checked against scipy and jstat there)", () => {
+describe("Wilson score interval (docs/references.md §6; Wilson 1927; checked against scipy and jstat there)", () => {
   test("z for 95 % equals jstat's normal quantile (independent library)", () => {
     expect(Z95).toBeCloseTo(jStat.normal.inv(0.975, 0, 1), 12);
   });

@@ -25,10 +25,10 @@ function relativeSpread(dist: "uniform" | "normal", runs: number) {
   return sd / mean;
 }
 
-describe("tolerance Monte Carlo against first-order theory (references §6)", () => {
+describe("tolerance Monte Carlo against first-order theory (docs/references.md §6)", () => {
   const runs = 4000;
   // Standard error of a sample standard deviation ≈ σ/√(2N) (normal theory), plus 0.3 % for the
-  // second-order terms the first-order formula leaves out (references §6 measured +0.2 %).
+  // second-order terms the first-order formula leaves out (docs/references.md §6 measured +0.2 %).
   const bound = (theory: number) => 3 * (theory / Math.sqrt(2 * runs)) + 0.003 * theory;
 
   test("uniform R ±1 %, C ±5 %: σ_f/f = ½√Σσᵢ² with σ = tol/√3 → 2.0817 %", () => {

@@ -78,7 +78,9 @@ const partArb = fc
 
 const stringArb = fc.string({ maxLength: 12 }).map((s) => `"${s.replace(/[\n\r]/g, " ").replace(/\\/g, "\\\\").replace(/"/g, '\\"')}"`);
 
-const paramArb = fc.tuple(nameArb, valueArb, spaceArb).map(([n, v, s]) => `param${s}${n}${s}=${s}${v}`);
+const paramArb = fc
+  .tuple(nameArb, valueArb, spaceArb, fc.constantFrom("", "", " each", "\teach"))
+  .map(([n, v, s, each]) => `param${s}${n}${s}=${s}${v}${each}`);
 const useArb = fc
   .tuple(nameArb, nameArb, fc.array(nameArb, { maxLength: 4 }), fc.array(fc.tuple(nameArb, valueArb).map(([k, v]) => `${k}=${v}`), { maxLength: 2 }))
   .map(([n, b, nodes, params]) => ["use", n, b, ...nodes, ...params].join(" "));

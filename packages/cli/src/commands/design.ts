@@ -1,5 +1,5 @@
-import { designOscillator, isSeriesName, type DesignRequest, type Topology } from "@onset/core";
-import { parseQuantity } from "@onset/netlist-parser";
+import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
+import { elaborate, parseQuantity, parseText } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
@@ -18,6 +18,24 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
   return value;
 }
 
+/** Runs the start-up analysis of a designed file exactly as `onset run` would (nominal values). */
+function simulateDesign(text: string) {
+  const parsed = parseText(text, "design.onset");
+  const { circuit, diagnostics } = elaborate(parsed.program);
+  const analysis = circuit && startupAnalysisOf(circuit);
+  if (!analysis) throw new CliError([...parsed.diagnostics, ...diagnostics]);
+  return runStartup(circuit, analysis);
+}
+
+/** One line for standard error: what the designed file settles at, and what the poles predicted. */
+function designSummary(r: DesignResult): string {
+  const pct = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x * 100).toFixed(2)} %`;
+  const poles = `small-signal poles ${r.predicted.frequency.toFixed(2)} Hz (${pct(r.error)})`;
+  const sim = r.simulated;
+  if (!sim || sim.frequency === null || sim.error === null) return `design: simulated start-up ${sim?.verdict ?? "not run"}; ${poles}`;
+  return `design: simulated start-up settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target); ${poles}`;
+}
+
 /**
  * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T]`:
  * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`
@@ -28,13 +46,13 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
   const output = optionTarget(ctx, args, "output");
   checkOutputs([output], ctx.json);
   if (!(DESIGN_TOPOLOGIES as readonly string[]).includes(topology)) {
-    throw usageError("bad-topology", `design: unknown topology '${topology}'`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
+    throw usageError("bad-topology", `design: unknown topology '${topology}'${didYouMean(topology, DESIGN_TOPOLOGIES)}`, `choose one of: ${DESIGN_TOPOLOGIES.join(", ")}`);
   }
   const freq = valueOf(args, "freq");
   if (freq === undefined) throw usageError("missing-option", "design needs --freq", "write for example: onset design wien --freq 1k");
   const cap = valueOf(args, "cap");
   const series = valueOf(args, "series");
-  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'`, "choose E12, E24 or E96");
+  if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'${didYouMean(series, ["E12", "E24", "E96"])}`, "choose E12, E24 or E96");
   const preset = valueOf(args, "preset");
   const startup = valueOf(args, "startup");
   const request: DesignRequest = {
@@ -45,7 +63,8 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(preset === undefined ? {} : { preset }),
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
   };
-  const result = designOscillator(request);
+  const result = designOscillator(request, { simulate: simulateDesign });
+  ctx.note(designSummary(result));
   if (output !== null) {
     writeOutput(output, result.text, ctx.io.stdout);
     if (output.kind !== "stdout") ctx.note(`wrote ${output.shown}`);

@@ -1,4 +1,5 @@
-import { checkTopology, drawSample, isRunLimitError, isSimulating, runCircuit, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { checkTopology, drawSample, isRunLimitError, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { workerPool } from "@onset/core/node";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
 import { includeRootsOf, limitsOf } from "../input/limits.js";
@@ -18,8 +19,9 @@ import { renderWarnings } from "./problems.js";
 import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
 import { watchCommand } from "./watch.js";
 
-function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, sample?: { index: number; drawn: Record<string, number> }): Outcome {
-  const run = runCircuit(circuit, { onProgress: ctx.progress.simulation("simulating"), limits });
+/** The file's plain analyses; the further seeds of `startup seeds=N` run on `jobs` workers. */
+async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, jobs: number, sample?: { index: number; drawn: Record<string, number> }): Promise<Outcome> {
+  const run = await runCircuitInParallel(circuit, { onProgress: ctx.progress.simulation("simulating"), limits, pool: workerPool(jobs) });
   ctx.progress.stop();
   const analyses = circuit.analyses.filter(isSimulating);
   return {
@@ -44,14 +46,14 @@ function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<st
   return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: circuit.analyses.filter(isSimulating) };
 }
 
-function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits): Outcome {
+function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits, jobs: number): Promise<Outcome> {
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   if (!tolerance) throw usageError("no-tolerance", "--sample needs a file with a tolerance analysis", "add a line such as: tolerance runs=200");
   if (index >= tolerance.runs) throw usageError("bad-option", `--sample ${index} is past the study's ${tolerance.runs} runs`, `give an index from 0 to ${tolerance.runs - 1}`);
   const sweep = circuit.analyses.find((a): a is SweepAnalysis => a.kind === "sweep");
   const drawn = drawSample(drawnTolerances(circuit, sweep), tolerance.seed, index, tolerance.dist);
   const sampled = elaborateSource(source, { ...sets, ...drawn }).circuit;
-  return plainOutcome(ctx, sampled, limits, { index, drawn });
+  return plainOutcome(ctx, sampled, limits, jobs, { index, drawn });
 }
 
 /** --shard and --resume need a tolerance study to act on; --results without one is only noted. */
@@ -114,8 +116,8 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   checkOutputs([outputs.csv, outputs.svg, results], ctx.json);
   refuseInputs([outputs.csv, outputs.svg, results], inputFiles(source), ctx.io.cwd);
   let outcome: Outcome;
-  if (sample !== undefined) outcome = sampleRerun(ctx, source, sets, circuit, sample, limits);
-  else if (plain) outcome = plainOutcome(ctx, circuit, limits);
+  if (sample !== undefined) outcome = await sampleRerun(ctx, source, sets, circuit, sample, limits, jobs);
+  else if (plain) outcome = await plainOutcome(ctx, circuit, limits, jobs);
   else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {

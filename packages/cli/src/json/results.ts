@@ -24,6 +24,7 @@ export function startupJson(r: StartupResult): Json {
   return {
     analysis: "startup",
     probe: r.probe,
+    unit: r.unit,
     verdict: r.verdict,
     explanation: r.explanation,
     frequency: r.frequency,
@@ -33,7 +34,9 @@ export function startupJson(r: StartupResult): Json {
     rms: r.rms,
     offset: r.offset,
     startupTime: r.startupTime,
+    startupTimeSpread: r.startupTimeSpread ? { ...r.startupTimeSpread, seeds: [...r.startupTimeSpread.seeds], times: [...r.startupTimeSpread.times] } : undefined,
     settlingTime: r.settlingTime,
+    dutyCycle: r.dutyCycle,
     growthRate: r.growthRate,
     thd: r.thd,
     harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),
@@ -41,9 +44,10 @@ export function startupJson(r: StartupResult): Json {
     suggestedExtraTime: r.suggestedExtraTime,
     until: r.run.until,
     maxStep: r.run.maxStep,
-    kick: { ...r.run.kick },
+    excitation: { ...r.run.excitation },
     predicted: { ...r.run.predicted },
     solver: { ...r.run.solver },
+    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, hint: w.hint })),
   };
 }
 
@@ -62,6 +66,7 @@ function polesJson(r: PolesResult, startup: StartupResult | undefined): Json {
 function responseJson(r: ResponseResult): Json {
   return {
     analysis: "response",
+    unit: r.unit,
     from: r.from,
     to: r.to,
     points: r.points.map((p) => ({ frequency: p.frequency, magnitude: p.magnitude, magnitudeDb: p.magnitudeDb, phase: p.phase })),

@@ -1,4 +1,4 @@
-import type { ToleranceSummary } from "@onset/core";
+import type { ToleranceSummary, YieldSummary } from "@onset/core";
 import type { StoredSample, StudyHeader } from "../study/header.js";
 import { reproduceCommand } from "../study/reproduce.js";
 import type { StudyReport } from "../study/study-report.js";
@@ -8,12 +8,17 @@ function sampleJson(s: StoredSample): Json {
   return { index: s.index, drawn: { ...s.drawn }, pass: s.pass, failures: [...s.failures], error: s.error, metrics: s.metrics ? { ...s.metrics } : null };
 }
 
+function yieldJson(y: YieldSummary): Record<string, Json> {
+  return { passed: y.passed, runs: y.runs, value: y.value, interval: { low: y.interval.low, high: y.interval.high } };
+}
+
 function summaryJson(summary: ToleranceSummary): Json {
   return {
     runs: summary.runs,
     verdicts: { ...summary.verdicts },
     percentiles: JSON.parse(JSON.stringify(summary.percentiles)) as Json,
-    yield: { passed: summary.yield.passed, runs: summary.yield.runs, value: summary.yield.value, interval: { low: summary.yield.interval.low, high: summary.yield.interval.high } },
+    yield: yieldJson(summary.yield),
+    criteria: summary.criteria.map((c) => ({ text: c.criterion.text, metric: c.criterion.metric, ...yieldJson(c) })),
     yieldCriterion: summary.yieldCriterion ? { text: summary.yieldCriterion.criterion.text, pass: summary.yieldCriterion.pass } : null,
     worst: [...summary.worst],
   };

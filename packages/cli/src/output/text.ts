@@ -1,7 +1,6 @@
 import type { StartupResult } from "@onset/core";
 import type { Paint } from "../color.js";
 import { biasReport } from "../report/bias.js";
-import { probeUnit } from "../report/plain-types.js";
 import { polesReport } from "../report/poles.js";
 import { predictionCheck } from "../report/prediction.js";
 import { responseReport } from "../report/response.js";
@@ -21,10 +20,10 @@ function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): 
       case "transient":
         return transientReport(analysis as Extract<typeof analysis, { kind: "transient" }>, result, p);
       case "startup":
-        return startupReport(result, probeUnit(analysis), p);
+        return startupReport(result, result.unit, p);
       case "poles": {
         const check = firstStartup ? predictionCheck(result, firstStartup.result as StartupResult) : null;
-        return polesReport(result, check, firstStartup ? probeUnit(firstStartup.analysis) : "V", p);
+        return polesReport(result, check, firstStartup ? (firstStartup.result as StartupResult).unit : "V", p);
       }
       case "response":
         return responseReport(result, p);

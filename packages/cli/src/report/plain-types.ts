@@ -5,10 +5,3 @@ export interface AnalysisRun {
   readonly analysis: SimulatingAnalysis;
   readonly result: AnalysisResult;
 }
-
-/** The unit a probe's values are in: amperes for a branch current, else volts. */
-export function probeUnit(analysis: SimulatingAnalysis): "V" | "A" {
-  if (analysis.kind === "startup") return analysis.probe.kind === "current" ? "A" : "V";
-  if (analysis.kind === "response") return analysis.to.kind === "current" ? "A" : "V";
-  return "V";
-}

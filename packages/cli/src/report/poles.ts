@@ -1,11 +1,11 @@
-import type { PolesResult } from "@onset/core";
+import type { PolesResult, QuantityUnit } from "@onset/core";
 import type { Paint } from "../color.js";
 import type { PredictionCheck } from "./prediction.js";
 import { table } from "./table.js";
 import { perSecond, si } from "./values.js";
 
 /** The poles table (rightmost first), the dominant pair and, with a start-up run, prediction against simulation. */
-export function polesReport(r: PolesResult, check: PredictionCheck | null, unit: "V" | "A", p: Paint): string[] {
+export function polesReport(r: PolesResult, check: PredictionCheck | null, unit: QuantityUnit, p: Paint): string[] {
   const lines = [p.bold("poles at the bias point") + p.dim(`  (${r.poles.length} finite, rightmost first)`)];
   lines.push(
     ...table(
@@ -32,8 +32,8 @@ export function polesReport(r: PolesResult, check: PredictionCheck | null, unit:
       ),
     );
     lines.push(
-      p.dim(`    predicted start-up time = ln(0.9 × settled amplitude / kick response) / growth rate, kick response ${si(check.kickResponse, unit, 3)}`),
-      p.dim("    (largest departure of the probe during the kick)"),
+      p.dim(`    predicted start-up time = ln(0.9 × settled amplitude / start level) / growth rate, start level ${si(check.startLevel, unit, 3)}`),
+      p.dim("    (√2 × the excitation's noise r.m.s. at the probe, linearised at the bias point)"),
     );
   }
   return lines;

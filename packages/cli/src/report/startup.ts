@@ -1,6 +1,6 @@
-import type { StartupResult } from "@onset/core";
+import type { Excitation, QuantityUnit, StartupResult, StartupTimeSpread } from "@onset/core";
 import type { Paint } from "../color.js";
-import { formatDecibel } from "../format/index.js";
+import { formatDecibel, formatPlain } from "../format/index.js";
 import { SPECTRUM_FLOOR_DBC } from "../plot/index.js";
 import { pairs, table } from "./table.js";
 import { percent, perSecond, si } from "./values.js";
@@ -10,6 +10,12 @@ export function verdictText(verdict: StartupResult["verdict"], p: Paint): string
   switch (verdict) {
     case "settled":
       return p.green("settled");
+    case "relaxation":
+      return p.yellow("relaxation");
+    case "parasitic":
+      return p.yellow("parasitic");
+    case "latched":
+      return p.red("latched");
     case "growing":
       return p.yellow("still growing");
     case "unsettled":
@@ -26,11 +32,27 @@ function level(dBc: number): string {
   return dBc < SPECTRUM_FLOOR_DBC ? `< ${formatDecibel(SPECTRUM_FLOOR_DBC, "dBc", 0)}` : formatDecibel(dBc, "dBc");
 }
 
+/** One line saying how the run was excited and what that left at the probe. */
+export function excitationText(e: Excitation, unit: QuantityUnit): string {
+  const atProbe = e.noiseAtProbe === null ? "" : `, ${si(e.noiseAtProbe, unit, 3)} rms at the probe`;
+  const band = e.band === null ? "" : `band ${si(e.band, "Hz", 3)}, seed ${e.seed}`;
+  switch (e.kind) {
+    case "thermal":
+      return `thermal noise of ${e.sources} sources at ${formatPlain(e.temperature!, 4)} °C (${band})${atProbe}`;
+    case "power-on":
+      return `power-on: DC levels rise over ${si(e.ramp, "s", 3)}, with thermal noise of ${e.sources} sources at ${formatPlain(e.temperature!, 4)} °C (${band})${atProbe}`;
+    case "noise":
+      return `noise current ${si(e.level, "A", 3)} rms into ${e.node} for ${si(e.duration, "s", 3)} (${band})${atProbe}`;
+    case "none":
+      return "no excitation (kick=none)";
+  }
+}
+
 /**
  * The start-up report: the verdict and its one-line explanation first, then every metric with
- * its unit, the harmonics table and the solver's counts.
+ * its unit, the harmonics table, the excitation and the solver's counts; warnings last.
  */
-export function startupReport(r: StartupResult, unit: "V" | "A", p: Paint): string[] {
+export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): string[] {
   const lines = [`${p.bold(`start-up on ${r.probe}`)}: ${verdictText(r.verdict, p)}`, `  ${r.explanation}`, ""];
   const entries: [string, string][] = [
     ["frequency", si(r.frequency, "Hz")],
@@ -40,9 +62,11 @@ export function startupReport(r: StartupResult, unit: "V" | "A", p: Paint): stri
     ["rms", si(r.rms, unit)],
     ["offset", si(r.offset, unit, 3)],
     ["start-up time", si(r.startupTime, "s")],
+    ...(r.startupTimeSpread ? [spreadEntry(r.startupTimeSpread)] : []),
     ["settling time", si(r.settlingTime, "s")],
     ["growth rate", perSecond(r.growthRate)],
     ["THD", percent(r.thd)],
+    ...(r.dutyCycle === null ? [] : [["duty cycle", percent(r.dutyCycle)] as [string, string]]),
     ["cycles", String(r.cycles)],
   ];
   if (r.suggestedExtraTime !== undefined) entries.push(["run longer by", si(r.suggestedExtraTime, "s", 3)]);
@@ -58,11 +82,21 @@ export function startupReport(r: StartupResult, unit: "V" | "A", p: Paint): stri
     );
   }
   const s = r.run.solver;
-  const kick = r.run.kick.kind === "noise" ? `noise kick ${si(r.run.kick.level, "A", 3)} rms into ${r.run.kick.node} for ${si(r.run.kick.duration, "s", 3)}` : "no kick";
+  const e = r.run.excitation;
+  const first = e.firstCycleRms === null ? "" : `; ${si(e.firstCycleRms, unit, 3)} rms at the probe over the first cycle${e.kind === "power-on" ? " after the ramp" : ""}`;
   lines.push(
     "",
-    p.dim(`  simulated ${si(r.run.until, "s")} (${kick}, seed ${r.run.kick.seed}, largest step ${si(r.run.maxStep, "s", 3)})`),
+    p.dim(`  excitation: ${excitationText(e, unit)}${first}`),
+    p.dim(`  simulated ${si(r.run.until, "s")}, largest step ${si(r.run.maxStep, "s", 3)}`),
     p.dim(`  solver: ${s.accepted} steps, ${s.rejected} rejected, ${s.newtonIterations} Newton iterations, ${s.factorizations} factorizations`),
   );
+  for (const w of r.warnings) lines.push(p.yellow(`  warning: ${w.message}`), p.dim(`    hint: ${w.hint}`));
   return lines;
+}
+
+/** `min … max (median m) over N seeds`, and how many did not settle. */
+function spreadEntry(s: StartupTimeSpread): [string, string] {
+  const missing = s.times.filter((x) => x === null).length;
+  const tail = missing > 0 ? `; ${missing} of ${s.seeds.length} seeds did not settle` : "";
+  return ["start-up spread", `${si(s.min, "s")} … ${si(s.max, "s")}, median ${si(s.median, "s")} over ${s.seeds.length} seeds${tail}`];
 }

@@ -17,7 +17,7 @@ function studyLine(r: StudyReport): string {
 }
 
 function drawnText(r: StudyReport, s: StoredSample): string {
-  return r.header.tolerances.map((t) => `${t.target} = ${si(s.drawn[t.target], t.unit, 5)}`).join(", ");
+  return r.header.tolerances.map((t) => `${t.target} = ${si(s.drawn[t.target], t.unit)}`).join(", ");
 }
 
 function verdictCounts(summary: ToleranceReport["summary"]): string {

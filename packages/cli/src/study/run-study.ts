@@ -21,7 +21,7 @@ import type { Progress } from "../progress.js";
 import { headerDifferences, sampleKey, throughJson, type StoredSample, type StudyHeader } from "./header.js";
 import { cutSample, readResults, ResultsWriter } from "./results-file.js";
 import { requiredYield, studyReport, type StudyReport } from "./study-report.js";
-import { targetInfo } from "./target.js";
+import { shownUnit, targetInfo } from "./target.js";
 
 /** Everything a tolerance study (or design window) run needs. */
 export interface StudySettings {
@@ -88,9 +88,9 @@ export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "cir
     seed: s.tolerance.seed,
     dist: s.tolerance.dist,
     shard: s.shard ? { index: s.shard.index, count: s.shard.count } : null,
-    tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, ...t }) => ({
+    tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, unit, ...t }) => ({
       target,
-      unit: targetInfo(s.circuit, s.source.program, target, s.overrides).unit,
+      unit: unit === undefined ? targetInfo(s.circuit, s.source.program, target, s.overrides).unit : shownUnit(unit),
       ...t,
     })),
     criteria,

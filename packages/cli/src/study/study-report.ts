@@ -1,4 +1,4 @@
-import { meets, requiredYield as requiredYieldOf, summarizeSamples, shardIndices, widestPassingRange, type ToleranceSummary } from "@onset/core";
+import { meets, requiredYield as requiredYieldOf, summarizeSamples, shardIndices, widestPassingRange, type ToleranceSummary, type YieldSummary } from "@onset/core";
 import type { SpecChecks } from "../report/spec.js";
 import type { StoredSample, StudyHeader } from "./header.js";
 
@@ -48,20 +48,22 @@ function missingOf(header: StudyHeader, samples: readonly StoredSample[]): numbe
 }
 
 /**
- * The spec of a tolerance study: the `yield>` criterion against the yield when the spec has
- * one; otherwise every sample must meet the spec (a yield of 100 %).
+ * The spec of a tolerance study: each criterion with its own yield (the fraction of samples that
+ * meet it, with its 95 % interval), then the study's yield — samples that settle and meet every
+ * criterion — against the `yield>` criterion, or against 100 % when the spec has none. A
+ * criterion passes when its own yield would meet that requirement.
  */
 function toleranceSpec(header: StudyHeader, summary: ToleranceSummary): SpecChecks | null {
   if (header.criteria.length === 0) return null;
-  const measured = summary.yield.value;
   const yc = header.criteria.find((c) => c.metric === "yield");
-  const on = `the yield of ${summary.runs} ${summary.runs === 1 ? "sample" : "samples"}`;
-  if (yc) {
-    const pass = meets(yc, measured);
-    return { pass, on, criteria: [{ text: yc.text, metric: "yield", measured, pass }] };
-  }
-  const pass = summary.runs > 0 && summary.yield.passed === summary.runs;
-  return { pass, on, criteria: [{ text: "every sample meets the spec", metric: "yield", measured, pass }] };
+  const enough = (y: YieldSummary) => (yc ? meets(yc, y.value) : y.runs > 0 && y.passed === y.runs);
+  const row = (text: string, y: YieldSummary) => ({ text, metric: "yield", measured: y.value, passed: y.passed, runs: y.runs, interval: { ...y.interval }, pass: enough(y) });
+  const overall = { ...row(yc?.text ?? "every sample", summary.yield), combined: true };
+  return {
+    pass: overall.pass,
+    on: `the yield of ${summary.runs} ${summary.runs === 1 ? "sample" : "samples"}`,
+    criteria: [...summary.criteria.map((c) => row(c.criterion.text, c)), overall],
+  };
 }
 
 /** Builds the tolerance report from a header and samples, whichever order they finished in. */

@@ -16,7 +16,8 @@ function* statementsOf(program: Program): Generator<Statement> {
   }
 }
 
-const shown = (unit: UnitSymbol | undefined): string => (unit === undefined || unit === "1" ? "" : unit);
+/** A unit as reports print it: empty for a plain ratio or an unknown unit. */
+export const shownUnit = (unit: UnitSymbol | undefined): string => (unit === undefined || unit === "1" ? "" : unit);
 
 /**
  * What a target names: a part's value (`Ra`), a part option (`P1.at`, `U1.gbw`) or a file
@@ -24,7 +25,7 @@ const shown = (unit: UnitSymbol | undefined): string => (unit === undefined || u
  */
 export function targetInfo(circuit: Circuit, program: Program, target: string, overrides: Readonly<Record<string, string>>): TargetInfo {
   const part = circuit.parts.find((p) => p.name === target);
-  if (part) return { unit: shown(partKinds[part.kind]?.value?.unit), nominal: part.value ?? null };
+  if (part) return { unit: shownUnit(partKinds[part.kind]?.value?.unit), nominal: part.value ?? null };
   const dot = target.lastIndexOf(".");
   if (dot > 0) {
     const owner = circuit.parts.find((p) => p.name === target.slice(0, dot));
@@ -33,7 +34,7 @@ export function targetInfo(circuit: Circuit, program: Program, target: string, o
       const schema = partKinds[owner.kind];
       const option = schema?.options[key] ?? Object.values(schema?.variants?.sets ?? {}).find((set) => set[key])?.[key];
       const value = owner.options[key];
-      return { unit: option && "unit" in option ? shown(option.unit) : "", nominal: typeof value === "number" ? value : null };
+      return { unit: option && "unit" in option ? shownUnit(option.unit) : "", nominal: typeof value === "number" ? value : null };
     }
   }
   for (const s of statementsOf(program)) {
@@ -42,10 +43,10 @@ export function targetInfo(circuit: Circuit, program: Program, target: string, o
     const set = overrides[target];
     if (set !== undefined) {
       const parsed = parseQuantity(set, symbol ?? "1");
-      return { unit: shown(symbol), nominal: typeof parsed === "number" ? parsed : null };
+      return { unit: shownUnit(symbol), nominal: typeof parsed === "number" ? parsed : null };
     }
     const nominal = s.value.kind === "number" ? (s.value.negative ? -1 : 1) * s.value.literal.value : null;
-    return { unit: shown(symbol), nominal };
+    return { unit: shownUnit(symbol), nominal };
   }
   return { unit: "", nominal: null };
 }

@@ -1,6 +1,6 @@
 import type { Figure } from "../plot/index.js";
 import { responseFigure, startupFigure, transientFigure } from "../plot/index.js";
-import { probeUnit, type AnalysisRun } from "../report/plain-types.js";
+import type { AnalysisRun } from "../report/plain-types.js";
 
 /** True when an analysis of this kind has a figure; bias and poles are tables (see `resultFigure`). */
 export function hasFigure(kind: string): boolean {
@@ -21,7 +21,7 @@ export function resultFigure(run: AnalysisRun, title: string): Figure | null {
       return startupFigure({
         title: `${title} \u2014 start-up on ${r.probe} (${r.verdict})`,
         time: r.waveform.time,
-        probe: { name: r.probe, unit: probeUnit(run.analysis), values: r.waveform.values },
+        probe: { name: r.probe, unit: r.unit, values: r.waveform.values },
         envelope: { time: r.envelope.time, values: r.envelope.value },
         offset: r.offset ?? 0,
         ...(r.startupTime === null ? {} : { startupTime: r.startupTime }),

@@ -1,7 +1,7 @@
 import type { BiasAnalysis, Circuit } from "../circuit/circuit.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import type { RunOptions } from "./transient.js";
 import { solveBias, type BiasMethod } from "./bias.js";
 import { budgetOf } from "./limits.js";
@@ -21,7 +21,7 @@ export interface BiasResult {
 export function runBias(circuit: Circuit, _analysis: BiasAnalysis, options: RunOptions = {}): BiasResult {
   budgetOf(options).check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const point = solveBias(system, solver, solver.tolerances);
   const rates = new Float64Array(system.n);
   return {

@@ -116,6 +116,14 @@ function clockMs(): number {
   return performance.now();
 }
 
+/** The limits of a {@link RunBudget} as plain data for a worker thread (no signal: it cannot be posted). */
+export interface WorkerLimits {
+  readonly maxSteps: number;
+  readonly maxSimulatedTime: number;
+  /** What was left of the wall time when the job was sent (s). */
+  readonly maxWallTime: number;
+}
+
 /** Anything that reports its accepted time steps (the transient stepper). */
 export interface SteppingRun {
   observe(observer: (t: number) => void): void;
@@ -156,7 +164,7 @@ export class RunBudget {
   }
 
   /** The limits as plain data for another thread, the wall time as what is left of it now. */
-  forWorker(): { maxSteps: number; maxSimulatedTime: number; maxWallTime: number } {
+  forWorker(): WorkerLimits {
     return { maxSteps: this.maxSteps, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
   }
 

@@ -1,5 +1,5 @@
-import type { NonlinearLoad } from "../devices/device.js";
 import type { MnaSystem } from "../solver/system.js";
+import { Linearisation } from "../solver/linearisation.js";
 
 /** The small-signal matrices of a circuit at an operating point: G + s·C. */
 export interface SmallSignal {
@@ -13,22 +13,9 @@ export interface SmallSignal {
 /**
  * Linearises every part at `x`: an op-amp becomes its single-pole small-signal model (the clamp
  * and slew terms contribute their slopes, which vanish inside the limits), a diode its
- * small-signal conductance and junction capacitance.
+ * small-signal conductance and junction capacitance. The circuit is taken fully powered.
  */
 export function linearize(system: MnaSystem, x: Float64Array): SmallSignal {
-  const n = system.n;
-  const G = Float64Array.from(system.G);
-  const C = Float64Array.from(system.C);
-  const load: NonlinearLoad = {
-    addF() {},
-    adddF(row, col, value) {
-      if (row >= 0 && col >= 0) G[row * n + col] += value;
-    },
-    addQ() {},
-    adddQ(row, col, value) {
-      if (row >= 0 && col >= 0) C[row * n + col] += value;
-    },
-  };
-  for (const device of system.nonlinear) device.load(x, load);
+  const { n, G, C } = new Linearisation(system).at(x);
   return { n, G, C };
 }

@@ -4,7 +4,7 @@ import { simulationError } from "../circuit/diagnostic.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
@@ -104,7 +104,7 @@ export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: Ru
   const budget = budgetOf(options);
   budget.check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   budget.check("after the bias point");
   const poles = pencilPoles(linearize(system, bias.x));

@@ -1,12 +1,16 @@
 import type { Circuit, Probe, ResponseAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError, simulationError } from "../circuit/diagnostic.js";
+import type { QuantityUnit } from "../solver/quantities.js";
+import { didYouMean } from "../circuit/suggest.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
+import { probeUnit, stateIndexOf } from "./probes.js";
+import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { RunOptions } from "./transient.js";
 import { budgetOf } from "./limits.js";
 
@@ -36,6 +40,8 @@ export interface ResponseResult {
   readonly analysis: "response";
   readonly from: string;
   readonly to: string;
+  /** The unit of the probe (the response's magnitude is in this unit per unit of the source). */
+  readonly unit: QuantityUnit;
   readonly points: readonly ResponsePoint[];
   /** The deepest interior minimum of |H|, refined, with its depth below the sweep's maximum. */
   readonly notch: { readonly frequency: number; readonly magnitude: number; readonly depthDb: number } | null;
@@ -52,7 +58,8 @@ function excitation(system: MnaSystem, from: string): Float64Array {
   const b = new Float64Array(system.n);
   const device = system.deviceByName.get(from);
   if (!device || (device.part.kind !== "vsource" && device.part.kind !== "isource")) {
-    throw inputError("bad-response-source", `response from='${from}' must name a vsource or isource`, {
+    const sources = [...system.deviceByName.values()].flatMap((d) => (d.part.kind === "vsource" || d.part.kind === "isource" ? [d.part.name] : []));
+    throw inputError("bad-response-source", `response from='${from}' must name a vsource or isource${device ? "" : didYouMean(from, sources)}`, {
       hint: "the response is of the probe to a unit small signal at that source",
     });
   }
@@ -71,11 +78,12 @@ function probeWeights(system: MnaSystem, probe: Probe): Float64Array {
   const w = new Float64Array(system.n);
   const add = (node: string, sign: number) => {
     if (node === GROUND) return;
-    const i = system.nodeIndex.get(node);
-    if (i === undefined) throw inputError("unknown-node", `response to='${probeName(probe)}' names unknown node '${node}'`);
+    const i = system.stateIndex.get(node);
+    if (i === undefined) throw inputError("unknown-node", `response to='${probeName(probe)}' names unknown node '${node}'${didYouMean(node, system.nodeIndex.keys())}`);
     w[i] += sign;
   };
-  if (probe.kind === "node") add(probe.node, 1);
+  if (probe.kind === "state") w[stateIndexOf(system, probe)] = 1;
+  else if (probe.kind === "node") add(probe.node, 1);
   else if (probe.kind === "difference") {
     add(probe.plus, 1);
     add(probe.minus, -1);
@@ -108,20 +116,9 @@ export class PhasorSolver {
 
   /** The probe's phasor [re, im] at frequency f (Hz). */
   at(f: number): [number, number] {
-    const { n, G, C } = this.ss;
-    const n2 = 2 * n;
-    const omega = 2 * Math.PI * f;
+    const n = this.ss.n;
     const m = this.m;
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const g = G[i * n + j]!;
-        const c = omega * C[i * n + j]!;
-        m[i * n2 + j] = g;
-        m[i * n2 + n + j] = -c;
-        m[(n + i) * n2 + j] = c;
-        m[(n + i) * n2 + n + j] = g;
-      }
-    }
+    fillPhasorMatrix(this.ss, 2 * Math.PI * f, m, false);
     if (!this.lu.factor(m)) throw simulationError("singular-response", `the small-signal circuit is singular at ${f} Hz`);
     this.lu.solve(this.rhs, this.x);
     let re = 0;
@@ -190,7 +187,7 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, { ...DEFAULT_TOLERANCES, ...options.tolerances });
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   const ss = linearize(system, bias.x);
   const phasor = new PhasorSolver(ss, excitation(system, analysis.from), probeWeights(system, analysis.to));
@@ -253,5 +250,5 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
     const b = points[k]!;
     if (a.magnitude - level > 0 !== b.magnitude - level > 0) cutoffs.push(bisect((f) => mag(f) - level, a.frequency, b.frequency, a.magnitude - level));
   }
-  return { analysis: "response", from: analysis.from, to: probeName(analysis.to), points, notch, phaseCrossings, cutoffs };
+  return { analysis: "response", from: analysis.from, to: probeName(analysis.to), unit: probeUnit(system, analysis.to), points, notch, phaseCrossings, cutoffs };
 }

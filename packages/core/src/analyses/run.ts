@@ -6,6 +6,7 @@ import { runResponse, type ResponseResult } from "./response.js";
 import { runStartup, type StartupResult } from "./startup.js";
 import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
 import { budgetOf } from "./limits.js";
+import { startupSpread } from "../study/startup-spread.js";
 
 /** The result of one simulating analysis. */
 export type AnalysisResult = BiasResult | TransientResult | StartupResult | ResponseResult | PolesResult;
@@ -25,8 +26,13 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
       return runBias(circuit, analysis, options);
     case "transient":
       return runTransient(circuit, analysis, options);
-    case "startup":
-      return runStartup(circuit, analysis, options);
+    case "startup": {
+      // The further seeds share the first run's budget: the wall time counts from this call.
+      const shared = { ...options, budget: budgetOf(options) };
+      const first = runStartup(circuit, analysis, shared);
+      if (!((analysis.seeds ?? 1) > 1) || options.seedSpread === false) return first;
+      return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, shared) };
+    }
     case "response":
       return runResponse(circuit, analysis, options);
     case "poles":
@@ -46,13 +52,16 @@ export function specCriteria(circuit: Circuit): SpecAnalysis["criteria"] {
   return circuit.analyses.flatMap((a) => (a.kind === "spec" ? a.criteria : []));
 }
 
-/** Runs every simulating analysis of a circuit in file order and checks its spec. */
-export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
-  const budget = budgetOf(options);
-  const shared = { ...options, budget };
-  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, shared));
+/** The file's spec checked on the first start-up result (null without either). */
+export function circuitSpec(circuit: Circuit, results: readonly AnalysisResult[]): SpecReport | null {
   const criteria = sampleCriteria(specCriteria(circuit));
   const startup = results.find((r): r is StartupResult => r.analysis === "startup");
-  const spec = criteria.length > 0 && startup ? evaluateSpec(criteria, startup) : null;
-  return { results, spec };
+  return criteria.length > 0 && startup ? evaluateSpec(criteria, startup) : null;
+}
+
+/** Runs every simulating analysis of a circuit in file order and checks its spec. */
+export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
+  const shared = { ...options, budget: budgetOf(options) };
+  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, shared));
+  return { results, spec: circuitSpec(circuit, results) };
 }

@@ -1,24 +1,31 @@
-import type { Circuit, PartSpec, Probe, StartupAnalysis } from "../circuit/circuit.js";
-import { GROUND, probeName } from "../circuit/circuit.js";
-import { inputError } from "../circuit/diagnostic.js";
-import { opampConstants } from "../devices/opamp.js";
+import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
+import { probeName } from "../circuit/circuit.js";
+import type { Diagnostic } from "../circuit/diagnostic.js";
+import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
+import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
-import { buildSystem, type MnaSystem } from "../solver/system.js";
-import { DEFAULT_TOLERANCES } from "../solver/tolerances.js";
+import type { QuantityUnit } from "../solver/quantities.js";
+import { buildSystem, withSources, type MnaSystem } from "../solver/system.js";
+import { resolveTolerances } from "../solver/tolerances.js";
+import { NoiseBank } from "../waves/noise-bank.js";
 import { solveBias } from "./bias.js";
+import { defaultWarnings } from "./default-rails.js";
+import { excitationSetup, firstCycleRms, periodicDrives, type Excitation } from "./excitation.js";
 import { GrowableSeries } from "./growable.js";
+import { latchedAt, outputRange } from "./latch.js";
 import { linearize } from "./linearize.js";
+import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
-import { probeReader } from "./probes.js";
+import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
 import { budgetOf } from "./limits.js";
 
-/** The default r.m.s. kick current (A): tiny next to any signal, far above rounding. */
+/** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
-/** The kick lasts this many cycles of the predicted frequency. */
-const KICK_CYCLES = 5;
+/** The default excitation. */
+export const DEFAULT_KICK: StartupKick = "thermal";
 /** Steps per predicted period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
 /** `until=auto`: the run stops at the latest after this many predicted periods… */
@@ -27,96 +34,113 @@ const AUTO_MAX_CYCLES = 4000;
 const AUTO_FIRST_CYCLES = 60;
 /** Frequency assumed when the linearised circuit has no complex poles (Hz). */
 const FALLBACK_FREQUENCY = 1e3;
+/**
+ * The peak a stationary noise of r.m.s. σ is taken to reach: the largest per-cycle envelope of
+ * narrow-band Gaussian noise over thousands of cycles is about √(2 ln 4000)·σ ≈ 4.1σ (a Rayleigh
+ * envelope), so an oscillation must pass 2 × 5σ to count.
+ */
+const NOISE_PEAK = 5;
 
 /** What the start-up run did, besides the metrics. */
 export interface StartupRun {
   /** Simulated time (s). */
   readonly until: number;
   readonly maxStep: number;
-  readonly kick: { readonly kind: "noise" | "none"; readonly level: number; readonly seed: number; readonly duration: number; readonly node: string };
-  /** The linear prediction at the bias point, used to size the run. */
-  readonly predicted: { readonly frequency: number | null; readonly growthRate: number | null; readonly starts: boolean };
+  readonly excitation: Excitation;
+  /** The linear prediction at the bias point, used to size the run and to classify it. */
+  readonly predicted: { readonly frequency: number | null; readonly growthRate: number | null; readonly starts: boolean; readonly realGrowth: boolean };
   readonly solver: StepperStats;
+}
+
+/** The start-up time over several noise seeds (`seeds=`): a noise-started oscillator's start-up is a distribution. */
+export interface StartupTimeSpread {
+  /** The seeds run, in order (the analysis's seed first). */
+  readonly seeds: readonly number[];
+  /** Each seed's start-up time (s), null where it did not settle. */
+  readonly times: readonly (number | null)[];
+  readonly min: number | null;
+  readonly median: number | null;
+  readonly max: number | null;
 }
 
 /** What `runStartup` returns: the start-up metrics of the probe, how the run was made, and the waveform. */
 export interface StartupResult extends StartupMetrics {
   readonly analysis: "startup";
   readonly probe: string;
+  /** The unit of the probe's values, and so of amplitude, peak-to-peak, rms and offset. */
+  readonly unit: QuantityUnit;
   readonly run: StartupRun;
+  /** Things the designer should know about how the circuit was simulated (the default ±15 V rails). */
+  readonly warnings: readonly Diagnostic[];
+  /** With `seeds=N` (N > 1): the start-up time over N seeds. */
+  readonly startupTimeSpread?: StartupTimeSpread;
   /** The probe waveform at every accepted step (for plots and CSV). */
   readonly waveform: { readonly time: Float64Array; readonly values: Float64Array };
 }
 
-/** The node the kick current is injected into, and its return. */
-function kickNodes(probe: Probe, circuit: Circuit): [string, string] {
-  switch (probe.kind) {
-    case "node":
-      return [GROUND, probe.node];
-    case "difference":
-      return [probe.minus, probe.plus];
-    case "current": {
-      const p = circuit.parts.find((x) => x.name === probe.part);
-      if (!p) throw inputError("unknown-part", `startup probe '${probeName(probe)}' names no part`);
-      return [GROUND, p.nodes[0] === GROUND ? p.nodes[1]! : p.nodes[0]!];
-    }
-  }
-}
-
-/** The linear prediction at the bias point: dominant pole pair of the linearised loop. */
-function predict(system: MnaSystem, x: Float64Array): { pole: Pole | null } {
+/** The linear prediction at the bias point: every pole of the linearised circuit, its dominant pair. */
+function predict(system: MnaSystem, x: Float64Array): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
   try {
-    return { pole: dominantPair(pencilPoles(linearize(system, x))) };
+    const poles = pencilPoles(linearize(system, x));
+    return { poles, pole: dominantPair(poles), ok: true };
   } catch {
-    return { pole: null };
+    return { poles: [], pole: null, ok: false };
   }
 }
 
 /** Half the widest op-amp output range: the largest envelope the circuit could reach. */
-function amplitudeLimit(circuit: Circuit): number | undefined {
+function amplitudeLimit(system: MnaSystem, x: Float64Array): number | undefined {
   let limit: number | undefined;
-  for (const p of circuit.parts) {
-    if (p.kind !== "opamp" || p.options.supply !== undefined) continue;
-    const k = opampConstants(p);
-    const span = (k.rails[1] - k.rails[0]) / 2 - k.headroom;
-    limit = Math.max(limit ?? 0, span);
+  for (const d of system.devices) {
+    const range = outputRange(system, d, x);
+    if (range) limit = Math.max(limit ?? 0, (range[1] - range[0]) / 2);
   }
   return limit;
 }
 
+/** A source that adds nothing but has a corner: the end of the power-on ramp, landed on exactly. */
+function corner(at: number): SourceTerm {
+  return { addSource() {}, nextBreakpoint: (t) => (t < at ? at : Infinity) };
+}
+
 /**
- * Runs a `startup` analysis: the bias point, a deterministic excitation (a seeded noise current
- * into the probe node for the first few predicted cycles, or none), the transient to `until`
- * (or, with `until=auto`, on until the verdict is settled or clearly silent, within a bound),
- * then the start-up metrics of the probe waveform.
+ * Runs a `startup` analysis: the bias point and the linear prediction there, the excitation
+ * (`kick=thermal`: every resistance's Johnson–Nyquist noise and every op-amp's input noise, for
+ * the whole run; `power-on`: the same noise on a circuit whose DC levels rise from 0 over the
+ * ramp; `noise`: a seeded current into the probe node for the first few predicted cycles;
+ * `none`), the transient to `until` (or, with `until=auto`, on until the verdict is settled or
+ * clearly silent, within a bound), then the start-up metrics of the probe waveform and the
+ * outcome's class.
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
-  const tolerances = { ...DEFAULT_TOLERANCES, ...options.tolerances };
+  const tolerances = resolveTolerances(options.tolerances);
+  const kick = analysis.kick ?? DEFAULT_KICK;
   const budget = budgetOf(options);
   if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run", analysis.span);
-  // The prediction comes from the circuit without the kick (the kick source is off at DC anyway).
+  // The prediction comes from the powered circuit without any excitation.
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
-  const { pole } = predict(plain, bias.x);
+  const { poles, pole, ok } = predict(plain, bias.x);
   budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;
-  const level = analysis.level ?? DEFAULT_KICK_LEVEL;
-  const seed = analysis.seed ?? 1;
-  const duration = KICK_CYCLES * period;
-  const [from, to] = kickNodes(analysis.probe, circuit);
-  const kickParts: PartSpec[] =
-    analysis.kick === "noise"
-      ? [
-          {
-            kind: "isource",
-            name: "startup.kick",
-            nodes: [from, to],
-            options: { wave: "noise", rms: level, seed, corner: 4 * f0, stop: duration },
-          },
-        ]
-      : [];
-  const system = buildSystem(circuit, [...(options.extraParts ?? []), ...kickParts]);
+  const setup = excitationSetup(circuit, plain, analysis, kick, f0);
+  const powerOn: PowerOn | undefined = kick === "power-on" ? { ramp: setup.excitation.ramp! } : undefined;
+  const run = buildSystem(circuit, options.extraParts, powerOn ? { powerOn } : {});
+  const sources: SourceTerm[] = [];
+  if (setup.generators.length > 0) sources.push(new NoiseBank(setup.generators, setup.bank));
+  if (powerOn) sources.push(corner(powerOn.ramp));
+  const system = withSources(run, sources);
+
+  // The noise level the tool's own excitation leaves at the probe, through the linearised circuit.
+  let noiseAtProbe = 0;
+  if (setup.generators.length > 0) {
+    try {
+      noiseAtProbe = noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles);
+    } catch {
+      noiseAtProbe = 0;
+    }
+  }
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);
@@ -129,25 +153,26 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
   budget.watch(stepper, "the start-up run", analysis.span);
-  // The kick's own peak response bounds what counts as silence.
-  let kickPeak = 0;
-  const restLevel = values.view()[0]!;
-  const limit = amplitudeLimit(circuit);
-  const measure = () => {
-    const v = values.view();
-    const t = time.view();
-    if (kickPeak === 0) {
-      for (let k = 0; k < t.length && t[k]! <= duration; k++) kickPeak = Math.max(kickPeak, Math.abs(v[k]! - restLevel));
-    }
-    return measureStartup(t, v, { noiseFloor: kickPeak, amplitudeLimit: limit });
-  };
+  const limit = amplitudeLimit(plain, bias.x);
+  const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
+  const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
+  const searchFrom = powerOn ? powerOn.ramp : 0;
+  const drives = periodicDrives(circuit);
+  const measure = () =>
+    measureStartup(time.view(), values.view(), {
+      noiseFloor: NOISE_PEAK * noiseAtProbe,
+      ...(limit === undefined ? {} : { amplitudeLimit: limit }),
+      ...(prediction ? { prediction } : {}),
+      drives,
+      searchFrom,
+    });
   let metrics: StartupMetrics;
   if (analysis.until === "auto") {
-    const bound = AUTO_MAX_CYCLES * period;
-    let target = AUTO_FIRST_CYCLES * period;
-    if (pole && startsFrom(pole) && pole.real > 0) {
-      // time to grow from the kick to a volt-scale envelope, then settle
-      target = Math.max(target, Math.log((limit ?? 10) / Math.max(level * 1e3, 1e-9)) / pole.real + 30 * period);
+    const bound = AUTO_MAX_CYCLES * period + searchFrom;
+    let target = AUTO_FIRST_CYCLES * period + searchFrom;
+    if (pole && startsFrom(pole) && pole.real > 0 && noiseAtProbe > 0) {
+      // time to grow from the noise to a volt-scale envelope, then settle
+      target = Math.max(target, Math.log((limit ?? 10) / noiseAtProbe) / pole.real + 30 * period + searchFrom);
     }
     target = Math.min(target, bound);
     for (;;) {
@@ -155,6 +180,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       metrics = measure();
       const done =
         metrics.verdict === "settled" ||
+        metrics.verdict === "relaxation" ||
+        metrics.verdict === "parasitic" ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period) ||
         target >= bound;
       if (done) break;
@@ -167,21 +194,58 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     metrics = measure();
   }
   if (options.onProgress) options.onProgress(stepper.t, stepper.t);
+  const t = time.toArray();
+  const v = values.toArray();
+  metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
+  const excitation: Excitation = {
+    ...setup.excitation,
+    noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
+    firstCycleRms: firstCycleRms(t, v, searchFrom, period),
+  };
   return {
     analysis: "startup",
     probe: probeName(analysis.probe),
+    unit: probeUnit(system, analysis.probe),
     ...metrics,
     run: {
       until: stepper.t,
       maxStep,
-      kick: { kind: analysis.kick, level: analysis.kick === "noise" ? level : 0, seed, duration: analysis.kick === "noise" ? duration : 0, node: to },
+      excitation,
       predicted: {
         frequency: pole ? pole.imag / (2 * Math.PI) : null,
         growthRate: pole ? pole.real : null,
         starts: pole ? startsFrom(pole) : false,
+        realGrowth,
       },
       solver: { ...stepper.stats },
     },
-    waveform: { time: time.toArray(), values: values.toArray() },
+    warnings: defaultWarnings(circuit),
+    waveform: { time: t, values: v },
   };
+}
+
+/**
+ * Outcomes the probe waveform alone cannot name: a record without oscillation whose amplifier
+ * ended stuck at a limit is `latched`; one that shows nothing although the poles say it starts,
+ * run without excitation, says why.
+ */
+function reclassify(
+  metrics: StartupMetrics,
+  system: MnaSystem,
+  stepper: TransientStepper,
+  plain: MnaSystem,
+  biasX: Float64Array,
+  kick: StartupKick,
+  prediction: LinearPrediction | undefined,
+): StartupMetrics {
+  if (metrics.verdict !== "silent" && metrics.verdict !== "decaying") return metrics;
+  const latched = latchedAt(system, stepper.x, plain, biasX);
+  if (latched) return { ...metrics, verdict: "latched", explanation: latched };
+  if (kick === "none" && prediction && (prediction.starts || prediction.realGrowth)) {
+    return {
+      ...metrics,
+      explanation: `${metrics.explanation}; the poles say it starts, but with kick=none nothing disturbs the bias point (an unstable equilibrium holds in exact arithmetic): use kick=thermal or kick=power-on`,
+    };
+  }
+  return metrics;
 }

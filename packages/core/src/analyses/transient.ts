@@ -1,9 +1,10 @@
 import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
+import type { QuantityUnit } from "../solver/quantities.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { GrowableSeries } from "./growable.js";
-import { allNodeProbes, probeReader } from "./probes.js";
+import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import { budgetOf, type BudgetOptions } from "./limits.js";
 
@@ -12,7 +13,7 @@ export interface Signal {
   /** As the probe is written: `o`, `o-ref`, `R1.i`. */
   readonly name: string;
   readonly probe: Probe;
-  readonly unit: "V" | "A";
+  readonly unit: QuantityUnit;
   readonly values: Float64Array;
 }
 
@@ -30,12 +31,17 @@ export type ProgressListener = (time: number, until: number) => void;
 
 /** Settings every analysis accepts. */
 export interface RunOptions extends BudgetOptions {
-  /** Solver tolerances to change from their defaults (DEFAULT_TOLERANCES in `@onset/core/engine`). */
+  /** Solver tolerances to change from their defaults (`DEFAULT_TOLERANCES`). */
   readonly tolerances?: Partial<Tolerances>;
   /** Called every few thousand steps of a time-domain run. */
   readonly onProgress?: ProgressListener;
   /** Parts added for this run only (a start-up kick). */
   readonly extraParts?: readonly PartSpec[];
+  /**
+   * Whether a `startup` with `seeds=N` repeats its run for the other N − 1 seeds (default true);
+   * sweeps and tolerance studies run each setting or sample with the first seed only.
+   */
+  readonly seedSpread?: boolean;
 }
 
 /** Records the chosen probes at every accepted point. */
@@ -43,10 +49,12 @@ export class ProbeRecorder {
   readonly time = new GrowableSeries();
   private readonly series: GrowableSeries[];
   private readonly readers: ReturnType<typeof probeReader>[];
+  private readonly units: QuantityUnit[];
   readonly probes: readonly Probe[];
 
   constructor(system: MnaSystem, probes: readonly Probe[]) {
     this.probes = probes;
+    this.units = probes.map((p) => probeUnit(system, p));
     this.readers = probes.map((p) => probeReader(system, p));
     this.series = probes.map(() => new GrowableSeries());
   }
@@ -60,7 +68,7 @@ export class ProbeRecorder {
     return this.probes.map((probe, k) => ({
       name: probeName(probe),
       probe,
-      unit: probe.kind === "current" ? "A" : "V",
+      unit: this.units[k]!,
       values: this.series[k]!.toArray(),
     }));
   }

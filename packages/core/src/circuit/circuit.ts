@@ -1,4 +1,5 @@
 import type { SourceSpan } from "./diagnostic.js";
+import type { UnitSymbol } from "./schema.js";
 
 /** The reserved ground node. */
 export const GROUND = "gnd";
@@ -23,9 +24,11 @@ export interface PartSpec {
 export type Probe =
   | { readonly kind: "node"; readonly node: string }
   | { readonly kind: "difference"; readonly plus: string; readonly minus: string }
-  | { readonly kind: "current"; readonly part: string };
+  | { readonly kind: "current"; readonly part: string }
+  /** A state inside a part that its kind lists (`U1.pole`, `D1.junction`). */
+  | { readonly kind: "state"; readonly part: string; readonly state: string };
 
-/** The name a probe has in reports, CSV and JSON: `o`, `o-ref`, `R1.i`. */
+/** The name a probe has in reports, CSV and JSON: `o`, `o-ref`, `R1.i`, `U1.pole`. */
 export function probeName(probe: Probe): string {
   switch (probe.kind) {
     case "node":
@@ -34,6 +37,8 @@ export function probeName(probe: Probe): string {
       return `${probe.plus}-${probe.minus}`;
     case "current":
       return `${probe.part}.i`;
+    case "state":
+      return `${probe.part}.${probe.state}`;
   }
 }
 
@@ -54,17 +59,32 @@ export interface TransientAnalysis {
   readonly span?: SourceSpan;
 }
 
-/** `startup`: a kicked transient from the bias point, measured for start-up time, settled frequency, amplitude and THD. */
+/**
+ * How a start-up run is excited: `thermal` (every resistance's Johnson–Nyquist noise and every
+ * op-amp's input noise, the whole run), `power-on` (the same noise, with every DC level rising
+ * from 0 over a ramp), `noise` (a seeded current into the probe node for a few cycles), `none`.
+ */
+export type StartupKick = "thermal" | "power-on" | "noise" | "none";
+
+/** `startup`: an excited transient from the bias point (see {@link StartupKick}), measured for start-up time, settled frequency, amplitude and THD. */
 export interface StartupAnalysis {
   readonly kind: "startup";
   readonly probe: Probe;
   /** Seconds, or `auto`: run (bounded) until the verdict is settled or clearly silent. */
   readonly until: number | "auto";
   readonly maxStep?: number;
-  readonly kick: "noise" | "none";
-  /** Kick current level (A r.m.s.). */
+  /** Default `thermal`. */
+  readonly kick?: StartupKick;
+  /** `kick=noise`: the injected current (A r.m.s.; default 1 nA). */
   readonly level?: number;
+  /** Seed of every noise stream (default 1). */
   readonly seed?: number;
+  /** `kick=thermal` and `power-on`: the temperature of the resistances (°C; default 27). */
+  readonly temperature?: number;
+  /** `kick=power-on`: how long the DC levels take to rise from 0 (s; default 1 ms). */
+  readonly ramp?: number;
+  /** The start-up run repeated with this many seeds (seed, seed + 1, …) for the start-up time's spread (default 1). */
+  readonly seeds?: number;
   readonly span?: SourceSpan;
 }
 
@@ -168,6 +188,8 @@ export interface ToleranceSpec {
   readonly nominal: number;
   readonly relative?: number;
   readonly absolute?: number;
+  /** Unit of the drawn values, for reports; absent when it cannot be told (a parameter used only inside expressions). */
+  readonly unit?: UnitSymbol;
   readonly span?: SourceSpan;
 }
 

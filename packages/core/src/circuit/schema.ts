@@ -1,10 +1,12 @@
+import type { Quantity } from "../solver/quantities.js";
+
 /**
  * What each part kind accepts, declared by the device file itself so that the language checker,
  * the formatter, the docs and the engine agree on names, units, defaults and ranges.
  */
 
 /** Unit symbols as the language writes them; `1` is a plain ratio; `S` is siemens (A/V). */
-export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "rad" | "1";
+export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "1";
 
 interface OptionBase {
   /** One line for docs and hints. */
@@ -43,7 +45,15 @@ export interface NumberPairOption extends OptionBase {
 /** Two node names in parentheses, e.g. `supply=(vee, vcc)`; resolved like pins. */
 export interface NodePairOption extends OptionBase {
   readonly type: "node-pair";
+  /**
+   * What the nodes need when nothing else sets their voltage, for the hint of a floating node.
+   * @defaultValue {@link SENSED_NODE_NEEDS}: the part senses these nodes and draws no current.
+   */
+  readonly needs?: string;
 }
+
+/** What a node only sensed by a part (a node option such as `supply=`) needs by default. */
+export const SENSED_NODE_NEEDS = "a voltage source to gnd";
 
 /** `[t0 v0, t1 v1, ...]`: pairs of numbers with the given units. */
 export interface PointsOption extends OptionBase {
@@ -74,12 +84,23 @@ export interface ValueSchema {
   readonly summary: string;
 }
 
+/** An internal state a part kind declares (probed as `PART.state`): its quantity and what it is. */
+export interface StateSchema {
+  readonly quantity: Quantity;
+  readonly summary: string;
+}
+
 /** Everything the language knows about one part kind: pins, value, options (read by the checker, formatter and docs). */
 export interface PartKindSchema {
   readonly kind: string;
   readonly summary: string;
   /** Pin names in the order they are written. */
   readonly pins: readonly string[];
+  /**
+   * What a node reached only through a pin needs so that its DC voltage is defined, by pin name,
+   * where that is more than the usual DC path to gnd (for the hint of a floating node).
+   */
+  readonly pinNeeds?: Readonly<Record<string, string>>;
   /** The positional value after the pins, or `null` when the kind takes none. */
   readonly value: ValueSchema | null;
   readonly options: Readonly<Record<string, OptionSchema>>;
@@ -91,6 +112,11 @@ export interface PartKindSchema {
     readonly key: string;
     readonly sets: Readonly<Record<string, Readonly<Record<string, OptionSchema>>>>;
   };
+  /**
+   * States inside the part that a probe may name as `PART.state` (`U1.pole`, `D1.junction`),
+   * with the quantity each one is; branch currents are probed as `PART.i` and are not listed.
+   */
+  readonly states?: Readonly<Record<string, StateSchema>>;
   /** True when the language accepts the kind but the engine does not simulate it yet. */
   readonly planned?: boolean;
 }

@@ -2,6 +2,7 @@ import { deviceModels } from "../devices/registry.js";
 import type { Circuit, PartSpec } from "./circuit.js";
 import { GROUND } from "./circuit.js";
 import type { Diagnostic } from "./diagnostic.js";
+import { SENSED_NODE_NEEDS } from "./schema.js";
 
 class DisjointSets {
   private readonly parent = new Map<string, string>();
@@ -32,6 +33,59 @@ export function nodesOfPart(part: PartSpec): string[] {
   const supply = part.options.supply;
   if (Array.isArray(supply)) for (const n of supply) if (typeof n === "string") nodes.push(n);
   return nodes;
+}
+
+/** A node a part names in a role that needs more than a DC path: a sensed supply, a pin with declared needs. */
+interface NodeRole {
+  readonly node: string;
+  /** How the part uses the node: `read by supply= of opamp U1, which draws no current`. */
+  readonly role: string;
+  readonly needs: string;
+}
+
+/** The nodes a part names through node options (sensed, drawing no current) and pins with declared needs. */
+function nodeRoles(part: PartSpec): NodeRole[] {
+  const schema = deviceModels[part.kind]?.schema;
+  if (!schema) return [];
+  const roles: NodeRole[] = [];
+  schema.pins.forEach((pin, i) => {
+    const needs = schema.pinNeeds?.[pin];
+    const node = part.nodes[i];
+    if (needs !== undefined && node !== undefined) roles.push({ node, role: `pin ${pin} of ${part.kind} ${part.name}`, needs });
+  });
+  for (const [key, option] of Object.entries(schema.options)) {
+    const value = part.options[key];
+    if (option.type !== "node-pair" || !Array.isArray(value)) continue;
+    for (const node of value) {
+      if (typeof node === "string") roles.push({ node, role: `read by ${key}= of ${part.kind} ${part.name}, which draws no current`, needs: option.needs ?? SENSED_NODE_NEEDS });
+    }
+  }
+  return roles;
+}
+
+/**
+ * The hint of a group of nodes without a DC path: what each node needs, from the roles the parts
+ * give it (a supply node wants a source, not the resistor to gnd that fits a coupling node).
+ */
+function floatingHint(nodes: readonly string[], parts: readonly PartSpec[]): string {
+  const roles = parts.flatMap(nodeRoles).filter((r) => nodes.includes(r.node));
+  const needy = [...new Set(roles.map((r) => r.node))];
+  const rest = nodes.filter((n) => !needy.includes(n));
+  const sentences: string[] = [];
+  for (const needs of new Set(roles.map((r) => r.needs))) {
+    const mine = roles.filter((r) => r.needs === needs);
+    const named = [...new Set(mine.map((r) => r.node))];
+    const example = named[named.length - 1]!;
+    sentences.push(
+      `nothing sets the voltage of ${listNames(named)} (${[...new Set(mine.map((r) => r.role))].join("; ")}): ` +
+        `give ${named.length === 1 ? "it" : "each"} ${needs} (vsource V${example.replace(/\./g, "_")} ${example} gnd VOLTS)`,
+    );
+  }
+  if (rest.length > 0) {
+    const [which, reach, their] = needy.length === 0 ? ["", "these nodes", "their"] : rest.length === 1 ? [`${listNames(rest)}: `, "it", "its"] : [`${listNames(rest)}: `, "them", "their"];
+    sentences.push(`${which}only capacitors or current sources reach ${reach}, so ${their} DC voltage is undefined: add a resistor to gnd (a large one is enough)`);
+  }
+  return sentences.join("; ");
 }
 
 function listNames(names: readonly string[], limit = 6): string {
@@ -118,7 +172,7 @@ export function checkTopology(circuit: Circuit): Diagnostic[] {
       code: "no-dc-path",
       message: `${nodes.length === 1 ? "node" : "nodes"} ${listNames(nodes)} ${nodes.length === 1 ? "has" : "have"} no DC path to gnd`,
       span: parts[0]?.span,
-      hint: "only capacitors or current sources reach these nodes, so their DC voltage is undefined: add a resistor to gnd (a large one is enough)",
+      hint: floatingHint(nodes, parts),
       notes: parts.map((p) => `${p.kind} ${p.name} touches ${listNames(nodesOfPart(p).filter((n) => nodes.includes(n)))}`),
     });
   }

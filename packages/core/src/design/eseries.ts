@@ -2,7 +2,7 @@ import { inputError } from "../circuit/diagnostic.js";
 
 /**
  * IEC 60063 preferred-number series, one decade each, stored as tables: E12 and E24 do not
- * follow the rounding formula round(10^(i/n), 1) (eight E24 positions differ; references §1).
+ * follow the rounding formula round(10^(i/n), 1) (eight E24 positions differ; docs/references.md §1).
  */
 export const E_SERIES = {
   E6: [1.0, 1.5, 2.2, 3.3, 4.7, 6.8],

@@ -1,9 +1,11 @@
 import type { Circuit, OptionValue, PartSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
+import { didYouMean } from "../circuit/suggest.js";
 import { runPoles } from "../analyses/poles.js";
 import { builtinPresets } from "../devices/registry.js";
 import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
 import { snapToSeries, type SeriesName } from "./eseries.js";
+import { withPrefix } from "../units/si-prefix.js";
 
 /** The oscillator topologies `onset design` sizes. */
 export type Topology = "wien" | "twin-t" | "phase-shift";
@@ -45,6 +47,11 @@ export interface DesignResult {
   readonly error: number;
   /** ln(10¹²)/growthRate: the start-up time the chosen gain gives (s). */
   readonly startupEstimate: number;
+  /**
+   * The start-up of the written file as `onset run` gives it (when `simulate` was passed): the
+   * settled frequency, which the poles miss by the start margin (the ladder's by about −5 %).
+   */
+  readonly simulated: SimulatedStartup | null;
   /** What was chosen and why, one sentence each. */
   readonly notes: readonly string[];
   /** A ready-to-run circuit file in the Onset language. */
@@ -52,11 +59,32 @@ export interface DesignResult {
 }
 
 /**
- * Growth the start-up estimate assumes: from the simulator's kick (about 1 pV at an op-amp
- * output) to a volt-scale amplitude, a factor of 10¹², i.e. ln(10¹²) ≈ 27.6 envelope time
- * constants (measured on the examples: 21–26).
+ * Growth the start-up estimate assumes: from the circuit's own thermal noise (tens of µV at an
+ * op-amp output, the start-up analysis's default excitation) to a volt-scale amplitude, a
+ * factor of about 10⁶, i.e. ln(10⁶) ≈ 13.8 envelope time constants (measured on the examples
+ * with kick=thermal: 10.5–16).
  */
-export const STARTUP_GROWTH = Math.log(1e12);
+export const STARTUP_GROWTH = Math.log(1e6);
+
+/** What a run of the designed file measured; `error` is frequency / target − 1. */
+export interface SimulatedStartup {
+  readonly verdict: string;
+  readonly frequency: number | null;
+  readonly amplitude: number | null;
+  readonly thd: number | null;
+  readonly startupTime: number | null;
+  readonly error: number | null;
+}
+
+/** What {@link designOscillator} may do beyond sizing: simulate the file it writes. */
+export interface DesignOptions {
+  /**
+   * Runs the start-up analysis of the written file and returns its metrics. Core cannot read
+   * the language, so the caller parses and elaborates the text, e.g. with `@onset/netlist-parser`:
+   * `(text) => { const c = elaborate(parseText(text, "design.onset").program).circuit!; return runStartup(c, startupAnalysisOf(c)!); }`.
+   */
+  readonly simulate?: (text: string) => Omit<SimulatedStartup, "error">;
+}
 
 /** One line of the generated file: a part with its value, tolerance and options. */
 interface Line {
@@ -204,12 +232,12 @@ function phaseShift(req: DesignResult["request"], required: number): Sizing {
     thdLimit: 0.03,
     description: [
       "Three-section C–R ladder into an inverting stage; f = 1/(2π·√6·RC), where the ladder passes",
-      "−1/29 of the output (references: the series-C, shunt-R ladder), so the stage needs a gain of 29.",
+      "−1/29 of the output (H = x³/(x³ + 6x² + 5x + 1), x = sRC, is real at ωRC = 1/√6), so the stage needs a gain of 29.",
     ],
   };
 }
 
-/** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (references §2.3). */
+/** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (docs/references.md §2.3). */
 export function twinTCrossing(k: number): number {
   const a = k * (2 * k + 1);
   const b = k * (1 - 2 * k);
@@ -275,7 +303,7 @@ function twinT(req: DesignResult["request"], required: number): Sizing {
     thdLimit: 0.01,
     description: [
       "Twin-T notch (R, R with 2C; C, C with k·R, k = 0.45) from the output into an inverting stage.",
-      "With k under ½ the network reaches −180° at Ω = 1.0274 above f0 = 1/(2πRC) (references §2.3);",
+      "With k under ½ the network reaches −180° at Ω = ωRC = 1.0274, the root of k(2k+1)Ω⁴ + k(1−2k)Ω² = 1;",
       "a divider on the non-inverting input adds positive feedback for the start margin.",
     ],
   };
@@ -288,6 +316,25 @@ function renderLine(l: Line, widths: number[]): string {
   const head = cells.map((c, i) => c.padEnd(widths[i] ?? c.length)).join("  ");
   const tail = [value, ...options].filter((x) => x !== "").join("  ");
   return `${head}  ${tail}`.trimEnd() + (l.comment ? `   # ${l.comment}` : "");
+}
+
+/** A measured value with a prefix and a space before its unit (`8.599 V`, `74.29 ms`). */
+function quantity(value: number, unit: string): string {
+  const { mantissa, prefix } = withPrefix(value);
+  return `${mantissa} ${prefix}${unit}`;
+}
+
+/** The header line of the simulated start-up: what the file settles at, which the target is judged on. */
+function simulatedLine(sim: SimulatedStartup | null, pct: (x: number) => string): string[] {
+  if (!sim) return [];
+  if (sim.verdict !== "settled" || sim.frequency === null || sim.error === null) return [`# simulated start-up of this file: ${sim.verdict}, no settled frequency`];
+  const parts = [
+    `settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target)`,
+    ...(sim.amplitude === null ? [] : [`${quantity(sim.amplitude, "V")} peak`]),
+    ...(sim.thd === null ? [] : [`THD ${pct(sim.thd)}`]),
+    ...(sim.startupTime === null ? [] : [`90 % reached at ${quantity(sim.startupTime, "s")}`]),
+  ];
+  return [`# simulated start-up of this file: ${parts.join(", ")}`];
 }
 
 function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string {
@@ -305,9 +352,10 @@ function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string 
         : `# ${ch.part}: ideal ${writeValue(ch.ideal)}Ω → ${writeValue(ch.chosen)}Ω (${req.series}, nearest in the log sense)`,
     ),
     `# formula with the snapped values: ${result.formulaFrequency.toFixed(2)} Hz`,
-    `# predicted by the poles of the snapped circuit: ${result.predicted.frequency.toFixed(2)} Hz (error ${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
+    `# small-signal poles of the snapped circuit (the start): ${result.predicted.frequency.toFixed(2)} Hz (${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
+    ...simulatedLine(result.simulated, pct),
     `# gain: ${sizing.gainNote};`,
-    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from the start-up kick to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
   ];
   const startupLimit = writeValue(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate));
   return [
@@ -328,9 +376,10 @@ function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string 
 /**
  * Designs an RC oscillator for a target frequency: picks the capacitor (unless given), snaps the
  * resistors to an E-series, chooses the gain network so the snapped circuit starts within the
- * requested time (checked on its poles), and writes a ready-to-run circuit file.
+ * requested time (checked on its poles), and writes a ready-to-run circuit file; with
+ * `options.simulate`, runs the file's start-up and reports its settled frequency beside the poles.
  */
-export function designOscillator(request: DesignRequest): DesignResult {
+export function designOscillator(request: DesignRequest, options: DesignOptions = {}): DesignResult {
   const f = request.frequency;
   if (!(f > 0) || !Number.isFinite(f)) throw inputError("out-of-range", `design needs a positive frequency, got ${f} Hz`, { hint: "e.g. --freq 2.5k" });
   if (request.capacitor !== undefined && !(request.capacitor > 0)) {
@@ -338,7 +387,7 @@ export function designOscillator(request: DesignRequest): DesignResult {
   }
   const preset = request.preset ?? "general";
   if (!builtinPresets.opamp?.[preset]) {
-    throw inputError("unknown-preset", `unknown op-amp preset '${preset}'`, { hint: `use one of ${Object.keys(builtinPresets.opamp ?? {}).join(", ")}` });
+    throw inputError("unknown-preset", `unknown op-amp preset '${preset}'${didYouMean(preset, Object.keys(builtinPresets.opamp ?? {}))}`, { hint: `use one of ${Object.keys(builtinPresets.opamp ?? {}).join(", ")}` });
   }
   // The frequency each topology's formula gives for R and C (twin-T at k = 0.45).
   const scale = request.topology === "wien" ? 1 : request.topology === "phase-shift" ? 1 / Math.sqrt(6) : twinTCrossing(0.45);
@@ -376,5 +425,16 @@ export function designOscillator(request: DesignRequest): DesignResult {
     startupEstimate: STARTUP_GROWTH / predicted.growthRate,
     notes,
   };
-  return { ...partial, text: renderText(partial, sizing) };
+  if (!options.simulate) return { ...partial, simulated: null, text: renderText({ ...partial, simulated: null }, sizing) };
+  // The header lines do not change the circuit, so the file is simulated before its header says how it ran.
+  const run = options.simulate(renderText({ ...partial, simulated: null }, sizing));
+  const simulated: SimulatedStartup = {
+    verdict: run.verdict,
+    frequency: run.frequency,
+    amplitude: run.amplitude,
+    thd: run.thd,
+    startupTime: run.startupTime,
+    error: run.frequency === null ? null : run.frequency / f - 1,
+  };
+  return { ...partial, simulated, text: renderText({ ...partial, simulated }, sizing) };
 }

@@ -2,6 +2,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { BOLTZMANN, thermalCurrent } from "./thermal-noise.js";
 
 export const diodeSchema: PartKindSchema = {
   kind: "diode",
@@ -14,10 +15,13 @@ export const diodeSchema: PartKindSchema = {
     series: { type: "number", unit: "Ω", default: 0.5, min: 0, summary: "ohmic series resistance" },
     junction: { type: "number", unit: "F", default: 0, min: 0, summary: "zero-bias junction capacitance (0: none)" },
   },
+  states: {
+    junction: { quantity: "voltage", summary: "the junction's anode side, behind the series resistance (the anode itself when series=0)" },
+  },
 };
 
-/** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (references §7: 25.8649 mV). */
-export const THERMAL_VOLTAGE = (1.380649e-23 * 300.15) / 1.602176634e-19;
+/** Thermal voltage kT/q at 300.15 K with the exact SI 2019 constants (docs/references.md §7: 25.8649 mV). */
+export const THERMAL_VOLTAGE = (BOLTZMANN * 300.15) / 1.602176634e-19;
 /** A conductance across every junction so a reverse-biased diode never leaves a node floating. */
 export const JUNCTION_LEAK = 1e-12;
 /** Junction potential and grading coefficient of the depletion capacitance (abrupt junction). */
@@ -25,6 +29,8 @@ const BUILT_IN = 0.7;
 const GRADING = 0.5;
 /** Forward-bias fraction of the built-in potential beyond which the capacitance is linearised. */
 const FORWARD_KNEE = 0.5;
+/** ln 1.1: the junction-voltage change over which the Shockley conductance moves by a tenth. */
+const TANGENT_SPAN = Math.log1p(0.1);
 /** Beyond this many thermal voltages the exponential continues as its tangent (no overflow). */
 const EXP_LIMIT = 40;
 
@@ -62,7 +68,7 @@ export function junctionCharge(v: number, cj0: number, out: JunctionState): void
 }
 
 /**
- * Junction-voltage limiting after the 1970s circuit-analysis practice (references §7): past the
+ * Junction-voltage limiting after the 1970s circuit-analysis practice (docs/references.md §7): past the
  * critical voltage a large Newton step is replaced by a logarithmic one.
  */
 export function limitJunctionVoltage(vOld: number, vNew: number, nvt: number, vcrit: number): number {
@@ -116,6 +122,13 @@ class Junction implements NonlinearTerm {
     }
   }
 
+  tangentHolds(_x: Float64Array, dx: Float64Array): boolean {
+    const step = valueAt(dx, this.a) - valueAt(dx, this.c);
+    // The conductance scales as e^(v/nVt) (the depletion capacitance far more slowly): within a
+    // tenth while the junction voltage moves by nVt·ln 1.1.
+    return Math.abs(step) <= this.nvt * TANGENT_SPAN;
+  }
+
   limitStep(x: Float64Array, dx: Float64Array): number {
     const { a, c, nvt, vcrit } = this;
     const vOld = valueAt(x, a) - valueAt(x, c);
@@ -146,6 +159,11 @@ export const diode: DeviceModel = {
     const cj0 = numberOption(part, diodeSchema, "junction");
     const a = series > 0 ? setup.addUnknown(`${part.name}.junction`, "voltage") : anode;
     const c = cathode;
+    if (series === 0) setup.alias(`${part.name}.junction`, anode);
+    if (cj0 > 0) {
+      setup.declareCharge(a, [a, c]);
+      setup.declareCharge(c, [a, c]);
+    }
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
     const state: JunctionState = { current: 0, conductance: 0 };
     const v = valueAt;
@@ -169,6 +187,8 @@ export const diode: DeviceModel = {
         }
         return i;
       },
+      // The series resistance is an ohmic resistor; the junction's shot noise is not modelled.
+      noise: series > 0 ? (kelvin) => [thermalCurrent(`${part.name}.series`, series, kelvin, anode, a)] : undefined,
     };
   },
 };

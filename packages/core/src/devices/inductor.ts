@@ -2,6 +2,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive } from "./options.js";
 import { stampBranch } from "./stamps.js";
+import { thermalVoltage } from "./thermal-noise.js";
 
 export const inductorSchema: PartKindSchema = {
   kind: "inductor",
@@ -31,7 +32,7 @@ export const inductor: DeviceModel = {
   create(part, setup) {
     const a = setup.node(part.nodes[0]!);
     const b = setup.node(part.nodes[1]!);
-    const k = setup.addUnknown(`${part.name}.i`, "current");
+    const k = setup.addUnknown(`${part.name}.i`, "current", { role: "branch" });
     const l = partValue(part);
     const series = numberOption(part, inductorSchema, "series");
     const initial = numberOption(part, inductorSchema, "initial");
@@ -48,6 +49,7 @@ export const inductor: DeviceModel = {
       current(x) {
         return x[k]!;
       },
+      noise: series > 0 ? (kelvin) => [thermalVoltage(`${part.name}.series`, series, kelvin, k)] : undefined,
     };
   },
 };

@@ -16,13 +16,17 @@ export const isourceSchema: PartKindSchema = {
 
 export const isource: DeviceModel = {
   schema: isourceSchema,
+  // Building the wave checks what the schema cannot (pulse timing, the order of points).
+  validate(part) {
+    waveFromPart(part, isourceSchema);
+  },
   topology() {
     return { conducting: [], voltageDefined: [] };
   },
   create(part, setup) {
     const from = setup.node(part.nodes[0]!);
     const to = setup.node(part.nodes[1]!);
-    const wave = waveFromPart(part, isourceSchema);
+    const wave = waveFromPart(part, isourceSchema, setup.powerOn);
     return {
       part,
       source: {

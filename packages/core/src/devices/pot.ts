@@ -4,6 +4,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { numberOption, partValue, requirePositive, wordOption } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { thermalCurrent } from "./thermal-noise.js";
 
 export const potSchema: PartKindSchema = {
   kind: "pot",
@@ -11,7 +12,7 @@ export const potSchema: PartKindSchema = {
   pins: ["end1", "wiper", "end2"],
   value: { unit: "Ω", required: true, min: 0, minExclusive: true, summary: "total track resistance" },
   options: {
-    at: { type: "number", unit: "1", default: 0.5, min: 0, max: 1, summary: "wiper position from end1 (0) to end2 (1)" },
+    at: { type: "number", unit: "1", default: 0.5, min: 0, max: 1, summary: "wiper position, measured from end1: the fraction of the track between end1 and the wiper (0 at end1, 1 at end2)" },
     taper: { type: "word", words: ["linear", "audio"], default: "linear", summary: "how the track resistance follows the position" },
   },
 };
@@ -48,7 +49,7 @@ export const pot: DeviceModel = {
     if (!(at >= 0 && at <= 1)) {
       throw inputError("out-of-range", `pot ${part.name}: at=${at} is outside 0..1`, {
         span: part.span,
-        hint: "the wiper position runs from 0 (at end1) to 1 (at end2)",
+        hint: "at= is measured from end1: 0 puts the wiper on end1, 1 on end2 (end1 to wiper is at × the track on a linear taper)",
       });
     }
   },
@@ -76,6 +77,8 @@ export const pot: DeviceModel = {
       current(x) {
         return (valueAt(x, e1) - valueAt(x, w)) / r1;
       },
+      // Each half of the track is a resistor of its own, with its own noise.
+      noise: (kelvin) => [thermalCurrent(`${part.name}.end1`, r1, kelvin, e1, w), thermalCurrent(`${part.name}.end2`, r2, kelvin, w, e2)],
     };
   },
 };

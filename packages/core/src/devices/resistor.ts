@@ -3,6 +3,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel } from "./device.js";
 import { partValue, requirePositive } from "./options.js";
 import { stampConductance, valueAt } from "./stamps.js";
+import { thermalCurrent } from "./thermal-noise.js";
 
 export const resistorSchema: PartKindSchema = {
   kind: "resistor",
@@ -32,6 +33,7 @@ export const resistor: DeviceModel = {
       current(x) {
         return (valueAt(x, a) - valueAt(x, b)) * g;
       },
+      noise: (kelvin) => [thermalCurrent(part.name, 1 / g, kelvin, a, b)],
     };
   },
 };

@@ -22,7 +22,7 @@ export const vcvs: DeviceModel = {
     const on = setup.node(part.nodes[1]!);
     const cp = setup.node(part.nodes[2]!);
     const cn = setup.node(part.nodes[3]!);
-    const k = setup.addUnknown(`${part.name}.i`, "current");
+    const k = setup.addUnknown(`${part.name}.i`, "current", { role: "branch" });
     const gain = partValue(part);
     return {
       part,

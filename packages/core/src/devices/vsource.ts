@@ -18,6 +18,10 @@ export const vsourceSchema: PartKindSchema = {
 /** Branch current k flows from plus through the source to minus; row k: v(plus) − v(minus) = V(t). */
 export const vsource: DeviceModel = {
   schema: vsourceSchema,
+  // Building the wave checks what the schema cannot (pulse timing, the order of points).
+  validate(part) {
+    waveFromPart(part, vsourceSchema);
+  },
   topology(part) {
     const pair = [part.nodes[0]!, part.nodes[1]!] as const;
     return { conducting: [pair], voltageDefined: [pair] };
@@ -25,8 +29,8 @@ export const vsource: DeviceModel = {
   create(part, setup) {
     const a = setup.node(part.nodes[0]!);
     const b = setup.node(part.nodes[1]!);
-    const k = setup.addUnknown(`${part.name}.i`, "current");
-    const wave = waveFromPart(part, vsourceSchema);
+    const k = setup.addUnknown(`${part.name}.i`, "current", { role: "branch" });
+    const wave = waveFromPart(part, vsourceSchema, setup.powerOn);
     return {
       part,
       stampLinear(s) {

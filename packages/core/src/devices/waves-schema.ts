@@ -16,7 +16,7 @@ export function waveOptionSets(unit: UnitSymbol): Record<string, Record<string, 
       delay: { type: "number", unit: "s", default: 0, min: 0, summary: "time of the first rising edge" },
       rise: { type: "number", unit: "s", default: 0, min: 0, summary: "rise time; 0 is an ideal edge" },
       fall: { type: "number", unit: "s", default: 0, min: 0, summary: "fall time; 0 is an ideal edge" },
-      width: { type: "number", unit: "s", default: Infinity, min: 0, minExclusive: true, allowInfinite: true, summary: "time at `high`; unset means the pulse never falls" },
+      width: { type: "number", unit: "s", default: Infinity, min: 0, allowInfinite: true, summary: "time at `high` (0: a triangle when rise + fall = period); unset means the pulse never falls" },
       period: { type: "number", unit: "s", default: Infinity, min: 0, minExclusive: true, allowInfinite: true, summary: "repetition period; unset means one pulse" },
     },
     steps: {

@@ -7,12 +7,28 @@ export interface CrossingList {
   readonly intervals: Int32Array;
 }
 
+/** An interval whose neighbours change by at most this fraction of its own change is a jump. */
+const JUMP_FLAT = 1e-3;
+
+/**
+ * Whether interval i holds a jump: a change between two flat stretches, as at an ideal source
+ * edge. The solver lands on such an edge and records the level just before it, so the jump
+ * happens right after t[i].
+ */
+export function isJump(v: Float64Array, i: number): boolean {
+  const change = Math.abs(v[i + 1] - v[i]);
+  const before = i > 0 ? Math.abs(v[i] - v[i - 1]) : 0;
+  const after = i + 2 < v.length ? Math.abs(v[i + 2] - v[i + 1]) : 0;
+  return change > 0 && Math.max(before, after) <= JUMP_FLAT * change;
+}
+
 /**
  * Rising crossings of `level` with a Schmitt-trigger band: the detector arms when a sample
  * falls below `level − hysteresis` and fires when one reaches `level + hysteresis`; the crossing
  * reported is the last rising pass through `level` itself before it fired, timed on the local
- * cubic. Noise of peak size below `hysteresis` can therefore neither add nor remove a crossing
- * of a signal that swings through the whole band. Samples `first … last` (inclusive) are used.
+ * cubic (at the start of the interval when it holds a jump, see `isJump`). Noise of peak size
+ * below `hysteresis` can therefore neither add nor remove a crossing of a signal that swings
+ * through the whole band. Samples `first … last` (inclusive) are used.
  */
 export function findRisingCrossings(
   t: Float64Array,
@@ -37,8 +53,11 @@ export function findRisingCrossings(
     if (x < level) lastBelow = k;
     else if (x >= high && lastBelow >= 0) {
       const i = lastBelow;
-      cubicOnInterval(t, v, i, c);
-      const u = cubicLevelCrossing(c, level);
+      let u = 0;
+      if (!isJump(v, i)) {
+        cubicOnInterval(t, v, i, c);
+        u = cubicLevelCrossing(c, level);
+      }
       if (count === times.length) {
         const grownTimes = new Float64Array(2 * count);
         grownTimes.set(times);

@@ -2,8 +2,9 @@ import type { CycleTable } from "./cycles.js";
 import type { TailTrend } from "./envelope-trend.js";
 import { formatPercent, formatQuantity, formatRate } from "./format.js";
 import type { StartupSettings } from "./startup-options.js";
+import type { SteadyReason } from "./oscillation-kind.js";
 import { MIN_CYCLES, SILENT_RATIO } from "./verdict.js";
-import type { SilentReason, TrendReason } from "./verdict.js";
+import type { SilentReason, SteadyMeasure, TrendReason } from "./verdict.js";
 
 // One line per verdict for the report; numbers with SI prefixes, changes per cycle in percent.
 
@@ -19,12 +20,40 @@ export function explainSilent(cycles: CycleTable, reason: SilentReason, settings
   return `no oscillation: only ${cycles.count} complete cycle${plural} in the record (at least ${MIN_CYCLES} needed)`;
 }
 
-export function explainSettled(amplitude: number, frequency: number, startupTime: number | null, settings: StartupSettings): string {
+export function explainSettled(
+  amplitude: number,
+  frequency: number,
+  startupTime: number | null,
+  settings: StartupSettings,
+  steadyOn: SteadyMeasure = "envelope",
+  driven?: number,
+): string {
+  const steady = steadyOn === "envelope" ? "envelope steady" : "power per cycle steady (the peaks vary at sharp corners)";
   return (
     `settled at ${formatQuantity(amplitude, "V")} peak and ${formatQuantity(frequency, "Hz")}` +
+    (driven === undefined ? "" : `, driven by a ${formatQuantity(driven, "Hz")} source`) +
     (startupTime === null ? "" : `, 90 % reached at ${formatQuantity(startupTime, "s")}`) +
-    `; envelope steady within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
+    `; ${steady} within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
   );
+}
+
+/** A steady oscillation that is not the predicted sine: a relaxation or a parasitic oscillation. */
+export function explainOther(reason: Exclude<SteadyReason, { kind: "settled" }>, amplitude: number, frequency: number, dutyCycle: number): string {
+  const size = `${formatQuantity(amplitude, "V")} peak at ${formatQuantity(frequency, "Hz")}`;
+  if (reason.kind === "relaxation") {
+    const far = reason.predicted === null ? "the bias point predicts no ringing" : `far from the ${formatQuantity(reason.predicted, "Hz")} the poles predict`;
+    const why = {
+      square: `it switches between two levels with edges far steeper than a sine's, ${far}`,
+      triangle: `it ramps between two levels along straight slopes, ${far}`,
+      "no-ringing": "the bias point has no growing complex pair but a growing real pole: the loop runs to a limit and recovers instead of ringing",
+    }[reason.why];
+    return `relaxation oscillation: ${size}, duty cycle ${formatPercent(dutyCycle)}; ${why}`;
+  }
+  const predicted =
+    reason.predicted === null
+      ? "the bias point predicts no ringing at all"
+      : `far from the ${formatQuantity(reason.predicted, "Hz")} the bias point's poles predict`;
+  return `parasitic oscillation: ${size}, ${predicted}; another loop (the amplifier's own poles, a stray path) sets it`;
 }
 
 export function explainGrowing(trend: TailTrend, period: number, extraTime: number): string {
@@ -46,6 +75,12 @@ export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend:
     return `only ${cycles.count} cycles: too few to judge settling (need ${settings.settleCycles + 1}); run longer`;
   }
   const limit = `settled needs under ${formatPercent(settings.settleTolerance)}`;
+  if (reason.kind === "drifting") {
+    return (
+      `the amplitude is steady but the mean level still drifts, up to ${formatPercent(reason.largest)} of the amplitude per cycle ` +
+      `over the last ${trend.changes} cycles (${limit}): the DC levels are still settling; run longer`
+    );
+  }
   if (reason.kind === "relaxing") {
     return (
       `amplitude still relaxing after its peak: envelope ${formatPercent(Math.expm1(trend.meanLogChange), true)}/cycle ` +

@@ -85,6 +85,7 @@ export function startupGrowthRate(
   verdict: StartupVerdict,
   final: number,
   settings: StartupSettings,
+  offset = Number.NaN,
 ): number | null {
   if (verdict === "silent") return null;
   if (verdict === "decaying") {
@@ -93,8 +94,31 @@ export function startupGrowthRate(
     return fitEnvelopeGrowth(cycles.midTime, cycles.envelope, GROWTH_FLOOR * largest, Infinity, "falling")?.rate ?? null;
   }
   const floor = Math.max(GROWTH_FLOOR_NOISE * settings.noiseFloor, GROWTH_FLOOR * final);
-  const narrow = fitEnvelopeGrowth(cycles.midTime, cycles.envelope, floor, GROWTH_CEILING * final, "rising");
+  const { midTime, envelope } = withoutDisplacement(cycles, offset);
+  const narrow = fitEnvelopeGrowth(midTime, envelope, floor, GROWTH_CEILING * final, "rising");
   if (narrow !== null && narrow.cycles >= 3) return narrow.rate;
-  const wide = fitEnvelopeGrowth(cycles.midTime, cycles.envelope, floor, GROWTH_CEILING_WIDE * final, "rising");
+  const wide = fitEnvelopeGrowth(midTime, envelope, floor, GROWTH_CEILING_WIDE * final, "rising");
   return (wide ?? narrow)?.rate ?? null;
+}
+
+/**
+ * A cycle whose mean lies more than this share of its envelope from the final offset sits on a
+ * DC level still moving. (A growing sine's crossing-to-crossing cycles are lopsided too, by about
+ * σT/2π of their envelope: a fifth at σT = 1, well inside.)
+ */
+const DISPLACED = 0.5;
+
+/**
+ * The cycles whose envelope is the oscillation's, not a DC level moving under it (as the
+ * supplies come up at power-on): their mean lies within {@link DISPLACED} of their envelope of
+ * the final `offset` (every cycle when the offset is unknown).
+ */
+function withoutDisplacement(cycles: CycleTable, offset: number): { midTime: Float64Array; envelope: Float64Array } {
+  const n = cycles.count;
+  const keep: number[] = [];
+  for (let k = 0; k < n; k++) {
+    if (!(Math.abs(cycles.mean[k] - offset) > DISPLACED * cycles.envelope[k])) keep.push(k);
+  }
+  if (keep.length === n) return { midTime: cycles.midTime, envelope: cycles.envelope };
+  return { midTime: Float64Array.from(keep, (k) => cycles.midTime[k]), envelope: Float64Array.from(keep, (k) => cycles.envelope[k]) };
 }

@@ -6,17 +6,16 @@ export const MAX_CROSSINGS_PER_PERIOD = 8;
 /** Sub-cycles m apart must match in length and envelope to this relative tolerance. */
 const PATTERN_TOLERANCE = 0.01;
 
-// Whether cycles first − m … count − 1 repeat with lag m: each cycle's length and envelope match
+const matches = (a: number, b: number): boolean => Math.abs(a - b) <= PATTERN_TOLERANCE * b;
+
+// Whether cycles first − m … count − 1 repeat with lag m: each cycle's length, and its envelope
+// or its strength (see `CycleTable.strength`: a corner overshoot moves only the first), match
 // those of the cycle m earlier.
 function repeatsWithLag(cycles: CycleTable, m: number, first: number): boolean {
-  const start = cycles.start;
+  const { start, envelope, strength } = cycles;
   for (let k = first; k < cycles.count; k++) {
-    const length = start[k + 1] - start[k];
-    const earlier = start[k + 1 - m] - start[k - m];
-    if (!(Math.abs(length - earlier) <= PATTERN_TOLERANCE * earlier)) return false;
-    const e = cycles.envelope[k];
-    const eEarlier = cycles.envelope[k - m];
-    if (!(Math.abs(e - eEarlier) <= PATTERN_TOLERANCE * eEarlier)) return false;
+    if (!matches(start[k + 1] - start[k], start[k + 1 - m] - start[k - m])) return false;
+    if (!matches(envelope[k], envelope[k - m]) && !matches(strength[k], strength[k - m])) return false;
   }
   return true;
 }

@@ -1,3 +1,5 @@
+import type { LinearPrediction } from "./oscillation-kind.js";
+
 /** Options of {@link measureStartup}. */
 export interface StartupMetricsOptions {
   /**
@@ -34,6 +36,19 @@ export interface StartupMetricsOptions {
    * decade of growth is assumed.
    */
   readonly amplitudeLimit?: number;
+  /**
+   * The linear prediction at the bias point, which tells a sine oscillation from a relaxation
+   * or a parasitic one (see `steadyKind`); without it only the waveform's shape is used.
+   */
+  readonly prediction?: LinearPrediction;
+  /** Hz: the frequencies of the circuit's periodic sources; a steady waveform at one of them is driven. */
+  readonly drives?: readonly number[];
+  /**
+   * Time (s) before which the record is an excitation's own transient (a power-on ramp moving
+   * the DC levels): start-up is the first 90 % excursion at or after it.
+   * @defaultValue 0
+   */
+  readonly searchFrom?: number;
 }
 
 /** Options with defaults filled in and checked. */
@@ -44,6 +59,9 @@ export interface StartupSettings {
   readonly settleCycles: number;
   readonly settleTolerance: number;
   readonly amplitudeLimit: number | undefined;
+  readonly prediction: LinearPrediction | undefined;
+  readonly drives: readonly number[];
+  readonly searchFrom: number;
 }
 
 function positiveOrZero(name: string, value: number): number {
@@ -77,5 +95,8 @@ export function resolveStartupOptions(options: StartupMetricsOptions): StartupSe
     settleCycles,
     settleTolerance,
     amplitudeLimit,
+    prediction: options.prediction,
+    drives: options.drives ?? [],
+    searchFrom: positiveOrZero("searchFrom", options.searchFrom ?? 0),
   };
 }

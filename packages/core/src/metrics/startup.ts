@@ -2,10 +2,11 @@ import { centreLevel } from "./centre-level.js";
 import { findRisingCrossings } from "./crossings.js";
 import { cyclesBetween } from "./cycles.js";
 import type { CycleTable } from "./cycles.js";
-import { firstExcursion } from "./excursion.js";
-import { explainDecaying, explainGrowing, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
+import { startupMoment } from "./excursion.js";
+import { explainDecaying, explainGrowing, explainOther, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
 import { startupGrowthRate } from "./growth-rate.js";
 import { analyseCycles } from "./harmonic-analysis.js";
+import { steadyKind } from "./oscillation-kind.js";
 import { crossingsPerPeriod, periodCrossings } from "./period-grouping.js";
 import { lastHalfStatistics } from "./record-statistics.js";
 import type { RecordStatistics } from "./record-statistics.js";
@@ -17,6 +18,7 @@ import type { StartupMetricsOptions, StartupSettings } from "./startup-options.j
 import { judgeEnvelope } from "./verdict.js";
 import type { StartupVerdict } from "./verdict.js";
 import { checkWaveform } from "./waveform-check.js";
+import { waveformShape } from "./waveform-shape.js";
 
 /** The start-up report's numbers and verdict for one probe waveform (SI units throughout). */
 export interface StartupMetrics {
@@ -35,15 +37,17 @@ export interface StartupMetrics {
   readonly rms: number | null;
   /** V: mean over the measured cycles. */
   readonly offset: number | null;
-  /** s: first time |v − offset| reaches 90 % of the settled amplitude (settled only). */
+  /** s: first time |v − offset| reaches 90 % of the settled amplitude (steady oscillations only). */
   readonly startupTime: number | null;
-  /** s: time after which the per-cycle envelope stays within ±1 % of it (settled only). */
+  /** s: time after which the per-cycle envelope stays within ±1 % of it (steady oscillations only). */
   readonly settlingTime: number | null;
+  /** Fraction of the period above the offset (relaxation oscillations only). */
+  readonly dutyCycle: number | null;
   /** 1/s: exponential growth rate σ of the small-signal envelope (negative when decaying). */
   readonly growthRate: number | null;
-  /** THD_F over harmonics 2 … maxOrder, a fraction (settled only). */
+  /** THD_F over harmonics 2 … maxOrder, a fraction (steady oscillations only). */
   readonly thd: number | null;
-  /** Harmonics 1 … maxOrder of the settled cycles; empty unless settled. */
+  /** Harmonics 1 … maxOrder of the settled cycles; empty unless steady. */
   readonly harmonics: Harmonic[];
   /** Complete cycles in the whole record. */
   readonly cycles: number;
@@ -134,9 +138,9 @@ function windowFigures(cycles: CycleTable, from: number) {
  * amplitude, the mean envelope of the measured cycles when `unsettled`, or the largest
  * envelope when `growing`.
  *
- * Start-up time is resolved on the signal itself (the first moment |v − offset| reaches
- * 0.9·amplitude, where the signal touches its envelope); settling time on the per-cycle
- * envelope (see `settlingTime`).
+ * Start-up time is resolved on the signal itself (the first moment |v − c| reaches
+ * 0.9·amplitude, c the centre of the first cycle whose envelope reaches it, see
+ * `startupMoment`); settling time on the per-cycle envelope (see `settlingTime`).
  */
 export function measureStartup(t: Float64Array, v: Float64Array, options: StartupMetricsOptions = {}): StartupMetrics {
   checkWaveform("measureStartup", t, v);
@@ -159,6 +163,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       offset: tail.mean,
       startupTime: null,
       settlingTime: null,
+      dutyCycle: null,
       growthRate: null,
       thd: null,
       harmonics: [],
@@ -167,7 +172,8 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     };
   }
 
-  const { verdict, trend } = judgement;
+  const { trend } = judgement;
+  let verdict: StartupVerdict = judgement.verdict;
   const from = n - Math.min(settings.settleCycles, n);
   const figures = windowFigures(cycles, from);
   const analysis = analyseCycles(t, v, cycles.start[from], cycles.start[n], n - from, settings.maxOrder, figures.frequency);
@@ -175,19 +181,32 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   let largest = 0;
   for (let k = 0; k < n; k++) largest = Math.max(largest, cycles.envelope[k]);
   const amplitude = settled ? figures.meanEnvelope : cycles.envelope[n - 1];
-  const growthRate = startupGrowthRate(cycles, verdict, verdict === "growing" ? largest : figures.meanEnvelope, settings);
+  const growthRate = startupGrowthRate(cycles, verdict, verdict === "growing" ? largest : figures.meanEnvelope, settings, analysis.offset);
   const period = 1 / figures.frequency;
 
   let explanation: string;
   let startupTime: number | null = null;
   let settling: number | null = null;
+  let dutyCycle: number | null = null;
   let suggestedExtraTime: number | undefined;
-  switch (verdict) {
-    case "settled":
-      startupTime = firstExcursion(t, v, analysis.offset, STARTUP_FRACTION * amplitude);
-      settling = settlingTime(cycles, amplitude);
-      explanation = explainSettled(amplitude, figures.frequency, startupTime, settings);
+  switch (judgement.verdict) {
+    case "settled": {
+      startupTime = startupMoment(t, v, cycles, analysis.offset, STARTUP_FRACTION * amplitude, settings.searchFrom);
+      const steadyOn = judgement.steadyOn ?? "envelope";
+      const measure = steadyOn === "envelope" ? cycles.envelope : cycles.strength;
+      let level = 0;
+      for (let k = from; k < n; k++) level += measure[k] / (n - from);
+      settling = settlingTime(cycles.midTime, measure, level);
+      const shape = waveformShape(t, v, cycles.start[from], cycles.start[n], analysis.offset);
+      const kind = steadyKind(shape, figures.frequency, settings.prediction, settings.drives);
+      verdict = kind.kind;
+      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven);
+      else {
+        if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
+        explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle);
+      }
       break;
+    }
     case "growing":
       suggestedExtraTime = extraRunCycles(cycles.envelope, trend, settings) * period;
       explanation = explainGrowing(trend, period, suggestedExtraTime);
@@ -212,6 +231,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     startupTime,
     settlingTime: settling,
     growthRate,
+    dutyCycle,
     thd: settled ? analysis.thd : null,
     harmonics: settled ? analysis.harmonics : [],
     cycles: n,

@@ -3,8 +3,15 @@ import { tailTrend } from "./envelope-trend.js";
 import type { TailTrend } from "./envelope-trend.js";
 import type { StartupSettings } from "./startup-options.js";
 
-/** What the start-up record shows. */
-export type StartupVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled";
+/** What the per-cycle envelope alone shows. */
+export type EnvelopeVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled";
+
+/**
+ * What the start-up record shows: the envelope's verdict, with a steady oscillation told apart
+ * as the predicted sine (`settled`), a `relaxation` oscillation or a `parasitic` one, and a
+ * record stuck at an amplifier's limit as `latched` (see the start-up analysis).
+ */
+export type StartupVerdict = EnvelopeVerdict | "relaxation" | "parasitic" | "latched";
 
 /** Fewest complete cycles for anything but `silent`. */
 export const MIN_CYCLES = 3;
@@ -30,15 +37,34 @@ export type SilentReason =
 export type TrendReason =
   | { readonly kind: "trend" }
   | { readonly kind: "too-short-to-judge" }
-  | { readonly kind: "relaxing" };
+  | { readonly kind: "relaxing" }
+  | { readonly kind: "drifting"; readonly largest: number };
+
+/**
+ * The largest change of the per-cycle mean between neighbouring cycles over the last `changes`
+ * changes, relative to the envelope: a DC level still settling (after a power-on ramp).
+ */
+export function meanDrift(cycles: CycleTable, changes: number): number {
+  const n = cycles.count;
+  let largest = 0;
+  for (let k = n - changes; k < n; k++) largest = Math.max(largest, Math.abs(cycles.mean[k] - cycles.mean[k - 1]) / cycles.envelope[k]);
+  return largest;
+}
 
 /**
  * A verdict, why, and the trend over the last min(settleCycles, cycles − 1) changes (absent
- * only when there were too few cycles for one).
+ * only when there were too few cycles for one). `steadyOn` says which per-cycle measure was
+ * steady when the verdict is `settled`.
  */
 export type Judgement =
   | { readonly verdict: "silent"; readonly reason: SilentReason; readonly trend: TailTrend | null }
-  | { readonly verdict: Exclude<StartupVerdict, "silent">; readonly reason: TrendReason; readonly trend: TailTrend };
+  | { readonly verdict: Exclude<EnvelopeVerdict, "silent">; readonly reason: TrendReason; readonly trend: TailTrend; readonly steadyOn?: SteadyMeasure };
+
+/**
+ * The per-cycle measure a settled record was steady on: its peaks (`envelope`), or its power
+ * (`strength`, √2 × r.m.s.).
+ */
+export type SteadyMeasure = "envelope" | "strength";
 
 /**
  * The verdict from the per-cycle envelope E_k, checked in this order:
@@ -51,7 +77,13 @@ export type Judgement =
  *    twice the noise floor; an amplitude swinging up and down, or an overshoot recovering, is not;
  * 3. `silent` if a noise floor was given and no envelope exceeds {@link SILENT_RATIO} times it;
  * 4. `settled` if each of the last `settleCycles` changes is below `settleTolerance` relative
- *    (which needs `settleCycles + 1` cycles);
+ *    (which needs `settleCycles + 1` cycles), either of the peak envelope or of the per-cycle
+ *    strength (√2 × r.m.s.). Each is fooled by a different numerical artefact and neither by
+ *    a real change of amplitude: a sample overshooting at a clip corner moves a cycle's peak
+ *    but hardly its power; a sharp corner between samples moves the power's quadrature by a
+ *    little but not a flat top's peak. A wandering amplitude moves both. The per-cycle mean
+ *    must be steady too, within `settleTolerance` of the envelope per cycle (else `unsettled`,
+ *    drifting: the DC levels still settle);
  * 5. `growing` if ln E rises by more than `settleTolerance` per cycle on average over the tail
  *    with at least {@link TREND_CONSISTENCY} of the changes rises;
  * 6. `unsettled` otherwise: too short to tell, relaxing (the tail falls as in 2 and so do that
@@ -87,8 +119,13 @@ export function judgeEnvelope(cycles: CycleTable, settings: StartupSettings): Ju
   if (settings.noiseFloor > 0 && largest <= SILENT_RATIO * settings.noiseFloor) {
     return { verdict: "silent", reason: { kind: "below-noise-floor", largest }, trend };
   }
-  if (n >= settings.settleCycles + 1 && trend.largestChange < tol) {
-    return { verdict: "settled", reason: { kind: "trend" }, trend };
+  if (n >= settings.settleCycles + 1) {
+    const steadyOn = trend.largestChange < tol ? "envelope" : tailTrend(cycles.strength, trend.changes).largestChange < tol ? "strength" : null;
+    if (steadyOn) {
+      const drift = meanDrift(cycles, trend.changes);
+      if (drift < tol) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn };
+      return { verdict: "unsettled", reason: { kind: "drifting", largest: drift }, trend };
+    }
   }
   if (trend.meanLogChange > tol && trend.risingFraction >= TREND_CONSISTENCY) {
     return { verdict: "growing", reason: { kind: "trend" }, trend };

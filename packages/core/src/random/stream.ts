@@ -1,5 +1,6 @@
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
+import { fmix32 } from "./mix.js";
 
 /** A reproducible stream of random numbers. */
 export interface RandomStream {
@@ -9,16 +10,6 @@ export interface RandomStream {
   normal(): number;
 }
 
-// The 32-bit finaliser of MurmurHash3 (Appleby, public domain): a bijective avalanche mix.
-function fmix32(h: number): number {
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h | 0;
-}
-
 function mixWords(seed: number, index: number, lane: number): number {
   const lo = seed >>> 0;
   const hi = Math.floor(seed / 2 ** 32) >>> 0;
@@ -26,7 +17,8 @@ function mixWords(seed: number, index: number, lane: number): number {
   h = fmix32(h ^ hi);
   h = fmix32(h ^ (index >>> 0));
   h = fmix32(h ^ (Math.floor(index / 2 ** 32) >>> 0) ^ Math.imul(lane, 0x7f4a7c15));
-  return h;
+  // the generator's state words as signed 32-bit integers
+  return h | 0;
 }
 
 /**

@@ -1,3 +1,9 @@
+/** The touched entries, in the order they were first touched, and the values last factored. */
+export interface DeviceJacobianState {
+  readonly entries: Int32Array;
+  readonly factored: Float64Array;
+}
+
 /**
  * The nonlinear devices' share of the Newton matrix (∂f/∂x + a·∂q/∂x), kept apart from the
  * constant G + a·C so that each iteration can tell whether the factorisation in use still
@@ -87,5 +93,19 @@ export class DeviceJacobian {
       if (change > fraction * Math.abs(base[k]! + was) && change > floor[rows[e]!]!) return true;
     }
     return false;
+  }
+
+  state(): DeviceJacobianState {
+    const entries = this.entries.slice(0, this.count);
+    return { entries, factored: Float64Array.from(entries, (k) => this.factored[k]!) };
+  }
+
+  /** Touches the snapshot's entries in their order and sets the factored values (on a fresh instance). */
+  restore(state: DeviceJacobianState): void {
+    const n = this.n;
+    state.entries.forEach((k, e) => {
+      this.touch(Math.floor(k / n), k % n);
+      this.factored[k] = state.factored[e]!;
+    });
   }
 }

@@ -9,6 +9,16 @@ import { markowitzOrder } from "./markowitz.js";
  */
 const KEEP_PIVOT = 0.1;
 
+/** A factorisation as a snapshot keeps it: the pattern, the pivot order and the packed factors. */
+export interface LuState {
+  readonly pattern: Uint8Array | undefined;
+  /** Whether the factors follow the sparse schedule of that order (else dense partial pivoting). */
+  readonly scheduled: boolean;
+  readonly perm: Int32Array;
+  readonly colPerm: Int32Array;
+  readonly lu: Float64Array;
+}
+
 /**
  * LU factorisation with partial (row) pivoting on a row-major Float64Array, after Golub & Van
  * Loan, *Matrix Computations*, Algorithm 3.4.1 (Gaussian elimination with partial pivoting).
@@ -245,5 +255,29 @@ export class LuSolver {
       y[i] = s / lu[ii]!;
     }
     for (let j = 0; j < n; j++) x[colPerm[j]!] = sign * y[j]!;
+  }
+
+  state(): LuState {
+    return {
+      pattern: this.pattern && Uint8Array.from(this.pattern),
+      scheduled: this.schedule !== undefined,
+      perm: Int32Array.from(this.perm),
+      colPerm: Int32Array.from(this.colPerm),
+      lu: Float64Array.from(this.lu),
+    };
+  }
+
+  /** Continues from a snapshot's factorisation: same order, same schedule, same factors. */
+  restore(state: LuState): void {
+    this.pattern = state.pattern && Uint8Array.from(state.pattern);
+    this.perm.set(state.perm);
+    this.colPerm.set(state.colPerm);
+    this.lu.set(state.lu);
+    this.schedule = undefined;
+    this.compiled = undefined;
+    if (state.scheduled && this.pattern) {
+      this.schedule = new EliminationSchedule(this.n, this.pattern, this.perm, this.colPerm);
+      if (this.compile) this.compiled = compileElimination(this.schedule, this.n, this.perm, this.colPerm);
+    }
   }
 }

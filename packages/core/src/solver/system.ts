@@ -1,17 +1,35 @@
 import type { Circuit, PartSpec } from "../circuit/circuit.js";
 import { GROUND } from "../circuit/circuit.js";
 import { inputError, isOnsetError } from "../circuit/diagnostic.js";
-import type { Device, LinearStamp, NonlinearTerm, SourceTerm, UnknownKind } from "../devices/device.js";
+import { didYouMean } from "../circuit/suggest.js";
+import type { Device, LinearStamp, NonlinearTerm, PowerOn, SourceTerm, UnknownRole as UnknownRoleOfPart } from "../devices/device.js";
 import { deviceModels } from "../devices/registry.js";
 import { nodesOfPart } from "../circuit/topology.js";
+import { unitOf, type Quantity, type QuantityUnit } from "./quantities.js";
 
+/** Where an unknown comes from: a node's voltage, a branch current, or a state inside a part. */
+export type UnknownRole = "node" | UnknownRoleOfPart;
+
+/**
+ * One row of the state table: what an unknown is, in what unit it is reported, how it is
+ * integrated and whether its truncation error steers the step.
+ */
 export interface UnknownInfo {
-  /** Node name, or `PART.i` / `PART.pole` for branch currents and internal states. */
+  /** Its probe name: the node name, or `PART.i` / `PART.pole` / `PART.junction`. */
   readonly label: string;
-  readonly kind: UnknownKind;
+  readonly role: UnknownRole;
+  /** The physical quantity (decides the unit and the absolute tolerances). */
+  readonly quantity: Quantity;
+  readonly unit: QuantityUnit;
   /** True for node voltages (rows that are KCL equations). */
   readonly isNode: boolean;
-  readonly backwardEuler: boolean;
+  /** Its own charge row is integrated by an L-stable formula at every step (see `UnknownOptions.stiff`). */
+  readonly stiff: boolean;
+  /**
+   * Some charge, linear or nonlinear, depends on it, so its local truncation error is estimated
+   * and steers the step.
+   */
+  readonly errorControl: boolean;
 }
 
 /** Sparse list of (row, col, value) entries. */
@@ -34,15 +52,23 @@ export interface MnaSystem {
   readonly deviceByName: ReadonlyMap<string, Device>;
   readonly sources: readonly SourceTerm[];
   readonly nonlinear: readonly NonlinearTerm[];
+  /** The nonlinear devices that watch their own change per step (see `NonlinearTerm.changeRatio`). */
+  readonly changeWatchers: readonly NonlinearTerm[];
   /** Row-major n×n. */
   readonly G: Float64Array;
   readonly C: Float64Array;
   readonly gTriplets: Triplets;
   readonly cTriplets: Triplets;
-  /** 1 where the row's charge is integrated with backward Euler at every step. */
-  readonly backwardEulerRows: Uint8Array;
-  /** Unknowns whose local truncation error steers the step: columns of C outside BE rows. */
+  /** 1 where the row's charge is integrated with an L-stable formula at every step. */
+  readonly stiffRows: Uint8Array;
+  /** Unknowns whose local truncation error steers the step (`errorControl`), in order. */
   readonly stateColumns: Int32Array;
+  /** Per state column: 1 when an L-stable row's charge depends on it (its error follows that formula). */
+  readonly stiffStates: Uint8Array;
+  /** 1 on rows that carry a charge (a linear C entry or a declared nonlinear charge); 0 on algebraic rows. */
+  readonly chargedRows: Uint8Array;
+  /** Every probe name of an unknown (labels and aliases) and its index. */
+  readonly stateIndex: ReadonlyMap<string, number>;
 }
 
 function toTriplets(dense: Float64Array, n: number): Triplets {
@@ -64,16 +90,50 @@ function toTriplets(dense: Float64Array, n: number): Triplets {
   return { rows, cols, values };
 }
 
+/** An unknown as allocated, before the charges decide its error control. */
+type Allocated = Omit<UnknownInfo, "errorControl">;
+
+/**
+ * Which unknowns some charge depends on (the linear C and the devices' declared nonlinear
+ * charges): 1 on a trapezoidal row's charge, 2 on an L-stable row's (whose formula has the
+ * larger error constant, so it decides where both apply), 0 for algebraic unknowns.
+ */
+function chargeDependence(n: number, C: Float64Array, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
+  const judged = new Uint8Array(n);
+  const mark = (row: number, col: number) => {
+    judged[col] = Math.max(judged[col]!, stiff[row] ? 2 : 1);
+  };
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) mark(i, j);
+  for (const [row, col] of declared) mark(row, col);
+  return judged;
+}
+
+function chargedRowsOf(n: number, C: Float64Array, declared: readonly (readonly [number, number])[]): Uint8Array {
+  const charged = new Uint8Array(n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) charged[i] = 1;
+  for (const [row] of declared) charged[row] = 1;
+  return charged;
+}
+
+/** How the circuit is set up for a run. */
+export interface BuildOptions {
+  /** Start from the unpowered circuit: DC levels and fixed rails ramp up (see `PowerOn`). */
+  readonly powerOn?: PowerOn;
+}
+
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
-export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = []): MnaSystem {
+export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = [], options: BuildOptions = {}): MnaSystem {
   const parts = [...circuit.parts, ...extraParts];
   const nodeIndex = new Map<string, number>();
-  const unknowns: UnknownInfo[] = [];
+  const stateIndex = new Map<string, number>();
+  const allocated: Allocated[] = [];
+  const declared: [number, number][] = [];
   for (const part of parts) {
     for (const node of nodesOfPart(part)) {
       if (node === GROUND || nodeIndex.has(node)) continue;
-      nodeIndex.set(node, unknowns.length);
-      unknowns.push({ label: node, kind: "voltage", isNode: true, backwardEuler: false });
+      nodeIndex.set(node, allocated.length);
+      stateIndex.set(node, allocated.length);
+      allocated.push({ label: node, role: "node", quantity: "voltage", unit: "V", isNode: true, stiff: false });
     }
   }
   const devices: Device[] = [];
@@ -81,7 +141,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
   for (const part of parts) {
     const model = deviceModels[part.kind];
     if (!model) {
-      throw inputError("unknown-kind", `unknown part kind '${part.kind}' (${part.name})`, { span: part.span });
+      throw inputError("unknown-kind", `unknown part kind '${part.kind}' (${part.name})${didYouMean(part.kind, Object.keys(deviceModels))}`, { span: part.span });
     }
     try {
       model.validate?.(part);
@@ -89,13 +149,22 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
         node(name) {
           if (name === GROUND) return -1;
           const i = nodeIndex.get(name);
-          if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'`, { span: part.span });
+          if (i === undefined) throw inputError("unknown-node", `${part.kind} ${part.name}: unknown node '${name}'${didYouMean(name, nodeIndex.keys())}`, { span: part.span });
           return i;
         },
-        addUnknown(label, kind, options) {
-          unknowns.push({ label, kind, isNode: false, backwardEuler: options?.backwardEuler ?? false });
-          return unknowns.length - 1;
+        addUnknown(label, quantity, options) {
+          stateIndex.set(label, allocated.length);
+          allocated.push({ label, role: options?.role ?? "internal", quantity, unit: unitOf(quantity), isNode: false, stiff: options?.stiff ?? false });
+          return allocated.length - 1;
         },
+        alias(label, index) {
+          if (index >= 0) stateIndex.set(label, index);
+        },
+        declareCharge(row, cols) {
+          if (row < 0) return;
+          for (const col of cols) if (col >= 0) declared.push([row, col]);
+        },
+        ...(options.powerOn ? { powerOn: options.powerOn } : {}),
       });
       devices.push(device);
       deviceByName.set(part.name, device);
@@ -106,7 +175,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
       throw error;
     }
   }
-  const n = unknowns.length;
+  const n = allocated.length;
   const G = new Float64Array(n * n);
   const C = new Float64Array(n * n);
   const stamp: LinearStamp = {
@@ -118,20 +187,11 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     },
   };
   for (const device of devices) device.stampLinear?.(stamp);
-  const backwardEulerRows = new Uint8Array(n);
-  unknowns.forEach((u, i) => {
-    if (u.backwardEuler) backwardEulerRows[i] = 1;
-  });
+  const stiffRows = Uint8Array.from(allocated, (u) => (u.stiff ? 1 : 0));
+  const judged = chargeDependence(n, C, declared, stiffRows);
+  const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j]! > 0 }));
   const states: number[] = [];
-  for (let j = 0; j < n; j++) {
-    if (backwardEulerRows[j]) continue;
-    for (let i = 0; i < n; i++) {
-      if (C[i * n + j] !== 0 && !backwardEulerRows[i]) {
-        states.push(j);
-        break;
-      }
-    }
-  }
+  for (let j = 0; j < n; j++) if (judged[j]) states.push(j);
   return {
     n,
     unknowns,
@@ -140,11 +200,20 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     deviceByName,
     sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
     nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
+    changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
     G,
     C,
     gTriplets: toTriplets(G, n),
     cTriplets: toTriplets(C, n),
-    backwardEulerRows,
+    stiffRows,
     stateColumns: Int32Array.from(states),
+    stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
+    chargedRows: chargedRowsOf(n, C, declared),
+    stateIndex,
   };
+}
+
+/** The same system with further excitations (a noise bank built from its devices). */
+export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
+  return { ...system, sources: [...system.sources, ...sources] };
 }

@@ -1,5 +1,7 @@
+import { QUANTITIES, type LteAbsoluteSetting, type NewtonAbsoluteSetting, type Quantity } from "./quantities.js";
+
 /** Accuracy settings of the solvers. Defaults are documented in DEVELOPERS.md. */
-export interface Tolerances {
+export interface Tolerances extends Readonly<Record<NewtonAbsoluteSetting | LteAbsoluteSetting, number>> {
   /**
    * Relative tolerance of a time step's Newton update, against max(|x|, the unknown's running
    * peak): a tenth of the LTE tolerance, on the same scale. @defaultValue 1e-5
@@ -11,26 +13,58 @@ export interface Tolerances {
   readonly newtonVoltage: number;
   /** Absolute tolerance of a Newton update on a current (A). @defaultValue 1e-12 */
   readonly newtonCurrent: number;
+  /** Absolute tolerance of a Newton update on a temperature (K). @defaultValue 1e-7 */
+  readonly newtonTemperature: number;
   /** Relative local-truncation-error tolerance, against each state's running peak. @defaultValue 1e-4 */
   readonly lteRelative: number;
   /** Absolute LTE tolerance on a voltage (V). @defaultValue 1e-6 */
   readonly lteVoltage: number;
   /** Absolute LTE tolerance on a current (A). @defaultValue 1e-9 */
   readonly lteCurrent: number;
+  /** Absolute LTE tolerance on a temperature (K). @defaultValue 1e-4 */
+  readonly lteTemperature: number;
   /** Newton iterations per transient step before the step is cut. @defaultValue 30 */
   readonly stepIterations: number;
   /** Newton iterations of one bias-point attempt. @defaultValue 150 */
   readonly biasIterations: number;
 }
 
+/** The solver settings an analysis uses unless `options.tolerances` changes some (DEVELOPERS.md, "Solver defaults"). */
 export const DEFAULT_TOLERANCES: Tolerances = {
   newtonRelative: 1e-5,
   biasRelative: 1e-9,
   newtonVoltage: 1e-9,
   newtonCurrent: 1e-12,
+  newtonTemperature: 1e-7,
   lteRelative: 1e-4,
   lteVoltage: 1e-6,
   lteCurrent: 1e-9,
+  lteTemperature: 1e-4,
   stepIterations: 30,
   biasIterations: 150,
 };
+
+/** Each unknown's absolute floor of the Newton update or of the truncation error, by its quantity. */
+export function absoluteTolerances(quantities: readonly { readonly quantity: Quantity }[], tolerances: Tolerances, test: "newton" | "lte"): Float64Array {
+  return Float64Array.from(quantities, (u) => tolerances[QUANTITIES[u.quantity][test]]);
+}
+
+/** A time step's Newton update is held to this fraction of its truncation-error tolerance. */
+const NEWTON_SHARE_RELATIVE = 0.1;
+/** …and its absolute floor to this fraction of the LTE floor. */
+const NEWTON_SHARE_ABSOLUTE = 1e-3;
+
+/**
+ * The defaults with the given settings on top. A truncation-error setting given without its
+ * Newton counterpart carries the Newton setting along (a tenth of the relative, a thousandth of
+ * the absolute), so that tightening the step control never leaves the iteration error above it.
+ */
+export function resolveTolerances(given: Partial<Tolerances> = {}): Tolerances {
+  const out: Record<string, number> = { ...DEFAULT_TOLERANCES, ...given };
+  if (given.lteRelative !== undefined && given.newtonRelative === undefined) out.newtonRelative = NEWTON_SHARE_RELATIVE * given.lteRelative;
+  for (const { newton, lte } of Object.values(QUANTITIES)) {
+    const floor = given[lte];
+    if (floor !== undefined && given[newton] === undefined) out[newton] = NEWTON_SHARE_ABSOLUTE * floor;
+  }
+  return out as unknown as Tolerances;
+}

@@ -15,8 +15,11 @@ export interface SpecReport {
   readonly pass: boolean;
 }
 
+/** The metrics a criterion can read: a start-up result's, or a Monte Carlo sample's. */
+export type JudgedMetrics = Pick<StartupMetrics, "verdict" | "frequency" | "amplitude" | "thd" | "startupTime" | "settlingTime" | "offset" | "rms" | "peakToPeak">;
+
 /** The startup metric a criterion reads (yield is read by the tolerance study). */
-export function metricValue(metrics: StartupMetrics, metric: SpecMetric): number | null {
+export function metricValue(metrics: JudgedMetrics, metric: SpecMetric): number | null {
   switch (metric) {
     case "frequency":
       return metrics.frequency;
@@ -53,12 +56,17 @@ export function meets(criterion: SpecCriterion, measured: number | null): boolea
 }
 
 /**
- * Checks the criteria on one start-up result. A run that did not settle has no settled
- * amplitude, THD or start-up time, so criteria on them fail.
+ * The value a (non-yield) criterion is judged on. A run that did not settle has no settled
+ * amplitude, THD or start-up time, so only its frequency is read and the other criteria fail.
  */
+export function judgedValue(metrics: JudgedMetrics, criterion: SpecCriterion): number | null {
+  return metrics.verdict === "settled" || criterion.metric === "frequency" ? metricValue(metrics, criterion.metric) : null;
+}
+
+/** Checks the criteria on one start-up result (see `judgedValue`); `yield` reads `yieldValue`. */
 export function evaluateSpec(criteria: readonly SpecCriterion[], metrics: StartupMetrics, yieldValue?: number): SpecReport {
   const results = criteria.map((criterion) => {
-    const measured = criterion.metric === "yield" ? (yieldValue ?? null) : metrics.verdict === "settled" || criterion.metric === "frequency" ? metricValue(metrics, criterion.metric) : null;
+    const measured = criterion.metric === "yield" ? (yieldValue ?? null) : judgedValue(metrics, criterion);
     return { criterion, measured, pass: meets(criterion, measured) };
   });
   return { criteria: results, pass: results.every((r) => r.pass) };

@@ -1,4 +1,4 @@
-/** The standard normal quantile for a two-sided 95 % interval, Φ⁻¹(0.975) (references §6). */
+/** The standard normal quantile for a two-sided 95 % interval, Φ⁻¹(0.975) (docs/references.md §6). */
 export const Z95 = 1.959963984540054;
 
 /** A closed interval [low, high]. */

@@ -1,37 +1,39 @@
-import type { Circuit } from "../circuit/circuit.js";
 import type { RunBudget } from "../analyses/limits.js";
-import { runSample, type SampleOutcome, type SampleSettings } from "./sample.js";
+import { runJob, type Job, type JobResult } from "./jobs.js";
 
-/** Runs the samples of a study, in this thread or on worker threads. */
-export interface SamplePool {
-  /** How many samples it runs at once. */
+/** Runs jobs (Monte Carlo samples, start-up seeds), in this thread or on worker threads. */
+export interface JobPool {
+  /** How many jobs it runs at once. */
   readonly jobs: number;
-  /** Runs one sample; rejects with a `RunLimitError` when the study's budget runs out. */
-  run(circuit: Circuit): Promise<SampleOutcome>;
-  /** Stops the pool; samples still running are rejected. */
+  /** Runs one job; rejects with a `RunLimitError` when the budget runs out. */
+  run<J extends Job>(job: J): Promise<JobResult<J>>;
+  /** Stops the pool; jobs still running are rejected. */
   close(): Promise<void>;
 }
 
-/** What a pool is made for: the samples' shared settings, how many samples at most, and the study's budget. */
-export interface SamplePoolContext {
-  readonly settings: SampleSettings;
-  /** The number of samples the study will run (no use for more workers than that). */
-  readonly samples: number;
+/** What a pool is made for: how many jobs at most, and the budget they all run within. */
+export interface JobPoolContext {
+  /** The number of jobs the caller will run (no use for more threads than that). */
+  readonly count: number;
+  /**
+   * The call's limits: each job's run is held to the steps and simulated time, all of them
+   * together to the wall time and the signal.
+   */
   readonly budget: RunBudget;
 }
 
 /**
- * Makes the pool a study runs on. {@link inThreadPool} is the default; `workerPool(jobs)` from
- * `@onset/core/node` runs samples on worker threads.
+ * Makes the pool a study or a `seeds=N` start-up runs on. {@link inThreadPool} is the default;
+ * `workerPool(jobs)` from `@onset/core/node` runs the jobs on worker threads.
  */
-export type SamplePoolFactory = (context: SamplePoolContext) => SamplePool;
+export type JobPoolFactory = (context: JobPoolContext) => JobPool;
 
-/** Runs every sample in this thread, one at a time (works on any JavaScript platform). */
-export const inThreadPool: SamplePoolFactory = ({ settings, budget }) => ({
+/** Runs every job in this thread, one at a time (works on any JavaScript platform). */
+export const inThreadPool: JobPoolFactory = ({ budget }) => ({
   jobs: 1,
-  run: (circuit) => {
+  run: <J extends Job>(job: J) => {
     try {
-      return Promise.resolve(runSample(circuit, settings, budget));
+      return Promise.resolve(runJob(job, budget));
     } catch (error) {
       return Promise.reject(error);
     }

@@ -1,10 +1,10 @@
 import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { runStartup } from "../analyses/startup.js";
-import { isRunLimitError, RunBudget, type RunLimits } from "../analyses/limits.js";
+import { isRunLimitError, RunBudget } from "../analyses/limits.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
-import { meets, metricValue } from "../spec/evaluate.js";
+import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 
 /** The metrics kept for every Monte Carlo sample (SI units). */
 export interface SampleMetrics {
@@ -51,8 +51,6 @@ export interface SampleSettings {
   readonly criteria: readonly SpecCriterion[];
   /** Solver tolerances to change from their defaults. */
   readonly tolerances?: Partial<Tolerances>;
-  /** Limits of each sample's run when no budget is handed to {@link runSample} (no signal: it cannot be posted). */
-  readonly limits?: Omit<RunLimits, "signal">;
 }
 
 /** The first startup analysis of a circuit, which every sample is judged on. */
@@ -65,7 +63,7 @@ export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined
  * values already elaborated into it, then its criteria. A simulation failure fails the sample;
  * a limit that runs out ({@link RunLimitError}) stops it and is thrown, so the study stops too.
  */
-export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget(settings.limits)): SampleOutcome {
+export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
   const analysis = startupAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {
@@ -86,14 +84,17 @@ export function runSample(circuit: Circuit, settings: SampleSettings, budget: Ru
       predictedFrequency,
       predictedGrowthRate,
     };
-    const failures = settings.criteria
-      .filter((c) => c.metric !== "yield")
-      .filter((c) => !meets(c, r.verdict === "settled" || c.metric === "frequency" ? metricValue(r, c.metric) : null))
+    const failures = sampleCriteria(settings.criteria)
+      .filter((c) => !meets(c, judgedValue(r, c)))
       .map((c) => c.text);
     return { metrics, pass: failures.length === 0 && r.verdict === "settled", failures: r.verdict === "settled" ? failures : [`verdict ${r.verdict}`, ...failures] };
   } catch (error) {
-    if (isRunLimitError(error)) throw error;
-    const message = isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
-    return { metrics: null, pass: false, failures: ["simulation failed"], error: message };
+    return { metrics: null, pass: false, failures: ["simulation failed"], error: failureMessage(error) };
   }
+}
+
+/** The message of a run that failed; a limit that ran out ({@link RunLimitError}) is thrown on, so the study stops too. */
+export function failureMessage(error: unknown): string {
+  if (isRunLimitError(error)) throw error;
+  return isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
 }

@@ -1,8 +1,8 @@
 import type { SpecCriterion } from "../circuit/circuit.js";
-import { meets } from "../spec/evaluate.js";
+import { judgedValue, meets, metricValue, sampleCriteria } from "../spec/evaluate.js";
 import { summarize, type PercentileSummary } from "../stats/percentiles.js";
 import { wilsonInterval, type Interval } from "../stats/wilson.js";
-import { SAMPLE_METRICS, type SampleMetrics, type SampleOutcome } from "./sample.js";
+import { SAMPLE_METRICS, type SampleOutcome } from "./sample.js";
 
 /** One finished Monte Carlo sample. */
 export interface ToleranceSample extends SampleOutcome {
@@ -16,16 +16,24 @@ export interface YieldSummary {
   readonly passed: number;
   readonly runs: number;
   readonly value: number;
-  /** 95 % Wilson score interval (references §6). */
+  /** 95 % Wilson score interval (docs/references.md §6). */
   readonly interval: Interval;
 }
 
-/** A tolerance study summed up: verdict counts, metric percentiles and the yield. */
+/** One criterion of the spec over the samples: the fraction that meets it, with its interval. */
+export interface CriterionYield extends YieldSummary {
+  readonly criterion: SpecCriterion;
+}
+
+/** A tolerance study summed up: verdict counts, metric percentiles, the yield and each criterion's own yield. */
 export interface ToleranceSummary {
   readonly runs: number;
   readonly verdicts: Readonly<Record<string, number>>;
   readonly percentiles: Readonly<Partial<Record<(typeof SAMPLE_METRICS)[number], PercentileSummary>>>;
+  /** The fraction of samples that settle and meet every criterion (the study's yield). */
   readonly yield: YieldSummary;
+  /** Each criterion but `yield` on its own, in the spec's order. */
+  readonly criteria: readonly CriterionYield[];
   /** The yield criterion from the spec, if any, and whether the yield met it. */
   readonly yieldCriterion: { readonly criterion: SpecCriterion; readonly pass: boolean } | null;
   /** The worst samples first: failures by how far they miss, then the tightest passes. */
@@ -36,10 +44,8 @@ export interface ToleranceSummary {
 function margin(sample: ToleranceSample, criteria: readonly SpecCriterion[]): number {
   if (!sample.metrics || sample.metrics.verdict !== "settled") return -Infinity;
   let worst = Infinity;
-  for (const c of criteria) {
-    const key = ({ startup: "startupTime", settling: "settlingTime" } as Record<string, keyof SampleMetrics>)[c.metric] ?? (c.metric as keyof SampleMetrics);
-    if (c.metric === "yield") continue;
-    const v = sample.metrics[key];
+  for (const c of sampleCriteria(criteria)) {
+    const v = metricValue(sample.metrics, c.metric);
     if (typeof v !== "number") return -Infinity;
     if (c.test === "within") {
       const half = (c.high - c.low) / 2 || Math.abs(c.high) || 1;
@@ -52,7 +58,10 @@ function margin(sample: ToleranceSample, criteria: readonly SpecCriterion[]): nu
   return worst;
 }
 
-/** Summarises samples (in any order): percentiles, verdict counts, yield with its interval, worst cases. */
+/**
+ * Summarises samples (in any order): percentiles, verdict counts, the yield and each criterion's
+ * own yield with their 95 % Wilson intervals, worst cases.
+ */
 export function summarizeSamples(samples: readonly ToleranceSample[], criteria: readonly SpecCriterion[], worstCount = 5): ToleranceSummary {
   const ordered = [...samples].sort((a, b) => a.index - b.index);
   const verdicts: Record<string, number> = {};
@@ -66,18 +75,23 @@ export function summarizeSamples(samples: readonly ToleranceSample[], criteria: 
     const summary = summarize(values);
     if (summary) percentiles[key] = summary;
   }
-  const passed = ordered.filter((s) => s.pass).length;
   const runs = ordered.length;
-  const value = runs > 0 ? passed / runs : 0;
+  const yieldOf = (passed: number): YieldSummary => ({ passed, runs, value: runs > 0 ? passed / runs : 0, interval: wilsonInterval(passed, runs) });
+  const overall = yieldOf(ordered.filter((s) => s.pass).length);
+  const perCriterion = sampleCriteria(criteria).map((criterion) => ({
+    criterion,
+    ...yieldOf(ordered.filter((s) => s.metrics !== null && meets(criterion, judgedValue(s.metrics, criterion))).length),
+  }));
   const yieldCriterion = criteria.find((c) => c.metric === "yield");
-  const yieldPass = yieldCriterion === undefined ? null : meets(yieldCriterion, value);
+  const yieldPass = yieldCriterion === undefined ? null : meets(yieldCriterion, overall.value);
   const scored = ordered.map((s) => ({ index: s.index, score: margin(s, criteria) }));
   scored.sort((a, b) => a.score - b.score || a.index - b.index);
   return {
     runs,
     verdicts,
     percentiles,
-    yield: { passed, runs, value, interval: wilsonInterval(passed, runs) },
+    yield: overall,
+    criteria: perCriterion,
     yieldCriterion: yieldCriterion ? { criterion: yieldCriterion, pass: yieldPass! } : null,
     worst: scored.slice(0, worstCount).map((s) => s.index),
   };

@@ -64,9 +64,13 @@ export function sweepValues(s: SweepAnalysis): number[] {
   return values;
 }
 
-/** An oscillating verdict: it settled, is still growing, or oscillates without settling. */
+/**
+ * An oscillating verdict: it settled (as the predicted sine, a relaxation or a parasitic
+ * oscillation), is still growing, or oscillates without settling. Silent, decaying and latched
+ * records do not oscillate.
+ */
 export function oscillates(verdict: StartupVerdict): boolean {
-  return verdict === "settled" || verdict === "growing" || verdict === "unsettled";
+  return verdict === "settled" || verdict === "relaxation" || verdict === "parasitic" || verdict === "growing" || verdict === "unsettled";
 }
 
 /** How a sweep runs: the run options of each setting, the nominal value, the bisection's precision and a progress callback. */
@@ -93,7 +97,7 @@ export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: 
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
     options.budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);
-    const point = { value, run: runCircuit(build({ [analysis.target]: value }), options) };
+    const point = { value, run: runCircuit(build({ [analysis.target]: value }), { ...options, seedSpread: false }) };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
   });

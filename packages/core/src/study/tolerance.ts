@@ -3,7 +3,7 @@ import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
-import { inThreadPool, type SamplePoolFactory } from "./pool.js";
+import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
 
 /** Builds the circuit with some values overridden by name (the elaborator behind it). */
@@ -22,13 +22,26 @@ export function shardIndices(runs: number, shard: Shard | undefined): number[] {
   return Array.from({ length: to - from }, (_, k) => from + k);
 }
 
+/**
+ * The tolerances with their nominals at a setting (a sweep value): a part written `(R)±1%`, or a
+ * per-use draw of `R`, is drawn around the swept R, not around the file's. The same values
+ * `onset run --sample I --set R=…` draws around, so a sample reproduces.
+ */
+export function nominalsAt(build: CircuitBuilder, tolerances: readonly ToleranceSpec[], fixed: Readonly<Record<string, number>>): ToleranceSpec[] {
+  const at = new Map(build(fixed).tolerances.map((t) => [t.target, t.nominal]));
+  return tolerances.map((t) => {
+    const nominal = at.get(t.target);
+    return nominal === undefined || nominal === t.nominal ? t : { ...t, nominal };
+  });
+}
+
 /** How a tolerance study runs: which samples, where, and within which limits. */
 export interface ToleranceStudyOptions extends BudgetOptions {
   /**
    * Where the samples run.
    * @defaultValue {@link inThreadPool} (this thread); `workerPool(jobs)` from `@onset/core/node` uses worker threads
    */
-  readonly pool?: SamplePoolFactory;
+  readonly pool?: JobPoolFactory;
   /** Run only this slice of the samples. */
   readonly shard?: Shard;
   /** Indices already done (resume): skipped. */
@@ -67,8 +80,9 @@ export async function runToleranceStudy(
   }
   const budget = budgetOf(options);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
+  const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
   const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}) };
-  const pool = (options.pool ?? inThreadPool)({ settings, samples: indices.length, budget });
+  const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;
   // One lane per worker keeps each busy; in this thread a lane yields between samples so
@@ -77,9 +91,9 @@ export async function runToleranceStudy(
     while (next < indices.length) {
       budget.check("between samples");
       const index = indices[next++]!;
-      const drawn = drawSample(tolerances, analysis.seed, index, analysis.dist);
+      const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
-      const outcome = await pool.run(circuit);
+      const outcome = await pool.run({ kind: "sample", circuit, settings });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);
       options.onSample?.(sample);

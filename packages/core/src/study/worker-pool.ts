@@ -1,15 +1,21 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
-import type { Circuit } from "../circuit/circuit.js";
-import { runLimitError, type RunLimitRecord } from "../analyses/limits.js";
-import { inThreadPool, type SamplePool, type SamplePoolFactory } from "./pool.js";
+import { runLimitError, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
+import type { Job, JobResult, SeedOutcome } from "./jobs.js";
+import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
 import type { SampleOutcome } from "./sample.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
 
-/** A worker's answer: the sample's outcome, or the limit that stopped it. */
-export type WorkerReply = { readonly outcome: SampleOutcome } | { readonly limit: RunLimitRecord };
+/** What a worker is sent: one job and the limits it runs within (the wall time as what is left). */
+export interface WorkerRequest {
+  readonly job: Job;
+  readonly limits: WorkerLimits;
+}
+
+/** A worker's answer: the job's outcome, or the limit that stopped it. */
+export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome } | { readonly limit: RunLimitRecord };
 
 /** The default number of workers: the machine's cores. */
 export function defaultJobs(): number {
@@ -28,30 +34,31 @@ function workerEntry(): URL | null {
 }
 
 interface Pending {
-  resolve(outcome: SampleOutcome): void;
+  resolve(outcome: SampleOutcome | SeedOutcome): void;
   reject(error: unknown): void;
 }
 
 /**
- * Runs samples on `jobs` worker threads (one sample each at a time); one job, or running from
- * TypeScript sources, runs them in this thread. The study's budget goes with every sample
- * (its wall time as what is left); an aborted signal or the end of the wall time terminates
- * the workers at once, so a sample stuck between its checks cannot hold the study.
+ * Runs jobs (Monte Carlo samples, start-up seeds) on `jobs` worker threads, one job each at a
+ * time; one thread, or running from TypeScript sources, runs them in this thread. The budget
+ * goes with every job (its wall time as what is left); an aborted signal or the end of the wall
+ * time terminates the workers at once, so a job stuck between its checks cannot hold the call.
+ * Every job is deterministic, so the results do not depend on `jobs`.
  */
-export function workerPool(jobs: number = defaultJobs()): SamplePoolFactory {
+export function workerPool(jobs: number = defaultJobs()): JobPoolFactory {
   return (context) => {
     const entry = workerEntry();
-    const count = Math.min(jobs, Math.max(1, context.samples));
+    const count = Math.min(jobs, Math.max(1, context.count));
     if (count <= 1 || entry === null) return inThreadPool(context);
     return startWorkers(entry, count, context);
   };
 }
 
-function startWorkers(entry: URL, jobs: number, { settings, budget }: Parameters<SamplePoolFactory>[0]): SamplePool {
+function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): JobPool {
   // Workers inherit the parent's flags, except those Node refuses in a worker.
   const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
   const idle: Worker[] = [];
-  const waiting: Array<{ circuit: Circuit; pending: Pending }> = [];
+  const waiting: Array<{ job: Job; pending: Pending }> = [];
   const busy = new Map<Worker, Pending>();
   const workers: Worker[] = [];
   let stopped: unknown = null;
@@ -70,7 +77,7 @@ function startWorkers(entry: URL, jobs: number, { settings, budget }: Parameters
   };
   const stopByBudget = () => {
     try {
-      budget.check("while samples ran on worker threads");
+      budget.check("while jobs ran on worker threads");
     } catch (error) {
       stop(error);
     }
@@ -81,9 +88,10 @@ function startWorkers(entry: URL, jobs: number, { settings, budget }: Parameters
   const left = budget.remaining();
   if (left !== Infinity) timer = setTimeout(stopByBudget, Math.max(0, left * 1000));
   timer?.unref?.();
-  const dispatch = (worker: Worker, circuit: Circuit, pending: Pending) => {
+  const dispatch = (worker: Worker, job: Job, pending: Pending) => {
     busy.set(worker, pending);
-    worker.postMessage({ circuit, settings: { ...settings, limits: budget.forWorker() } });
+    const request: WorkerRequest = { job, limits: budget.forWorker() };
+    worker.postMessage(request);
   };
   for (let k = 0; k < jobs; k++) {
     const worker = new Worker(entry, { execArgv });
@@ -96,30 +104,31 @@ function startWorkers(entry: URL, jobs: number, { settings, budget }: Parameters
         return;
       }
       const next = waiting.shift();
-      if (next) dispatch(worker, next.circuit, next.pending);
+      if (next) dispatch(worker, next.job, next.pending);
       else idle.push(worker);
       pending.resolve(reply.outcome);
     });
-    // A worker that fails outside a sample leaves the study without it: stop rather than wait.
+    // A worker that fails outside a job leaves the call without it: stop rather than wait.
     worker.on("error", (error) => stop(error));
     workers.push(worker);
     idle.push(worker);
   }
   return {
     jobs,
-    run(circuit) {
-      return new Promise<SampleOutcome>((resolve, reject) => {
+    run<J extends Job>(job: J) {
+      return new Promise<JobResult<J>>((resolve, reject) => {
         if (stopped !== null) {
           reject(stopped);
           return;
         }
+        const pending: Pending = { resolve: (outcome) => resolve(outcome as JobResult<J>), reject };
         const worker = idle.pop();
-        if (worker) dispatch(worker, circuit, { resolve, reject });
-        else waiting.push({ circuit, pending: { resolve, reject } });
+        if (worker) dispatch(worker, job, pending);
+        else waiting.push({ job, pending });
       });
     },
     close() {
-      stop(new Error("the sample pool was closed"));
+      stop(new Error("the job pool was closed"));
       return Promise.resolve();
     },
   };

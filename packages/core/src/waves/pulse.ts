@@ -28,24 +28,30 @@ export function pulseWave(s: PulseSettings): Wave {
   return {
     value(t, left) {
       let tau = t - s.delay;
+      // Times within rounding of a corner are on it: a corner delay + k·period + c is rounded
+      // when computed (`nextBreakpoint`), and the solver lands on exactly that rounded time.
+      const snap = 1e-12 * Math.max(Number.isFinite(s.period) ? s.period : 0, Math.abs(t));
       if (repeats && tau > 0) {
         const k = Math.floor(tau / s.period);
         tau -= k * s.period;
-        // Exactly at a period boundary the new cycle's rising edge applies.
-        if (left && tau === 0 && k > 0) tau = s.period;
+        if (tau > s.period - snap) tau = 0;
+        // At a period boundary the level just before it is the previous cycle's end.
+        if (left && tau <= snap && (k > 0 || tau > 0)) return levelInCycle(s.period, left);
+        if (tau <= snap) tau = 0;
       }
+      for (const c of corners) if (Math.abs(tau - c) <= snap) tau = c;
       return levelInCycle(tau, left);
     },
     nextBreakpoint(t) {
-      let base = s.delay;
-      if (repeats && t >= s.delay) base = s.delay + Math.floor((t - s.delay) / s.period) * s.period;
-      for (let cycle = 0; cycle < 2; cycle++) {
+      // Each cycle's corners from delay + k·period with k whole, never accumulated.
+      const first = repeats && t >= s.delay ? Math.floor((t - s.delay) / s.period) : 0;
+      for (let cycle = first; cycle < first + 2; cycle++) {
+        const base = s.delay + cycle * s.period;
         for (const c of corners) {
           const tc = base + c;
           if (tc > t && Number.isFinite(tc)) return tc;
         }
         if (!repeats) return Infinity;
-        base += s.period;
       }
       return Infinity;
     },

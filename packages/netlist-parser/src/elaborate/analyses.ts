@@ -1,8 +1,8 @@
-import type { AnalysisSpec, Probe, SourceSpan, SpecCriterion, SpecMetric, UnitSymbol } from "@onset/core";
-import { raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
+import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type UnitSymbol } from "@onset/core";
+import { problem, raise } from "../errors.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
-import { checkRange, type Elaboration, type NumberExpectation, type RangeRule } from "./context.js";
+import type { Elaboration } from "./context.js";
+import { checkRange, type NumberExpectation, type RangeRule } from "./value-checks.js";
 import { spanIn, type Located } from "./index-program.js";
 import { probeOf, probesOf } from "./probes.js";
 import type { Scope } from "./scope.js";
@@ -29,9 +29,12 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     probe: { type: "probe", summary: "probe the oscillation is measured on" },
     until: { type: "number", unit: "s", ...positive, words: ["auto"], summary: "end time, or auto" },
     "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
-    kick: { type: "word", words: ["noise", "none"], summary: "start-up excitation" },
-    level: { type: "number", unit: "A", ...positive, summary: "kick current level (r.m.s.)" },
-    seed: { type: "number", unit: "1", min: 0, integer: true, summary: "seed of the kick noise" },
+    kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
+    temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
+    ramp: { type: "number", unit: "s", min: 0, summary: "time the DC levels take to rise from 0 (kick=power-on)" },
+    level: { type: "number", unit: "A", ...positive, summary: "injected current, r.m.s. (kick=noise)" },
+    seed: { type: "number", unit: "1", min: 0, max: Number.MAX_SAFE_INTEGER, integer: true, summary: "seed of every noise stream" },
+    seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
   },
   response: {
     from: { type: "source", summary: "independent source driven with a unit small signal" },
@@ -184,15 +187,20 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     }
     case "startup": {
       const o = readOptions(ctx, a, globals, () => undefined);
+      const kick = (o.word.kick ?? "thermal") as StartupKick;
+      warnUnused(ctx, a, o, kick);
       return withSpan(
         {
           kind: "startup" as const,
           probe: o.probe.probe!,
           until: o.word.until === "auto" ? ("auto" as const) : (o.num.until ?? ("auto" as const)),
           ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
-          kick: (o.word.kick ?? "noise") as "noise" | "none",
+          kick,
           ...(o.num.level === undefined ? {} : { level: o.num.level }),
           ...(o.num.seed === undefined ? {} : { seed: o.num.seed }),
+          ...(o.num.temperature === undefined ? {} : { temperature: o.num.temperature }),
+          ...(o.num.ramp === undefined ? {} : { ramp: o.num.ramp }),
+          ...(o.num.seeds === undefined ? {} : { seeds: o.num.seeds }),
         },
         span,
       );
@@ -224,6 +232,29 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
   }
 }
 
+/** The `startup` options that act only under some kicks, and the kicks they act under. */
+const KICK_OPTIONS: Readonly<Record<string, readonly StartupKick[]>> = {
+  temperature: ["thermal", "power-on"],
+  ramp: ["power-on"],
+  level: ["noise"],
+  seed: ["thermal", "power-on", "noise"],
+  seeds: ["thermal", "power-on", "noise"],
+};
+
+/** A warning for each option written on a `startup` whose kick makes no use of it. */
+function warnUnused(ctx: Elaboration, l: Located<AnalysisStatement>, o: Parsed, kick: StartupKick): void {
+  for (const [key, kicks] of Object.entries(KICK_OPTIONS)) {
+    const node = o.given.get(key);
+    if (!node || kicks.includes(kick)) continue;
+    ctx.diagnostics.push(
+      problem("unused-option", `${key}= has no effect with kick=${kick}`, spanIn(l, node.keySpan), {
+        severity: "warning",
+        hint: `${key}= is the ${analysisOptions.startup[key]!.summary}; it acts with kick=${kicks.join(" or kick=")}`,
+      }),
+    );
+  }
+}
+
 function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, span: SourceSpan): AnalysisSpec {
   const target = l.node.target!;
   const info = ctx.targets.get(target.name);
@@ -241,7 +272,8 @@ function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, 
   if (log && !(from! > 0 && to! > 0)) raise("out-of-range", "a log sweep needs from= and to= above 0", spanIn(l, o.given.get(from! > 0 ? "to" : "from")!.value.span), { hint: "remove log, or sweep positive values" });
   for (const key of ["from", "to"] as const) {
     const v = o.num[key]!;
-    if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span));
+    const hint = info.summary === undefined ? undefined : `${target.name} is the ${info.summary}`;
+    if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span), hint);
   }
   return {
     kind: "sweep",

@@ -1,29 +1,15 @@
-import { type Diagnostic, type PartSpec, type SourceSpan, type ToleranceSpec, type UnitSymbol } from "@onset/core";
+import { didYouMean, type Diagnostic, type PartSpec, type SourceSpan, type ToleranceSpec, type UnitSymbol } from "@onset/core";
 import { AlreadyReported, raise, raisedDiagnostic } from "../errors.js";
-import { evaluate, soleLiteral, soleName, type EvalContext } from "../evaluate.js";
-import { formatQuantity } from "../format-number.js";
+import { evaluate, scaledName, soleLiteral, soleName, type EvalContext } from "../evaluate.js";
 import { parseQuantityWith } from "../quantity.js";
-import { didYouMean } from "../suggest.js";
-import type { Tolerance, Value } from "../syntax.js";
-import { unitMismatch, unitName, unitSuffix, type NumberLiteral, type UnitExpectation } from "../units.js";
+import type { Expr, Tolerance, Value } from "../syntax.js";
+import { unitName } from "../units.js";
+import { checkUnit, isIn, type NumberExpectation, type RangeRule } from "./value-checks.js";
 import { spanIn, type Located, type ProgramIndex } from "./index-program.js";
-import type { ParamEntry, Scope } from "./scope.js";
+import type { ParamEntry, Scope, ToleranceBand } from "./scope.js";
 
 /** Longest chain of parameters reading parameters; bounds the evaluator's recursion. */
 const MAX_PARAM_DEPTH = 256;
-
-/** What a numeric context accepts. */
-export interface NumberExpectation extends UnitExpectation {
-  readonly allowInfinite?: boolean;
-}
-
-/** Range rules of a number (the schema's). */
-export interface RangeRule {
-  readonly min?: number;
-  readonly minExclusive?: boolean;
-  readonly max?: number;
-  readonly integer?: boolean;
-}
 
 /** `--set` values by override name. */
 export type Overrides = Readonly<Record<string, string | number>>;
@@ -39,6 +25,24 @@ interface OverrideSlot {
 export interface TargetInfo {
   readonly expect: NumberExpectation;
   readonly range?: RangeRule;
+  /** What the value is, for hints (`wiper position …`). */
+  readonly summary?: string;
+}
+
+/**
+ * A place that reads parameters: a part's value or option (its override name, `R1`, `P1.at`, and
+ * the part), or another parameter's value. Per-use draws of an `each` parameter are named after
+ * it: `R@R1`, `R@P1.at`, `R@N1.R`.
+ */
+export interface UsePlace {
+  readonly target: string;
+  readonly part?: string;
+  readonly param?: ParamEntry;
+}
+
+/** Joins a parameter's override name and the place reading it into the name of its per-use draw. */
+export function perUseName(param: string, place: string): string {
+  return `${param}@${place}`;
 }
 
 /** The state of one elaboration: overrides, what has been found, and the problems so far. */
@@ -53,6 +57,14 @@ export class Elaboration {
   private readonly overrides = new Map<string, OverrideSlot>();
   /** Parameters whose written value is being evaluated, innermost last. */
   private readonly evaluating: ParamEntry[] = [];
+  /** The part value or option being evaluated, innermost last. */
+  private readonly places: UsePlace[] = [];
+  /** Every place that read each parameter directly, by the place's override name. */
+  readonly paramUses = new Map<ParamEntry, Map<string, UsePlace>>();
+  /** Units of the part values and options where a parameter stands alone (`(C)`), and where it is scaled by plain numbers (`(2*C)`). */
+  private readonly paramUnits = new Map<ParamEntry, { alone: Set<UnitSymbol>; scaled: Set<UnitSymbol> }>();
+  /** Tolerance entries a parameter made, by target: their unit is known once every use is seen. */
+  private readonly paramTolerances = new Map<string, ParamEntry>();
 
   constructor(
     readonly index: ProgramIndex,
@@ -129,6 +141,22 @@ export class Elaboration {
     return { file: where.file, param: (name, span) => this.param(scope, name, span) };
   }
 
+  /** Runs `work` with `place` as the reader of the parameters it evaluates. */
+  atPlace<T>(place: UsePlace, work: () => T): T {
+    this.places.push(place);
+    try {
+      return work();
+    } finally {
+      this.places.pop();
+    }
+  }
+
+  /** Who is reading parameters now: the innermost parameter being evaluated, else the part value or option. */
+  private currentPlace(): UsePlace | undefined {
+    const param = this.evaluating[this.evaluating.length - 1];
+    return param ? { target: param.target, param } : this.places[this.places.length - 1];
+  }
+
   param(scope: Scope, name: string, span: SourceSpan): number {
     let entry = scope.lookup(name);
     // A parameter's own expression does not see itself: in `block b (x) R=(R)` the default
@@ -140,7 +168,47 @@ export class Elaboration {
         hint: `define it with: param ${name} = …`,
       });
     }
+    const place = this.currentPlace();
+    if (place) {
+      const uses = this.paramUses.get(entry) ?? new Map<string, UsePlace>();
+      uses.set(place.target, place);
+      this.paramUses.set(entry, uses);
+      // Analysis options read the nominal value: a draw belongs to a part, not to a run setting.
+      if (entry.each) return this.perUseValue(entry, place);
+    }
     return this.paramValue(entry);
+  }
+
+  /**
+   * The value an `each` parameter has at one place: its own draw (`R@R1`) when the study sets
+   * it, else the nominal (the parameter's override or written value). The first read at a place
+   * records the per-use tolerance entry.
+   */
+  private perUseValue(entry: ParamEntry, place: UsePlace): number {
+    const target = perUseName(entry.target, place.target);
+    const info: TargetInfo = { expect: { unit: entry.unit }, summary: `value of parameter ${entry.target} drawn for ${place.target}` };
+    const nominal = this.paramValue(entry);
+    if (!this.targets.has(target)) {
+      this.registerTarget(target, info);
+      const band = this.eachBand(entry);
+      if (band) {
+        this.tolerances.push({ target, nominal, ...band, span: spanIn(entry.where, entry.value!.span) });
+        this.paramTolerances.set(target, entry);
+      }
+    }
+    return this.override(target, info) ?? nominal;
+  }
+
+  /** The tolerance band of an `each` parameter, evaluated once (a failure is reported once). */
+  eachBand(entry: ParamEntry): ToleranceBand | undefined {
+    if (entry.band !== undefined) return entry.band ?? undefined;
+    const v = entry.value;
+    const tol = v && (v.kind === "number" || v.kind === "paren") ? v.tolerance : undefined;
+    entry.band = null;
+    if (!tol) return undefined;
+    const band = this.attempt(() => this.tolerance(tol, { unit: entry.unit }, entry.evalScope, entry.where, `parameter ${entry.target}`));
+    entry.band = band ?? null;
+    return band;
   }
 
   /** A parameter's value: its override, else its written value. */
@@ -203,6 +271,7 @@ export class Elaboration {
           return value.negative ? -v : v;
         }
         const name = soleName(item);
+        if (expect.unit !== undefined && this.places.length > 0) this.noteUnit(scope, item, expect.unit);
         if (name && expect.unit !== undefined) {
           const entry = scope.lookup(name.name);
           if (entry?.unit !== undefined && entry.unit !== expect.unit && !(expect.unit === "1" && entry.unit === "1")) {
@@ -245,57 +314,53 @@ export class Elaboration {
     return result;
   }
 
-  /** Records a tolerance entry for Monte Carlo: the target, its written nominal and the band. */
-  addTolerance(target: string, nominal: number, band: { relative: number } | { absolute: number }, span: SourceSpan): void {
-    this.tolerances.push({ target, nominal, ...band, span });
+  /** Records a tolerance entry for Monte Carlo: the target, its written nominal, the band and the unit of its values. */
+  addTolerance(target: string, nominal: number, band: ToleranceBand, span: SourceSpan, unit: UnitSymbol | undefined): void {
+    this.tolerances.push({ target, nominal, ...band, ...(unit === undefined ? {} : { unit }), span });
   }
-}
 
-/** `is in ohms (Ω)`, or `is a plain ratio`. */
-function isIn(unit: UnitSymbol): string {
-  return unit === "1" ? "is a plain ratio" : `is in ${unitName(unit)}`;
-}
-
-function formName(literal: NumberLiteral): string {
-  switch (literal.form) {
-    case "percent":
-      return "percent";
-    case "decibel":
-      return "decibels";
-    case "degree":
-      return "degrees";
-    case "si":
-      return unitName(literal.symbol!);
+  /** Records the one shared tolerance entry of a parameter (its unit is filled in from its uses). */
+  addParamTolerance(entry: ParamEntry, band: ToleranceBand, span: SourceSpan): void {
+    this.tolerances.push({ target: entry.target, nominal: entry.result!, ...band, span });
+    this.paramTolerances.set(entry.target, entry);
   }
-}
 
-/** Raises `unit-mismatch` when a literal's unit does not fit. */
-export function checkUnit(literal: NumberLiteral, expect: NumberExpectation, what: string, span: SourceSpan | undefined): void {
-  const reason = unitMismatch(literal, expect);
-  if (reason === undefined) return;
-  const plain = `${literal.mantissa}${literal.prefix ?? ""}`;
-  const exp = expect.unit!;
-  const suffix = unitSuffix(exp);
-  const hint =
-    exp === "1"
-      ? `write a plain number such as ${plain}${expect.decibel ? ", a percentage or a gain in dB" : " or a percentage"}`
-      : `write ${plain} or ${plain}${suffix}`;
-  raise("unit-mismatch", `unit mismatch: '${literal.text}' is in ${formName(literal)}, but ${what} ${isIn(exp)}`, span, { hint });
-}
-
-/** Raises `out-of-range` or `not-integer` when `v` breaks the rule. */
-export function checkRange(v: number, rule: RangeRule, unit: UnitSymbol | undefined, what: string, span: SourceSpan | undefined, hint?: string): void {
-  const extra = hint === undefined ? {} : { hint };
-  if (rule.integer && Number.isFinite(v) && !Number.isInteger(v)) {
-    raise("not-integer", `${what} must be a whole number, got ${formatQuantity(v, unit)}`, span, extra);
+  /** The parameters that made one shared tolerance entry (not `each`), with the entry's span. */
+  sharedParamTolerances(): Array<{ entry: ParamEntry; span: SourceSpan | undefined }> {
+    return this.tolerances.flatMap((t) => {
+      const entry = this.paramTolerances.get(t.target);
+      return entry && !entry.each ? [{ entry, span: t.span }] : [];
+    });
   }
-  const { min, max } = rule;
-  const belowMin = min !== undefined && (rule.minExclusive ? !(v > min) : !(v >= min));
-  const aboveMax = max !== undefined && !(v <= max);
-  if (!belowMin && !aboveMax) return;
-  let rangeText: string;
-  if (min !== undefined && max !== undefined) rangeText = `between ${formatQuantity(min, unit)} and ${formatQuantity(max, unit)}`;
-  else if (min !== undefined) rangeText = `${rule.minExclusive ? "greater than" : "at least"} ${formatQuantity(min, unit)}`;
-  else rangeText = `at most ${formatQuantity(max!, unit)}`;
-  raise("out-of-range", `${what} must be ${rangeText}, got ${formatQuantity(v, unit)}`, span, extra);
+
+  /** Notes the unit of a part value or option on the parameter its expression stands for (alone or scaled). */
+  private noteUnit(scope: Scope, item: Expr, unit: UnitSymbol): void {
+    const scaled = scaledName(item);
+    const entry = scaled && scope.lookup(scaled.name);
+    if (!entry) return;
+    const units = this.paramUnits.get(entry) ?? { alone: new Set<UnitSymbol>(), scaled: new Set<UnitSymbol>() };
+    (soleName(item) ? units.alone : units.scaled).add(unit);
+    this.paramUnits.set(entry, units);
+  }
+
+  /**
+   * The unit of a parameter: written on its value, else the one unit of every part value or
+   * option it stands in alone, else of every one it is scaled into by plain numbers.
+   */
+  paramUnit(entry: ParamEntry): UnitSymbol | undefined {
+    if (entry.unit !== undefined) return entry.unit;
+    const units = this.paramUnits.get(entry);
+    if (!units) return undefined;
+    const set = units.alone.size > 0 ? units.alone : units.scaled;
+    return set.size === 1 ? [...set][0] : undefined;
+  }
+
+  /** The tolerance entries, in the order they were found, with the units of parameters filled in. */
+  toleranceSpecs(): ToleranceSpec[] {
+    return this.tolerances.map((t) => {
+      const entry = this.paramTolerances.get(t.target);
+      const unit = entry ? this.paramUnit(entry) : undefined;
+      return unit === undefined || t.unit !== undefined ? t : { ...t, unit };
+    });
+  }
 }

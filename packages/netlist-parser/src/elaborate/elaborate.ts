@@ -7,6 +7,7 @@ import { indexProgram } from "./index-program.js";
 import { elaborateScope } from "./instances.js";
 import { checkPreset } from "./presets.js";
 import { Scope } from "./scope.js";
+import { sharedDrawWarnings } from "./shared-draws.js";
 
 /** The full state after elaborating, for the checker and `overrideTargets`. */
 export function runElaboration(program: Program, overrides: Overrides): { ctx: Elaboration; analyses: AnalysisSpec[] } {
@@ -22,7 +23,7 @@ export function runElaboration(program: Program, overrides: Overrides): { ctx: E
     const spec = ctx.attempt(() => elaborateAnalysis(ctx, a, globals));
     if (spec) analyses.push(spec);
   }
-  ctx.diagnostics.push(...ctx.unusedOverrides());
+  ctx.diagnostics.push(...ctx.unusedOverrides(), ...sharedDrawWarnings(ctx, analyses));
   return { ctx, analyses };
 }
 
@@ -41,7 +42,7 @@ export function elaborate(program: Program, options: { overrides?: Overrides } =
     ...(title === undefined ? {} : { title }),
     parts: ctx.parts,
     analyses,
-    tolerances: ctx.tolerances,
+    tolerances: ctx.toleranceSpecs(),
   };
   return { circuit, diagnostics };
 }

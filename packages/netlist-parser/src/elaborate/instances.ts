@@ -1,8 +1,7 @@
-import type { UnitSymbol } from "@onset/core";
+import { didYouMean, type UnitSymbol } from "@onset/core";
 import { problem, raise } from "../errors.js";
 import { soleLiteral } from "../evaluate.js";
 import { reservedNames } from "../keywords.js";
-import { didYouMean } from "../suggest.js";
 import type { BlockStatement, OptionNode, PartStatement, Statement, UseStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { located, placeOf, spanIn, type Located } from "./index-program.js";
@@ -57,6 +56,8 @@ function declare(ctx: Elaboration, scope: Scope, statements: readonly Located<St
         evalScope: scope,
         span: spanIn(l, node.nameSpan),
         unit: writtenUnit(node.value),
+        paramLine: true,
+        ...(node.eachSpan ? { each: spanIn(l, node.eachSpan) } : {}),
       });
     } else if (node.kind === "part") {
       claim(ctx, scope, node.name, `${node.partKind} ${scope.prefix}${node.name}`, l, node.nameSpan);
@@ -66,16 +67,32 @@ function declare(ctx: Elaboration, scope: Scope, statements: readonly Located<St
   }
 }
 
-/** Evaluates every parameter of a scope (so errors in unused ones are reported) and records tolerances. */
+/**
+ * Evaluates every parameter of a scope (so errors in unused ones are reported) and records
+ * tolerances: one shared entry per toleranced parameter, except for `each` parameters, whose
+ * entries are made per use where they are read.
+ */
 function settle(ctx: Elaboration, scope: Scope): void {
   for (const entry of scope.params.values()) ctx.attempt(() => ctx.writtenValue(entry));
   for (const entry of scope.params.values()) {
     const v = entry.value;
-    if (!v || (v.kind !== "number" && v.kind !== "paren") || !v.tolerance || entry.state !== "done") continue;
-    const tol = v.tolerance;
+    const tol = v && (v.kind === "number" || v.kind === "paren") ? v.tolerance : undefined;
+    if (entry.each && !tol) {
+      ctx.diagnostics.push(
+        problem("each-without-tolerance", `parameter ${entry.target} is marked each but has no tolerance to draw`, entry.each, {
+          hint: `write a tolerance on the value, e.g. param ${entry.name} = 10k±1% each, or remove each`,
+        }),
+      );
+      continue;
+    }
+    if (!v || !tol || entry.state !== "done") continue;
+    if (entry.each) {
+      ctx.eachBand(entry);
+      continue;
+    }
     ctx.attempt(() => {
       const band = ctx.tolerance(tol, { unit: entry.unit }, entry.evalScope, entry.where, `parameter ${entry.target}`);
-      ctx.addTolerance(entry.target, entry.result!, band, spanIn(entry.where, v.span));
+      ctx.addParamTolerance(entry, band, spanIn(entry.where, v.span));
     });
   }
 }

@@ -1,8 +1,8 @@
-import type { OptionSchema, OptionValue, PartKindSchema } from "@onset/core";
+import { didYouMean, type OptionSchema, type OptionValue, type PartKindSchema } from "@onset/core";
 import { raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
 import type { OptionNode, Value } from "../syntax.js";
-import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
+import type { Elaboration, TargetInfo } from "./context.js";
+import { checkRange } from "./value-checks.js";
 import { spanIn } from "./index-program.js";
 import { convertOption, type ValueSite } from "./option-values.js";
 
@@ -21,6 +21,7 @@ export function targetOf(option: OptionSchema): TargetInfo | undefined {
   return {
     expect: { unit: option.unit, decibel: option.decibel ?? false, allowInfinite: option.allowInfinite ?? false },
     range: { min: option.min, minExclusive: option.minExclusive, max: option.max, integer: option.integer },
+    summary: option.summary,
   };
 }
 

@@ -1,7 +1,6 @@
-import type { OptionSchema, OptionValue, SourceSpan } from "@onset/core";
+import { didYouMean, type OptionSchema, type OptionValue, type SourceSpan } from "@onset/core";
 import { raise } from "../errors.js";
 import { soleLiteral, soleName } from "../evaluate.js";
-import { didYouMean } from "../suggest.js";
 import type { Expr, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { spanIn, type Located } from "./index-program.js";

@@ -2,7 +2,8 @@ import { isOnsetError, partKinds, type OptionSchema, type OptionValue, type Part
 import { deviceModels } from "@onset/core/engine";
 import { raise } from "../errors.js";
 import type { OptionNode, PartStatement } from "../syntax.js";
-import { checkRange, type Elaboration, type TargetInfo } from "./context.js";
+import type { Elaboration, TargetInfo } from "./context.js";
+import { checkRange } from "./value-checks.js";
 import { spanIn, type Located } from "./index-program.js";
 import { allowedOptions, targetOf, unknownOption, type OptionSource } from "./option-schema.js";
 import { convertOption, type ValueSite } from "./option-values.js";
@@ -24,11 +25,15 @@ function partValue(ctx: Elaboration, l: Located<PartStatement>, scope: Scope, sc
   const what = `the value of ${label}`;
   const set = ctx.override(name, info);
   let value = set;
-  if (stmt.value) {
-    const nominal = ctx.number(stmt.value, info.expect, scope, l, what);
-    if ((stmt.value.kind === "number" || stmt.value.kind === "paren") && stmt.value.tolerance) {
-      ctx.addTolerance(name, nominal, ctx.tolerance(stmt.value.tolerance, info.expect, scope, l, what), spanIn(l, stmt.value.span));
-    }
+  const written = stmt.value;
+  if (written) {
+    const nominal = ctx.atPlace({ target: name, part: name }, () => {
+      const v = ctx.number(written, info.expect, scope, l, what);
+      if ((written.kind === "number" || written.kind === "paren") && written.tolerance) {
+        ctx.addTolerance(name, v, ctx.tolerance(written.tolerance, info.expect, scope, l, what), spanIn(l, written.span), info.expect.unit);
+      }
+      return v;
+    });
     value = set ?? nominal;
   }
   const vs = schema.value!;
@@ -65,14 +70,18 @@ function partOptions(
     const { node, site } = source;
     const v = node.value;
     if (!info) {
-      options[key] = convertOption(ctx, key, option, v, site);
+      options[key] = ctx.atPlace({ target: `${name}.${key}`, part: name }, () => convertOption(ctx, key, option, v, site));
       continue;
     }
     const what = `${key}= of ${label}`;
-    const nominal = ctx.number(v, info.expect, site.scope, site.where, what);
-    if ((v.kind === "number" || v.kind === "paren") && v.tolerance) {
-      ctx.addTolerance(`${name}.${key}`, nominal, ctx.tolerance(v.tolerance, info.expect, site.scope, site.where, what), spanIn(site.where, v.span));
-    }
+    const target = `${name}.${key}`;
+    const nominal = ctx.atPlace({ target, part: name }, () => {
+      const n = ctx.number(v, info.expect, site.scope, site.where, what);
+      if ((v.kind === "number" || v.kind === "paren") && v.tolerance) {
+        ctx.addTolerance(target, n, ctx.tolerance(v.tolerance, info.expect, site.scope, site.where, what), spanIn(site.where, v.span), info.expect.unit);
+      }
+      return n;
+    });
     options[key] = set ?? nominal;
   }
   for (const [key, option] of Object.entries(allowed)) {
@@ -125,7 +134,7 @@ export function elaboratePart(ctx: Elaboration, l: Located<PartStatement>, scope
   for (const [key, source] of merged) if (!allowed[key] && !("fixed" in source)) unknownOption(key, schema, allowed, label, source.site, source.node.keySpan);
 
   const valueInfo: TargetInfo | undefined = schema.value
-    ? { expect: { unit: schema.value.unit }, range: { min: schema.value.min, minExclusive: schema.value.minExclusive } }
+    ? { expect: { unit: schema.value.unit }, range: { min: schema.value.min, minExclusive: schema.value.minExclusive }, summary: schema.value.summary }
     : undefined;
   if (valueInfo) ctx.registerTarget(name, valueInfo);
   for (const [key, option] of Object.entries(allowed)) {

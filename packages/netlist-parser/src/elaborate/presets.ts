@@ -1,6 +1,5 @@
-import { builtinPresets, partKinds, type PartKindSchema } from "@onset/core";
+import { didYouMean, builtinPresets, partKinds, type PartKindSchema } from "@onset/core";
 import { AlreadyReported, raise } from "../errors.js";
-import { didYouMean } from "../suggest.js";
 import type { OptionNode, PresetStatement } from "../syntax.js";
 import type { Elaboration } from "./context.js";
 import { spanIn, type Located } from "./index-program.js";

@@ -17,9 +17,18 @@ export interface ParamEntry {
   readonly span: SourceSpan;
   /** The unit written on a plain literal value, if any. */
   readonly unit: UnitSymbol | undefined;
+  /** A `param` line (not a block parameter): it may be written with `each`. */
+  readonly paramLine?: boolean;
+  /** Where `each` is written: every use draws its own value under a tolerance study. */
+  readonly each?: SourceSpan;
   state: "new" | "busy" | "done" | "failed";
   result?: number;
+  /** The tolerance band of an `each` parameter, evaluated once; null when it failed or is missing. */
+  band?: ToleranceBand | null;
 }
+
+/** A tolerance band: relative (a fraction) or absolute (in the value's unit). */
+export type ToleranceBand = { relative: number } | { absolute: number };
 
 /** What a name in a scope stands for (one namespace for parameters, parts and instances). */
 export interface NameEntry {

@@ -1,0 +1,139 @@
+import type { NoiseGenerator } from "../devices/device.js";
+import { LuSolver } from "../solver/lu.js";
+import type { SmallSignal } from "./linearize.js";
+import { fillPhasorMatrix } from "./phasor-matrix.js";
+import type { Pole } from "./poles.js";
+import type { ProbeWeights } from "./probes.js";
+
+// Catmull–Rom kernel φ on [−2, 2] (the noise streams' interpolation, see waves/smooth-noise.ts).
+function kernel(x: number): number {
+  const a = Math.abs(x);
+  if (a < 1) return 1.5 * a ** 3 - 2.5 * a ** 2 + 1;
+  if (a < 2) return -0.5 * a ** 3 + 2.5 * a ** 2 - 4 * a + 2;
+  return 0;
+}
+
+/** |Φ(f)/Φ(0)|² of the kernel at f = r·corner, tabulated for r ∈ [0, 2] (Φ vanishes beyond). */
+const SHAPE_POINTS = 256;
+const shapeTable = (() => {
+  const table = new Float64Array(SHAPE_POINTS + 1);
+  const n = 2048;
+  for (let i = 0; i <= SHAPE_POINTS; i++) {
+    // Samples 1/(2·corner) apart: f = r·corner is r/2 cycles per sample interval.
+    const cycles = (2 * i) / SHAPE_POINTS / 2;
+    let sum = 0;
+    for (let m = 0; m < n; m++) {
+      const x = -2 + (4 * (m + 0.5)) / n;
+      sum += kernel(x) * Math.cos(2 * Math.PI * cycles * x);
+    }
+    table[i] = ((sum * 4) / n) ** 2;
+  }
+  return table;
+})();
+
+/** The noise streams' spectral shape at frequency f: 1 at DC, 0.9996 at corner/10, 0 from 2·corner. */
+export function noiseShape(f: number, corner: number): number {
+  const r = (f / corner) * (SHAPE_POINTS / 2);
+  if (!(r < SHAPE_POINTS)) return 0;
+  const i = Math.floor(r);
+  const u = r - i;
+  return shapeTable[i]! * (1 - u) + shapeTable[i + 1]! * u;
+}
+
+/** Frequencies to integrate over: log-spaced over the band, dense around every resonance in it. */
+function frequencyGrid(corner: number, poles: readonly Pole[]): Float64Array {
+  const top = 2 * corner;
+  // Below a ten-thousandth of the band the response is flat enough for one trapezoid from DC.
+  const bottom = top * 1e-4;
+  const points: number[] = [0];
+  const perDecade = 20;
+  const decades = Math.log10(top / bottom);
+  for (let k = 0; k <= decades * perDecade; k++) points.push(bottom * 10 ** (k / perDecade));
+  for (const p of poles) {
+    const f = Math.abs(p.imag) / (2 * Math.PI);
+    if (!(p.imag > 0 && f < top)) continue;
+    // A resonance of half-width |σ|/2π: points at sinh-spaced multiples of it, out to ±30 widths.
+    const width = Math.max(Math.abs(p.real) / (2 * Math.PI), f * 1e-9);
+    for (let k = -20; k <= 20; k++) points.push(f + width * Math.sinh(0.2 * k));
+  }
+  const sorted = Float64Array.from(points.filter((f) => f >= 0 && f <= top)).sort();
+  return sorted.filter((f, i) => i === 0 || f > sorted[i - 1]!);
+}
+
+/**
+ * The r.m.s. level at a probe due to independent white noise generators, through the circuit
+ * linearised at its bias point: √(Σ_g N_g ∫ |H_g(f)|²·shape(f) df) over the streams' band,
+ * where H_g is the probe's response to generator g's injection (mathematics: the output
+ * spectrum of a linear system driven by uncorrelated inputs is Σ |H_g|²·S_g; Parseval).
+ *
+ * All H_g at one frequency come from one solve of the transposed (adjoint) system
+ * (G + jωC)ᵀ·y = p, H_g = yᵀ·b_g, where p is the probe's phasor weights. For a circuit whose
+ * poles lie in the right half-plane, |H(jω)| is still finite; the result is then the level its
+ * mirror-image stable circuit would reach, which is also the level an exponentially growing
+ * oscillation starts from (the variance ∫₀^∞ e^(−2σt)·N dt of the noise its mode collects).
+ */
+export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: readonly NoiseGenerator[], corner: number, poles: readonly Pole[]): number {
+  const { n, G, C } = ss;
+  if (generators.length === 0 || n === 0) return 0;
+  const n2 = 2 * n;
+  // The real form of (G + jωC)ᵀ has the same nonzeros at every frequency: a sparse LU on that
+  // pattern keeps a large circuit's hundreds of solves cheap.
+  const pattern = new Uint8Array(n2 * n2);
+  for (let i = 0; i < n; i++) {
+    pattern[i * n2 + i] = 1;
+    pattern[(n + i) * n2 + n + i] = 1;
+    for (let j = 0; j < n; j++) {
+      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
+        pattern[i * n2 + j] = 1;
+        pattern[i * n2 + n + j] = 1;
+        pattern[(n + i) * n2 + j] = 1;
+        pattern[(n + i) * n2 + n + j] = 1;
+      }
+    }
+  }
+  const lu = new LuSolver(n2, { compile: false });
+  lu.setPattern(pattern);
+  const m = new Float64Array(n2 * n2);
+  const rhs = new Float64Array(n2);
+  const y = new Float64Array(n2);
+  const grid = frequencyGrid(corner, poles);
+  const power = new Float64Array(grid.length);
+  for (let k = 0; k < grid.length; k++) {
+    const f = grid[k]!;
+    const omega = 2 * Math.PI * f;
+    // the adjoint (G + jωC)ᵀ in real form
+    fillPhasorMatrix(ss, omega, m, true);
+    for (let i = 0; i < n; i++) {
+      rhs[i] = probe.value[i]!;
+      rhs[n + i] = omega * probe.rate[i]!;
+    }
+    if (!lu.factor(m)) {
+      power[k] = Number.NaN;
+      continue;
+    }
+    lu.solve(rhs, y);
+    let sum = 0;
+    for (const g of generators) {
+      let re = 0;
+      let im = 0;
+      if (g.to >= 0) {
+        re += g.gain * y[g.to]!;
+        im += g.gain * y[n + g.to]!;
+      }
+      if (g.from >= 0) {
+        re -= g.gain * y[g.from]!;
+        im -= g.gain * y[n + g.from]!;
+      }
+      sum += g.density * (re * re + im * im);
+    }
+    power[k] = sum * noiseShape(f, corner);
+  }
+  // Trapezoidal rule over the grid; a frequency where the circuit is singular is left out.
+  let total = 0;
+  for (let k = 1; k < grid.length; k++) {
+    const a = power[k - 1]!;
+    const b = power[k]!;
+    if (Number.isFinite(a) && Number.isFinite(b)) total += 0.5 * (a + b) * (grid[k]! - grid[k - 1]!);
+  }
+  return Math.sqrt(total);
+}

@@ -1,0 +1,53 @@
+import type { WaveformShape } from "./waveform-shape.js";
+
+/** What the circuit's bias point predicts, linearised: the rightmost complex pair and real poles. */
+export interface LinearPrediction {
+  /** Hz of the dominant (rightmost) complex pair, or null when every pole is real. */
+  readonly frequency: number | null;
+  /** True when that pair lies in the right half-plane: a sine oscillation starts. */
+  readonly starts: boolean;
+  /** True when a real pole lies in the right half-plane: the bias point runs away without ringing. */
+  readonly realGrowth: boolean;
+}
+
+/** Kinds of steady oscillation. */
+export type SteadyKind = "settled" | "relaxation" | "parasitic";
+
+/** Why a steady oscillation got its kind. */
+export type SteadyReason =
+  | { readonly kind: "settled"; readonly driven?: number }
+  | { readonly kind: "relaxation"; readonly why: "square" | "triangle" | "no-ringing"; readonly predicted: number | null }
+  | { readonly kind: "parasitic"; readonly predicted: number | null };
+
+/** Slope crest above this: a square-like swing (edges far steeper than a sine of its size). */
+export const SQUARE_CREST = 4;
+/** Slope crest below this: a triangle (straight slopes; a sine has π/2 ≈ 1.57). */
+export const TRIANGLE_CREST = 1.2;
+/** A frequency this factor or more away from the predicted pair's is not that pair's oscillation. */
+export const FAR_FACTOR = 2;
+/** A frequency within this fraction of a periodic source's follows that source. */
+export const DRIVEN_TOLERANCE = 0.01;
+
+/**
+ * The kind of a steady oscillation, from the linear prediction (the mechanism, the same at every
+ * probe) first and the probe's waveform shape only where the mechanism leaves it open:
+ * 1. `settled` if its frequency is one of `drives`, a periodic source's (a driven waveform, any shape);
+ * 2. `relaxation` if the bias point has no growing complex pair but a growing real pole: the
+ *    loop runs away to a limit and recovers instead of ringing;
+ * 3. `settled` if its frequency lies within a factor {@link FAR_FACTOR} of the predicted pair's:
+ *    the sine oscillation the poles predict, however hard it is limited;
+ * 4. otherwise (far from the pair, or no pair): `relaxation` if the probe sees a square-like
+ *    swing (slope crest above {@link SQUARE_CREST}) or a triangle (below {@link TRIANGLE_CREST}),
+ *    else `parasitic`. Without a prediction, only the shape is used (square or triangle:
+ *    `relaxation`, else `settled`).
+ */
+export function steadyKind(shape: WaveformShape, frequency: number, prediction: LinearPrediction | undefined, drives: readonly number[] = []): SteadyReason {
+  const driven = drives.find((f) => Math.abs(frequency / f - 1) <= DRIVEN_TOLERANCE);
+  if (driven !== undefined) return { kind: "settled", driven };
+  const switching = shape.slopeCrest > SQUARE_CREST ? "square" : shape.slopeCrest < TRIANGLE_CREST ? "triangle" : null;
+  if (!prediction) return switching ? { kind: "relaxation", why: switching, predicted: null } : { kind: "settled" };
+  const predicted = prediction.frequency;
+  if (!prediction.starts && prediction.realGrowth) return { kind: "relaxation", why: "no-ringing", predicted };
+  if (predicted !== null && Math.abs(Math.log(frequency / predicted)) < Math.log(FAR_FACTOR)) return { kind: "settled" };
+  return switching ? { kind: "relaxation", why: switching, predicted } : { kind: "parasitic", predicted };
+}

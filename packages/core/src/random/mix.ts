@@ -1,0 +1,9 @@
+/** The 32-bit finaliser of MurmurHash3 (Appleby, public domain): a bijective avalanche mix, as an unsigned word. */
+export function fmix32(h: number): number {
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h >>> 0;
+}

@@ -1,0 +1,221 @@
+import { simulationError } from "../circuit/diagnostic.js";
+import { Linearisation } from "../solver/linearisation.js";
+import { LuSolver } from "../solver/lu.js";
+import { NewtonSolver } from "../solver/newton.js";
+import type { MnaSystem } from "../solver/system.js";
+import type { Tolerances } from "../solver/tolerances.js";
+
+/** Where one period of the map starts: the unknowns x₀ at time t₀, and the period T. */
+export interface PeriodStart {
+  readonly t0: number;
+  readonly x: Float64Array;
+  readonly period: number;
+}
+
+/** d x_N / d(x₀, T): n rows of n + 1 columns (the last is T), row-major. */
+export interface MapSensitivity {
+  readonly columns: number;
+  readonly x: Float64Array;
+}
+
+/** TR-BDF2's stage fraction 2 − √2: both stages then share one Newton matrix G + a·C, a = 2/(γh). */
+const GAMMA = 2 - Math.SQRT2;
+/** The second stage's weights of q(t+γh) and q(t) (Bank et al. 1985; Hosea & Shampine 1996). */
+const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
+const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
+
+/**
+ * One period of the circuit by TR-BDF2 on a fixed grid whose steps are fractions of T: the map
+ * x₀ ↦ x_N whose fixed point is the periodic steady state of the discretised circuit. TR-BDF2
+ * is second order, one-step (the state is x alone) and L-stable, so a stiff mode — an op-amp's
+ * pole, a capacitor on an amplifier's output — is damped within a step instead of ringing, and
+ * the map's derivative has the orbit's true Floquet multipliers near zero for such modes.
+ *
+ * A step h from xₖ: the trapezoidal stage to t + γh,
+ *   R₁ = G·x + f(x) + a·(q(x) − qₖ) − q̇ₖ − u = 0,  a = 2/(γh),
+ * then BDF2 through tₖ, tₖ + γh and tₖ₊₁,
+ *   R₂ = G·x + f(x) + a·(q(x) − c₁·q_γ + c₂·qₖ) − u = 0,  c₁ = 1/(γ(2−γ)), c₂ = (1−γ)²/(γ(2−γ)),
+ * with the same a (for γ = 2 − √2). The rate q̇ at a point is u − G·x − f(x) on charged rows and 0
+ * on algebraic ones. With `sensitivity`, dx_N/d(x₀, T) rides along (the variational equations
+ * of the two stages; ∂R/∂h is −(q̇_γ + q̇ₖ)/h for the first stage and −q̇ₖ₊₁/h for the second).
+ * Its eigenvalues in x₀ are the orbit's Floquet multipliers (Aprille & Trick 1972;
+ * docs/references.md §9).
+ */
+export class PeriodicMap {
+  readonly n: number;
+  readonly solver: NewtonSolver;
+  /** The unknowns at every grid point of the last run (N + 1 of them). */
+  states: Float64Array[] = [];
+  private readonly system: MnaSystem;
+  private here: Linearisation;
+  private readonly middle: Linearisation;
+  private next: Linearisation;
+  private readonly lu: LuSolver;
+  private readonly jacobian: Float64Array;
+  // Charges and rates at xₖ, x_γ and xₖ₊₁ (here and next swap at each step).
+  private qHere: Float64Array;
+  private rateHere: Float64Array;
+  private readonly qMiddle: Float64Array;
+  private readonly rateMiddle: Float64Array;
+  private qNext: Float64Array;
+  private rateNext: Float64Array;
+  private readonly xMiddle: Float64Array;
+  private readonly xNext: Float64Array;
+  private readonly sMiddle: Float64Array;
+  private readonly rhs: Float64Array;
+  private readonly column: Float64Array;
+  private readonly iterations: number;
+
+  constructor(system: MnaSystem, tolerances: Tolerances) {
+    const n = system.n;
+    this.n = n;
+    this.system = system;
+    this.solver = new NewtonSolver(system, tolerances);
+    this.solver.setMode("step");
+    this.iterations = tolerances.stepIterations;
+    this.here = new Linearisation(system);
+    this.middle = new Linearisation(system);
+    this.next = new Linearisation(system);
+    this.lu = new LuSolver(n);
+    this.jacobian = new Float64Array(n * n);
+    this.qHere = new Float64Array(n);
+    this.rateHere = new Float64Array(n);
+    this.qMiddle = new Float64Array(n);
+    this.rateMiddle = new Float64Array(n);
+    this.qNext = new Float64Array(n);
+    this.rateNext = new Float64Array(n);
+    this.xMiddle = new Float64Array(n);
+    this.xNext = new Float64Array(n);
+    this.sMiddle = new Float64Array(n * (n + 1));
+    this.rhs = new Float64Array(n * (n + 1));
+    this.column = new Float64Array(n);
+  }
+
+  /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from a linearisation at x. */
+  private chargeAndRate(x: Float64Array, at: Linearisation, q: Float64Array, rate: Float64Array): void {
+    const { n, system } = this;
+    const u = this.solver.u;
+    const { G, C, chargedRows } = system;
+    for (let i = 0; i < n; i++) {
+      let cx = at.charges[i]!;
+      let gx = at.f[i]!;
+      for (let j = 0; j < n; j++) {
+        cx += C[i * n + j]! * x[j]!;
+        gx += G[i * n + j]! * x[j]!;
+      }
+      q[i] = cx;
+      rate[i] = chargedRows[i] ? u[i]! - gx : 0;
+    }
+  }
+
+  /**
+   * Integrates one period from `start` over the grid (step k is fractions[k]·T). `predictor`
+   * (the unknowns at each grid point of an earlier run) starts each step's Newton solves.
+   */
+  run(start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, sensitivity: boolean): { x: Float64Array; sensitivity: MapSensitivity | undefined } {
+    const { n, solver } = this;
+    const N = fractions.length;
+    const T = start.period;
+    if (this.states.length !== N + 1) this.states = Array.from({ length: N + 1 }, () => new Float64Array(n));
+    this.states[0]!.set(start.x);
+    const columns = n + 1;
+    const sx = sensitivity ? new Float64Array(n * columns) : undefined;
+    if (sx) for (let i = 0; i < n; i++) sx[i * columns + i] = 1;
+    this.here.at(start.x);
+    solver.loadSources(start.t0, 1, false);
+    this.chargeAndRate(start.x, this.here, this.qHere, this.rateHere);
+    let elapsed = 0;
+    for (let k = 0; k < N; k++) {
+      const h = fractions[k]! * T;
+      const a = 2 / (GAMMA * h);
+      const t = start.t0 + elapsed * T;
+      elapsed += fractions[k]!;
+      solver.setCoefficients(a, a);
+      const history = solver.history;
+      // Stage 1: trapezoidal to t + γh.
+      for (let i = 0; i < n; i++) history[i] = a * this.qHere[i]! + this.rateHere[i]!;
+      solver.loadSources(t + GAMMA * h, 1, false);
+      const x = this.states[k]!;
+      const guess = predictor?.[k + 1];
+      for (let i = 0; i < n; i++) this.xMiddle[i] = guess ? x[i]! + GAMMA * (guess[i]! - x[i]!) : x[i]!;
+      this.solve(this.xMiddle, k, N);
+      this.middle.at(this.xMiddle);
+      this.chargeAndRate(this.xMiddle, this.middle, this.qMiddle, this.rateMiddle);
+      // Stage 2: BDF2 through t, t + γh and t + h.
+      for (let i = 0; i < n; i++) history[i] = a * (STAGE_NOW * this.qMiddle[i]! - STAGE_BEFORE * this.qHere[i]!);
+      solver.loadSources(start.t0 + elapsed * T, 1, false);
+      this.xNext.set(guess ?? this.xMiddle);
+      this.solve(this.xNext, k, N);
+      this.next.at(this.xNext);
+      this.chargeAndRate(this.xNext, this.next, this.qNext, this.rateNext);
+      if (sx) this.propagate(sx, columns, a, h, fractions[k]!);
+      this.states[k + 1]!.set(this.xNext);
+      // The new point becomes the start of the next step.
+      [this.here, this.next] = [this.next, this.here];
+      [this.qHere, this.qNext] = [this.qNext, this.qHere];
+      [this.rateHere, this.rateNext] = [this.rateNext, this.rateHere];
+    }
+    return { x: this.states[N]!, sensitivity: sx ? { columns, x: sx } : undefined };
+  }
+
+  private solve(x: Float64Array, k: number, N: number): void {
+    // A fresh Jacobian at every stage: Newton then converges quadratically to the tight tolerance.
+    this.solver.refreshJacobian();
+    if (!this.solver.solve(x, this.iterations).converged) {
+      throw simulationError("orbit-step", `the periodic-orbit map did not converge at step ${k + 1} of ${N}`, {
+        hint: "the guessed orbit is too far from a periodic solution; run the start-up longer before refining",
+      });
+    }
+  }
+
+  /** Factors G_x + a·C_x of a linearisation into the dense LU. */
+  private factorAt(at: Linearisation, a: number): void {
+    const { n, jacobian } = this;
+    for (let k = 0; k < n * n; k++) jacobian[k] = at.G[k]! + a * at.C[k]!;
+    if (!this.lu.factor(jacobian)) throw simulationError("orbit-singular", "the periodic-orbit map's Jacobian is singular");
+  }
+
+  /** out = lu⁻¹·rhs, column by column (n rows of `columns`). */
+  private solveColumns(out: Float64Array, columns: number): void {
+    const { n, rhs, column } = this;
+    for (let c = 0; c < columns; c++) {
+      for (let i = 0; i < n; i++) column[i] = rhs[i * columns + c]!;
+      this.lu.solve(column, column);
+      for (let i = 0; i < n; i++) out[i * columns + c] = column[i]!;
+    }
+  }
+
+  /**
+   * One step of the variational equations: with `here` at xₖ, `middle` at x_γ, `next` at xₖ₊₁,
+   *   J_γ·S_γ = (a·C_x(xₖ) − G_x(xₖ)|charged)·Sₖ − ∂R₁/∂h·f·e_T,
+   *   J₊·Sₖ₊₁ = a·(c₁·C_x(x_γ)·S_γ − c₂·C_x(xₖ)·Sₖ) − ∂R₂/∂h·f·e_T.
+   */
+  private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number): void {
+    const { n, here, middle, next, rhs, sMiddle, system } = this;
+    const charged = system.chargedRows;
+    const product = (weightC: number, weightG: number, at: Linearisation, s: Float64Array, add: boolean) => {
+      if (!add) rhs.fill(0);
+      for (let i = 0; i < n; i++) {
+        const g = charged[i] ? weightG : 0;
+        const row = i * columns;
+        for (let j = 0; j < n; j++) {
+          const w = weightC * at.C[i * n + j]! + g * at.G[i * n + j]!;
+          if (w === 0) continue;
+          const from = j * columns;
+          for (let c = 0; c < columns; c++) rhs[row + c] += w * s[from + c]!;
+        }
+      }
+    };
+    // Stage 1. q̇_γ = u − G·x_γ − f (its rate) equals a·(q_γ − qₖ) − q̇ₖ at the solution.
+    this.factorAt(middle, a);
+    product(a, -1, here, sx, false);
+    for (let i = 0; i < n; i++) rhs[i * columns + n] += ((this.rateMiddle[i]! + this.rateHere[i]!) / h) * fraction;
+    this.solveColumns(sMiddle, columns);
+    // Stage 2.
+    this.factorAt(next, a);
+    product(a * STAGE_NOW, 0, middle, sMiddle, false);
+    product(-a * STAGE_BEFORE, 0, here, sx, true);
+    for (let i = 0; i < n; i++) rhs[i * columns + n] += (this.rateNext[i]! / h) * fraction;
+    this.solveColumns(sx, columns);
+  }
+}

@@ -1,0 +1,177 @@
+import { EigenvalueDecomposition, Matrix } from "ml-matrix";
+import { simulationError } from "../circuit/diagnostic.js";
+import { LuSolver } from "../solver/lu.js";
+import { QUANTITIES } from "../solver/quantities.js";
+import type { MnaSystem } from "../solver/system.js";
+import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
+
+/** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
+export interface Multiplier {
+  readonly re: number;
+  readonly im: number;
+}
+
+/** A periodic steady state of the discretised circuit, found by shooting. */
+export interface PeriodicOrbit {
+  readonly start: PeriodStart;
+  /** The grid: step k is fractions[k]·T. */
+  readonly fractions: Float64Array;
+  /** The unknowns at the N + 1 grid points, times t₀ + T·(Σ fractions up to k). */
+  readonly states: readonly Float64Array[];
+  /** Newton iterations of the shooting (periods integrated). */
+  readonly iterations: number;
+  /** Largest remaining mismatch x_N − x₀, in units of the unknowns' tolerances. */
+  readonly mismatch: number;
+  /** Floquet multipliers, largest magnitude first (the trivial one, ≈ 1 for an autonomous orbit, included); empty unless asked for. */
+  readonly multipliers: readonly Multiplier[];
+}
+
+/**
+ * The factored Newton matrix of a shooting, kept between iterations (a chord iteration) and
+ * handed from one grid to the next finer one, whose map barely differs.
+ */
+export interface ShootingJacobian {
+  readonly lu: LuSolver;
+  readonly phase: number;
+}
+
+/** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
+export interface ShootingOptions {
+  /** Autonomous (the period is unknown, a phase condition fixes the start) or driven (T fixed). */
+  readonly autonomous: boolean;
+  /** Largest number of periods integrated. @defaultValue 25 */
+  readonly maxIterations?: number;
+  /** The orbit is accepted when x_N − x₀ is within this fraction of each unknown's peak (plus its floor). @defaultValue 1e-9 */
+  readonly relative?: number;
+  readonly tolerances?: Partial<Tolerances>;
+  /** Compute the Floquet multipliers at the converged orbit (one more period with sensitivities). */
+  readonly multipliers?: boolean;
+  /** A factored Newton matrix to start from (a chord iteration until it stops contracting). */
+  readonly jacobian?: ShootingJacobian;
+}
+
+/** The map's inner Newton is held this far below the orbit's own tolerance, so the map is smooth enough to shoot on. */
+const INNER_SHARE = 1e-2;
+/** A chord iteration that shrinks the mismatch less than this much per period gets a fresh Jacobian. */
+const CHORD_CONTRACTION = 0.2;
+
+/** The map's Newton tolerances: a hundredth of the orbit's, relative and absolute. */
+function innerTolerances(base: Tolerances, relative: number): Tolerances {
+  const inner: Record<string, number> = { ...base, newtonRelative: INNER_SHARE * relative };
+  for (const q of Object.values(QUANTITIES)) inner[q.newton] = INNER_SHARE * base[q.newton];
+  return inner as unknown as Tolerances;
+}
+
+/**
+ * Newton's method on the periodicity condition of the discrete map (shooting; Aprille & Trick
+ * 1972, and for an autonomous circuit the period as an unknown with a phase condition, as in
+ * Kundert, White & Sangiovanni-Vincentelli 1990; docs/references.md §9). Unknowns: the state
+ * x₀ and T; equations x_N − x₀ = 0 and x₀[j] = its guessed value, for the state j moving
+ * fastest at the start (where a shift in time changes it most). The Jacobian
+ * [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] comes from the sensitivities the map carries; it is kept while
+ * the iteration contracts well (each period with sensitivities costs n + 1 extra solves per step).
+ */
+export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
+  const relative = options.relative ?? 1e-9;
+  const base = resolveTolerances(options.tolerances);
+  const map = new PeriodicMap(system, innerTolerances(base, relative));
+  const { n } = map;
+  const floor = absoluteTolerances(system.unknowns, base, "newton");
+  const peak = new Float64Array(n);
+  const trace = predictor ?? [guess.x];
+  for (const x of trace) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i]!, Math.abs(x[i]!));
+  map.solver.reference.set(peak);
+  const x0 = Float64Array.from(guess.x);
+  let T = guess.period;
+  const unknowns = n + (options.autonomous ? 1 : 0);
+  let jacobian = options.jacobian;
+  const phase = jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
+  const residual = new Float64Array(unknowns);
+  let states: readonly Float64Array[] | undefined = predictor;
+  let previous = Infinity;
+  const maxIterations = options.maxIterations ?? 25;
+  for (let iteration = 1; iteration <= maxIterations; iteration++) {
+    const fresh = jacobian === undefined;
+    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh);
+    states = map.states;
+    let mismatch = 0;
+    for (let i = 0; i < n; i++) {
+      residual[i] = end.x[i]! - x0[i]!;
+      mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
+    }
+    if (mismatch <= 1) {
+      const start = { t0: guess.t0, x: Float64Array.from(x0), period: T };
+      const kept = map.states.map((v) => Float64Array.from(v));
+      let multipliers: Multiplier[] = [];
+      if (options.multipliers) {
+        const s = fresh ? end.sensitivity! : map.run(start, fractions, kept, true).sensitivity!;
+        multipliers = floquetMultipliers(s, n);
+      }
+      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: jacobian ?? newtonMatrix(end.sensitivity!, n, unknowns, phase) };
+    }
+    if (fresh) jacobian = newtonMatrix(end.sensitivity!, n, unknowns, phase);
+    else if (mismatch > CHORD_CONTRACTION * previous) {
+      // The kept matrix no longer predicts the map well: the next period recomputes it.
+      jacobian = undefined;
+      previous = Infinity;
+      continue;
+    }
+    previous = mismatch;
+    if (options.autonomous) residual[n] = 0;
+    jacobian!.lu.solveNegated(residual, residual);
+    // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
+    let scale = 1;
+    if (options.autonomous && Math.abs(residual[n]!) > 0.2 * T) scale = (0.2 * T) / Math.abs(residual[n]!);
+    for (let i = 0; i < n; i++) x0[i] += scale * residual[i]!;
+    if (options.autonomous) T += scale * residual[n]!;
+    if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
+  }
+  throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
+    hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
+  });
+}
+
+/** [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] (or Sx − I for a driven orbit), factored. */
+function newtonMatrix(s: MapSensitivity, n: number, unknowns: number, phase: number): ShootingJacobian {
+  const matrix = new Float64Array(unknowns * unknowns);
+  for (let i = 0; i < n; i++) {
+    for (let c = 0; c < n; c++) matrix[i * unknowns + c] = s.x[i * s.columns + c]!;
+    matrix[i * unknowns + i] -= 1;
+    if (unknowns > n) matrix[i * unknowns + n] = s.x[i * s.columns + n]!;
+  }
+  if (unknowns > n) matrix[n * unknowns + phase] = 1;
+  const lu = new LuSolver(unknowns);
+  if (!lu.factor(matrix)) throw simulationError("orbit-singular", "the shooting equations are singular: the orbit's period is not determined");
+  return { lu, phase };
+}
+
+/**
+ * The unknown the phase condition holds fixed: the charged state whose value changes fastest,
+ * relative to its own scale, over the first step of the guessed period.
+ */
+function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: Float64Array, floor: Float64Array): number {
+  let best = -1;
+  let bestRate = -1;
+  const first = trace[0]!;
+  const next = trace[Math.min(1, trace.length - 1)]!;
+  for (const j of system.stateColumns) {
+    const rate = Math.abs(next[j]! - first[j]!) / (peak[j]! + floor[j]!);
+    if (rate > bestRate) {
+      bestRate = rate;
+      best = j;
+    }
+  }
+  if (best < 0) throw simulationError("orbit-no-state", "the circuit has no charged state to fix the orbit's phase on");
+  return best;
+}
+
+/** Eigenvalues of the monodromy matrix dx_N/dx₀, largest magnitude first. */
+function floquetMultipliers(s: MapSensitivity, n: number): Multiplier[] {
+  const monodromy = new Matrix(n, n);
+  for (let i = 0; i < n; i++) for (let c = 0; c < n; c++) monodromy.set(i, c, s.x[i * s.columns + c]!);
+  const eig = new EigenvalueDecomposition(monodromy);
+  return eig.realEigenvalues
+    .map((re, k) => ({ re, im: eig.imaginaryEigenvalues[k]! }))
+    .sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
+}

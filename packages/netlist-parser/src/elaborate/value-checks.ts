@@ -1,0 +1,66 @@
+import type { SourceSpan, UnitSymbol } from "@onset/core";
+import { raise } from "../errors.js";
+import { formatQuantity } from "../format-number.js";
+import { unitMismatch, unitName, unitSuffix, type NumberLiteral, type UnitExpectation } from "../units.js";
+
+/** What a numeric context accepts. */
+export interface NumberExpectation extends UnitExpectation {
+  readonly allowInfinite?: boolean;
+}
+
+/** Range rules of a number (the schema's). */
+export interface RangeRule {
+  readonly min?: number;
+  readonly minExclusive?: boolean;
+  readonly max?: number;
+  readonly integer?: boolean;
+}
+
+/** `is in ohms (Ω)`, or `is a plain ratio`. */
+export function isIn(unit: UnitSymbol): string {
+  return unit === "1" ? "is a plain ratio" : `is in ${unitName(unit)}`;
+}
+
+function formName(literal: NumberLiteral): string {
+  switch (literal.form) {
+    case "percent":
+      return "percent";
+    case "decibel":
+      return "decibels";
+    case "degree":
+      return "degrees";
+    case "si":
+      return unitName(literal.symbol!);
+  }
+}
+
+/** Raises `unit-mismatch` when a literal's unit does not fit. */
+export function checkUnit(literal: NumberLiteral, expect: NumberExpectation, what: string, span: SourceSpan | undefined): void {
+  const reason = unitMismatch(literal, expect);
+  if (reason === undefined) return;
+  const plain = `${literal.mantissa}${literal.prefix ?? ""}`;
+  const exp = expect.unit!;
+  const suffix = unitSuffix(exp);
+  const hint =
+    exp === "1"
+      ? `write a plain number such as ${plain}${expect.decibel ? ", a percentage or a gain in dB" : " or a percentage"}`
+      : `write ${plain} or ${plain}${suffix}`;
+  raise("unit-mismatch", `unit mismatch: '${literal.text}' is in ${formName(literal)}, but ${what} ${isIn(exp)}`, span, { hint });
+}
+
+/** Raises `out-of-range` or `not-integer` when `v` breaks the rule. */
+export function checkRange(v: number, rule: RangeRule, unit: UnitSymbol | undefined, what: string, span: SourceSpan | undefined, hint?: string): void {
+  const extra = hint === undefined ? {} : { hint };
+  if (rule.integer && Number.isFinite(v) && !Number.isInteger(v)) {
+    raise("not-integer", `${what} must be a whole number, got ${formatQuantity(v, unit)}`, span, extra);
+  }
+  const { min, max } = rule;
+  const belowMin = min !== undefined && (rule.minExclusive ? !(v > min) : !(v >= min));
+  const aboveMax = max !== undefined && !(v <= max);
+  if (!belowMin && !aboveMax) return;
+  let rangeText: string;
+  if (min !== undefined && max !== undefined) rangeText = `between ${formatQuantity(min, unit)} and ${formatQuantity(max, unit)}`;
+  else if (min !== undefined) rangeText = `${rule.minExclusive ? "greater than" : "at least"} ${formatQuantity(min, unit)}`;
+  else rangeText = `at most ${formatQuantity(max!, unit)}`;
+  raise("out-of-range", `${what} must be ${rangeText}, got ${formatQuantity(v, unit)}`, span, extra);
+}
