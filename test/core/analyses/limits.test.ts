@@ -7,12 +7,16 @@ import {
   RunBudget,
   RunLimitError,
   runCircuit,
+  runCircuitInParallel,
   runStartup,
   runSweep,
   runToleranceStudy,
   runTransient,
   type Circuit,
+  type JobPoolContext,
+  type JobPoolFactory,
   type RunLimits,
+  type StartupResult,
 } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { thrownBy } from "../../support/thrown.js";
@@ -192,6 +196,65 @@ describe("studies honour the limits", () => {
     const circuit = build(RC);
     expect(limitOf(() => runTransient(circuit, analysisOf(circuit, "transient"), { budget })).limit).toBe("maxWallTime");
     expect(budget.remaining()).toBeLessThan(0);
+  });
+});
+
+describe("start-up seeds and excitations honour the limits", () => {
+  const SEEDED = WIEN.replace("startup probe=o until=auto", "startup probe=o until=auto seeds=3");
+
+  test("seeds=N run in this thread: an abort after the first seed stops the further seeds with the call's error, not as failed seeds", () => {
+    const circuit = build(SEEDED);
+    const controller = new AbortController();
+    let ends = 0;
+    const e = limitOf(() =>
+      runCircuit(circuit, {
+        limits: { signal: controller.signal },
+        // The first run's last progress call has time = until: abort there, between the seeds.
+        onProgress: (t, until) => {
+          if (t === until) {
+            ends++;
+            controller.abort();
+          }
+        },
+      }),
+    );
+    expect([e.diagnostic.code, ends]).toEqual(["aborted", 1]);
+    expect(e.message).toBe("the run was aborted after the bias point and poles");
+  });
+
+  test("seeds=N on a pool: the pool is made with the call's budget and one job per further seed, and gives the same spread as runCircuit", async () => {
+    const circuit = build(SEEDED);
+    const made: JobPoolContext[] = [];
+    const recording: JobPoolFactory = (context) => {
+      made.push(context);
+      return inThreadPool(context);
+    };
+    const budget = new RunBudget({ maxSteps: 1e6 });
+    const pooled = await runCircuitInParallel(circuit, { budget, pool: recording });
+    expect(made.map((c) => [c.count, c.budget === budget])).toEqual([[2, true]]);
+    const spread = (pooled.results[0] as StartupResult).startupTimeSpread!;
+    expect(spread.seeds).toEqual([1, 2, 3]);
+    expect(spread).toEqual((runCircuit(circuit).results[0] as StartupResult).startupTimeSpread);
+  });
+
+  test("seeds=N on a pool: a limit in a further seed rejects the call", async () => {
+    const circuit = build(SEEDED);
+    const controller = new AbortController();
+    // Aborted once the first seed is done, as the pool is made for the others.
+    const aborting: JobPoolFactory = (context) => {
+      controller.abort();
+      return inThreadPool(context);
+    };
+    await expect(runCircuitInParallel(circuit, { limits: { signal: controller.signal }, pool: aborting })).rejects.toMatchObject({
+      limit: "signal",
+      diagnostic: { code: "aborted", message: "the run was aborted after the bias point and poles" },
+    });
+  });
+
+  test.each(["power-on", "thermal", "noise", "none"])("kick=%s: the start-up run stops at the step limit", (kick) => {
+    const circuit = build(WIEN.replace("startup probe=o until=auto", `startup probe=o until=auto kick=${kick}`));
+    const e = limitOf(() => runStartup(circuit, analysisOf(circuit, "startup"), { limits: { maxSteps: 500 } }));
+    expect([e.diagnostic.code, e.reached]).toEqual(["step-limit", 501]);
   });
 });
 
