@@ -1,4 +1,4 @@
-import type { RunLimits } from "@onset/core";
+import { didYouMean, type RunLimits } from "@onset/core";
 import { parseQuantity, SOURCE_LIMIT_FLAGS, SOURCE_LIMITS, type SourceLimits } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { usageError } from "../cli-error.js";
@@ -53,7 +53,10 @@ export function limitsOf(args: ParsedArgs): CommandLimits {
     const eq = item.indexOf("=");
     const name = eq < 0 ? item : item.slice(0, eq);
     const flag = LIMIT_FLAGS.find((l) => l.name === name);
-    if (!flag) throw usageError("bad-limit", `--limit: unknown limit '${name}'`, `limits: ${LIMIT_FLAGS.map((l) => l.name).join(", ")}`);
+    if (!flag) {
+      const names = LIMIT_FLAGS.map((l) => l.name);
+      throw usageError("bad-limit", `--limit: unknown limit '${name}'${didYouMean(name, names)}`, `limits: ${names.join(", ")}`);
+    }
     if (eq < 0) throw usageError("bad-limit", `--limit '${item}' is not NAME=VALUE`, `write for example --limit ${flag.name}=${flag.key === "maxSimulatedTime" ? "10" : "250k"}`);
     const value = flag.read(item.slice(eq + 1), `--limit ${name}`);
     (flag.key in SOURCE_LIMITS ? source : run)[flag.key] = value;
