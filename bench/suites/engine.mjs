@@ -1,5 +1,5 @@
 // Issue 2: the MNA transient engine on linear circuits at a fixed step.
-import { buildSystem, randomStream, TransientStepper } from "@onset/core";
+import { buildSystem, randomStream, TransientStepper } from "@onset/core/engine";
 import { Matrix, solve } from "ml-matrix";
 import { printTable, timeBest } from "../table.mjs";
 

@@ -2,7 +2,8 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { createRequire } from "node:module";
-import { buildSystem, opampConstants, THERMAL_VOLTAGE, TransientStepper, risingCrossings } from "@onset/core";
+import { opampConstants, THERMAL_VOLTAGE, risingCrossings } from "@onset/core";
+import { buildSystem, TransientStepper } from "@onset/core/engine";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { printTable, timeBest } from "../table.mjs";
 

@@ -2,6 +2,7 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { runToleranceStudy, summarizeSamples, specCriteria } from "@onset/core";
+import { workerPool } from "@onset/core/node";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { printTable } from "../table.mjs";
 
@@ -25,7 +26,7 @@ export async function run() {
   const results = {};
   for (const jobs of [1, 2]) {
     const started = performance.now();
-    const samples = await runToleranceStudy(build, nominal.tolerances, analysis, criteria, { jobs });
+    const samples = await runToleranceStudy(build, nominal.tolerances, analysis, criteria, { pool: workerPool(jobs) });
     const ms = performance.now() - started;
     results[jobs] = { ms, samples };
     const summary = summarizeSamples(samples, criteria);

@@ -1,10 +1,12 @@
 import { defineConfig } from "tsup";
 
+// Entries: the language (index, no Node built-ins) and the file-system reader (node).
 export default defineConfig({
-  entry: ["src/index.ts"],
+  entry: { index: "src/index.ts", node: "src/node.ts" },
   format: ["esm", "cjs"],
-  dts: { entry: "src/index.ts", compilerOptions: { composite: false } },
-  sourcemap: true,
+  dts: { entry: { index: "src/index.ts", node: "src/node.ts" }, compilerOptions: { composite: false } },
+  splitting: true,
+  sourcemap: false,
   clean: true,
   target: "node20",
 });

@@ -10,4 +10,5 @@ export const EXIT = {
   simulationFailed: 3,
 } as const;
 
+/** One of the command's exit statuses (see {@link EXIT}). */
 export type ExitStatus = (typeof EXIT)[keyof typeof EXIT];

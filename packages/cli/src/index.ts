@@ -1,6 +1,7 @@
 /**
  * The `onset` command line as a library: `runCli` runs a command line against given streams;
  * the formatting and plotting helpers the reports use are exported too.
+ * @packageDocumentation
  */
 export { runCli } from "./cli.js";
 export type { CliIo } from "./io.js";

@@ -1,10 +1,18 @@
 /**
  * The Onset circuit language: lexer, parser, elaboration to the engine's circuit model,
- * checker, formatter and diagnostic renderer.
+ * checker, formatter and diagnostic renderer. No file I/O here (it runs on any JavaScript
+ * platform): includes are read through a caller's reader, and `@onset/netlist-parser/node`
+ * reads the file system.
+ * @packageDocumentation
  */
 export { parseText } from "./parser.js";
 export { loadProgram } from "./loader.js";
-export type { IncludeResolver } from "./loader.js";
+export type { IncludeResolver, LoadedProgram, SourceText } from "./loader.js";
+export { buildCircuit, loadSource } from "./circuit-source.js";
+export type { BuiltCircuit, CircuitSource, LoadSourceOptions } from "./circuit-source.js";
+export { SourceError } from "./source-error.js";
+export { SOURCE_LIMIT_FLAGS, SOURCE_LIMITS, sourceLimits } from "./source-limits.js";
+export type { SourceLimits } from "./source-limits.js";
 export { elaborate, overrideTargets } from "./elaborate/elaborate.js";
 export type { Overrides } from "./elaborate/context.js";
 export { checkProgram } from "./check.js";

@@ -16,6 +16,7 @@ export interface Identifier {
 
 // ---------------------------------------------------------------- expressions (inside parentheses)
 
+/** An expression inside parentheses: numbers, parameter names, operators and function calls. */
 export type Expr =
   | { readonly kind: "number"; readonly literal: NumberLiteral; readonly span: Span }
   | { readonly kind: "name"; readonly name: string; readonly span: Span }
@@ -35,6 +36,7 @@ export interface Tolerance {
   readonly span: Span;
 }
 
+/** What stands after `=` or in a value position: a number, an expression, a word, a list or points, with an optional tolerance. */
 export type Value =
   /** A number outside parentheses, e.g. `10k`, `-12`, `22k±1%`. */
   | { readonly kind: "number"; readonly negative: boolean; readonly literal: NumberLiteral; readonly tolerance?: Tolerance; readonly span: Span }
@@ -63,6 +65,7 @@ export interface BlockParamNode {
 
 // ---------------------------------------------------------------- statements
 
+/** `title "…"`. */
 export interface TitleStatement {
   readonly kind: "title";
   readonly text: string;
@@ -70,6 +73,7 @@ export interface TitleStatement {
   readonly span: Span;
 }
 
+/** `param NAME = VALUE`. */
 export interface ParamStatement {
   readonly kind: "param";
   readonly name: string;
@@ -82,6 +86,7 @@ export interface ParamStatement {
   readonly span: Span;
 }
 
+/** `include "PATH"`, with the included program once the loader has read it. */
 export interface IncludeStatement {
   readonly kind: "include";
   readonly path: string;
@@ -93,6 +98,7 @@ export interface IncludeStatement {
   readonly repeated?: boolean;
 }
 
+/** `preset NAME KIND options…`: named option values for a part kind. */
 export interface PresetStatement {
   readonly kind: "preset";
   readonly name: string;
@@ -103,6 +109,7 @@ export interface PresetStatement {
   readonly span: Span;
 }
 
+/** A part line: `KIND NAME pins… [value] [options…]`. */
 export interface PartStatement {
   readonly kind: "part";
   readonly partKind: string;
@@ -115,6 +122,7 @@ export interface PartStatement {
   readonly span: Span;
 }
 
+/** `use NAME BLOCK nodes… [params…]`: an instance of a block. */
 export interface UseStatement {
   readonly kind: "use";
   readonly name: string;
@@ -126,6 +134,7 @@ export interface UseStatement {
   readonly span: Span;
 }
 
+/** `block NAME (ports) [params]` … `end`: a reusable sub-circuit. */
 export interface BlockStatement {
   readonly kind: "block";
   readonly name: string;
@@ -143,6 +152,7 @@ export interface BlockStatement {
 /** An argument of an analysis: `key=value`, or a bare flag such as `log`. */
 export type AnalysisArg = ({ readonly kind: "option" } & OptionNode) | { readonly kind: "flag"; readonly name: string; readonly span: Span };
 
+/** An analysis line: `transient until=1m`, `sweep R from=1k to=2k steps=5`, …. */
 export interface AnalysisStatement {
   readonly kind: "analysis";
   readonly analysis: Exclude<AnalysisKeyword, "spec">;
@@ -164,12 +174,14 @@ export interface CriterionNode {
   readonly span: Span;
 }
 
+/** `spec` with its criteria. */
 export interface SpecStatement {
   readonly kind: "spec";
   readonly criteria: readonly CriterionNode[];
   readonly span: Span;
 }
 
+/** Any statement of a program, told apart by `kind`. */
 export type Statement =
   | TitleStatement
   | ParamStatement

@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, DEFAULT_TOLERANCES, NewtonSolver, solveBias, THERMAL_VOLTAGE } from "@onset/core";
+import { DEFAULT_TOLERANCES, THERMAL_VOLTAGE } from "@onset/core";
+import { buildSystem, NewtonSolver, solveBias } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 function bias(c: ReturnType<typeof circuit>) {

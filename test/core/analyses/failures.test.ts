@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, isOnsetError, NewtonSolver, pencilPoles, resolveTolerances, runBias, runTransient, solveBias, type Circuit } from "@onset/core";
+import { isOnsetError, runBias, runTransient, type Circuit } from "@onset/core";
+import { buildSystem, NewtonSolver, pencilPoles, resolveTolerances, solveBias } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 /** The diagnostic an engine call throws (code, message, hint), or a failure when it returns. */

@@ -1,19 +1,6 @@
 import { describe, expect, test } from "vitest";
-import {
-  BOLTZMANN,
-  buildSystem,
-  DEFAULT_TOLERANCES,
-  linearize,
-  NewtonSolver,
-  NoiseBank,
-  noiseLevel,
-  pencilPoles,
-  probeWeights,
-  solveBias,
-  TransientStepper,
-  withSources,
-  type Circuit,
-} from "@onset/core";
+import { DEFAULT_TOLERANCES, type Circuit } from "@onset/core";
+import { BOLTZMANN, buildSystem, linearize, NewtonSolver, NoiseBank, noiseLevel, pencilPoles, probeWeights, solveBias, TransientStepper, withSources } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 const kelvin = 300.15;

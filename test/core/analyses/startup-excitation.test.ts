@@ -1,7 +1,8 @@
 // Issue 12: the start-up run's excitation is physical (thermal noise everywhere, or power-on),
 // reproducible and independent of the probe; every outcome is classified.
 import { describe, expect, test } from "vitest";
-import { NoiseBank, runCircuit, runStartup, runSweep, type NoiseGenerator, type PartSpec, type StartupAnalysis, type StartupResult } from "@onset/core";
+import { runCircuit, runStartup, runSweep, type PartSpec, type StartupAnalysis, type StartupResult } from "@onset/core";
+import { NoiseBank, type NoiseGenerator } from "@onset/core/engine";
 import { circuit, crLadder, part, wienNetwork } from "../../support/circuits.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;

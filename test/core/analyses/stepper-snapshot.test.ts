@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, TransientStepper, type StepperSnapshot } from "@onset/core";
+import { buildSystem, TransientStepper, type StepperSnapshot } from "@onset/core/engine";
 import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 // A diode-limited Wien oscillator kicked by a noise current, beside a pulse-driven RC: nonlinear

@@ -1,6 +1,7 @@
 import { describe, expect, test } from "vitest";
 import fc from "fast-check";
-import { buildSystem, runTransient, TransientStepper, type PartSpec } from "@onset/core";
+import { runTransient, type PartSpec } from "@onset/core";
+import { buildSystem, TransientStepper } from "@onset/core/engine";
 import { circuit, part, sampleAt } from "../../support/circuits.js";
 
 /** Random RC networks: k nodes, each with a resistor to gnd, random resistors and capacitors between nodes, a sine source. */

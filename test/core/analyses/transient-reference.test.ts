@@ -1,6 +1,7 @@
 import { describe, expect, test } from "vitest";
 import { Solver } from "odex";
-import { buildSystem, runTransient, TransientStepper, THERMAL_VOLTAGE } from "@onset/core";
+import { runTransient, THERMAL_VOLTAGE } from "@onset/core";
+import { buildSystem, TransientStepper } from "@onset/core/engine";
 import { circuit, part, sampleAt } from "../../support/circuits.js";
 
 describe("LC tank at a fixed step (docs/references.md §3: the trapezoidal rule on an undamped oscillator)", () => {

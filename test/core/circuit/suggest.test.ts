@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
-import { buildSystem, closestName, didYouMean, editDistance, isOnsetError, probeReader } from "@onset/core";
+import { closestName, didYouMean, isOnsetError } from "@onset/core";
+import { buildSystem, editDistance, probeReader } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 const wordArb = fc.string({ unit: fc.constantFrom(..."abcdeoRCn1_"), minLength: 1, maxLength: 9 });

@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, checkTopology, deviceModels, isOnsetError, NewtonSolver, DEFAULT_TOLERANCES, solveBias, type DeviceModel } from "@onset/core";
+import { checkTopology, isOnsetError, DEFAULT_TOLERANCES } from "@onset/core";
+import { buildSystem, deviceModels, NewtonSolver, solveBias, type DeviceModel } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 function thrown(fn: () => unknown) {

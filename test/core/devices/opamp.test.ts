@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, opampConstants, opampPresets, runBias, runTransient, TransientStepper, type PartSpec } from "@onset/core";
+import { opampConstants, opampPresets, runBias, runTransient, type PartSpec } from "@onset/core";
+import { buildSystem, TransientStepper } from "@onset/core/engine";
 import { circuit, part, sampleAt } from "../../support/circuits.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;

@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
 import fc from "fast-check";
-import { LuSolver } from "@onset/core";
+import { LuSolver } from "@onset/core/engine";
 import { sparseCase } from "./sparse-matrices.js";
 
 describe("compiled elimination", () => {

@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
 import fc from "fast-check";
-import { LuSolver } from "@onset/core";
+import { LuSolver } from "@onset/core/engine";
 import { residual, sparseCase } from "./sparse-matrices.js";
 
 /** Random n×n matrices made well conditioned by a dominant diagonal of random sign. */

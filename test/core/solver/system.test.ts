@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, DEFAULT_TOLERANCES, QUANTITIES, resolveTolerances, type UnknownInfo } from "@onset/core";
+import { DEFAULT_TOLERANCES } from "@onset/core";
+import { buildSystem, QUANTITIES, resolveTolerances, type UnknownInfo } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 
 const row = (u: UnknownInfo) => [u.label, u.role, u.quantity, u.unit, u.stiff, u.errorControl];

@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
 import fc from "fast-check";
-import { PeriodicMap, resolveTolerances } from "@onset/core";
+import { PeriodicMap, resolveTolerances } from "@onset/core/engine";
 import { clippedWien, settledPeriod } from "./support.js";
 
 // The map of one period near the clipped Wien's limit cycle, and its carried derivatives.

@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { buildSystem, orbitMetrics, probeReader, recordPeriod, refineOrbit, shootOrbit, TransientStepper } from "@onset/core";
+import { buildSystem, orbitMetrics, probeReader, recordPeriod, refineOrbit, shootOrbit, TransientStepper } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 import { clippedWien, settledPeriod } from "./support.js";
 

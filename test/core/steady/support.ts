@@ -1,4 +1,5 @@
-import { buildSystem, opampPresets, probeReader, recordPeriod, TransientStepper, type Circuit, type MnaSystem, type PartSpec, type PeriodStart, type ProbeReader } from "@onset/core";
+import { opampPresets, type Circuit, type PartSpec } from "@onset/core";
+import { buildSystem, probeReader, recordPeriod, TransientStepper, type MnaSystem, type PeriodStart, type ProbeReader } from "@onset/core/engine";
 import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 /** R = 1 k, C = 100 nF Wien bridge at gain A around a near-ideal amplifier clipping at ±10 V (docs/references.md §2.4). */

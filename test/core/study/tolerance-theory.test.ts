@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { drawSample, pencilPoles, dominantPair, linearize, buildSystem, NewtonSolver, DEFAULT_TOLERANCES, solveBias, shardIndices, type ToleranceSpec } from "@onset/core";
+import { drawSample, DEFAULT_TOLERANCES, shardIndices, type ToleranceSpec } from "@onset/core";
+import { pencilPoles, dominantPair, linearize, buildSystem, NewtonSolver, solveBias } from "@onset/core/engine";
 import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 const tolerances: ToleranceSpec[] = [

@@ -2,6 +2,7 @@ import { checkProgram } from "@onset/netlist-parser";
 import type { ParsedArgs } from "../args.js";
 import { CliError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
+import { includeRootsOf, limitsOf } from "../input/limits.js";
 import { elaborateSource, loadSource } from "../input/source.js";
 import type { CommandContext } from "./context.js";
 import { renderWarnings } from "./problems.js";
@@ -10,7 +11,7 @@ import { overridesOf } from "./run-options.js";
 /** `onset check FILE`: parse, elaborate and check the topology; nothing is simulated. */
 export function checkCommand(ctx: CommandContext, args: ParsedArgs): number {
   const sets = overridesOf(args);
-  const source = loadSource(args.positionals[0]!, ctx.io);
+  const source = loadSource(args.positionals[0]!, ctx.io, { limits: limitsOf(args).source, roots: includeRootsOf(args) });
   ctx.sources = source.sources;
   const diagnostics = [...source.warnings, ...checkProgram(source.program, { overrides: sets })];
   const errors = diagnostics.filter((d) => d.severity === "error");

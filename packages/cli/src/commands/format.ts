@@ -3,7 +3,9 @@ import { formatText } from "@onset/netlist-parser";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
-import { readTextFile, STDIN_NAME } from "../input/source.js";
+import { sourceLimits } from "@onset/netlist-parser";
+import { limitsOf } from "../input/limits.js";
+import { readSourceText, STDIN_NAME } from "../input/source.js";
 import { outputTarget } from "../output/target.js";
 import { writeOutput } from "../output/write.js";
 import type { CommandContext } from "./context.js";
@@ -23,7 +25,7 @@ export function formatCommand(ctx: CommandContext, args: ParsedArgs): number {
   if (target && target.kind !== "file") {
     throw usageError("bad-option", `format --write rewrites a circuit file, and '${path}' is not one (it is a pipe, a device or a descriptor)`, "drop --write to print the canonical layout");
   }
-  const text = path === "-" ? ctx.io.readStdin() : readTextFile(absolute, "file", path);
+  const text = readSourceText(path, absolute, ctx.io, sourceLimits(limitsOf(args).source).maxSourceBytes);
   ctx.sources = new Map([[name, text]]);
   const result = formatText(text, name);
   const errors = result.diagnostics.filter((d) => d.severity === "error");

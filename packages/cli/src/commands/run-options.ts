@@ -1,4 +1,5 @@
-import { defaultJobs, type Shard } from "@onset/core";
+import type { Shard } from "@onset/core";
+import { defaultJobs } from "@onset/core/node";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { usageError } from "../cli-error.js";
 

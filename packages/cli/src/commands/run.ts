@@ -1,6 +1,8 @@
-import { checkTopology, drawSample, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { checkTopology, drawSample, isRunLimitError, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { workerPool } from "@onset/core/node";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
+import { includeRootsOf, limitsOf } from "../input/limits.js";
 import { elaborateSource, loadSource, STDIN_NAME, type LoadedSource } from "../input/source.js";
 import { documentCounts } from "../output/files.js";
 import { checkOutputs, documentTargets, refuseInputs } from "../output/plan.js";
@@ -15,10 +17,11 @@ import { emitOutcome } from "./emit.js";
 import { optionTarget } from "./output-options.js";
 import { renderWarnings } from "./problems.js";
 import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
+import { watchCommand } from "./watch.js";
 
 /** The file's plain analyses; the further seeds of `startup seeds=N` run on `jobs` workers. */
-async function plainOutcome(ctx: CommandContext, circuit: Circuit, jobs: number, sample?: { index: number; drawn: Record<string, number> }): Promise<Outcome> {
-  const run = await runCircuitInParallel(circuit, { onProgress: ctx.progress.simulation("simulating"), jobs });
+async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, jobs: number, sample?: { index: number; drawn: Record<string, number> }): Promise<Outcome> {
+  const run = await runCircuitInParallel(circuit, { onProgress: ctx.progress.simulation("simulating"), limits, pool: workerPool(jobs) });
   ctx.progress.stop();
   const analyses = circuit.analyses.filter(isSimulating);
   return {
@@ -29,27 +32,28 @@ async function plainOutcome(ctx: CommandContext, circuit: Circuit, jobs: number,
   };
 }
 
-function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, sweep: SweepAnalysis): Outcome {
+function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, sweep: SweepAnalysis, limits: RunLimits): Outcome {
   const info = targetInfo(circuit, source.program, sweep.target, sets);
   const tick = ctx.progress.counter("settings", sweepValues(sweep).length);
   const build = (values: Readonly<Record<string, number>>) => elaborateSource(source, { ...sets, ...values }).circuit;
   const result = runSweep(build, sweep, {
     ...(info.nominal === null ? {} : { nominal: info.nominal }),
     onPoint: (_point, done) => tick(done),
+    limits,
   });
   ctx.progress.stop();
   const hasSpec = circuit.analyses.some((a) => a.kind === "spec");
   return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: circuit.analyses.filter(isSimulating) };
 }
 
-function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, jobs: number): Promise<Outcome> {
+function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits, jobs: number): Promise<Outcome> {
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   if (!tolerance) throw usageError("no-tolerance", "--sample needs a file with a tolerance analysis", "add a line such as: tolerance runs=200");
   if (index >= tolerance.runs) throw usageError("bad-option", `--sample ${index} is past the study's ${tolerance.runs} runs`, `give an index from 0 to ${tolerance.runs - 1}`);
   const sweep = circuit.analyses.find((a): a is SweepAnalysis => a.kind === "sweep");
   const drawn = drawSample(drawnTolerances(circuit, sweep), tolerance.seed, index, tolerance.dist);
   const sampled = elaborateSource(source, { ...sets, ...drawn }).circuit;
-  return plainOutcome(ctx, sampled, jobs, { index, drawn });
+  return plainOutcome(ctx, sampled, limits, jobs, { index, drawn });
 }
 
 /** --shard and --resume need a tolerance study to act on; --results without one is only noted. */
@@ -71,16 +75,23 @@ function inputFiles(source: LoadedSource): string[] {
  * plain analyses once instead, `--sample I` reruns one sample of the study. Every output is
  * checked before the simulation starts (see `outputTarget`), so a bad path costs no time.
  */
-export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise<number> {
+export function runCommand(ctx: CommandContext, args: ParsedArgs): Promise<number> {
+  return args.flags.has("watch") ? watchCommand(ctx, args, runOnce) : runOnce(ctx, args);
+}
+
+/** One run of `onset run FILE`; `signal` stops a study (`--watch` aborts one when a file changes). */
+async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSignal): Promise<number> {
   const path = args.positionals[0]!;
   const sets = overridesOf(args);
+  const given = limitsOf(args);
+  const limits: RunLimits = signal ? { ...given.run, signal } : given.run;
   const jobs = jobsOf(args);
   const shard = shardOf(args, ctx.io.env);
   const sample = sampleOf(args);
   const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg") };
   const givenResults = optionTarget(ctx, args, "results");
   checkOutputs([outputs.csv, outputs.svg, givenResults], ctx.json);
-  const source = loadSource(path, ctx.io);
+  const source = loadSource(path, ctx.io, { limits: given.source, roots: includeRootsOf(args) });
   ctx.sources = source.sources;
   renderWarnings(ctx, source.warnings);
   const { circuit, warnings } = elaborateSource(source, sets);
@@ -105,8 +116,8 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
   checkOutputs([outputs.csv, outputs.svg, results], ctx.json);
   refuseInputs([outputs.csv, outputs.svg, results], inputFiles(source), ctx.io.cwd);
   let outcome: Outcome;
-  if (sample !== undefined) outcome = await sampleRerun(ctx, source, sets, circuit, sample, jobs);
-  else if (plain) outcome = await plainOutcome(ctx, circuit, jobs);
+  if (sample !== undefined) outcome = await sampleRerun(ctx, source, sets, circuit, sample, limits, jobs);
+  else if (plain) outcome = await plainOutcome(ctx, circuit, limits, jobs);
   else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {
@@ -117,6 +128,7 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
         tolerance,
         ...(sweeps[0] ? { sweep: sweeps[0] } : {}),
         jobs,
+        limits,
         shard,
         resume: args.flags.has("resume"),
         results,
@@ -124,12 +136,16 @@ export async function runCommand(ctx: CommandContext, args: ParsedArgs): Promise
         progress: ctx.progress,
         note: ctx.note,
         warn: ctx.warn,
+      }).catch((error: unknown) => {
+        // What finished is kept: say how to go on from it.
+        if (isRunLimitError(error) && results?.kind === "file") ctx.note(`the samples finished so far are in ${results.shown}: --resume continues the study`);
+        throw error;
       });
       outcome = { kind: "study", report };
       if (results !== null && results.kind !== "stdout") ctx.note(`samples in ${results.shown}`);
     } else {
       refuseStudyOptions(ctx, studyOnly, false);
-      outcome = sweepOutcome(ctx, source, sets, circuit, sweeps[0]!);
+      outcome = sweepOutcome(ctx, source, sets, circuit, sweeps[0]!, limits);
     }
   }
   return emitOutcome(ctx, { ...outputs, results }, subject, outcome);

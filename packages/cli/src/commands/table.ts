@@ -1,4 +1,5 @@
 import type { OptionSpec, ParsedArgs } from "../args.js";
+import { LIMIT_HELP } from "../input/limits.js";
 import { checkCommand } from "./check.js";
 import type { CommandContext } from "./context.js";
 import { designCommand } from "./design.js";
@@ -29,6 +30,9 @@ const set: OptionSpec = { name: "set", value: "NAME=VALUE", repeat: true, summar
 const csv: OptionSpec = { name: "csv", value: "FILE", summary: "write the data as CSV (several analyses: FILE, FILE-2, …; - for stdout)" };
 const svg: OptionSpec = { name: "svg", value: "FILE", summary: "write a plot as SVG (several analyses: FILE, FILE-2, …; - for stdout)" };
 
+const limit: OptionSpec = { name: "limit", value: "NAME=VALUE", repeat: true, summary: LIMIT_HELP };
+const includeRoot: OptionSpec = { name: "include-root", value: "DIR", repeat: true, summary: "also let includes read files below DIR (by default only the file's own folder tree)" };
+
 /** How every command writes its outputs (help text shared by the commands that write). */
 const OUTPUTS: readonly string[] = [
   "Outputs: - is standard output (the text report then goes to stderr; --json cannot share it).",
@@ -51,6 +55,12 @@ export const COMMANDS: readonly CommandSpec[] = [
       "appended to a results file as they finish (by default NAME.results.jsonl beside FILE);",
       "--resume keeps its whole samples and reruns the rest, a cut-off last line included.",
       "",
+      "--watch runs again whenever FILE or one of its includes is saved, rewriting the outputs;",
+      "errors in the file are shown and watching goes on. Ctrl-C stops it.",
+      "",
+      "Limits: --time-limit bounds the wall time of the simulation (a study included); --limit",
+      "sets the others (see the language reference, Limits). A limit that runs out is exit status 3.",
+      "",
       ...OUTPUTS,
       "",
       "Exit status: 0 done and every spec met, 1 a spec not met, 2 bad input, usage or an",
@@ -61,12 +71,16 @@ export const COMMANDS: readonly CommandSpec[] = [
       csv,
       svg,
       set,
-      { name: "jobs", value: "N", summary: "worker threads for a tolerance study (default: the number of cores)" },
+      { name: "jobs", value: "N", summary: "worker threads for a tolerance study and the further seeds of seeds=N (default: the number of cores)" },
       { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
       { name: "results", value: "FILE", summary: "the study's results file (JSON Lines; a pipe or - streams it)" },
       { name: "resume", summary: "continue the study in the results file, running only missing samples" },
       { name: "sample", value: "I", summary: "rerun sample I of the tolerance study alone, with full reports and plots" },
       { name: "nominal", summary: "run the file's analyses once, without its sweep or tolerance study" },
+      { name: "watch", summary: "run again each time FILE or an include is saved, until Ctrl-C" },
+      { name: "time-limit", value: "SECONDS", summary: "stop the simulation after this much wall time (e.g. 30, 500m)" },
+      limit,
+      includeRoot,
       ...common,
     ],
     positionals: { min: 1, max: 1, name: "FILE" },
@@ -77,7 +91,7 @@ export const COMMANDS: readonly CommandSpec[] = [
     usage: "onset check FILE [options]",
     summary: "parse and validate FILE without simulating",
     details: ["Reports every problem found, with its line and a caret. Exit status 0 when the file is valid, 2 when not."],
-    options: [json, set, ...common],
+    options: [json, set, limit, includeRoot, ...common],
     positionals: { min: 1, max: 1, name: "FILE" },
     action: checkCommand,
   },
@@ -89,7 +103,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       "Aligns part columns, one blank line between sections, comments kept.",
       "With --write FILE is replaced atomically; a symlink's real file is, and the link stays.",
     ],
-    options: [{ name: "write", short: "w", summary: "replace FILE with the canonical layout (atomically)" }, ...common],
+    options: [{ name: "write", short: "w", summary: "replace FILE with the canonical layout (atomically)" }, limit, ...common],
     positionals: { min: 1, max: 1, name: "FILE" },
     action: formatCommand,
   },

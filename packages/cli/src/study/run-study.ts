@@ -1,15 +1,18 @@
 import { basename, dirname, extname, join } from "node:path";
 import {
+  RunBudget,
   runToleranceStudy,
   shardIndices,
   specCriteria,
   sweepValues,
   type Circuit,
+  type RunLimits,
   type Shard,
   type SweepAnalysis,
   type ToleranceAnalysis,
   type ToleranceSpec,
 } from "@onset/core";
+import { workerPool } from "@onset/core/node";
 import { usageError } from "../cli-error.js";
 import { elaborateSource, STDIN_NAME, type LoadedSource } from "../input/source.js";
 import type { OutputTarget } from "../output/target.js";
@@ -30,6 +33,8 @@ export interface StudySettings {
   /** With a sweep, the study is a design window. */
   readonly sweep?: SweepAnalysis;
   readonly jobs: number;
+  /** Limits of each sample's run, and of the whole study (wall time, signal). */
+  readonly limits: RunLimits;
   readonly shard: Shard | null;
   readonly resume: boolean;
   /** Where samples are appended (classified and checked before the study); null writes none. */
@@ -144,13 +149,16 @@ export async function runStudy(s: StudySettings): Promise<StudyReport> {
   const build = (values: Readonly<Record<string, number>>) => elaborateSource(s.source, { ...s.overrides, ...values }).circuit;
   const tolerances = drawnTolerances(s.circuit, s.sweep);
   const criteria = specCriteria(s.circuit);
+  const budget = new RunBudget(s.limits);
+  const pool = workerPool(s.jobs);
   try {
     for (let k = 0; k < settings.length; k++) {
       const value = settings[k];
       const point = value === null ? {} : { point: k };
       const already = new Set(kept.filter((x) => (x.point ?? 0) === k).map((x) => x.index));
       await runToleranceStudy(build, tolerances, s.tolerance, criteria, {
-        jobs: s.jobs,
+        pool,
+        budget,
         ...(s.shard ? { shard: s.shard } : {}),
         done: already,
         ...(value === null ? {} : { fixed: { [s.sweep!.target]: value } }),

@@ -4,7 +4,9 @@ import { buildSystem } from "../solver/system.js";
 import { resolveTolerances } from "../solver/tolerances.js";
 import type { RunOptions } from "./transient.js";
 import { solveBias, type BiasMethod } from "./bias.js";
+import { budgetOf } from "./limits.js";
 
+/** What `runBias` returns: node voltages, voltage-source currents and how the operating point was found. */
 export interface BiasResult {
   readonly analysis: "bias";
   /** Node voltages (V), in the order nodes first appear in the file. */
@@ -17,6 +19,7 @@ export interface BiasResult {
 
 /** Runs a `bias` analysis: the DC operating point with node voltages and source currents. */
 export function runBias(circuit: Circuit, _analysis: BiasAnalysis, options: RunOptions = {}): BiasResult {
+  budgetOf(options).check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const point = solveBias(system, solver, solver.tolerances);

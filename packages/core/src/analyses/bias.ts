@@ -6,6 +6,7 @@ import { DEFAULT_TOLERANCES, type Tolerances } from "../solver/tolerances.js";
 /** Which rung of the fallback ladder found the bias point. */
 export type BiasMethod = "newton" | "gmin-stepping" | "source-stepping";
 
+/** The DC operating point: the unknowns, the method that found it and the iterations spent. */
 export interface BiasPoint {
   /** The unknown vector at the operating point. */
   readonly x: Float64Array;

@@ -8,7 +8,9 @@ import { resolveTolerances } from "../solver/tolerances.js";
 import { solveBias } from "./bias.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
+/** A natural frequency s = real + j·imag of the linearised circuit (rad/s). */
 export interface Pole {
   /** rad/s */
   readonly real: number;
@@ -16,6 +18,7 @@ export interface Pole {
   readonly imag: number;
 }
 
+/** What `runPoles` returns: every finite pole and the dominant complex pair's frequency and growth rate. */
 export interface PolesResult {
   readonly analysis: "poles";
   /** Every finite natural frequency, rightmost first. */
@@ -98,9 +101,12 @@ export function startsFrom(pole: Pole): boolean {
 
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
 export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
+  const budget = budgetOf(options);
+  budget.check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
+  budget.check("after the bias point");
   const poles = pencilPoles(linearize(system, bias.x));
   const dominant = dominantPair(poles);
   return {

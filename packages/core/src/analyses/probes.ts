@@ -39,6 +39,7 @@ export function probeUnit(system: MnaSystem, probe: Probe): QuantityUnit {
   }
 }
 
+/** A function that reads a probe's value (a node voltage, a difference, a part's current or internal state) from the unknowns. */
 export function probeReader(system: MnaSystem, probe: Probe): ProbeReader {
   switch (probe.kind) {
     case "node": {

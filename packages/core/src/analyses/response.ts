@@ -12,7 +12,9 @@ import { linearize, type SmallSignal } from "./linearize.js";
 import { probeUnit, stateIndexOf } from "./probes.js";
 import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
+/** The small-signal response at one frequency: magnitude (also in dB) and unwrapped phase. */
 export interface ResponsePoint {
   /** Hz */
   readonly frequency: number;
@@ -23,6 +25,7 @@ export interface ResponsePoint {
   readonly phase: number;
 }
 
+/** Where the phase crosses a multiple of 180°, refined between sweep points. */
 export interface PhaseCrossing {
   /** The multiple of 180° crossed (0, −180, 180, −360, …). */
   readonly phase: number;
@@ -32,6 +35,7 @@ export interface PhaseCrossing {
   readonly value: number;
 }
 
+/** What `runResponse` returns: the swept points, the deepest notch, phase crossings and −3 dB points. */
 export interface ResponseResult {
   readonly analysis: "response";
   readonly from: string;
@@ -181,6 +185,7 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 
 /** Runs a `response` analysis: small-signal |H| and phase of `to` for a unit signal at `from`. */
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
+  const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
@@ -197,6 +202,7 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
   let previousPhase = 0;
   for (let k = 0; k < count; k++) {
     const f = start * Math.pow(stop / start, k / (count - 1));
+    budget.check("in the response sweep");
     const [re, im] = phasor.at(f);
     const magnitude = Math.hypot(re, im);
     const phase = k === 0 ? degrees(re, im) : unwrapNear(degrees(re, im), previousPhase);

@@ -5,6 +5,7 @@ import { runPoles, type PolesResult } from "./poles.js";
 import { runResponse, type ResponseResult } from "./response.js";
 import { runStartup, type StartupResult } from "./startup.js";
 import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
+import { budgetOf } from "./limits.js";
 import { startupSpread } from "../study/startup-spread.js";
 
 /** The result of one simulating analysis. */
@@ -13,6 +14,7 @@ export type AnalysisResult = BiasResult | TransientResult | StartupResult | Resp
 /** Analyses that simulate the circuit once (as opposed to studies and specs). */
 export type SimulatingAnalysis = Extract<AnalysisSpec, { kind: "bias" | "transient" | "startup" | "response" | "poles" }>;
 
+/** True for an analysis that simulates the circuit once (bias, transient, startup, response, poles). */
 export function isSimulating(a: AnalysisSpec): a is SimulatingAnalysis {
   return a.kind === "bias" || a.kind === "transient" || a.kind === "startup" || a.kind === "response" || a.kind === "poles";
 }
@@ -25,9 +27,11 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
     case "transient":
       return runTransient(circuit, analysis, options);
     case "startup": {
-      const first = runStartup(circuit, analysis, options);
+      // The further seeds share the first run's budget: the wall time counts from this call.
+      const shared = { ...options, budget: budgetOf(options) };
+      const first = runStartup(circuit, analysis, shared);
       if (!((analysis.seeds ?? 1) > 1) || options.seedSpread === false) return first;
-      return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, options.tolerances) };
+      return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, shared) };
     }
     case "response":
       return runResponse(circuit, analysis, options);
@@ -36,6 +40,7 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
   }
 }
 
+/** What `runCircuit` returns: every simulating analysis's result in file order, and the spec checked. */
 export interface CircuitRun {
   readonly results: readonly AnalysisResult[];
   /** The file's `spec` checked on its first startup result (yield criteria are left to the tolerance study). */
@@ -56,6 +61,7 @@ export function circuitSpec(circuit: Circuit, results: readonly AnalysisResult[]
 
 /** Runs every simulating analysis of a circuit in file order and checks its spec. */
 export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
-  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, options));
+  const shared = { ...options, budget: budgetOf(options) };
+  const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, shared));
   return { results, spec: circuitSpec(circuit, results) };
 }

@@ -3,6 +3,7 @@ import { isOnsetError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { recordPeriod, refineOrbit, type RefinedOrbit } from "../steady/refine.js";
+import { isRunLimitError } from "./limits.js";
 import { probeReader } from "./probes.js";
 import type { TransientStepper } from "./stepper.js";
 
@@ -29,6 +30,7 @@ export function settledOrbit(
   maxStep: number,
   tolerances: Tolerances,
   maxOrder: number,
+  check?: () => void,
 ): RefinedOrbit | OrbitFailure {
   const period = measured.drive === undefined ? measured.period : 1 / measured.drive;
   try {
@@ -38,9 +40,11 @@ export function settledOrbit(
       autonomous: measured.drive === undefined,
       relative: ORBIT_SHARE * tolerances.lteRelative,
       corners: cornersWithin(quiet, guess.t0, period),
+      ...(check ? { check } : {}),
     });
   } catch (error) {
-    if (!isOnsetError(error)) throw error;
+    // A run limit stops the whole run, not just the refinement.
+    if (!isOnsetError(error) || isRunLimitError(error)) throw error;
     return { failure: error.diagnostic.message };
   }
 }

@@ -23,6 +23,7 @@ import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
+import { budgetOf } from "./limits.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -85,6 +86,7 @@ export interface SettledFigures {
   readonly points: readonly [number, number] | null;
 }
 
+/** What `runStartup` returns: the start-up metrics of the probe, how the run was made, and the waveform. */
 export interface StartupResult extends StartupMetrics {
   readonly analysis: "startup";
   /**
@@ -145,10 +147,13 @@ function corner(at: number): SourceTerm {
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const kick = analysis.kick ?? DEFAULT_KICK;
+  const budget = budgetOf(options);
+  if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run", analysis.span);
   // The prediction comes from the powered circuit without any excitation.
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
   const { poles, pole, ok } = predict(plain, bias.x);
+  budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;
   const setup = excitationSetup(circuit, plain, analysis, kick, f0);
@@ -179,6 +184,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     values.push(read(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
+  budget.watch(stepper, "the start-up run", analysis.span);
   const limit = amplitudeLimit(plain, bias.x);
   const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
   const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
@@ -225,7 +231,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const t = time.toArray();
   const v = values.toArray();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  const refined = refineSettled(metrics, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder });
+  const refined = refineSettled(metrics, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -302,6 +308,7 @@ function refineSettled(
     readonly maxStep: number;
     readonly tolerances: Tolerances;
     readonly orders: number;
+    readonly check: () => void;
   },
 ): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
@@ -314,7 +321,7 @@ function refineSettled(
     return fromRun("the settled figures are the run's last cycles: the sources have no common period with the measured one");
   }
   const orders = thdOrder(s.analysis, drive ?? f);
-  const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders);
+  const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check);
   if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);
   return {
     metrics: {

@@ -45,6 +45,7 @@ export interface Continuation {
   readonly solver: NewtonState;
 }
 
+/** How a {@link TransientStepper} starts and steps: the starting state, the largest and first step, the tolerances. */
 export interface StepperSettings {
   /**
    * Begin at the DC operating point, from rest (capacitors and inductors at `initial`), from a
@@ -59,6 +60,7 @@ export interface StepperSettings {
   readonly tolerances?: Partial<Tolerances>;
 }
 
+/** What a time-domain run cost: accepted and rejected steps, Newton iterations and failures, factorisations, breakpoints landed on. */
 export interface StepperStats {
   accepted: number;
   rejected: number;

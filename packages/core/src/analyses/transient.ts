@@ -6,6 +6,7 @@ import type { Tolerances } from "../solver/tolerances.js";
 import { GrowableSeries } from "./growable.js";
 import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
+import { budgetOf, type BudgetOptions } from "./limits.js";
 
 /** One recorded signal. */
 export interface Signal {
@@ -16,6 +17,7 @@ export interface Signal {
   readonly values: Float64Array;
 }
 
+/** What `runTransient` returns: the accepted time points, every probed signal and the stepper's counts. */
 export interface TransientResult {
   readonly analysis: "transient";
   /** Accepted time points (s), starting at 0. */
@@ -27,8 +29,11 @@ export interface TransientResult {
 /** Progress of a long run, reported every few thousand steps. */
 export type ProgressListener = (time: number, until: number) => void;
 
-export interface RunOptions {
+/** Settings every analysis accepts. */
+export interface RunOptions extends BudgetOptions {
+  /** Solver tolerances to change from their defaults (`DEFAULT_TOLERANCES`). */
   readonly tolerances?: Partial<Tolerances>;
+  /** Called every few thousand steps of a time-domain run. */
   readonly onProgress?: ProgressListener;
   /** Parts added for this run only (a start-up kick). */
   readonly extraParts?: readonly PartSpec[];
@@ -93,6 +98,8 @@ export function defaultMaxStep(until: number): number {
 
 /** Runs a `transient` analysis on a circuit. */
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
+  const budget = budgetOf(options);
+  budget.refuseLength(analysis.until, "the transient", analysis.span);
   const system = buildSystem(circuit, options.extraParts);
   const stepper = new TransientStepper(system, {
     start: analysis.start,
@@ -102,6 +109,7 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
   const recorder = new ProbeRecorder(system, probes);
   stepper.observe(recorder.record);
+  budget.watch(stepper, "the transient", analysis.span);
   advanceWithProgress(stepper, analysis.until, options.onProgress);
   return { analysis: "transient", time: recorder.time.toArray(), signals: recorder.signals(), stats: { ...stepper.stats } };
 }

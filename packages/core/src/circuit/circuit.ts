@@ -42,11 +42,13 @@ export function probeName(probe: Probe): string {
   }
 }
 
+/** `bias`: the DC operating point (node voltages and source currents). */
 export interface BiasAnalysis {
   readonly kind: "bias";
   readonly span?: SourceSpan;
 }
 
+/** `transient`: the time response from the bias point or from rest to `until` (s), probes recorded at every accepted step. */
 export interface TransientAnalysis {
   readonly kind: "transient";
   readonly until: number;
@@ -64,6 +66,7 @@ export interface TransientAnalysis {
  */
 export type StartupKick = "thermal" | "power-on" | "noise" | "none";
 
+/** `startup`: an excited transient from the bias point (see {@link StartupKick}), measured for start-up time, settled frequency, amplitude and THD. */
 export interface StartupAnalysis {
   readonly kind: "startup";
   readonly probe: Probe;
@@ -93,6 +96,7 @@ export interface StartupAnalysis {
   readonly span?: SourceSpan;
 }
 
+/** `response`: the small-signal transfer from a source to a probe at the bias point, over a log frequency sweep (Hz). */
 export interface ResponseAnalysis {
   readonly kind: "response";
   /** Name of the independent source that is driven with a unit small signal. */
@@ -104,11 +108,13 @@ export interface ResponseAnalysis {
   readonly span?: SourceSpan;
 }
 
+/** `poles`: the natural frequencies of the circuit linearised at its bias point. */
 export interface PolesAnalysis {
   readonly kind: "poles";
   readonly span?: SourceSpan;
 }
 
+/** `sweep`: the file's analyses at each setting of one override target, with the start threshold found by bisection. */
 export interface SweepAnalysis {
   readonly kind: "sweep";
   /** Override name: a parameter (`R`), a part's value (`Ra`) or a part option (`P1.at`). */
@@ -121,6 +127,7 @@ export interface SweepAnalysis {
   readonly span?: SourceSpan;
 }
 
+/** `tolerance`: a Monte Carlo study of `runs` samples drawing every `±` tolerance from its distribution with `seed`. */
 export interface ToleranceAnalysis {
   readonly kind: "tolerance";
   readonly runs: number;
@@ -162,12 +169,14 @@ export type SpecCriterion =
       readonly span?: SourceSpan;
     };
 
+/** `spec`: pass/fail criteria on start-up metrics (and the yield of a tolerance study). */
 export interface SpecAnalysis {
   readonly kind: "spec";
   readonly criteria: readonly SpecCriterion[];
   readonly span?: SourceSpan;
 }
 
+/** Any analysis a circuit file can hold, told apart by `kind`. */
 export type AnalysisSpec =
   | BiasAnalysis
   | TransientAnalysis

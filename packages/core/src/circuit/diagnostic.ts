@@ -5,6 +5,7 @@ export interface SourceSpan {
   readonly end: number;
 }
 
+/** An `error` stops the file from being used; a `warning` is reported and the work goes on. */
 export type Severity = "error" | "warning";
 
 /**
@@ -34,6 +35,7 @@ export class OnsetError extends Error {
   }
 }
 
+/** True for an {@link OnsetError} (or one of its subclasses), the one error type the library throws on purpose. */
 export function isOnsetError(value: unknown): value is OnsetError {
   return value instanceof OnsetError;
 }

@@ -13,6 +13,7 @@ interface OptionBase {
   readonly summary: string;
 }
 
+/** A numeric option with its unit, default and range, e.g. `gbw=1M`. */
 export interface NumberOption extends OptionBase {
   readonly type: "number";
   readonly unit: UnitSymbol;
@@ -28,6 +29,7 @@ export interface NumberOption extends OptionBase {
   readonly allowInfinite?: boolean;
 }
 
+/** An option that takes one of a few words, e.g. `taper=audio`. */
 export interface WordOption extends OptionBase {
   readonly type: "word";
   readonly words: readonly string[];
@@ -64,6 +66,7 @@ export interface NameOption extends OptionBase {
   readonly type: "name";
 }
 
+/** Any option of a part kind, told apart by `type`. */
 export type OptionSchema =
   | NumberOption
   | WordOption
@@ -72,6 +75,7 @@ export type OptionSchema =
   | PointsOption
   | NameOption;
 
+/** The positional value of a part (its resistance, capacitance, …): unit, whether required, lower bound. */
 export interface ValueSchema {
   readonly unit: UnitSymbol;
   readonly required: boolean;
@@ -80,11 +84,13 @@ export interface ValueSchema {
   readonly summary: string;
 }
 
+/** An internal state a part kind declares (probed as `PART.state`): its quantity and what it is. */
 export interface StateSchema {
   readonly quantity: Quantity;
   readonly summary: string;
 }
 
+/** Everything the language knows about one part kind: pins, value, options (read by the checker, formatter and docs). */
 export interface PartKindSchema {
   readonly kind: string;
   readonly summary: string;

@@ -17,8 +17,10 @@ export const E_SERIES = {
   ],
 } as const satisfies Record<string, readonly number[]>;
 
+/** The name of an IEC 60063 series the designer knows: `E6`, `E12`, `E24`, `E96`. */
 export type SeriesName = keyof typeof E_SERIES;
 
+/** True when `name` is one of the IEC 60063 series the designer knows. */
 export function isSeriesName(name: string): name is SeriesName {
   return Object.prototype.hasOwnProperty.call(E_SERIES, name);
 }

@@ -7,8 +7,10 @@ import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
 import { snapToSeries, type SeriesName } from "./eseries.js";
 import { withPrefix } from "../units/si-prefix.js";
 
+/** The oscillator topologies `onset design` sizes. */
 export type Topology = "wien" | "twin-t" | "phase-shift";
 
+/** What to design: the topology and frequency, and optionally the capacitor, resistor series, op-amp preset, start-up time and rails. */
 export interface DesignRequest {
   readonly topology: Topology;
   /** Target frequency (Hz). */
@@ -33,6 +35,7 @@ export interface DesignChoice {
   readonly unit: "Ω" | "F";
 }
 
+/** A sized oscillator: the snapped part values, the frequency they give and the file text to run. */
 export interface DesignResult {
   readonly request: Required<Omit<DesignRequest, "capacitor">> & { readonly capacitor: number };
   readonly choices: readonly DesignChoice[];
@@ -73,6 +76,7 @@ export interface SimulatedStartup {
   readonly error: number | null;
 }
 
+/** What {@link designOscillator} may do beyond sizing: simulate the file it writes. */
 export interface DesignOptions {
   /**
    * Runs the start-up analysis of the written file and returns its metrics. Core cannot read

@@ -42,6 +42,7 @@ export const opampPresets: Readonly<Record<string, Readonly<Record<string, Optio
   ideal: { gain: 1e7, gbw: 1e9, slew: Infinity, rout: 1e-3, rin: Infinity, headroom: 0, knee: 1e-3, noise: 0 },
 };
 
+/** The op-amp's output rails (V) when a part gives neither `rails=` nor `supply=`. */
 export const DEFAULT_RAILS: readonly [number, number] = [-15, 15];
 
 /** Scale of the internal transconductance (A/V); it sets the pole node's impedance level only. */
@@ -107,6 +108,7 @@ function railsOf(part: PartSpec): readonly [number, number] {
   return DEFAULT_RAILS;
 }
 
+/** The op-amp macromodel's constants for a part: its preset merged with its own options, rails resolved. */
 export function opampConstants(part: PartSpec): OpampConstants {
   const num = (k: string) => numberOption(part, opampSchema, k);
   const gain = num("gain");

@@ -10,6 +10,7 @@ export const QUANTITIES = {
   temperature: { unit: "K", newton: "newtonTemperature", lte: "lteTemperature" },
 } as const;
 
+/** A physical quantity an unknown can be: `voltage`, `current` or `temperature`. */
 export type Quantity = keyof typeof QUANTITIES;
 
 /** The unit symbol a quantity is reported in (SI base units). */
@@ -19,10 +20,12 @@ export type QuantityUnit = (typeof QUANTITIES)[Quantity]["unit"];
 export type NewtonAbsoluteSetting = (typeof QUANTITIES)[Quantity]["newton"];
 export type LteAbsoluteSetting = (typeof QUANTITIES)[Quantity]["lte"];
 
+/** The SI unit symbol a quantity is reported in. */
 export function unitOf(quantity: Quantity): QuantityUnit {
   return QUANTITIES[quantity].unit;
 }
 
+/** True when `word` names a quantity of {@link QUANTITIES}. */
 export function isQuantity(word: string): word is Quantity {
   return Object.hasOwn(QUANTITIES, word);
 }

@@ -29,6 +29,7 @@ export interface Tolerances extends Readonly<Record<NewtonAbsoluteSetting | LteA
   readonly biasIterations: number;
 }
 
+/** The solver settings an analysis uses unless `options.tolerances` changes some (DEVELOPERS.md, "Solver defaults"). */
 export const DEFAULT_TOLERANCES: Tolerances = {
   newtonRelative: 1e-5,
   biasRelative: 1e-9,

@@ -9,6 +9,7 @@ export interface CriterionResult {
   readonly pass: boolean;
 }
 
+/** The spec checked on one result: each criterion with its measured value, and whether all pass. */
 export interface SpecReport {
   readonly criteria: readonly CriterionResult[];
   readonly pass: boolean;

@@ -1,6 +1,7 @@
 /** The percentiles reported for every Monte Carlo metric. */
 export const REPORTED_PERCENTILES = [0, 1, 5, 50, 95, 99, 100] as const;
 
+/** Count, extremes and the reported percentiles of a sample of numbers. */
 export interface PercentileSummary {
   readonly count: number;
   readonly min: number;

@@ -1,6 +1,7 @@
 /** The standard normal quantile for a two-sided 95 % interval, Φ⁻¹(0.975) (docs/references.md §6). */
 export const Z95 = 1.959963984540054;
 
+/** A closed interval [low, high]. */
 export interface Interval {
   readonly low: number;
   readonly high: number;

@@ -125,12 +125,15 @@ export function refineOrbit(
     readonly relative?: number;
     /** Times after the orbit's start where a source has a corner (a driven waveform bends there). */
     readonly corners?: readonly number[];
+    /** Called before each period is integrated; throws to stop (a run's limits). */
+    readonly check?: () => void;
   } = {},
 ): RefinedOrbit {
   const options = {
     autonomous: settings.autonomous ?? true,
     ...(settings.tolerances ? { tolerances: settings.tolerances } : {}),
     ...(settings.relative === undefined ? {} : { relative: settings.relative }),
+    ...(settings.check ? { check: settings.check } : {}),
   };
   const coarse = shootOrbit(system, guess, fractions, trajectory, options);
   const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian });

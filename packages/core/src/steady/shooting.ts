@@ -36,6 +36,7 @@ export interface ShootingJacobian {
   readonly phase: number;
 }
 
+/** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
 export interface ShootingOptions {
   /** Autonomous (the period is unknown, a phase condition fixes the start) or driven (T fixed). */
   readonly autonomous: boolean;
@@ -48,6 +49,8 @@ export interface ShootingOptions {
   readonly multipliers?: boolean;
   /** A factored Newton matrix to start from (a chord iteration until it stops contracting). */
   readonly jacobian?: ShootingJacobian;
+  /** Called before each period is integrated; throws to stop (a run's limits). */
+  readonly check?: () => void;
 }
 
 /** The map's inner Newton is held this far below the orbit's own tolerance, so the map is smooth enough to shoot on. */
@@ -91,6 +94,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let previous = Infinity;
   const maxIterations = options.maxIterations ?? 25;
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
+    options.check?.();
     const fresh = jacobian === undefined;
     const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh);
     states = map.states;

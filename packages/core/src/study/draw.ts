@@ -1,6 +1,7 @@
 import type { ToleranceSpec } from "../circuit/circuit.js";
 import { randomStream } from "../random/stream.js";
 
+/** How a tolerance is drawn: `normal` (σ = tol/3, cut at ±tol) or `uniform` over ±tol. */
 export type Distribution = "normal" | "uniform";
 
 /**

@@ -1,6 +1,7 @@
 import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { runStartup } from "../analyses/startup.js";
+import { isRunLimitError, RunBudget } from "../analyses/limits.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
@@ -34,6 +35,7 @@ export const SAMPLE_METRICS = [
   "predictedFrequency",
 ] as const satisfies ReadonlyArray<keyof SampleMetrics>;
 
+/** One Monte Carlo sample's result: its metrics (null when its simulation failed), pass/fail and why. */
 export interface SampleOutcome {
   readonly metrics: SampleMetrics | null;
   readonly pass: boolean;
@@ -43,8 +45,11 @@ export interface SampleOutcome {
   readonly error?: string;
 }
 
+/** What every sample of a study shares: plain data, so it can be posted to a worker thread. */
 export interface SampleSettings {
+  /** The spec criteria each sample is judged on. */
   readonly criteria: readonly SpecCriterion[];
+  /** Solver tolerances to change from their defaults. */
   readonly tolerances?: Partial<Tolerances>;
 }
 
@@ -55,13 +60,14 @@ export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined
 
 /**
  * Runs one sample: the circuit's startup analysis (and the linear prediction) with the drawn
- * values already elaborated into it, then its criteria. A simulation failure fails the sample.
+ * values already elaborated into it, then its criteria. A simulation failure fails the sample;
+ * a limit that runs out ({@link RunLimitError}) stops it and is thrown, so the study stops too.
  */
-export function runSample(circuit: Circuit, settings: SampleSettings): SampleOutcome {
+export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
   const analysis = startupAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {
-    const r = runStartup(circuit, analysis, { tolerances: settings.tolerances });
+    const r = runStartup(circuit, analysis, { tolerances: settings.tolerances, budget });
     // The startup run already linearised this circuit at its bias point: that is the poles analysis.
     const { frequency: predictedFrequency, growthRate: predictedGrowthRate } = r.run.predicted;
     const metrics: SampleMetrics = {
@@ -83,7 +89,12 @@ export function runSample(circuit: Circuit, settings: SampleSettings): SampleOut
       .map((c) => c.text);
     return { metrics, pass: failures.length === 0 && r.verdict === "settled", failures: r.verdict === "settled" ? failures : [`verdict ${r.verdict}`, ...failures] };
   } catch (error) {
-    const message = isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
-    return { metrics: null, pass: false, failures: ["simulation failed"], error: message };
+    return { metrics: null, pass: false, failures: ["simulation failed"], error: failureMessage(error) };
   }
+}
+
+/** The message of a run that failed; a limit that ran out ({@link RunLimitError}) is thrown on, so the study stops too. */
+export function failureMessage(error: unknown): string {
+  if (isRunLimitError(error)) throw error;
+  return isOnsetError(error) ? error.diagnostic.message : error instanceof Error ? error.message : String(error);
 }

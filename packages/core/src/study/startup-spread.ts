@@ -1,5 +1,7 @@
 import type { Circuit, StartupAnalysis } from "../circuit/circuit.js";
+import { budgetOf } from "../analyses/limits.js";
 import type { StartupResult, StartupTimeSpread } from "../analyses/startup.js";
+import type { RunOptions } from "../analyses/transient.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { percentileOfSorted } from "../stats/percentiles.js";
 import { runSeed, type SeedOutcome } from "./jobs.js";
@@ -28,13 +30,25 @@ export function timeSpread(outcomes: readonly SeedOutcome[]): StartupTimeSpread 
 
 const firstOutcome = (first: StartupResult, seed: number): SeedOutcome => ({ seed, verdict: first.verdict, startupTime: first.startupTime });
 
-/** The spread over the analysis's seeds, the first seed's run given, the others run here one by one. */
-export function startupSpread(circuit: Circuit, analysis: StartupAnalysis, first: StartupResult, tolerances?: Partial<Tolerances>): StartupTimeSpread {
+/**
+ * The spread over the analysis's seeds, the first seed's run given, the others run here one by
+ * one within the call's limits (`options.budget` or `options.limits`).
+ */
+export function startupSpread(
+  circuit: Circuit,
+  analysis: StartupAnalysis,
+  first: StartupResult,
+  options: Pick<RunOptions, "tolerances" | "limits" | "budget"> = {},
+): StartupTimeSpread {
   const [seed, ...others] = seedsOf(analysis);
-  return timeSpread([firstOutcome(first, seed!), ...others.map((s) => runSeed(circuit, { ...analysis, seed: s }, tolerances))]);
+  const shared = { ...(options.tolerances ? { tolerances: options.tolerances } : {}), budget: budgetOf(options) };
+  return timeSpread([firstOutcome(first, seed!), ...others.map((s) => runSeed(circuit, { ...analysis, seed: s }, shared))]);
 }
 
-/** The same on a pool: every seed's run is independent and deterministic, so any job count gives the same spread. */
+/**
+ * The same on a pool (which holds the budget): every seed's run is independent and
+ * deterministic, so any job count gives the same spread.
+ */
 export async function startupSpreadOnPool(
   circuit: Circuit,
   analysis: StartupAnalysis,

@@ -11,6 +11,7 @@ export interface ToleranceSample extends SampleOutcome {
   readonly drawn: Readonly<Record<string, number>>;
 }
 
+/** The fraction of samples that pass, with its 95 % Wilson interval. */
 export interface YieldSummary {
   readonly passed: number;
   readonly runs: number;
@@ -24,6 +25,7 @@ export interface CriterionYield extends YieldSummary {
   readonly criterion: SpecCriterion;
 }
 
+/** A tolerance study summed up: verdict counts, metric percentiles, the yield and each criterion's own yield. */
 export interface ToleranceSummary {
   readonly runs: number;
   readonly verdicts: Readonly<Record<string, number>>;

@@ -3,10 +3,12 @@ import { inputError } from "../circuit/diagnostic.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
 import { runStartup, type StartupResult } from "../analyses/startup.js";
 import type { RunOptions } from "../analyses/transient.js";
+import { budgetOf } from "../analyses/limits.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
 import type { CircuitBuilder } from "./tolerance.js";
 
+/** One setting of a sweep and the file's analyses run at it. */
 export interface SweepPoint {
   readonly value: number;
   readonly run: CircuitRun;
@@ -25,6 +27,7 @@ export interface StartThreshold {
   readonly margin: number | null;
 }
 
+/** What `runSweep` returns: every setting's run and the start threshold, when the verdict changes. */
 export interface SweepResult {
   readonly analysis: "sweep";
   readonly target: string;
@@ -70,6 +73,7 @@ export function oscillates(verdict: StartupVerdict): boolean {
   return verdict === "settled" || verdict === "relaxation" || verdict === "parasitic" || verdict === "growing" || verdict === "unsettled";
 }
 
+/** How a sweep runs: the run options of each setting, the nominal value, the bisection's precision and a progress callback. */
 export interface SweepOptions extends RunOptions {
   /** The target's value as written, for the margin. */
   readonly nominal?: number;
@@ -86,10 +90,13 @@ function firstStartup(run: CircuitRun): StartupResult | undefined {
  * Runs the file's analyses at every setting of the sweep, then refines the start threshold by
  * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
  */
-export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, options: SweepOptions = {}): SweepResult {
+export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: SweepOptions = {}): SweepResult {
+  // One budget for every setting and the bisection: the wall time counts from here.
+  const options = { ...given, budget: budgetOf(given) };
   const values = sweepValues(analysis);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
+    options.budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);
     const point = { value, run: runCircuit(build({ [analysis.target]: value }), { ...options, seedSpread: false }) };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
@@ -116,6 +123,7 @@ function bisectThreshold(
   const precision = options.precision ?? (analysis.log ? 1e-3 : 1e-3 * span);
   const narrow = (a: number, b: number) => (analysis.log ? Math.abs(Math.log(b / a)) < precision : Math.abs(b - a) < precision);
   const startsAt = (value: number): boolean => {
+    options.budget?.check(`while bisecting for the start threshold`);
     const circuit: Circuit = build({ [analysis.target]: value });
     const startup = startupAnalysisOf(circuit);
     if (!startup) return false;

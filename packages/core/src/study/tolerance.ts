@@ -2,7 +2,8 @@ import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from ".
 import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
-import { createSamplePool, defaultJobs } from "./pool.js";
+import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
+import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
 
 /** Builds the circuit with some values overridden by name (the elaborator behind it). */
@@ -34,9 +35,14 @@ export function nominalsAt(build: CircuitBuilder, tolerances: readonly Tolerance
   });
 }
 
-export interface ToleranceStudyOptions {
-  /** Worker threads; default the number of cores. */
-  readonly jobs?: number;
+/** How a tolerance study runs: which samples, where, and within which limits. */
+export interface ToleranceStudyOptions extends BudgetOptions {
+  /**
+   * Where the samples run.
+   * @defaultValue {@link inThreadPool} (this thread); `workerPool(jobs)` from `@onset/core/node` uses worker threads
+   */
+  readonly pool?: JobPoolFactory;
+  /** Run only this slice of the samples. */
   readonly shard?: Shard;
   /** Indices already done (resume): skipped. */
   readonly done?: ReadonlySet<number>;
@@ -49,9 +55,18 @@ export interface ToleranceStudyOptions {
   readonly onSample?: (sample: ToleranceSample) => void;
 }
 
+/** Lets timers and I/O run (setImmediate where there is one: Node; else a zero timeout). */
+function yieldToEvents(): Promise<void> {
+  const later: (callback: () => void) => unknown = (globalThis as { setImmediate?: (callback: () => void) => unknown }).setImmediate ?? ((callback) => setTimeout(callback, 0));
+  return new Promise((resolve) => later(resolve));
+}
+
 /**
  * Runs the Monte Carlo samples of a `tolerance` analysis. The values are drawn and elaborated
- * here; the simulations run on a worker pool. Returns the samples in index order.
+ * here; the simulations run on the pool. Returns the samples in index order. The limits
+ * (`options.limits`) bound each sample's run (steps, simulated time) and the whole study
+ * (wall time, signal): when one runs out the study stops with a `RunLimitError`, after the
+ * samples already finished were handed to `onSample`.
  */
 export async function runToleranceStudy(
   build: CircuitBuilder,
@@ -63,23 +78,26 @@ export async function runToleranceStudy(
   if (!(Number.isInteger(analysis.runs) && analysis.runs > 0)) {
     throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
   }
+  const budget = budgetOf(options);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
-  const pool = createSamplePool(Math.min(options.jobs ?? defaultJobs(), Math.max(1, indices.length)), { criteria, tolerances: options.tolerances });
+  const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}) };
+  const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;
   // One lane per worker keeps each busy; in this thread a lane yields between samples so
   // progress can be drawn and results written as they finish.
   const lane = async () => {
     while (next < indices.length) {
+      budget.check("between samples");
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
-      const outcome = await pool.run(circuit);
+      const outcome = await pool.run({ kind: "sample", circuit, settings });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);
       options.onSample?.(sample);
-      if (pool.jobs === 1) await new Promise((resolve) => setImmediate(resolve));
+      if (pool.jobs === 1) await yieldToEvents();
     }
   };
   try {

@@ -1,8 +1,10 @@
 import type { SpecCriterion, SweepAnalysis, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { summarizeSamples, type ToleranceSample, type ToleranceSummary } from "./summary.js";
 import { sweepValues } from "./sweep.js";
+import { budgetOf } from "../analyses/limits.js";
 import { runToleranceStudy, type CircuitBuilder, type ToleranceStudyOptions } from "./tolerance.js";
 
+/** One setting of a design window: the tolerance study there and whether its yield meets the spec. */
 export interface WindowPoint {
   readonly value: number;
   readonly summary: ToleranceSummary;
@@ -10,6 +12,7 @@ export interface WindowPoint {
   readonly pass: boolean;
 }
 
+/** What `runDesignWindow` returns: the yield at every setting and the widest range that meets the spec. */
 export interface DesignWindow {
   readonly analysis: "window";
   readonly target: string;
@@ -61,8 +64,9 @@ export async function runDesignWindow(
   const points: WindowPoint[] = [];
   // The swept value overrides its own tolerance: the trimmer is set, not drawn.
   const drawnTolerances = tolerances.filter((t) => t.target !== sweep.target);
+  const budget = budgetOf(options);
   for (const value of values) {
-    const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, fixed: { ...options.fixed, [sweep.target]: value } });
+    const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, budget, fixed: { ...options.fixed, [sweep.target]: value } });
     const summary = summarizeSamples(samples, criteria);
     const point = { value, summary, samples, pass: summary.yield.value >= required };
     points.push(point);

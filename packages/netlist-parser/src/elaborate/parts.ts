@@ -1,4 +1,5 @@
-import { deviceModels, isOnsetError, partKinds, type OptionSchema, type OptionValue, type PartKindSchema, type PartSpec, type SourceSpan } from "@onset/core";
+import { isOnsetError, partKinds, type OptionSchema, type OptionValue, type PartKindSchema, type PartSpec, type SourceSpan } from "@onset/core";
+import { deviceModels } from "@onset/core/engine";
 import { raise } from "../errors.js";
 import type { OptionNode, PartStatement } from "../syntax.js";
 import type { Elaboration, TargetInfo } from "./context.js";

@@ -1,0 +1,241 @@
+import { inputError, OnsetError, type Diagnostic, type SourceSpan } from "../circuit/diagnostic.js";
+
+/**
+ * Bounds on the work of one call, for a service that runs circuits it did not write. Every
+ * analysis, `runCircuit`, `runSweep` and `runToleranceStudy` accept them (`options.limits`);
+ * a limit that runs out stops the call with a {@link RunLimitError} naming it.
+ *
+ * @remarks
+ * `maxSteps` and `maxSimulatedTime` bound each time-domain run on its own (a transient, a
+ * start-up run, each sweep setting, each Monte Carlo sample); `maxWallTime` and `signal`
+ * bound the whole call, a study with all its samples included. The wall clock and the signal
+ * are looked at every 8 accepted time steps and between the stages of an analysis (bias
+ * point, poles, each frequency of a response, each sweep setting or sample). A synchronous
+ * call holds the thread, so an `AbortSignal` aborted by a timer or a request fires only in
+ * the asynchronous study (`runToleranceStudy`, between samples, and at once on worker
+ * threads); inside a synchronous call it can be aborted by the call's own callbacks
+ * (`onProgress`, a step observer). Every limit is off unless given.
+ */
+export interface RunLimits {
+  /**
+   * Accepted time steps of one time-domain run.
+   * @defaultValue no limit
+   */
+  readonly maxSteps?: number;
+  /**
+   * Simulated time (s) of one time-domain run. A run with a fixed `until` longer than this is
+   * refused before it starts; `until=auto` stops when it passes it.
+   * @defaultValue no limit
+   */
+  readonly maxSimulatedTime?: number;
+  /**
+   * Wall-clock time (s) of the whole call, from its start.
+   * @defaultValue no limit
+   */
+  readonly maxWallTime?: number;
+  /** Stops the call when aborted (see the remarks for when it is looked at). */
+  readonly signal?: AbortSignal;
+}
+
+/** The name of a limit in {@link RunLimits}. */
+export type LimitName = keyof RunLimits;
+
+/** The error code of each limit, as documented (`docs/language.md`, "Limits"). */
+export const LIMIT_CODES: Readonly<Record<LimitName, string>> = {
+  maxSteps: "step-limit",
+  maxSimulatedTime: "simulated-time-limit",
+  maxWallTime: "wall-time-limit",
+  signal: "aborted",
+};
+
+/**
+ * A run stopped because a limit of {@link RunLimits} ran out (or its signal was aborted). It
+ * is an {@link OnsetError} whose code names the limit (`step-limit`, `simulated-time-limit`,
+ * `wall-time-limit`, `aborted`), with what was met and how to raise it.
+ */
+export class RunLimitError extends OnsetError {
+  /** Which limit ran out. */
+  readonly limit: LimitName;
+  /** The limit's value (steps, s); null for an aborted signal. */
+  readonly value: number | null;
+  /** What the run had reached when it stopped (steps, s of simulated or wall time). */
+  readonly reached: number;
+  constructor(diagnostic: Diagnostic, limit: LimitName, value: number | null, reached: number) {
+    super(diagnostic);
+    this.name = "RunLimitError";
+    this.limit = limit;
+    this.value = value;
+    this.reached = reached;
+  }
+}
+
+/** The plain data of a {@link RunLimitError}, to carry it across a worker boundary. */
+export interface RunLimitRecord {
+  readonly diagnostic: Diagnostic;
+  readonly limit: LimitName;
+  readonly value: number | null;
+  readonly reached: number;
+}
+
+/** Rebuilds a {@link RunLimitError} from its plain data. */
+export function runLimitError(record: RunLimitRecord): RunLimitError {
+  return new RunLimitError(record.diagnostic, record.limit, record.value, record.reached);
+}
+
+/** How to raise each limit, from the API and from the command line. */
+const RAISE: Readonly<Record<LimitName, string>> = {
+  maxSteps: "raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step",
+  maxSimulatedTime: "raise the limit with --limit simulated-time=T (API: limits.maxSimulatedTime), or shorten until=",
+  maxWallTime: "raise the limit with --time-limit SECONDS (API: limits.maxWallTime)",
+  signal: "the caller aborted the run",
+};
+
+function seconds(value: number): string {
+  return `${Number(value.toPrecision(4))} s`;
+}
+
+function limitError(limit: LimitName, value: number | null, reached: number, message: string, span?: SourceSpan): RunLimitError {
+  const diagnostic: Diagnostic = { severity: "error", stage: "simulation", code: LIMIT_CODES[limit], message, hint: RAISE[limit], ...(span ? { span } : {}) };
+  return new RunLimitError(diagnostic, limit, value, reached);
+}
+
+function checked(limits: RunLimits, name: "maxSteps" | "maxSimulatedTime" | "maxWallTime"): number {
+  const value = limits[name];
+  if (value === undefined) return Infinity;
+  const whole = name === "maxSteps";
+  if (typeof value !== "number" || !(value > 0) || (whole && value !== Infinity && !Number.isSafeInteger(value))) {
+    throw inputError("bad-limit", `limits.${name} must be ${whole ? "a whole number" : "a number of seconds"} above 0, got ${String(value)}`, {
+      hint: "leave it out (or give Infinity) for no limit",
+    });
+  }
+  return value;
+}
+
+/** Milliseconds on this thread's monotonic clock. */
+function clockMs(): number {
+  return performance.now();
+}
+
+/** The limits of a {@link RunBudget} as plain data for a worker thread (no signal: it cannot be posted). */
+export interface WorkerLimits {
+  readonly maxSteps: number;
+  readonly maxSimulatedTime: number;
+  /** What was left of the wall time when the job was sent (s). */
+  readonly maxWallTime: number;
+}
+
+/** Anything that reports its accepted time steps (the transient stepper). */
+export interface SteppingRun {
+  observe(observer: (t: number) => void): void;
+}
+
+/**
+ * The {@link RunLimits} of one call, with its clock started: analyses, sweeps and studies
+ * hand one budget down (`options.budget`) so the wall time counts from the outermost call.
+ * A service may also create one and share it between several calls.
+ */
+export class RunBudget {
+  /** The limits, checked. */
+  readonly maxSteps: number;
+  readonly maxSimulatedTime: number;
+  readonly maxWallTime: number;
+  readonly signal: AbortSignal | undefined;
+  /** When the wall time runs out (ms on this thread's clock; another thread gets what is left). */
+  private readonly deadline: number;
+  private readonly started: number;
+
+  /** Starts the clock of `limits` now. */
+  constructor(limits: RunLimits = {}) {
+    if (typeof limits !== "object" || limits === null) throw inputError("bad-limit", "limits must be an object such as { maxWallTime: 10 }");
+    this.maxSteps = checked(limits, "maxSteps");
+    this.maxSimulatedTime = checked(limits, "maxSimulatedTime");
+    this.maxWallTime = checked(limits, "maxWallTime");
+    if (limits.signal !== undefined && !(typeof limits.signal === "object" && limits.signal !== null && "aborted" in limits.signal)) {
+      throw inputError("bad-limit", "limits.signal must be an AbortSignal");
+    }
+    this.signal = limits.signal;
+    this.started = clockMs();
+    this.deadline = this.started + this.maxWallTime * 1000;
+  }
+
+  /** Wall time left (s); Infinity without a limit. */
+  remaining(): number {
+    return this.maxWallTime === Infinity ? Infinity : (this.deadline - clockMs()) / 1000;
+  }
+
+  /** The limits as plain data for another thread, the wall time as what is left of it now. */
+  forWorker(): WorkerLimits {
+    return { maxSteps: this.maxSteps, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
+  }
+
+  /** True when the signal is aborted or the wall time has run out (cheap: no message is made). */
+  spent(): boolean {
+    return this.signal?.aborted === true || (this.maxWallTime !== Infinity && clockMs() >= this.deadline);
+  }
+
+  /**
+   * Throws a {@link RunLimitError} when the signal is aborted or the wall time has run out;
+   * `where` ends its message ("between samples"), `span` places it (the analysis's line).
+   */
+  check(where?: string, span?: SourceSpan): void {
+    const at = where === undefined ? "" : ` ${where}`;
+    if (this.signal?.aborted) throw limitError("signal", null, (clockMs() - this.started) / 1000, `the run was aborted${at}`, span);
+    if (this.maxWallTime === Infinity) return;
+    const now = clockMs();
+    if (now >= this.deadline) {
+      const spent = (now - this.started) / 1000;
+      throw limitError("maxWallTime", this.maxWallTime, spent, `the wall-time limit of ${seconds(this.maxWallTime)} ran out${at} (${seconds(spent)} spent)`, span);
+    }
+  }
+
+  /** Refuses up front a time-domain run of fixed length `until` (s) longer than the simulated-time limit. */
+  refuseLength(until: number, what: string, span?: SourceSpan): void {
+    if (until > this.maxSimulatedTime) {
+      throw limitError(
+        "maxSimulatedTime",
+        this.maxSimulatedTime,
+        until,
+        `${what} until=${seconds(until)} is longer than the simulated-time limit of ${seconds(this.maxSimulatedTime)}; it was not started`,
+        span,
+      );
+    }
+  }
+
+  /**
+   * Watches a time-domain run: after every accepted step, the step count and the simulated
+   * time; every 8 steps, the wall clock and the signal. `what` names the run in messages ("the transient"), `span`
+   * places them (the analysis's line in the file).
+   */
+  watch(run: SteppingRun, what: string, span?: SourceSpan): void {
+    let steps = -1;
+    const { maxSteps, maxSimulatedTime } = this;
+    const clocked = this.maxWallTime !== Infinity || this.signal !== undefined;
+    run.observe((t) => {
+      // The first call is the starting point, not a step.
+      if (++steps > maxSteps) {
+        throw limitError("maxSteps", maxSteps, steps, `${what} reached the step limit of ${maxSteps} accepted steps at t = ${seconds(t)}`, span);
+      }
+      if (t > maxSimulatedTime) {
+        throw limitError("maxSimulatedTime", maxSimulatedTime, t, `${what} passed the simulated-time limit of ${seconds(maxSimulatedTime)} (at t = ${seconds(t)})`, span);
+      }
+      // The clock every 8th step (a step is microseconds; reading the clock costs ~60 ns).
+      if (clocked && (steps & 7) === 0 && this.spent()) this.check(`during ${what} at t = ${seconds(t)}`, span);
+    });
+  }
+}
+
+/** What an analysis needs to find its budget: the caller's shared one, or limits to start one from. */
+export interface BudgetOptions {
+  readonly limits?: RunLimits;
+  readonly budget?: RunBudget;
+}
+
+/** The budget of a call: the one handed down, or a new one started from `limits`. */
+export function budgetOf(options: BudgetOptions): RunBudget {
+  return options.budget ?? new RunBudget(options.limits);
+}
+
+/** True for a {@link RunLimitError}. */
+export function isRunLimitError(value: unknown): value is RunLimitError {
+  return value instanceof RunLimitError;
+}

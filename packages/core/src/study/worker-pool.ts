@@ -1,0 +1,135 @@
+import { availableParallelism } from "node:os";
+import { Worker } from "node:worker_threads";
+import { runLimitError, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
+import type { Job, JobResult, SeedOutcome } from "./jobs.js";
+import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
+import type { SampleOutcome } from "./sample.js";
+
+/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
+const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
+
+/** What a worker is sent: one job and the limits it runs within (the wall time as what is left). */
+export interface WorkerRequest {
+  readonly job: Job;
+  readonly limits: WorkerLimits;
+}
+
+/** A worker's answer: the job's outcome, or the limit that stopped it. */
+export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome } | { readonly limit: RunLimitRecord };
+
+/** The default number of workers: the machine's cores. */
+export function defaultJobs(): number {
+  return Math.max(1, availableParallelism());
+}
+
+/**
+ * The built worker entry next to this module (`worker.js` beside the ESM build, `worker.cjs`
+ * beside the CJS build), or null when running from TypeScript sources, which Node cannot load
+ * in a worker.
+ */
+function workerEntry(): URL | null {
+  const here = import.meta.url;
+  if (here.endsWith(".ts")) return null;
+  return new URL(here.endsWith(".cjs") ? "./worker.cjs" : "./worker.js", here);
+}
+
+interface Pending {
+  resolve(outcome: SampleOutcome | SeedOutcome): void;
+  reject(error: unknown): void;
+}
+
+/**
+ * Runs jobs (Monte Carlo samples, start-up seeds) on `jobs` worker threads, one job each at a
+ * time; one thread, or running from TypeScript sources, runs them in this thread. The budget
+ * goes with every job (its wall time as what is left); an aborted signal or the end of the wall
+ * time terminates the workers at once, so a job stuck between its checks cannot hold the call.
+ * Every job is deterministic, so the results do not depend on `jobs`.
+ */
+export function workerPool(jobs: number = defaultJobs()): JobPoolFactory {
+  return (context) => {
+    const entry = workerEntry();
+    const count = Math.min(jobs, Math.max(1, context.count));
+    if (count <= 1 || entry === null) return inThreadPool(context);
+    return startWorkers(entry, count, context);
+  };
+}
+
+function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): JobPool {
+  // Workers inherit the parent's flags, except those Node refuses in a worker.
+  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
+  const idle: Worker[] = [];
+  const waiting: Array<{ job: Job; pending: Pending }> = [];
+  const busy = new Map<Worker, Pending>();
+  const workers: Worker[] = [];
+  let stopped: unknown = null;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const stop = (reason: unknown) => {
+    if (stopped !== null) return;
+    stopped = reason;
+    for (const pending of [...busy.values(), ...waiting.map((w) => w.pending)]) pending.reject(reason);
+    busy.clear();
+    waiting.length = 0;
+    clearTimeout(timer);
+    budget.signal?.removeEventListener("abort", onAbort);
+    // Not awaited: tearing down a busy worker takes up to a few hundred ms, which would hold
+    // the caller past its limit; the threads end on their own.
+    for (const w of workers) w.terminate().catch(() => {});
+  };
+  const stopByBudget = () => {
+    try {
+      budget.check("while jobs ran on worker threads");
+    } catch (error) {
+      stop(error);
+    }
+  };
+  const onAbort = () => stopByBudget();
+  budget.signal?.addEventListener("abort", onAbort);
+  // At the deadline, in case a worker is busy between its own checks.
+  const left = budget.remaining();
+  if (left !== Infinity) timer = setTimeout(stopByBudget, Math.max(0, left * 1000));
+  timer?.unref?.();
+  const dispatch = (worker: Worker, job: Job, pending: Pending) => {
+    busy.set(worker, pending);
+    const request: WorkerRequest = { job, limits: budget.forWorker() };
+    worker.postMessage(request);
+  };
+  for (let k = 0; k < jobs; k++) {
+    const worker = new Worker(entry, { execArgv });
+    worker.on("message", (reply: WorkerReply) => {
+      const pending = busy.get(worker);
+      busy.delete(worker);
+      if (!pending) return;
+      if ("limit" in reply) {
+        stop(runLimitError(reply.limit));
+        return;
+      }
+      const next = waiting.shift();
+      if (next) dispatch(worker, next.job, next.pending);
+      else idle.push(worker);
+      pending.resolve(reply.outcome);
+    });
+    // A worker that fails outside a job leaves the call without it: stop rather than wait.
+    worker.on("error", (error) => stop(error));
+    workers.push(worker);
+    idle.push(worker);
+  }
+  return {
+    jobs,
+    run<J extends Job>(job: J) {
+      return new Promise<JobResult<J>>((resolve, reject) => {
+        if (stopped !== null) {
+          reject(stopped);
+          return;
+        }
+        const pending: Pending = { resolve: (outcome) => resolve(outcome as JobResult<J>), reject };
+        const worker = idle.pop();
+        if (worker) dispatch(worker, job, pending);
+        else waiting.push({ job, pending });
+      });
+    },
+    close() {
+      stop(new Error("the job pool was closed"));
+      return Promise.resolve();
+    },
+  };
+}

@@ -1,0 +1,10 @@
+/**
+ * Reading circuit files from the file system (Node only): `readSource` for a file and its
+ * includes, `fileReader` for the include reader itself, confined to chosen folders.
+ * @packageDocumentation
+ */
+export { readSource } from "./files/read-source.js";
+export type { ReadSourceOptions } from "./files/read-source.js";
+export { displayName, fileReader, STDIN_NAME } from "./files/file-reader.js";
+export type { FileReaderOptions } from "./files/file-reader.js";
+export { readRegularFile } from "./files/regular-file.js";
