@@ -242,7 +242,15 @@ describe("sweeps and the design window", () => {
     expect(sweep.threshold.value / 20e3).toBeCloseTo(1, 1);
     expect(sweep.threshold.startsAbove).toBe(true);
     expect(sweep.threshold.margin).toBeGreaterThan(0);
-    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,pass");
+    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,frequencyError,amplitudeError,rmsError,thdError,pass");
+  });
+
+  test("the sweep table prints each setting's settled figures with their error bars", async () => {
+    ws.write("sweep-one.onset", wien("startup probe=o until=30m\nsweep Rf from=23k to=23k steps=1\n"));
+    const r = await ws.run(["run", "sweep-one.onset", "--no-color"]);
+    expect(r.status).toBe(0);
+    const row = r.stdout.split("\n").find((l) => l.trim().startsWith("23 k"))!;
+    expect(row.match(/ ± /g)?.length).toBe(3);
   });
 
   test("sweep × tolerance gives the yield at each setting and the window that meets it", async () => {
