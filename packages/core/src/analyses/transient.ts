@@ -42,6 +42,12 @@ export interface RunOptions extends BudgetOptions {
    * sweeps and tolerance studies run each setting or sample with the first seed only.
    */
   readonly seedSpread?: boolean;
+  /**
+   * Whether a settled `startup` takes its settled figures from the periodic orbit next to the run,
+   * with error bars (default true); false keeps the run's own last cycles, without bars — what the
+   * refinement costs is the difference (the validation bench).
+   */
+  readonly settledFromOrbit?: boolean;
 }
 
 /** Records the chosen probes at every accepted point. */
