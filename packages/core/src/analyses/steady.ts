@@ -34,8 +34,12 @@ const RETRIES = 4;
 const STEPS_PER_PERIOD = 100;
 /** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures). */
 const ORBIT_SHARE = 1e-5;
-/** The growing mode starts at this fraction of the amplifiers' half output range (1 V of swing without amplifiers). */
-const KICK_SHARE = 0.25;
+/**
+ * The growing mode starts with its largest node swinging over the amplifiers' half output range
+ * (4 V without amplifiers): above the orbit rather than below, since a limiter pulls a large
+ * swing down within a few periods while a small one grows only at the poles' slow rate.
+ */
+const KICK_SHARE = 1;
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
@@ -170,7 +174,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
   const start = kicked(system, bias.x, mode);
   const stepper = new TransientStepper(system, { start: { t: 0, x: start }, maxStep, tolerances });
   budget.watch(stepper, "the steady state's transient", analysis.span);
-  const approach = new OrbitApproach(stepper, read, guessPeriod);
+  const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
   const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
@@ -223,7 +227,7 @@ function commonPeriod(drives: readonly number[]): number | null {
   return 1 / lowest;
 }
 
-/** bias + k·mode, with k so that the largest node voltage of the mode swings by a quarter of the amplifiers' half range (or 1 V). */
+/** bias + k·mode, with k so that the largest node voltage of the mode swings by the amplifiers' half range (or 4 V). */
 function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array): Float64Array {
   let peak = 0;
   for (let i = 0; i < system.n; i++) if (system.unknowns[i]!.isNode) peak = Math.max(peak, Math.abs(mode[i]!));

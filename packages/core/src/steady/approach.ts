@@ -3,8 +3,13 @@ import type { TransientStepper } from "../analyses/stepper.js";
 import { risingCrossings } from "../metrics/crossings.js";
 import { GrowableSeries } from "../analyses/growable.js";
 
-/** The swing counts as levelled off when it changes by less than this fraction per period… */
+/**
+ * The swing counts as levelled off when it changes by less than this fraction per period, and
+ * by less than this share of the linear growth per period (so a slowly growing swing, still in
+ * the linear range, does not pass)…
+ */
 const LEVEL_CHANGE = 0.02;
+const LEVEL_SHARE = 0.25;
 /** …over this many periods in a row. */
 const LEVEL_PERIODS = 3;
 /** A swing below this fraction of the largest seen has died out. */
@@ -34,6 +39,8 @@ export class OrbitApproach {
     private readonly stepper: TransientStepper,
     read: ProbeReader,
     private readonly guess: number,
+    /** e^(σT) − 1: the swing's relative growth per period while the circuit is linear. */
+    private readonly linearGrowth: number,
   ) {
     stepper.observe((t, x, dxdt) => {
       this.time.push(t);
@@ -88,7 +95,8 @@ export class OrbitApproach {
   private levelled(): boolean {
     const s = this.swings;
     if (s.length <= LEVEL_PERIODS) return false;
-    for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < LEVEL_CHANGE)) return false;
+    const change = Math.min(LEVEL_CHANGE, LEVEL_SHARE * this.linearGrowth);
+    for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < change)) return false;
     return true;
   }
 

@@ -2,6 +2,8 @@ import type { Multiplier } from "./shooting.js";
 
 /** A multiplier within this of the unit circle is neither attracting nor repelling to the map's accuracy. */
 const MARGIN = 1e-6;
+/** Multipliers below this are the algebraic unknowns and modes that die out within a period (rounding zeros): not listed. */
+const MEMORYLESS = 1e-10;
 /** The disturbance left after the reported number of periods. */
 const SETTLED_SHARE = 0.01;
 
@@ -18,19 +20,21 @@ export interface OrbitStability {
 }
 
 /**
- * The multipliers without the trivial one: an autonomous orbit's monodromy matrix has the
- * eigenvalue 1 (a shift along the orbit neither grows nor shrinks), which says nothing about
- * stability; the multiplier nearest 1 is dropped. A driven orbit has no trivial multiplier.
+ * The multipliers that say something about stability: an autonomous orbit's monodromy matrix
+ * has the eigenvalue 1 (a shift along the orbit neither grows nor shrinks), so the multiplier
+ * nearest 1 is dropped (a driven orbit has no trivial one); so are those below 1e-10, the
+ * algebraic unknowns' and the modes that die out within a period.
  */
 export function nonTrivialMultipliers(multipliers: readonly Multiplier[], autonomous: boolean): Multiplier[] {
-  if (!autonomous || multipliers.length === 0) return [...multipliers];
+  const telling = (m: Multiplier) => Math.hypot(m.re, m.im) >= MEMORYLESS;
+  if (!autonomous || multipliers.length === 0) return multipliers.filter(telling);
   let trivial = 0;
   for (let k = 1; k < multipliers.length; k++) {
     const m = multipliers[k]!;
     const t = multipliers[trivial]!;
     if (Math.hypot(m.re - 1, m.im) < Math.hypot(t.re - 1, t.im)) trivial = k;
   }
-  return multipliers.filter((_, k) => k !== trivial);
+  return multipliers.filter((m, k) => k !== trivial && telling(m));
 }
 
 /** The orbit's stability from its non-trivial multipliers (largest magnitude first) and its period. */
