@@ -22,6 +22,7 @@ export type {
   StartupAnalysis,
   StartupKick,
   SteadyAnalysis,
+  StudyMeasure,
   SweepAnalysis,
   ToleranceAnalysis,
   ToleranceSpec,
@@ -113,6 +114,7 @@ export type { PercentileSummary } from "./stats/percentiles.js";
 export { drawSample } from "./study/draw.js";
 export type { Distribution } from "./study/draw.js";
 export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
+export { steadyAnalysisOf, steadySample, steadyVerdict } from "./study/steady-sample.js";
 export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
 export { summarizeSamples } from "./study/summary.js";
 export type { CriterionYield, ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";

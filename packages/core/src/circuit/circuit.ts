@@ -141,6 +141,9 @@ export interface PolesAnalysis {
   readonly span?: SourceSpan;
 }
 
+/** What each sample or setting of a study is measured by: the start-up run, or the periodic steady state (`steady`). */
+export type StudyMeasure = "startup" | "steady";
+
 /** `sweep`: the file's analyses at each setting of one override target, with the start threshold found by bisection. */
 export interface SweepAnalysis {
   readonly kind: "sweep";
@@ -160,6 +163,8 @@ export interface ToleranceAnalysis {
   readonly runs: number;
   readonly seed: number;
   readonly dist: "normal" | "uniform";
+  /** What each sample measures: its start-up run (default), or its periodic steady state by shooting (no start-up time). */
+  readonly measure?: StudyMeasure;
   readonly span?: SourceSpan;
 }
 

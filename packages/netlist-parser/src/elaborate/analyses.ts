@@ -67,6 +67,7 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     runs: { type: "number", unit: "1", min: 1, integer: true, summary: "number of Monte Carlo samples" },
     seed: { type: "number", unit: "1", min: 0, integer: true, summary: "seed of the samples" },
     dist: { type: "word", words: ["normal", "uniform"], summary: "distribution of each toleranced value" },
+    measure: { type: "word", words: ["startup", "steady"], summary: "what each sample measures: its start-up run, or its periodic steady state" },
   },
 };
 
@@ -271,7 +272,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     }
     case "tolerance": {
       const o = readOptions(ctx, a, globals, () => undefined);
-      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform" }, span);
+      const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
+      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
     }
     case "sweep":
       return sweep(ctx, a, globals, span);
