@@ -59,3 +59,25 @@ describe("onset run with steady", () => {
     expect(Math.abs(last / period - 1)).toBeLessThan(numericalError.frequency * period + 1e-9);
   });
 });
+
+describe("tolerance measure=steady", () => {
+  // Six samples; each is also run alone as a steady analysis with the drawn values (--sample N).
+  const study = wien("steady probe=o\ntolerance runs=6 seed=11 measure=steady\nspec frequency=1.55k±5% amplitude=10..16\n");
+
+  test("every sample settles on its orbit; the same document on one and two workers; a sample's figures are its own steady run's", async () => {
+    ws.write("mc.onset", study);
+    const [one, two] = await Promise.all([ws.run(["run", "mc.onset", "--json", "--jobs", "1", "--results", "one.jsonl"]), ws.run(["run", "mc.onset", "--json", "--jobs", "2", "--results", "two.jsonl"])]);
+    expect(one.status).toBe(0);
+    expect(two.stdout).toBe(one.stdout);
+    const doc = JSON.parse(one.stdout) as { results: [{ samples: { index: number; metrics: { verdict: string; frequency: number; amplitude: number; settlingTime: number | null } }[] }] };
+    const samples = doc.results[0].samples;
+    expect(samples.map((s) => s.metrics.verdict)).toEqual(Array(6).fill("settled"));
+    for (const s of samples) expect(s.metrics.settlingTime).toBeNull();
+    expect(JSON.parse(readFileSync(ws.path("one.jsonl"), "utf8").split("\n")[0]!)).toMatchObject({ measure: "steady" });
+    const alone = await ws.run(["run", "mc.onset", "--json", "--sample", "3"]);
+    const [steady] = (JSON.parse(alone.stdout) as { results: Array<{ frequency: number; amplitude: number }> }).results;
+    // The study shoots on one grid; the analysis extrapolates two: the same orbit within the grid's error.
+    expect(Math.abs(samples[3]!.metrics.frequency / steady!.frequency - 1)).toBeLessThan(5e-4);
+    expect(Math.abs(samples[3]!.metrics.amplitude / steady!.amplitude - 1)).toBeLessThan(5e-3);
+  });
+});
