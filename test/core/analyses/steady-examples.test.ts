@@ -12,11 +12,11 @@ const examples = join(import.meta.dirname, "..", "..", "..", "examples");
 describe("steady against the settled start-up run on the examples", () => {
   test.each(["bridge-excitation", "cable-tracer", "tuning-reference"])("%s", (name) => {
     const file = join(examples, `${name}.onset`);
-    const { circuit } = elaborate(loadProgram(file, readFileSync(file, "utf8")).program, {});
+    const circuit = elaborate(loadProgram(file, readFileSync(file, "utf8")).program, {}).circuit!;
     const startup = startupAnalysisOf(circuit)!;
-    const settled = runStartup(circuit!, startup);
+    const settled = runStartup(circuit, startup);
     expect(settled.verdict).toBe("settled");
-    const steady = runSteady(circuit!, { kind: "steady", probe: startup.probe });
+    const steady = runSteady(circuit, { kind: "steady", probe: startup.probe });
     expect(steady.found).toBe(true);
     expect(steady.stability!.verdict).toBe("stable");
     expect(Math.abs(steady.frequency! / settled.frequency! - 1)).toBeLessThan(5e-4);
