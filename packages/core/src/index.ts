@@ -21,6 +21,8 @@ export type {
   SpecMetric,
   StartupAnalysis,
   StartupKick,
+  SteadyAnalysis,
+  StudyMeasure,
   SweepAnalysis,
   ToleranceAnalysis,
   ToleranceSpec,
@@ -74,6 +76,10 @@ export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/re
 export { DEFAULT_KICK, DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
 export type { SettledFigures, StartupResult, StartupRun, StartupTimeSpread } from "./analyses/startup.js";
 export type { NumericalError } from "./steady/refine.js";
+export { DEFAULT_STEADY_CYCLES, runSteady } from "./analyses/steady.js";
+export type { SteadyOptions, SteadyPrediction, SteadyResult } from "./analyses/steady.js";
+export type { OrbitStability } from "./steady/stability.js";
+export type { Multiplier } from "./steady/shooting.js";
 export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";
 export type { Excitation } from "./analyses/excitation.js";
 export { circuitSpec, isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
@@ -108,6 +114,7 @@ export type { PercentileSummary } from "./stats/percentiles.js";
 export { drawSample } from "./study/draw.js";
 export type { Distribution } from "./study/draw.js";
 export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
+export { steadyAnalysisOf, steadySample, steadyVerdict } from "./study/steady-sample.js";
 export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
 export { summarizeSamples } from "./study/summary.js";
 export type { CriterionYield, ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";

@@ -4,7 +4,7 @@ import { partKinds } from "@onset/core";
 export const definitionKeywords = ["title", "param", "include", "preset", "block", "end", "use"] as const;
 
 /** Analysis statements. */
-export const analysisKeywords = ["bias", "transient", "startup", "response", "poles", "sweep", "tolerance", "spec"] as const;
+export const analysisKeywords = ["bias", "transient", "startup", "steady", "response", "poles", "sweep", "tolerance", "spec"] as const;
 
 export type AnalysisKeyword = (typeof analysisKeywords)[number];
 

@@ -13,7 +13,7 @@ function headed(name: string, unit: string): string {
 /**
  * The CSV of one result, or null when it has none; every heading carries its unit. Transient:
  * `time (s)` then one column per probe, named as written (`o (V)`, `o-ref (V)`, `R1.i (A)`,
- * `U1.pole (V)`); start-up: `time (s)` and the probe; response: `frequency (Hz)`, `magnitude`
+ * `U1.pole (V)`); start-up: `time (s)` and the probe (steady: over one period of the orbit, from its start); response: `frequency (Hz)`, `magnitude`
  * (a ratio), `magnitude (dB)`, `phase (deg)`; bias: `name,quantity,value,unit`; poles:
  * `real (1/s)`, `imag (rad/s)`, `frequency (Hz)`. Values in SI base units.
  */
@@ -22,6 +22,7 @@ export function resultCsv(r: AnalysisResult): string | null {
     case "transient":
       return csvDocument([headed("time", "s"), ...r.signals.map((s) => headed(s.name, s.unit))], columnRows(r.time, r.signals.map((s) => s.values)));
     case "startup":
+    case "steady":
       return csvDocument([headed("time", "s"), headed(r.probe, r.unit)], columnRows(r.waveform.time, [r.waveform.values]));
     case "response":
       return csvDocument(

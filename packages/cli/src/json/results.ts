@@ -2,6 +2,7 @@ import type { PolesResult, ResponseResult, StartupResult, TransientResult } from
 import type { AnalysisRun } from "../report/plain-types.js";
 import { predictionCheck } from "../report/prediction.js";
 import { extremes } from "../report/transient.js";
+import { steadyJson } from "./steady.js";
 
 /** A JSON value as the documents carry it. */
 export type Json = null | boolean | number | string | readonly Json[] | { readonly [key: string]: Json | undefined };
@@ -91,6 +92,8 @@ export function resultsJson(runs: readonly AnalysisRun[]): Json[] {
         return transientJson(r);
       case "startup":
         return startupJson(r);
+      case "steady":
+        return steadyJson(r);
       case "poles":
         return polesJson(r, startup);
       case "response":

@@ -6,6 +6,7 @@ import { predictionCheck } from "../report/prediction.js";
 import { responseReport } from "../report/response.js";
 import { specReport } from "../report/spec.js";
 import { startupReport } from "../report/startup.js";
+import { steadyReport } from "../report/steady.js";
 import { studyText } from "../report/study.js";
 import { sweepText } from "../report/sweep.js";
 import { transientReport } from "../report/transient.js";
@@ -21,6 +22,8 @@ function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): 
         return transientReport(analysis as Extract<typeof analysis, { kind: "transient" }>, result, p);
       case "startup":
         return startupReport(result, result.unit, p);
+      case "steady":
+        return steadyReport(result, p);
       case "poles": {
         const check = firstStartup ? predictionCheck(result, firstStartup.result as StartupResult) : null;
         return polesReport(result, check, firstStartup ? (firstStartup.result as StartupResult).unit : "V", p);

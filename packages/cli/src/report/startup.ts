@@ -1,4 +1,4 @@
-import type { Excitation, QuantityUnit, StartupResult, StartupTimeSpread } from "@onset/core";
+import type { Excitation, Harmonic, QuantityUnit, StartupResult, StartupTimeSpread } from "@onset/core";
 import type { Paint } from "../color.js";
 import { formatDecibel, formatPlain } from "../format/index.js";
 import { SPECTRUM_FLOOR_DBC } from "../plot/index.js";
@@ -80,21 +80,7 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
   ];
   if (r.suggestedExtraTime !== undefined) entries.push(["run longer by", si(r.suggestedExtraTime, "s", 3)]);
   lines.push(...pairs(entries));
-  if (r.harmonics.length > 0) {
-    lines.push("", "  harmonics");
-    lines.push(
-      ...table(
-        [{ header: "order", align: "right" }, { header: "frequency", align: "right" }, { header: "amplitude", align: "right" }, { header: "level", align: "right" }],
-        r.harmonics.slice(0, LISTED_HARMONICS).map((h) => [String(h.order), si(h.frequency, "Hz"), si(h.amplitude, unit), level(h.dBc)]),
-        "    ",
-      ),
-    );
-  }
-  const rest = r.harmonics.slice(LISTED_HARMONICS);
-  if (rest.length > 0) {
-    const loudest = Math.max(...rest.map((h) => h.dBc));
-    lines.push(p.dim(`    harmonics ${LISTED_HARMONICS + 1}–${lastOrder}: each ${level(loudest).startsWith("<") ? level(loudest) : `at most ${level(loudest)}`}`));
-  }
+  lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
   const s = r.run.solver;
   const x = r.run.excitation;
   const first = x.firstCycleRms === null ? "" : `; ${si(x.firstCycleRms, unit, 3)} rms at the probe over the first cycle${x.kind === "power-on" ? " after the ramp" : ""}`;
@@ -105,6 +91,27 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
     p.dim(`  solver: ${s.accepted} steps, ${s.rejected} rejected, ${s.newtonIterations} Newton iterations, ${s.factorizations} factorizations`),
   );
   for (const w of r.warnings) lines.push(p.yellow(`  warning: ${w.message}`), p.dim(`    hint: ${w.hint}`));
+  return lines;
+}
+
+/** The harmonics table (the first few orders) and one line for the rest up to THD's last order. */
+export function harmonicLines(harmonics: readonly Harmonic[], lastOrder: number, unit: QuantityUnit, p: Paint): string[] {
+  const lines: string[] = [];
+  if (harmonics.length > 0) {
+    lines.push("", "  harmonics");
+    lines.push(
+      ...table(
+        [{ header: "order", align: "right" }, { header: "frequency", align: "right" }, { header: "amplitude", align: "right" }, { header: "level", align: "right" }],
+        harmonics.slice(0, LISTED_HARMONICS).map((h) => [String(h.order), si(h.frequency, "Hz"), si(h.amplitude, unit), level(h.dBc)]),
+        "    ",
+      ),
+    );
+  }
+  const rest = harmonics.slice(LISTED_HARMONICS);
+  if (rest.length > 0) {
+    const loudest = Math.max(...rest.map((h) => h.dBc));
+    lines.push(p.dim(`    harmonics ${LISTED_HARMONICS + 1}–${lastOrder}: each ${level(loudest).startsWith("<") ? level(loudest) : `at most ${level(loudest)}`}`));
+  }
   return lines;
 }
 

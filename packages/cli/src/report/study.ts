@@ -13,7 +13,8 @@ function studyLine(r: StudyReport): string {
   const h = r.header;
   const dist = h.dist === "normal" ? "normal, σ = tolerance/3, cut at ±tolerance" : "uniform over ±tolerance";
   const shard = h.shard ? `, shard ${h.shard.index}/${h.shard.count}` : "";
-  return `${h.runs} runs, seed ${h.seed}, ${dist}${shard}`;
+  const measure = h.measure === "steady" ? "; each sample's periodic steady state (measure=steady): start-up time predicted from the poles' growth rate, no settling time" : "";
+  return `${h.runs} runs, seed ${h.seed}, ${dist}${shard}${measure}`;
 }
 
 function drawnText(r: StudyReport, s: StoredSample): string {

@@ -26,6 +26,8 @@ export interface StudyHeader {
   readonly runs: number;
   readonly seed: number;
   readonly dist: "normal" | "uniform";
+  /** `steady`: each sample measured by its periodic steady state (absent: its start-up run). */
+  readonly measure?: "steady";
   readonly shard: { readonly index: number; readonly count: number } | null;
   /** The toleranced values drawn for every sample, in file order. */
   readonly tolerances: ReadonlyArray<{

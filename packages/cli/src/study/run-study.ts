@@ -87,6 +87,7 @@ export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "cir
     runs: s.tolerance.runs,
     seed: s.tolerance.seed,
     dist: s.tolerance.dist,
+    ...(s.tolerance.measure === "steady" ? { measure: "steady" } : {}),
     shard: s.shard ? { index: s.shard.index, count: s.shard.count } : null,
     tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, unit, ...t }) => ({
       target,

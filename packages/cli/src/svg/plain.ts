@@ -30,6 +30,8 @@ export function resultFigure(run: AnalysisRun, title: string): Figure | null {
         ...(r.thd === null ? {} : { thd: r.thd }),
       });
     }
+    case "steady":
+      return r.found ? transientFigure({ title: `${title} \u2014 one period of the steady state on ${r.probe}`, time: r.waveform.time, probes: [{ name: r.probe, unit: r.unit, values: r.waveform.values }] }) : null;
     case "response": {
       const inverted = r.phaseCrossings.find((c) => Math.abs(c.phase) === 180);
       return responseFigure({

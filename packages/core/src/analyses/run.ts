@@ -4,19 +4,20 @@ import { runBias, type BiasResult } from "./bias-report.js";
 import { runPoles, type PolesResult } from "./poles.js";
 import { runResponse, type ResponseResult } from "./response.js";
 import { runStartup, type StartupResult } from "./startup.js";
+import { runSteady, type SteadyResult } from "./steady.js";
 import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
 import { budgetOf } from "./limits.js";
 import { startupSpread } from "../study/startup-spread.js";
 
 /** The result of one simulating analysis. */
-export type AnalysisResult = BiasResult | TransientResult | StartupResult | ResponseResult | PolesResult;
+export type AnalysisResult = BiasResult | TransientResult | StartupResult | SteadyResult | ResponseResult | PolesResult;
 
 /** Analyses that simulate the circuit once (as opposed to studies and specs). */
-export type SimulatingAnalysis = Extract<AnalysisSpec, { kind: "bias" | "transient" | "startup" | "response" | "poles" }>;
+export type SimulatingAnalysis = Extract<AnalysisSpec, { kind: "bias" | "transient" | "startup" | "steady" | "response" | "poles" }>;
 
-/** True for an analysis that simulates the circuit once (bias, transient, startup, response, poles). */
+/** True for an analysis that simulates the circuit once (bias, transient, startup, steady, response, poles). */
 export function isSimulating(a: AnalysisSpec): a is SimulatingAnalysis {
-  return a.kind === "bias" || a.kind === "transient" || a.kind === "startup" || a.kind === "response" || a.kind === "poles";
+  return a.kind === "bias" || a.kind === "transient" || a.kind === "startup" || a.kind === "steady" || a.kind === "response" || a.kind === "poles";
 }
 
 /** Runs one simulating analysis. */
@@ -33,6 +34,8 @@ export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, opti
       if (!((analysis.seeds ?? 1) > 1) || options.seedSpread === false) return first;
       return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, shared) };
     }
+    case "steady":
+      return runSteady(circuit, analysis, options);
     case "response":
       return runResponse(circuit, analysis, options);
     case "poles":

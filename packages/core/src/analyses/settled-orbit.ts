@@ -50,7 +50,7 @@ export function settledOrbit(
 }
 
 /** The sources' corners in [t₀, t₀ + T], as times after t₀. */
-function cornersWithin(system: MnaSystem, t0: number, period: number): number[] {
+export function cornersWithin(system: MnaSystem, t0: number, period: number): number[] {
   const out: number[] = [];
   for (const s of system.sources) {
     for (let c = s.nextBreakpoint(t0 - 1e-9 * period); c <= t0 + period * (1 + 1e-9); c = s.nextBreakpoint(c)) out.push(c - t0);

@@ -121,7 +121,7 @@ function predict(system: MnaSystem, x: Float64Array): { poles: readonly Pole[]; 
 }
 
 /** Half the widest op-amp output range: the largest envelope the circuit could reach. */
-function amplitudeLimit(system: MnaSystem, x: Float64Array): number | undefined {
+export function amplitudeLimit(system: MnaSystem, x: Float64Array): number | undefined {
   let limit: number | undefined;
   for (const d of system.devices) {
     const range = outputRange(system, d, x);
@@ -289,7 +289,7 @@ function reclassify(
 }
 
 /** The highest harmonic THD counts: `harmonics=`, or the last below `bandwidth=` at frequency f. */
-function thdOrder(analysis: StartupAnalysis, f: number): number {
+export function thdOrder(analysis: { readonly harmonics?: number; readonly bandwidth?: number }, f: number): number {
   if (analysis.bandwidth !== undefined) return Math.max(2, Math.floor(analysis.bandwidth / f));
   return analysis.harmonics ?? DEFAULT_THD_ORDER;
 }

@@ -100,6 +100,33 @@ export interface StartupAnalysis {
   readonly span?: SourceSpan;
 }
 
+/**
+ * `steady`: the periodic steady state found directly by shooting (Newton on x(T) − x(0) = 0, the
+ * period an unknown for an autonomous circuit), measured on a probe over one period.
+ */
+export interface SteadyAnalysis {
+  readonly kind: "steady";
+  readonly probe: Probe;
+  /**
+   * Where the shooting starts: `startup` (default) from a short transient started in the
+   * growing mode, its period measured on the probe; `poles` from the linear prediction's
+   * frequency, after a few periods in that mode.
+   */
+  readonly from?: "startup" | "poles";
+  /** Periods of transient before the first shooting (and between retries). */
+  readonly cycles?: number;
+  readonly maxStep?: number;
+  /** THD counts harmonics 2 … this order (default 30); see also `bandwidth`. */
+  readonly harmonics?: number;
+  /** THD counts the harmonics below this frequency (Hz) instead of up to an order. */
+  readonly bandwidth?: number;
+  /** Relative accuracy of the step control and of the figures (default 1e-4). */
+  readonly accuracy?: number;
+  /** Absolute accuracy floor of a voltage (V; default 1 µV). */
+  readonly accuracyFloor?: number;
+  readonly span?: SourceSpan;
+}
+
 /** `response`: the small-signal transfer from a source to a probe at the bias point, over a log frequency sweep (Hz). */
 export interface ResponseAnalysis {
   readonly kind: "response";
@@ -117,6 +144,9 @@ export interface PolesAnalysis {
   readonly kind: "poles";
   readonly span?: SourceSpan;
 }
+
+/** What each sample or setting of a study is measured by: the start-up run, or the periodic steady state (`steady`). */
+export type StudyMeasure = "startup" | "steady";
 
 /** `sweep`: the file's analyses at each setting of one override target, with the start threshold found by bisection. */
 export interface SweepAnalysis {
@@ -137,6 +167,8 @@ export interface ToleranceAnalysis {
   readonly runs: number;
   readonly seed: number;
   readonly dist: "normal" | "uniform";
+  /** What each sample measures: its start-up run (default), or its periodic steady state by shooting (no start-up time). */
+  readonly measure?: StudyMeasure;
   readonly span?: SourceSpan;
 }
 
@@ -185,6 +217,7 @@ export type AnalysisSpec =
   | BiasAnalysis
   | TransientAnalysis
   | StartupAnalysis
+  | SteadyAnalysis
   | ResponseAnalysis
   | PolesAnalysis
   | SweepAnalysis

@@ -44,6 +44,19 @@ function orbitRates(times: Float64Array, states: readonly Float64Array[], n: num
   });
 }
 
+/** The probe over one period of the orbit: times from the orbit's start, and values. */
+export function orbitWaveform(orbit: PeriodicOrbit, read: ProbeReader): { time: Float64Array; values: Float64Array } {
+  const { states, fractions } = orbit;
+  const T = orbit.start.period;
+  const N = fractions.length;
+  const time = new Float64Array(N + 1);
+  for (let k = 0; k < N; k++) time[k + 1] = time[k]! + fractions[k]! * T;
+  time[N] = T;
+  const rates = orbitRates(time, states, states[0]!.length);
+  const values = Float64Array.from(states, (x, k) => read(x, rates[k]!, orbit.start.t0 + time[k]!));
+  return { time, values };
+}
+
 /**
  * Frequency, swing, r.m.s., offset, THD and harmonics of the probe over one period of the orbit.
  * The samples are extended by one point on each side from the other end of the period, so the

@@ -127,6 +127,8 @@ export function refineOrbit(
     readonly corners?: readonly number[];
     /** Called before each period is integrated; throws to stop (a run's limits). */
     readonly check?: () => void;
+    /** The finer grid's orbit carries its Floquet multipliers. */
+    readonly multipliers?: boolean;
   } = {},
 ): RefinedOrbit {
   const options = {
@@ -136,7 +138,7 @@ export function refineOrbit(
     ...(settings.check ? { check: settings.check } : {}),
   };
   const coarse = shootOrbit(system, guess, fractions, trajectory, options);
-  const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian });
+  const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian, multipliers: settings.multipliers ?? false });
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the

@@ -1,4 +1,5 @@
-import type { Circuit, SpecCriterion, StartupAnalysis } from "../circuit/circuit.js";
+import type { Circuit, SpecCriterion, StartupAnalysis, StudyMeasure } from "../circuit/circuit.js";
+import { steadySample } from "./steady-sample.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { runStartup } from "../analyses/startup.js";
 import { isRunLimitError, RunBudget } from "../analyses/limits.js";
@@ -54,6 +55,8 @@ export interface SampleSettings {
   readonly criteria: readonly SpecCriterion[];
   /** Solver tolerances to change from their defaults. */
   readonly tolerances?: Partial<Tolerances>;
+  /** `steady`: each sample's figures come from its periodic steady state (see `steadySample`). */
+  readonly measure?: StudyMeasure;
 }
 
 /** The first startup analysis of a circuit, which every sample is judged on. */
@@ -67,6 +70,7 @@ export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined
  * a limit that runs out ({@link RunLimitError}) stops it and is thrown, so the study stops too.
  */
 export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
+  if (settings.measure === "steady") return steadySample(circuit, settings, budget);
   const analysis = startupAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {

@@ -81,7 +81,7 @@ export async function runToleranceStudy(
   const budget = budgetOf(options);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
-  const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}) };
+  const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}), ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}) };
   const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;

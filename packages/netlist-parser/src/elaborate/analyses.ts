@@ -1,4 +1,4 @@
-import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type UnitSymbol } from "@onset/core";
+import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type SteadyAnalysis, type UnitSymbol } from "@onset/core";
 import { problem, raise } from "../errors.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
@@ -53,6 +53,16 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     accuracy: { ...ACCURACY, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
     "accuracy-floor": ACCURACY_FLOOR,
   },
+  steady: {
+    probe: { type: "probe", summary: "probe the periodic steady state is measured on" },
+    from: { type: "word", words: ["startup", "poles"], summary: "where the shooting starts: a short transient in the growing mode (startup) or the poles' frequency (poles)" },
+    cycles: { type: "number", unit: "1", min: 1, max: 100_000, integer: true, summary: "periods of transient before the shooting (default 60 from startup, levelling off earlier; 4 from poles; 3 when driven)" },
+    "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
+    harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
+    bandwidth: { type: "number", unit: "Hz", ...positive, summary: "THD counts the harmonics below this frequency instead" },
+    accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
+    "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
+  },
   response: {
     from: { type: "source", summary: "independent source driven with a unit small signal" },
     to: { type: "probe", summary: "probe the response is measured on" },
@@ -70,12 +80,14 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     runs: { type: "number", unit: "1", min: 1, integer: true, summary: "number of Monte Carlo samples" },
     seed: { type: "number", unit: "1", min: 0, integer: true, summary: "seed of the samples" },
     dist: { type: "word", words: ["normal", "uniform"], summary: "distribution of each toleranced value" },
+    measure: { type: "word", words: ["startup", "steady"], summary: "what each sample measures: its start-up run, or its periodic steady state" },
   },
 };
 
 const required: Readonly<Record<string, readonly string[]>> = {
   transient: ["until"],
   startup: ["probe"],
+  steady: ["probe"],
   response: ["from", "to"],
   sweep: ["from", "to"],
   tolerance: ["runs"],
@@ -251,6 +263,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
         span,
       );
     }
+    case "steady":
+      return withSpan(steady(readOptions(ctx, a, globals, () => undefined), a), span);
     case "response": {
       const o = readOptions(ctx, a, globals, () => undefined);
       const { start, stop } = o.num;
@@ -271,11 +285,33 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     }
     case "tolerance": {
       const o = readOptions(ctx, a, globals, () => undefined);
-      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform" }, span);
+      const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
+      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
     }
     case "sweep":
       return sweep(ctx, a, globals, span);
   }
+}
+
+/** A `steady` statement's spec. */
+function steady(o: Parsed, l: Located<AnalysisStatement>): SteadyAnalysis {
+  const bandwidth = o.given.get("bandwidth");
+  if (bandwidth && o.given.has("harmonics")) {
+    raise("conflicting-options", "steady takes harmonics= or bandwidth=, not both", spanIn(l, bandwidth.keySpan), {
+      hint: "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency",
+    });
+  }
+  return {
+    kind: "steady",
+    probe: o.probe.probe!,
+    from: (o.word.from ?? "startup") as "startup" | "poles",
+    ...(o.num.cycles === undefined ? {} : { cycles: o.num.cycles }),
+    ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
+    ...(o.num.harmonics === undefined ? {} : { harmonics: o.num.harmonics }),
+    ...(o.num.bandwidth === undefined ? {} : { bandwidth: o.num.bandwidth }),
+    ...(o.num.accuracy === undefined ? {} : { accuracy: o.num.accuracy }),
+    ...(o.num["accuracy-floor"] === undefined ? {} : { accuracyFloor: o.num["accuracy-floor"] }),
+  };
 }
 
 /** The `startup` options that act only under some kicks, and the kicks they act under. */

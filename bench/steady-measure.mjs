@@ -1,0 +1,34 @@
+// One measurement of bench/suites/steady.mjs, in a process of its own: the example's start-up run
+// to settled (its own startup statement) or the steady analysis on the same probe, timed after one
+// warm-up run; prints one JSON line.
+import { readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { runStartup, runSteady, startupAnalysisOf } from "@onset/core";
+import { elaborate, loadProgram } from "@onset/netlist-parser";
+
+const [name, method, repeats = "3"] = process.argv.slice(2);
+const file = fileURLToPath(new URL(`../examples/${name}.onset`, import.meta.url));
+const { program } = loadProgram(file, readFileSync(file, "utf8"));
+const { circuit } = elaborate(program, {});
+const startup = startupAnalysisOf(circuit);
+const steady = { kind: "steady", probe: startup.probe };
+const once = () => (method === "startup" ? runStartup(circuit, startup) : runSteady(circuit, steady));
+let result = once();
+const times = [];
+for (let k = 0; k < Number(repeats); k++) {
+  const t0 = performance.now();
+  result = once();
+  times.push(performance.now() - t0);
+}
+times.sort((a, b) => a - b);
+console.log(
+  JSON.stringify({
+    name,
+    method,
+    ms: times[times.length >> 1],
+    verdict: result.verdict ?? (result.found ? "found" : "none"),
+    frequency: result.frequency,
+    amplitude: result.amplitude,
+    thd: result.thd,
+  }),
+);

@@ -1,0 +1,62 @@
+// Issue 15: the periodic steady state by shooting against the start-up run to settled. Each
+// measurement runs in a process of its own (bench/steady-measure.mjs, bench/steady-study.mjs),
+// the two methods side by side: per example, the wall time of one warm run and the settled
+// figures of both; then the bridge source's tolerance study with measure=steady on 1 and 2
+// workers against the same study with start-up runs.
+import { execFileSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
+import { printTable } from "../table.mjs";
+
+export const title = "Steady state by shooting against the start-up run to settled (wall time, agreement, tolerance study)";
+
+const EXAMPLES = ["bridge-excitation", "cable-tracer", "tuning-reference"];
+const REPEATS = Number(process.env.ONSET_BENCH_REPEATS ?? 5);
+const RUNS = Number(process.env.ONSET_BENCH_RUNS ?? 1000);
+
+function measure(script, args) {
+  const path = fileURLToPath(new URL(`../${script}`, import.meta.url));
+  return JSON.parse(execFileSync(process.execPath, [path, ...args], { encoding: "utf8" }).trim().split("\n").pop());
+}
+
+const rel = (a, b) => (a === null || b === null ? "—" : `${(Math.abs(a / b - 1) * 100).toExponential(1)} %`);
+
+export async function run() {
+  const rows = [];
+  const ratios = [];
+  for (const name of EXAMPLES) {
+    const startup = measure("steady-measure.mjs", [name, "startup", String(REPEATS)]);
+    const steady = measure("steady-measure.mjs", [name, "steady", String(REPEATS)]);
+    ratios.push(startup.ms / steady.ms);
+    rows.push({
+      example: name,
+      "start-up ms": startup.ms.toFixed(1),
+      "steady ms": steady.ms.toFixed(1),
+      ratio: `${(startup.ms / steady.ms).toFixed(1)}×`,
+      "Δf": rel(steady.frequency, startup.frequency),
+      "ΔA": rel(steady.amplitude, startup.amplitude),
+      "ΔTHD": rel(steady.thd, startup.thd),
+    });
+  }
+  printTable(rows);
+  console.log(`\nwall time, start-up to settled / steady: ${ratios.map((r) => `${r.toFixed(1)}×`).join(", ")} (target ≥ 10×)`);
+  console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
+
+  const studies = [measure("steady-study.mjs", ["startup", "2", String(RUNS)]), measure("steady-study.mjs", ["steady", "1", String(RUNS)]), measure("steady-study.mjs", ["steady", "2", String(RUNS)])];
+  console.log("");
+  printTable(
+    studies.map((s) => ({
+      measure: s.measure,
+      workers: s.jobs,
+      samples: s.runs,
+      "wall s": (s.ms / 1000).toFixed(2),
+      "ms/sample": (s.ms / s.runs).toFixed(1),
+      yield: `${(s.yield * 100).toFixed(1)} %`,
+      "median f": `${s.medianFrequency?.toFixed(2)} Hz`,
+      "median A": `${s.medianAmplitude?.toFixed(4)} V`,
+      digest: s.digest,
+    })),
+  );
+  const [startupStudy, one, two] = studies;
+  console.log(`\nstart-up runs / measure=steady on 2 workers: ${(startupStudy.ms / two.ms).toFixed(1)}×; measure=steady samples identical on 1 and 2 workers: ${one.digest === two.digest}`);
+  console.log(`target: ≤ 3 s for 1000 samples with measure=steady on 2 cores (${RUNS} run here: ${((two.ms / RUNS) * 1000 / 1000).toFixed(2)} s per 1000 at this rate)`);
+}

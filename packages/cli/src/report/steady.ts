@@ -1,0 +1,86 @@
+import type { Multiplier, SteadyResult } from "@onset/core";
+import type { Paint } from "../color.js";
+import { formatPlain } from "../format/index.js";
+import { harmonicLines, withBar } from "./startup.js";
+import { pairs } from "./table.js";
+import { perSecond, si } from "./values.js";
+
+/** How many non-trivial multipliers the report lists. */
+const LISTED_MULTIPLIERS = 4;
+
+/** A multiplier as `0.8412` or `0.61 ± 0.12j`, its magnitude after a complex one. */
+function multiplierText(m: Multiplier): string {
+  const size = Math.hypot(m.re, m.im);
+  if (Math.abs(m.im) <= 1e-12 * Math.max(1, size)) return formatPlain(m.re, 4);
+  return `${formatPlain(m.re, 4)} ± ${formatPlain(Math.abs(m.im), 4)}j (|μ| ${formatPlain(size, 4)})`;
+}
+
+/** Where the shooting started, in words. */
+function startText(r: SteadyResult): string {
+  const t = r.transient;
+  const run = `${t.periods} periods of transient (${si(t.until, "s")})`;
+  switch (r.from) {
+    case "driven":
+      return `${run} from the bias point, then shooting with the sources' period`;
+    case "poles":
+      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period`;
+    case "startup":
+      return `the growing mode, ${run}, then shooting from the measured period`;
+  }
+}
+
+/**
+ * The steady-state report: what was found (or why nothing), the figures over one period with
+ * their error bars, the harmonics, the orbit's stability from its Floquet multipliers, the
+ * linear prediction, and how the orbit was found.
+ */
+export function steadyReport(r: SteadyResult, p: Paint): string[] {
+  const head = `${p.bold(`steady state on ${r.probe}`)}: `;
+  const unit = r.unit;
+  if (!r.found) {
+    const lines = [`${head}${p.red("no orbit")}`, `  ${r.explanation}`];
+    if (r.predicted.frequency !== null) lines.push(p.dim(`  poles: dominant pair ${si(r.predicted.frequency, "Hz")}, growth rate ${perSecond(r.predicted.growthRate)}`));
+    if (r.transient.periods > 0) lines.push(p.dim(`  tried: ${startText(r)}`));
+    return lines;
+  }
+  const s = r.stability!;
+  const verdict = s.verdict === "stable" ? p.green("stable orbit") : s.verdict === "unstable" ? p.red("unstable orbit") : p.yellow("marginal orbit");
+  const e = r.numericalError ?? undefined;
+  const [, lastOrder] = r.thdOrders;
+  const lines = [`${head}${verdict}${r.kind === "driven" ? p.dim(" (driven)") : ""}`, `  ${r.explanation}`, ""];
+  lines.push(
+    ...pairs([
+      ["frequency", withBar(r.frequency, e?.frequency, "Hz")],
+      ["amplitude", `${withBar(r.amplitude, e?.amplitude, unit)} peak`],
+      ["peak-to-peak", si(r.peakToPeak, unit)],
+      ["rms", withBar(r.rms, e?.rms, unit)],
+      ["offset", si(r.offset, unit, 3)],
+      [`THD (2–${lastOrder})`, withBar(r.thd, e?.thd, "1")],
+    ]),
+  );
+  lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
+  lines.push("", "  stability (Floquet multipliers, the trivial one left out)");
+  const listed = r.multipliers.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
+  const more = r.multipliers.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
+  const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none (one state)"]];
+  if (s.rate !== null) entries.push([s.verdict === "unstable" ? "disturbance grows" : "disturbance decays", perSecond(Math.abs(s.rate))]);
+  if (s.cyclesToSettle !== null) entries.push(["to 1 % in", `${formatPlain(s.cyclesToSettle, 3)} periods (${si(s.cyclesToSettle * r.period!, "s", 3)})`]);
+  lines.push(...pairs(entries, "    "));
+  if (r.kind === "autonomous") {
+    lines.push("", "  linear prediction at the bias point");
+    const predicted: [string, string][] = [
+      ["frequency", si(r.predicted.frequency, "Hz")],
+      ["growth rate", perSecond(r.predicted.growthRate)],
+    ];
+    if (r.predicted.startupTime !== null) predicted.push(["start-up time", `${si(r.predicted.startupTime, "s")} (predicted: growth at that rate from the thermal noise to 90 % of the amplitude)`]);
+    lines.push(...pairs(predicted, "    "));
+  }
+  const t = r.transient.solver;
+  lines.push(
+    "",
+    p.dim(`  found from ${startText(r)}; Newton ${r.iterations![0]} + ${r.iterations![1]} periods on ${r.points![0]} and ${r.points![1]} points per period, extrapolated (± bounds the numerical error)`),
+    p.dim(`  solver (transient): ${t.accepted} steps, ${t.rejected} rejected, ${t.newtonIterations} Newton iterations, largest step ${si(r.transient.maxStep, "s", 3)}`),
+  );
+  for (const w of r.warnings) lines.push(p.yellow(`  warning: ${w.message}`), p.dim(`    hint: ${w.hint}`));
+  return lines;
+}

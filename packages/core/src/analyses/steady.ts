@@ -1,0 +1,388 @@
+import type { Circuit, SteadyAnalysis, StartupAnalysis } from "../circuit/circuit.js";
+import { probeName } from "../circuit/circuit.js";
+import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
+import { formatQuantity } from "../metrics/format.js";
+import type { Harmonic } from "../metrics/spectrum.js";
+import { NewtonSolver } from "../solver/newton.js";
+import type { QuantityUnit } from "../solver/quantities.js";
+import { buildSystem, type MnaSystem } from "../solver/system.js";
+import { absoluteTolerances, accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import { OrbitApproach } from "../steady/approach.js";
+import { modeOfPole } from "../steady/growing-mode.js";
+import { orbitMetrics, orbitWaveform } from "../steady/orbit-metrics.js";
+import type { PeriodStart } from "../steady/periodic-map.js";
+import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
+import { shootOrbit, type Multiplier, type ShootingOptions } from "../steady/shooting.js";
+import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
+import { solveBias } from "./bias.js";
+import { defaultWarnings } from "./default-rails.js";
+import { excitationSetup, periodicDrives } from "./excitation.js";
+import { budgetOf, isRunLimitError, type RunBudget } from "./limits.js";
+import { linearize } from "./linearize.js";
+import { noiseLevel } from "./noise-level.js";
+import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
+import { probeReader, probeUnit, probeWeights, type ProbeReader } from "./probes.js";
+import { cornersWithin } from "./settled-orbit.js";
+import { amplitudeLimit, thdOrder } from "./startup.js";
+import { TransientStepper, type StepperStats } from "./stepper.js";
+import type { RunOptions } from "./transient.js";
+
+/** Periods of transient before the first shooting, by where it starts (`cycles=` overrides). */
+export const DEFAULT_STEADY_CYCLES: Readonly<Record<"startup" | "poles" | "driven", number>> = { startup: 60, poles: 4, driven: 3 };
+/** A failed shooting is retried after another batch of transient periods, this many times at most. */
+const RETRIES = 4;
+/** Steps per guessed period when the file sets no max-step. */
+const STEPS_PER_PERIOD = 100;
+/** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures). */
+const ORBIT_SHARE = 1e-5;
+/**
+ * The growing mode starts with its largest node swinging over the amplifiers' half output range
+ * (4 V without amplifiers): above the orbit rather than below, since a limiter pulls a large
+ * swing down within a few periods while a small one grows only at the poles' slow rate.
+ */
+const KICK_SHARE = 1;
+/** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
+const COMMON_PERIOD = 1e-9;
+/** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
+const COLLAPSED = 100;
+/** Fraction of the amplitude at which the start-up time is counted (the start-up metric's own). */
+const STARTUP_FRACTION = 0.9;
+
+/** The linear prediction at the bias point, beside the orbit. */
+export interface SteadyPrediction {
+  /** Hz: the dominant pair's imaginary part / 2π, or null without a complex pair. */
+  readonly frequency: number | null;
+  /** 1/s: the dominant pair's real part. */
+  readonly growthRate: number | null;
+  readonly starts: boolean;
+  /**
+   * Predicted start-up time (s): ln(0.9·A / k)/σ, the envelope growing at the poles' rate from
+   * k = √2 × the thermal noise at the probe to 90 % of the orbit's amplitude A. It is a linear
+   * prediction (saturation slows the last part of the growth); null when it does not apply.
+   */
+  readonly startupTime: number | null;
+}
+
+/** What `runSteady` returns: the periodic steady state's figures on the probe, its stability, or why there is none. */
+export interface SteadyResult {
+  readonly analysis: "steady";
+  readonly probe: string;
+  readonly unit: QuantityUnit;
+  /** True when a periodic orbit was found; every figure below is null (and the lists empty) otherwise. */
+  readonly found: boolean;
+  /** One sentence: the orbit and its stability, or why no orbit was found. */
+  readonly explanation: string;
+  /** `autonomous`: the period is the circuit's own; `driven`: the sources' common period. */
+  readonly kind: "autonomous" | "driven";
+  /** Where the shooting started. */
+  readonly from: "startup" | "poles" | "driven";
+  readonly frequency: number | null;
+  readonly period: number | null;
+  readonly amplitude: number | null;
+  readonly peakToPeak: number | null;
+  readonly rms: number | null;
+  readonly offset: number | null;
+  readonly thd: number | null;
+  readonly thdOrders: readonly [number, number];
+  readonly harmonics: readonly Harmonic[];
+  /** Error bars of the figures (absolute, in their own units), from the two grids. */
+  readonly numericalError: NumericalError | null;
+  /** Newton iterations (periods integrated) of the shooting on the two grids. */
+  readonly iterations: readonly [number, number] | null;
+  /** Grid points per period on the two grids. */
+  readonly points: readonly [number, number] | null;
+  /** The non-trivial Floquet multipliers, largest magnitude first. */
+  readonly multipliers: readonly Multiplier[];
+  readonly stability: OrbitStability | null;
+  readonly predicted: SteadyPrediction;
+  /** The transient before the shooting: periods and simulated time. */
+  readonly transient: { readonly periods: number; readonly until: number; readonly maxStep: number; readonly solver: StepperStats };
+  readonly warnings: readonly Diagnostic[];
+  /** The probe over one period of the orbit (times from the orbit's start); empty without an orbit. */
+  readonly waveform: { readonly time: Float64Array; readonly values: Float64Array };
+}
+
+/** How `steady` runs inside a study: the predicted start-up time needs the noise analysis, which a study may skip. */
+export interface SteadyOptions extends RunOptions {
+  /** Compute the predicted start-up time (default true). */
+  readonly predictStartup?: boolean;
+  /**
+   * Shoot on the transient's own grid only, without the halved grid and the extrapolation (no
+   * error bars): a study's samples, whose spread dwarfs the grid's error, at less than half the cost.
+   */
+  readonly singleGrid?: boolean;
+}
+
+/**
+ * Runs a `steady` analysis: the bias point and its poles; then, for a circuit driven by
+ * periodic sources, a few periods of transient and shooting with the sources' common period;
+ * for an autonomous circuit whose poles say it starts, a short transient started in the growing
+ * mode (so no time is spent growing out of noise) and shooting with the period an unknown and a
+ * phase condition (Aprille & Trick 1972). The figures come from the orbit on the transient's
+ * own grid and on it halved, extrapolated in the step (as the start-up's settled figures), and
+ * the Floquet multipliers tell whether the orbit attracts. A circuit whose poles decay, or
+ * whose transient dies out, or whose shooting finds nothing, gets `found: false` and why.
+ */
+export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): SteadyResult {
+  const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
+  const budget = budgetOf(options);
+  const system = buildSystem(circuit, options.extraParts);
+  const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
+  let poles: Pole[] = [];
+  try {
+    poles = pencilPoles(linearize(system, bias.x));
+  } catch (error) {
+    if (!isOnsetError(error)) throw error;
+  }
+  budget.check("after the bias point and poles", analysis.span);
+  const pole = dominantPair(poles);
+  const growing = rightmostGrowing(poles);
+  const drives = periodicDrives(circuit);
+  const read = probeReader(system, analysis.probe);
+  const base = {
+    probe: probeName(analysis.probe),
+    unit: probeUnit(system, analysis.probe),
+    warnings: defaultWarnings(circuit),
+  };
+  const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false };
+
+  if (drives.length > 0) {
+    const period = commonPeriod(drives);
+    const from = "driven" as const;
+    const predicted = { ...prediction, startupTime: null };
+    if (period === null) {
+      const transient = { periods: 0, until: 0, maxStep: analysis.maxStep ?? 0, solver: emptyStats() };
+      return noOrbit({ ...base, kind: "driven", from, predicted, transient }, "no periodic orbit: the sources' frequencies have no common period");
+    }
+    const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+    const stepper = new TransientStepper(system, { start: { t: 0, x: bias.x }, maxStep, tolerances });
+    const none = (why: string) => noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, 0, maxStep) }, why);
+    const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
+    budget.watch(stepper, "the steady state's transient", analysis.span);
+    stepper.advance(periods * period);
+    const shot = shoot(context, stepper, period, maxStep, false);
+    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
+    return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
+  }
+
+  const from = analysis.from ?? "startup";
+  const predicted = { ...prediction, startupTime: null };
+  const guessPeriod = pole ? (2 * Math.PI) / pole.imag : null;
+  const maxStep = analysis.maxStep ?? (guessPeriod ?? 1e-3) / STEPS_PER_PERIOD;
+  const idle = () => ({ ...base, kind: "autonomous" as const, from, predicted, transient: { periods: 0, until: 0, maxStep, solver: emptyStats() } });
+  if (!growing) return noOrbit(idle(), `no periodic orbit: the circuit does not oscillate — ${polesVerdict(pole)}`);
+  if (guessPeriod === null) {
+    return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
+  }
+  const mode = modeOfPole(linearize(system, bias.x), pole!);
+  if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
+  const start = kicked(system, bias.x, mode);
+  const stepper = new TransientStepper(system, { start: { t: 0, x: start }, maxStep, tolerances });
+  budget.watch(stepper, "the steady state's transient", analysis.span);
+  const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
+  const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
+  const check = () => budget.check("during the steady state's transient", analysis.span);
+  let why = "";
+  for (let attempt = 0; attempt <= RETRIES; attempt++) {
+    const where = approach.advance(batch, from === "startup", check);
+    if (where.kind === "died-out") {
+      return noOrbit({ ...idle(), transient: transientOf(stepper, where.periods, maxStep) }, `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`);
+    }
+    const period = from === "startup" ? where.period : guessPeriod;
+    const shot = shoot(context, stepper, period, maxStep, true);
+    if (typeof shot !== "string") {
+      const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
+      return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient: transientOf(stepper, approach.periods, maxStep) });
+    }
+    why = shot;
+  }
+  return noOrbit({ ...idle(), transient: transientOf(stepper, approach.periods, maxStep) }, `no periodic orbit found after ${approach.periods} periods of transient: ${why}`);
+}
+
+interface Context {
+  readonly circuit: Circuit;
+  readonly analysis: SteadyAnalysis;
+  readonly system: MnaSystem;
+  readonly tolerances: Tolerances;
+  readonly budget: RunBudget;
+  readonly read: ProbeReader;
+  readonly singleGrid: boolean;
+}
+
+type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from" | "predicted" | "transient">;
+
+/** The rightmost pole in the right half-plane (real or complex), or null. */
+function rightmostGrowing(poles: readonly Pole[]): Pole | null {
+  for (const p of poles) if (p.imag >= 0 && (p.imag > 0 ? startsFrom(p) : p.real > 0)) return p;
+  return null;
+}
+
+/** What the poles say about a circuit that does not start. */
+function polesVerdict(pole: Pole | null): string {
+  if (!pole) return "the poles at the bias point are all real and none grows";
+  const f = formatQuantity(pole.imag / (2 * Math.PI), "Hz");
+  return startsFrom(pole)
+    ? `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`
+    : `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
+}
+
+/** The period every source repeats within (the lowest frequency's, when the others are its multiples), or null. */
+function commonPeriod(drives: readonly number[]): number | null {
+  const lowest = Math.min(...drives);
+  for (const d of drives) if (Math.abs(d / lowest - Math.round(d / lowest)) > COMMON_PERIOD * (d / lowest)) return null;
+  return 1 / lowest;
+}
+
+/**
+ * bias + k·mode on the charged unknowns, with k so that the mode's largest node voltage swings
+ * by the amplifiers' half range (or 4 V). The algebraic unknowns start at the bias point and
+ * the first step solves them: the mode's values there can lie far out on a diode's exponential,
+ * where Newton would not find its way back.
+ */
+function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array): Float64Array {
+  let peak = 0;
+  for (let i = 0; i < system.n; i++) if (system.unknowns[i]!.isNode) peak = Math.max(peak, Math.abs(mode[i]!));
+  if (!(peak > 0)) for (let i = 0; i < system.n; i++) peak = Math.max(peak, Math.abs(mode[i]!));
+  const level = KICK_SHARE * (amplitudeLimit(system, bias) ?? 4);
+  const x = Float64Array.from(bias);
+  for (const j of system.stateColumns) x[j] = bias[j]! + (level / peak) * mode[j]!;
+  return x;
+}
+
+/**
+ * One period recorded from the stepper's state and refined by shooting (see `refineOrbit`),
+ * with the Floquet multipliers; the reason when no orbit is found, or when the shooting only
+ * found the rest point.
+ */
+function shoot(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean): RefinedOrbit | string {
+  try {
+    const { guess, fractions, trajectory } = recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances);
+    const settings = {
+      tolerances: c.tolerances,
+      autonomous,
+      relative: ORBIT_SHARE * c.tolerances.lteRelative,
+      corners: autonomous ? [] : cornersWithin(c.system, guess.t0, period),
+      multipliers: true,
+      check: () => c.budget.check("during the steady state's shooting", c.analysis.span),
+    };
+    const orders = thdOrder(c.analysis, 1 / period);
+    const refined = c.singleGrid ? singleGridOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings) : refineOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings);
+    if (collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
+    return refined;
+  } catch (error) {
+    if (!isOnsetError(error) || isRunLimitError(error)) throw error;
+    return error.diagnostic.message;
+  }
+}
+
+/** The orbit on the transient's own grid only, as a refined orbit without error bars (`numericalError` zero, both grids the same). */
+function singleGridOrbit(
+  system: MnaSystem,
+  guess: PeriodStart,
+  fractions: Float64Array,
+  trajectory: readonly Float64Array[],
+  read: ProbeReader,
+  orders: number,
+  settings: ShootingOptions & { readonly corners: readonly number[] },
+): RefinedOrbit {
+  const orbit = shootOrbit(system, guess, fractions, trajectory, settings);
+  const metrics = orbitMetrics(orbit, read, orders, settings.corners);
+  return { ...metrics, numericalError: { frequency: 0, amplitude: 0, rms: 0, thd: 0 }, orbit, points: [fractions.length, fractions.length], iterations: [orbit.iterations, 0] };
+}
+
+/** True when every charged state of the orbit swings by less than a few hundred times its tolerance. */
+function collapsed(system: MnaSystem, tolerances: Tolerances, refined: RefinedOrbit): boolean {
+  const floor = absoluteTolerances(system.unknowns, tolerances, "lte");
+  for (const j of system.stateColumns) {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const x of refined.orbit.states) {
+      lo = Math.min(lo, x[j]!);
+      hi = Math.max(hi, x[j]!);
+    }
+    if (hi - lo > COLLAPSED * floor[j]!) return false;
+  }
+  return true;
+}
+
+/** ln(0.9·A/k)/σ from the thermal noise's level k at the probe (√2 × its r.m.s.). */
+function predictedStartup(c: Context, x: Float64Array, poles: readonly Pole[], pole: Pole, amplitude: number): number | null {
+  if (!(pole.real > 0)) return null;
+  const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal" };
+  const setup = excitationSetup(c.circuit, c.system, thermal, "thermal", pole.imag / (2 * Math.PI));
+  if (setup.generators.length === 0) return null;
+  const rms = noiseLevel(linearize(c.system, x), probeWeights(c.system, c.analysis.probe, x), setup.generators, setup.bank.corner, poles);
+  const k = Math.SQRT2 * rms;
+  return k > 0 && STARTUP_FRACTION * amplitude > k ? Math.log((STARTUP_FRACTION * amplitude) / k) / pole.real : null;
+}
+
+function transientOf(stepper: TransientStepper, periods: number, maxStep: number): SteadyResult["transient"] {
+  return { periods, until: stepper.t, maxStep, solver: { ...stepper.stats } };
+}
+
+function emptyStats(): StepperStats {
+  return { accepted: 0, rejected: 0, newtonFailures: 0, newtonIterations: 0, factorizations: 0, breakpoints: 0 };
+}
+
+function noOrbit(common: Common, explanation: string): SteadyResult {
+  return {
+    analysis: "steady",
+    ...common,
+    found: false,
+    explanation,
+    frequency: null,
+    period: null,
+    amplitude: null,
+    peakToPeak: null,
+    rms: null,
+    offset: null,
+    thd: null,
+    thdOrders: [2, 2],
+    harmonics: [],
+    numericalError: null,
+    iterations: null,
+    points: null,
+    multipliers: [],
+    stability: null,
+    waveform: { time: new Float64Array(0), values: new Float64Array(0) },
+  };
+}
+
+function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
+  const period = orbit.orbit.start.period;
+  const multipliers = nonTrivialMultipliers(orbit.orbit.multipliers, common.kind === "autonomous");
+  const stability = orbitStability(multipliers, period);
+  const unit = common.unit;
+  const what = `${common.kind === "driven" ? "driven orbit" : "oscillates"} at ${formatQuantity(orbit.frequency, "Hz")}, ${formatQuantity(orbit.amplitude, unit)} peak`;
+  const how =
+    stability.verdict === "stable"
+      ? stability.largest
+        ? `stable: a disturbance shrinks by ${Math.hypot(stability.largest.re, stability.largest.im).toPrecision(3)} per period`
+        : "stable"
+      : stability.verdict === "unstable"
+        ? `unstable: a disturbance grows by ${Math.hypot(stability.largest!.re, stability.largest!.im).toPrecision(3)} per period, so the circuit leaves this orbit`
+        : "marginal: its largest multiplier lies on the unit circle";
+  if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
+  return {
+    analysis: "steady",
+    ...common,
+    found: true,
+    explanation: `${what}; ${how}`,
+    frequency: orbit.frequency,
+    period: 1 / orbit.frequency,
+    amplitude: orbit.amplitude,
+    peakToPeak: orbit.peakToPeak,
+    rms: orbit.rms,
+    offset: orbit.offset,
+    thd: orbit.thd,
+    thdOrders: [2, orbit.harmonics.length],
+    harmonics: orbit.harmonics,
+    numericalError: c.singleGrid ? null : orbit.numericalError,
+    iterations: orbit.iterations,
+    points: orbit.points,
+    multipliers,
+    stability,
+    waveform: orbitWaveform(orbit.orbit, c.read),
+  };
+}

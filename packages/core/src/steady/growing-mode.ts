@@ -1,0 +1,64 @@
+import type { SmallSignal } from "../analyses/linearize.js";
+import type { Pole } from "../analyses/poles.js";
+import { LuSolver } from "../solver/lu.js";
+
+/** The shift of inverse iteration from the pole, relative to |s|: near enough to converge in a few solves, far enough that the matrix is not singular. */
+const SHIFT = 1e-7;
+/** Inverse-iteration solves. */
+const SOLVES = 4;
+
+/**
+ * The natural mode of a pole: a real vector v with (G + s·C)·(v + j·w) = 0 for some w, rotated
+ * so that its largest entry is real (its peak); the circuit started at bias + k·v rings (or
+ * grows) in that mode alone. Inverse iteration (Golub & Van Loan, *Matrix Computations*, §7.6.1)
+ * on the real form of the complex pencil, [[G + σC, −ωC], [ωC, G + σC]], shifted a little off
+ * the pole. Null when the pencil cannot be factored there.
+ */
+export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
+  const { n, G, C } = ss;
+  const m = 2 * n;
+  const sigma = pole.real + SHIFT * Math.hypot(pole.real, pole.imag, 1);
+  const omega = pole.imag;
+  const a = new Float64Array(m * m);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const diagonal = G[i * n + j]! + sigma * C[i * n + j]!;
+      const off = omega * C[i * n + j]!;
+      a[i * m + j] = diagonal;
+      a[(i + n) * m + (j + n)] = diagonal;
+      a[i * m + (j + n)] = -off;
+      a[(i + n) * m + j] = off;
+    }
+  }
+  const lu = new LuSolver(m, { compile: false });
+  if (!lu.factor(a)) return null;
+  // Start from every charged direction at once; C·y keeps the algebraic unknowns out of the right-hand side.
+  let y = new Float64Array(m).fill(1);
+  const rhs = new Float64Array(m);
+  for (let solve = 0; solve < SOLVES; solve++) {
+    for (let i = 0; i < n; i++) {
+      let re = 0;
+      let im = 0;
+      for (let j = 0; j < n; j++) {
+        re += C[i * n + j]! * y[j]!;
+        im += C[i * n + j]! * y[j + n]!;
+      }
+      rhs[i] = re;
+      rhs[i + n] = im;
+    }
+    const next = new Float64Array(m);
+    lu.solve(rhs, next);
+    let peak = 0;
+    for (let k = 0; k < m; k++) peak = Math.max(peak, Math.abs(next[k]!));
+    if (!(peak > 0) || !Number.isFinite(peak)) return null;
+    for (let k = 0; k < m; k++) next[k] = next[k]! / peak;
+    y = next;
+  }
+  // Rotate by the conjugate phase of the largest entry.
+  let top = 0;
+  for (let i = 1; i < n; i++) if (Math.hypot(y[i]!, y[i + n]!) > Math.hypot(y[top]!, y[top + n]!)) top = i;
+  const size = Math.hypot(y[top]!, y[top + n]!);
+  const c = y[top]! / size;
+  const s = -y[top + n]! / size;
+  return Float64Array.from({ length: n }, (_, i) => y[i]! * c - y[i + n]! * s);
+}

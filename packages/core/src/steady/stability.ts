@@ -1,0 +1,49 @@
+import type { Multiplier } from "./shooting.js";
+
+/** A multiplier within this of the unit circle is neither attracting nor repelling to the map's accuracy. */
+const MARGIN = 1e-6;
+/** Multipliers below this are the algebraic unknowns and modes that die out within a period (rounding zeros): not listed. */
+const MEMORYLESS = 1e-10;
+/** The disturbance left after the reported number of periods. */
+const SETTLED_SHARE = 0.01;
+
+/** How an orbit answers a small disturbance: from its largest non-trivial Floquet multiplier. */
+export interface OrbitStability {
+  /** `stable`: every disturbance dies out; `unstable`: some grows; `marginal`: the largest is on the unit circle to the map's accuracy. */
+  readonly verdict: "stable" | "unstable" | "marginal";
+  /** The largest non-trivial multiplier, or null when there is none (a one-state circuit's autonomous orbit). */
+  readonly largest: Multiplier | null;
+  /** 1/s: ln|μ|/T, the disturbance's growth (positive) or decay (negative) rate. */
+  readonly rate: number | null;
+  /** Periods for a disturbance to shrink to 1 % (stable orbits only). */
+  readonly cyclesToSettle: number | null;
+}
+
+/**
+ * The multipliers that say something about stability: an autonomous orbit's monodromy matrix
+ * has the eigenvalue 1 (a shift along the orbit neither grows nor shrinks), so the multiplier
+ * nearest 1 is dropped (a driven orbit has no trivial one); so are those below 1e-10, the
+ * algebraic unknowns' and the modes that die out within a period.
+ */
+export function nonTrivialMultipliers(multipliers: readonly Multiplier[], autonomous: boolean): Multiplier[] {
+  const telling = (m: Multiplier) => Math.hypot(m.re, m.im) >= MEMORYLESS;
+  if (!autonomous || multipliers.length === 0) return multipliers.filter(telling);
+  let trivial = 0;
+  for (let k = 1; k < multipliers.length; k++) {
+    const m = multipliers[k]!;
+    const t = multipliers[trivial]!;
+    if (Math.hypot(m.re - 1, m.im) < Math.hypot(t.re - 1, t.im)) trivial = k;
+  }
+  return multipliers.filter((m, k) => k !== trivial && telling(m));
+}
+
+/** The orbit's stability from its non-trivial multipliers (largest magnitude first) and its period. */
+export function orbitStability(nonTrivial: readonly Multiplier[], period: number): OrbitStability {
+  const largest = nonTrivial.reduce<Multiplier | null>((best, m) => (best === null || Math.hypot(m.re, m.im) > Math.hypot(best.re, best.im) ? m : best), null);
+  if (largest === null) return { verdict: "stable", largest: null, rate: null, cyclesToSettle: null };
+  const size = Math.hypot(largest.re, largest.im);
+  const verdict = size > 1 + MARGIN ? "unstable" : size < 1 - MARGIN ? "stable" : "marginal";
+  const rate = size > 0 ? Math.log(size) / period : -Infinity;
+  const cyclesToSettle = verdict === "stable" ? (size > 0 ? Math.log(SETTLED_SHARE) / Math.log(size) : 0) : null;
+  return { verdict, largest, rate: Number.isFinite(rate) ? rate : null, cyclesToSettle };
+}

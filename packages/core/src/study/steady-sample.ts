@@ -1,0 +1,69 @@
+import type { Circuit, SteadyAnalysis } from "../circuit/circuit.js";
+import { RunBudget } from "../analyses/limits.js";
+import { runSteady, type SteadyResult } from "../analyses/steady.js";
+import type { StartupVerdict } from "../metrics/verdict.js";
+import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
+import { failureMessage, startupAnalysisOf, type SampleMetrics, type SampleOutcome, type SampleSettings } from "./sample.js";
+
+/** The file's steady analysis, or one on its start-up's probe (with its THD orders and accuracy). */
+export function steadyAnalysisOf(circuit: Circuit): SteadyAnalysis | undefined {
+  const own = circuit.analyses.find((a): a is SteadyAnalysis => a.kind === "steady");
+  if (own) return own;
+  const startup = startupAnalysisOf(circuit);
+  if (!startup) return undefined;
+  return {
+    kind: "steady",
+    probe: startup.probe,
+    ...(startup.harmonics === undefined ? {} : { harmonics: startup.harmonics }),
+    ...(startup.bandwidth === undefined ? {} : { bandwidth: startup.bandwidth }),
+    ...(startup.accuracy === undefined ? {} : { accuracy: startup.accuracy }),
+    ...(startup.accuracyFloor === undefined ? {} : { accuracyFloor: startup.accuracyFloor }),
+    ...(startup.maxStep === undefined ? {} : { maxStep: startup.maxStep }),
+    ...(startup.span ? { span: startup.span } : {}),
+  };
+}
+
+/**
+ * A steady result as a start-up verdict: a stable (or marginal) orbit is `settled`, an unstable
+ * one `unsettled` (the circuit would leave it); without an orbit, `decaying` when the poles do
+ * not start, else `unsettled` (it oscillates, but no periodic orbit was found).
+ */
+export function steadyVerdict(r: SteadyResult): StartupVerdict {
+  if (r.found) return r.stability?.verdict === "unstable" ? "unsettled" : "settled";
+  return r.kind === "autonomous" && !r.predicted.starts ? "decaying" : "unsettled";
+}
+
+/**
+ * One Monte Carlo sample measured by its periodic steady state: the file's `steady` analysis (or
+ * one on its start-up's probe) with the drawn values, on the transient's own grid only (the
+ * samples' spread dwarfs the grid's error). There is no simulated start-up: the
+ * start-up time is the linear prediction (see `SteadyPrediction.startupTime`), computed only
+ * when a criterion reads it; settling time and measured growth rate are null.
+ */
+export function steadySample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
+  const analysis = steadyAnalysisOf(circuit);
+  if (!analysis) return { metrics: null, pass: false, failures: ["no steady or startup analysis"], error: "the file has neither a steady nor a startup analysis" };
+  const criteria = sampleCriteria(settings.criteria);
+  try {
+    const r = runSteady(circuit, analysis, { tolerances: settings.tolerances, budget, predictStartup: criteria.some((c) => c.metric === "startup"), singleGrid: true });
+    const verdict = steadyVerdict(r);
+    const metrics: SampleMetrics = {
+      verdict,
+      frequency: r.frequency,
+      amplitude: r.amplitude,
+      thd: r.thd,
+      startupTime: r.predicted.startupTime,
+      settlingTime: null,
+      growthRate: null,
+      offset: r.offset,
+      rms: r.rms,
+      peakToPeak: r.peakToPeak,
+      predictedFrequency: r.predicted.frequency,
+      predictedGrowthRate: r.predicted.growthRate,
+    };
+    const failures = criteria.filter((c) => !meets(c, judgedValue(metrics, c))).map((c) => c.text);
+    return { metrics, pass: failures.length === 0 && verdict === "settled", failures: verdict === "settled" ? failures : [`verdict ${verdict}`, ...failures] };
+  } catch (error) {
+    return { metrics: null, pass: false, failures: ["simulation failed"], error: failureMessage(error) };
+  }
+}
