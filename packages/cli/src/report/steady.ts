@@ -1,9 +1,9 @@
 import type { Multiplier, SteadyResult } from "@onset/core";
 import type { Paint } from "../color.js";
 import { formatPlain } from "../format/index.js";
-import { harmonicLines, withBar } from "./startup.js";
+import { harmonicLines } from "./startup.js";
 import { pairs } from "./table.js";
-import { perSecond, si } from "./values.js";
+import { perSecond, si, withBar } from "./values.js";
 
 /** How many non-trivial multipliers the report lists. */
 const LISTED_MULTIPLIERS = 4;

@@ -60,6 +60,7 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       peakToPeak: r.peakToPeak,
       predictedFrequency: r.predicted.frequency,
       predictedGrowthRate: r.predicted.growthRate,
+      numericalError: r.numericalError,
     };
     const failures = criteria.filter((c) => !meets(c, judgedValue(metrics, c))).map((c) => c.text);
     return { metrics, pass: failures.length === 0 && verdict === "settled", failures: verdict === "settled" ? failures : [`verdict ${verdict}`, ...failures] };
