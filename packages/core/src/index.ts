@@ -77,7 +77,22 @@ export type { NumericalError } from "./steady/refine.js";
 export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";
 export type { Excitation } from "./analyses/excitation.js";
 export { circuitSpec, isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
-export type { AnalysisResult, CircuitRun, SimulatingAnalysis } from "./analyses/run.js";
+export type { CircuitRun } from "./analyses/run.js";
+export { analysisModel, analysisModels } from "./analyses/registry.js";
+export type { AnalysisResult, SimulatingAnalysis, SimulatingKind } from "./analyses/registry.js";
+export type { AnalysisModel, ResultOf, SpecOf } from "./analyses/analysis-model.js";
+export { POSITIVE } from "./circuit/analysis-schema.js";
+export type {
+  AnalysisChecks,
+  AnalysisNameOption,
+  AnalysisNumberOption,
+  AnalysisOption,
+  AnalysisOptions,
+  AnalysisOptionValues,
+  AnalysisRange,
+  AnalysisWordOption,
+  OptionPlace,
+} from "./circuit/analysis-schema.js";
 
 // Metrics and specs
 export { measureStartup } from "./metrics/startup.js";
