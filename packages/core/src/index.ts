@@ -81,7 +81,6 @@ export type { CircuitRun } from "./analyses/run.js";
 export { analysisModel, analysisModels } from "./analyses/registry.js";
 export type { AnalysisResult, SimulatingAnalysis, SimulatingKind } from "./analyses/registry.js";
 export type { AnalysisModel, ResultOf, SpecOf } from "./analyses/analysis-model.js";
-export { POSITIVE } from "./circuit/analysis-schema.js";
 export type {
   AnalysisChecks,
   AnalysisNameOption,

@@ -73,6 +73,3 @@ export interface AnalysisChecks {
   /** Reports a warning and goes on. */
   warn(option: string, place: OptionPlace, code: string, message: string, hint: string): void;
 }
-
-/** The range of a quantity that must be above zero (a time, a frequency). */
-export const POSITIVE: AnalysisRange = { min: 0, minExclusive: true };

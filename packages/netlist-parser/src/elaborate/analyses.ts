@@ -2,7 +2,6 @@ import {
   analysisModel,
   analysisModels,
   didYouMean,
-  POSITIVE,
   type AnalysisChecks,
   type AnalysisOption as CoreAnalysisOption,
   type AnalysisOptions,
@@ -32,7 +31,7 @@ const studyOptions: Readonly<Record<"sweep" | "tolerance", AnalysisOptions>> = {
     from: { type: "number", unit: "1", required: true, summary: "first value (in the target's unit)" },
     to: { type: "number", unit: "1", required: true, summary: "last value (in the target's unit)" },
     steps: { type: "number", unit: "1", min: 2, integer: true, summary: "number of values, both ends included" },
-    step: { type: "number", unit: "1", ...POSITIVE, summary: "increment between values" },
+    step: { type: "number", unit: "1", min: 0, minExclusive: true, summary: "increment between values" },
   },
   tolerance: {
     runs: { type: "number", unit: "1", min: 1, integer: true, required: true, summary: "number of Monte Carlo samples" },

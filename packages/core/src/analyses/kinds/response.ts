@@ -1,4 +1,3 @@
-import { POSITIVE } from "../../circuit/analysis-schema.js";
 import type { ResponseAnalysis } from "../../circuit/circuit.js";
 import type { AnalysisModel } from "../analysis-model.js";
 import { runResponse, type ResponseResult } from "../response.js";
@@ -10,8 +9,8 @@ export const response: AnalysisModel<ResponseAnalysis, ResponseResult> = {
   options: {
     from: { type: "source", required: true, summary: "independent source driven with a unit small signal" },
     to: { type: "probe", required: true, summary: "probe the response is measured on" },
-    start: { type: "number", unit: "Hz", ...POSITIVE, summary: "lowest frequency" },
-    stop: { type: "number", unit: "Hz", ...POSITIVE, summary: "highest frequency" },
+    start: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "lowest frequency" },
+    stop: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "highest frequency" },
     "per-decade": { type: "number", unit: "1", min: 1, integer: true, summary: "points per decade" },
   },
   build: (o, checks) => {

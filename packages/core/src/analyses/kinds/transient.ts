@@ -1,4 +1,3 @@
-import { POSITIVE } from "../../circuit/analysis-schema.js";
 import type { TransientAnalysis } from "../../circuit/circuit.js";
 import type { AnalysisModel } from "../analysis-model.js";
 import { runTransient, type TransientResult } from "../transient.js";
@@ -8,8 +7,8 @@ export const transient: AnalysisModel<TransientAnalysis, TransientResult> = {
   keyword: "transient",
   summary: "the time response from the bias point or from rest, probes recorded at every accepted step",
   options: {
-    until: { type: "number", unit: "s", ...POSITIVE, required: true, summary: "end time" },
-    "max-step": { type: "number", unit: "s", ...POSITIVE, summary: "largest time step" },
+    until: { type: "number", unit: "s", min: 0, minExclusive: true, required: true, summary: "end time" },
+    "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
     start: { type: "word", words: ["bias", "rest"], summary: "starting state: the bias point or rest" },
     probes: { type: "probes", summary: "list of probes to record (default: every node)" },
   },
