@@ -188,6 +188,14 @@ describe("overrides (--set)", () => {
     ]);
   });
 
+  test("a rule across analysis options broken by a set value is reported at the keyword (the value is not on the line)", () => {
+    const text = "vsource V1 a gnd 1\nresistor R1 a gnd 1k\nresponse from=V1 to=a start=1k\n";
+    const r = elaborate(program(text), { overrides: { "response.stop": "100" } });
+    expect(r.diagnostics.map((d) => ({ code: d.code, message: d.message, at: text.slice(d.span!.start, d.span!.end), hint: d.hint }))).toEqual([
+      { code: "out-of-range", message: "response stop= must be above start=, got 1000 Hz to 100 Hz", at: "response", hint: "swap start= and stop=" },
+    ]);
+  });
+
   test("an override value in the wrong unit, or out of range, is an error", () => {
     expect(elaborate(twinT, { overrides: { Rl: "1uF" } }).diagnostics.map((d) => d.code)).toEqual(["unit-mismatch"]);
     expect(elaborate(twinT, { overrides: { "N1.P1.at": "1.5" } }).diagnostics.map((d) => d.code)).toEqual(["out-of-range"]);

@@ -83,7 +83,21 @@ export type { Multiplier } from "./steady/shooting.js";
 export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";
 export type { Excitation } from "./analyses/excitation.js";
 export { circuitSpec, isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";
-export type { AnalysisResult, CircuitRun, SimulatingAnalysis } from "./analyses/run.js";
+export type { CircuitRun } from "./analyses/run.js";
+export { analysisModel, analysisModels } from "./analyses/registry.js";
+export type { AnalysisResult, SimulatingAnalysis, SimulatingKind } from "./analyses/registry.js";
+export type { AnalysisModel, ResultOf, SpecOf } from "./analyses/analysis-model.js";
+export type {
+  AnalysisChecks,
+  AnalysisNameOption,
+  AnalysisNumberOption,
+  AnalysisOption,
+  AnalysisOptions,
+  AnalysisOptionValues,
+  AnalysisRange,
+  AnalysisWordOption,
+  OptionPlace,
+} from "./circuit/analysis-schema.js";
 
 // Metrics and specs
 export { measureStartup } from "./metrics/startup.js";
@@ -104,6 +118,7 @@ export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";
 export { designOscillator, STARTUP_GROWTH, twinTCrossing } from "./design/oscillator.js";
 export type { DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
+export type { DesignedAnalysis, DesignedCriterion, DesignedFile, DesignedPart } from "./design/designed-file.js";
 export type { SeriesName } from "./design/eseries.js";
 export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";

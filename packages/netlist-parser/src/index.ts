@@ -17,6 +17,7 @@ export { elaborate, overrideTargets } from "./elaborate/elaborate.js";
 export type { Overrides } from "./elaborate/context.js";
 export { checkProgram } from "./check.js";
 export { formatText, formatProgram } from "./format.js";
+export { printDesignedFile } from "./print-design.js";
 export { renderDiagnostic } from "./render.js";
 export type { SourceFiles } from "./render.js";
 export { lineColumnAt } from "./positions.js";

@@ -1,12 +1,15 @@
-import { partKinds } from "@onset/core";
+import { analysisModels, partKinds, type SimulatingKind } from "@onset/core";
 
 /** Statements that describe the file and its definitions. */
 export const definitionKeywords = ["title", "param", "include", "preset", "block", "end", "use"] as const;
 
-/** Analysis statements. */
-export const analysisKeywords = ["bias", "transient", "startup", "steady", "response", "poles", "sweep", "tolerance", "spec"] as const;
+/** The statements that run the simulating analyses (sweep, tolerance) and the spec. */
+export const studyKeywords = ["sweep", "tolerance", "spec"] as const;
 
-export type AnalysisKeyword = (typeof analysisKeywords)[number];
+export type AnalysisKeyword = SimulatingKind | (typeof studyKeywords)[number];
+
+/** Analysis statements: the simulating analyses of core's registry, then the studies and the spec. */
+export const analysisKeywords: readonly AnalysisKeyword[] = [...(Object.keys(analysisModels) as SimulatingKind[]), ...studyKeywords];
 
 const analysisSet: ReadonlySet<string> = new Set(analysisKeywords);
 

@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { designOscillator, E_SERIES, runStartup, snapToSeries, startupAnalysisOf, twinTCrossing, type Topology } from "@onset/core";
-import { elaborate, parseText } from "@onset/netlist-parser";
+import { designOscillator, E_SERIES, runStartup, snapToSeries, startupAnalysisOf, twinTCrossing, type DesignedFile, type Topology } from "@onset/core";
+import { elaborate, parseText, printDesignedFile } from "@onset/netlist-parser";
 
 function elaborated(text: string) {
   const { program, diagnostics } = parseText(text, "design.onset");
@@ -15,9 +15,9 @@ const inSeries = (v: number, series: keyof typeof E_SERIES) => {
   return E_SERIES[series].some((m) => Math.abs(m - mantissa) < 1e-9);
 };
 
-/** The start-up of a designed file as `onset run` gives it: parsed, elaborated, its own startup analysis. */
-function simulate(text: string) {
-  const circuit = elaborated(text);
+/** The start-up of a designed file as `onset run` gives it: printed, parsed, elaborated, its own startup analysis. */
+function simulate(file: DesignedFile) {
+  const circuit = elaborated(printDesignedFile(file));
   return runStartup(circuit, startupAnalysisOf(circuit)!);
 }
 
@@ -25,11 +25,11 @@ describe.each(["wien", "twin-t", "phase-shift"] as const)("onset design %s --fre
   const d = designOscillator({ topology, frequency: 1000 }, { simulate });
 
   test("reports the frequency the written file settles at, labelled apart from the small-signal poles", () => {
-    const run = simulate(d.text);
+    const run = simulate(d.file);
     expect(run.verdict).toBe("settled");
     expect(d.simulated).toEqual({ verdict: "settled", frequency: run.frequency, amplitude: run.amplitude, thd: run.thd, startupTime: run.startupTime, error: run.frequency! / 1000 - 1 });
-    expect(d.text).toContain(`# simulated start-up of this file: settles at ${run.frequency!.toFixed(2)} Hz (${(d.simulated!.error! * 100).toFixed(2)} % from the target)`);
-    expect(d.text).toContain("# small-signal poles of the snapped circuit (the start):");
+    expect(printDesignedFile(d.file)).toContain(`# simulated start-up of this file: settles at ${run.frequency!.toFixed(2)} Hz (${(d.simulated!.error! * 100).toFixed(2)} % from the target)`);
+    expect(printDesignedFile(d.file)).toContain("# small-signal poles of the snapped circuit (the start):");
     // The settled frequency is what the design is judged on: within 1.5 % of the target for all
     // three, where the ladder's poles (with its start margin, gain 33 > 29) sit about 5 % low.
     expect(Math.abs(d.simulated!.error!)).toBeLessThan(0.015);
@@ -61,19 +61,19 @@ describe.each([
   const d = designOscillator({ topology, frequency, series });
 
   test("writes a file that parses and elaborates, with every resistor in the series and snapped log-nearest", () => {
-    const circuit = elaborated(d.text);
+    const circuit = elaborated(printDesignedFile(d.file));
     for (const p of circuit.parts.filter((x) => x.kind === "resistor")) expect(inSeries(p.value!, series)).toBe(true);
     for (const ch of d.choices.filter((x) => x.unit === "Ω")) expect(ch.chosen).toBe(snapToSeries(ch.ideal, series));
-    expect(d.text).toContain("startup probe=o until=auto");
-    expect(d.text).toMatch(/^tolerance runs=\d+/m);
-    expect(d.text).toMatch(/^spec frequency=/m);
+    expect(printDesignedFile(d.file)).toContain("startup probe=o until=auto");
+    expect(printDesignedFile(d.file)).toMatch(/^tolerance runs=\d+/m);
+    expect(printDesignedFile(d.file)).toMatch(/^spec frequency=/m);
   });
 
   test("the comment block states ideal and snapped values, the predicted frequency and its error", () => {
-    expect(d.text).toMatch(/ideal [\d.]+kΩ → [\d.]+kΩ/);
-    expect(d.text).toContain(`small-signal poles of the snapped circuit (the start): ${d.predicted.frequency.toFixed(2)} Hz`);
+    expect(printDesignedFile(d.file)).toMatch(/ideal [\d.]+kΩ → [\d.]+kΩ/);
+    expect(printDesignedFile(d.file)).toContain(`small-signal poles of the snapped circuit (the start): ${d.predicted.frequency.toFixed(2)} Hz`);
     expect(d.simulated).toBeNull();
-    expect(d.text).not.toContain("simulated");
+    expect(printDesignedFile(d.file)).not.toContain("simulated");
     expect(Math.abs(d.error)).toBeLessThan(topology === "phase-shift" ? 0.08 : 0.03);
   });
 
@@ -83,7 +83,7 @@ describe.each([
   });
 
   test("the design runs: it settles, near the predicted frequency (the phase-shift ladder's settled gain falls back to 29)", () => {
-    const circuit = elaborated(d.text);
+    const circuit = elaborated(printDesignedFile(d.file));
     const r = runStartup(circuit, startupAnalysisOf(circuit)!);
     expect(r.verdict).toBe("settled");
     // Wien and twin-T: limiting barely moves the frequency; the ladder's frequency depends on its

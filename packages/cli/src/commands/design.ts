@@ -1,5 +1,5 @@
-import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
-import { elaborate, parseQuantity, parseText } from "@onset/netlist-parser";
+import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignedFile, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
+import { elaborate, parseQuantity, parseText, printDesignedFile } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
 import { EXIT } from "../exit.js";
@@ -18,9 +18,9 @@ function quantity(text: string, unit: "Hz" | "F" | "s", option: string): number 
   return value;
 }
 
-/** Runs the start-up analysis of a designed file exactly as `onset run` would (nominal values). */
-function simulateDesign(text: string) {
-  const parsed = parseText(text, "design.onset");
+/** Runs the start-up analysis of a designed file, printed and read back exactly as `onset run` would (nominal values). */
+function simulateDesign(file: DesignedFile) {
+  const parsed = parseText(printDesignedFile(file), "design.onset");
   const { circuit, diagnostics } = elaborate(parsed.program);
   const analysis = circuit && startupAnalysisOf(circuit);
   if (!analysis) throw new CliError([...parsed.diagnostics, ...diagnostics]);
@@ -64,12 +64,13 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
   };
   const result = designOscillator(request, { simulate: simulateDesign });
+  const text = printDesignedFile(result.file);
   ctx.note(designSummary(result));
   if (output !== null) {
-    writeOutput(output, result.text, ctx.io.stdout);
+    writeOutput(output, text, ctx.io.stdout);
     if (output.kind !== "stdout") ctx.note(`wrote ${output.shown}`);
   }
-  if (ctx.json) ctx.io.stdout(`${JSON.stringify({ ...result, exit: EXIT.ok }, null, 2)}\n`);
-  else if (output === null) ctx.io.stdout(result.text);
+  if (ctx.json) ctx.io.stdout(`${JSON.stringify({ ...result, text, exit: EXIT.ok }, null, 2)}\n`);
+  else if (output === null) ctx.io.stdout(text);
   return EXIT.ok;
 }

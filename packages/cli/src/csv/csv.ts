@@ -22,3 +22,13 @@ export function csvDocument(header: readonly string[], rows: Iterable<readonly s
   for (const row of rows) lines.push(row.join(","));
   return `${lines.join("\n")}\n`;
 }
+
+/** A column heading: the name and its unit, `o (V)`, `time (s)`. */
+export function headed(name: string, unit: string): string {
+  return `${name} (${unit})`;
+}
+
+/** The rows of sampled columns against time: the time, then each column's value at that point. */
+export function* columnRows(time: Float64Array, columns: readonly Float64Array[]): Generator<string[]> {
+  for (let k = 0; k < time.length; k++) yield [csvNumber(time[k]), ...columns.map((c) => csvNumber(c[k]))];
+}

@@ -1,4 +1,5 @@
-import { resultCsv } from "../csv/plain.js";
+import type { SimulatingKind } from "@onset/core";
+import { hasCsv, resultCsv } from "../csv/plain.js";
 import { studyCsv } from "../csv/study.js";
 import { sweepCsv } from "../csv/sweep.js";
 import { renderFigure, type Figure } from "../plot/index.js";
@@ -27,11 +28,11 @@ export function outcomeCsvs(outcome: Outcome): string[] {
 
 /**
  * How many CSV and SVG documents an outcome makes, known before simulating: one each for a
- * study or a sweep; for plain runs a CSV per analysis and a plot per analysis that has one.
+ * study or a sweep; for plain runs a CSV and a plot per analysis that has one.
  */
-export function documentCounts(plainKinds: readonly string[] | null): { csv: number; svg: number } {
+export function documentCounts(plainKinds: readonly SimulatingKind[] | null): { csv: number; svg: number } {
   if (plainKinds === null) return { csv: 1, svg: 1 };
-  return { csv: plainKinds.length, svg: plainKinds.filter(hasFigure).length };
+  return { csv: plainKinds.filter(hasCsv).length, svg: plainKinds.filter(hasFigure).length };
 }
 
 /** The figures of an outcome, in file order (bias and poles have none). */

@@ -1,37 +1,12 @@
-import type { StartupResult } from "@onset/core";
+import { writersOf } from "../analyses/registry.js";
 import type { Paint } from "../color.js";
-import { biasReport } from "../report/bias.js";
-import { polesReport } from "../report/poles.js";
-import { predictionCheck } from "../report/prediction.js";
-import { responseReport } from "../report/response.js";
 import { specReport } from "../report/spec.js";
-import { startupReport } from "../report/startup.js";
-import { steadyReport } from "../report/steady.js";
 import { studyText } from "../report/study.js";
 import { sweepText } from "../report/sweep.js";
-import { transientReport } from "../report/transient.js";
 import type { Outcome, ReportSubject } from "./outcome.js";
 
 function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[][] {
-  const firstStartup = outcome.runs.find((x) => x.result.analysis === "startup");
-  return outcome.runs.map(({ analysis, result }) => {
-    switch (result.analysis) {
-      case "bias":
-        return biasReport(result, p);
-      case "transient":
-        return transientReport(analysis as Extract<typeof analysis, { kind: "transient" }>, result, p);
-      case "startup":
-        return startupReport(result, result.unit, p);
-      case "steady":
-        return steadyReport(result, p);
-      case "poles": {
-        const check = firstStartup ? predictionCheck(result, firstStartup.result as StartupResult) : null;
-        return polesReport(result, check, firstStartup ? (firstStartup.result as StartupResult).unit : "V", p);
-      }
-      case "response":
-        return responseReport(result, p);
-    }
-  });
+  return outcome.runs.map((run) => writersOf(run.result.analysis).text(run, outcome.runs, p));
 }
 
 /** The readable report: a heading, one section per analysis (or the study), then the spec. */

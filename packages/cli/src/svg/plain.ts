@@ -1,50 +1,15 @@
+import type { SimulatingKind } from "@onset/core";
+import { writersOf } from "../analyses/registry.js";
 import type { Figure } from "../plot/index.js";
-import { responseFigure, startupFigure, transientFigure } from "../plot/index.js";
 import type { AnalysisRun } from "../report/plain-types.js";
 
-/** True when an analysis of this kind has a figure; bias and poles are tables (see `resultFigure`). */
-export function hasFigure(kind: string): boolean {
-  return kind !== "bias" && kind !== "poles";
+/** True when an analysis of this kind has a figure (bias and poles are tables). */
+export function hasFigure(kind: SimulatingKind): boolean {
+  return writersOf(kind).figure !== undefined;
 }
 
-/**
- * The figure of one analysis, or null when it has none (bias and poles are tables):
- * transient → probes against time; start-up → waveform with its envelope, start-up and
- * settling markers and the spectrum; response → magnitude and phase (Bode).
- */
+/** The figure of one analysis (each analysis's writer in `analyses/`), or null when it has none. */
 export function resultFigure(run: AnalysisRun, title: string): Figure | null {
-  const r = run.result;
-  switch (r.analysis) {
-    case "transient":
-      return transientFigure({ title: `${title} \u2014 transient`, time: r.time, probes: r.signals.map((s) => ({ name: s.name, unit: s.unit, values: s.values })) });
-    case "startup": {
-      return startupFigure({
-        title: `${title} \u2014 start-up on ${r.probe} (${r.verdict})`,
-        time: r.waveform.time,
-        probe: { name: r.probe, unit: r.unit, values: r.waveform.values },
-        envelope: { time: r.envelope.time, values: r.envelope.value },
-        offset: r.offset ?? 0,
-        ...(r.startupTime === null ? {} : { startupTime: r.startupTime }),
-        ...(r.settlingTime === null ? {} : { settlingTime: r.settlingTime }),
-        harmonics: r.harmonics,
-        ...(r.thd === null ? {} : { thd: r.thd }),
-      });
-    }
-    case "steady":
-      return r.found ? transientFigure({ title: `${title} \u2014 one period of the steady state on ${r.probe}`, time: r.waveform.time, probes: [{ name: r.probe, unit: r.unit, values: r.waveform.values }] }) : null;
-    case "response": {
-      const inverted = r.phaseCrossings.find((c) => Math.abs(c.phase) === 180);
-      return responseFigure({
-        title: `${title} \u2014 response of ${r.to} to ${r.from}`,
-        frequency: r.points.map((p) => p.frequency),
-        magnitude: r.points.map((p) => p.magnitude),
-        phase: r.points.map((p) => p.phase),
-        ...(r.notch ? { notch: r.notch.frequency } : {}),
-        ...(inverted ? { phaseCrossing: inverted.frequency } : {}),
-      });
-    }
-    case "bias":
-    case "poles":
-      return null;
-  }
+  const figure = writersOf(run.result.analysis).figure;
+  return figure ? figure(run.result, title) : null;
 }

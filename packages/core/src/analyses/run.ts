@@ -1,46 +1,20 @@
 import type { AnalysisSpec, Circuit, SpecAnalysis } from "../circuit/circuit.js";
 import { evaluateSpec, sampleCriteria, type SpecReport } from "../spec/evaluate.js";
-import { runBias, type BiasResult } from "./bias-report.js";
-import { runPoles, type PolesResult } from "./poles.js";
-import { runResponse, type ResponseResult } from "./response.js";
-import { runStartup, type StartupResult } from "./startup.js";
-import { runSteady, type SteadyResult } from "./steady.js";
-import { runTransient, type RunOptions, type TransientResult } from "./transient.js";
+import type { StartupResult } from "./startup.js";
+import type { RunOptions } from "./transient.js";
 import { budgetOf } from "./limits.js";
-import { startupSpread } from "../study/startup-spread.js";
+import { analysisModel, type AnalysisResult, type SimulatingAnalysis } from "./registry.js";
 
-/** The result of one simulating analysis. */
-export type AnalysisResult = BiasResult | TransientResult | StartupResult | SteadyResult | ResponseResult | PolesResult;
+export type { AnalysisResult, SimulatingAnalysis } from "./registry.js";
 
-/** Analyses that simulate the circuit once (as opposed to studies and specs). */
-export type SimulatingAnalysis = Extract<AnalysisSpec, { kind: "bias" | "transient" | "startup" | "steady" | "response" | "poles" }>;
-
-/** True for an analysis that simulates the circuit once (bias, transient, startup, steady, response, poles). */
+/** True for an analysis that simulates the circuit once (one listed in `analysisModels`). */
 export function isSimulating(a: AnalysisSpec): a is SimulatingAnalysis {
-  return a.kind === "bias" || a.kind === "transient" || a.kind === "startup" || a.kind === "steady" || a.kind === "response" || a.kind === "poles";
+  return analysisModel(a.kind) !== undefined;
 }
 
 /** Runs one simulating analysis. */
 export function runAnalysis(circuit: Circuit, analysis: SimulatingAnalysis, options: RunOptions = {}): AnalysisResult {
-  switch (analysis.kind) {
-    case "bias":
-      return runBias(circuit, analysis, options);
-    case "transient":
-      return runTransient(circuit, analysis, options);
-    case "startup": {
-      // The further seeds share the first run's budget: the wall time counts from this call.
-      const shared = { ...options, budget: budgetOf(options) };
-      const first = runStartup(circuit, analysis, shared);
-      if (!((analysis.seeds ?? 1) > 1) || options.seedSpread === false) return first;
-      return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, shared) };
-    }
-    case "steady":
-      return runSteady(circuit, analysis, options);
-    case "response":
-      return runResponse(circuit, analysis, options);
-    case "poles":
-      return runPoles(circuit, analysis, options);
-  }
+  return analysisModel(analysis.kind)!.run(circuit, analysis, options);
 }
 
 /** What `runCircuit` returns: every simulating analysis's result in file order, and the spec checked. */

@@ -1,6 +1,6 @@
 import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
-import type { Diagnostic } from "../circuit/diagnostic.js";
+import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatQuantity } from "../metrics/format.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
@@ -16,7 +16,7 @@ import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, firstCycleRms, periodicDrives, type Excitation } from "./excitation.js";
 import { GrowableSeries } from "./growable.js";
 import { latchedAt, outputRange } from "./latch.js";
-import { linearize } from "./linearize.js";
+import { linearize, type SmallSignal } from "./linearize.js";
 import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
@@ -110,12 +110,17 @@ export interface StartupResult extends StartupMetrics {
   readonly waveform: { readonly time: Float64Array; readonly values: Float64Array };
 }
 
-/** The linear prediction at the bias point: every pole of the linearised circuit, its dominant pair. */
-function predict(system: MnaSystem, x: Float64Array): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
+/**
+ * The linear prediction from the circuit linearised at its bias point: every pole, the dominant
+ * pair. A pencil singular at every frequency tried (`singular-pencil`) has none, and the run goes
+ * on without it; any other error is a fault and propagates.
+ */
+export function linearPrediction(ss: SmallSignal): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
   try {
-    const poles = pencilPoles(linearize(system, x));
+    const poles = pencilPoles(ss);
     return { poles, pole: dominantPair(poles), ok: true };
-  } catch {
+  } catch (error) {
+    if (!isOnsetError(error) || error.diagnostic.code !== "singular-pencil") throw error;
     return { poles: [], pole: null, ok: false };
   }
 }
@@ -152,7 +157,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   // The prediction comes from the powered circuit without any excitation.
   const plain = buildSystem(circuit, options.extraParts);
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
-  const { poles, pole, ok } = predict(plain, bias.x);
+  const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x));
   budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;
@@ -165,14 +170,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const system = withSources(run, sources);
 
   // The noise level the tool's own excitation leaves at the probe, through the linearised circuit.
-  let noiseAtProbe = 0;
-  if (setup.generators.length > 0) {
-    try {
-      noiseAtProbe = noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles);
-    } catch {
-      noiseAtProbe = 0;
-    }
-  }
+  // (A frequency where the circuit is singular is left out of its integral, so it does not throw.)
+  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles) : 0;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);

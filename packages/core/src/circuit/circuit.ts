@@ -1,4 +1,5 @@
 import type { SourceSpan } from "./diagnostic.js";
+import type { SimulatingAnalysis } from "../analyses/registry.js";
 import type { UnitSymbol } from "./schema.js";
 
 /** The reserved ground node. */
@@ -212,17 +213,11 @@ export interface SpecAnalysis {
   readonly span?: SourceSpan;
 }
 
-/** Any analysis a circuit file can hold, told apart by `kind`. */
-export type AnalysisSpec =
-  | BiasAnalysis
-  | TransientAnalysis
-  | StartupAnalysis
-  | SteadyAnalysis
-  | ResponseAnalysis
-  | PolesAnalysis
-  | SweepAnalysis
-  | ToleranceAnalysis
-  | SpecAnalysis;
+/**
+ * Any analysis a circuit file can hold, told apart by `kind`: the simulating analyses of the
+ * registry (`analyses/registry.ts`), the studies that run them, and the spec.
+ */
+export type AnalysisSpec = SimulatingAnalysis | SweepAnalysis | ToleranceAnalysis | SpecAnalysis;
 
 /**
  * A value that a Monte Carlo run may draw: `target` is its override name (`R`, `Ra`, `N1.Ra`,

@@ -6,6 +6,7 @@ import { builtinPresets } from "../devices/registry.js";
 import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
 import { snapToSeries, type SeriesName } from "./eseries.js";
 import { withPrefix } from "../units/si-prefix.js";
+import type { DesignedFile, DesignedPart } from "./designed-file.js";
 
 /** The oscillator topologies `onset design` sizes. */
 export type Topology = "wien" | "twin-t" | "phase-shift";
@@ -35,7 +36,7 @@ export interface DesignChoice {
   readonly unit: "Ω" | "F";
 }
 
-/** A sized oscillator: the snapped part values, the frequency they give and the file text to run. */
+/** A sized oscillator: the snapped part values, the frequency they give and the file to run. */
 export interface DesignResult {
   readonly request: Required<Omit<DesignRequest, "capacitor">> & { readonly capacitor: number };
   readonly choices: readonly DesignChoice[];
@@ -54,8 +55,8 @@ export interface DesignResult {
   readonly simulated: SimulatedStartup | null;
   /** What was chosen and why, one sentence each. */
   readonly notes: readonly string[];
-  /** A ready-to-run circuit file in the Onset language. */
-  readonly text: string;
+  /** A ready-to-run circuit file, as data: `printDesignedFile` of `@onset/netlist-parser` writes it in the language. */
+  readonly file: DesignedFile;
 }
 
 /**
@@ -79,24 +80,15 @@ export interface SimulatedStartup {
 /** What {@link designOscillator} may do beyond sizing: simulate the file it writes. */
 export interface DesignOptions {
   /**
-   * Runs the start-up analysis of the written file and returns its metrics. Core cannot read
-   * the language, so the caller parses and elaborates the text, e.g. with `@onset/netlist-parser`:
-   * `(text) => { const c = elaborate(parseText(text, "design.onset").program).circuit!; return runStartup(c, startupAnalysisOf(c)!); }`.
+   * Runs the start-up analysis of the written file and returns its metrics. Core cannot write or
+   * read the language, so the caller prints the file and reads it back, e.g. with `@onset/netlist-parser`:
+   * `(file) => { const c = elaborate(parseText(printDesignedFile(file), "design.onset").program).circuit!; return runStartup(c, startupAnalysisOf(c)!); }`.
    */
-  readonly simulate?: (text: string) => Omit<SimulatedStartup, "error">;
+  readonly simulate?: (file: DesignedFile) => Omit<SimulatedStartup, "error">;
 }
 
-/** One line of the generated file: a part with its value, tolerance and options. */
-interface Line {
-  readonly kind: string;
-  readonly name: string;
-  readonly nodes: readonly string[];
-  readonly value?: number;
-  readonly tolerance?: number;
-  readonly options?: Readonly<Record<string, OptionValue>>;
-  /** Written after the line. */
-  readonly comment?: string;
-}
+/** One part line of the generated file. */
+type Line = DesignedPart;
 
 interface Sizing {
   readonly lines: readonly Line[];
@@ -309,15 +301,6 @@ function twinT(req: DesignResult["request"], required: number): Sizing {
   };
 }
 
-function renderLine(l: Line, widths: number[]): string {
-  const value = l.value === undefined ? "" : `${writeValue(l.value)}${l.tolerance ? `±${Math.round(l.tolerance * 100)}%` : ""}`;
-  const options = Object.entries(l.options ?? {}).map(([k, v]) => `${k}=${Array.isArray(v) ? `(${v.join(", ")})` : String(v)}`);
-  const cells = [l.kind, l.name, ...l.nodes];
-  const head = cells.map((c, i) => c.padEnd(widths[i] ?? c.length)).join("  ");
-  const tail = [value, ...options].filter((x) => x !== "").join("  ");
-  return `${head}  ${tail}`.trimEnd() + (l.comment ? `   # ${l.comment}` : "");
-}
-
 /** A measured value with a prefix and a space before its unit (`8.599 V`, `74.29 ms`). */
 function quantity(value: number, unit: string): string {
   const { mantissa, prefix } = withPrefix(value);
@@ -327,50 +310,52 @@ function quantity(value: number, unit: string): string {
 /** The header line of the simulated start-up: what the file settles at, which the target is judged on. */
 function simulatedLine(sim: SimulatedStartup | null, pct: (x: number) => string): string[] {
   if (!sim) return [];
-  if (sim.verdict !== "settled" || sim.frequency === null || sim.error === null) return [`# simulated start-up of this file: ${sim.verdict}, no settled frequency`];
+  if (sim.verdict !== "settled" || sim.frequency === null || sim.error === null) return [`simulated start-up of this file: ${sim.verdict}, no settled frequency`];
   const parts = [
     `settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target)`,
     ...(sim.amplitude === null ? [] : [`${quantity(sim.amplitude, "V")} peak`]),
     ...(sim.thd === null ? [] : [`THD ${pct(sim.thd)}`]),
     ...(sim.startupTime === null ? [] : [`90 % reached at ${quantity(sim.startupTime, "s")}`]),
   ];
-  return [`# simulated start-up of this file: ${parts.join(", ")}`];
+  return [`simulated start-up of this file: ${parts.join(", ")}`];
 }
 
-function renderText(result: Omit<DesignResult, "text">, sizing: Sizing): string {
+function designedFile(result: Omit<DesignResult, "file">, sizing: Sizing): DesignedFile {
   const { request: req } = result;
-  const widths: number[] = [];
-  for (const l of sizing.lines) [l.kind, l.name, ...l.nodes].forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
   const pct = (x: number) => `${(x * 100).toFixed(2)} %`;
   const header = [
-    `# Designed by onset design ${req.topology} for ${writeValue(req.frequency)}Hz (${req.series}, op-amp preset ${req.preset}).`,
-    ...sizing.description.map((d) => `# ${d}`),
-    "#",
+    `Designed by onset design ${req.topology} for ${writeValue(req.frequency)}Hz (${req.series}, op-amp preset ${req.preset}).`,
+    ...sizing.description,
+    "",
     ...result.choices.map((ch) =>
       ch.ideal === ch.chosen
-        ? `# ${ch.part}: ${writeValue(ch.chosen)}${ch.unit === "Ω" ? "Ω" : "F"}`
-        : `# ${ch.part}: ideal ${writeValue(ch.ideal)}Ω → ${writeValue(ch.chosen)}Ω (${req.series}, nearest in the log sense)`,
+        ? `${ch.part}: ${writeValue(ch.chosen)}${ch.unit === "Ω" ? "Ω" : "F"}`
+        : `${ch.part}: ideal ${writeValue(ch.ideal)}Ω → ${writeValue(ch.chosen)}Ω (${req.series}, nearest in the log sense)`,
     ),
-    `# formula with the snapped values: ${result.formulaFrequency.toFixed(2)} Hz`,
-    `# small-signal poles of the snapped circuit (the start): ${result.predicted.frequency.toFixed(2)} Hz (${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
+    `formula with the snapped values: ${result.formulaFrequency.toFixed(2)} Hz`,
+    `small-signal poles of the snapped circuit (the start): ${result.predicted.frequency.toFixed(2)} Hz (${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
     ...simulatedLine(result.simulated, pct),
-    `# gain: ${sizing.gainNote};`,
-    `# chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+    `gain: ${sizing.gainNote};`,
+    `chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
   ];
-  const startupLimit = writeValue(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate));
-  return [
-    ...header,
-    "",
-    `title "${req.topology} oscillator, ${writeValue(req.frequency)}Hz"`,
-    "",
-    ...sizing.lines.map((l) => renderLine(l, widths)),
-    "",
-    `startup probe=${sizing.probe} until=auto`,
-    "poles",
-    "tolerance runs=100 seed=1 dist=normal",
-    `spec frequency=${writeValue(req.frequency)}±5% thd<${Math.round(sizing.thdLimit * 100)}% startup<${startupLimit} yield>90%`,
-    "",
-  ].join("\n");
+  // Four significant digits, as the header writes its values.
+  const startupLimit = Number(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate).toPrecision(4));
+  return {
+    header,
+    title: `${req.topology} oscillator, ${writeValue(req.frequency)}Hz`,
+    parts: sizing.lines,
+    analyses: [
+      { keyword: "startup", options: [["probe", sizing.probe], ["until", "auto"]] },
+      { keyword: "poles" },
+      { keyword: "tolerance", options: [["runs", 100], ["seed", 1], ["dist", "normal"]] },
+    ],
+    spec: [
+      { metric: "frequency", test: "within", value: req.frequency, tolerance: 0.05 },
+      { metric: "thd", test: "below", value: sizing.thdLimit, percent: true },
+      { metric: "startup", test: "below", value: startupLimit },
+      { metric: "yield", test: "above", value: 0.9, percent: true },
+    ],
+  };
 }
 
 /**
@@ -425,9 +410,9 @@ export function designOscillator(request: DesignRequest, options: DesignOptions 
     startupEstimate: STARTUP_GROWTH / predicted.growthRate,
     notes,
   };
-  if (!options.simulate) return { ...partial, simulated: null, text: renderText({ ...partial, simulated: null }, sizing) };
+  if (!options.simulate) return { ...partial, simulated: null, file: designedFile({ ...partial, simulated: null }, sizing) };
   // The header lines do not change the circuit, so the file is simulated before its header says how it ran.
-  const run = options.simulate(renderText({ ...partial, simulated: null }, sizing));
+  const run = options.simulate(designedFile({ ...partial, simulated: null }, sizing));
   const simulated: SimulatedStartup = {
     verdict: run.verdict,
     frequency: run.frequency,
@@ -436,5 +421,5 @@ export function designOscillator(request: DesignRequest, options: DesignOptions 
     startupTime: run.startupTime,
     error: run.frequency === null ? null : run.frequency / f - 1,
   };
-  return { ...partial, simulated, text: renderText({ ...partial, simulated }, sizing) };
+  return { ...partial, simulated, file: designedFile({ ...partial, simulated }, sizing) };
 }

@@ -1,96 +1,50 @@
-import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type SteadyAnalysis, type UnitSymbol } from "@onset/core";
+import {
+  analysisModel,
+  analysisModels,
+  didYouMean,
+  type AnalysisChecks,
+  type AnalysisOption as CoreAnalysisOption,
+  type AnalysisOptions,
+  type AnalysisSpec,
+  type OptionPlace,
+  type Probe,
+  type SimulatingKind,
+  type SourceSpan,
+  type SpecCriterion,
+  type SpecMetric,
+  type UnitSymbol,
+} from "@onset/core";
 import { problem, raise } from "../errors.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
-import { checkRange, type NumberExpectation, type RangeRule } from "./value-checks.js";
+import { checkRange, type NumberExpectation } from "./value-checks.js";
 import { spanIn, type Located } from "./index-program.js";
 import { probeOf, probesOf } from "./probes.js";
 import type { Scope } from "./scope.js";
 
-/** What an analysis option takes. */
-export type AnalysisOption =
-  | ({ readonly type: "number"; readonly unit: UnitSymbol; readonly summary: string; readonly words?: readonly string[] } & RangeRule)
-  | { readonly type: "word"; readonly words: readonly string[]; readonly summary: string }
-  | { readonly type: "probe" | "probes" | "source"; readonly summary: string };
+/** What an analysis option takes (core's schema: `AnalysisOption`). */
+export type AnalysisOption = CoreAnalysisOption;
 
-const positive = { min: 0, minExclusive: true } as const;
-/** The accuracy options of the time-domain analyses (`transient`, `startup`). */
-const ACCURACY = { type: "number", unit: "1", min: 1e-10, max: 0.1 } as const;
-const ACCURACY_FLOOR: AnalysisOption = { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" };
-
-/** `accuracy=` and `accuracy-floor=` as the engine reads them, when given. */
-function accuracyOf(num: Readonly<Record<string, number>>): { accuracy?: number; accuracyFloor?: number } {
-  return {
-    ...(num.accuracy === undefined ? {} : { accuracy: num.accuracy }),
-    ...(num["accuracy-floor"] === undefined ? {} : { accuracyFloor: num["accuracy-floor"] }),
-  };
-}
-
-/** The options of every analysis statement (the language's own table; the engine reads AnalysisSpec). */
-export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Readonly<Record<string, AnalysisOption>>>> = {
-  bias: {},
-  poles: {},
-  transient: {
-    until: { type: "number", unit: "s", ...positive, summary: "end time" },
-    "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
-    start: { type: "word", words: ["bias", "rest"], summary: "starting state: the bias point or rest" },
-    probes: { type: "probes", summary: "list of probes to record (default: every node)" },
-    accuracy: { ...ACCURACY, summary: "relative accuracy of the step control (default 1e-4)" },
-    "accuracy-floor": ACCURACY_FLOOR,
-  },
-  startup: {
-    probe: { type: "probe", summary: "probe the oscillation is measured on" },
-    until: { type: "number", unit: "s", ...positive, words: ["auto"], summary: "end time, or auto" },
-    "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
-    kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
-    temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
-    ramp: { type: "number", unit: "s", min: 0, summary: "time the DC levels take to rise from 0 (kick=power-on)" },
-    level: { type: "number", unit: "A", ...positive, summary: "injected current, r.m.s. (kick=noise)" },
-    seed: { type: "number", unit: "1", min: 0, max: Number.MAX_SAFE_INTEGER, integer: true, summary: "seed of every noise stream" },
-    seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
-    harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
-    bandwidth: { type: "number", unit: "Hz", ...positive, summary: "THD counts the harmonics below this frequency instead" },
-    accuracy: { ...ACCURACY, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
-    "accuracy-floor": ACCURACY_FLOOR,
-  },
-  steady: {
-    probe: { type: "probe", summary: "probe the periodic steady state is measured on" },
-    from: { type: "word", words: ["startup", "poles"], summary: "where the shooting starts: a short transient in the growing mode (startup) or the poles' frequency (poles)" },
-    cycles: { type: "number", unit: "1", min: 1, max: 100_000, integer: true, summary: "periods of transient before the shooting (default 60 from startup, levelling off earlier; 4 from poles; 3 when driven)" },
-    "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
-    harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
-    bandwidth: { type: "number", unit: "Hz", ...positive, summary: "THD counts the harmonics below this frequency instead" },
-    accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
-    "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
-  },
-  response: {
-    from: { type: "source", summary: "independent source driven with a unit small signal" },
-    to: { type: "probe", summary: "probe the response is measured on" },
-    start: { type: "number", unit: "Hz", ...positive, summary: "lowest frequency" },
-    stop: { type: "number", unit: "Hz", ...positive, summary: "highest frequency" },
-    "per-decade": { type: "number", unit: "1", min: 1, integer: true, summary: "points per decade" },
-  },
+/** The options of the studies, which the language runs itself (the simulating analyses declare theirs in core). */
+const studyOptions: Readonly<Record<"sweep" | "tolerance", AnalysisOptions>> = {
   sweep: {
-    from: { type: "number", unit: "1", summary: "first value (in the target's unit)" },
-    to: { type: "number", unit: "1", summary: "last value (in the target's unit)" },
+    from: { type: "number", unit: "1", required: true, summary: "first value (in the target's unit)" },
+    to: { type: "number", unit: "1", required: true, summary: "last value (in the target's unit)" },
     steps: { type: "number", unit: "1", min: 2, integer: true, summary: "number of values, both ends included" },
-    step: { type: "number", unit: "1", ...positive, summary: "increment between values" },
+    step: { type: "number", unit: "1", min: 0, minExclusive: true, summary: "increment between values" },
   },
   tolerance: {
-    runs: { type: "number", unit: "1", min: 1, integer: true, summary: "number of Monte Carlo samples" },
+    runs: { type: "number", unit: "1", min: 1, integer: true, required: true, summary: "number of Monte Carlo samples" },
     seed: { type: "number", unit: "1", min: 0, integer: true, summary: "seed of the samples" },
     dist: { type: "word", words: ["normal", "uniform"], summary: "distribution of each toleranced value" },
     measure: { type: "word", words: ["startup", "steady"], summary: "what each sample measures: its start-up run, or its periodic steady state" },
   },
 };
 
-const required: Readonly<Record<string, readonly string[]>> = {
-  transient: ["until"],
-  startup: ["probe"],
-  steady: ["probe"],
-  response: ["from", "to"],
-  sweep: ["from", "to"],
-  tolerance: ["runs"],
+/** The options of every analysis statement: each simulating analysis's own (core's `analysisModels`), then the studies'. */
+export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], AnalysisOptions>> = {
+  ...(Object.fromEntries(Object.entries(analysisModels).map(([keyword, model]) => [keyword, model.options])) as Record<SimulatingKind, AnalysisOptions>),
+  ...studyOptions,
 };
 
 /** Spec metrics as written, with what they read and their unit (`V` metrics also take `A`). */
@@ -197,9 +151,9 @@ function readOptions(ctx: Elaboration, l: Located<AnalysisStatement>, globals: S
     }
   }
   setFromOverrides(ctx, stmt.analysis, table, out);
-  for (const key of required[stmt.analysis] ?? []) {
-    if (!out.given.has(key)) {
-      raise("missing-option", `${stmt.analysis} needs ${key}=`, spanIn(l, stmt.keywordSpan), { hint: `${key}= is the ${table[key]!.summary}` });
+  for (const [key, option] of Object.entries(table)) {
+    if (option.required && !out.given.has(key)) {
+      raise("missing-option", `${stmt.analysis} needs ${key}=`, spanIn(l, stmt.keywordSpan), { hint: `${key}= is the ${option.summary}` });
     }
   }
   return out;
@@ -209,132 +163,34 @@ function withSpan<T extends object>(spec: T, span: SourceSpan): T & { span: Sour
   return { ...spec, span };
 }
 
+/** Cross-option rules of an analysis model, reported on the option's key or value (on the keyword when it was set from outside the file). */
+function checksOn(ctx: Elaboration, l: Located<AnalysisStatement>, o: Parsed): AnalysisChecks {
+  const at = (option: string, place: OptionPlace): SourceSpan => {
+    const node = o.given.get(option);
+    return spanIn(l, node === undefined ? l.node.keywordSpan : place === "key" ? node.keySpan : node.value.span);
+  };
+  return {
+    fail: (option, place, code, message, hint) => raise(code, message, at(option, place), { hint }),
+    warn: (option, place, code, message, hint) => {
+      ctx.diagnostics.push(problem(code, message, at(option, place), { severity: "warning", hint }));
+    },
+  };
+}
+
 /** Elaborates one analysis statement into its AnalysisSpec. */
 export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement | SpecStatement>, globals: Scope): AnalysisSpec {
   const span = spanIn(l, l.node.span);
   if (l.node.kind === "spec") return withSpan({ kind: "spec" as const, criteria: l.node.criteria.map((c) => criterion(ctx, l as Located<SpecStatement>, c, globals)) }, span);
   const stmt = l.node;
   const a = l as Located<AnalysisStatement>;
-  switch (stmt.analysis) {
-    case "bias":
-    case "poles":
-      readOptions(ctx, a, globals, () => undefined);
-      return withSpan({ kind: stmt.analysis }, span);
-    case "transient": {
-      const o = readOptions(ctx, a, globals, () => undefined);
-      return withSpan(
-        {
-          kind: "transient" as const,
-          until: o.num.until!,
-          ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
-          start: (o.word.start ?? "bias") as "bias" | "rest",
-          probes: o.probes.probes ?? [],
-          ...accuracyOf(o.num),
-        },
-        span,
-      );
-    }
-    case "startup": {
-      const o = readOptions(ctx, a, globals, () => undefined);
-      const kick = (o.word.kick ?? "thermal") as StartupKick;
-      warnUnused(ctx, a, o, kick);
-      const bandwidth = o.given.get("bandwidth");
-      if (bandwidth && o.given.has("harmonics")) {
-        raise("conflicting-options", "startup takes harmonics= or bandwidth=, not both", spanIn(a, bandwidth.keySpan), {
-          hint: "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency",
-        });
-      }
-      return withSpan(
-        {
-          kind: "startup" as const,
-          probe: o.probe.probe!,
-          until: o.word.until === "auto" ? ("auto" as const) : (o.num.until ?? ("auto" as const)),
-          ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
-          kick,
-          ...(o.num.level === undefined ? {} : { level: o.num.level }),
-          ...(o.num.seed === undefined ? {} : { seed: o.num.seed }),
-          ...(o.num.temperature === undefined ? {} : { temperature: o.num.temperature }),
-          ...(o.num.ramp === undefined ? {} : { ramp: o.num.ramp }),
-          ...(o.num.seeds === undefined ? {} : { seeds: o.num.seeds }),
-          ...(o.num.harmonics === undefined ? {} : { harmonics: o.num.harmonics }),
-          ...(o.num.bandwidth === undefined ? {} : { bandwidth: o.num.bandwidth }),
-          ...accuracyOf(o.num),
-        },
-        span,
-      );
-    }
-    case "steady":
-      return withSpan(steady(readOptions(ctx, a, globals, () => undefined), a), span);
-    case "response": {
-      const o = readOptions(ctx, a, globals, () => undefined);
-      const { start, stop } = o.num;
-      if (start !== undefined && stop !== undefined && !(stop > start)) {
-        raise("out-of-range", `response stop= must be above start=, got ${start} Hz to ${stop} Hz`, spanIn(l, o.given.get("stop")!.value.span), { hint: "swap start= and stop=" });
-      }
-      return withSpan(
-        {
-          kind: "response" as const,
-          from: o.word.from!,
-          to: o.probe.to!,
-          ...(start === undefined ? {} : { start }),
-          ...(stop === undefined ? {} : { stop }),
-          ...(o.num["per-decade"] === undefined ? {} : { perDecade: o.num["per-decade"] }),
-        },
-        span,
-      );
-    }
-    case "tolerance": {
-      const o = readOptions(ctx, a, globals, () => undefined);
-      const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
-      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
-    }
-    case "sweep":
-      return sweep(ctx, a, globals, span);
+  if (stmt.analysis === "sweep") return sweep(ctx, a, globals, span);
+  const o = readOptions(ctx, a, globals, () => undefined);
+  if (stmt.analysis === "tolerance") {
+    const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
+    return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
   }
-}
-
-/** A `steady` statement's spec. */
-function steady(o: Parsed, l: Located<AnalysisStatement>): SteadyAnalysis {
-  const bandwidth = o.given.get("bandwidth");
-  if (bandwidth && o.given.has("harmonics")) {
-    raise("conflicting-options", "steady takes harmonics= or bandwidth=, not both", spanIn(l, bandwidth.keySpan), {
-      hint: "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency",
-    });
-  }
-  return {
-    kind: "steady",
-    probe: o.probe.probe!,
-    from: (o.word.from ?? "startup") as "startup" | "poles",
-    ...(o.num.cycles === undefined ? {} : { cycles: o.num.cycles }),
-    ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
-    ...(o.num.harmonics === undefined ? {} : { harmonics: o.num.harmonics }),
-    ...(o.num.bandwidth === undefined ? {} : { bandwidth: o.num.bandwidth }),
-    ...(o.num.accuracy === undefined ? {} : { accuracy: o.num.accuracy }),
-    ...(o.num["accuracy-floor"] === undefined ? {} : { accuracyFloor: o.num["accuracy-floor"] }),
-  };
-}
-
-/** The `startup` options that act only under some kicks, and the kicks they act under. */
-const KICK_OPTIONS: Readonly<Record<string, readonly StartupKick[]>> = {
-  temperature: ["thermal", "power-on"],
-  ramp: ["power-on"],
-  level: ["noise"],
-  seed: ["thermal", "power-on", "noise"],
-  seeds: ["thermal", "power-on", "noise"],
-};
-
-/** A warning for each option written on a `startup` whose kick makes no use of it. */
-function warnUnused(ctx: Elaboration, l: Located<AnalysisStatement>, o: Parsed, kick: StartupKick): void {
-  for (const [key, kicks] of Object.entries(KICK_OPTIONS)) {
-    const node = o.given.get(key);
-    if (!node || kicks.includes(kick)) continue;
-    ctx.diagnostics.push(
-      problem("unused-option", `${key}= has no effect with kick=${kick}`, spanIn(l, node.keySpan), {
-        severity: "warning",
-        hint: `${key}= is the ${analysisOptions.startup[key]!.summary}; it acts with kick=${kicks.join(" or kick=")}`,
-      }),
-    );
-  }
+  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()) };
+  return withSpan(analysisModel(stmt.analysis)!.build(values, checksOn(ctx, a, o)), span);
 }
 
 function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, span: SourceSpan): AnalysisSpec {

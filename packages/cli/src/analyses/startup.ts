@@ -1,0 +1,61 @@
+import type { StartupResult } from "@onset/core";
+import { columnRows, csvDocument, headed } from "../csv/csv.js";
+import type { Json } from "../json/results.js";
+import { startupFigure } from "../plot/index.js";
+import { startupReport } from "../report/startup.js";
+import type { AnalysisWriters } from "./analysis-writers.js";
+
+/** A start-up result without its waveform and envelope arrays (they are large). */
+export function startupJson(r: StartupResult): Json {
+  return {
+    analysis: "startup",
+    probe: r.probe,
+    unit: r.unit,
+    verdict: r.verdict,
+    explanation: r.explanation,
+    frequency: r.frequency,
+    frequencySpread: r.frequencySpread,
+    amplitude: r.amplitude,
+    peakToPeak: r.peakToPeak,
+    rms: r.rms,
+    offset: r.offset,
+    startupTime: r.startupTime,
+    startupTimeSpread: r.startupTimeSpread ? { ...r.startupTimeSpread, seeds: [...r.startupTimeSpread.seeds], times: [...r.startupTimeSpread.times] } : undefined,
+    settlingTime: r.settlingTime,
+    dutyCycle: r.dutyCycle,
+    growthRate: r.growthRate,
+    thd: r.thd,
+    thdOrders: [...r.thdOrders],
+    thdPlusNoise: r.thdPlusNoise,
+    numericalError: r.numericalError ? { ...r.numericalError } : null,
+    settled: { from: r.settled.from, note: r.settled.note, iterations: r.settled.iterations && [...r.settled.iterations], points: r.settled.points && [...r.settled.points] },
+    harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),
+    cycles: r.cycles,
+    suggestedExtraTime: r.suggestedExtraTime,
+    until: r.run.until,
+    maxStep: r.run.maxStep,
+    excitation: { ...r.run.excitation },
+    predicted: { ...r.run.predicted },
+    solver: { ...r.run.solver },
+    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, hint: w.hint })),
+  };
+}
+
+/** `startup`: the verdict and settled figures; CSV `time (s)` and the probe; the waveform with its envelope, markers and spectrum. */
+export const startupWriters: AnalysisWriters<"startup"> = {
+  text: ({ result }, _runs, p) => startupReport(result, result.unit, p),
+  json: startupJson,
+  csv: (r) => csvDocument([headed("time", "s"), headed(r.probe, r.unit)], columnRows(r.waveform.time, [r.waveform.values])),
+  figure: (r, title) =>
+    startupFigure({
+      title: `${title} \u2014 start-up on ${r.probe} (${r.verdict})`,
+      time: r.waveform.time,
+      probe: { name: r.probe, unit: r.unit, values: r.waveform.values },
+      envelope: { time: r.envelope.time, values: r.envelope.value },
+      offset: r.offset ?? 0,
+      ...(r.startupTime === null ? {} : { startupTime: r.startupTime }),
+      ...(r.settlingTime === null ? {} : { settlingTime: r.settlingTime }),
+      harmonics: r.harmonics,
+      ...(r.thd === null ? {} : { thd: r.thd }),
+    }),
+};

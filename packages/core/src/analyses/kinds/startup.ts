@@ -1,0 +1,74 @@
+import type { AnalysisOptions } from "../../circuit/analysis-schema.js";
+import type { StartupAnalysis, StartupKick } from "../../circuit/circuit.js";
+import { startupSpread } from "../../study/startup-spread.js";
+import type { AnalysisModel } from "../analysis-model.js";
+import { budgetOf } from "../limits.js";
+import { runStartup, type StartupResult } from "../startup.js";
+
+// Plain literals only (no spreads or property reads such as Number.MAX_SAFE_INTEGER): a bundler
+// then drops this table from a build that does not use it.
+const options: AnalysisOptions = {
+  probe: { type: "probe", required: true, summary: "probe the oscillation is measured on" },
+  until: { type: "number", unit: "s", min: 0, minExclusive: true, words: ["auto"], summary: "end time, or auto" },
+  "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
+  kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
+  temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
+  ramp: { type: "number", unit: "s", min: 0, summary: "time the DC levels take to rise from 0 (kick=power-on)" },
+  level: { type: "number", unit: "A", min: 0, minExclusive: true, summary: "injected current, r.m.s. (kick=noise)" },
+  seed: { type: "number", unit: "1", min: 0, max: 9_007_199_254_740_991, integer: true, summary: "seed of every noise stream" },
+  seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
+  harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
+  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "THD counts the harmonics below this frequency instead" },
+  accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
+  "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
+};
+
+/** The options that act only under some kicks, and the kicks they act under. */
+const KICK_OPTIONS: Readonly<Record<string, readonly StartupKick[]>> = {
+  temperature: ["thermal", "power-on"],
+  ramp: ["power-on"],
+  level: ["noise"],
+  seed: ["thermal", "power-on", "noise"],
+  seeds: ["thermal", "power-on", "noise"],
+};
+
+/** `startup`: an excited transient from the bias point, measured for start-up time, settled frequency, amplitude and THD. */
+export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
+  keyword: "startup",
+  summary: "an excited transient from the bias point, measured for start-up time, settled frequency, amplitude and THD",
+  options,
+  build: (o, checks) => {
+    const kick = (o.words.kick ?? "thermal") as StartupKick;
+    for (const [key, kicks] of Object.entries(KICK_OPTIONS)) {
+      if (!o.written.has(key) || kicks.includes(kick)) continue;
+      checks.warn(key, "key", "unused-option", `${key}= has no effect with kick=${kick}`, `${key}= is the ${options[key]!.summary}; it acts with kick=${kicks.join(" or kick=")}`);
+    }
+    if (o.written.has("bandwidth") && o.written.has("harmonics")) {
+      checks.fail("bandwidth", "key", "conflicting-options", "startup takes harmonics= or bandwidth=, not both", "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency");
+    }
+    const n = o.numbers;
+    return {
+      kind: "startup",
+      probe: o.probes.probe!,
+      until: o.words.until === "auto" ? "auto" : (n.until ?? "auto"),
+      ...(n["max-step"] === undefined ? {} : { maxStep: n["max-step"] }),
+      kick,
+      ...(n.level === undefined ? {} : { level: n.level }),
+      ...(n.seed === undefined ? {} : { seed: n.seed }),
+      ...(n.temperature === undefined ? {} : { temperature: n.temperature }),
+      ...(n.ramp === undefined ? {} : { ramp: n.ramp }),
+      ...(n.seeds === undefined ? {} : { seeds: n.seeds }),
+      ...(n.harmonics === undefined ? {} : { harmonics: n.harmonics }),
+      ...(n.bandwidth === undefined ? {} : { bandwidth: n.bandwidth }),
+      ...(n.accuracy === undefined ? {} : { accuracy: n.accuracy }),
+      ...(n["accuracy-floor"] === undefined ? {} : { accuracyFloor: n["accuracy-floor"] }),
+    };
+  },
+  run: (circuit, analysis, runOptions) => {
+    // The further seeds share the first run's budget: the wall time counts from this call.
+    const shared = { ...runOptions, budget: budgetOf(runOptions) };
+    const first = runStartup(circuit, analysis, shared);
+    if (!((analysis.seeds ?? 1) > 1) || runOptions.seedSpread === false) return first;
+    return { ...first, startupTimeSpread: startupSpread(circuit, analysis, first, shared) };
+  },
+};

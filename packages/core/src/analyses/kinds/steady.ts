@@ -1,0 +1,41 @@
+import type { AnalysisOptions } from "../../circuit/analysis-schema.js";
+import type { SteadyAnalysis } from "../../circuit/circuit.js";
+import type { AnalysisModel } from "../analysis-model.js";
+import { runSteady, type SteadyResult } from "../steady.js";
+
+// Plain literals only: a bundler then drops this table from a build that does not use it.
+const options: AnalysisOptions = {
+  probe: { type: "probe", required: true, summary: "probe the periodic steady state is measured on" },
+  from: { type: "word", words: ["startup", "poles"], summary: "where the shooting starts: a short transient in the growing mode (startup) or the poles' frequency (poles)" },
+  cycles: { type: "number", unit: "1", min: 1, max: 100_000, integer: true, summary: "periods of transient before the shooting (default 60 from startup, levelling off earlier; 4 from poles; 3 when driven)" },
+  "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
+  harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
+  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "THD counts the harmonics below this frequency instead" },
+  accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
+  "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
+};
+
+/** `steady`: the periodic steady state by shooting, its figures over one period and its stability. */
+export const steady: AnalysisModel<SteadyAnalysis, SteadyResult> = {
+  keyword: "steady",
+  summary: "the periodic steady state by shooting: frequency, amplitude, THD over one period of the orbit, and its stability",
+  options,
+  build: (o, checks) => {
+    if (o.written.has("bandwidth") && o.written.has("harmonics")) {
+      checks.fail("bandwidth", "key", "conflicting-options", "steady takes harmonics= or bandwidth=, not both", "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency");
+    }
+    const n = o.numbers;
+    return {
+      kind: "steady",
+      probe: o.probes.probe!,
+      from: (o.words.from ?? "startup") as "startup" | "poles",
+      ...(n.cycles === undefined ? {} : { cycles: n.cycles }),
+      ...(n["max-step"] === undefined ? {} : { maxStep: n["max-step"] }),
+      ...(n.harmonics === undefined ? {} : { harmonics: n.harmonics }),
+      ...(n.bandwidth === undefined ? {} : { bandwidth: n.bandwidth }),
+      ...(n.accuracy === undefined ? {} : { accuracy: n.accuracy }),
+      ...(n["accuracy-floor"] === undefined ? {} : { accuracyFloor: n["accuracy-floor"] }),
+    };
+  },
+  run: runSteady,
+};

@@ -1,0 +1,47 @@
+import type { DesignedCriterion, DesignedFile, DesignedPart, OptionValue } from "@onset/core";
+import { formatText } from "./format.js";
+import { formatSI } from "./format-number.js";
+import { printString } from "./print.js";
+
+function percent(fraction: number): string {
+  return `${Number((fraction * 100).toPrecision(6))}%`;
+}
+
+function optionValue(v: OptionValue | number | string): string {
+  if (typeof v === "number") return formatSI(v);
+  if (typeof v === "string") return v;
+  return `(${v.map((x) => (typeof x === "number" ? formatSI(x) : x)).join(", ")})`;
+}
+
+function partLine(p: DesignedPart): string {
+  const value = p.value === undefined ? [] : [`${formatSI(p.value)}${p.tolerance ? `±${percent(p.tolerance)}` : ""}`];
+  const options = Object.entries(p.options ?? {}).map(([k, v]) => `${k}=${optionValue(v)}`);
+  return [p.kind, p.name, ...p.nodes, ...value, ...options].join(" ") + (p.comment ? `  # ${p.comment}` : "");
+}
+
+function criterion(c: DesignedCriterion): string {
+  const value = c.percent ? percent(c.value) : formatSI(c.value);
+  const op = c.test === "below" ? "<" : c.test === "above" ? ">" : "=";
+  return `${c.metric}${op}${value}${c.test === "within" && c.tolerance !== undefined ? `±${percent(c.tolerance)}` : ""}`;
+}
+
+/**
+ * A designed circuit (`designOscillator`'s `file`) in the language, in the formatter's
+ * canonical layout: the header comments, the title, the parts, the analyses and the spec.
+ */
+export function printDesignedFile(file: DesignedFile): string {
+  const lines = [
+    ...file.header.map((h) => (h === "" ? "#" : `# ${h}`)),
+    "",
+    `title ${printString(file.title)}`,
+    "",
+    ...file.parts.map(partLine),
+    "",
+    ...file.analyses.map((a) => [a.keyword, ...(a.options ?? []).map(([k, v]) => `${k}=${optionValue(v)}`)].join(" ")),
+    ...(file.spec.length > 0 ? [["spec", ...file.spec.map(criterion)].join(" ")] : []),
+  ];
+  const { text, diagnostics } = formatText(`${lines.join("\n")}\n`, "design.onset");
+  // Built from parts and analyses the engine checked: a syntax error here is a fault of this printer.
+  if (text === undefined) throw new Error(`printDesignedFile wrote a file that does not parse: ${diagnostics.map((d) => d.message).join("; ")}`);
+  return text;
+}
