@@ -1,13 +1,16 @@
 import type { SpecCriterion } from "@onset/core";
+import { formatPlain, formatSI } from "../format/index.js";
 import { toleranceFigure, type Figure, type SpecLimit } from "../plot/index.js";
 import type { StoredSample } from "../study/header.js";
 import type { StudyReport } from "../study/study-report.js";
 
-function limitOf(criteria: readonly SpecCriterion[], metric: SpecCriterion["metric"]): SpecLimit | undefined {
+/** A spec's limits on one metric, labelled in words ("at least 2.4 kHz"), not in the file's syntax. */
+function limitOf(criteria: readonly SpecCriterion[], metric: SpecCriterion["metric"], unit: string, scale = 1): SpecLimit | undefined {
   const c = criteria.find((x) => x.metric === metric);
   if (!c) return undefined;
-  if (c.test === "within") return { min: c.low, max: c.high, minLabel: `${c.text} low`, maxLabel: `${c.text} high` };
-  return c.test === "below" ? { max: c.limit, maxLabel: c.text } : { min: c.limit, minLabel: c.text };
+  const value = (v: number) => (unit === "%" ? `${formatPlain(v * scale, 4)} %` : formatSI(v * scale, unit));
+  if (c.test === "within") return { min: c.low, max: c.high, minLabel: `lowest allowed ${value(c.low)}`, maxLabel: `highest allowed ${value(c.high)}` };
+  return c.test === "below" ? { max: c.limit, maxLabel: `at most ${value(c.limit)}` } : { min: c.limit, minLabel: `at least ${value(c.limit)}` };
 }
 
 const column = (samples: readonly StoredSample[], key: "frequency" | "amplitude" | "thd" | "startupTime") =>
@@ -18,8 +21,8 @@ export function studyFigure(r: StudyReport, title: string): Figure {
   const h = r.header;
   if (r.kind === "tolerance") {
     const limits: Record<string, SpecLimit> = {};
-    for (const [key, metric] of [["frequency", "frequency"], ["amplitude", "amplitude"], ["thd", "thd"], ["startupTime", "startup"]] as const) {
-      const l = limitOf(h.criteria, metric);
+    for (const [key, metric, unit, scale] of [["frequency", "frequency", "Hz", 1], ["amplitude", "amplitude", "V", 1], ["thd", "thd", "%", 100], ["startupTime", "startup", "s", 1]] as const) {
+      const l = limitOf(h.criteria, metric, unit, scale);
       if (l) limits[key] = l;
     }
     return toleranceFigure({
