@@ -50,6 +50,14 @@ describe("the HTML file", () => {
     expect(page("bridge-excitation-yield")).toMatch(/<code class="command">onset run bridge-excitation-yield\.onset --sample \d+<\/code>/);
     expect(page("bridge-excitation-trimmer")).toMatch(/start threshold: P1\.at = 0\.2\d+ ± /);
   });
+
+  test("labels the tolerance histograms' spec limits in words, with each limit's yield", () => {
+    const html = page("bridge-excitation-yield");
+    const labels = [...html.matchAll(/class="marker-label"[^>]*>([^<]*)</g)].map((m) => m[1]);
+    expect(labels).toEqual(["lowest allowed 2.375 kHz", "highest allowed 2.625 kHz", "at most 3 %", "at most 40 ms"]);
+    expect(html).toMatch(/>frequency \(\d+(\.\d+)? % of samples meet the limit\)</);
+    expect(html).toMatch(/tolerance, yield \d+(\.\d+)? % \(\d+ of 12\)/);
+  });
 });
 
 const chromium = chromiumPath();

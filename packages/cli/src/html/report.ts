@@ -50,13 +50,13 @@ function bodySections(outcome: Outcome, doc: Json): string[] {
       });
     case "study": {
       const d = results[0] ?? null;
-      const figure = { ...studyFigure(outcome.report, "tolerance"), width: WIDE };
+      const figure = { ...studyFigure(outcome.report, "samples"), width: WIDE };
       const text = outcome.report.kind === "tolerance" ? toleranceSection(d) : windowSection(d);
       return [section(outcome.report.kind === "tolerance" ? "tolerance" : "design window", "a1", text + plotsMarkup([{ id: "a1-study", figure }]))];
     }
     case "sweep": {
       const d = results[0] ?? null;
-      const figure = { ...sweepSvgFigure(outcome.report, "sweep"), width: WIDE };
+      const figure = { ...sweepSvgFigure(outcome.report, ""), title: `amplitude, frequency and THD against ${outcome.report.result.target}`, width: WIDE };
       return [section("sweep", "a1", sweepSection(d) + plotsMarkup([{ id: "a1-sweep", figure }]))];
     }
   }

@@ -24,6 +24,16 @@ const METRIC_SPAN = 0.02;
 // Dots make a sweep of a few steps readable; past this many they only add weight.
 const DOTS_UP_TO = 60;
 
+/**
+ * The amplitude axis when some settings are silent: a little below zero, so their dots at
+ * zero sit inside the plot rather than on its frame, and room above for the threshold label.
+ */
+function silentRange(amplitude: ArrayLike<number>): [number, number] {
+  const top = Math.max(0, ...Array.from(amplitude).filter(Number.isFinite));
+  const span = top > 0 ? top : 1;
+  return [-0.06 * span, top + 0.3 * span];
+}
+
 /** Amplitude, frequency and THD against a swept setting: three panels on one x axis. */
 export function sweepFigure(input: SweepPlot): Figure {
   const { setting } = input;
@@ -39,7 +49,7 @@ export function sweepFigure(input: SweepPlot): Figure {
   const amplitude: Series[] = [{ name: "", x, y: input.amplitude, tone: 0, style: "line", dots }];
   if (silent.some(Number.isFinite)) amplitude.push({ name: "no oscillation", x, y: silent, muted: true, dots: true, style: "line" });
   const panels: Panel[] = [
-    { ...common, yLabel: "amplitude (peak)", yUnit: amplitudeUnit, yMinSpan: METRIC_SPAN, series: amplitude },
+    { ...common, yLabel: "amplitude (peak)", yUnit: amplitudeUnit, yMinSpan: METRIC_SPAN, series: amplitude, ...(amplitude.length > 1 ? { yRange: silentRange(input.amplitude) } : {}) },
     { ...common, yLabel: "frequency", yUnit: "Hz", yMinSpan: METRIC_SPAN, series: [{ name: "", x, y: input.frequency, tone: 1, style: "line", dots }] },
     { ...common, yLabel: "THD", yUnit: "%", series: [{ name: "", x, y: Float64Array.from(input.thd, (v) => v * 100), tone: 2, style: "line", dots }] },
   ];
