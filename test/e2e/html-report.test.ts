@@ -190,6 +190,23 @@ describe.skipIf(chromium === null)("the report in headless Chromium", () => {
     await p.close();
   });
 
+  test("prints on white without the zoom controls, every plot the width of the page, folded tables open", async () => {
+    const { page: p } = await open("bridge-excitation", "dark");
+    await p.evaluate(() => window.dispatchEvent(new Event("beforeprint")));
+    await p.emulateMedia({ media: "print" });
+    const printed = await p.evaluate(() => ({
+      body: getComputedStyle(document.body).backgroundColor,
+      bars: Array.from(document.querySelectorAll(".zoom-bar")).map((b) => getComputedStyle(b).display),
+      widths: Array.from(document.querySelectorAll("figure.plot")).map((f) => f.getBoundingClientRect().width / document.querySelector("main")!.getBoundingClientRect().width),
+      folded: Array.from(document.querySelectorAll("details.more")).map((d) => (d as HTMLDetailsElement).open),
+    }));
+    expect(printed.body).toBe("rgb(255, 255, 255)");
+    expect(new Set(printed.bars)).toEqual(new Set(["none"]));
+    for (const w of printed.widths) expect(w).toBeGreaterThan(0.9);
+    expect(printed.folded).toEqual([true]);
+    await p.close();
+  });
+
   test("screenshots keep their structure: each plot against the committed ink grid, and zoom changes it", async () => {
     const { page: p } = await open("bridge-excitation");
     const grids: Record<string, InkGrid> = {};

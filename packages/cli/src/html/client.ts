@@ -323,6 +323,8 @@ export function reportClient(): void {
       });
     });
   });
+  // A printed page shows every table, folded or not.
+  window.addEventListener("beforeprint", () => document.querySelectorAll("details.more").forEach((d) => d.setAttribute("open", "")));
   // Tests and curious readers can see each panel's visible x range.
   (window as unknown as { onsetReport: unknown }).onsetReport = {
     panels: all.map((p) => ({ figure: p.g.closest("figure")?.id ?? "", view: () => [p.view[0], p.view[1]], points: p.series.reduce((n, s) => n + s.x.length, 0) })),

@@ -25,6 +25,20 @@ function note(text: string): string {
   return textTag("p", { class: "note" }, text);
 }
 
+/** Harmonics the first table lists, as the text report does; the rest fold out below it. */
+const LISTED_HARMONICS = 10;
+
+function harmonicTables(rows: readonly Cell[][], floor: number): string {
+  if (rows.length === 0) return "";
+  const headers = ["order", "frequency", "amplitude", "level"];
+  const numeric = [true, true, true, true];
+  const first = dataTable(headers, rows.slice(0, LISTED_HARMONICS), numeric, `harmonics (numerical floor ${formatDecibel(floor, "dBc", 0)})`);
+  const rest = rows.slice(LISTED_HARMONICS);
+  if (rest.length === 0) return tag("div", {}, first);
+  const more = tag("details", { class: "more" }, textTag("summary", {}, `harmonics ${LISTED_HARMONICS + 1}–${LISTED_HARMONICS + rest.length}`) + dataTable(headers, rest, numeric));
+  return tag("div", {}, first + more);
+}
+
 function startupSection(d: Json): string {
   const unit = (str(d, "unit") ?? "V") as QuantityUnit;
   const e = field(d, "numericalError");
@@ -75,7 +89,7 @@ function startupSection(d: Json): string {
   return (
     tag("h3", {}, `start-up on ${textTag("code", {}, str(d, "probe") ?? "")}: ${verdictBadge(str(d, "verdict") ?? "")}`) +
     textTag("p", { class: "explanation" }, str(d, "explanation") ?? "") +
-    tag("div", { class: "tables" }, pairsTable(rows) + (harmonicRows.length > 0 ? dataTable(["order", "frequency", "amplitude", "level"], harmonicRows, [true, true, true, true], `harmonics (numerical floor ${formatDecibel(floor, "dBc", 0)})`) : "")) +
+    tag("div", { class: "tables" }, pairsTable(rows) + harmonicTables(harmonicRows, floor)) +
     notes.map(note).join("") +
     (warnings.length > 0 ? tag("ul", { class: "warnings" }, warnings.join("")) : "")
   );

@@ -60,6 +60,7 @@ table.pairs td{text-align:right;padding:2px 0}
 table.data th{font-weight:600;font-size:12.5px;color:var(--soft);border-bottom:1.5px solid var(--line);padding:3px 10px;text-align:left}
 table.data td{padding:3px 10px;border-bottom:1px solid var(--line)}
 table.data .num{text-align:right}
+details.more summary{cursor:pointer;color:var(--soft);font-size:12.5px;margin-top:4px}
 ul.warnings{margin:6px 0;padding-left:20px} li.warning{color:var(--warn)} .hint{color:var(--soft)}
 .plots{display:grid;grid-template-columns:repeat(6,minmax(0,1fr));gap:14px;margin:12px 0}
 figure.plot{margin:0;grid-column:span 6;min-width:0;position:relative}

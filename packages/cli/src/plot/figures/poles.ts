@@ -8,7 +8,7 @@ export interface PolePoint {
 }
 
 /** How far out the plane is shown, in multiples of the dominant pair's distance from 0. */
-const REACH = 6;
+const REACH = 1.6;
 
 // Points apart: the NaN between them breaks the line, so each is a dot of its own.
 function scattered(values: readonly number[]): Float64Array {
@@ -42,6 +42,7 @@ export function polesPanel(poles: readonly PolePoint[], dominant: PolePoint | nu
       { name: "other poles", x: scattered(others.map((p) => p.real)), y: scattered(others.map((p) => p.imag)), tone: 0, dots: true, style: "line" },
     ],
     markers: [{ x: 0, label: "imaginary axis: grows to the right" }],
-    xRange: [-reach, Math.max(reach / 4, ...pair.map((p) => 1.5 * p.real))],
+    xRange: [-reach, Math.max(reach / 2, ...pair.map((p) => 1.5 * p.real))],
+    yRange: [-reach, reach],
   };
 }
