@@ -13,13 +13,16 @@ const REFERENCE = join(ROOT, "test/e2e/reference/report-ink.json");
 const ws = new Workspace();
 afterAll(() => ws.remove());
 
-const EXAMPLES = ["bridge-excitation", "bridge-excitation-trimmer", "bridge-excitation-yield", "rc-filter-step", "twin-t-notch"];
+const EXAMPLES = ["bridge-excitation", "bridge-excitation-trimmer", "bridge-excitation-yield", "rc-filter-step", "twin-t-notch", "window"];
+const COPIED = EXAMPLES.filter((name) => name !== "window");
 
 beforeAll(async () => {
-  for (const name of EXAMPLES) copyFileSync(join(ROOT, "examples", `${name}.onset`), ws.path(`${name}.onset`));
+  for (const name of COPIED) copyFileSync(join(ROOT, "examples", `${name}.onset`), ws.path(`${name}.onset`));
   // Shorter studies than the examples' own, same circuits: the page is what is tested here.
   ws.write("bridge-excitation-trimmer.onset", readFileSync(ws.path("bridge-excitation-trimmer.onset"), "utf8").replace("steps=11", "steps=4"));
   ws.write("bridge-excitation-yield.onset", readFileSync(ws.path("bridge-excitation-yield.onset"), "utf8").replace("runs=200", "runs=12"));
+  // A design window: the trimmer swept over three settings, four samples at each.
+  ws.write("window.onset", 'include "bridge-excitation.onset"\nsweep P1.at from=0.4 to=0.6 steps=3\ntolerance runs=4 seed=7\nspec yield>50%\n');
   const runs = await Promise.all(EXAMPLES.map((name) => ws.run(["run", `${name}.onset`, "--html", `${name}.html`, "--quiet", "--jobs", "1"])));
   runs.forEach((r, k) => expect(r.stderr, EXAMPLES[k]).toBe(""));
 }, 240_000);
