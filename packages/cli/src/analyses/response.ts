@@ -1,3 +1,5 @@
+import type { ResponseResult } from "@onset/core";
+import type { ResponsePlot } from "../plot/index.js";
 import { csvDocument, csvNumber, headed } from "../csv/csv.js";
 import { responseFigure } from "../plot/index.js";
 import { responseReport } from "../report/response.js";
@@ -21,15 +23,18 @@ export const responseWriters: AnalysisWriters<"response"> = {
       [headed("frequency", "Hz"), "magnitude", headed("magnitude", "dB"), headed("phase", "deg")],
       r.points.map((p) => [csvNumber(p.frequency), csvNumber(p.magnitude), csvNumber(p.magnitudeDb), csvNumber(p.phase)]),
     ),
-  figure: (r, title) => {
-    const inverted = r.phaseCrossings.find((c) => Math.abs(c.phase) === 180);
-    return responseFigure({
-      title: `${title} \u2014 response of ${r.to} to ${r.from}`,
-      frequency: r.points.map((p) => p.frequency),
-      magnitude: r.points.map((p) => p.magnitude),
-      phase: r.points.map((p) => p.phase),
-      ...(r.notch ? { notch: r.notch.frequency } : {}),
-      ...(inverted ? { phaseCrossing: inverted.frequency } : {}),
-    });
-  },
+  figure: (r, title) => responseFigure(responsePlot(r, `${title} \u2014 response of ${r.to} to ${r.from}`)),
 };
+
+/** What the response plot draws of a result. */
+export function responsePlot(r: ResponseResult, title: string): ResponsePlot {
+  const inverted = r.phaseCrossings.find((c) => Math.abs(c.phase) === 180);
+  return {
+    title,
+    frequency: r.points.map((p) => p.frequency),
+    magnitude: r.points.map((p) => p.magnitude),
+    phase: r.points.map((p) => p.phase),
+    ...(r.notch ? { notch: r.notch.frequency } : {}),
+    ...(inverted ? { phaseCrossing: inverted.frequency } : {}),
+  };
+}

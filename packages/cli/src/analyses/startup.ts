@@ -1,4 +1,5 @@
 import type { StartupResult } from "@onset/core";
+import type { StartupPlot } from "../plot/index.js";
 import { columnRows, csvDocument, headed } from "../csv/csv.js";
 import type { Json } from "../json/results.js";
 import { startupFigure } from "../plot/index.js";
@@ -46,16 +47,25 @@ export const startupWriters: AnalysisWriters<"startup"> = {
   text: ({ result }, _runs, p) => startupReport(result, result.unit, p),
   json: startupJson,
   csv: (r) => csvDocument([headed("time", "s"), headed(r.probe, r.unit)], columnRows(r.waveform.time, [r.waveform.values])),
-  figure: (r, title) =>
-    startupFigure({
-      title: `${title} \u2014 start-up on ${r.probe} (${r.verdict})`,
-      time: r.waveform.time,
-      probe: { name: r.probe, unit: r.unit, values: r.waveform.values },
-      envelope: { time: r.envelope.time, values: r.envelope.value },
-      offset: r.offset ?? 0,
-      ...(r.startupTime === null ? {} : { startupTime: r.startupTime }),
-      ...(r.settlingTime === null ? {} : { settlingTime: r.settlingTime }),
-      harmonics: r.harmonics,
-      ...(r.thd === null ? {} : { thd: r.thd }),
-    }),
+  figure: (r, title) => startupFigure(startupPlot(r, `${title} \u2014 start-up on ${r.probe} (${r.verdict})`)),
 };
+
+/** What the start-up plots draw of a result (shared by the SVG figure and the HTML report). */
+export function startupPlot(r: StartupResult, title: string): StartupPlot {
+  const bar = r.numericalError?.amplitude;
+  return {
+    title,
+    time: r.waveform.time,
+    probe: { name: r.probe, unit: r.unit, values: r.waveform.values },
+    envelope: { time: r.envelope.time, values: r.envelope.value },
+    offset: r.offset ?? 0,
+    ...(r.startupTime === null ? {} : { startupTime: r.startupTime }),
+    ...(r.settlingTime === null ? {} : { settlingTime: r.settlingTime }),
+    harmonics: r.harmonics,
+    ...(r.thd === null ? {} : { thd: r.thd }),
+    ...(r.frequency === null ? {} : { frequency: r.frequency }),
+    ...(r.amplitude === null ? {} : { amplitude: r.amplitude }),
+    ...(r.growthRate === null ? {} : { growthRate: r.growthRate }),
+    ...(bar === undefined ? {} : { amplitudeError: bar }),
+  };
+}

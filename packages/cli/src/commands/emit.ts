@@ -1,3 +1,4 @@
+import { outcomeHtml } from "../html/report.js";
 import { outcomeDocument } from "../output/document.js";
 import { outcomeCsvs, svgDocuments, writeDocuments } from "../output/files.js";
 import { outcomeSpec, type Outcome, type ReportSubject } from "../output/outcome.js";
@@ -10,12 +11,15 @@ import type { CommandContext } from "./context.js";
 export interface OutcomeOutputs {
   readonly csv: OutputTarget | null;
   readonly svg: OutputTarget | null;
+  /** The one HTML report (`--html`). */
+  readonly html?: OutputTarget | null;
   /** The results file already written, if any: when it went to stdout, the report moves too. */
   readonly results?: OutputTarget | null;
 }
 
 /**
- * Writes what an outcome produced: the CSV and SVG documents (see `writeDocuments`), then the
+ * Writes what an outcome produced: the CSV and SVG documents (see `writeDocuments`) and the
+ * HTML report, then the
  * report: the one JSON document on stdout, or the text on stdout — on stderr when a document
  * took stdout (`--csv -`), so stdout stays parseable. Returns the exit status (1 when a spec failed).
  */
@@ -35,7 +39,8 @@ export function emitOutcome(ctx: CommandContext, outputs: OutcomeOutputs, subjec
     if (docs.length === 0) ctx.note("--svg: no analysis in this file has a plot (bias and poles are tables)");
     written.push(...writeDocuments(outputs.svg, docs, cwd, "plots", stdout));
   }
-  const stdoutTaken = [outputs.csv, outputs.svg, outputs.results].some((t) => t?.kind === "stdout");
+  if (outputs.html) written.push(...writeDocuments(outputs.html, [outcomeHtml(subject, outcome, exit)], cwd, "reports", stdout));
+  const stdoutTaken = [outputs.csv, outputs.svg, outputs.html, outputs.results].some((t) => t?.kind === "stdout");
   if (ctx.json) stdout(`${JSON.stringify(outcomeDocument(subject, outcome, exit), null, 2)}\n`);
   else if (!ctx.quiet && stdoutTaken) ctx.io.stderr(outcomeText(subject, outcome, ctx.paintErr));
   else if (!ctx.quiet) stdout(outcomeText(subject, outcome, ctx.paintOut));

@@ -29,11 +29,11 @@ function missingShards(headers: readonly StudyHeader[]): string {
  */
 export function mergeCommand(ctx: CommandContext, args: ParsedArgs): number {
   const files = args.positionals;
-  const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg") };
+  const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg"), html: optionTarget(ctx, args, "html") };
   const out = optionTarget(ctx, args, "results");
-  checkOutputs([outputs.csv, outputs.svg, out], ctx.json);
+  checkOutputs([outputs.csv, outputs.svg, outputs.html, out], ctx.json);
   // The merged results may replace one of the files merged (they are all read first); a CSV or plot may not.
-  refuseInputs([outputs.csv, outputs.svg], files, ctx.io.cwd);
+  refuseInputs([outputs.csv, outputs.svg, outputs.html], files, ctx.io.cwd);
   const contents = files.map((f) => ({ file: f, content: readResults(resolve(ctx.io.cwd, f), f) }));
   const first = contents[0]!;
   for (const { file, content } of contents.slice(1)) {

@@ -88,9 +88,9 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   const jobs = jobsOf(args);
   const shard = shardOf(args, ctx.io.env);
   const sample = sampleOf(args);
-  const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg") };
+  const outputs = { csv: optionTarget(ctx, args, "csv"), svg: optionTarget(ctx, args, "svg"), html: optionTarget(ctx, args, "html") };
   const givenResults = optionTarget(ctx, args, "results");
-  checkOutputs([outputs.csv, outputs.svg, givenResults], ctx.json);
+  checkOutputs([outputs.csv, outputs.svg, outputs.html, givenResults], ctx.json);
   const source = loadSource(path, ctx.io, { limits: given.source, roots: includeRootsOf(args) });
   ctx.sources = source.sources;
   renderWarnings(ctx, source.warnings);
@@ -113,8 +113,8 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   const counts = documentCounts(plain ? circuit.analyses.filter(isSimulating).map((a) => a.kind) : null);
   if (outputs.csv) documentTargets(outputs.csv, counts.csv, ctx.io.cwd, "CSV tables");
   if (outputs.svg) documentTargets(outputs.svg, counts.svg, ctx.io.cwd, "plots");
-  checkOutputs([outputs.csv, outputs.svg, results], ctx.json);
-  refuseInputs([outputs.csv, outputs.svg, results], inputFiles(source), ctx.io.cwd);
+  checkOutputs([outputs.csv, outputs.svg, outputs.html, results], ctx.json);
+  refuseInputs([outputs.csv, outputs.svg, outputs.html, results], inputFiles(source), ctx.io.cwd);
   let outcome: Outcome;
   if (sample !== undefined) outcome = await sampleRerun(ctx, source, sets, circuit, sample, limits, jobs);
   else if (plain) outcome = await plainOutcome(ctx, circuit, limits, jobs);

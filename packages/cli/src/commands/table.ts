@@ -29,6 +29,7 @@ const json: OptionSpec = { name: "json", summary: "print exactly one JSON docume
 const set: OptionSpec = { name: "set", value: "NAME=VALUE", repeat: true, summary: "override a parameter, part value or part option (repeatable)" };
 const csv: OptionSpec = { name: "csv", value: "FILE", summary: "write the data as CSV (several analyses: FILE, FILE-2, …; - for stdout)" };
 const svg: OptionSpec = { name: "svg", value: "FILE", summary: "write a plot as SVG (several analyses: FILE, FILE-2, …; - for stdout)" };
+const html: OptionSpec = { name: "html", value: "FILE", summary: "write the whole report as one HTML page: tables and zoomable plots, nothing fetched" };
 
 const limit: OptionSpec = { name: "limit", value: "NAME=VALUE", repeat: true, summary: LIMIT_HELP };
 const includeRoot: OptionSpec = { name: "include-root", value: "DIR", repeat: true, summary: "also let includes read files below DIR (by default only the file's own folder tree)" };
@@ -70,6 +71,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       json,
       csv,
       svg,
+      html,
       set,
       { name: "jobs", value: "N", summary: "worker threads for a tolerance study and the further seeds of seeds=N (default: the number of cores)" },
       { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
@@ -144,7 +146,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       "",
       ...OUTPUTS,
     ],
-    options: [json, csv, svg, { name: "results", value: "FILE", summary: "also write the merged results file" }, ...common],
+    options: [json, csv, svg, html, { name: "results", value: "FILE", summary: "also write the merged results file" }, ...common],
     positionals: { min: 1, max: Infinity, name: "RESULTS" },
     action: mergeCommand,
   },

@@ -68,7 +68,20 @@ export function yDomainOf(panel: Panel, xDomain: readonly [number, number]): [nu
       extent = include(extent, series.base, yLog);
     }
   }
-  return domainOf(extent, yLog, Y_PADDING);
+  for (const level of panel.levels ?? []) extent = include(extent, level.y, yLog);
+  return domainOf(widened(extent, panel.yMinSpan ?? 0, yLog), yLog, Y_PADDING);
+}
+
+/** An extent widened about its middle to at least `fraction` of its largest magnitude. */
+function widened(extent: Extent, fraction: number, log: boolean): Extent {
+  if (extent === undefined || log || !(fraction > 0)) return extent;
+  const [lo, hi] = extent;
+  const least = fraction * Math.max(Math.abs(lo), Math.abs(hi));
+  if (hi - lo >= least) return extent;
+  const middle = (lo + hi) / 2;
+  const low = middle - least / 2;
+  // Magnitudes stay non-negative: a widened axis of amplitudes does not dip below zero.
+  return lo >= 0 && low < 0 ? [0, least] : [low, middle + least / 2];
 }
 
 /** Whether any series has a point the panel can draw. */

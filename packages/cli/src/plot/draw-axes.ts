@@ -15,7 +15,7 @@ export function drawGrid(plan: PanelPlan): string {
     for (const tick of plan.xTicks) {
       if (tick.major !== major) continue;
       const x = plan.x.map(tick.value);
-      markup += element("line", { x1: x, y1: plot.y, x2: x, y2: bottom, stroke, "stroke-width": width });
+      markup += element("line", { class: "x-grid", x1: x, y1: plot.y, x2: x, y2: bottom, stroke, "stroke-width": width });
     }
     for (const tick of plan.yTicks) {
       if (tick.major !== major) continue;

@@ -29,9 +29,9 @@ function pixels(series: Series, plan: PanelPlan): { xs: Float64Array; ys: Float6
   return { xs, ys };
 }
 
-function drawLine(xs: Float64Array, ys: Float64Array, look: SeriesLook): string {
+function drawLine(xs: Float64Array, ys: Float64Array, look: SeriesLook, detail: number): string {
   let markup = "";
-  for (const run of decimateColumns(xs, ys)) {
+  for (const run of decimateColumns(xs, ys, 1 / detail)) {
     if (run.length >= 4) {
       let points = "";
       for (let i = 0; i < run.length; i += 2) points += `${i === 0 ? "" : " "}${px(run[i] as number)},${px(run[i + 1] as number)}`;
@@ -115,12 +115,12 @@ function drawBars(series: Series, plan: PanelPlan, xs: Float64Array, ys: Float64
   return markup;
 }
 
-/** One series as a group: its name as a tooltip, then lines, bars or dots. */
-export function drawSeries(series: Series, look: SeriesLook, plan: PanelPlan): string {
+/** One series as a group: its name as a tooltip, then lines, bars or dots; `detail` columns per pixel. */
+export function drawSeries(series: Series, look: SeriesLook, plan: PanelPlan, detail = 1): string {
   const { xs, ys } = pixels(series, plan);
   let markup = series.name === "" ? "" : `<title>${escapeXml(series.name)}</title>`;
   if (look.bars) markup += drawBars(series, plan, xs, ys, look);
-  else markup += drawLine(xs, ys, look);
+  else markup += drawLine(xs, ys, look, detail);
   if (series.dots === true) markup += drawDots(xs, ys, look);
   return element("g", { class: look.bars ? "series bars" : "series" }, markup);
 }

@@ -33,7 +33,7 @@ function tagOf(text: string): string {
 export function renderFigure(figure: Figure): string {
   validateFigure(figure);
   const plan = planFigure(figure);
-  const tag = tagOf(`${figure.title}\u0000${figure.panels.length}`);
+  const tag = tagOf(`${figure.id === undefined ? "" : `${figure.id}\u0000`}${figure.title}\u0000${figure.panels.length}`);
   const title = textElement(
     { class: "figure-title", x: SPACING.cellPad + 4, y: 29, "font-size": FONT_SIZE.figureTitle, "font-weight": "600", fill: INK.text },
     figure.title,
@@ -42,7 +42,7 @@ export function renderFigure(figure: Figure): string {
     `<title>${escapeXml(figure.title)}</title>` +
     element("rect", { width: plan.width, height: plan.height, fill: INK.background }) +
     title +
-    plan.panels.map((p) => renderPanel(p, `onset-${tag}-plot${p.index + 1}`)).join("");
+    plan.panels.map((p) => renderPanel(p, `onset-${tag}-plot${p.index + 1}`, figure.detail ?? 1)).join("");
   const svg = element(
     "svg",
     {

@@ -18,3 +18,8 @@ export { toleranceFigure } from "./figures/tolerance.js";
 export type { SpecLimit, TolerancePlot } from "./figures/tolerance.js";
 export { responseFigure } from "./figures/response.js";
 export type { ResponsePlot } from "./figures/response.js";
+export { envelopeDbPanel, lastCyclesPanel, startupPanels, waveformPanel, LAST_CYCLES } from "./figures/startup.js";
+export { numericalFloorDbc, spectrumPanel } from "./figures/spectrum.js";
+export { polesPanel } from "./figures/poles.js";
+export type { PolePoint } from "./figures/poles.js";
+export { wrappedPhase } from "./figures/response.js";

@@ -1,4 +1,4 @@
-import { AUTO_DASHES, DASHES, toneColour } from "./palette.js";
+import { AUTO_DASHES, DASHES, INK, toneColour } from "./palette.js";
 import type { Series } from "./types.js";
 
 /** How a series is painted. */
@@ -10,7 +10,7 @@ export interface SeriesLook {
 
 /** The look of the `index`-th series of a panel. */
 export function lookOf(series: Series, index: number): SeriesLook {
-  const colour = toneColour(series.tone ?? index);
+  const colour = series.muted === true ? INK.axis : toneColour(series.tone ?? index);
   if (series.style === "bars") return { colour, dash: undefined, bars: true };
   const dash = series.style === undefined ? AUTO_DASHES[index % AUTO_DASHES.length] : DASHES[series.style];
   return { colour, dash, bars: false };

@@ -6,6 +6,9 @@ import { domainOf, include, type Extent } from "./range.js";
 import { makeScale, type Scale } from "./scale.js";
 import { textWidth } from "./text.js";
 import { linearTicks, logTicks, type Tick } from "./ticks.js";
+import { MARKER_LABEL_ROW, MARKER_LABEL_ROWS } from "./draw-markers.js";
+import { siPrefixExponent } from "../format/prefixes.js";
+import { formatTickSI } from "../format/si.js";
 import type { Figure, Panel } from "./types.js";
 
 /** Everything needed to draw one panel, worked out before any markup is written. */
@@ -61,6 +64,21 @@ function thinLabels(ticks: readonly Tick[], scale: Scale): Tick[] {
 const X_TICK_SPACING = { linear: 140, decade: 70, fewest: 3 } as const;
 const Y_TICK_SPACING = { linear: 65, decade: 26, fewest: 4 } as const;
 
+/** Pixels the marker labels take at the top of the plot (see `drawMarkers`), or 0 without labels. */
+function labelBand(panel: Panel): number {
+  const labelled = (panel.markers ?? []).filter((m) => m.label !== "").length;
+  return labelled === 0 ? 0 : Math.min(labelled, MARKER_LABEL_ROWS) * MARKER_LABEL_ROW + 8;
+}
+
+/** A y domain raised so that its data stays below a band of `band` pixels at the top. */
+function withHeadroom(domain: [number, number], band: number, height: number, log: boolean): [number, number] {
+  if (band <= 0 || height <= 2 * band) return domain;
+  const [lo, hi] = domain;
+  const share = band / (height - band);
+  if (log) return [lo, 10 ** (Math.log10(hi) + (Math.log10(hi) - Math.log10(lo)) * share)];
+  return [lo, hi + (hi - lo) * share];
+}
+
 function ticksFor(scale: Scale, length: number, unit: string, spacing: typeof X_TICK_SPACING | typeof Y_TICK_SPACING): Tick[] {
   const [lo, hi] = scale.domain;
   if (scale.log) return logTicks(lo, hi, Math.max(2, Math.floor(length / spacing.decade)), unit);
@@ -77,6 +95,14 @@ function sharedXDomain(figure: Figure): [number, number] {
     if (own !== undefined) extent = include(include(extent, own[0], log), own[1], log);
   }
   return domainOf(extent, log, 0);
+}
+
+/** Ticks at given values (a spectrum's harmonics), labelled to four digits with one prefix. */
+function givenTicks(values: readonly number[], scale: Scale, unit: string): Tick[] {
+  const [lo, hi] = scale.domain;
+  const inside = values.filter((v) => v >= lo && v <= hi);
+  const exponent = siPrefixExponent(inside.reduce((m, v) => Math.max(m, Math.abs(v)), 0));
+  return inside.map((value) => ({ value, label: formatTickSI(Number(value.toPrecision(4)), unit, exponent), major: true }));
 }
 
 /** Lays out the grid of cells and, in each, the title, legend, plot area and axes. */
@@ -113,7 +139,7 @@ export function planFigure(figure: Figure): FigurePlan {
     top += legendHeight(legend) + 8;
     const bottomBand = showXLabels ? SPACING.tickGap + FONT_SIZE.tick + 12 + FONT_SIZE.axisTitle + 10 : 14;
     const plotHeight = Math.max(40, cell.y + cell.height - bottomBand - top);
-    const y = makeScale(panel.yLog === true, yDomain, top + plotHeight, top);
+    const y = makeScale(panel.yLog === true, panel.yRange === undefined ? withHeadroom(yDomain, labelBand(panel), plotHeight, panel.yLog === true) : yDomain, top + plotHeight, top);
     const yTicks = ticksFor(y, plotHeight, panel.yUnit, Y_TICK_SPACING);
     const leftNeed = SPACING.cellPad + FONT_SIZE.axisTitle + 12 + widestLabel(yTicks) + SPACING.tickGap + SPACING.tickLength;
     return { index, panel, cell, column, showXLabels, xDomain, y, yTicks, legend, legendTop, titleBaseline, top, plotHeight, leftNeed };
@@ -128,13 +154,14 @@ export function planFigure(figure: Figure): FigurePlan {
     const cellRight = d.cell.x + d.cell.width;
     let plotWidth = Math.max(40, d.cell.width - left - SPACING.rightPad);
     let x = makeScale(d.panel.xLog === true, d.xDomain, d.cell.x + left, d.cell.x + left + plotWidth);
-    let xTicks = thinLabels(ticksFor(x, plotWidth, d.panel.xUnit, X_TICK_SPACING), x);
+    const xTicksOf = (scale: Scale): Tick[] => thinLabels(d.panel.xTicks === undefined ? ticksFor(scale, plotWidth, d.panel.xUnit, X_TICK_SPACING) : givenTicks(d.panel.xTicks, scale, d.panel.xUnit), scale);
+    let xTicks = xTicksOf(x);
     // A wide last label ("1.005 kHz") narrows the plot rather than running out of the cell.
     const overflow = Math.max(...xTicks.filter((t) => t.label !== "").map((t) => x.map(t.value) + textWidth(t.label, FONT_SIZE.tick) / 2 - (cellRight - 6)), 0);
     if (d.showXLabels && overflow > 0) {
       plotWidth = Math.max(40, plotWidth - overflow);
       x = makeScale(d.panel.xLog === true, d.xDomain, d.cell.x + left, d.cell.x + left + plotWidth);
-      xTicks = thinLabels(ticksFor(x, plotWidth, d.panel.xUnit, X_TICK_SPACING), x);
+      xTicks = xTicksOf(x);
     }
     const plot: Box = { x: d.cell.x + left, y: d.top, width: plotWidth, height: d.plotHeight };
     return {

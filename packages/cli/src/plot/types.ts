@@ -16,11 +16,19 @@ export interface Series {
   readonly barWidth?: number;
   /** Bars: the level they grow from. By default the bottom of the y axis. */
   readonly base?: number;
+  /** Drawn in the muted grey of the axes: data shown for completeness, not to be read as a result. */
+  readonly muted?: boolean;
 }
 
 /** A labelled vertical line at an x value: an event ("settled 20.1 ms") or a limit ("max"). */
 export interface Marker {
   readonly x: number;
+  readonly label: string;
+}
+
+/** A labelled horizontal line at a y value: a floor, a required level. */
+export interface Level {
+  readonly y: number;
   readonly label: string;
 }
 
@@ -34,6 +42,14 @@ export interface Panel {
   readonly yUnit: string;
   readonly series: readonly Series[];
   readonly markers?: readonly Marker[];
+  readonly levels?: readonly Level[];
+  /** x ticks at these values (a spectrum's harmonics) instead of round numbers. */
+  readonly xTicks?: readonly number[];
+  /**
+   * Smallest span of an automatic y axis as a fraction of its largest value, so a change of
+   * 0.1 % does not fill the axis as if it were large. @defaultValue 0
+   */
+  readonly yMinSpan?: number;
   readonly xLog?: boolean;
   readonly yLog?: boolean;
   /** Fixed x range; by default the data and markers, unpadded (bars get room for their width). */
@@ -59,4 +75,11 @@ export interface Figure {
    * the x axis title.
    */
   readonly sharedX?: boolean;
+  /**
+   * Line columns kept per pixel: 1 for a picture, more for a page that zooms into it (each
+   * step of zoom then still has points to show). @defaultValue 1
+   */
+  readonly detail?: number;
+  /** A name unique in the page the figure is embedded in; its clip ids derive from it. */
+  readonly id?: string;
 }

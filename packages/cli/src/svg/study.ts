@@ -1,13 +1,17 @@
-import type { SpecCriterion } from "@onset/core";
+import type { SpecCriterion, YieldSummary } from "@onset/core";
+import { formatPercent, formatPlain, formatSI } from "../format/index.js";
 import { toleranceFigure, type Figure, type SpecLimit } from "../plot/index.js";
 import type { StoredSample } from "../study/header.js";
 import type { StudyReport } from "../study/study-report.js";
 
-function limitOf(criteria: readonly SpecCriterion[], metric: SpecCriterion["metric"]): SpecLimit | undefined {
+/** A spec's limits on one metric, labelled in words ("at least 2.4 kHz"), not in the file's syntax. */
+function limitOf(criteria: readonly SpecCriterion[], metric: SpecCriterion["metric"], unit: string, scale: number, met: YieldSummary | undefined): SpecLimit | undefined {
   const c = criteria.find((x) => x.metric === metric);
   if (!c) return undefined;
-  if (c.test === "within") return { min: c.low, max: c.high, minLabel: `${c.text} low`, maxLabel: `${c.text} high` };
-  return c.test === "below" ? { max: c.limit, maxLabel: c.text } : { min: c.limit, minLabel: c.text };
+  const value = (v: number) => (unit === "%" ? `${formatPlain(v * scale, 4)} %` : formatSI(v * scale, unit));
+  const yieldText = met ? { yieldText: `${formatPercent(met.value, 4)} of samples meet the limit` } : {};
+  if (c.test === "within") return { min: c.low, max: c.high, minLabel: `lowest allowed ${value(c.low)}`, maxLabel: `highest allowed ${value(c.high)}`, ...yieldText };
+  return c.test === "below" ? { max: c.limit, maxLabel: `at most ${value(c.limit)}`, ...yieldText } : { min: c.limit, minLabel: `at least ${value(c.limit)}`, ...yieldText };
 }
 
 const column = (samples: readonly StoredSample[], key: "frequency" | "amplitude" | "thd" | "startupTime") =>
@@ -18,12 +22,14 @@ export function studyFigure(r: StudyReport, title: string): Figure {
   const h = r.header;
   if (r.kind === "tolerance") {
     const limits: Record<string, SpecLimit> = {};
-    for (const [key, metric] of [["frequency", "frequency"], ["amplitude", "amplitude"], ["thd", "thd"], ["startupTime", "startup"]] as const) {
-      const l = limitOf(h.criteria, metric);
+    for (const [key, metric, unit, scale] of [["frequency", "frequency", "Hz", 1], ["amplitude", "amplitude", "V", 1], ["thd", "thd", "%", 100], ["startupTime", "startup", "s", 1]] as const) {
+      const met = r.summary.criteria.find((c) => c.criterion.metric === metric);
+      const l = limitOf(h.criteria, metric, unit, scale, met);
       if (l) limits[key] = l;
     }
+    const y = r.summary.yield;
     return toleranceFigure({
-      title: `${title} \u2014 tolerance`,
+      title: `${title} \u2014 tolerance, yield ${formatPercent(y.value, 4)} (${y.passed} of ${y.runs})`,
       frequency: column(r.samples, "frequency"),
       amplitude: column(r.samples, "amplitude"),
       thd: column(r.samples, "thd"),

@@ -12,5 +12,6 @@ export function sweepSvgFigure(r: SweepReport, title: string): Figure {
     frequency: read("frequency"),
     thd: read("thd"),
     ...(s.threshold ? { threshold: s.threshold.value } : {}),
+    silent: s.points.map((p) => (startupAt(p)?.amplitude ?? null) === null),
   });
 }

@@ -33,3 +33,21 @@ describe("responseFigure(input)", () => {
     expect(byClass(lower, "marker-label").map((m) => m.text)).toEqual(expected);
   });
 });
+
+describe("wrappedPhase(frequency, phase)", () => {
+  // A three-section RC ladder (passive) turns up to −270°; an unwrapped sum of its sections'
+  // phases reads −340° where the true phase is +20°. Wrapping is modulo 360° by definition.
+  it("puts every phase in (−180°, 180°] and breaks the line where it wraps", async () => {
+    const { wrappedPhase } = await import("../../../../packages/cli/src/plot/figures/response.js");
+    const { x, y } = wrappedPhase([1, 2, 3, 4], [-100, -170, -190, -340]);
+    expect(Array.from(y)).toEqual([-100, -170, Number.NaN, 170, 20]);
+    expect(Array.from(x)).toEqual([1, 2, Number.NaN, 3, 4]);
+    expect(Array.from(wrappedPhase([1], [-180]).y)).toEqual([180]);
+  });
+
+  it("draws the phase panel on a fixed ±180° axis", () => {
+    const f = responseFigure({ title: "ladder", frequency: [1, 10], magnitude: [1, 0.1], phase: [-10, -340] });
+    expect(f.panels[1]?.yRange).toEqual([-180, 180]);
+    expect(Math.max(...Array.from(f.panels[1]!.series[0]!.y).filter(Number.isFinite))).toBeLessThanOrEqual(180);
+  });
+});

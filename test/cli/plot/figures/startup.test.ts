@@ -51,3 +51,38 @@ describe("startupFigure(input)", () => {
     expect(bare.panels[0]?.markers).toEqual([]);
   });
 });
+
+describe("startupFigure: the settled cycles and the envelope in dB", () => {
+  const full = startupFigure({
+    title: "start-up",
+    time,
+    probe: { name: "out", unit: "V", values },
+    envelope: { time: cycles, values: cycles.map(envelopeAt) },
+    startupTime: 0.0132,
+    harmonics,
+    frequency: 1000,
+    amplitude: 2,
+    growthRate: 500,
+  });
+
+  it("sets the last 3 cycles beside the whole run, at full resolution", () => {
+    const last = full.panels[1]!;
+    expect(last.title).toBe("last 3 cycles");
+    expect(last.xRange![1] - last.xRange![0]).toBeCloseTo(3e-3, 12);
+    expect(last.series[0]!.x.length).toBe(301);
+    expect(full.columns).toBe(2);
+  });
+
+  // A growth rate σ makes the envelope e^(σt): 20·log10(e^σ) = 8.686·σ dB per second.
+  it("draws the envelope in dB of the settled amplitude, naming the slope the growth rate gives", () => {
+    const db = full.panels[2]!;
+    expect(db.yUnit).toBe("dB");
+    expect(db.title).toBe("envelope in dB of the settled amplitude; growth 4.34 dB/ms");
+    expect(db.series[0]!.y[29]).toBeCloseTo(20 * Math.log10(envelopeAt(cycles[29]!) / 2), 12);
+  });
+
+  it("names the envelope in the legend only when it has points to draw", () => {
+    const none = startupFigure({ title: "t", time, probe: { name: "out", unit: "V", values }, envelope: { time: [], values: [] } });
+    expect(none.panels[0]!.series.map((s) => s.name)).toEqual(["out"]);
+  });
+});

@@ -43,3 +43,33 @@ describe("sweepFigure(input)", () => {
     expect(byClass(byClass(bottom, "x-axis")[0] as SvgNode, "tick-label").map((t) => t.text)).toEqual(["1 nF", "10 nF", "100 nF"]);
   });
 });
+
+describe("sweepFigure: what a first reading got wrong", () => {
+  const amplitude = setting.map((r) => (starts(r) ? (r - 28e3) / 2e3 : Number.NaN));
+  const silent = Array.from(setting, (r) => !starts(r));
+  const figure = sweepFigure({ title: "sweep", setting: { name: "R2", unit: "\u03a9", values: setting }, amplitude, frequency: amplitude.map(() => 1000), thd: amplitude.map(() => 0.01), threshold: 29.1e3, silent });
+  const root = parseSvg(renderFigure(figure));
+  const [first] = byClass(root, "panel") as [SvgNode];
+
+  it("shows the silent settings as muted dots at zero amplitude, inside the plot", () => {
+    const dots = figure.panels[0]!.series[1]!;
+    expect(dots.name).toBe("no oscillation");
+    expect(dots.muted).toBe(true);
+    expect(Array.from(dots.y).filter((v) => v === 0)).toHaveLength(silent.filter(Boolean).length);
+    expect(figure.panels[0]!.yRange![0]).toBeLessThan(0);
+  });
+
+  it("keeps the threshold label above every point: the label band is free of data", () => {
+    const label = byClass(first, "marker-label")[0]!;
+    const labelBottom = Number(label.attributes.y) + 3;
+    const highest = Math.min(...byName(first, "circle").map((c) => Number(c.attributes.cy)));
+    expect(highest).toBeGreaterThan(labelBottom);
+  });
+
+  it("does not blow a 0.1 % change up to the full axis: the axis spans at least 2 % of its value", () => {
+    const flat = sweepFigure({ title: "flat", setting: { name: "R2", unit: "\u03a9", values: [1, 2, 3] }, amplitude: [3.16, 3.162, 3.1632], frequency: [1000, 1000.5, 1001], thd: [0.01, 0.01, 0.01] });
+    const plot = byClass(parseSvg(renderFigure(flat)), "panel")[1] as SvgNode;
+    const [lo, hi] = (plot.attributes["data-y"] ?? "").split(" ").map(Number) as [number, number];
+    expect(hi - lo).toBeGreaterThanOrEqual(0.02 * 1001);
+  });
+});

@@ -17,6 +17,28 @@ export interface ResponsePlot {
   readonly markers?: readonly Marker[];
 }
 
+/**
+ * Phase in (−180°, 180°], with the line broken where it wraps: a passive network's phase
+ * stays within a half turn of zero instead of running to −340° as an unwrapped sum would.
+ */
+export function wrappedPhase(frequency: ArrayLike<number>, phase: ArrayLike<number>): { x: Float64Array; y: Float64Array } {
+  const x: number[] = [];
+  const y: number[] = [];
+  let previous = Number.NaN;
+  for (let i = 0; i < Math.min(frequency.length, phase.length); i += 1) {
+    const p = phase[i] as number;
+    const wrapped = Number.isFinite(p) ? p - 360 * Math.ceil((p - 180) / 360) : Number.NaN;
+    if (Math.abs(wrapped - previous) > 180) {
+      x.push(Number.NaN);
+      y.push(Number.NaN);
+    }
+    x.push(frequency[i] as number);
+    y.push(wrapped);
+    previous = wrapped;
+  }
+  return { x: Float64Array.from(x), y: Float64Array.from(y) };
+}
+
 /** A frequency response: magnitude in dB over phase in degrees, on one log frequency axis. */
 export function responseFigure(input: ResponsePlot): Figure {
   const markers: Marker[] = [...(input.markers ?? [])];
@@ -28,7 +50,7 @@ export function responseFigure(input: ResponsePlot): Figure {
   const common = { xLabel: "frequency", xUnit: "Hz", xLog: true, markers, height: 380 };
   const panels: Panel[] = [
     { ...common, yLabel: "magnitude", yUnit: "dB", series: [{ name: "", x: input.frequency, y: decibels, tone: 0, style: "line" }] },
-    { ...common, yLabel: "phase", yUnit: "\u00b0", series: [{ name: "", x: input.frequency, y: input.phase, tone: 3, style: "line" }] },
+    { ...common, yLabel: "phase", yUnit: "\u00b0", yRange: [-180, 180], series: [{ name: "", ...wrappedPhase(input.frequency, input.phase), tone: 3, style: "line" }] },
   ];
   return { title: input.title, panels, sharedX: true };
 }

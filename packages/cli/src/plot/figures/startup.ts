@@ -1,14 +1,10 @@
-import { formatPercent } from "../../format/ratio.js";
 import { formatSI } from "../../format/si.js";
 import type { Figure, Marker, Panel, Series } from "../types.js";
 import { quantityOf, type ProbeTrace } from "./quantity.js";
+import { spectrumPanel, type HarmonicLevel } from "./spectrum.js";
 
-/** One harmonic of the settled waveform (amplitude in the probe's unit, peak). */
-export interface HarmonicLevel {
-  readonly order: number;
-  readonly frequency: number;
-  readonly amplitude: number;
-}
+export { SPECTRUM_FLOOR_DBC } from "./spectrum.js";
+export type { HarmonicLevel } from "./spectrum.js";
 
 /** Input of {@link startupFigure}. */
 export interface StartupPlot {
@@ -24,10 +20,18 @@ export interface StartupPlot {
   readonly harmonics?: readonly HarmonicLevel[];
   /** THD as a fraction, printed in the spectrum title. */
   readonly thd?: number;
+  /** The settled frequency: the last few cycles get a panel of their own. */
+  readonly frequency?: number;
+  /** The settled amplitude (peak): the envelope's dB view is relative to it. */
+  readonly amplitude?: number;
+  /** The envelope's growth rate in 1/s, named on the dB view (a straight slope there). */
+  readonly growthRate?: number;
+  /** How far the settled amplitude may be off numerically: the spectrum marks the floor it sets. */
+  readonly amplitudeError?: number;
 }
 
-/** Harmonics further below the fundamental than this are numerical noise; they sit on the floor. */
-export const SPECTRUM_FLOOR_DBC = -160;
+/** Settled cycles the close-up panel shows. */
+export const LAST_CYCLES = 3;
 
 // offset ± envelope as one series: the NaN between the halves breaks the line, so the legend
 // has one "± envelope" entry for both.
@@ -48,31 +52,13 @@ function envelopeSeries(envelope: NonNullable<StartupPlot["envelope"]>, offset: 
   return { x, y };
 }
 
-function spectrumPanel(harmonics: readonly HarmonicLevel[], thd: number | undefined): Panel {
-  const fundamental = harmonics.find((h) => h.order === 1) ?? [...harmonics].sort((a, b) => b.amplitude - a.amplitude)[0];
-  const reference = fundamental?.amplitude ?? Number.NaN;
-  const x = Float64Array.from(harmonics, (h) => h.frequency);
-  const y = Float64Array.from(harmonics, (h) => Math.max(SPECTRUM_FLOOR_DBC, 20 * Math.log10(h.amplitude / reference)));
-  const parts = ["spectrum"];
-  if (fundamental !== undefined) parts.push(`fundamental ${formatSI(fundamental.frequency, "Hz")}`);
-  if (thd !== undefined) parts.push(`THD ${formatPercent(thd, 3)}`);
-  return {
-    title: parts.join(", "),
-    xLabel: "frequency",
-    xUnit: "Hz",
-    yLabel: "level",
-    yUnit: "dBc",
-    series: [{ name: "", x, y, style: "bars", tone: 0 }],
-    height: 320,
-  };
+function finiteCount(values: ArrayLike<number>): number {
+  let n = 0;
+  for (let i = 0; i < values.length; i += 1) if (Number.isFinite(values[i] as number)) n += 1;
+  return n;
 }
 
-/**
- * The start-up plot: the probe waveform with ± its envelope and markers at the start-up and
- * settling times, and below it the spectrum of the settled waveform in dBc.
- */
-export function startupFigure(input: StartupPlot): Figure {
-  const offset = input.offset ?? 0;
+function timeMarkers(input: StartupPlot): Marker[] {
   const markers: Marker[] = [];
   if (input.startupTime !== undefined && Number.isFinite(input.startupTime)) {
     markers.push({ x: input.startupTime, label: `start-up ${formatSI(input.startupTime, "s", 3)}` });
@@ -80,21 +66,85 @@ export function startupFigure(input: StartupPlot): Figure {
   if (input.settlingTime !== undefined && Number.isFinite(input.settlingTime)) {
     markers.push({ x: input.settlingTime, label: `settled ${formatSI(input.settlingTime, "s", 3)}` });
   }
+  return markers;
+}
+
+/**
+ * The whole run: the probe waveform, ± its envelope (named in the legend only when it has
+ * points to draw), and the start-up and settling times marked.
+ */
+export function waveformPanel(input: StartupPlot): Panel {
+  const offset = input.offset ?? 0;
   const series: Series[] = [{ name: input.probe.name, x: input.time, y: input.probe.values, style: "line", tone: 0 }];
-  if (input.envelope !== undefined) {
+  if (input.envelope !== undefined && finiteCount(input.envelope.values) > 0) {
     const { x, y } = envelopeSeries(input.envelope, offset);
     series.push({ name: "\u00b1 envelope", x, y, style: "dashed", tone: 1 });
   }
-  const panels: Panel[] = [
-    {
-      xLabel: "time",
-      xUnit: "s",
-      yLabel: quantityOf(input.probe.unit),
-      yUnit: input.probe.unit,
-      series,
-      markers,
-    },
-  ];
-  if (input.harmonics !== undefined && input.harmonics.length > 0) panels.push(spectrumPanel(input.harmonics, input.thd));
-  return { title: input.title, panels };
+  return { title: "whole run", xLabel: "time", xUnit: "s", yLabel: quantityOf(input.probe.unit), yUnit: input.probe.unit, series, markers: timeMarkers(input) };
+}
+
+/** The last {@link LAST_CYCLES} cycles of the run at full resolution, or null without a frequency. */
+export function lastCyclesPanel(input: StartupPlot): Panel | null {
+  const f = input.frequency;
+  const n = input.time.length;
+  if (f === undefined || !(f > 0) || n < 2) return null;
+  const end = input.time[n - 1] as number;
+  const from = end - LAST_CYCLES / f;
+  if (!(from > (input.time[0] as number))) return null;
+  let first = n - 1;
+  while (first > 0 && (input.time[first - 1] as number) >= from) first -= 1;
+  const x = Float64Array.from({ length: n - first }, (_, i) => input.time[first + i] as number);
+  const y = Float64Array.from({ length: n - first }, (_, i) => input.probe.values[first + i] as number);
+  return {
+    title: `last ${LAST_CYCLES} cycles`,
+    xLabel: "time",
+    xUnit: "s",
+    yLabel: quantityOf(input.probe.unit),
+    yUnit: input.probe.unit,
+    series: [{ name: "", x, y, style: "line", tone: 0 }],
+    xRange: [from, end],
+  };
+}
+
+/**
+ * The envelope in dB relative to the settled amplitude: exponential growth is a straight
+ * slope here (growth rate σ gives 20·σ/ln 10 dB per second), the settled level is 0 dB.
+ */
+export function envelopeDbPanel(input: StartupPlot): Panel | null {
+  const reference = input.amplitude;
+  if (input.envelope === undefined || reference === undefined || !(reference > 0)) return null;
+  const y = Float64Array.from(input.envelope.values, (e) => (e > 0 ? 20 * Math.log10(e / reference) : Number.NaN));
+  if (finiteCount(y) === 0) return null;
+  const rate = input.growthRate;
+  const slope = rate !== undefined && Number.isFinite(rate) ? `; growth ${formatSI((20 * rate) / Math.LN10 / 1000, "", 3)} dB/ms` : "";
+  return {
+    title: `envelope in dB of the settled amplitude${slope}`,
+    xLabel: "time",
+    xUnit: "s",
+    yLabel: "envelope",
+    yUnit: "dB",
+    series: [{ name: "", x: input.envelope.time, y, style: "line", tone: 1 }],
+    markers: timeMarkers(input),
+  };
+}
+
+/** The panels of a start-up: whole run, last cycles, envelope in dB, spectrum (those that apply). */
+export function startupPanels(input: StartupPlot): { waveform: Panel; lastCycles: Panel | null; envelopeDb: Panel | null; spectrum: Panel | null } {
+  return {
+    waveform: waveformPanel(input),
+    lastCycles: lastCyclesPanel(input),
+    envelopeDb: envelopeDbPanel(input),
+    spectrum: input.harmonics !== undefined && input.harmonics.length > 0 ? spectrumPanel(input.harmonics, input.thd, input.amplitudeError) : null,
+  };
+}
+
+/**
+ * The start-up plot: the whole run (waveform, ± envelope, start-up and settling marked) with
+ * its last cycles beside it, then the envelope in dB and the spectrum of the settled waveform.
+ */
+export function startupFigure(input: StartupPlot): Figure {
+  const p = startupPanels(input);
+  const panels = [p.waveform, p.lastCycles, p.envelopeDb, p.spectrum].filter((x): x is Panel => x !== null);
+  if (panels.length === 1) return { title: input.title, panels };
+  return { title: input.title, panels, columns: 2, width: 1400, panelHeight: 420 };
 }

@@ -8,6 +8,8 @@ export interface SpecLimit {
   readonly max?: number;
   readonly minLabel?: string;
   readonly maxLabel?: string;
+  /** How many samples met this limit, in words ("97.5 % of samples within"), added to the panel title. */
+  readonly yieldText?: string;
 }
 
 /** Input of {@link toleranceFigure}: one value per Monte Carlo run (NaN when it had none). */
@@ -42,7 +44,8 @@ function histogramPanel(name: string, unit: string, values: ArrayLike<number>, l
   const { edges, counts } = histogram(scaled, bins);
   const centres = Float64Array.from(counts, (_, i) => ((edges[i] as number) + (edges[i + 1] as number)) / 2);
   const missing = scaled.length - scaled.filter(Number.isFinite).length;
-  const title = missing === 0 ? name : `${name} (${missing} of ${scaled.length} runs without a value)`;
+  const notes = [missing === 0 ? "" : `${missing} of ${scaled.length} runs without a value`, limit?.yieldText ?? ""].filter((t) => t !== "");
+  const title = notes.length === 0 ? name : `${name} (${notes.join("; ")})`;
   const hasData = missing < scaled.length;
   return {
     title,

@@ -1,0 +1,153 @@
+import { METRIC_LABELS, metric, percent, si } from "../report/values.js";
+import type { Json } from "../json/results.js";
+import { tag, textTag } from "./markup.js";
+import { verdictBadge } from "./plain-sections.js";
+import { dataTable, field, list, num, outcomeCell, str, type Cell } from "./tables.js";
+
+/** How many worst samples the page lists (the text report lists 5; the page has room). */
+const WORST_SHOWN = 10;
+
+function note(text: string): string {
+  return textTag("p", { class: "note" }, text);
+}
+
+/** The sweep: every setting with its verdict and metrics (silent ones too), and the start threshold. */
+export function sweepSection(d: Json): string {
+  const target = str(d, "target") ?? "";
+  const unit = str(d, "unit") ?? "";
+  const rows = list(d, "points").map((p): Cell[] => {
+    const st = list(p, "results").find((r) => str(r, "analysis") === "startup");
+    const spec = field(p, "spec");
+    return [
+      si(num(p, "value"), unit),
+      st ? { html: verdictBadge(str(st, "verdict") ?? "") } : "",
+      metric("frequency", num(st, "frequency")),
+      metric("amplitude", num(st, "amplitude")),
+      metric("thd", num(st, "thd")),
+      metric("startupTime", num(st, "startupTime")),
+      metric("growthRate", num(st, "growthRate")),
+      spec ? outcomeCell(field(spec, "pass") === true) : "",
+    ];
+  });
+  const t = field(d, "threshold");
+  let threshold = "start threshold: not crossed within the sweep (the verdict does not change between settings)";
+  if (t) {
+    threshold = `start threshold: ${target} = ${si(num(t, "value"), unit)} ± ${si(num(t, "precision"), unit, 2)} (${field(t, "startsAbove") === true ? "oscillates above it" : "oscillates below it"})`;
+    const margin = num(t, "margin");
+    if (num(t, "nominal") !== null && margin !== null) threshold += `; nominal ${si(num(t, "nominal"), unit)}: margin ${percent(margin, 3)}, the nominal ${margin > 0 ? "starts" : "does not start"}`;
+  }
+  return (
+    tag("h3", {}, `sweep of ${textTag("code", {}, target)}`) +
+    textTag("p", { class: "explanation" }, threshold) +
+    tag("div", { class: "tables" }, dataTable([target, "verdict", "frequency", "amplitude", "THD", "start-up", "growth rate", "spec"], rows, [true, false, true, true, true, true, true, false]))
+  );
+}
+
+const PERCENTILES = ["min", "p1", "p5", "median", "p95", "p99", "max"] as const;
+
+function percentileTable(summary: Json | undefined): string {
+  const percentiles = field(summary, "percentiles");
+  const rows = Object.keys((percentiles ?? {}) as object).map((key): Cell[] => {
+    const p = field(percentiles, key);
+    return [METRIC_LABELS[key] ?? key, ...PERCENTILES.map((n) => metric(key, num(p, n)))];
+  });
+  return dataTable(["metric", ...PERCENTILES], rows, [false, ...PERCENTILES.map(() => true)], "spread over the samples");
+}
+
+function yieldText(y: Json | undefined): string {
+  const interval = field(y, "interval");
+  return `yield ${percent(num(y, "value"))} (${num(y, "passed")} of ${num(y, "runs")} pass), 95 % Wilson interval ${percent(num(interval, "low"))} to ${percent(num(interval, "high"))}`;
+}
+
+function studyLine(d: Json): string {
+  const dist = str(d, "dist") === "normal" ? "normal, σ = tolerance/3, cut at ±tolerance" : "uniform over ±tolerance";
+  const shard = field(d, "shard");
+  return `${num(d, "runs")} runs, seed ${num(d, "seed")}, ${dist}${shard ? `, shard ${num(shard, "index")}/${num(shard, "count")}` : ""}`;
+}
+
+/** A tolerance study: verdict counts, percentiles, the yield, and the worst samples with the command that reruns each. */
+export function toleranceSection(d: Json): string {
+  const summary = field(d, "summary");
+  const tolerances = list(d, "tolerances");
+  const samples = list(d, "samples");
+  const commands = new Map(list(d, "reproduce").map((r) => [num(r, "index"), str(r, "command") ?? ""]));
+  const verdicts = Object.entries((field(summary, "verdicts") ?? {}) as Record<string, Json>).map(([v, n]) => `${v} ${n}`);
+  const worst = list(summary, "worst")
+    .slice(0, WORST_SHOWN)
+    .map((i) => samples.find((s) => num(s, "index") === i))
+    .filter((s): s is Json => s !== undefined)
+    .map((s): Cell[] => {
+      const m = field(s, "metrics");
+      const failures = list(s, "failures").map(String);
+      const drawn = tolerances.map((t) => `${str(t, "target")} = ${si(num(field(s, "drawn"), str(t, "target") ?? ""), str(t, "unit") ?? "")}`).join(", ");
+      const error = str(s, "error");
+      return [
+        `#${num(s, "index")}`,
+        field(s, "pass") === true ? outcomeCell(true, "passes") : { html: textTag("span", { class: "bad" }, `fails: ${failures.join(", ")}${error ? ` (${error})` : ""}`) },
+        `f ${metric("frequency", num(m, "frequency"))}, amplitude ${metric("amplitude", num(m, "amplitude"))}, THD ${metric("thd", num(m, "thd"))}, start-up ${metric("startupTime", num(m, "startupTime"))}`,
+        drawn,
+        { html: tag("code", { class: "command" }, commands.get(num(s, "index")) ?? "") },
+      ];
+    });
+  const missing = list(d, "missing").length;
+  return (
+    tag("h3", {}, "Monte Carlo tolerance study") +
+    note(studyLine(d)) +
+    textTag("p", { class: "explanation" }, `${num(summary, "runs")} samples done; verdicts: ${verdicts.join(", ") || "none"}. ${yieldText(field(summary, "yield"))}`) +
+    (missing > 0 ? textTag("p", { class: "warning" }, `${missing} samples are not done yet: rerun with --resume to finish them`) : "") +
+    tag("div", { class: "tables" }, percentileTable(summary)) +
+    (worst.length > 0 ? tag("div", { class: "tables" }, dataTable(["sample", "outcome", "measured", "drawn", "reproduce"], worst, [], "worst samples")) : "")
+  );
+}
+
+/** A design window: the yield at each setting and the settings that reach the required yield. */
+export function windowSection(d: Json): string {
+  const target = str(d, "target") ?? "";
+  const unit = str(d, "unit") ?? "";
+  const rows = list(d, "points").map((p): Cell[] => {
+    const summary = field(p, "summary");
+    const y = field(summary, "yield");
+    const interval = field(y, "interval");
+    const percentiles = field(summary, "percentiles");
+    return [
+      si(num(p, "value"), unit),
+      percent(num(y, "value")),
+      `${percent(num(interval, "low"), 3)} to ${percent(num(interval, "high"), 3)}`,
+      metric("frequency", num(field(percentiles, "frequency"), "median")),
+      metric("amplitude", num(field(percentiles, "amplitude"), "median")),
+      outcomeCell(field(p, "pass") === true, "meets", "short"),
+    ];
+  });
+  const w = field(d, "window");
+  const line = w ? `window: ${target} from ${si(num(w, "from"), unit)} to ${si(num(w, "to"), unit)} meets the required yield of ${percent(num(d, "required"))}` : `no setting of ${target} reaches the required yield of ${percent(num(d, "required"))}`;
+  return (
+    tag("h3", {}, `design window over ${textTag("code", {}, target)}`) +
+    note(studyLine(d)) +
+    textTag("p", { class: "explanation" }, line) +
+    tag("div", { class: "tables" }, dataTable([target, "yield", "95 % interval", "median f", "median amplitude", ""], rows, [true, true, true, true, true, false]))
+  );
+}
+
+/** The spec table: each criterion, what was measured (or its yield), and the outcome. */
+export function specSection(spec: Json): string {
+  const criteria = list(spec, "criteria");
+  const overall = criteria.find((c) => field(c, "combined") === true);
+  const pass = field(spec, "pass") === true;
+  const head = tag("h3", {}, `spec ${textTag("span", { class: `verdict ${pass ? "good" : "bad"}` }, pass ? "met" : "NOT met")}`);
+  if (overall) {
+    const rows = criteria.map((c): Cell[] => {
+      const interval = field(c, "interval");
+      return [
+        field(c, "combined") === true ? `all together (${str(c, "text")})` : (str(c, "text") ?? ""),
+        percent(num(c, "measured")),
+        interval ? `${percent(num(interval, "low"))} to ${percent(num(interval, "high"))}` : "",
+        num(c, "passed") === null ? "" : `${num(c, "passed")} of ${num(c, "runs")}`,
+        outcomeCell(field(c, "pass") === true),
+      ];
+    });
+    return head + tag("div", { class: "tables" }, dataTable(["criterion", "yield", "95 % interval", "samples", "result"], rows, [false, true, true, true, false]));
+  }
+  const met = criteria.filter((c) => field(c, "pass") === true).length;
+  const rows = criteria.map((c): Cell[] => [str(c, "text") ?? "", metric(str(c, "metric") ?? "", num(c, "measured")), outcomeCell(field(c, "pass") === true)]);
+  return head + note(`${met} of ${criteria.length} criteria pass (checked on ${str(spec, "on") ?? ""})`) + tag("div", { class: "tables" }, dataTable(["criterion", "measured", "result"], rows, [false, true, false]));
+}
