@@ -1,9 +1,9 @@
 import type { Excitation, QuantityUnit } from "@onset/core";
-import { formatDecibel, formatWithError } from "../format/index.js";
+import { formatDecibel } from "../format/index.js";
 import type { Json } from "../json/results.js";
 import { numericalFloorDbc } from "../plot/index.js";
 import { excitationText } from "../report/startup.js";
-import { percent, perSecond, si } from "../report/values.js";
+import { percent, perSecond, si, withBar as figureWithBar } from "../report/values.js";
 import { tag, textTag } from "./markup.js";
 import { dataTable, field, list, num, pairsTable, str, type Cell } from "./tables.js";
 
@@ -16,9 +16,7 @@ export function verdictBadge(verdict: string): string {
 
 /** A settled figure with its error bar `value ± bar` when the run has one. */
 function withBar(value: number | null, bar: number | null, unit: string): string {
-  if (value === null) return si(null, unit);
-  if (bar === null) return unit === "1" ? percent(value) : si(value, unit);
-  return formatWithError(value, bar, unit);
+  return figureWithBar(value, bar ?? undefined, unit);
 }
 
 function note(text: string): string {
