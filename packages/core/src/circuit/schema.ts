@@ -6,7 +6,7 @@ import type { Quantity } from "../solver/quantities.js";
  */
 
 /** Unit symbols as the language writes them; `1` is a plain ratio; `S` is siemens (A/V). */
-export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "1";
+export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "K" | "W/K" | "1/V" | "1";
 
 interface OptionBase {
   /** One line for docs and hints. */
