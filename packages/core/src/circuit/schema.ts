@@ -117,6 +117,4 @@ export interface PartKindSchema {
    * with the quantity each one is; branch currents are probed as `PART.i` and are not listed.
    */
   readonly states?: Readonly<Record<string, StateSchema>>;
-  /** True when the language accepts the kind but the engine does not simulate it yet. */
-  readonly planned?: boolean;
 }
