@@ -93,3 +93,20 @@ describe("lamp", () => {
     expect(() => runBias(circuit([part("vsource", "V1", ["a", "gnd"], 1), p]), { kind: "bias" })).toThrow("lamp L1 needs rated=");
   });
 });
+
+describe("lamp in the poles analysis", () => {
+  test("linearised at its bias temperature: on a fixed voltage the thermal pole is −(1/R_th + 1.2·P/θ)/C_th (heat balance differentiated, docs/references.md §12.1)", async () => {
+    const { runPoles } = await import("@onset/core");
+    const net = lampNetwork(LAMP, DEFAULT_AMBIENT);
+    for (const volts of [0, 5, LAMP.rated]) {
+      const r = runPoles(circuit([part("vsource", "V1", ["a", "gnd"], volts), lampPart()]), { kind: "poles" });
+      // the bias temperature from the heat balance at that voltage (the bias point solves it)
+      const bias = runTransient(circuit([part("vsource", "V1", ["a", "gnd"], volts), lampPart()]), { kind: "transient", until: 1e-6, start: "bias", probes: [{ kind: "state", part: "L1", state: "temperature" }] });
+      const theta = bias.signals[0]!.values[0]!;
+      const power = (volts * volts) / (LAMP.cold * Math.pow(theta / DEFAULT_AMBIENT, TUNGSTEN_EXPONENT));
+      const expected = -(1 / net.resistance + (TUNGSTEN_EXPONENT * power) / theta) / net.capacity;
+      expect(r.poles.length).toBe(1);
+      expect(r.poles[0]!.real / expected).toBeCloseTo(1, 9);
+    }
+  });
+});

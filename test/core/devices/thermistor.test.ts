@@ -67,3 +67,18 @@ describe("thermistor", () => {
     }
   });
 });
+
+describe("thermistor in the poles analysis", () => {
+  test("linearised at its bias temperature: on a fixed voltage the thermal pole is −(D − P·B/θ²)/C_th (heat balance differentiated, docs/references.md §12.2)", async () => {
+    const { runPoles } = await import("@onset/core");
+    for (const volts of [0, 3, 6]) {
+      const parts = [part("vsource", "V1", ["a", "gnd"], volts), ntc()];
+      const r = runPoles(circuit(parts), { kind: "poles" });
+      const theta = runTransient(circuit(parts), { kind: "transient", until: 1e-6, start: "bias", probes: [temperature] }).signals[0]!.values[0]!;
+      const power = (volts * volts) / law(theta);
+      const expected = -(NTC.dissipation - (power * NTC.beta) / (theta * theta)) / (NTC.tau * NTC.dissipation);
+      expect(r.poles.length).toBe(1);
+      expect(r.poles[0]!.real / expected).toBeCloseTo(1, 9);
+    }
+  });
+});

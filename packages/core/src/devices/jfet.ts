@@ -39,7 +39,7 @@ export interface ChannelState {
 }
 
 /**
- * Shichman–Hodges square law (Shichman & Hodges 1968) of an n-channel in normal orientation
+ * Shichman–Hodges square law (docs/references.md §12.3) of an n-channel in normal orientation
  * (v ≥ 0 from drain to source), with β = IDSS/VP² and overdrive vov = vg − VP:
  * cut off for vov ≤ 0; β·(2·vov·v − v²)·(1 + λv) for v < vov; β·vov²·(1 + λv) beyond.
  */

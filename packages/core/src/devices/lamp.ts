@@ -20,7 +20,7 @@ export const lampSchema: PartKindSchema = {
   },
 };
 
-/** Tungsten's resistance grows as the filament temperature to this power (common practice). */
+/** Tungsten's resistance grows as the filament temperature to this power (common practice; docs/references.md §12.1). */
 export const TUNGSTEN_EXPONENT = 1.2;
 
 /** R = cold·(θ/θ_amb)^1.2, as a conductance and its slope. */

@@ -23,7 +23,7 @@ export const thermistorSchema: PartKindSchema = {
 /** 25 °C, where the B-parameter law is anchored. */
 export const REFERENCE_TEMPERATURE = 25 + ZERO_CELSIUS;
 
-/** R = R25·exp(B·(1/θ − 1/298.15 K)), as a conductance and its slope. */
+/** R = R25·exp(B·(1/θ − 1/298.15 K)), as a conductance and its slope (docs/references.md §12.2). */
 class BetaLaw implements ResistanceLaw {
   constructor(
     private readonly r25: number,
