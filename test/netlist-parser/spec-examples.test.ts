@@ -180,6 +180,14 @@ spec frequency=1k±2% thd<0.5% startup<40m amplitude=3..5 yield>99%
     expect(checkProgram(program)).toEqual([]);
   });
 
+  test("temperature= is the ambient of a thermistor or lamp under any kick, so it is not an unused option there", () => {
+    const heated = build("thermistor TH1 a gnd 10k beta=3500 dissipation=1m tau=1\nresistor R1 a gnd 1k\nstartup probe=a kick=none temperature=40\n");
+    expect(checkProgram(heated.program)).toEqual([]);
+    expect(heated.circuit.analyses[0]).toMatchObject({ kind: "startup", temperature: 40 });
+    const plain = build("resistor R1 a gnd 1k\nstartup probe=a kick=none temperature=40\n");
+    expect(checkProgram(plain.program).map((d) => d.code)).toEqual(["unused-option"]);
+  });
+
   test("tolerances: relative, absolute and on a parameter", () => {
     const { circuit } = build(`param R = 11k±1%
 resistor Ra a gnd (R)

@@ -141,6 +141,13 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
   }
   spellingCache ??= allSpellings();
   const near = closestName(suffix, spellingCache);
+  if (/^[fpnuµμmkMGT]?K$/.test(suffix)) {
+    return {
+      code: "bad-unit",
+      message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,
+      hint: "write k for kilo (10k); a temperature constant such as a thermistor's beta= is written in kelvin as a plain number (beta=3500)",
+    };
+  }
   return {
     code: "bad-unit",
     message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,

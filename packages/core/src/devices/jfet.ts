@@ -12,8 +12,8 @@ export const jfetSchema: PartKindSchema = {
   pins: ["drain", "gate", "source"],
   value: null,
   options: {
-    idss: { type: "number", unit: "A", min: 0, minExclusive: true, summary: "drain current at v(gate, source) = 0 in saturation (required)" },
-    pinchoff: { type: "number", unit: "V", summary: "pinch-off voltage VP: negative for type=n, positive for type=p (required)" },
+    idss: { type: "number", unit: "A", min: 0, minExclusive: true, summary: "drain current at v(gate, source) = 0 in saturation" },
+    pinchoff: { type: "number", unit: "V", summary: "pinch-off voltage VP: negative for type=n, positive for type=p" },
     type: { type: "word", words: ["n", "p"], default: "n", summary: "channel type" },
     lambda: { type: "number", unit: "1/V", default: 0, min: 0, summary: "channel-length modulation: the current grows as 1 + lambda·|v(drain, source)|" },
   },

@@ -11,9 +11,9 @@ export const lampSchema: PartKindSchema = {
   pins: ["a", "b"],
   value: { unit: "Ω", required: true, min: 0, minExclusive: true, summary: "cold resistance, at the ambient" },
   options: {
-    hot: { type: "number", unit: "Ω", min: 0, minExclusive: true, summary: "hot resistance, with the rated voltage across it (required, above the cold resistance)" },
-    rated: { type: "number", unit: "V", min: 0, minExclusive: true, summary: "rated voltage, at which the resistance is hot= (required)" },
-    tau: { type: "number", unit: "s", min: 0, minExclusive: true, summary: "thermal time constant: a step of power reaches 63 % of its temperature rise in tau (required)" },
+    hot: { type: "number", unit: "Ω", min: 0, minExclusive: true, summary: "hot resistance, with the rated voltage across it (above the cold resistance)" },
+    rated: { type: "number", unit: "V", min: 0, minExclusive: true, summary: "rated voltage, at which the resistance is hot=" },
+    tau: { type: "number", unit: "s", min: 0, minExclusive: true, summary: "thermal time constant: a step of power reaches 63 % of its temperature rise in tau" },
   },
   states: {
     temperature: { quantity: "temperature", summary: "the filament temperature (K)" },

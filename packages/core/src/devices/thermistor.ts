@@ -11,9 +11,9 @@ export const thermistorSchema: PartKindSchema = {
   pins: ["a", "b"],
   value: { unit: "Ω", required: true, min: 0, minExclusive: true, summary: "resistance at 25 °C" },
   options: {
-    beta: { type: "number", unit: "K", min: 0, minExclusive: true, summary: "B constant (K), written as a bare number (required)" },
-    dissipation: { type: "number", unit: "W/K", min: 0, minExclusive: true, summary: "dissipation constant: the power that holds the body 1 K above the ambient (required)" },
-    tau: { type: "number", unit: "s", min: 0, minExclusive: true, summary: "thermal time constant: a step of power reaches 63 % of its temperature rise in tau (required)" },
+    beta: { type: "number", unit: "K", min: 0, minExclusive: true, summary: "B constant (K), written as a bare number" },
+    dissipation: { type: "number", unit: "W/K", min: 0, minExclusive: true, summary: "dissipation constant: the power that holds the body 1 K above the ambient" },
+    tau: { type: "number", unit: "s", min: 0, minExclusive: true, summary: "thermal time constant: a step of power reaches 63 % of its temperature rise in tau" },
   },
   states: {
     temperature: { quantity: "temperature", summary: "the body temperature (K)" },

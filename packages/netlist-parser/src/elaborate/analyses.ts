@@ -1,4 +1,4 @@
-import { didYouMean, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type UnitSymbol } from "@onset/core";
+import { didYouMean, partKinds, type AnalysisSpec, type Probe, type SourceSpan, type SpecCriterion, type SpecMetric, type StartupKick, type UnitSymbol } from "@onset/core";
 import { problem, raise } from "../errors.js";
 import type { AnalysisStatement, CriterionNode, OptionNode, SpecStatement, Value } from "../syntax.js";
 import type { Elaboration } from "./context.js";
@@ -30,7 +30,7 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     until: { type: "number", unit: "s", ...positive, words: ["auto"], summary: "end time, or auto" },
     "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
     kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
-    temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
+    temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature in °C of the resistances (their noise under kick=thermal and power-on) and the ambient of lamps and thermistors" },
     ramp: { type: "number", unit: "s", min: 0, summary: "time the DC levels take to rise from 0 (kick=power-on)" },
     level: { type: "number", unit: "A", ...positive, summary: "injected current, r.m.s. (kick=noise)" },
     seed: { type: "number", unit: "1", min: 0, max: Number.MAX_SAFE_INTEGER, integer: true, summary: "seed of every noise stream" },
@@ -276,9 +276,11 @@ const KICK_OPTIONS: Readonly<Record<string, readonly StartupKick[]>> = {
 
 /** A warning for each option written on a `startup` whose kick makes no use of it. */
 function warnUnused(ctx: Elaboration, l: Located<AnalysisStatement>, o: Parsed, kick: StartupKick): void {
+  // Self-heated parts (those with a temperature state) cool to the temperature under any kick.
+  const heated = ctx.parts.some((p) => partKinds[p.kind]?.states?.temperature !== undefined);
   for (const [key, kicks] of Object.entries(KICK_OPTIONS)) {
     const node = o.given.get(key);
-    if (!node || kicks.includes(kick)) continue;
+    if (!node || kicks.includes(kick) || (key === "temperature" && heated)) continue;
     ctx.diagnostics.push(
       problem("unused-option", `${key}= has no effect with kick=${kick}`, spanIn(l, node.keySpan), {
         severity: "warning",
