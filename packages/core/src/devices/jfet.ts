@@ -163,9 +163,8 @@ class JfetChannel implements NonlinearTerm {
 
   tangentHolds(x: Float64Array, dx: Float64Array): boolean {
     const { d, g, s } = this;
-    for (const side of [d, s] as const) {
-      if (Math.abs(valueAt(dx, g) - valueAt(dx, side)) > GATE_NVT * TANGENT_SPAN) return false;
-    }
+    const dg = valueAt(dx, g);
+    if (Math.abs(dg - valueAt(dx, d)) > GATE_NVT * TANGENT_SPAN || Math.abs(dg - valueAt(dx, s)) > GATE_NVT * TANGENT_SPAN) return false;
     const vd = valueAt(x, d);
     const vg = valueAt(x, g);
     const vs = valueAt(x, s);
