@@ -242,7 +242,16 @@ describe("sweeps and the design window", () => {
     expect(sweep.threshold.value / 20e3).toBeCloseTo(1, 1);
     expect(sweep.threshold.startsAbove).toBe(true);
     expect(sweep.threshold.margin).toBeGreaterThan(0);
-    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,pass");
+    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,frequencyError,amplitudeError,rmsError,thdError,pass");
+  });
+
+  test("the sweep table prints each setting's frequency, amplitude and THD with their error bars", async () => {
+    ws.write("sweep-two.onset", wien("startup probe=o until=30m\nsweep Rf from=22k to=23k steps=2\n"));
+    const r = await ws.run(["run", "sweep-two.onset", "--no-color"]);
+    expect(r.status).toBe(0);
+    const rows = r.stdout.split("\n").filter((l) => / 2[23] kΩ +settled/.test(l));
+    expect(rows).toHaveLength(2);
+    for (const row of rows) expect(row.match(/ ± /g)?.length).toBe(3);
   });
 
   test("sweep × tolerance gives the yield at each setting and the window that meets it", async () => {

@@ -329,6 +329,23 @@ describe("units of drawn values", () => {
   });
 });
 
+describe("accuracy options of the time-domain analyses", () => {
+  test("transient and startup take accuracy= and accuracy-floor=, and --set reaches them", () => {
+    const text = "resistor R1 a gnd 1k\ncapacitor C1 a gnd 1u\nvsource V1 a gnd 1\ntransient until=1m accuracy=1e-6 accuracy-floor=1n\nstartup probe=a accuracy=1e-5\n";
+    const c = circuit(program(text));
+    expect(c.analyses[0]).toMatchObject({ kind: "transient", accuracy: 1e-6, accuracyFloor: 1e-9 });
+    expect(c.analyses[1]).toMatchObject({ kind: "startup", accuracy: 1e-5 });
+    expect(circuit(program(text), { "transient.accuracy": "1e-8" }).analyses[0]).toMatchObject({ accuracy: 1e-8 });
+  });
+
+  test("an accuracy outside 1e-10 … 0.1 is out-of-range at the option's value", () => {
+    const text = "resistor R1 a gnd 1k\nvsource V1 a gnd 1\ntransient until=1m accuracy=0.5\n";
+    const r = elaborate(program(text));
+    expect(r.diagnostics.map((d) => d.code)).toEqual(["out-of-range"]);
+    expect(text.slice(r.diagnostics[0]!.span!.start, r.diagnostics[0]!.span!.end)).toBe("0.5");
+  });
+});
+
 describe("node pairs", () => {
   test("supply= takes node names; a number there is expected-node", () => {
     const r = elaborate(program("opamp U1 p n o supply=(1, vcc)\nresistor R o n 1k\n"));

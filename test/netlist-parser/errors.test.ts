@@ -464,7 +464,7 @@ const cases: readonly Case[] = [
       "t.onset:2:20: error: transient has no option 'foo='",
       "  transient until=1m foo=2",
       "                     ^~~",
-      "hint: options of transient: until= max-step= start= probes=",
+      "hint: options of transient: until= max-step= start= probes= accuracy= accuracy-floor=",
     ].join("\n"),
   },
   {

@@ -192,7 +192,8 @@ describe("installed outside the workspace", () => {
       writeFileSync(join(app, `tsconfig.${kind}.json`), JSON.stringify(config));
       ok(run(process.execPath, [join(repo, "node_modules/typescript/bin/tsc"), "-p", `tsconfig.${kind}.json`], app), `tsc (${kind})`);
     }
-  });
+    // Two full type-checks of the installed declarations: ~20 s on a quiet machine, several times that on a busy one.
+  }, 240_000);
 
   test("npx onset --help, and a 2-worker tolerance study from the installed command", () => {
     expect(ok(run("npx", ["--no-install", "onset", "--help"], app), "npx onset --help")).toContain("usage: onset COMMAND [options]");

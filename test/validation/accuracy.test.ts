@@ -30,6 +30,12 @@ for (const c of validationCases()) {
         expect(row.bar, "the start-up result has no numericalError").not.toBeNull();
         expect(Math.abs(row.onset! - row.reference!)).toBeLessThanOrEqual(row.bar!);
       });
+
+      test(`${metric}: the error bar is no wider than the accuracy promised (${LIMITS[metric] * 100} %), so it is worth printing`, () => {
+        const row = compareRows(c.reference!, result).find((r) => r.metric === metric)!;
+        if (!row.judged) return;
+        expect(row.bar!).toBeLessThanOrEqual(LIMITS[metric] * Math.abs(row.reference!));
+      });
     }
   });
 }

@@ -1,4 +1,4 @@
-import type { Circuit, StartupAnalysis, StartupResult } from "@onset/core";
+import type { Circuit, StartupAnalysis, StartupResult, RunOptions } from "@onset/core";
 
 export type Metric = "frequency" | "amplitude" | "rms" | "thd";
 
@@ -57,6 +57,6 @@ export const LIMITS: Readonly<Record<Metric, number>>;
 export const THD_FLOOR: number;
 export function validationCases(): ValidationCase[];
 export function caseCircuit(file: string, overrides?: Readonly<Record<string, number>>): Circuit;
-export function runCase(circuit: Circuit, changes?: Partial<StartupAnalysis>): { result: StartupResult; ms: number };
+export function runCase(circuit: Circuit, changes?: Partial<StartupAnalysis>, options?: RunOptions): { result: StartupResult; ms: number; cpuMs: number };
 export function referenceThd(reference: Reference, orders?: readonly [number, number]): number | null;
 export function compareRows(reference: Reference, result: StartupResult): ComparisonRow[];

@@ -37,11 +37,13 @@ export function caseCircuit(file, overrides = {}) {
 }
 
 /** Runs the file's startup analysis, with `changes` applied to it (e.g. a max-step); wall time in ms. */
-export function runCase(circuit, changes = {}) {
+export function runCase(circuit, changes = {}, options = {}) {
   const analysis = { ...startupAnalysisOf(circuit), ...changes };
   const started = performance.now();
-  const result = runStartup(circuit, analysis);
-  return { result, ms: performance.now() - started };
+  const cpu = process.cpuUsage();
+  const result = runStartup(circuit, analysis, options);
+  const used = process.cpuUsage(cpu);
+  return { result, ms: performance.now() - started, cpuMs: (used.user + used.system) / 1000 };
 }
 
 /** THD_F of the reference over harmonics 2 … N (N ≤ 30, the harmonics it carries). */

@@ -6,6 +6,7 @@ import { studyReport, windowReport } from "../../../packages/cli/src/study/study
 import { specReport } from "../../../packages/cli/src/report/spec.js";
 import { paint } from "../../../packages/cli/src/color.js";
 import { studyCsv } from "../../../packages/cli/src/csv/study.js";
+import { studyText } from "../../../packages/cli/src/report/study.js";
 import { wilsonInterval } from "@onset/core";
 
 const metrics = (frequency: number) => ({
@@ -21,6 +22,7 @@ const metrics = (frequency: number) => ({
   peakToPeak: 6,
   predictedFrequency: frequency,
   predictedGrowthRate: 510,
+  numericalError: { frequency: 0.02, amplitude: 1e-4, rms: 7e-5, thd: 1e-6 } as { frequency: number; amplitude: number; rms: number; thd: number } | null,
 });
 
 const base: StudyHeader = {
@@ -136,6 +138,45 @@ describe("studyReport(header, samples)", () => {
     expect(r.points.map((p) => p.pass)).toEqual([false, true, false, true, true]);
     expect(r.window).toEqual({ from: 0.4, to: 0.5 });
     expect(r.spec?.pass).toBe(true);
+  });
+});
+
+describe("error bars in a study", () => {
+  const withBars = (index: number, frequency: number, bar: number) => {
+    const s = sample(index, frequency);
+    return { ...s, metrics: { ...s.metrics!, numericalError: { frequency: bar, amplitude: bar * 1e-3, rms: bar * 1e-3, thd: bar * 1e-6 } } };
+  };
+  const samples = [withBars(0, 1000, 0.02), withBars(1, 1005, 0.05), withBars(2, 995, 0.01)];
+
+  test("the summary carries the largest error bar of each figure over the samples", () => {
+    const r = studyReport(base, samples);
+    expect(r.kind === "tolerance" && r.summary.numericalError).toEqual({ frequency: 0.05, amplitude: 5e-5, rms: 5e-5, thd: 5e-8 });
+    const json = studyJson(r) as { summary: { numericalError: unknown }; samples: { metrics: { numericalError: unknown } }[] };
+    expect(json.summary.numericalError).toEqual({ frequency: 0.05, amplitude: 5e-5, rms: 5e-5, thd: 5e-8 });
+    expect(json.samples[1]!.metrics.numericalError).toEqual({ frequency: 0.05, amplitude: 5e-5, rms: 5e-5, thd: 5e-8 });
+  });
+
+  test("samples stored before bars existed (no numericalError) summarise to null, and the table has no error column", () => {
+    const old = samples.map((s) => ({ ...s, metrics: { ...s.metrics, numericalError: undefined as unknown as null } }));
+    const r = studyReport(base, old);
+    expect(r.kind === "tolerance" && r.summary.numericalError).toBeNull();
+    expect(studyText(r, paint(false)).join("\n")).not.toContain("numerical error");
+  });
+
+  test("the percentile table ends in a numerical-error column", () => {
+    const text = studyText(studyReport(base, samples), paint(false));
+    const header = text.find((l) => l.includes("median"))!;
+    expect(header.trim().endsWith("numerical error")).toBe(true);
+    expect(text.find((l) => l.trim().startsWith("frequency"))).toContain("± 50 mHz");
+  });
+
+  test("the CSV has one error column per settled figure, in absolute units", () => {
+    const [header, first] = studyCsv(studyReport(base, samples)).split("\n");
+    const columns = header!.split(",");
+    const cells = first!.split(",");
+    expect(columns).toEqual(expect.arrayContaining(["frequencyError", "amplitudeError", "rmsError", "thdError"]));
+    expect(Number(cells[columns.indexOf("frequencyError")])).toBe(0.02);
+    expect(Number(cells[columns.indexOf("thdError")])).toBe(2e-8);
   });
 });
 

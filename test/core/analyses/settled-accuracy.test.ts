@@ -101,3 +101,13 @@ describe("THD+N counts everything in the band but the fundamental", () => {
     expect(Math.abs(r.thdPlusNoise! / 1e-4 - 1)).toBeLessThan(1e-2);
   });
 });
+
+describe("THD+N beside the orbit's THD", () => {
+  test("the orbit's THD plus the run's noise in power: never below THD (mathematics: power of orthogonal components adds)", () => {
+    const r = runStartup(circuit(wien(3.1, { ...opampPresets.ideal, knee: 1e-4 })), { kind: "startup", probe: node("o"), until: "auto" });
+    expect(r.settled.from).toBe("orbit");
+    expect(r.thdPlusNoise!).toBeGreaterThanOrEqual(r.thd!);
+    // thermal noise at the µV level of a 10 V swing adds far less than the harmonics
+    expect(r.thdPlusNoise! / r.thd! - 1).toBeLessThan(1e-3);
+  });
+});

@@ -47,4 +47,23 @@ describe("transient against closed forms (docs/references.md §3; Nilsson & Ried
     expect(sampleAt(r.time, vc, 500e-6)).toBeCloseTo(1.0804582724, 5);
     expect(sampleAt(r.time, i, 50e-6)).toBeCloseTo(24.940449712e-3, 7);
   });
+
+  test("accuracy= tightens the step control: the RLC ringing error at 500 µs falls as the accuracy is raised", () => {
+    const c = circuit([
+      step("V1", "in"),
+      part("resistor", "R1", ["in", "a"], 10),
+      part("inductor", "L1", ["a", "b"], 1e-3),
+      part("capacitor", "C1", ["b", "gnd"], 1e-6),
+    ]);
+    const run = (accuracy: number) => {
+      const r = runTransient(c, { kind: "transient", until: 600e-6, start: "bias", probes: [{ kind: "node", node: "b" }], accuracy, accuracyFloor: 1e-12 });
+      // docs/references.md §3: v_C(500 µs) = 1.0804582724
+      return { error: Math.abs(sampleAt(r.time, r.signals[0]!.values, 500e-6) - 1.0804582724), steps: r.stats.accepted };
+    };
+    const loose = run(1e-3);
+    const strict = run(1e-7);
+    expect(strict.steps).toBeGreaterThan(loose.steps);
+    expect(strict.error).toBeLessThan(loose.error / 10);
+    expect(strict.error).toBeLessThan(1e-5);
+  });
 });

@@ -5,7 +5,7 @@ import type { StudyReport } from "../study/study-report.js";
 import type { Json } from "./results.js";
 
 function sampleJson(s: StoredSample): Json {
-  return { index: s.index, drawn: { ...s.drawn }, pass: s.pass, failures: [...s.failures], error: s.error, metrics: s.metrics ? { ...s.metrics } : null };
+  return { index: s.index, drawn: { ...s.drawn }, pass: s.pass, failures: [...s.failures], error: s.error, metrics: s.metrics ? { ...s.metrics, numericalError: s.metrics.numericalError ? { ...s.metrics.numericalError } : null } : null };
 }
 
 function yieldJson(y: YieldSummary): Record<string, Json> {
@@ -21,6 +21,7 @@ function summaryJson(summary: ToleranceSummary): Json {
     criteria: summary.criteria.map((c) => ({ text: c.criterion.text, metric: c.criterion.metric, ...yieldJson(c) })),
     yieldCriterion: summary.yieldCriterion ? { text: summary.yieldCriterion.criterion.text, pass: summary.yieldCriterion.pass } : null,
     worst: [...summary.worst],
+    numericalError: summary.numericalError ? { ...summary.numericalError } : null,
   };
 }
 

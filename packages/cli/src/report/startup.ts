@@ -1,9 +1,9 @@
 import type { Excitation, QuantityUnit, StartupResult, StartupTimeSpread } from "@onset/core";
 import type { Paint } from "../color.js";
-import { formatDecibel, formatPlain, formatWithError } from "../format/index.js";
+import { formatDecibel, formatPlain } from "../format/index.js";
 import { SPECTRUM_FLOOR_DBC } from "../plot/index.js";
 import { pairs, table } from "./table.js";
-import { percent, perSecond, si } from "./values.js";
+import { percent, perSecond, si, withBar } from "./values.js";
 
 /** How each verdict reads in a report, and its colour. */
 export function verdictText(verdict: StartupResult["verdict"], p: Paint): string {
@@ -54,13 +54,6 @@ export function excitationText(e: Excitation, unit: QuantityUnit): string {
  */
 /** How many harmonics the table lists; THD may count more (see `thdOrders`). */
 const LISTED_HARMONICS = 10;
-
-/** A settled figure with its error bar when the result has one, else as measured. */
-function withBar(value: number | null, error: number | undefined, unit: string): string {
-  if (value === null) return si(null, unit);
-  if (error === undefined) return unit === "1" ? percent(value) : si(value, unit);
-  return formatWithError(value, error, unit);
-}
 
 export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): string[] {
   const lines = [`${p.bold(`start-up on ${r.probe}`)}: ${verdictText(r.verdict, p)}`, `  ${r.explanation}`, ""];

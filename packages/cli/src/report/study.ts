@@ -26,13 +26,20 @@ function verdictCounts(summary: ToleranceReport["summary"]): string {
     .join(", ");
 }
 
+/**
+ * Percentiles of each metric; with error bars, a last column gives the largest numerical error
+ * of the settled figures over the samples (a spread narrower than it is not resolved).
+ */
 function percentileTable(summary: ToleranceReport["summary"]): string[] {
   const names = ["min", "p1", "p5", "median", "p95", "p99", "max"] as const;
+  const bars = summary.numericalError;
+  const barOf = (key: string) => (bars && key in bars ? `± ${metric(key, bars[key as keyof typeof bars])}` : "");
   const rows = SAMPLE_METRICS.flatMap((key) => {
     const p = summary.percentiles[key];
-    return p ? [[METRIC_LABELS[key] ?? key, ...names.map((n) => metric(key, p[n]))]] : [];
+    return p ? [[METRIC_LABELS[key] ?? key, ...names.map((n) => metric(key, p[n])), ...(bars ? [barOf(key)] : [])]] : [];
   });
-  return table([{ header: "metric" }, ...names.map((n) => ({ header: n, align: "right" as const }))], rows);
+  const columns = [{ header: "metric" }, ...names.map((n) => ({ header: n, align: "right" as const }))];
+  return table(bars ? [...columns, { header: "numerical error", align: "right" as const }] : columns, rows);
 }
 
 function missingLine(r: StudyReport, p: Paint): string[] {

@@ -2,7 +2,7 @@ import type { Paint } from "../color.js";
 import { startupAt, type SweepReport } from "../study/sweep-report.js";
 import { verdictText } from "./startup.js";
 import { table } from "./table.js";
-import { metric, percent, si } from "./values.js";
+import { metric, percent, si, withBar } from "./values.js";
 
 /** The sweep table (metrics against the setting) and the start threshold with the nominal's margin. */
 export function sweepText(r: SweepReport, p: Paint): string[] {
@@ -28,9 +28,9 @@ export function sweepText(r: SweepReport, p: Paint): string[] {
         return [
           si(pt.value, r.unit),
           st ? verdictText(st.verdict, p) : "",
-          metric("frequency", st?.frequency),
-          metric("amplitude", st?.amplitude),
-          metric("thd", st?.thd),
+          withBar(st?.frequency, st?.numericalError?.frequency, "Hz"),
+          st ? withBar(st.amplitude, st.numericalError?.amplitude, st.unit) : metric("amplitude", null),
+          withBar(st?.thd, st?.numericalError?.thd, "1"),
           metric("startupTime", st?.startupTime),
           metric("growthRate", st?.growthRate),
           spec,

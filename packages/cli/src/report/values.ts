@@ -1,10 +1,17 @@
 import type { SpecMetric } from "@onset/core";
-import { formatPercent, formatPlain, formatSI } from "../format/index.js";
+import { formatPercent, formatPlain, formatSI, formatWithError } from "../format/index.js";
 import { NOT_A_NUMBER } from "../format/symbols.js";
 
 /** A value in SI base units with a prefix (`4.73 V`, `1.012 kHz`), or `—` when absent. */
 export function si(value: number | null | undefined, unit: string, significant = 4): string {
   return value === null || value === undefined ? NOT_A_NUMBER : formatSI(value, unit, significant);
+}
+
+/** A settled figure with its error bar when it has one (`1.2239 V ± 0.0004 V`), else as measured; unit `1` is a fraction, shown in percent. */
+export function withBar(value: number | null | undefined, error: number | undefined, unit: string): string {
+  if (value === null || value === undefined) return si(null, unit);
+  if (error === undefined) return unit === "1" ? percent(value) : si(value, unit);
+  return formatWithError(value, error, unit);
 }
 
 /** A fraction as percent, or `—`. */

@@ -8,7 +8,7 @@ import { probeReader } from "./probes.js";
 import type { TransientStepper } from "./stepper.js";
 
 /** The orbit is found to within this fraction of the step control's relative accuracy. */
-const ORBIT_SHARE = 1e-5;
+const ORBIT_SHARE = 1e-2;
 
 /** Why the settled figures come from the run's last cycles instead of the periodic orbit. */
 export interface OrbitFailure {

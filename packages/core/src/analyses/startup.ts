@@ -233,7 +233,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const t = time.toArray();
   const v = values.toArray();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  const refined = refineSettled(metrics, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });
+  const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -302,6 +302,7 @@ function thdOrder(analysis: StartupAnalysis, f: number): number {
  */
 function refineSettled(
   metrics: StartupMetrics,
+  fromOrbit: boolean,
   s: {
     readonly quiet: MnaSystem;
     readonly stepper: TransientStepper;
@@ -314,7 +315,7 @@ function refineSettled(
   },
 ): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
-  if (metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
+  if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
   const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
   // A driven circuit is periodic in the measured period only if every source repeats within it.
@@ -336,10 +337,21 @@ function refineSettled(
       rms: orbit.rms,
       offset: orbit.offset,
       thd: orbit.thd,
+      thdPlusNoise: plusRunNoise(orbit.thd, metrics),
       harmonics: orbit.harmonics,
     },
     numericalError: orbit.numericalError,
     orders,
     settled: { from: "orbit", note: null, iterations: orbit.iterations, points: orbit.points },
   };
+}
+
+/**
+ * THD+N beside the orbit's THD: the orbit is noiseless, so the noise is the run's own — what its
+ * last cycles hold in the band beyond their harmonics, √(THD+N² − THD²) — added in power.
+ */
+function plusRunNoise(orbitThd: number, run: StartupMetrics): number | null {
+  if (run.thdPlusNoise === null || run.thd === null) return null;
+  const noise = Math.max(0, run.thdPlusNoise ** 2 - run.thd ** 2);
+  return Math.sqrt(orbitThd ** 2 + noise);
 }

@@ -2,7 +2,7 @@ import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/cir
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
 import type { QuantityUnit } from "../solver/quantities.js";
-import type { Tolerances } from "../solver/tolerances.js";
+import { accuracyTolerances, type Tolerances } from "../solver/tolerances.js";
 import { GrowableSeries } from "./growable.js";
 import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
@@ -42,6 +42,12 @@ export interface RunOptions extends BudgetOptions {
    * sweeps and tolerance studies run each setting or sample with the first seed only.
    */
   readonly seedSpread?: boolean;
+  /**
+   * Whether a settled `startup` takes its settled figures from the periodic orbit next to the run,
+   * with error bars (default true); false keeps the run's own last cycles, without bars — what the
+   * refinement costs is the difference (the validation bench).
+   */
+  readonly settledFromOrbit?: boolean;
 }
 
 /** Records the chosen probes at every accepted point. */
@@ -104,7 +110,7 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   const stepper = new TransientStepper(system, {
     start: analysis.start,
     maxStep: analysis.maxStep ?? defaultMaxStep(analysis.until),
-    tolerances: options.tolerances,
+    tolerances: { ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances },
   });
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
   const recorder = new ProbeRecorder(system, probes);

@@ -56,6 +56,10 @@ export interface TransientAnalysis {
   readonly start: "bias" | "rest";
   /** Empty means every node. */
   readonly probes: readonly Probe[];
+  /** Relative accuracy of the step control (default 1e-4). */
+  readonly accuracy?: number;
+  /** Absolute accuracy floor of a voltage (V; default 1 µV; currents 1 nA per µV, temperatures 0.1 mK per µV). */
+  readonly accuracyFloor?: number;
   readonly span?: SourceSpan;
 }
 

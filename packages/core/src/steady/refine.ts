@@ -110,7 +110,7 @@ function halvedPredictor(states: readonly Float64Array[]): Float64Array[] {
 /**
  * The periodic steady state near a settled run, on the run's own grid and on that grid halved;
  * the figures are extrapolated to zero step (Richardson, the formulas being second order:
- * m = m½ + (m½ − m₁)/3) and each carries the error bar |m − m₁|.
+ * m = m½ + (m½ − m₁)/3) and each carries the error bar |m − m₁| (the frequency |m − m½|).
  */
 export function refineOrbit(
   system: MnaSystem,
@@ -146,6 +146,9 @@ export function refineOrbit(
   // value lies within it whenever the error shrinks steadily as the grid is refined, even before
   // it follows h² (a limiter's corners resolved by few points, a slowly attracting orbit).
   const bar = (a: number, b: number) => Math.abs(extrapolate(a, b) - a);
+  // The period is a smooth function of the whole orbit and its error follows h² from the
+  // coarsest grid on (the validation table), so its bar is the extrapolation's own step, |m − m½|.
+  const periodBar = (a: number, b: number) => Math.abs(extrapolate(a, b) - b);
   return {
     frequency: extrapolate(m1.frequency, m2.frequency),
     amplitude: extrapolate(m1.amplitude, m2.amplitude),
@@ -155,7 +158,7 @@ export function refineOrbit(
     thd: extrapolate(m1.thd, m2.thd),
     harmonics: harmonicList(Float64Array.from(m2.harmonics, (h, k) => extrapolate(m1.harmonics[k]!.amplitude, h.amplitude)), extrapolate(m1.frequency, m2.frequency)),
     numericalError: {
-      frequency: bar(m1.frequency, m2.frequency),
+      frequency: periodBar(m1.frequency, m2.frequency),
       amplitude: bar(m1.amplitude, m2.amplitude),
       rms: bar(m1.rms, m2.rms),
       thd: bar(m1.thd, m2.thd),

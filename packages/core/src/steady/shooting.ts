@@ -42,7 +42,7 @@ export interface ShootingOptions {
   readonly autonomous: boolean;
   /** Largest number of periods integrated. @defaultValue 25 */
   readonly maxIterations?: number;
-  /** The orbit is accepted when x_N − x₀ is within this fraction of each unknown's peak (plus its floor). @defaultValue 1e-9 */
+  /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
   readonly relative?: number;
   readonly tolerances?: Partial<Tolerances>;
   /** Compute the Floquet multipliers at the converged orbit (one more period with sensitivities). */
@@ -103,16 +103,6 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       residual[i] = end.x[i]! - x0[i]!;
       mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
     }
-    if (mismatch <= 1) {
-      const start = { t0: guess.t0, x: Float64Array.from(x0), period: T };
-      const kept = map.states.map((v) => Float64Array.from(v));
-      let multipliers: Multiplier[] = [];
-      if (options.multipliers) {
-        const s = fresh ? end.sensitivity! : map.run(start, fractions, kept, true).sensitivity!;
-        multipliers = floquetMultipliers(s, n);
-      }
-      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: jacobian ?? newtonMatrix(end.sensitivity!, n, unknowns, phase) };
-    }
     if (fresh) jacobian = newtonMatrix(end.sensitivity!, n, unknowns, phase);
     else if (mismatch > CHORD_CONTRACTION * previous) {
       // The kept matrix no longer predicts the map well: the next period recomputes it.
@@ -123,6 +113,18 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     previous = mismatch;
     if (options.autonomous) residual[n] = 0;
     jacobian!.lu.solveNegated(residual, residual);
+    // Newton's update is the distance to the orbit (the residual alone understates it by
+    // 1/(1 − μ) when the orbit attracts slowly, μ the multiplier nearest 1): once it is within
+    // the tolerance, this period's states are the orbit, and the update only sharpens x₀ and T.
+    let step = 0;
+    for (let i = 0; i < n; i++) step = Math.max(step, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
+    if (options.autonomous) step = Math.max(step, Math.abs(residual[n]!) / (relative * T));
+    if (step <= 1) {
+      const kept = map.states.map((v) => Float64Array.from(v));
+      const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + residual[i]!), period: options.autonomous ? T + residual[n]! : T };
+      const multipliers = options.multipliers ? floquetMultipliers(fresh ? end.sensitivity! : map.run(start, fractions, kept, true).sensitivity!, n) : [];
+      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: jacobian! };
+    }
     // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
     let scale = 1;
     if (options.autonomous && Math.abs(residual[n]!) > 0.2 * T) scale = (0.2 * T) / Math.abs(residual[n]!);

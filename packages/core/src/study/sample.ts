@@ -5,6 +5,7 @@ import { isRunLimitError, RunBudget } from "../analyses/limits.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
+import type { NumericalError } from "../steady/refine.js";
 
 /** The metrics kept for every Monte Carlo sample (SI units). */
 export interface SampleMetrics {
@@ -21,6 +22,8 @@ export interface SampleMetrics {
   /** The linear prediction at the bias point. */
   readonly predictedFrequency: number | null;
   readonly predictedGrowthRate: number | null;
+  /** Each settled figure's estimated numerical error (absolute), or null when it has none. */
+  readonly numericalError: NumericalError | null;
 }
 
 /** The metric names summarised over samples, in report order. */
@@ -83,6 +86,7 @@ export function runSample(circuit: Circuit, settings: SampleSettings, budget: Ru
       peakToPeak: r.peakToPeak,
       predictedFrequency,
       predictedGrowthRate,
+      numericalError: r.numericalError,
     };
     const failures = sampleCriteria(settings.criteria)
       .filter((c) => !meets(c, judgedValue(r, c)))

@@ -2,6 +2,7 @@ import type { SpecCriterion } from "../circuit/circuit.js";
 import { judgedValue, meets, metricValue, sampleCriteria } from "../spec/evaluate.js";
 import { summarize, type PercentileSummary } from "../stats/percentiles.js";
 import { wilsonInterval, type Interval } from "../stats/wilson.js";
+import type { NumericalError } from "../steady/refine.js";
 import { SAMPLE_METRICS, type SampleOutcome } from "./sample.js";
 
 /** One finished Monte Carlo sample. */
@@ -38,6 +39,28 @@ export interface ToleranceSummary {
   readonly yieldCriterion: { readonly criterion: SpecCriterion; readonly pass: boolean } | null;
   /** The worst samples first: failures by how far they miss, then the tightest passes. */
   readonly worst: readonly number[];
+  /**
+   * The largest numerical error of each settled figure over the samples: a spread narrower than
+   * it is not resolved. Null when no sample carries error bars.
+   */
+  readonly numericalError: NumericalError | null;
+}
+
+/** The largest error bar of each figure over the samples that have bars. */
+function largestError(samples: readonly ToleranceSample[]): NumericalError | null {
+  // Results files written before samples carried bars have none: `?? null` reads them too.
+  let most: NumericalError | null = null;
+  for (const s of samples) {
+    const e = s.metrics?.numericalError ?? null;
+    if (e === null) continue;
+    most = most === null ? { ...e } : {
+      frequency: Math.max(most.frequency, e.frequency),
+      amplitude: Math.max(most.amplitude, e.amplitude),
+      rms: Math.max(most.rms, e.rms),
+      thd: Math.max(most.thd, e.thd),
+    };
+  }
+  return most;
 }
 
 /** Normalised margin of a sample against the criteria: negative when it fails. */
@@ -94,5 +117,6 @@ export function summarizeSamples(samples: readonly ToleranceSample[], criteria: 
     criteria: perCriterion,
     yieldCriterion: yieldCriterion ? { criterion: yieldCriterion, pass: yieldPass! } : null,
     worst: scored.slice(0, worstCount).map((s) => s.index),
+    numericalError: largestError(ordered),
   };
 }

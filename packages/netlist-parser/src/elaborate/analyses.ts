@@ -14,6 +14,17 @@ export type AnalysisOption =
   | { readonly type: "probe" | "probes" | "source"; readonly summary: string };
 
 const positive = { min: 0, minExclusive: true } as const;
+/** The accuracy options of the time-domain analyses (`transient`, `startup`). */
+const ACCURACY = { type: "number", unit: "1", min: 1e-10, max: 0.1 } as const;
+const ACCURACY_FLOOR: AnalysisOption = { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" };
+
+/** `accuracy=` and `accuracy-floor=` as the engine reads them, when given. */
+function accuracyOf(num: Readonly<Record<string, number>>): { accuracy?: number; accuracyFloor?: number } {
+  return {
+    ...(num.accuracy === undefined ? {} : { accuracy: num.accuracy }),
+    ...(num["accuracy-floor"] === undefined ? {} : { accuracyFloor: num["accuracy-floor"] }),
+  };
+}
 
 /** The options of every analysis statement (the language's own table; the engine reads AnalysisSpec). */
 export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Readonly<Record<string, AnalysisOption>>>> = {
@@ -24,6 +35,8 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
     start: { type: "word", words: ["bias", "rest"], summary: "starting state: the bias point or rest" },
     probes: { type: "probes", summary: "list of probes to record (default: every node)" },
+    accuracy: { ...ACCURACY, summary: "relative accuracy of the step control (default 1e-4)" },
+    "accuracy-floor": ACCURACY_FLOOR,
   },
   startup: {
     probe: { type: "probe", summary: "probe the oscillation is measured on" },
@@ -37,8 +50,8 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
     seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
     harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "THD counts harmonics 2 up to this order (default 30)" },
     bandwidth: { type: "number", unit: "Hz", ...positive, summary: "THD counts the harmonics below this frequency instead" },
-    accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
-    "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
+    accuracy: { ...ACCURACY, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
+    "accuracy-floor": ACCURACY_FLOOR,
   },
   response: {
     from: { type: "source", summary: "independent source driven with a unit small signal" },
@@ -204,6 +217,7 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
           ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
           start: (o.word.start ?? "bias") as "bias" | "rest",
           probes: o.probes.probes ?? [],
+          ...accuracyOf(o.num),
         },
         span,
       );
@@ -232,8 +246,7 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
           ...(o.num.seeds === undefined ? {} : { seeds: o.num.seeds }),
           ...(o.num.harmonics === undefined ? {} : { harmonics: o.num.harmonics }),
           ...(o.num.bandwidth === undefined ? {} : { bandwidth: o.num.bandwidth }),
-          ...(o.num.accuracy === undefined ? {} : { accuracy: o.num.accuracy }),
-          ...(o.num["accuracy-floor"] === undefined ? {} : { accuracyFloor: o.num["accuracy-floor"] }),
+          ...accuracyOf(o.num),
         },
         span,
       );
