@@ -48,3 +48,44 @@ describe("the example files", () => {
     expect(Math.abs(o.max / peak - 1)).toBeLessThan(2e-3);
   });
 });
+
+describe("the amplitude-stabilised examples", () => {
+  interface Startup {
+    verdict: string;
+    amplitude: number;
+    thd: number;
+  }
+  const startupOf = async (file: string) => {
+    const r = await run("run", `examples/${file}`, "--json");
+    expect(r.status, r.stderr).toBe(0);
+    return (JSON.parse(r.stdout) as Doc).results[0] as unknown as Startup;
+  };
+  const AMBIENT = 300.15;
+
+  test("audio-test-source: the lamp settles at Rf/2, so the amplitude is 3·√(2·P·R) with P from the lamp's thermal network (docs/references.md §12.4)", async () => {
+    const s = await startupOf("audio-test-source.onset");
+    expect(s.verdict).toBe("settled");
+    const rLamp = 294 / 2;
+    const theta = AMBIENT * Math.pow(rLamp / 100, 1 / 1.2);
+    const rThermal = (AMBIENT * Math.pow(10, 1 / 1.2) - AMBIENT) / (12 ** 2 / 1000);
+    const expected = 3 * Math.sqrt((2 * (theta - AMBIENT) * rLamp) / rThermal);
+    expect(Math.abs(s.amplitude / expected - 1)).toBeLessThan(0.02);
+    expect(s.thd).toBeLessThan(2e-4);
+  });
+
+  test("low-frequency-reference: the thermistor settles at 2·Rg, so the amplitude is (3/2)·√(2·P·R) with P = D·(θ − θ_amb) (docs/references.md §12.4)", async () => {
+    const s = await startupOf("low-frequency-reference.onset");
+    expect(s.verdict).toBe("settled");
+    const rNtc = 2 * 3.6e3;
+    const theta = 1 / (1 / 298.15 + Math.log(rNtc / 10e3) / 3500);
+    const expected = 1.5 * Math.sqrt(2 * 40e-6 * (theta - AMBIENT) * rNtc);
+    expect(Math.abs(s.amplitude / expected - 1)).toBeLessThan(0.02);
+    expect(s.thd).toBeLessThan(2e-4);
+  });
+
+  test("jfet-loop-source settles and meets its spec", async () => {
+    const s = await startupOf("jfet-loop-source.onset");
+    expect(s.verdict).toBe("settled");
+    expect(s.thd).toBeLessThan(5e-3);
+  });
+});

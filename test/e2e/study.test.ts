@@ -286,6 +286,19 @@ describe("onset design", () => {
   });
 
 
+  test("wien --limit lamp writes a lamp-stabilised bridge that checks clean; --limit on a twin-T or an unknown limit is a usage error", async () => {
+    const designed = await ws.run(["design", "wien", "--freq", "1k", "--limit", "lamp", "--output", "lamp.onset"]);
+    expect(designed.status).toBe(0);
+    expect(readFileSync(ws.path("lamp.onset"), "utf8")).toMatch(/^lamp +L1 +n +gnd +100 /m);
+    expect((await ws.run(["check", "lamp.onset"])).status).toBe(0);
+    const twinT = await ws.run(["design", "twin-t", "--freq", "1k", "--limit", "lamp"]);
+    expect(twinT.status).toBe(2);
+    expect(twinT.stderr).toContain("design: --limit lamp is for the Wien bridge");
+    const typo = await ws.run(["design", "wien", "--freq", "1k", "--limit", "lmap"]);
+    expect(typo.status).toBe(2);
+    expect(typo.stderr).toContain("design: unknown amplitude limit 'lmap' (did you mean 'lamp'?)");
+  });
+
   test("writes a circuit file that checks clean", async () => {
     const designed = await ws.run(["design", "wien", "--freq", "1k", "--output", "designed.onset"]);
     expect(designed.status).toBe(0);

@@ -100,7 +100,7 @@ const cases: readonly Case[] = [
       "t.onset:1:1: error: unknown part kind 'resistr' (did you mean 'resistor'?)",
       "  resistr R1 a b 1k",
       "  ^~~~~~~",
-      "hint: a part line starts with its kind: resistor, capacitor, inductor, pot, diode, vsource, isource, vcvs, vccs, opamp, lamp",
+      "hint: a part line starts with its kind: resistor, capacitor, inductor, pot, diode, vsource, isource, vcvs, vccs, opamp, lamp, thermistor, jfet",
     ].join("\n"),
   },
   {
@@ -110,7 +110,7 @@ const cases: readonly Case[] = [
       "t.onset:1:1: error: unknown part kind 'R1'",
       "  R1 a b 1k",
       "  ^~",
-      "hint: a part line starts with its kind: resistor, capacitor, inductor, pot, diode, vsource, isource, vcvs, vccs, opamp, lamp",
+      "hint: a part line starts with its kind: resistor, capacitor, inductor, pot, diode, vsource, isource, vcvs, vccs, opamp, lamp, thermistor, jfet",
     ].join("\n"),
   },
   {
@@ -230,7 +230,7 @@ const cases: readonly Case[] = [
       "t.onset:1:19: error: unknown unit 'kOhm' in '1kOhm' (did you mean 'kohm'?)",
       "  resistor R1 a gnd 1kOhm",
       "                    ^~~~~",
-      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+      "hint: units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), W/K, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
     ].join("\n"),
   },
   {
@@ -959,16 +959,6 @@ const cases: readonly Case[] = [
     ].join("\n"),
   },
   {
-    code: "planned-kind",
-    source: "lamp L1 a gnd 50 hot=500 tau=0.1\nresistor R1 a gnd 1k", warnings: true,
-    expected: [
-      "t.onset:1:1: warning: lamp L1 is accepted but not simulated yet",
-      "  lamp L1 a gnd 50 hot=500 tau=0.1",
-      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
-      "hint: the file checks, but runs fail until the engine models this kind",
-    ].join("\n"),
-  },
-  {
     code: "yield-without-tolerance",
     source: "resistor R1 a gnd 1k\nspec yield>99%", warnings: true,
     expected: [
@@ -1030,7 +1020,47 @@ const cases: readonly Case[] = [
       "t.onset:2:29: error: temperature= of startup must be between -273.15 and 1k, got -300",
       "  startup probe=o temperature=-300",
       "                              ^~~~",
-      "hint: temperature= is the temperature of the resistances in °C (kick=thermal, power-on)",
+      "hint: temperature= is the temperature in °C of the resistances (their noise under kick=thermal and power-on) and the ambient of lamps and thermistors",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "lamp L1 a gnd 50 hot=40 rated=12 tau=0.1\nresistor R1 a gnd 1k",
+    expected: [
+      "t.onset:1:1: error: lamp L1: the hot resistance (40 Ω) must exceed the cold resistance (50 Ω)",
+      "  lamp L1 a gnd 50 hot=40 rated=12 tau=0.1",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: a filament's resistance rises as it heats: hot= is typically 5 to 15 times the cold value",
+    ].join("\n"),
+  },
+  {
+    code: "missing-option",
+    source: "lamp L1 a gnd 50 hot=500 tau=0.1\nresistor R1 a gnd 1k",
+    expected: [
+      "t.onset:1:1: error: lamp L1 needs rated=",
+      "  lamp L1 a gnd 50 hot=500 tau=0.1",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: add rated= (rated voltage, at which the resistance is hot=)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "jfet J1 d g gnd idss=8m pinchoff=2\nresistor R1 d gnd 1k\nresistor R2 g gnd 1k",
+    expected: [
+      "t.onset:1:1: error: jfet J1: the pinch-off voltage of a type=n jfet must be negative, got 2 V",
+      "  jfet J1 d g gnd idss=8m pinchoff=2",
+      "  ^~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~~",
+      "hint: an n-channel part pinches off with its gate below its source: write e.g. pinchoff=-2 (or type=p)",
+    ].join("\n"),
+  },
+  {
+    code: "unit-mismatch",
+    source: "thermistor TH1 a gnd 10k beta=3500 dissipation=2mV tau=1\nresistor R1 a gnd 1k",
+    expected: [
+      "t.onset:1:48: error: unit mismatch: '2mV' is in volts (V), but dissipation= of thermistor TH1 is in watts per kelvin (W/K, e.g. 2mW/K)",
+      "  thermistor TH1 a gnd 10k beta=3500 dissipation=2mV tau=1",
+      "                                                 ^~~",
+      "hint: write 2m or 2mW/K",
     ].join("\n"),
   },
   {

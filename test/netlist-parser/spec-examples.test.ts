@@ -170,10 +170,20 @@ spec frequency=1k±2% thd<0.5% startup<40m amplitude=3..5 yield>99%
     for (const a of circuit.analyses) expect(a.span?.file).toBe("main.onset");
   });
 
-  test("lamp (a planned kind) is accepted, with a warning from the checker", () => {
-    const { program, circuit } = build("lamp L1 a gnd 50 hot=500 tau=0.1\nresistor R1 a gnd 1k\n");
-    expect(part(circuit, "L1")).toMatchObject({ value: 50, options: { hot: 500, tau: 0.1 } });
-    expect(checkProgram(program).map((d) => `${d.severity} ${d.code}`)).toEqual(["warning planned-kind"]);
+  test("lamp, thermistor and jfet lines elaborate to SI values (mW/K is a dissipation constant)", () => {
+    const { program, circuit } = build(
+      "lamp L1 a gnd 50 hot=500 rated=12V tau=80m\nthermistor TH1 a b 4.7k beta=3500 dissipation=0.5mW/K tau=3s\njfet J1 b g gnd idss=8mA pinchoff=-2.5V lambda=0.01\nresistor R1 g gnd 1M\n",
+    );
+    expect(part(circuit, "L1")).toMatchObject({ value: 50, options: { hot: 500, rated: 12, tau: 0.08 } });
+    expect(part(circuit, "TH1")).toMatchObject({ value: 4700, options: { beta: 3500, dissipation: 0.5e-3, tau: 3 } });
+    expect(part(circuit, "J1")).toMatchObject({ options: { idss: 8e-3, pinchoff: -2.5, lambda: 0.01, type: "n" } });
+    expect(checkProgram(program)).toEqual([]);
+  });
+
+  test("temperature= is the ambient of a thermistor or lamp under any kick, so it is not an unused option there", () => {
+    const heated = build("thermistor TH1 a gnd 10k beta=3500 dissipation=1m tau=1\nresistor R1 a gnd 1k\nstartup probe=a kick=none temperature=40\n");
+    expect(checkProgram(heated.program)).toEqual([]);
+    expect(heated.circuit.analyses[0]).toMatchObject({ kind: "startup", temperature: 40 });
   });
 
   test("tolerances: relative, absolute and on a parameter", () => {

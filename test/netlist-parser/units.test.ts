@@ -119,6 +119,8 @@ describe("decodeNumber: rejected spellings", () => {
     ["5mil", "bad-prefix"],
     ["5MIL", "bad-prefix"],
     ["1K", "bad-unit"],
+    ["3950K", "bad-unit"],
+    ["2mW", "bad-unit"],
     ["1kOhm", "bad-unit"],
     ["1sec", "bad-unit"],
     ["1hz", "bad-unit"],
@@ -140,6 +142,7 @@ describe("decodeNumber: rejected spellings", () => {
 
   test("an unknown unit suggests the closest spelling", () => {
     expect(problemOf("1K").message).toBe("unknown unit 'K' in '1K' (did you mean 'k'?)");
+    expect(problemOf("3.5kK").hint).toBe("write k for kilo (10k); a temperature constant such as a thermistor's beta= is written in kelvin as a plain number (beta=3500)");
     expect(problemOf("1hz").message).toBe("unknown unit 'hz' in '1hz' (did you mean 'Hz'?)");
   });
 });
@@ -186,5 +189,13 @@ describe("parseQuantity(text, unit)", () => {
       ),
       { numRuns: 2000 },
     );
+  });
+});
+
+describe("decodeNumber: a dissipation constant", () => {
+  test("W/K takes a prefix on the W: 40uW/K is 4e-5 W/K, 2mW/K is 2e-3", () => {
+    expect(literal("40uW/K")).toMatchObject({ symbol: "W/K", value: 40e-6 });
+    expect(literal("2mW/K")).toMatchObject({ symbol: "W/K", value: 2e-3, prefix: "m" });
+    expect(literal("0.5W/K")).toMatchObject({ symbol: "W/K", value: 0.5 });
   });
 });

@@ -11,10 +11,17 @@ export { deviceModels } from "./devices/registry.js";
 export type { Device, DeviceModel, LinearStamp, NoiseGenerator, NonlinearLoad, NonlinearTerm, PartTopology, PowerOn, SetupContext, SourceTerm } from "./devices/device.js";
 export { powerOnLevel } from "./devices/device.js";
 export { BOLTZMANN, thermalCurrent, thermalVoltage, ZERO_CELSIUS } from "./devices/thermal-noise.js";
+export { lampConstants, lampNetwork, TUNGSTEN_EXPONENT } from "./devices/lamp.js";
+export type { LampConstants } from "./devices/lamp.js";
+export { REFERENCE_TEMPERATURE, thermistorConstants, thermistorNetwork } from "./devices/thermistor.js";
+export type { ThermistorConstants } from "./devices/thermistor.js";
+export type { ConductanceState, ResistanceLaw, ThermalNetwork } from "./devices/heated-resistor.js";
+export { CHANNEL_LEAK, channelCurrent, GATE_SATURATION, jfetConstants } from "./devices/jfet.js";
+export type { ChannelState, JfetConstants } from "./devices/jfet.js";
 
 // The MNA system, its state table and the solvers
 export { LuSolver } from "./solver/lu.js";
-export { buildSystem, withSources } from "./solver/system.js";
+export { buildSystem, DEFAULT_AMBIENT, withSources } from "./solver/system.js";
 export type { BuildOptions, MnaSystem, UnknownInfo, UnknownRole } from "./solver/system.js";
 export { QUANTITIES, isQuantity, unitOf } from "./solver/quantities.js";
 export type { Quantity, QuantityUnit } from "./solver/quantities.js";

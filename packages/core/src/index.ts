@@ -117,8 +117,9 @@ export type { CriterionResult, JudgedMetrics, SpecReport } from "./spec/evaluate
 export { E_SERIES, isSeriesName, snapToSeries } from "./design/eseries.js";
 export { chooseCapacitor, writeValue } from "./design/choose.js";
 export { designOscillator, STARTUP_GROWTH, twinTCrossing } from "./design/oscillator.js";
-export type { DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
+export type { AmplitudeLimit, DesignChoice, DesignOptions, DesignRequest, DesignResult, SimulatedStartup, Topology } from "./design/oscillator.js";
 export type { DesignedAnalysis, DesignedCriterion, DesignedFile, DesignedPart } from "./design/designed-file.js";
+export { AMPLITUDE_LIMITS, lampWienAmplitude, thermistorWienAmplitude } from "./design/wien-limiters.js";
 export type { SeriesName } from "./design/eseries.js";
 export { wilsonInterval, Z95 } from "./stats/wilson.js";
 export type { Interval } from "./stats/wilson.js";

@@ -1,4 +1,4 @@
-import { checkTopology, GROUND, isOnsetError, partKinds, type Diagnostic } from "@onset/core";
+import { checkTopology, GROUND, isOnsetError, type Diagnostic } from "@onset/core";
 import { hasErrors, problem } from "./errors.js";
 import { runElaboration } from "./elaborate/elaborate.js";
 import type { Overrides } from "./elaborate/context.js";
@@ -7,7 +7,7 @@ import type { Program } from "./syntax.js";
 /**
  * Everything `onset check` reports: elaboration errors, then (on a circuit that elaborates)
  * topology problems found before solving (no DC path to gnd, loops of voltage sources, nodes
- * touched by one pin) and warnings (a node spelled like gnd, a planned part kind, yield without
+ * touched by one pin) and warnings (a node spelled like gnd, yield without
  * a tolerance analysis).
  */
 export function checkProgram(program: Program, options: { overrides?: Overrides } = {}): Diagnostic[] {
@@ -20,16 +20,6 @@ export function checkProgram(program: Program, options: { overrides?: Overrides 
         problem("ground-case", `node '${node}' is not ground: names are case-sensitive`, part?.span, {
           severity: "warning",
           hint: "write gnd for the ground node",
-        }),
-      );
-    }
-  }
-  for (const part of ctx.parts) {
-    if (partKinds[part.kind]?.planned) {
-      diagnostics.push(
-        problem("planned-kind", `${part.kind} ${part.name} is accepted but not simulated yet`, part.span, {
-          severity: "warning",
-          hint: "the file checks, but runs fail until the engine models this kind",
         }),
       );
     }

@@ -30,8 +30,11 @@ const SINGLE: Readonly<Record<string, TokenKind>> = {
 /** Characters that may follow a number as its prefix and unit (`µ` and `μ`, `Ω` and the ohm sign). */
 const SUFFIX_START = /[A-Za-z_µμΩ\u2126%]/;
 const SUFFIX_REST = /[A-Za-z0-9_µμΩ\u2126%]/;
-/** The units with a `/`: a slew rate such as `V/us`, a noise density such as `nV/rtHz` or `nV/√Hz`. */
-const SLASH_UNIT = /^[fpnuµμmkMGT]?V\/(?:[fpnuµμmkMGT]?s|rtHz|√Hz)(?![A-Za-z0-9_])/;
+/**
+ * The units with a `/`: a slew rate such as `V/us`, a noise density such as `nV/rtHz` or
+ * `nV/√Hz`, a dissipation constant such as `mW/K`.
+ */
+const SLASH_UNIT = /^(?:[fpnuµμmkMGT]?V\/(?:[fpnuµμmkMGT]?s|rtHz|√Hz)|[fpnuµμmkMGT]?W\/K)(?![A-Za-z0-9_])/;
 const NAME_START = /[A-Za-z_]/;
 const NAME_REST = /[A-Za-z0-9_]/;
 

@@ -115,6 +115,11 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
     const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "V/√Hz", form: "si", value: scaled(coefficient, exponent, density[1] ? SI_PREFIXES[density[1]]! : 0) };
     return density[1] ? { ...literal, prefix: density[1] } : literal;
   }
+  const conductance = /^([fpnuµμmkMGT])?W\/K$/.exec(suffix);
+  if (conductance) {
+    const literal: NumberLiteral = { text, mantissa, unit: suffix, symbol: "W/K", form: "si", value: scaled(coefficient, exponent, conductance[1] ? SI_PREFIXES[conductance[1]]! : 0) };
+    return conductance[1] ? { ...literal, prefix: conductance[1] } : literal;
+  }
   const whole = UNIT_SPELLINGS[suffix];
   if (whole) return withUnit(text, mantissa, undefined, suffix, coefficient, exponent);
   const first = suffix[0]!;
@@ -136,10 +141,17 @@ export function decodeNumber(text: string): NumberLiteral | NumberProblem {
   }
   spellingCache ??= allSpellings();
   const near = closestName(suffix, spellingCache);
+  if (/^[fpnuµμmkMGT]?K$/.test(suffix)) {
+    return {
+      code: "bad-unit",
+      message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,
+      hint: "write k for kilo (10k); a temperature constant such as a thermistor's beta= is written in kelvin as a plain number (beta=3500)",
+    };
+  }
   return {
     code: "bad-unit",
     message: `unknown unit '${suffix}' in '${text}'${near === undefined ? "" : ` (did you mean '${near}'?)`}`,
-    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
+    hint: "units are Ω (or ohm), F, H, V, A, S, s, Hz, V/s, V/rtHz (or V/√Hz), W/K, rad, deg, % and dB, after an optional prefix f p n u µ m k M G T",
   };
 }
 
@@ -187,6 +199,9 @@ const UNIT_NAMES: Readonly<Record<UnitSymbol, string>> = {
   "V/s": "volts per second (V/s, or V/us)",
   "V/√Hz": "volts per root hertz (V/rtHz or V/√Hz, e.g. 20nV/rtHz)",
   rad: "radians (rad, or deg)",
+  K: "kelvin (K), written as a bare number",
+  "W/K": "watts per kelvin (W/K, e.g. 2mW/K)",
+  "1/V": "per volt (1/V), written as a bare number",
   "1": "a plain ratio",
 };
 

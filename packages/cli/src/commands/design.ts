@@ -1,4 +1,4 @@
-import { designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type DesignedFile, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
+import { AMPLITUDE_LIMITS, designOscillator, didYouMean, isSeriesName, runStartup, startupAnalysisOf, type AmplitudeLimit, type DesignedFile, type DesignRequest, type DesignResult, type Topology } from "@onset/core";
 import { elaborate, parseQuantity, parseText, printDesignedFile } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
@@ -37,7 +37,7 @@ function designSummary(r: DesignResult): string {
 }
 
 /**
- * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T]`:
+ * `onset design TOPOLOGY --freq F [--cap C] [--series E24] [--preset NAME] [--startup T] [--limit KIND]`:
  * a ready-to-run circuit file from the engine's design API, on stdout or in `--output FILE`
  * (checked before the design work; `-` is stdout).
  */
@@ -55,6 +55,13 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
   if (series !== undefined && !isSeriesName(series)) throw usageError("bad-series", `design: unknown series '${series}'${didYouMean(series, ["E12", "E24", "E96"])}`, "choose E12, E24 or E96");
   const preset = valueOf(args, "preset");
   const startup = valueOf(args, "startup");
+  const limit = valueOf(args, "limit");
+  if (limit !== undefined && !(AMPLITUDE_LIMITS as readonly string[]).includes(limit)) {
+    throw usageError("bad-limit", `design: unknown amplitude limit '${limit}'${didYouMean(limit, AMPLITUDE_LIMITS)}`, `choose one of: ${AMPLITUDE_LIMITS.join(", ")}`);
+  }
+  if (limit !== undefined && limit !== "diodes" && topology !== "wien") {
+    throw usageError("bad-limit", `design: --limit ${limit} is for the Wien bridge`, `write onset design wien --limit ${limit}, or leave --limit out for ${topology}`);
+  }
   const request: DesignRequest = {
     topology: topology as Topology,
     frequency: quantity(freq, "Hz", "--freq"),
@@ -62,6 +69,7 @@ export function designCommand(ctx: CommandContext, args: ParsedArgs): number {
     ...(series === undefined ? {} : { series }),
     ...(preset === undefined ? {} : { preset }),
     ...(startup === undefined ? {} : { startupTime: quantity(startup, "s", "--startup") }),
+    ...(limit === undefined ? {} : { limit: limit as AmplitudeLimit }),
   };
   const result = designOscillator(request, { simulate: simulateDesign });
   const text = printDesignedFile(result.file);

@@ -33,13 +33,19 @@ function attempt(solver: NewtonSolver, x: Float64Array, scale: number, gmin: num
 export function solveBias(system: MnaSystem, solver: NewtonSolver, tolerances: Tolerances = DEFAULT_TOLERANCES): BiasPoint {
   const n = system.n;
   const x = new Float64Array(n);
+  // Every attempt starts from rest: zero, but a body's temperature at its ambient.
+  const rest = () => {
+    x.fill(0);
+    for (const d of system.devices) d.restingState?.(x);
+  };
+  rest();
   const max = tolerances.biasIterations;
   solver.setCoefficients(0, 0);
   solver.history.fill(0);
   const start = solver.iterations;
   if (attempt(solver, x, 1, 0, max)) return { x, method: "newton", iterations: solver.iterations - start };
   if (system.nonlinear.length > 0) {
-    x.fill(0);
+    rest();
     let ok = true;
     for (const gmin of GMIN_LADDER) {
       if (!attempt(solver, x, 1, gmin, max)) {
@@ -48,7 +54,7 @@ export function solveBias(system: MnaSystem, solver: NewtonSolver, tolerances: T
       }
     }
     if (ok) return { x, method: "gmin-stepping", iterations: solver.iterations - start };
-    x.fill(0);
+    rest();
     let scale = 0;
     let step = 0.1;
     const saved = new Float64Array(n);
@@ -70,7 +76,7 @@ export function solveBias(system: MnaSystem, solver: NewtonSolver, tolerances: T
   solver.gmin = 0;
   solver.invalidate();
   solver.loadSources(0, 1, true);
-  x.fill(0);
+  rest();
   const last = solver.solve(x, max);
   const worst = system.unknowns[last.worst]?.label ?? "?";
   throw simulationError(

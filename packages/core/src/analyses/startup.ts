@@ -13,7 +13,8 @@ import type { NumericalError } from "../steady/refine.js";
 import { NoiseBank } from "../waves/noise-bank.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
-import { excitationSetup, firstCycleRms, periodicDrives, type Excitation } from "./excitation.js";
+import { DEFAULT_TEMPERATURE, excitationSetup, firstCycleRms, periodicDrives, type Excitation } from "./excitation.js";
+import { ZERO_CELSIUS } from "../devices/thermal-noise.js";
 import { GrowableSeries } from "./growable.js";
 import { latchedAt, outputRange } from "./latch.js";
 import { linearize, type SmallSignal } from "./linearize.js";
@@ -155,7 +156,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const budget = budgetOf(options);
   if (typeof analysis.until === "number") budget.refuseLength(analysis.until, "the start-up run", analysis.span);
   // The prediction comes from the powered circuit without any excitation.
-  const plain = buildSystem(circuit, options.extraParts);
+  const ambient = (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
+  const plain = buildSystem(circuit, options.extraParts, { ambient });
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
   const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x));
   budget.check("after the bias point and poles");
@@ -163,7 +165,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const period = 1 / f0;
   const setup = excitationSetup(circuit, plain, analysis, kick, f0);
   const powerOn: PowerOn | undefined = kick === "power-on" ? { ramp: setup.excitation.ramp! } : undefined;
-  const run = buildSystem(circuit, options.extraParts, powerOn ? { powerOn } : {});
+  const run = buildSystem(circuit, options.extraParts, powerOn ? { powerOn, ambient } : { ambient });
   const sources: SourceTerm[] = [];
   if (setup.generators.length > 0) sources.push(new NoiseBank(setup.generators, setup.bank));
   if (powerOn) sources.push(corner(powerOn.ramp));

@@ -169,7 +169,10 @@ export class TransientStepper {
       this.x.set(this.bias.x);
       this.state.chargesAt(this.x, this.solver.qNonlinear, this.state.q);
     } else if (start === "rest") {
-      for (const d of system.devices) d.initialCharge?.(this.state.q);
+      for (const d of system.devices) {
+        d.initialCharge?.(this.state.q);
+        d.restingState?.(this.x);
+      }
       this.consistentStart();
     } else {
       if (start.x.length !== n) throw simulationError("bad-state", `the start state has ${start.x.length} unknowns; the circuit has ${n}`);
@@ -247,7 +250,10 @@ export class TransientStepper {
     this.state.firstOrderHistory(s.history, this.state.q, h);
     s.loadSources(0, 1, false);
     const outcome = s.solve(this.x, this.tolerances.biasIterations);
-    if (!outcome.converged) this.x.fill(0);
+    if (!outcome.converged) {
+      this.x.fill(0);
+      for (const d of this.system.devices) d.restingState?.(this.x);
+    }
     s.invalidate();
   }
 

@@ -57,6 +57,8 @@ export interface AnalysisOptionValues {
   readonly probeLists: Readonly<Record<string, readonly Probe[]>>;
   /** The keys written on the line (a value set from outside the file, `--set startup.accuracy=…`, is not). */
   readonly written: ReadonlySet<string>;
+  /** The probe-able internal states the file's parts carry (`temperature` for lamps and thermistors). */
+  readonly partStates?: ReadonlySet<string>;
 }
 
 /** Where on an option a problem is shown: its key (`bandwidth=`) or its value. */

@@ -6,7 +6,7 @@ import type { Quantity } from "../solver/quantities.js";
  */
 
 /** Unit symbols as the language writes them; `1` is a plain ratio; `S` is siemens (A/V). */
-export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "1";
+export type UnitSymbol = "Ω" | "F" | "H" | "V" | "A" | "S" | "s" | "Hz" | "V/s" | "V/√Hz" | "rad" | "K" | "W/K" | "1/V" | "1";
 
 interface OptionBase {
   /** One line for docs and hints. */
@@ -117,6 +117,4 @@ export interface PartKindSchema {
    * with the quantity each one is; branch currents are probed as `PART.i` and are not listed.
    */
   readonly states?: Readonly<Record<string, StateSchema>>;
-  /** True when the language accepts the kind but the engine does not simulate it yet. */
-  readonly planned?: boolean;
 }

@@ -1,12 +1,15 @@
-import type { Circuit, OptionValue, PartSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
 import { didYouMean } from "../circuit/suggest.js";
-import { runPoles } from "../analyses/poles.js";
 import { builtinPresets } from "../devices/registry.js";
 import { chooseCapacitor, seriesUpwards, writeValue } from "./choose.js";
 import { snapToSeries, type SeriesName } from "./eseries.js";
+import { CAPACITOR_TOLERANCE, opampLine, predict, RESISTOR_TOLERANCE, type DesignChoice, type Line, type Sizing } from "./sizing.js";
+import { AMPLITUDE_LIMITS, wienLimited, wienNetworkLines, type AmplitudeLimit } from "./wien-limiters.js";
 import { withPrefix } from "../units/si-prefix.js";
-import type { DesignedFile, DesignedPart } from "./designed-file.js";
+import type { DesignedFile } from "./designed-file.js";
+
+export type { DesignChoice } from "./sizing.js";
+export type { AmplitudeLimit } from "./wien-limiters.js";
 
 /** The oscillator topologies `onset design` sizes. */
 export type Topology = "wien" | "twin-t" | "phase-shift";
@@ -26,14 +29,8 @@ export interface DesignRequest {
   readonly startupTime?: number;
   /** Supply rails (V); default (−12, 12). */
   readonly rails?: readonly [number, number];
-}
-
-/** One value the design chose, with the formula's ideal beside it. */
-export interface DesignChoice {
-  readonly part: string;
-  readonly ideal: number;
-  readonly chosen: number;
-  readonly unit: "Ω" | "F";
+  /** How the amplitude is held (Wien bridge only for all but `diodes`); default `diodes`. */
+  readonly limit?: AmplitudeLimit;
 }
 
 /** A sized oscillator: the snapped part values, the frequency they give and the file to run. */
@@ -87,41 +84,6 @@ export interface DesignOptions {
   readonly simulate?: (file: DesignedFile) => Omit<SimulatedStartup, "error">;
 }
 
-/** One part line of the generated file. */
-type Line = DesignedPart;
-
-interface Sizing {
-  readonly lines: readonly Line[];
-  readonly probe: string;
-  readonly formulaFrequency: number;
-  readonly choices: readonly DesignChoice[];
-  readonly gainNote: string;
-  readonly thdLimit: number;
-  readonly description: readonly string[];
-}
-
-const RESISTOR_TOLERANCE = 0.01;
-const CAPACITOR_TOLERANCE = 0.05;
-
-function opampLine(nodes: readonly string[], preset: string, rails: readonly [number, number]): Line {
-  return { kind: "opamp", name: "U1", nodes, options: { preset, rails: [rails[0], rails[1]] } };
-}
-
-function partsOf(lines: readonly Line[]): PartSpec[] {
-  return lines.map((l) => {
-    let options: Record<string, OptionValue> = { ...l.options };
-    const preset = typeof options.preset === "string" ? builtinPresets[l.kind]?.[options.preset] : undefined;
-    if (preset) options = { ...preset, ...options };
-    return l.value === undefined ? { kind: l.kind, name: l.name, nodes: l.nodes, options } : { kind: l.kind, name: l.name, nodes: l.nodes, value: l.value, options };
-  });
-}
-
-function predict(lines: readonly Line[]): { frequency: number; growthRate: number } {
-  const circuit: Circuit = { parts: partsOf(lines), analyses: [], tolerances: [] };
-  const poles = runPoles(circuit, { kind: "poles" });
-  return { frequency: poles.frequency ?? Number.NaN, growthRate: poles.growthRate ?? Number.NaN };
-}
-
 /**
  * Steps a gain-setting resistor up through the series until the snapped circuit's growth
  * rate reaches `required` (at most 40 values); returns the lines with it.
@@ -164,14 +126,16 @@ function wien(req: DesignResult["request"], required: number): Sizing {
   const { frequency: f, capacitor: c, series } = req;
   const ideal = 1 / (2 * Math.PI * f * c);
   const r = snapToSeries(ideal, series);
+  const choices: DesignChoice[] = [
+    { part: "R1, R2", ideal, chosen: r, unit: "Ω" },
+    { part: "C1, C2", ideal: c, chosen: c, unit: "F" },
+  ];
+  if (req.limit !== "diodes") return { ...wienLimited(req, req.limit, r), choices };
   const rg = 10e3;
   // Diodes on: 1 + Rf1/Rg = 2.8 < 3, so the amplitude settles; Rf2 adds the start margin.
   const rf1 = snapToSeries(1.8 * rg, series);
   const lines = (rf2: number): Line[] => [
-    { kind: "resistor", name: "R1", nodes: ["o", "s"], value: r, tolerance: RESISTOR_TOLERANCE },
-    { kind: "capacitor", name: "C1", nodes: ["s", "p"], value: c, tolerance: CAPACITOR_TOLERANCE },
-    { kind: "resistor", name: "R2", nodes: ["p", "gnd"], value: r, tolerance: RESISTOR_TOLERANCE },
-    { kind: "capacitor", name: "C2", nodes: ["p", "gnd"], value: c, tolerance: CAPACITOR_TOLERANCE },
+    ...wienNetworkLines(r, c),
     { kind: "resistor", name: "Rg", nodes: ["n", "gnd"], value: rg, tolerance: RESISTOR_TOLERANCE },
     ...limitedFeedback("n", rf1, rf2, 1, "start margin; the diodes across it settle the amplitude"),
     opampLine(["p", "n", "o"], req.preset, req.rails),
@@ -182,12 +146,10 @@ function wien(req: DesignResult["request"], required: number): Sizing {
     lines: chosen.lines,
     probe: "o",
     formulaFrequency: 1 / (2 * Math.PI * r * c),
-    choices: [
-      { part: "R1, R2", ideal, chosen: r, unit: "Ω" },
-      { part: "C1, C2", ideal: c, chosen: c, unit: "F" },
-    ],
+    choices,
     gainNote: `small-signal gain 1 + (Rf1 + Rf2)/Rg = ${gain.toFixed(3)} (the bridge needs 3); with the diodes conducting 1 + Rf1/Rg = ${(1 + rf1 / rg).toFixed(2)}`,
     thdLimit: 0.03,
+    runs: 100,
     description: [
       "Wien bridge: series R1–C1 and parallel R2∥C2 from the output to the non-inverting input;",
       "f = 1/(2πRC) and the bridge passes 1/3 there, so the amplifier needs a gain of 3.",
@@ -222,6 +184,7 @@ function phaseShift(req: DesignResult["request"], required: number): Sizing {
     ],
     gainNote: `small-signal inverting gain (Rf1 + Rf2)/R3 = ${((rf1 + chosen.value) / r).toFixed(2)} (the ladder needs 29); with the diodes conducting Rf1/R3 = ${(rf1 / r).toFixed(1)}`,
     thdLimit: 0.03,
+    runs: 100,
     description: [
       "Three-section C–R ladder into an inverting stage; f = 1/(2π·√6·RC), where the ladder passes",
       "−1/29 of the output (H = x³/(x³ + 6x² + 5x + 1), x = sRC, is real at ωRC = 1/√6), so the stage needs a gain of 29.",
@@ -293,6 +256,7 @@ function twinT(req: DesignResult["request"], required: number): Sizing {
     ],
     gainNote: `inverting gain (Rf1 + Rf2)/Rin = ${((rf1 + rf2) / rin).toFixed(1)}, ${(rf1 / rin).toFixed(1)} with the diodes conducting; divider Rp1/Rp2 = ${writeValue(rp1)}/${writeValue(rp2)} (positive feedback ${((rp2 / (rp1 + rp2)) * 100).toFixed(2)} %)`,
     thdLimit: 0.01,
+    runs: 100,
     description: [
       "Twin-T notch (R, R with 2C; C, C with k·R, k = 0.45) from the output into an inverting stage.",
       "With k under ½ the network reaches −180° at Ω = ωRC = 1.0274, the root of k(2k+1)Ω⁴ + k(1−2k)Ω² = 1;",
@@ -314,7 +278,7 @@ function simulatedLine(sim: SimulatedStartup | null, pct: (x: number) => string)
   const parts = [
     `settles at ${sim.frequency.toFixed(2)} Hz (${pct(sim.error)} from the target)`,
     ...(sim.amplitude === null ? [] : [`${quantity(sim.amplitude, "V")} peak`]),
-    ...(sim.thd === null ? [] : [`THD ${pct(sim.thd)}`]),
+    ...(sim.thd === null ? [] : [`THD ${Number((sim.thd * 100).toPrecision(3))} %`]),
     ...(sim.startupTime === null ? [] : [`90 % reached at ${quantity(sim.startupTime, "s")}`]),
   ];
   return [`simulated start-up of this file: ${parts.join(", ")}`];
@@ -324,7 +288,7 @@ function designedFile(result: Omit<DesignResult, "file">, sizing: Sizing): Desig
   const { request: req } = result;
   const pct = (x: number) => `${(x * 100).toFixed(2)} %`;
   const header = [
-    `Designed by onset design ${req.topology} for ${writeValue(req.frequency)}Hz (${req.series}, op-amp preset ${req.preset}).`,
+    `Designed by onset design ${req.topology} for ${writeValue(req.frequency)}Hz (${req.series}, op-amp preset ${req.preset}${req.limit === "diodes" ? "" : `, --limit ${req.limit}`}).`,
     ...sizing.description,
     "",
     ...result.choices.map((ch) =>
@@ -335,8 +299,12 @@ function designedFile(result: Omit<DesignResult, "file">, sizing: Sizing): Desig
     `formula with the snapped values: ${result.formulaFrequency.toFixed(2)} Hz`,
     `small-signal poles of the snapped circuit (the start): ${result.predicted.frequency.toFixed(2)} Hz (${pct(result.error)} from the target), growth ${result.predicted.growthRate.toFixed(1)} 1/s`,
     ...simulatedLine(result.simulated, pct),
-    `gain: ${sizing.gainNote};`,
-    `chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+    ...(req.limit === "diodes"
+      ? [
+          `gain: ${sizing.gainNote};`,
+          `chosen so the envelope grows ${STARTUP_GROWTH.toFixed(1)} time constants (from thermal noise to volts) in ${writeValue(req.startupTime)}s: estimate ${writeValue(result.startupEstimate)}s.`,
+        ]
+      : [`gain: ${sizing.gainNote}.`]),
   ];
   // Four significant digits, as the header writes its values.
   const startupLimit = Number(Math.max(1.5 * req.startupTime, 2 * result.startupEstimate).toPrecision(4));
@@ -345,9 +313,9 @@ function designedFile(result: Omit<DesignResult, "file">, sizing: Sizing): Desig
     title: `${req.topology} oscillator, ${writeValue(req.frequency)}Hz`,
     parts: sizing.lines,
     analyses: [
-      { keyword: "startup", options: [["probe", sizing.probe], ["until", "auto"]] },
+      { keyword: "startup", options: [["probe", sizing.probe], ["until", sizing.until === undefined ? "auto" : sizing.until]] },
       { keyword: "poles" },
-      { keyword: "tolerance", options: [["runs", 100], ["seed", 1], ["dist", "normal"]] },
+      { keyword: "tolerance", options: [["runs", sizing.runs], ["seed", 1], ["dist", "normal"]] },
     ],
     spec: [
       { metric: "frequency", test: "within", value: req.frequency, tolerance: 0.05 },
@@ -384,7 +352,14 @@ export function designOscillator(request: DesignRequest, options: DesignOptions 
     preset,
     startupTime: request.startupTime ?? 200 / f,
     rails: request.rails ?? ([-12, 12] as const),
+    limit: request.limit ?? "diodes",
   };
+  if (base.limit !== "diodes" && base.topology !== "wien") {
+    throw inputError("bad-limit", `design: --limit ${base.limit} is for the Wien bridge; ${base.topology} limits with diodes`, { hint: `use onset design wien --limit ${base.limit}, or leave --limit out` });
+  }
+  if (!AMPLITUDE_LIMITS.includes(base.limit)) {
+    throw inputError("bad-limit", `design: unknown amplitude limit '${base.limit}'${didYouMean(base.limit, AMPLITUDE_LIMITS)}`, { hint: `choose one of ${AMPLITUDE_LIMITS.join(", ")}` });
+  }
   const required = STARTUP_GROWTH / base.startupTime;
   const size = (c: number) => {
     const req = { ...base, capacitor: c };

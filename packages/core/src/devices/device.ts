@@ -52,6 +52,8 @@ export interface SetupContext {
   declareCharge(row: number, cols: readonly number[]): void;
   /** Set when the run starts from the unpowered circuit (`startup kick=power-on`). */
   readonly powerOn?: PowerOn;
+  /** The ambient temperature (K) self-heated parts cool to: the analysis temperature, 27 °C unless written. */
+  readonly ambient: number;
 }
 
 /**
@@ -146,6 +148,11 @@ export interface Device {
    * inductors); the default is zero.
    */
   initialCharge?(q: Float64Array): void;
+  /**
+   * Writes the part's unknowns that are not zero at rest (a self-heated body's temperature: its
+   * ambient), where the bias point's Newton iteration starts; the default leaves them at zero.
+   */
+  restingState?(x: Float64Array): void;
   /** The part's current (pin 1 → pin 2 through the part) at time t, given the unknowns and their rates. */
   current?(x: Float64Array, dxdt: Float64Array, t: number): number;
   /** The part's own noise at an absolute temperature (K): thermal noise of its resistances, an op-amp's input noise. */

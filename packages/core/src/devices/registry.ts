@@ -4,6 +4,8 @@ import { diode } from "./diode.js";
 import { inductor } from "./inductor.js";
 import { isource } from "./isource.js";
 import { lamp } from "./lamp.js";
+import { jfet } from "./jfet.js";
+import { thermistor } from "./thermistor.js";
 import { opamp, opampPresets } from "./opamp.js";
 import { pot } from "./pot.js";
 import { resistor } from "./resistor.js";
@@ -26,6 +28,8 @@ export const deviceModels: Readonly<Record<string, DeviceModel>> = {
   vccs,
   opamp,
   lamp,
+  thermistor,
+  jfet,
 };
 
 /** The schema of every part kind, by kind. */

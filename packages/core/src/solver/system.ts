@@ -119,7 +119,12 @@ function chargedRowsOf(n: number, C: Float64Array, declared: readonly (readonly 
 export interface BuildOptions {
   /** Start from the unpowered circuit: DC levels and fixed rails ramp up (see `PowerOn`). */
   readonly powerOn?: PowerOn;
+  /** The ambient temperature (K) of self-heated parts (lamps, thermistors); default {@link DEFAULT_AMBIENT}. */
+  readonly ambient?: number;
 }
+
+/** 27 °C in kelvin: the ambient when an analysis names no temperature. */
+export const DEFAULT_AMBIENT = 300.15;
 
 /** Places every part of the circuit in one unknown vector and stamps the constant matrices. */
 export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = [], options: BuildOptions = {}): MnaSystem {
@@ -165,6 +170,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
           for (const col of cols) if (col >= 0) declared.push([row, col]);
         },
         ...(options.powerOn ? { powerOn: options.powerOn } : {}),
+        ambient: options.ambient ?? DEFAULT_AMBIENT,
       });
       devices.push(device);
       deviceByName.set(part.name, device);

@@ -2,6 +2,7 @@ import {
   analysisModel,
   analysisModels,
   didYouMean,
+  partKinds,
   type AnalysisChecks,
   type AnalysisOption as CoreAnalysisOption,
   type AnalysisOptions,
@@ -189,7 +190,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
     return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
   }
-  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()) };
+  const partStates = new Set(ctx.parts.flatMap((p) => Object.keys(partKinds[p.kind]?.states ?? {})));
+  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()), partStates };
   return withSpan(analysisModel(stmt.analysis)!.build(values, checksOn(ctx, a, o)), span);
 }
 

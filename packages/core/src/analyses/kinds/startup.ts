@@ -12,7 +12,7 @@ const options: AnalysisOptions = {
   until: { type: "number", unit: "s", min: 0, minExclusive: true, words: ["auto"], summary: "end time, or auto" },
   "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
   kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
-  temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
+  temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature in °C of the resistances (their noise under kick=thermal and power-on) and the ambient of lamps and thermistors" },
   ramp: { type: "number", unit: "s", min: 0, summary: "time the DC levels take to rise from 0 (kick=power-on)" },
   level: { type: "number", unit: "A", min: 0, minExclusive: true, summary: "injected current, r.m.s. (kick=noise)" },
   seed: { type: "number", unit: "1", min: 0, max: 9_007_199_254_740_991, integer: true, summary: "seed of every noise stream" },
@@ -41,6 +41,8 @@ export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
     const kick = (o.words.kick ?? "thermal") as StartupKick;
     for (const [key, kicks] of Object.entries(KICK_OPTIONS)) {
       if (!o.written.has(key) || kicks.includes(kick)) continue;
+      // Self-heated parts (with a temperature state) cool to the ambient under any kick.
+      if (key === "temperature" && o.partStates?.has("temperature")) continue;
       checks.warn(key, "key", "unused-option", `${key}= has no effect with kick=${kick}`, `${key}= is the ${options[key]!.summary}; it acts with kick=${kicks.join(" or kick=")}`);
     }
     if (o.written.has("bandwidth") && o.written.has("harmonics")) {
