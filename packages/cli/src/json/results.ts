@@ -36,6 +36,7 @@ export function startupJson(r: StartupResult): Json {
     startupTime: r.startupTime,
     startupTimeSpread: r.startupTimeSpread ? { ...r.startupTimeSpread, seeds: [...r.startupTimeSpread.seeds], times: [...r.startupTimeSpread.times] } : undefined,
     settlingTime: r.settlingTime,
+    envelope: { bounceFrequency: r.envelope.bounceFrequency, dampingRatio: r.envelope.dampingRatio },
     dutyCycle: r.dutyCycle,
     growthRate: r.growthRate,
     thd: r.thd,

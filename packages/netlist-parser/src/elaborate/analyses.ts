@@ -28,6 +28,7 @@ export const analysisOptions: Readonly<Record<AnalysisStatement["analysis"], Rea
   startup: {
     probe: { type: "probe", summary: "probe the oscillation is measured on" },
     until: { type: "number", unit: "s", ...positive, words: ["auto"], summary: "end time, or auto" },
+    "settle-within": { type: "number", unit: "s", ...positive, summary: "until=auto: the longest the run may go before it must have settled (default 4000 predicted periods)" },
     "max-step": { type: "number", unit: "s", ...positive, summary: "largest time step" },
     kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
     temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature of the resistances in °C (kick=thermal, power-on)" },
@@ -212,6 +213,16 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
       const o = readOptions(ctx, a, globals, () => undefined);
       const kick = (o.word.kick ?? "thermal") as StartupKick;
       warnUnused(ctx, a, o, kick);
+      const until = o.word.until === "auto" ? ("auto" as const) : (o.num.until ?? ("auto" as const));
+      const within = o.given.get("settle-within");
+      if (within && until !== "auto") {
+        ctx.diagnostics.push(
+          problem("unused-option", "settle-within= has no effect with a fixed until=", spanIn(a, within.keySpan), {
+            severity: "warning",
+            hint: "settle-within= bounds until=auto; with until= a time, the run stops there",
+          }),
+        );
+      }
       const bandwidth = o.given.get("bandwidth");
       if (bandwidth && o.given.has("harmonics")) {
         raise("conflicting-options", "startup takes harmonics= or bandwidth=, not both", spanIn(a, bandwidth.keySpan), {
@@ -222,7 +233,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
         {
           kind: "startup" as const,
           probe: o.probe.probe!,
-          until: o.word.until === "auto" ? ("auto" as const) : (o.num.until ?? ("auto" as const)),
+          until,
+          ...(o.num["settle-within"] === undefined ? {} : { settleWithin: o.num["settle-within"], settleWithinSpan: spanIn(a, within!.span) }),
           ...(o.num["max-step"] === undefined ? {} : { maxStep: o.num["max-step"] }),
           kick,
           ...(o.num.level === undefined ? {} : { level: o.num.level }),
