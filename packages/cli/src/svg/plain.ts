@@ -1,10 +1,24 @@
-import type { Figure } from "../plot/index.js";
+import { envelopeFitAt, type StartupResult } from "@onset/core";
+import type { EnvelopeBounce, Figure } from "../plot/index.js";
 import { responseFigure, startupFigure, transientFigure } from "../plot/index.js";
 import type { AnalysisRun } from "../report/plain-types.js";
 
 /** True when an analysis of this kind has a figure; bias and poles are tables (see `resultFigure`). */
 export function hasFigure(kind: string): boolean {
   return kind !== "bias" && kind !== "poles";
+}
+
+/** Points on the fitted envelope curve in the bounce panel. */
+const FIT_POINTS = 600;
+
+/** The envelope's bounce for the plot: the fit sampled from where it starts to the record's end. */
+function bounceOf(r: StartupResult): { bounce?: EnvelopeBounce } {
+  const e = r.envelope;
+  if (e.fit === null || e.bounceFrequency === null || e.dampingRatio === null || e.time.length === 0) return {};
+  const fit = e.fit;
+  const end = e.time[e.time.length - 1]!;
+  const time = Float64Array.from({ length: FIT_POINTS }, (_, k) => fit.from + ((end - fit.from) * k) / (FIT_POINTS - 1));
+  return { bounce: { frequency: e.bounceFrequency, dampingRatio: e.dampingRatio, fit: { time, values: time.map((t) => envelopeFitAt(fit, t)) } } };
 }
 
 /**
@@ -28,6 +42,7 @@ export function resultFigure(run: AnalysisRun, title: string): Figure | null {
         ...(r.settlingTime === null ? {} : { settlingTime: r.settlingTime }),
         harmonics: r.harmonics,
         ...(r.thd === null ? {} : { thd: r.thd }),
+        ...bounceOf(r),
       });
     }
     case "response": {

@@ -22,7 +22,8 @@ export interface LoopJudgement {
  * record was steady on it, the per-cycle strength) from its first reaching the final level is
  * fitted (`envelopeDynamics`); then
  * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times, or once and is not
- *    settled, or if its bounce is sustained (see `EnvelopeDynamics.sustained`);
+ *    settled, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
+ *    above `settleTolerance` (relative);
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
  *    fitted mode needs to bring that within the tolerance.
@@ -41,7 +42,7 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   if (collapses >= COLLAPSES_TO_BOUNCE || (collapses > 0 && judgement.verdict !== "settled")) {
     return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
   }
-  if (dynamics.sustained) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };
+  if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };
   if (judgement.verdict !== "settled" || !(dynamics.remaining > settings.settleTolerance)) return { judgement, dynamics };
   const rate = dynamics.slowestRate;
   const period = (cycles.start[n] - cycles.start[n - w]) / w;

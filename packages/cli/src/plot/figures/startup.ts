@@ -24,6 +24,17 @@ export interface StartupPlot {
   readonly harmonics?: readonly HarmonicLevel[];
   /** THD as a fraction, printed in the spectrum title. */
   readonly thd?: number;
+  /** The envelope's bounce: drawn in a panel of its own with the fitted decaying oscillation. */
+  readonly bounce?: EnvelopeBounce;
+}
+
+/** The envelope's own oscillation as fitted: frequency, damping and the fitted curve. */
+export interface EnvelopeBounce {
+  /** Hz. */
+  readonly frequency: number;
+  readonly dampingRatio: number;
+  /** The fitted envelope (peak, from `offset`) at the given times. */
+  readonly fit: { readonly time: ArrayLike<number>; readonly values: ArrayLike<number> };
 }
 
 /** Harmonics further below the fundamental than this are numerical noise; they sit on the floor. */
@@ -67,9 +78,42 @@ function spectrumPanel(harmonics: readonly HarmonicLevel[], thd: number | undefi
   };
 }
 
+/** The times of the fitted curve's first two maxima above its last value: one bounce apart. */
+function bouncePeaks(fit: EnvelopeBounce["fit"]): number[] {
+  const n = Math.min(fit.time.length, fit.values.length);
+  const level = fit.values[n - 1] as number;
+  const peaks: number[] = [];
+  for (let i = 1; i + 1 < n && peaks.length < 2; i++) {
+    const v = fit.values[i] as number;
+    if (v > level && v >= (fit.values[i - 1] as number) && v > (fit.values[i + 1] as number)) peaks.push(fit.time[i] as number);
+  }
+  return peaks;
+}
+
+// The envelope alone at its own scale, with the fitted bounce and its first two peaks marked.
+function bouncePanel(envelope: NonNullable<StartupPlot["envelope"]>, bounce: EnvelopeBounce, unit: string, quantity: string): Panel {
+  const zeta = Math.abs(bounce.dampingRatio) < 5e-4 ? 0 : bounce.dampingRatio;
+  const label = `bounce ${formatSI(bounce.frequency, "Hz", 4)}, \u03b6 ${zeta.toFixed(3)}`;
+  const markers: Marker[] = bouncePeaks(bounce.fit).map((x, k) => ({ x, label: k === 0 ? label : "one bounce later" }));
+  return {
+    title: `envelope: ${label}`,
+    xLabel: "time",
+    xUnit: "s",
+    yLabel: `${quantity} envelope`,
+    yUnit: unit,
+    series: [
+      { name: "envelope", x: envelope.time, y: envelope.values, style: "line", tone: 1 },
+      { name: "fitted decaying oscillation", x: bounce.fit.time, y: bounce.fit.values, style: "dashed", tone: 2 },
+    ],
+    markers,
+    height: 320,
+  };
+}
+
 /**
  * The start-up plot: the probe waveform with ± its envelope and markers at the start-up and
- * settling times, and below it the spectrum of the settled waveform in dBc.
+ * settling times; when the envelope bounces, the envelope at its own scale with the fitted
+ * decaying oscillation and its peaks marked; and the spectrum of the settled waveform in dBc.
  */
 export function startupFigure(input: StartupPlot): Figure {
   const offset = input.offset ?? 0;
@@ -95,6 +139,7 @@ export function startupFigure(input: StartupPlot): Figure {
       markers,
     },
   ];
+  if (input.bounce !== undefined && input.envelope !== undefined) panels.push(bouncePanel(input.envelope, input.bounce, input.probe.unit, quantityOf(input.probe.unit)));
   if (input.harmonics !== undefined && input.harmonics.length > 0) panels.push(spectrumPanel(input.harmonics, input.thd));
   return { title: input.title, panels };
 }
