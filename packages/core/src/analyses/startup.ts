@@ -217,7 +217,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       metrics = measure();
       const done =
         FINAL_VERDICTS.has(metrics.verdict) ||
-        ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period) ||
+        ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
       if (done) break;
       const extra = metrics.suggestedExtraTime ?? target;
@@ -262,6 +262,23 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     warnings,
     waveform: { time: t, values: v },
   };
+}
+
+/** A record that grew and now dies away is watched this many times as long as it took to peak… */
+const RESTART_WATCH = 3;
+
+/**
+ * Whether a `decaying` record may still restart: it grew to its peak first (a slow amplitude
+ * loop that overshot can kill the oscillation and let it grow again once its filter has
+ * relaxed, see the `bouncing` verdict), and the run has not yet lasted {@link RESTART_WATCH}
+ * times as long as the growth took.
+ */
+function mayRestart(metrics: StartupMetrics, now: number): boolean {
+  if (metrics.verdict !== "decaying") return false;
+  const { time, value } = metrics.envelope;
+  let peak = 0;
+  for (let k = 1; k < value.length; k++) if (value[k] > value[peak]) peak = k;
+  return peak > 0 && value[peak] > 2 * value[0] && now < RESTART_WATCH * time[peak];
 }
 
 /** The warning of an `until=auto` run that reached its bound before it settled, at `settle-within=` or the analysis. */

@@ -37,18 +37,24 @@ export const SUSTAINED_LOSS = 0.2;
 
 const NONE: EnvelopeDynamics = { bounceFrequency: null, dampingRatio: null, fit: null, remaining: 0, slowestRate: null, sustained: false };
 
+/** …after the last cycle whose envelope is further than this share from that level (a collapse, a wild overshoot). */
+const FAR = 0.5;
+
 /**
- * Where the fitted window starts: the first cycle whose envelope reaches 90 % of `level`, or the
- * first peak after it when that peak overshoots the level by more than the settling band (the
- * bounce then starts from the overshoot, not from the end of the growth).
+ * Where the fitted window starts: after the last cycle further than {@link FAR} of `level` from
+ * it (the growth, a collapse and restart, a wild overshoot: the loop's large-signal part), the
+ * first cycle whose envelope reaches 90 % of `level`, or the first peak after it when that peak
+ * overshoots the level by more than the settling band (the bounce then starts from the
+ * overshoot, not from the end of the growth).
  */
 export function fitWindowStart(e: Float64Array, level: number): number {
   const n = e.length;
-  let s = 0;
+  let s = n;
+  while (s > 0 && Math.abs(e[s - 1] - level) <= FAR * level) s--;
   while (s < n && e[s] < REACHED * level) s++;
   let k = s;
   while (k + 1 < n && e[k + 1] > e[k]) k++;
-  return e[k] > (1 + SETTLING_BAND) * level ? k : s;
+  return k < n && e[k] > (1 + SETTLING_BAND) * level ? k : s;
 }
 
 /** The window ends where the envelope's distance from its level last exceeds this share of the largest… */

@@ -94,6 +94,9 @@ export function explainBouncing(reason: BouncingReason, b: Bounce): string {
 }
 
 export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend: TailTrend, settings: StartupSettings, b?: Bounce, extraTime?: number): string {
+  if (reason.kind === "recovering") {
+    return `the envelope fell after its peak and grew again ${reason.rise.toFixed(1)}× from its lowest: the amplitude loop is recovering from its overshoot; run longer`;
+  }
   if (reason.kind === "loop-moving") {
     const how = b?.bounceFrequency ? `still bounces${bounceText(b)}` : "still creeps";
     const longer = extraTime === undefined ? "run longer" : `run about ${formatQuantity(extraTime, "s")} longer`;

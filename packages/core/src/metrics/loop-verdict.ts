@@ -6,6 +6,21 @@ import type { Judgement } from "./verdict.js";
 
 /** Collapses and restarts that make a record `bouncing` even while it is still moving… */
 const COLLAPSES_TO_BOUNCE = 2;
+/** A falling record that grew again by this factor after its peak is recovering, not decaying. */
+const RECOVERY_RISE = 2;
+
+/** The largest rise of the envelope, as a ratio, from a minimum after its largest value to a later value. */
+function riseAfterPeak(e: Float64Array): number {
+  let peak = 0;
+  for (let k = 1; k < e.length; k++) if (e[k] > e[peak]) peak = k;
+  let low = Infinity;
+  let rise = 1;
+  for (let k = peak + 1; k < e.length; k++) {
+    low = Math.min(low, e[k]);
+    if (low > 0) rise = Math.max(rise, e[k] / low);
+  }
+  return rise;
+}
 
 /** The envelope's slow dynamics and the verdict they lead to. */
 export interface LoopJudgement {
@@ -27,10 +42,17 @@ export interface LoopJudgement {
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
  *    fitted mode needs to bring that within the tolerance.
- * Decaying and silent records are left as they are.
+ * A `decaying` record that grew again by {@link RECOVERY_RISE} after its peak is `unsettled`
+ * (`recovering`): a slow loop's overshoot nearly killed it and it is coming back. Silent records
+ * are left as they are.
  */
 export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: StartupSettings): LoopJudgement {
-  if (judgement.verdict === "silent" || judgement.verdict === "decaying" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
+  if (judgement.verdict === "decaying") {
+    const rise = riseAfterPeak(cycles.envelope);
+    if (rise < RECOVERY_RISE) return { judgement, dynamics: null };
+    return { judgement: { verdict: "unsettled", reason: { kind: "recovering", rise }, trend: judgement.trend }, dynamics: null };
+  }
+  if (judgement.verdict === "silent" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
   const n = cycles.count;
   const measure = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
   const w = Math.min(settings.settleCycles, n);

@@ -37,14 +37,16 @@ export type SilentReason =
  * judge settling, a steady fall after the envelope's peak that is not a decay (the recovery
  * from an overshoot), a drifting mean, or an envelope steady from cycle to cycle whose slow
  * dynamics (a bounce, a creep) would still move it by `remaining` (relative) — the amplitude
- * loop has not settled.
+ * loop has not settled — or one that fell after its peak and grew again by the factor `rise`
+ * (recovering from an overshoot that nearly killed it).
  */
 export type TrendReason =
   | { readonly kind: "trend" }
   | { readonly kind: "too-short-to-judge" }
   | { readonly kind: "relaxing" }
   | { readonly kind: "drifting"; readonly largest: number }
-  | { readonly kind: "loop-moving"; readonly remaining: number };
+  | { readonly kind: "loop-moving"; readonly remaining: number }
+  | { readonly kind: "recovering"; readonly rise: number };
 
 /** Why a record is `bouncing`: its envelope collapsed and restarted, or its bounce does not die away. */
 export type BouncingReason = { readonly kind: "collapses"; readonly count: number } | { readonly kind: "sustained" };
