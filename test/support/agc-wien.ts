@@ -9,7 +9,7 @@ import type { PartSpec } from "@onset/core";
 import { part } from "./circuits.js";
 
 /** The loop's values: Wien R, C; the gain floor and the controlled share; the loop filter. */
-export const AGC = { R: 10e3, C: 16e-9, floor: 2.9, span: 0.2, attenuation: 1e-3, Ra: 1e3, Cc: 10e-6, gm: 200e-6, Cd: 100e-9, Rd: 20e3, Rf: 20e3 } as const;
+export const AGC = { R: 10e3, C: 16e-9, floor: 2.9, span: 0.2, attenuation: 1e-3, Ra: 1e3, Cc: 10e-6, gm: 200e-6, Rs: 1e3, Cd: 100e-9, Rd: 20e3, Rf: 20e3 } as const;
 
 /**
  * o = floor·p + (span/attenuation)·(b − bref), b the attenuated p across the diode's small-signal
@@ -33,7 +33,8 @@ export function agcWienParts(filterCapacitor: number): PartSpec[] {
     part("diode", "Dr", ["bref", "gnd"], undefined, { series: 0 }),
     part("vccs", "G1", ["gnd", "b", "ctl", "gnd"], a.gm),
     part("vccs", "G2", ["gnd", "bref", "ctl", "gnd"], a.gm),
-    part("diode", "Dd", ["o", "det"], undefined, { series: 0 }),
+    part("diode", "Dd", ["o", "dx"], undefined, { series: 0 }),
+    part("resistor", "Rs", ["dx", "det"], a.Rs),
     part("capacitor", "Cd", ["det", "gnd"], a.Cd),
     part("resistor", "Rd", ["det", "gnd"], a.Rd),
     part("resistor", "Rf", ["det", "ctl"], a.Rf),
@@ -52,12 +53,12 @@ const slope = (v: number) => (IS / NVT) * Math.exp(v / NVT) + LEAK;
 /** The node voltage v solving (x − v)/R + I = diode(v) (one monotone equation: Newton from a safe start). */
 function diodeNode(x: number, r: number, current: number): number {
   let v = Math.min(0.5, Math.max(-0.5, x));
-  for (let k = 0; k < 100; k++) {
+  for (let k = 0; k < 200; k++) {
     const f = (x - v) / r + current - diode(v);
     const step = f / (1 / r + slope(v));
     // junction limiting: at most two nVt per step
     v += Math.max(-2 * NVT, Math.min(2 * NVT, step));
-    if (Math.abs(step) < 1e-15) break;
+    if (Math.abs(step) < 1e-12 * NVT) break;
   }
   return v;
 }
@@ -73,7 +74,8 @@ function rhs(y: number[], filterCapacitor: number): { dy: number[]; o: number } 
   const bref = diodeNode(vcr, a.Ra, bias);
   const o = a.floor * p + (a.span / a.attenuation) * (b - bref);
   const i1 = (o - p - vc1) / a.R;
-  const iDet = diode(o - det);
+  // the detector diode's voltage w: (o − w − det)/Rs = diode(w)
+  const iDet = diode(diodeNode(o - det, a.Rs, 0));
   return {
     o,
     dy: [
@@ -101,7 +103,7 @@ export function agcWienReference(filterCapacitor: number, until: number): Refere
   solver.maxSteps = 1e7;
   solver.denseOutput = true;
   const y0 = [0, 1e-3, 0, 0, 0, 0];
-  const dt = 1 / (2 * Math.PI * AGC.R * AGC.C) / 400;
+  const dt = (2 * Math.PI * AGC.R * AGC.C) / 400;
   const samples: number[] = [];
   let next = 0;
   solver.solve((_x, y) => rhs(y, filterCapacitor).dy, 0, y0, until, (_n, _xOld, x, yNow, dense) => {
