@@ -37,8 +37,11 @@ export const SUSTAINED_LOSS = 0.2;
 
 const NONE: EnvelopeDynamics = { bounceFrequency: null, dampingRatio: null, fit: null, remaining: 0, slowestRate: null, sustained: false };
 
-/** …after the last cycle whose envelope is further than this share from that level (a collapse, a wild overshoot). */
-const FAR = 0.5;
+/**
+ * …after the last cycle whose envelope is further than this share from that level (a collapse, a
+ * wild overshoot: large-signal swings bounce more slowly than the loop's small-signal bounce).
+ */
+const FAR = 0.2;
 
 /**
  * Where the fitted window starts: after the last cycle further than {@link FAR} of `level` from
