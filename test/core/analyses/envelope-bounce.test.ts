@@ -58,4 +58,39 @@ describe("a Wien bridge with a slow gain loop (diode resistor, peak detector, RC
     // until=auto ran until the loop itself had settled: the envelope moves less than the settling tolerance
     expect(r.explanation).toMatch(/^settled at/);
   });
+
+  test("with a four times slower filter the loop is unstable: bouncing, as the odex reference's envelope collapses and restarts too", () => {
+    const filter = 1e-6;
+    const r = runStartup(circuit(agcWienParts(filter)), { kind: "startup", probe: node("o"), until: "auto" });
+    expect(r.verdict).toBe("bouncing");
+    expect(r.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted \d+ times/);
+    // the reference: every valley below a fifth of both peaks beside it (measured: 4 by 0.6 s)
+    const e = agcWienReference(filter, 0.6).value;
+    let valleys = 0;
+    let peakBefore = 0;
+    let low = Infinity;
+    for (let k = 0; k < e.length; k++) {
+      if (e[k]! < low) low = e[k]!;
+      if (e[k]! > 5 * low && peakBefore > 5 * low) {
+        valleys++;
+        peakBefore = 0;
+        low = Infinity;
+      }
+      if (low === Infinity || e[k]! > peakBefore) peakBefore = Math.max(peakBefore, e[k]!);
+      if (e[k]! < 0.2 * peakBefore && low === Infinity) low = e[k]!;
+    }
+    expect(valleys).toBeGreaterThanOrEqual(2);
+  });
+
+  test("until=auto stops at settle-within= with a warning placed there when the loop has not settled", () => {
+    const span = { file: "agc.onset", start: 40, end: 56 };
+    const r = runStartup(circuit(agcWienParts(250e-9)), { kind: "startup", probe: node("o"), until: "auto", settleWithin: 0.05, settleWithinSpan: span });
+    expect(r.run.until).toBeCloseTo(0.05, 9);
+    // at 50 ms the first overshoot is dying away: decaying, but it may restart (measured: decaying)
+    expect(["growing", "unsettled", "decaying"]).toContain(r.verdict);
+    const warning = r.warnings.find((w) => w.code === "not-settled-within")!;
+    expect(warning.span).toEqual(span);
+    expect(warning.message).toBe("until=auto stopped at 50 ms (settle-within=) before the oscillation settled");
+    expect(warning.hint).toMatch(/^a slow amplitude loop can need longer: raise settle-within= \(now 50 ms, about 50 cycles\)/);
+  });
 });

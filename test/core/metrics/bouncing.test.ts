@@ -24,13 +24,13 @@ function squegging(every: number, from: number): (t: number) => number {
 }
 
 describe("bouncing: the envelope collapses and restarts", () => {
-  test("collapses to 1 % every 40 cycles, two restarts within 130 cycles: bouncing, with the count", () => {
+  test("collapses to 1 % every 40 cycles, three restarts within 130 cycles (the last caught once it has risen fivefold): bouncing, with the count", () => {
     const t = times(130, 71);
     const envelope = squegging(40, 0.01);
     const metrics = measureStartup(t, sampled(t, (x) => envelope(x) * Math.sin(omega * x)));
     expect(metrics.verdict).toBe("bouncing");
     expect(metrics.thd).toBeNull();
-    expect(metrics.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted 2 times/);
+    expect(metrics.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted 3 times/);
   });
 
   test("collapses below the crossing hysteresis (the cycles stop, a gap) count as well", () => {
@@ -49,6 +49,16 @@ describe("bouncing: the envelope collapses and restarts", () => {
     expect(metrics.verdict).toBe("settled");
   });
 
+  test("a wild first overshoot does not hide the collapses after it (each deep valley counts)", () => {
+    // 20 at first, then collapses to 0.2 % and restarts to about 2, three times
+    const envelope = Float64Array.from([1, 5, 20, 8, 2, 0.04, 0.3, 2, 2.5, 0.5, 0.03, 0.4, 2, 0.2, 0.01, 1.5, 1.6]);
+    const start = Float64Array.from({ length: envelope.length + 1 }, (_, k) => k * period);
+    const cycles = { count: envelope.length, start, envelope } as Parameters<typeof collapsesAndRestarts>[0];
+    expect(collapsesAndRestarts(cycles)).toBe(3);
+    // a restart must rise above the floor given: 0.4 and 1.5, 1.6 do not
+    expect(collapsesAndRestarts(cycles, 1.8)).toBe(2);
+  });
+
   test("a ring-down to nothing is no restart, and a dip to 60 % is no collapse", () => {
     const t = times(80, 74);
     const ringDown = measureStartup(t, sampled(t, (x) => Math.exp(-x / (10 * period)) * Math.sin(omega * x)));
@@ -60,11 +70,11 @@ describe("bouncing: the envelope collapses and restarts", () => {
 });
 
 describe("collapsesAndRestarts(cycles)", () => {
-  test("counts falls below 20 % of the largest so far followed by rises above 50 % of it", () => {
+  test("counts falls below 20 % of the largest since the last restart followed by rises to 5× the collapse's lowest", () => {
     const envelope = Float64Array.from([0.1, 0.6, 1, 0.5, 0.15, 0.3, 0.55, 1, 0.1, 0.9, 0.05, 0.02]);
     const start = Float64Array.from({ length: envelope.length + 1 }, (_, k) => k * period);
     const cycles = { count: envelope.length, start, envelope } as Parameters<typeof collapsesAndRestarts>[0];
-    // 1 → 0.15 (collapse) → 0.55 (restart); 1 → 0.1 → 0.9 (restart); the last fall does not restart.
+    // 1 → 0.15 (collapse) → 1 (restart: 0.55 is under 5 × 0.15); 1 → 0.1 → 0.9 (restart); the last fall does not restart.
     expect(collapsesAndRestarts(cycles)).toBe(2);
   });
 });

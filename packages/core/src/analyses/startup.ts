@@ -224,7 +224,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
     }
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled") warnings.push(boundWarning(analysis, bound - searchFrom, period));
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) warnings.push(boundWarning(analysis, bound - searchFrom, period));
   } else {
     stepper.advance(analysis.until);
     metrics = measure();
@@ -265,7 +265,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
 }
 
 /** A record that grew and now dies away is watched this many times as long as it took to peak… */
-const RESTART_WATCH = 3;
+const RESTART_WATCH = 8;
 
 /**
  * Whether a `decaying` record may still restart: it grew to its peak first (a slow amplitude

@@ -1,9 +1,9 @@
 import type { CycleTable } from "./cycles.js";
 
-/** A collapse: the envelope falls below this share of its largest value so far… */
+/** A collapse: the envelope falls below this share of its largest value since the last restart… */
 export const COLLAPSE = 0.2;
-/** …and a restart: it rises again above this share of it. */
-export const RESTART = 0.5;
+/** …and a restart: it rises again to this many times the lowest value of the collapse. */
+export const RESTART = 5;
 /** A cycle this many times the median period long is a gap: the oscillation stopped and started again. */
 export const GAP = 3;
 
@@ -13,31 +13,34 @@ function medianPeriod(cycles: CycleTable): number {
 }
 
 /**
- * How many times the per-cycle envelope collapsed and restarted after it first reached
- * {@link RESTART} of its largest value: fell below {@link COLLAPSE} of its largest value so far
- * (or stopped for a gap, a cycle over {@link GAP} median periods long, when the swing fell
- * inside the crossing hysteresis) and then rose again above {@link RESTART} of it. A ring-down
- * to nothing is no restart; an envelope that dips and recovers by less is a bounce, not a collapse.
+ * How many times the per-cycle envelope collapsed and restarted: fell below {@link COLLAPSE} of
+ * its largest value since the last restart (or stopped for a gap, a cycle over {@link GAP}
+ * median periods long, when the swing fell inside the crossing hysteresis) and then rose again
+ * to {@link RESTART} times the lowest value of the collapse and above `floor` (twice the noise
+ * floor: noise alone does not restart). So every deep valley between two peaks counts, whatever
+ * the first overshoot was; a ring-down to nothing is no restart, a dip to 60 % no collapse.
  */
-export function collapsesAndRestarts(cycles: CycleTable): number {
+export function collapsesAndRestarts(cycles: CycleTable, floor = 0): number {
   const n = cycles.count;
   const e = cycles.envelope;
-  let largest = 0;
-  for (let k = 0; k < n; k++) largest = Math.max(largest, e[k]);
   const period = medianPeriod(cycles);
-  let k = 0;
-  while (k < n && e[k] < RESTART * largest) k++;
   let peak = 0;
+  let low = Infinity;
   let down = false;
   let count = 0;
-  for (; k < n; k++) {
+  for (let k = 0; k < n; k++) {
     const gap = cycles.start[k + 1] - cycles.start[k] > GAP * period;
-    if (down && !gap && e[k] > RESTART * peak) {
+    if (down && !gap && e[k] >= RESTART * low && e[k] > floor) {
       down = false;
       count++;
+      peak = 0;
     }
-    if (!down && (gap || e[k] < COLLAPSE * peak)) down = true;
-    if (!down) peak = Math.max(peak, e[k]);
+    if (!down && peak > floor && (gap || e[k] < COLLAPSE * peak)) {
+      down = true;
+      low = gap ? 0 : e[k];
+    }
+    if (down) low = Math.min(low, gap ? 0 : e[k]);
+    else peak = Math.max(peak, e[k]);
   }
   return count;
 }

@@ -2,9 +2,9 @@ import { collapsesAndRestarts } from "./collapses.js";
 import type { CycleTable } from "./cycles.js";
 import { envelopeDynamics, type EnvelopeDynamics } from "./envelope-dynamics.js";
 import type { StartupSettings } from "./startup-options.js";
-import type { Judgement } from "./verdict.js";
+import { SILENT_RATIO, type Judgement } from "./verdict.js";
 
-/** Collapses and restarts that make a record `bouncing` even while it is still moving… */
+/** Collapses and restarts that make a record `bouncing` (one may be a slow loop's start-up, which then settles). */
 const COLLAPSES_TO_BOUNCE = 2;
 /** A falling record that grew again by this factor after its peak is recovering, not decaying. */
 const RECOVERY_RISE = 2;
@@ -36,8 +36,7 @@ export interface LoopJudgement {
  * of cycles, a creep with a long time constant — still move it. The envelope (or, when the
  * record was steady on it, the per-cycle strength) from its first reaching the final level is
  * fitted (`envelopeDynamics`); then
- * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times, or once and is not
- *    settled, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
+ * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
  *    above `settleTolerance` (relative);
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
@@ -59,9 +58,9 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   let level = 0;
   for (let k = n - w; k < n; k++) level += measure[k] / w;
   const dynamics = envelopeDynamics(cycles.midTime, measure, level);
-  const collapses = collapsesAndRestarts(cycles);
+  const collapses = collapsesAndRestarts(cycles, SILENT_RATIO * settings.noiseFloor);
   const { trend } = judgement;
-  if (collapses >= COLLAPSES_TO_BOUNCE || (collapses > 0 && judgement.verdict !== "settled")) {
+  if (collapses >= COLLAPSES_TO_BOUNCE) {
     return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
   }
   if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };
