@@ -242,7 +242,7 @@ describe("sweeps and the design window", () => {
     expect(sweep.threshold.value / 20e3).toBeCloseTo(1, 1);
     expect(sweep.threshold.startsAbove).toBe(true);
     expect(sweep.threshold.margin).toBeGreaterThan(0);
-    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,growthRate,offset,rms,peakToPeak,frequencyError,amplitudeError,rmsError,thdError,pass");
+    expect(readFileSync(ws.path("sweep.csv"), "utf8").split("\n")[0]).toBe("Rf,verdict,frequency,amplitude,thd,startupTime,settlingTime,bounceFrequency,dampingRatio,growthRate,offset,rms,peakToPeak,frequencyError,amplitudeError,rmsError,thdError,pass");
   });
 
   test("the sweep table prints each setting's frequency, amplitude and THD with their error bars", async () => {

@@ -1104,6 +1104,16 @@ const cases: readonly Case[] = [
     ].join("\n"),
   },
   {
+    code: "unused-option",
+    source: "capacitor C1 o gnd 1u\nresistor R1 o gnd 1k\nstartup probe=o until=10m settle-within=2", warnings: true,
+    expected: [
+      "t.onset:3:27: warning: settle-within= has no effect with a fixed until=",
+      "  startup probe=o until=10m settle-within=2",
+      "                            ^~~~~~~~~~~~~",
+      "hint: settle-within= bounds until=auto; with until= a time, the run stops there",
+    ].join("\n"),
+  },
+  {
     code: "unit-mismatch",
     source: "opamp U1 p gnd o noise=20nV\nresistor R1 o p 1k",
     expected: [

@@ -101,7 +101,9 @@ export type {
 
 // Metrics and specs
 export { measureStartup } from "./metrics/startup.js";
-export type { StartupMetrics } from "./metrics/startup.js";
+export type { StartupEnvelope, StartupMetrics } from "./metrics/startup.js";
+export { envelopeFitAt } from "./metrics/envelope-fit.js";
+export type { EnvelopeFit } from "./metrics/envelope-fit.js";
 export type { StartupMetricsOptions } from "./metrics/startup-options.js";
 export type { LinearPrediction } from "./metrics/oscillation-kind.js";
 export type { StartupVerdict } from "./metrics/verdict.js";

@@ -127,14 +127,25 @@ describe("measureStartup verdicts on synthetic records", () => {
     );
   });
 
-  test("unsettled: the amplitude keeps wandering (5 % envelope modulation over 15 cycles)", () => {
+  test("bouncing: a 5 % envelope modulation over 15 cycles that does not die away", () => {
     const t = times(60, 60);
     const metrics = measureStartup(t, sampled(t, (x) => (1 + 0.05 * Math.sin((omega * x) / 15)) * Math.sin(omega * x)));
+    expect(metrics.verdict).toBe("bouncing");
+    expect(metrics.thd).toBeNull();
+    // The envelope's own oscillation is at f/15 = 66.7 Hz, undamped (mathematics).
+    expect(Math.abs(metrics.envelope.bounceFrequency! / (f / 15) - 1)).toBeLessThan(2e-3);
+    expect(Math.abs(metrics.envelope.dampingRatio!)).toBeLessThan(5e-3);
+    expect(metrics.explanation).toBe("the amplitude loop is unstable: the envelope bounces at 66.67 Hz (damping ratio 0.000) and does not die away");
+  });
+
+  test("unsettled: the amplitude keeps wandering (5 % envelope modulation over 60 cycles, less than one bounce seen)", () => {
+    const t = times(50, 60);
+    const metrics = measureStartup(t, sampled(t, (x) => (1 + 0.05 * Math.sin((omega * x) / 60)) * Math.sin(omega * x)));
     expect(metrics.verdict).toBe("unsettled");
     expect(metrics.thd).toBeNull();
-    // The largest change per cycle is about 0.05·2π/15 = 2.1 % (mathematics).
+    // The change per cycle is at most 0.05·2π/60 = 0.52 % (mathematics); 0.32 % over the last ten.
     expect(metrics.explanation).toBe(
-      "amplitude still wandering: envelope changes up to 2 %/cycle over the last 10 cycles (settled needs under 0.1 %)",
+      "amplitude still wandering: envelope changes up to 0.32 %/cycle over the last 10 cycles (settled needs under 0.1 %)",
     );
   });
 

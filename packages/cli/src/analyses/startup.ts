@@ -1,5 +1,5 @@
-import type { StartupResult } from "@onset/core";
-import type { StartupPlot } from "../plot/index.js";
+import { envelopeFitAt, type StartupResult } from "@onset/core";
+import type { EnvelopeBounce, StartupPlot } from "../plot/index.js";
 import { columnRows, csvDocument, headed } from "../csv/csv.js";
 import type { Json } from "../json/results.js";
 import { startupFigure } from "../plot/index.js";
@@ -23,6 +23,7 @@ export function startupJson(r: StartupResult): Json {
     startupTime: r.startupTime,
     startupTimeSpread: r.startupTimeSpread ? { ...r.startupTimeSpread, seeds: [...r.startupTimeSpread.seeds], times: [...r.startupTimeSpread.times] } : undefined,
     settlingTime: r.settlingTime,
+    envelope: { bounceFrequency: r.envelope.bounceFrequency, dampingRatio: r.envelope.dampingRatio },
     dutyCycle: r.dutyCycle,
     growthRate: r.growthRate,
     thd: r.thd,
@@ -67,5 +68,19 @@ export function startupPlot(r: StartupResult, title: string): StartupPlot {
     ...(r.amplitude === null ? {} : { amplitude: r.amplitude }),
     ...(r.growthRate === null ? {} : { growthRate: r.growthRate }),
     ...(bar === undefined ? {} : { amplitudeError: bar }),
+    ...bounceOf(r),
   };
+}
+
+/** Points on the fitted envelope curve in the bounce panel. */
+const FIT_POINTS = 600;
+
+/** The envelope's bounce for the plot: the fit sampled from where it starts to the record's end. */
+function bounceOf(r: StartupResult): { bounce?: EnvelopeBounce } {
+  const e = r.envelope;
+  if (e.fit === null || e.bounceFrequency === null || e.dampingRatio === null || e.time.length === 0) return {};
+  const fit = e.fit;
+  const end = e.time[e.time.length - 1]!;
+  const time = Float64Array.from({ length: FIT_POINTS }, (_, k) => fit.from + ((end - fit.from) * k) / (FIT_POINTS - 1));
+  return { bounce: { frequency: e.bounceFrequency, dampingRatio: e.dampingRatio, fit: { time, values: time.map((t) => envelopeFitAt(fit, t)) } } };
 }

@@ -26,6 +26,7 @@ export function resultPlots(run: AnalysisRun, key: string): PagePlot[] {
       const plots: PagePlot[] = [{ id: `${key}-run`, figure: single(p.waveform, p.lastCycles ? "main" : "wide"), zoom: true, link, place: p.lastCycles ? "main" : "wide" }];
       if (p.lastCycles) plots.push({ id: `${key}-last`, figure: single(p.lastCycles, "side"), zoom: true, place: "side" });
       if (p.envelopeDb) plots.push({ id: `${key}-envelope`, figure: single(p.envelopeDb, "half"), zoom: true, link, place: "half" });
+      if (p.bounce) plots.push({ id: `${key}-bounce`, figure: single(p.bounce, "half"), zoom: true, link, place: "half" });
       if (p.spectrum) plots.push({ id: `${key}-spectrum`, figure: single(p.spectrum, "half"), place: "half" });
       return plots;
     }

@@ -11,7 +11,7 @@ export { transientFigure } from "./figures/transient.js";
 export type { TransientPlot } from "./figures/transient.js";
 export type { ProbeTrace } from "./figures/quantity.js";
 export { SPECTRUM_FLOOR_DBC, startupFigure } from "./figures/startup.js";
-export type { HarmonicLevel, StartupPlot } from "./figures/startup.js";
+export type { EnvelopeBounce, HarmonicLevel, StartupPlot } from "./figures/startup.js";
 export { sweepFigure } from "./figures/sweep.js";
 export type { SweepPlot } from "./figures/sweep.js";
 export { toleranceFigure } from "./figures/tolerance.js";

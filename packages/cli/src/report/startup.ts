@@ -22,6 +22,8 @@ export function verdictText(verdict: StartupResult["verdict"], p: Paint): string
       return p.yellow("unsettled");
     case "decaying":
       return p.red("decaying");
+    case "bouncing":
+      return p.red("bouncing");
     case "silent":
       return p.red("silent");
   }
@@ -69,6 +71,7 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
     ["start-up time", si(r.startupTime, "s")],
     ...(r.startupTimeSpread ? [spreadEntry(r.startupTimeSpread)] : []),
     ["settling time", si(r.settlingTime, "s")],
+    ["envelope bounce", bounceText(r)],
     ["growth rate", perSecond(r.growthRate)],
     [`THD (2–${lastOrder})`, withBar(r.thd, e?.thd, "1")],
     // THD+N is the run's own: its noise over its last cycles (the orbit is noiseless).
@@ -113,6 +116,14 @@ export function harmonicLines(harmonics: readonly Harmonic[], lastOrder: number,
     lines.push(p.dim(`    harmonics ${LISTED_HARMONICS + 1}–${lastOrder}: each ${level(loudest).startsWith("<") ? level(loudest) : `at most ${level(loudest)}`}`));
   }
   return lines;
+}
+
+/** The envelope's own oscillation: its frequency and damping ratio, or why there is none. */
+function bounceText(r: StartupResult): string {
+  const e = r.envelope;
+  if (e.bounceFrequency === null || e.dampingRatio === null) return r.verdict === "settled" || r.verdict === "relaxation" || r.verdict === "parasitic" ? "none (settles without bouncing)" : "—";
+  const zeta = Math.abs(e.dampingRatio) < 5e-4 ? 0 : e.dampingRatio;
+  return `${si(e.bounceFrequency, "Hz", 4)}, damping ratio ${zeta.toFixed(3)}`;
 }
 
 /** `min … max (median m) over N seeds`, and how many did not settle. */

@@ -36,6 +36,8 @@ const STEPS_PER_PERIOD = 100;
 const AUTO_MAX_CYCLES = 4000;
 /** …and looks at the verdict first after this many. */
 const AUTO_FIRST_CYCLES = 60;
+/** `until=auto` stops at once on these verdicts. */
+const FINAL_VERDICTS: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "relaxation", "parasitic", "bouncing"]);
 /** Frequency assumed when the linearised circuit has no complex poles (Hz). */
 const FALLBACK_FREQUENCY = 1e3;
 /** THD counts harmonics 2 … this order unless `harmonics=` or `bandwidth=` says otherwise. */
@@ -202,8 +204,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       searchFrom,
     });
   let metrics: StartupMetrics;
+  const warnings = defaultWarnings(circuit);
   if (analysis.until === "auto") {
-    const bound = AUTO_MAX_CYCLES * period + searchFrom;
+    const bound = (analysis.settleWithin ?? AUTO_MAX_CYCLES * period) + searchFrom;
     let target = AUTO_FIRST_CYCLES * period + searchFrom;
     if (pole && startsFrom(pole) && pole.real > 0 && noiseAtProbe > 0) {
       // time to grow from the noise to a volt-scale envelope, then settle
@@ -214,16 +217,15 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       stepper.advance(target);
       metrics = measure();
       const done =
-        metrics.verdict === "settled" ||
-        metrics.verdict === "relaxation" ||
-        metrics.verdict === "parasitic" ||
-        ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period) ||
+        FINAL_VERDICTS.has(metrics.verdict) ||
+        ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
       if (done) break;
-      const extra = metrics.verdict === "growing" && metrics.suggestedExtraTime ? metrics.suggestedExtraTime : target;
+      const extra = metrics.suggestedExtraTime ?? target;
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
     }
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) warnings.push(boundWarning(analysis, bound - searchFrom, period));
   } else {
     stepper.advance(analysis.until);
     metrics = measure();
@@ -258,8 +260,39 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       },
       solver: { ...stepper.stats },
     },
-    warnings: defaultWarnings(circuit),
+    warnings,
     waveform: { time: t, values: v },
+  };
+}
+
+/** A record that grew and now dies away is watched this many times as long as it took to peak… */
+const RESTART_WATCH = 8;
+
+/**
+ * Whether a `decaying` record may still restart: it grew to its peak first (a slow amplitude
+ * loop that overshot can kill the oscillation and let it grow again once its filter has
+ * relaxed, see the `bouncing` verdict), and the run has not yet lasted {@link RESTART_WATCH}
+ * times as long as the growth took.
+ */
+function mayRestart(metrics: StartupMetrics, now: number): boolean {
+  if (metrics.verdict !== "decaying") return false;
+  const { time, value } = metrics.envelope;
+  let peak = 0;
+  for (let k = 1; k < value.length; k++) if (value[k] > value[peak]) peak = k;
+  return peak > 0 && value[peak] > 2 * value[0] && now < RESTART_WATCH * time[peak];
+}
+
+/** The warning of an `until=auto` run that reached its bound before it settled, at `settle-within=` or the analysis. */
+function boundWarning(analysis: StartupAnalysis, bound: number, period: number): Diagnostic {
+  const span = analysis.settleWithinSpan ?? analysis.span;
+  const given = analysis.settleWithin !== undefined;
+  return {
+    severity: "warning",
+    stage: "simulation",
+    code: "not-settled-within",
+    message: `until=auto stopped at ${formatQuantity(bound, "s")} (${given ? "settle-within=" : `the default bound of ${AUTO_MAX_CYCLES} predicted cycles`}) before the oscillation settled`,
+    ...(span ? { span } : {}),
+    hint: `a slow amplitude loop can need longer: raise settle-within= (now ${formatQuantity(bound, "s")}, about ${Math.round(bound / period)} cycles), or see the report's suggestion`,
   };
 }
 

@@ -1,4 +1,5 @@
 import type { Probe } from "./circuit.js";
+import type { SourceSpan } from "./diagnostic.js";
 import type { UnitSymbol } from "./schema.js";
 
 /**
@@ -59,6 +60,8 @@ export interface AnalysisOptionValues {
   readonly written: ReadonlySet<string>;
   /** The probe-able internal states the file's parts carry (`temperature` for lamps and thermistors). */
   readonly partStates?: ReadonlySet<string>;
+  /** Where each written option's value is in the source, by key, for a spec that places later errors there. */
+  readonly spans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** Where on an option a problem is shown: its key (`bandwidth=`) or its value. */

@@ -88,6 +88,13 @@ export interface StartupAnalysis {
   readonly temperature?: number;
   /** `kick=power-on`: how long the DC levels take to rise from 0 (s; default 1 ms). */
   readonly ramp?: number;
+  /**
+   * `until=auto`: the longest the run may go (s of simulated time after a power-on ramp;
+   * default 4000 predicted periods). A run that reaches it unsettled ends with a warning.
+   */
+  readonly settleWithin?: number;
+  /** Where `settle-within=` was written, for that warning. */
+  readonly settleWithinSpan?: SourceSpan;
   /** The start-up run repeated with this many seeds (seed, seed + 1, …) for the start-up time's spread (default 1). */
   readonly seeds?: number;
   /** THD counts harmonics 2 … this order (default 30); see also `bandwidth`. */

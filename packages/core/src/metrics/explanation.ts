@@ -4,7 +4,22 @@ import { formatPercent, formatQuantity, formatRate } from "./format.js";
 import type { StartupSettings } from "./startup-options.js";
 import type { SteadyReason } from "./oscillation-kind.js";
 import { MIN_CYCLES, SILENT_RATIO } from "./verdict.js";
-import type { SilentReason, SteadyMeasure, TrendReason } from "./verdict.js";
+import type { BouncingReason, SilentReason, SteadyMeasure, TrendReason } from "./verdict.js";
+
+/** The bounce figures a line may quote. */
+interface Bounce {
+  readonly bounceFrequency: number | null;
+  readonly dampingRatio: number | null;
+}
+
+/** ζ to three decimals, without a "−0.000". */
+export function dampingText(zeta: number): string {
+  return (Math.abs(zeta) < 5e-4 ? 0 : zeta).toFixed(3);
+}
+
+function bounceText(b: Bounce): string {
+  return b.bounceFrequency === null ? "" : ` at ${formatQuantity(b.bounceFrequency, "Hz")} (damping ratio ${dampingText(b.dampingRatio!)})`;
+}
 
 // One line per verdict for the report; numbers with SI prefixes, changes per cycle in percent.
 
@@ -70,7 +85,26 @@ export function explainDecaying(trend: TailTrend, growthRate: number | null): st
   );
 }
 
-export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend: TailTrend, settings: StartupSettings): string {
+export function explainBouncing(reason: BouncingReason, b: Bounce): string {
+  if (reason.kind === "collapses") {
+    const times = reason.count === 1 ? "once" : `${reason.count} times`;
+    return `the amplitude loop is unstable: the envelope collapsed and restarted ${times}${b.bounceFrequency === null ? "" : `; it bounces${bounceText(b)}`}`;
+  }
+  return `the amplitude loop is unstable: the envelope bounces${bounceText(b)} and does not die away`;
+}
+
+export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend: TailTrend, settings: StartupSettings, b?: Bounce, extraTime?: number): string {
+  if (reason.kind === "recovering") {
+    return `the envelope fell after its peak and grew again ${reason.rise.toFixed(1)}× from its lowest: the amplitude loop is recovering from its overshoot; run longer`;
+  }
+  if (reason.kind === "loop-moving") {
+    const how = b?.bounceFrequency ? `still bounces${bounceText(b)}` : "still creeps";
+    const longer = extraTime === undefined ? "run longer" : `run about ${formatQuantity(extraTime, "s")} longer`;
+    return (
+      `steady from cycle to cycle, but the amplitude loop has not settled: the envelope ${how} and would still move by ` +
+      `${formatPercent(reason.remaining)} (settled needs under ${formatPercent(settings.settleTolerance)}); ${longer}`
+    );
+  }
   if (reason.kind === "too-short-to-judge") {
     return `only ${cycles.count} cycles: too few to judge settling (need ${settings.settleCycles + 1}); run longer`;
   }

@@ -3,7 +3,8 @@ import { findRisingCrossings } from "./crossings.js";
 import { cyclesBetween } from "./cycles.js";
 import type { CycleTable } from "./cycles.js";
 import { startupMoment } from "./excursion.js";
-import { explainDecaying, explainGrowing, explainOther, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
+import type { EnvelopeFit } from "./envelope-fit.js";
+import { explainBouncing, explainDecaying, explainGrowing, explainOther, explainSettled, explainSilent, explainUnsettled } from "./explanation.js";
 import { startupGrowthRate } from "./growth-rate.js";
 import { analyseCycles } from "./harmonic-analysis.js";
 import { steadyKind } from "./oscillation-kind.js";
@@ -15,6 +16,7 @@ import { settlingTime } from "./settling.js";
 import type { Harmonic } from "./spectrum.js";
 import { resolveStartupOptions } from "./startup-options.js";
 import type { StartupMetricsOptions, StartupSettings } from "./startup-options.js";
+import { judgeLoop } from "./loop-verdict.js";
 import { judgeEnvelope } from "./verdict.js";
 import type { StartupVerdict } from "./verdict.js";
 import { checkWaveform } from "./waveform-check.js";
@@ -58,8 +60,24 @@ export interface StartupMetrics {
   readonly cycles: number;
   /** s: roughly how much longer to run a `growing` record before it can settle. */
   readonly suggestedExtraTime?: number;
-  /** Per-cycle envelope against cycle mid-time, for plots. */
-  readonly envelope: { readonly time: Float64Array; readonly value: Float64Array };
+  /** Per-cycle envelope against cycle mid-time (for plots), and its slow dynamics. */
+  readonly envelope: StartupEnvelope;
+}
+
+/**
+ * The per-cycle envelope and the fit of its slow dynamics after it first reached its final level
+ * (see `judgeLoop`): the bounce's frequency and damping ratio, null when it settles without
+ * bouncing (or is too short, or lost in its noise).
+ */
+export interface StartupEnvelope {
+  readonly time: Float64Array;
+  readonly value: Float64Array;
+  /** Hz: the damped frequency ω_d/2π of the envelope's own oscillation (the amplitude loop's bounce). */
+  readonly bounceFrequency: number | null;
+  /** ζ = σ/√(σ² + ω_d²) of that bounce; negative when it grows. */
+  readonly dampingRatio: number | null;
+  /** The fitted model (a bounce or a creep about the final level), for plots; null without one. */
+  readonly fit: EnvelopeFit | null;
 }
 
 /** Fraction of the settled amplitude that marks start-up. */
@@ -152,8 +170,16 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   const settings = resolveStartupOptions(options);
   const tail = lastHalfStatistics(t, v);
   const cycles = measuredCycles(t, v, tail, hysteresisFor(v, tail, settings), settings.settleCycles);
-  const judgement = judgeEnvelope(cycles, settings);
-  const envelope = { time: cycles.midTime, value: cycles.envelope };
+  const loop = judgeLoop(cycles, judgeEnvelope(cycles, settings), settings);
+  const judgement = loop.judgement;
+  const d = loop.dynamics;
+  const envelope: StartupEnvelope = {
+    time: cycles.midTime,
+    value: cycles.envelope,
+    bounceFrequency: d?.bounceFrequency ?? null,
+    dampingRatio: d?.dampingRatio ?? null,
+    fit: d?.fit ?? null,
+  };
   const n = cycles.count;
 
   if (judgement.verdict === "silent") {
@@ -221,7 +247,11 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       explanation = explainDecaying(trend, growthRate);
       break;
     case "unsettled":
-      explanation = explainUnsettled(cycles, judgement.reason, trend, settings);
+      suggestedExtraTime = loop.extraTime;
+      explanation = explainUnsettled(cycles, judgement.reason, trend, settings, envelope, suggestedExtraTime);
+      break;
+    case "bouncing":
+      explanation = explainBouncing(judgement.reason, envelope);
       break;
   }
 

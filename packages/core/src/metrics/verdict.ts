@@ -3,8 +3,11 @@ import { tailTrend } from "./envelope-trend.js";
 import type { TailTrend } from "./envelope-trend.js";
 import type { StartupSettings } from "./startup-options.js";
 
-/** What the per-cycle envelope alone shows. */
-export type EnvelopeVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled";
+/**
+ * What the per-cycle envelope alone shows; `bouncing`: its own slow oscillation never settles,
+ * or it collapses and restarts (an unstable amplitude loop, see `judgeLoop`).
+ */
+export type EnvelopeVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled" | "bouncing";
 
 /**
  * What the start-up record shows: the envelope's verdict, with a steady oscillation told apart
@@ -31,14 +34,22 @@ export type SilentReason =
 
 /**
  * Why an oscillating record got its verdict: its trend; for `unsettled`, also too few cycles to
- * judge settling, or a steady fall after the envelope's peak that is not a decay (the recovery
- * from an overshoot).
+ * judge settling, a steady fall after the envelope's peak that is not a decay (the recovery
+ * from an overshoot), a drifting mean, or an envelope steady from cycle to cycle whose slow
+ * dynamics (a bounce, a creep) would still move it by `remaining` (relative) — the amplitude
+ * loop has not settled — or one that fell after its peak and grew again by the factor `rise`
+ * (recovering from an overshoot that nearly killed it).
  */
 export type TrendReason =
   | { readonly kind: "trend" }
   | { readonly kind: "too-short-to-judge" }
   | { readonly kind: "relaxing" }
-  | { readonly kind: "drifting"; readonly largest: number };
+  | { readonly kind: "drifting"; readonly largest: number }
+  | { readonly kind: "loop-moving"; readonly remaining: number }
+  | { readonly kind: "recovering"; readonly rise: number };
+
+/** Why a record is `bouncing`: its envelope collapsed and restarted, or its bounce does not die away. */
+export type BouncingReason = { readonly kind: "collapses"; readonly count: number } | { readonly kind: "sustained" };
 
 /**
  * The largest change of the per-cycle mean between neighbouring cycles over the last `changes`
@@ -58,7 +69,8 @@ export function meanDrift(cycles: CycleTable, changes: number): number {
  */
 export type Judgement =
   | { readonly verdict: "silent"; readonly reason: SilentReason; readonly trend: TailTrend | null }
-  | { readonly verdict: Exclude<EnvelopeVerdict, "silent">; readonly reason: TrendReason; readonly trend: TailTrend; readonly steadyOn?: SteadyMeasure };
+  | { readonly verdict: "bouncing"; readonly reason: BouncingReason; readonly trend: TailTrend }
+  | { readonly verdict: Exclude<EnvelopeVerdict, "silent" | "bouncing">; readonly reason: TrendReason; readonly trend: TailTrend; readonly steadyOn?: SteadyMeasure };
 
 /**
  * The per-cycle measure a settled record was steady on: its peaks (`envelope`), or its power

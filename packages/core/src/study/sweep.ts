@@ -66,11 +66,11 @@ export function sweepValues(s: SweepAnalysis): number[] {
 
 /**
  * An oscillating verdict: it settled (as the predicted sine, a relaxation or a parasitic
- * oscillation), is still growing, or oscillates without settling. Silent, decaying and latched
+ * oscillation), is still growing, or oscillates without settling (also with a bouncing envelope). Silent, decaying and latched
  * records do not oscillate.
  */
 export function oscillates(verdict: StartupVerdict): boolean {
-  return verdict === "settled" || verdict === "relaxation" || verdict === "parasitic" || verdict === "growing" || verdict === "unsettled";
+  return verdict === "settled" || verdict === "relaxation" || verdict === "parasitic" || verdict === "growing" || verdict === "unsettled" || verdict === "bouncing";
 }
 
 /** How a sweep runs: the run options of each setting, the nominal value, the bisection's precision and a progress callback. */

@@ -191,7 +191,7 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
   }
   const partStates = new Set(ctx.parts.flatMap((p) => Object.keys(partKinds[p.kind]?.states ?? {})));
-  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()), partStates };
+  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()), partStates, spans: Object.fromEntries([...o.given].map(([key, node]) => [key, spanIn(a, node.value.span)])) };
   return withSpan(analysisModel(stmt.analysis)!.build(values, checksOn(ctx, a, o)), span);
 }
 

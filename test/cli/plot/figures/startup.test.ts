@@ -50,6 +50,31 @@ describe("startupFigure(input)", () => {
     expect(bare.panels).toHaveLength(1);
     expect(bare.panels[0]?.markers).toEqual([]);
   });
+
+  it("draws the envelope's bounce in a panel of its own, the fit beside the envelope and its first two peaks marked one bounce apart", () => {
+    // A fitted envelope 2·(1 + 0.3·e^(−20t)·cos(2π·5t)): its maxima above the level lie where
+    // tan(2π·5t) = −20/(2π·5), one bounce period 0.2 s apart (mathematics).
+    const fitTime = Float64Array.from({ length: 4001 }, (_, i) => i * 2.5e-4);
+    const fitValues = fitTime.map((t) => 2 * (1 + 0.3 * Math.exp(-20 * t) * Math.cos(2 * Math.PI * 5 * t)));
+    const withBounce = startupFigure({
+      title: "bounce",
+      time,
+      probe: { name: "out", unit: "V", values },
+      envelope: { time: fitTime, values: fitValues },
+      bounce: { frequency: 5, dampingRatio: 0.5370, fit: { time: fitTime, values: fitValues } },
+    });
+    expect(withBounce.panels).toHaveLength(2);
+    const panel = withBounce.panels[1]!;
+    expect(panel.title).toBe("envelope: bounce 5 Hz, \u03b6 0.537");
+    expect(panel.series.map((x) => x.name)).toEqual(["envelope", "fitted decaying oscillation"]);
+    const first = (2 * Math.PI - Math.atan(20 / (2 * Math.PI * 5))) / (2 * Math.PI * 5);
+    const [a, b] = panel.markers!;
+    expect(Math.abs(a!.x - first)).toBeLessThan(3e-4);
+    expect(Math.abs(b!.x - a!.x - 0.2)).toBeLessThan(5e-4);
+    expect(a!.label).toBe("bounce 5 Hz, \u03b6 0.537");
+    const svg = parseSvg(renderFigure(withBounce));
+    expect(byClass(byClass(svg, "panel")[1]!, "marker-label").map((m) => m.text)).toEqual(["bounce 5 Hz, \u03b6 0.537", "one bounce later"]);
+  });
 });
 
 describe("startupFigure: the settled cycles and the envelope in dB", () => {

@@ -28,6 +28,17 @@ export interface StartupPlot {
   readonly growthRate?: number;
   /** How far the settled amplitude may be off numerically: the spectrum marks the floor it sets. */
   readonly amplitudeError?: number;
+  /** The envelope's bounce: drawn in a panel of its own with the fitted decaying oscillation. */
+  readonly bounce?: EnvelopeBounce;
+}
+
+/** The envelope's own oscillation as fitted: frequency, damping and the fitted curve. */
+export interface EnvelopeBounce {
+  /** Hz. */
+  readonly frequency: number;
+  readonly dampingRatio: number;
+  /** The fitted envelope (peak, from `offset`) at the given times. */
+  readonly fit: { readonly time: ArrayLike<number>; readonly values: ArrayLike<number> };
 }
 
 /** Settled cycles the close-up panel shows. */
@@ -56,6 +67,38 @@ function finiteCount(values: ArrayLike<number>): number {
   let n = 0;
   for (let i = 0; i < values.length; i += 1) if (Number.isFinite(values[i] as number)) n += 1;
   return n;
+}
+
+/** The times of the fitted curve's first two maxima above its last value: one bounce apart. */
+function bouncePeaks(fit: EnvelopeBounce["fit"]): number[] {
+  const n = Math.min(fit.time.length, fit.values.length);
+  const level = fit.values[n - 1] as number;
+  const peaks: number[] = [];
+  for (let i = 1; i + 1 < n && peaks.length < 2; i++) {
+    const v = fit.values[i] as number;
+    if (v > level && v >= (fit.values[i - 1] as number) && v > (fit.values[i + 1] as number)) peaks.push(fit.time[i] as number);
+  }
+  return peaks;
+}
+
+// The envelope alone at its own scale, with the fitted bounce and its first two peaks marked.
+function bouncePanel(envelope: NonNullable<StartupPlot["envelope"]>, bounce: EnvelopeBounce, unit: string, quantity: string): Panel {
+  const zeta = Math.abs(bounce.dampingRatio) < 5e-4 ? 0 : bounce.dampingRatio;
+  const label = `bounce ${formatSI(bounce.frequency, "Hz", 4)}, \u03b6 ${zeta.toFixed(3)}`;
+  const markers: Marker[] = bouncePeaks(bounce.fit).map((x, k) => ({ x, label: k === 0 ? label : "one bounce later" }));
+  return {
+    title: `envelope: ${label}`,
+    xLabel: "time",
+    xUnit: "s",
+    yLabel: `${quantity} envelope`,
+    yUnit: unit,
+    series: [
+      { name: "envelope", x: envelope.time, y: envelope.values, style: "line", tone: 1 },
+      { name: "fitted decaying oscillation", x: bounce.fit.time, y: bounce.fit.values, style: "dashed", tone: 2 },
+    ],
+    markers,
+    height: 320,
+  };
 }
 
 function timeMarkers(input: StartupPlot): Marker[] {
@@ -129,22 +172,24 @@ export function envelopeDbPanel(input: StartupPlot): Panel | null {
 }
 
 /** The panels of a start-up: whole run, last cycles, envelope in dB, spectrum (those that apply). */
-export function startupPanels(input: StartupPlot): { waveform: Panel; lastCycles: Panel | null; envelopeDb: Panel | null; spectrum: Panel | null } {
+export function startupPanels(input: StartupPlot): { waveform: Panel; lastCycles: Panel | null; envelopeDb: Panel | null; bounce: Panel | null; spectrum: Panel | null } {
   return {
     waveform: waveformPanel(input),
     lastCycles: lastCyclesPanel(input),
     envelopeDb: envelopeDbPanel(input),
+    bounce: input.bounce !== undefined && input.envelope !== undefined ? bouncePanel(input.envelope, input.bounce, input.probe.unit, quantityOf(input.probe.unit)) : null,
     spectrum: input.harmonics !== undefined && input.harmonics.length > 0 ? spectrumPanel(input.harmonics, input.thd, input.amplitudeError) : null,
   };
 }
 
 /**
  * The start-up plot: the whole run (waveform, ± envelope, start-up and settling marked) with
- * its last cycles beside it, then the envelope in dB and the spectrum of the settled waveform.
+ * its last cycles beside it, then the envelope in dB, the envelope's bounce when it has one
+ * (the fitted decaying oscillation, its first two peaks marked) and the spectrum.
  */
 export function startupFigure(input: StartupPlot): Figure {
   const p = startupPanels(input);
-  const panels = [p.waveform, p.lastCycles, p.envelopeDb, p.spectrum].filter((x): x is Panel => x !== null);
+  const panels = [p.waveform, p.lastCycles, p.envelopeDb, p.bounce, p.spectrum].filter((x): x is Panel => x !== null);
   if (panels.length === 1) return { title: input.title, panels };
   return { title: input.title, panels, columns: 2, width: 1400, panelHeight: 420 };
 }

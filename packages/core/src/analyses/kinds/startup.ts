@@ -10,6 +10,7 @@ import { runStartup, type StartupResult } from "../startup.js";
 const options: AnalysisOptions = {
   probe: { type: "probe", required: true, summary: "probe the oscillation is measured on" },
   until: { type: "number", unit: "s", min: 0, minExclusive: true, words: ["auto"], summary: "end time, or auto" },
+  "settle-within": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "until=auto: the longest the run may go before it must have settled (default 4000 predicted periods)" },
   "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
   kick: { type: "word", words: ["thermal", "power-on", "noise", "none"], summary: "start-up excitation: thermal noise, power-on ramp with thermal noise, an injected noise current, or none" },
   temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature in °C of the resistances (their noise under kick=thermal and power-on) and the ambient of lamps and thermistors" },
@@ -45,6 +46,10 @@ export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
       if (key === "temperature" && o.partStates?.has("temperature")) continue;
       checks.warn(key, "key", "unused-option", `${key}= has no effect with kick=${kick}`, `${key}= is the ${options[key]!.summary}; it acts with kick=${kicks.join(" or kick=")}`);
     }
+    const until = o.words.until === "auto" ? "auto" : (o.numbers.until ?? "auto");
+    if (o.written.has("settle-within") && until !== "auto") {
+      checks.warn("settle-within", "key", "unused-option", "settle-within= has no effect with a fixed until=", "settle-within= bounds until=auto; with until= a time, the run stops there");
+    }
     if (o.written.has("bandwidth") && o.written.has("harmonics")) {
       checks.fail("bandwidth", "key", "conflicting-options", "startup takes harmonics= or bandwidth=, not both", "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency");
     }
@@ -52,7 +57,8 @@ export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
     return {
       kind: "startup",
       probe: o.probes.probe!,
-      until: o.words.until === "auto" ? "auto" : (n.until ?? "auto"),
+      until,
+      ...(n["settle-within"] === undefined ? {} : { settleWithin: n["settle-within"], ...(o.spans?.["settle-within"] ? { settleWithinSpan: o.spans["settle-within"] } : {}) }),
       ...(n["max-step"] === undefined ? {} : { maxStep: n["max-step"] }),
       kick,
       ...(n.level === undefined ? {} : { level: n.level }),

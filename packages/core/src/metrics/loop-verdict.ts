@@ -1,0 +1,76 @@
+import { collapsesAndRestarts } from "./collapses.js";
+import type { CycleTable } from "./cycles.js";
+import { envelopeDynamics, type EnvelopeDynamics } from "./envelope-dynamics.js";
+import type { StartupSettings } from "./startup-options.js";
+import { SILENT_RATIO, type Judgement } from "./verdict.js";
+
+/** Collapses and restarts that make a record `bouncing` (one may be a slow loop's start-up, which then settles). */
+const COLLAPSES_TO_BOUNCE = 2;
+/** A falling record that grew again by this factor after its peak is recovering, not decaying. */
+const RECOVERY_RISE = 2;
+
+/** The largest rise of the envelope, as a ratio, from a minimum after its largest value to a later value. */
+function riseAfterPeak(e: Float64Array): number {
+  let peak = 0;
+  for (let k = 1; k < e.length; k++) if (e[k] > e[peak]) peak = k;
+  let low = Infinity;
+  let rise = 1;
+  for (let k = peak + 1; k < e.length; k++) {
+    low = Math.min(low, e[k]);
+    if (low > 0) rise = Math.max(rise, e[k] / low);
+  }
+  return rise;
+}
+
+/** The envelope's slow dynamics and the verdict they lead to. */
+export interface LoopJudgement {
+  readonly judgement: Judgement;
+  readonly dynamics: EnvelopeDynamics | null;
+  /** s: how much longer the slow dynamics need to die away within the tolerance, when known. */
+  readonly extraTime?: number;
+}
+
+/**
+ * The amplitude loop's verdict on top of the cycle-to-cycle one (`judgeEnvelope`): an envelope
+ * can be steady from one cycle to the next while its own slow dynamics — a bounce over hundreds
+ * of cycles, a creep with a long time constant — still move it. The envelope (or, when the
+ * record was steady on it, the per-cycle strength) from its first reaching the final level is
+ * fitted (`envelopeDynamics`); then
+ * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
+ *    above `settleTolerance` (relative);
+ * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
+ *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
+ *    fitted mode needs to bring that within the tolerance.
+ * A `decaying` record that grew again by {@link RECOVERY_RISE} after its peak is `unsettled`
+ * (`recovering`): a slow loop's overshoot nearly killed it and it is coming back. Silent records
+ * are left as they are.
+ */
+export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: StartupSettings): LoopJudgement {
+  if (judgement.verdict === "decaying") {
+    const rise = riseAfterPeak(cycles.envelope);
+    if (rise < RECOVERY_RISE) return { judgement, dynamics: null };
+    return { judgement: { verdict: "unsettled", reason: { kind: "recovering", rise }, trend: judgement.trend }, dynamics: null };
+  }
+  if (judgement.verdict === "silent" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
+  const n = cycles.count;
+  const measure = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
+  const w = Math.min(settings.settleCycles, n);
+  let level = 0;
+  for (let k = n - w; k < n; k++) level += measure[k] / w;
+  const dynamics = envelopeDynamics(cycles.midTime, measure, level);
+  const collapses = collapsesAndRestarts(cycles, SILENT_RATIO * settings.noiseFloor);
+  const { trend } = judgement;
+  if (collapses >= COLLAPSES_TO_BOUNCE) {
+    return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
+  }
+  if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };
+  if (judgement.verdict !== "settled" || !(dynamics.remaining > settings.settleTolerance)) return { judgement, dynamics };
+  const rate = dynamics.slowestRate;
+  const period = (cycles.start[n] - cycles.start[n - w]) / w;
+  const extraTime = rate !== null && rate > 0 ? Math.log(dynamics.remaining / settings.settleTolerance) / rate + settings.settleCycles * period : undefined;
+  return {
+    judgement: { verdict: "unsettled", reason: { kind: "loop-moving", remaining: dynamics.remaining }, trend },
+    dynamics,
+    ...(extraTime === undefined ? {} : { extraTime }),
+  };
+}
