@@ -7,7 +7,7 @@ import { percent, perSecond, si, withBar as figureWithBar } from "../report/valu
 import { tag, textTag } from "./markup.js";
 import { dataTable, field, list, num, pairsTable, str, type Cell } from "./tables.js";
 
-const VERDICT_TONE: Readonly<Record<string, string>> = { settled: "good", relaxation: "warn", parasitic: "warn", growing: "warn", unsettled: "warn", latched: "bad", decaying: "bad", silent: "bad" };
+const VERDICT_TONE: Readonly<Record<string, string>> = { settled: "good", bouncing: "bad", relaxation: "warn", parasitic: "warn", growing: "warn", unsettled: "warn", latched: "bad", decaying: "bad", silent: "bad" };
 
 /** A verdict as a badge coloured by how good it is. */
 export function verdictBadge(verdict: string): string {
