@@ -23,6 +23,7 @@ import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
+import { refuseShortWindow } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
@@ -174,6 +175,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     }
   }
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+  refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
+  if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);
   const time = new GrowableSeries(4096);

@@ -100,10 +100,12 @@ export function defaultMaxStep(until: number): number {
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
   const budget = budgetOf(options);
   budget.refuseLength(analysis.until, "the transient", analysis.span);
+  const maxStep = analysis.maxStep ?? defaultMaxStep(analysis.until);
+  budget.refuseSteps(analysis.until, maxStep, "the transient", analysis.span);
   const system = buildSystem(circuit, options.extraParts);
   const stepper = new TransientStepper(system, {
     start: analysis.start,
-    maxStep: analysis.maxStep ?? defaultMaxStep(analysis.until),
+    maxStep,
     tolerances: options.tolerances,
   });
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);

@@ -57,6 +57,8 @@ export interface TransientAnalysis {
   /** Empty means every node. */
   readonly probes: readonly Probe[];
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /**
@@ -94,6 +96,8 @@ export interface StartupAnalysis {
   /** Absolute accuracy floor of a voltage (V; default 1 µV; currents 1 nA per µV, temperatures 0.1 mK per µV). */
   readonly accuracyFloor?: number;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** `response`: the small-signal transfer from a source to a probe at the bias point, over a log frequency sweep (Hz). */
@@ -125,6 +129,8 @@ export interface SweepAnalysis {
   readonly step?: number;
   readonly log: boolean;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** `tolerance`: a Monte Carlo study of `runs` samples drawing every `±` tolerance from its distribution with `seed`. */
@@ -134,6 +140,8 @@ export interface ToleranceAnalysis {
   readonly seed: number;
   readonly dist: "normal" | "uniform";
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** Which startup metric (or the yield) a criterion reads. */

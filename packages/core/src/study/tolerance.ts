@@ -2,6 +2,8 @@ import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from ".
 import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
+import { startupAnalysisOf } from "./sample.js";
+import { nothingToMeasure } from "./study-size.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
@@ -79,6 +81,7 @@ export async function runToleranceStudy(
     throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
   }
   const budget = budgetOf(options);
+  budget.refuseStudy("maxRuns", analysis.runs, `the tolerance study draws ${analysis.runs} runs`, analysis.optionSpans?.runs ?? analysis.span);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
   const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}) };
@@ -93,6 +96,7 @@ export async function runToleranceStudy(
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
+      if (!startupAnalysisOf(circuit)) throw nothingToMeasure(analysis);
       const outcome = await pool.run({ kind: "sample", circuit, settings });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);

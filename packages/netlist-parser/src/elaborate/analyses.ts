@@ -180,8 +180,11 @@ function readOptions(ctx: Elaboration, l: Located<AnalysisStatement>, globals: S
   return out;
 }
 
-function withSpan<T extends object>(spec: T, span: SourceSpan): T & { span: SourceSpan } {
-  return { ...spec, span };
+function withSpan<T extends object>(spec: T, span: SourceSpan, l?: Located<AnalysisStatement>, o?: Parsed): T & { span: SourceSpan } {
+  if (!l || !o || o.given.size === 0) return { ...spec, span };
+  const optionSpans: Record<string, SourceSpan> = {};
+  for (const [key, arg] of o.given) optionSpans[key] = spanIn(l, arg.value.span);
+  return { ...spec, span, optionSpans };
 }
 
 /** Elaborates one analysis statement into its AnalysisSpec. */
@@ -206,6 +209,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
           probes: o.probes.probes ?? [],
         },
         span,
+        a,
+        o,
       );
     }
     case "startup": {
@@ -236,6 +241,8 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
           ...(o.num["accuracy-floor"] === undefined ? {} : { accuracyFloor: o.num["accuracy-floor"] }),
         },
         span,
+        a,
+        o,
       );
     }
     case "response": {
@@ -258,7 +265,7 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
     }
     case "tolerance": {
       const o = readOptions(ctx, a, globals, () => undefined);
-      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform" }, span);
+      return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform" }, span, a, o);
     }
     case "sweep":
       return sweep(ctx, a, globals, span);
@@ -308,16 +315,20 @@ function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, 
     const hint = info.summary === undefined ? undefined : `${target.name} is the ${info.summary}`;
     if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span), hint);
   }
-  return {
-    kind: "sweep",
-    target: target.name,
-    from: from!,
-    to: to!,
-    ...(steps === undefined ? {} : { steps }),
-    ...(step === undefined ? {} : { step }),
-    log,
+  return withSpan(
+    {
+      kind: "sweep" as const,
+      target: target.name,
+      from: from!,
+      to: to!,
+      ...(steps === undefined ? {} : { steps }),
+      ...(step === undefined ? {} : { step }),
+      log,
+    },
     span,
-  };
+    l,
+    o,
+  );
 }
 
 function criterion(ctx: Elaboration, l: Located<SpecStatement>, c: CriterionNode, globals: Scope): SpecCriterion {
