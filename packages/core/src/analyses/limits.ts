@@ -54,9 +54,9 @@ export interface RunLimits {
    */
   readonly maxStudyRuns?: number;
   /**
-   * Time points a transient keeps of its waveforms; a longer run keeps every 2nd, 4th, …
-   * accepted step, so memory stays within this whatever the run's length.
-   * @defaultValue 200 000
+   * Values a transient keeps of its waveforms (time points × (probes + 1)); a longer run keeps
+   * every 2nd, 4th, … accepted step, so memory stays within this whatever the run's length.
+   * @defaultValue 2 000 000 (16 MB)
    */
   readonly maxStoredPoints?: number;
 }
@@ -67,7 +67,7 @@ export const RUN_LIMITS = {
   maxSweepPoints: 10_000,
   maxRuns: 100_000,
   maxStudyRuns: 1_000_000,
-  maxStoredPoints: 200_000,
+  maxStoredPoints: 2_000_000,
 } as const;
 
 /** The command-line name of each limit (`--limit NAME=VALUE`; the wall time is `--time-limit`). */
