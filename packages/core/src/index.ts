@@ -67,6 +67,8 @@ export type { ProgressListener, RunOptions, Signal, TransientResult } from "./an
 export { probeUnit } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
+export type { ImplausiblePart } from "./analyses/operating-check.js";
+export { IMPLAUSIBLE_CURRENT, IMPLAUSIBLE_JUNCTION_VOLTAGE } from "./analyses/operating-check.js";
 export { runPoles, startsFrom } from "./analyses/poles.js";
 export type { Pole, PolesResult } from "./analyses/poles.js";
 export { RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";

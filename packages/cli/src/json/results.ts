@@ -86,7 +86,14 @@ export function resultsJson(runs: readonly AnalysisRun[]): Json[] {
   return runs.map(({ result: r }) => {
     switch (r.analysis) {
       case "bias":
-        return { analysis: "bias", nodes: r.nodes.map((n) => ({ ...n })), sources: r.sources.map((s) => ({ ...s })), method: r.method, iterations: r.iterations };
+        return {
+          analysis: "bias",
+          nodes: r.nodes.map((n) => ({ ...n })),
+          sources: r.sources.map((s) => ({ ...s })),
+          method: r.method,
+          iterations: r.iterations,
+          ...(r.warnings ? { warnings: r.warnings.map((w) => ({ code: w.diagnostic.code, part: w.part, message: w.diagnostic.message })) } : {}),
+        };
       case "transient":
         return transientJson(r);
       case "startup":
