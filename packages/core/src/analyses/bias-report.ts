@@ -1,3 +1,4 @@
+import { checkCircuit, checkOptions } from "../circuit/arguments.js";
 import type { BiasAnalysis, Circuit } from "../circuit/circuit.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem } from "../solver/system.js";
@@ -22,6 +23,8 @@ export interface BiasResult {
 
 /** Runs a `bias` analysis: the DC operating point with node voltages and source currents. */
 export function runBias(circuit: Circuit, _analysis: BiasAnalysis, options: RunOptions = {}): BiasResult {
+  checkCircuit("runBias", circuit);
+  checkOptions("runBias", options);
   budgetOf(options).check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));

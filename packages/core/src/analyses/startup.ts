@@ -1,3 +1,4 @@
+import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
 import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import type { Diagnostic } from "../circuit/diagnostic.js";
@@ -146,6 +147,11 @@ function corner(at: number): SourceTerm {
  * outcome's class.
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
+  checkCircuit("runStartup", circuit);
+  checkAnalysis("runStartup", analysis, "startup");
+  if (analysis.until !== "auto") checkSeconds("runStartup", "until", analysis.until);
+  checkSeconds("runStartup", "maxStep", analysis.maxStep, true);
+  checkOptions("runStartup", options);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const kick = analysis.kick ?? DEFAULT_KICK;
   const budget = budgetOf(options);

@@ -1,3 +1,5 @@
+import { badArgument } from "../circuit/arguments.js";
+
 /**
  * A record of time points and several signals that never holds more than `capacity` points:
  * when full it keeps every other point and from then on records every 2nd accepted step (then
@@ -24,7 +26,7 @@ export class ThinnedRecord {
     signals: number,
     readonly capacity: number,
   ) {
-    if (!(Number.isSafeInteger(capacity) || capacity === Infinity) || capacity < 4) throw new RangeError(`ThinnedRecord: capacity must be a whole number ≥ 4, got ${capacity}`);
+    if (!(Number.isSafeInteger(capacity) || capacity === Infinity) || capacity < 4) throw badArgument(`ThinnedRecord: capacity must be a whole number ≥ 4, got ${capacity}`);
     const start = Math.min(1024, capacity);
     this.time = new Float64Array(start);
     this.series = Array.from({ length: signals }, () => new Float64Array(start));

@@ -1,3 +1,4 @@
+import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
 import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
@@ -124,6 +125,11 @@ export function defaultMaxStep(until: number): number {
 
 /** Runs a `transient` analysis on a circuit. */
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
+  checkCircuit("runTransient", circuit);
+  checkAnalysis("runTransient", analysis, "transient");
+  checkSeconds("runTransient", "until", analysis.until);
+  checkSeconds("runTransient", "maxStep", analysis.maxStep, true);
+  checkOptions("runTransient", options);
   const budget = budgetOf(options);
   budget.refuseLength(analysis.until, "the transient", analysis.span);
   const maxStep = analysis.maxStep ?? defaultMaxStep(analysis.until);

@@ -1,3 +1,4 @@
+import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
 import type { Circuit, SweepAnalysis } from "../circuit/circuit.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
 import { runStartup, type StartupResult } from "../analyses/startup.js";
@@ -42,6 +43,7 @@ export interface SweepResult {
  * found before anything is allocated.
  */
 export function sweepValues(s: SweepAnalysis, maxPoints: number = RUN_LIMITS.maxSweepPoints): number[] {
+  checkAnalysis("sweepValues", s, "sweep");
   const count = sweepCount(s);
   new RunBudget({ maxSweepPoints: maxPoints }).refuseStudy("maxSweepPoints", count, `the sweep of ${s.target} visits ${count} settings`, stepsSpan(s));
   if (s.steps !== undefined) {
@@ -82,6 +84,9 @@ function firstStartup(run: CircuitRun): StartupResult | undefined {
  * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
  */
 export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: SweepOptions = {}): SweepResult {
+  if (typeof build !== "function") throw badArgument(`runSweep: build must be a function from overrides to a circuit, got ${describe(build)}`);
+  checkAnalysis("runSweep", analysis, "sweep");
+  checkOptions("runSweep", given);
   // One budget for every setting and the bisection: the wall time counts from here.
   const options = { ...given, budget: budgetOf(given) };
   const values = sweepValues(analysis, options.budget.maxSweepPoints);

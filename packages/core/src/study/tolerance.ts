@@ -1,3 +1,4 @@
+import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
 import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
@@ -77,6 +78,11 @@ export async function runToleranceStudy(
   criteria: readonly SpecCriterion[],
   options: ToleranceStudyOptions = {},
 ): Promise<ToleranceSample[]> {
+  if (typeof build !== "function") throw badArgument(`runToleranceStudy: build must be a function from overrides to a circuit, got ${describe(build)}`);
+  if (!Array.isArray(tolerances)) throw badArgument(`runToleranceStudy: tolerances must be an array, got ${describe(tolerances)}`);
+  checkAnalysis("runToleranceStudy", analysis, "tolerance");
+  if (!Array.isArray(criteria)) throw badArgument(`runToleranceStudy: criteria must be an array, got ${describe(criteria)}`);
+  checkOptions("runToleranceStudy", options);
   if (!(Number.isInteger(analysis.runs) && analysis.runs > 0)) {
     throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
   }
