@@ -12,13 +12,13 @@ afterAll(() => ws.remove());
 const LONG = RC_STEP.replace("until=5m max-step=10u", "until=100 max-step=1u");
 
 describe("run limits", () => {
-  test("--limit steps=N stops a run at its Nth step, positioned at the analysis", async () => {
+  test("--limit steps=N refuses up front a run whose until= and max-step= need more steps, positioned at the analysis", async () => {
     ws.write("long.onset", LONG);
     const r = await ws.run(["run", "long.onset", "--limit", "steps=1000"]);
     expect(r.status).toBe(3);
     const lines = r.stderr.split("\n");
-    // 1000 steps of at most 1 µs: t just under 1 ms.
-    expect(lines[0]).toMatch(/^long\.onset:5:1: error: the transient reached the step limit of 1000 accepted steps at t = 0\.000(99\d*|1) s$/);
+    // 100 s in steps of at most 1 µs: 10⁸ steps at the least.
+    expect(lines[0]).toBe("long.onset:5:1: error: the transient until=100 s with max-step=0.000001 s needs at least 100 000 000 steps, more than the step limit of 1 000; it was not started");
     expect(lines.slice(1, 4)).toEqual([
       "  transient until=100 max-step=1u start=rest probes=(o, R1.i)",
       `  ^${"~".repeat("transient until=100 max-step=1u start=rest probes=(o, R1.i)".length - 1)}`,
@@ -34,7 +34,7 @@ describe("run limits", () => {
   });
 
   test("--time-limit stops a run that would take far longer (1e8 steps) with wall-time-limit", async () => {
-    const r = await ws.run(["run", "long.onset", "--time-limit", "300m"]);
+    const r = await ws.run(["run", "long.onset", "--time-limit", "300m", "--limit", "steps=inf"]);
     expect(r.status).toBe(3);
     expect(r.stderr).toMatch(/^long\.onset:5:1: error: the wall-time limit of 0\.3 s ran out during the transient at t = [\d.e-]+ s \([\d.]+ s spent\)\n/);
     expect(r.stderr).toContain("hint: raise the limit with --time-limit SECONDS (API: limits.maxWallTime)");
@@ -50,7 +50,7 @@ describe("run limits", () => {
 
   test("bad limits are usage errors naming the choices", async () => {
     const unknown = await ws.run(["run", "long.onset", "--limit", "stepz=10"]);
-    expect([unknown.status, unknown.stderr]).toEqual([2, "error: --limit: unknown limit 'stepz' (did you mean 'steps'?)\nhint: limits: source-size, include-depth, source-files, steps, simulated-time\n"]);
+    expect([unknown.status, unknown.stderr]).toEqual([2, "error: --limit: unknown limit 'stepz' (did you mean 'steps'?)\nhint: limits: source-size, include-depth, source-files, diagnostics, use-depth, parts, steps, simulated-time, sweep-points, runs, study-runs, stored-points\n"]);
     const time = await ws.run(["run", "long.onset", "--time-limit", "soon"]);
     expect([time.status, time.stderr]).toEqual([2, "error: --time-limit: 'soon' is not a time above 0\nhint: write seconds, for example 10, 500m or 2.5s\n"]);
     const count = await ws.run(["run", "long.onset", "--limit", "steps=-1"]);

@@ -143,7 +143,7 @@ tolerance runs=200 seed=5 dist=uniform
 spec frequency=1k±2% thd<0.5% startup<40m amplitude=3..5 yield>99%
 `);
     expect(checkProgram(program).filter((d) => d.severity === "error")).toEqual([]);
-    const strip = (x: unknown) => JSON.parse(JSON.stringify(x, (k, v) => (k === "span" ? undefined : v === Infinity ? "inf" : v)));
+    const strip = (x: unknown) => JSON.parse(JSON.stringify(x, (k, v) => (k === "span" || k === "optionSpans" ? undefined : v === Infinity ? "inf" : v)));
     expect(strip(circuit.analyses)).toEqual([
       { kind: "bias" },
       { kind: "transient", until: 20e-3, maxStep: 1e-6, start: "rest", probes: [{ kind: "node", node: "a" }, { kind: "difference", plus: "o", minus: "ref" }, { kind: "current", part: "R1" }] },

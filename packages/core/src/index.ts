@@ -55,7 +55,7 @@ export { DEFAULT_RAILS, opampConstants, opampPresets } from "./devices/opamp.js"
 export { THERMAL_VOLTAGE } from "./devices/diode.js";
 
 // Limits
-export { budgetOf, isRunLimitError, LIMIT_CODES, RunBudget, RunLimitError, runLimitError } from "./analyses/limits.js";
+export { budgetOf, isRunLimitError, LIMIT_CODES, RUN_LIMIT_FLAGS, RUN_LIMITS, RunBudget, RunLimitError, runLimitError } from "./analyses/limits.js";
 export type { BudgetOptions, LimitName, RunLimitRecord, RunLimits, SteppingRun, WorkerLimits } from "./analyses/limits.js";
 
 // Analyses
@@ -69,6 +69,8 @@ export type { ProgressListener, RunOptions, Signal, TransientResult } from "./an
 export { probeUnit } from "./analyses/probes.js";
 export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
+export type { ImplausiblePart } from "./analyses/operating-check.js";
+export { IMPLAUSIBLE_CURRENT, IMPLAUSIBLE_JUNCTION_VOLTAGE } from "./analyses/operating-check.js";
 export { runPoles, startsFrom } from "./analyses/poles.js";
 export type { Pole, PolesResult } from "./analyses/poles.js";
 export { RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
@@ -146,6 +148,8 @@ export type { ParallelRunOptions } from "./study/run-parallel.js";
 export { runToleranceStudy, shardIndices } from "./study/tolerance.js";
 export type { CircuitBuilder, Shard, ToleranceStudyOptions } from "./study/tolerance.js";
 export { oscillates, runSweep, sweepValues } from "./study/sweep.js";
+export { sweepCount } from "./study/sweep-count.js";
+export { refuseStudy } from "./study/study-size.js";
 export type { StartThreshold, SweepOptions, SweepPoint, SweepResult } from "./study/sweep.js";
 export { DEFAULT_REQUIRED_YIELD, requiredYield, runDesignWindow, widestPassingRange } from "./study/window.js";
 export type { DesignWindow, WindowPoint } from "./study/window.js";

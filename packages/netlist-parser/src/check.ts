@@ -3,6 +3,9 @@ import { hasErrors, problem } from "./errors.js";
 import { runElaboration } from "./elaborate/elaborate.js";
 import type { Overrides } from "./elaborate/context.js";
 import type { Program } from "./syntax.js";
+import { capPerFile } from "./diagnostic-cap.js";
+import { limitsOfProgram } from "./program-limits.js";
+import type { SourceLimits } from "./source-limits.js";
 
 /**
  * Everything `onset check` reports: elaboration errors, then (on a circuit that elaborates)
@@ -10,8 +13,8 @@ import type { Program } from "./syntax.js";
  * touched by one pin) and warnings (a node spelled like gnd, yield without
  * a tolerance analysis).
  */
-export function checkProgram(program: Program, options: { overrides?: Overrides } = {}): Diagnostic[] {
-  const { ctx, analyses } = runElaboration(program, options.overrides ?? {});
+export function checkProgram(program: Program, options: { overrides?: Overrides; limits?: SourceLimits } = {}): Diagnostic[] {
+  const { ctx, analyses } = runElaboration(program, options.overrides ?? {}, options.limits);
   const diagnostics = [...ctx.diagnostics];
   for (const node of ctx.nodes) {
     if (node !== GROUND && node.toLowerCase() === GROUND) {
@@ -46,5 +49,5 @@ export function checkProgram(program: Program, options: { overrides?: Overrides 
       diagnostics.push(e.diagnostic);
     }
   }
-  return diagnostics;
+  return capPerFile(diagnostics, limitsOfProgram(program, options.limits).maxDiagnostics);
 }

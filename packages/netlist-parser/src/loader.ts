@@ -1,5 +1,7 @@
 import { isOnsetError, type Diagnostic, type SourceSpan } from "@onset/core";
 import { problem } from "./errors.js";
+import { capPerFile } from "./diagnostic-cap.js";
+import { rememberLimits } from "./program-limits.js";
 import { parseText } from "./parser.js";
 import { exactSize, raiseHint, sourceLimits, tooLargeWords, utf8Length, type SourceLimits } from "./source-limits.js";
 import type { IncludeStatement, Program, Statement } from "./syntax.js";
@@ -127,5 +129,6 @@ export function loadProgram(file: string, text: string, resolver?: IncludeResolv
     return { program: empty.program, sources: new Map([[file, ""]]), diagnostics: [tooLarge(file, bytes, max.maxSourceBytes, { file, start: 0, end: 0 })] };
   }
   const program = load(file, text, []);
-  return { program, sources, diagnostics };
+  rememberLimits(program, max);
+  return { program, sources, diagnostics: capPerFile(diagnostics, max.maxDiagnostics) };
 }

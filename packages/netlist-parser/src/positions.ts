@@ -1,18 +1,33 @@
+/** The line starts of the text last asked about: reporting many problems in one file scans it once. */
+let indexed: { text: string; starts: Int32Array } | undefined;
+
+function lineStarts(text: string): Int32Array {
+  if (indexed?.text === text) return indexed.starts;
+  let count = 1;
+  for (let i = text.indexOf("\n"); i >= 0; i = text.indexOf("\n", i + 1)) count++;
+  const starts = new Int32Array(count);
+  let k = 1;
+  for (let i = text.indexOf("\n"); i >= 0; i = text.indexOf("\n", i + 1)) starts[k++] = i + 1;
+  indexed = { text, starts };
+  return starts;
+}
+
 /**
  * Line and column of an offset, 1-based; columns count code points, so `µ` and `Ω` are one
  * column each. Only called when a problem is reported: tokens and nodes keep plain offsets.
  */
 export function lineColumnAt(text: string, offset: number): { line: number; column: number } {
   const end = Math.max(0, Math.min(offset, text.length));
-  let line = 1;
-  let lineStart = 0;
-  for (let i = 0; i < end; i++) {
-    if (text.charCodeAt(i) === 10) {
-      line++;
-      lineStart = i + 1;
-    }
+  const starts = lineStarts(text);
+  // The last line start at or before `end` (binary search).
+  let lo = 0;
+  let hi = starts.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (starts[mid]! <= end) lo = mid;
+    else hi = mid - 1;
   }
-  return { line, column: codePointLength(text, lineStart, end) + 1 };
+  return { line: lo + 1, column: codePointLength(text, starts[lo]!, end) + 1 };
 }
 
 /** Offsets of the start and end (before the line break) of the line holding `offset`. */

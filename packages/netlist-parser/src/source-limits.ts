@@ -21,6 +21,21 @@ export interface SourceLimits {
    * @defaultValue 100
    */
   readonly maxSourceFiles?: number;
+  /**
+   * Problems reported per file; past it one more says how many were left out ("and N more").
+   * @defaultValue 100
+   */
+  readonly maxDiagnostics?: number;
+  /**
+   * How deep `use` lines nest: a block used at the top level is depth 1, a block it uses depth 2, ….
+   * @defaultValue 64
+   */
+  readonly maxUseDepth?: number;
+  /**
+   * Parts and instances of the flattened circuit, each instance's own counted.
+   * @defaultValue 250 000
+   */
+  readonly maxParts?: number;
 }
 
 /** The default {@link SourceLimits}. */
@@ -28,6 +43,9 @@ export const SOURCE_LIMITS: Readonly<Required<SourceLimits>> = {
   maxSourceBytes: 4_000_000,
   maxIncludeDepth: 16,
   maxSourceFiles: 100,
+  maxDiagnostics: 100,
+  maxUseDepth: 64,
+  maxParts: 250_000,
 };
 
 /** The command-line name of each source limit (`--limit source-size=10M`). */
@@ -35,6 +53,9 @@ export const SOURCE_LIMIT_FLAGS: Readonly<Record<keyof SourceLimits, string>> = 
   maxSourceBytes: "source-size",
   maxIncludeDepth: "include-depth",
   maxSourceFiles: "source-files",
+  maxDiagnostics: "diagnostics",
+  maxUseDepth: "use-depth",
+  maxParts: "parts",
 };
 
 /** How to raise a source limit, from the command line and the API. */

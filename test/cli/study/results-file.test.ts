@@ -35,7 +35,7 @@ describe("results files (JSON Lines)", () => {
     w.start(header, [sample(0)]);
     w.append(sample(2));
     w.close();
-    expect(readResults(path)).toEqual({ header, samples: [sample(0), sample(2)], truncated: null });
+    expect(readResults(path)).toEqual({ header, samples: [sample(0), sample(2)], lines: [2, 3], truncated: null });
   });
 
   test("a results file reached through a symlink is started afresh in the real file; the link stays", () => {
@@ -46,7 +46,7 @@ describe("results files (JSON Lines)", () => {
     w.append(sample(1));
     w.close();
     expect(lstatSync(join(dir, "link.jsonl")).isSymbolicLink()).toBe(true);
-    expect(readResults(join(dir, "real.jsonl"))).toEqual({ header, samples: [sample(1)], truncated: null });
+    expect(readResults(join(dir, "real.jsonl"))).toEqual({ header, samples: [sample(1)], lines: [2], truncated: null });
   });
 
   test("a cut-off last line is left out and reported with its line number and the sample it held", () => {

@@ -51,16 +51,32 @@ const build = (text: string, overrides: Record<string, number> = {}): Circuit =>
 const limitOf = (f: () => unknown): RunLimitError => thrownBy(RunLimitError, f);
 
 describe("maxSteps", () => {
-  test("a transient stops after exactly maxSteps accepted steps, with step-limit naming the limit and the hint", () => {
+  test("a transient whose until= and max-step= need more steps than the limit is refused before it starts, naming the count", () => {
     const circuit = build(RC);
+    // until / max-step = 20 ms / 10 µs = 2000 steps at the least.
+    const e = limitOf(() => runTransient(circuit, analysisOf(circuit, "transient"), { limits: { maxSteps: 1999 } }));
+    expect([e.diagnostic.code, e.limit, e.value, e.reached]).toEqual(["step-limit", "maxSteps", 1999, 2000]);
+    expect(e.message).toBe("the transient until=0.02 s with max-step=0.00001 s needs at least 2 000 steps, more than the step limit of 1 999; it was not started");
+  });
+
+  test("the default step budget is 10 000 000 steps: a 10⁸-step transient is refused up front", () => {
+    const circuit = build(RC.replace("until=20m max-step=10u", "until=100 max-step=1u"));
+    const e = limitOf(() => runTransient(circuit, analysisOf(circuit, "transient")));
+    expect([e.limit, e.value, e.reached]).toEqual(["maxSteps", 10_000_000, 100_000_000]);
+  });
+
+  test("a transient stops after exactly maxSteps accepted steps, with step-limit naming the limit and the hint", () => {
+    // Without max-step= the largest step is until/100: 100 steps at the least, more where the start needs small steps.
+    const text = RC.replace(" max-step=10u", "");
+    const circuit = build(text);
     const full = runTransient(circuit, analysisOf(circuit, "transient"));
-    expect(full.stats.accepted).toBeGreaterThan(300);
-    const e = limitOf(() => runTransient(circuit, analysisOf(circuit, "transient"), { limits: { maxSteps: 150 } }));
-    expect([e.diagnostic.code, e.limit, e.value, e.reached, e.diagnostic.stage]).toEqual(["step-limit", "maxSteps", 150, 151, "simulation"]);
-    // The step that broke the limit is the 151st: its time is that of the unlimited run's 151st point.
-    expect(e.message).toBe(`the transient reached the step limit of 150 accepted steps at t = ${Number(full.time[151]!.toPrecision(4))} s`);
+    expect(full.stats.accepted).toBeGreaterThan(110);
+    const e = limitOf(() => runTransient(circuit, analysisOf(circuit, "transient"), { limits: { maxSteps: 110 } }));
+    expect([e.diagnostic.code, e.limit, e.value, e.reached, e.diagnostic.stage]).toEqual(["step-limit", "maxSteps", 110, 111, "simulation"]);
+    // The step that broke the limit is the 111th: its time is that of the unlimited run's 111th point.
+    expect(e.message).toBe(`the transient reached the step limit of 110 accepted steps at t = ${Number(full.time[111]!.toPrecision(4))} s`);
     expect(e.diagnostic.hint).toBe("raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step");
-    expect(e.diagnostic.span).toEqual({ file: "t.onset", start: RC.indexOf("transient"), end: RC.indexOf("\n", RC.indexOf("transient")) });
+    expect(e.diagnostic.span).toEqual({ file: "t.onset", start: text.indexOf("transient"), end: text.indexOf("\n", text.indexOf("transient")) });
     expect(isOnsetError(e)).toBe(true);
   });
 

@@ -7,6 +7,7 @@ import { checkOutputs, refuseInputs } from "../output/plan.js";
 import { writeOutput } from "../output/write.js";
 import { cutSample, readResults } from "../study/results-file.js";
 import { studyReport } from "../study/study-report.js";
+import { verifyRecords } from "../study/verify-records.js";
 import type { CommandContext } from "./context.js";
 import { emitOutcome } from "./emit.js";
 import { optionTarget } from "./output-options.js";
@@ -35,6 +36,7 @@ export function mergeCommand(ctx: CommandContext, args: ParsedArgs): number {
   // The merged results may replace one of the files merged (they are all read first); a CSV or plot may not.
   refuseInputs([outputs.csv, outputs.svg, outputs.html], files, ctx.io.cwd);
   const contents = files.map((f) => ({ file: f, content: readResults(resolve(ctx.io.cwd, f), f) }));
+  for (const { file, content } of contents) verifyRecords(file, content.header, content.samples, content.lines);
   const first = contents[0]!;
   for (const { file, content } of contents.slice(1)) {
     const differences = headerDifferences(first.content.header, content.header, true);

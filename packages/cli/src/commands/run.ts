@@ -1,4 +1,4 @@
-import { checkTopology, drawSample, isRunLimitError, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { checkTopology, drawSample, refuseStudy, isRunLimitError, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
 import { workerPool } from "@onset/core/node";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
@@ -100,6 +100,7 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   renderWarnings(ctx, [...warnings, ...wiring.filter((d) => d.severity !== "error")]);
   const faults = wiring.filter((d) => d.severity === "error");
   if (faults.length > 0) throw new CliError(faults, source.sources);
+  if (!args.flags.has("nominal") && sample === undefined) refuseStudy(circuit, { limits });
   const subject: ReportSubject = { file: source.file, title: circuit.title ?? null, overrides: sets };
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   const sweeps = circuit.analyses.filter((a): a is SweepAnalysis => a.kind === "sweep");

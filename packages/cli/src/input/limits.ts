@@ -1,4 +1,4 @@
-import { didYouMean, type RunLimits } from "@onset/core";
+import { didYouMean, RUN_LIMIT_FLAGS, RUN_LIMITS, type RunLimits } from "@onset/core";
 import { parseQuantity, SOURCE_LIMIT_FLAGS, SOURCE_LIMITS, type SourceLimits } from "@onset/netlist-parser";
 import { valueOf, type ParsedArgs } from "../args.js";
 import { usageError } from "../cli-error.js";
@@ -6,7 +6,7 @@ import { usageError } from "../cli-error.js";
 /** One limit `--limit NAME=VALUE` can set: where it goes and how its value is read. */
 interface LimitFlag {
   readonly name: string;
-  readonly key: keyof SourceLimits | "maxSteps" | "maxSimulatedTime";
+  readonly key: keyof SourceLimits | keyof typeof RUN_LIMIT_FLAGS;
   readonly read: (text: string, flag: string) => number;
 }
 
@@ -29,15 +29,21 @@ function duration(text: string, flag: string): number {
 
 /** Every limit `--limit` sets, in the order help lists them. */
 export const LIMIT_FLAGS: readonly LimitFlag[] = [
-  { name: SOURCE_LIMIT_FLAGS.maxSourceBytes, key: "maxSourceBytes", read: count },
-  { name: SOURCE_LIMIT_FLAGS.maxIncludeDepth, key: "maxIncludeDepth", read: count },
-  { name: SOURCE_LIMIT_FLAGS.maxSourceFiles, key: "maxSourceFiles", read: count },
-  { name: "steps", key: "maxSteps", read: count },
-  { name: "simulated-time", key: "maxSimulatedTime", read: duration },
+  ...(Object.keys(SOURCE_LIMIT_FLAGS) as Array<keyof SourceLimits>).map((key) => ({ name: SOURCE_LIMIT_FLAGS[key], key, read: count })),
+  ...(Object.keys(RUN_LIMIT_FLAGS) as Array<keyof typeof RUN_LIMIT_FLAGS>).map((key) => ({
+    name: RUN_LIMIT_FLAGS[key],
+    key,
+    read: key === "maxSimulatedTime" ? duration : count,
+  })),
 ];
 
+function defaultOf(key: LimitFlag["key"]): string {
+  if (key in SOURCE_LIMITS) return String(SOURCE_LIMITS[key as keyof SourceLimits]);
+  return key in RUN_LIMITS ? String(RUN_LIMITS[key as keyof typeof RUN_LIMITS]) : "none";
+}
+
 /** The help line listing the limits with their defaults. */
-export const LIMIT_HELP = `raise or set a limit (repeatable): ${LIMIT_FLAGS.map((l) => `${l.name}=${l.key in SOURCE_LIMITS ? SOURCE_LIMITS[l.key as keyof SourceLimits] : "none"}`).join(", ")}`;
+export const LIMIT_HELP = `raise or set a limit (repeatable): ${LIMIT_FLAGS.map((l) => `${l.name}=${defaultOf(l.key)}`).join(", ")}`;
 
 /** The limits the command line sets. */
 export interface CommandLimits {

@@ -21,10 +21,11 @@ export function transientReport(a: TransientAnalysis, r: TransientResult, p: Pai
   const end = r.time.length > 0 ? r.time[r.time.length - 1]! : 0;
   const lines = [
     p.bold(`transient to ${si(a.until, "s")}`) +
-      p.dim(`  (${s.accepted} steps, ${s.rejected} rejected, ${s.newtonIterations} Newton iterations, start from ${a.start === "rest" ? "rest" : "the bias point"})`),
+      p.dim(`  (${s.accepted} steps, ${s.rejected} rejected, ${s.newtonIterations} Newton iterations, start from ${a.start === "rest" ? "rest" : "the bias point"})`) +
+      (r.stride !== undefined && r.stride > 1 ? p.dim(`  waveforms keep one step in ${r.stride} (--limit stored-points)`) : ""),
   ];
   const rows = r.signals.map((signal) => {
-    const { min, max } = extremes(signal.values);
+    const { min, max } = signal.min !== undefined && signal.max !== undefined ? { min: signal.min, max: signal.max } : extremes(signal.values);
     const final = signal.values.length > 0 ? signal.values[signal.values.length - 1]! : NaN;
     return [signal.name, si(min, signal.unit), si(max, signal.unit), si(final, signal.unit)];
   });

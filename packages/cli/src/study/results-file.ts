@@ -18,6 +18,8 @@ export interface CutLine {
 export interface ResultsContent {
   readonly header: StudyHeader;
   readonly samples: readonly StoredSample[];
+  /** The 1-based line of each sample in the file, in the order of `samples`. */
+  readonly lines: readonly number[];
   /** The last line when it was cut off (an interrupted run); it is left out. Null when the file ends cleanly. */
   readonly truncated: CutLine | null;
 }
@@ -59,6 +61,7 @@ export function readResults(path: string, shown = path): ResultsContent {
   }
   if (header.version !== 1) throw usageError("bad-results", `'${shown}' is a results file of version ${String(header.version)}; this onset reads version 1`);
   const samples: StoredSample[] = [];
+  const sampleLines: number[] = [];
   let truncated: CutLine | null = null;
   for (let k = 1; k < lines.length; k++) {
     const last = k === lines.length - 1;
@@ -69,11 +72,14 @@ export function readResults(path: string, shown = path): ResultsContent {
       sample = undefined;
     }
     const valid = sample !== undefined && typeof sample === "object" && sample !== null && Number.isInteger(sample.index);
-    if (valid && (!last || endsCleanly)) samples.push(sample!);
+    if (valid && (!last || endsCleanly)) {
+      samples.push(sample!);
+      sampleLines.push(k + 1);
+    }
     else if (last) truncated = cutLine(lines[k]!, k + 1);
     else throw usageError("bad-results", `${shown}:${k + 1}: the line is not a sample`, "delete the file and run the study again");
   }
-  return { header, samples, truncated };
+  return { header, samples, lines: sampleLines, truncated };
 }
 
 /**

@@ -14,12 +14,15 @@ import { inputError, OnsetError, type Diagnostic, type SourceSpan } from "../cir
  * call holds the thread, so an `AbortSignal` aborted by a timer or a request fires only in
  * the asynchronous study (`runToleranceStudy`, between samples, and at once on worker
  * threads); inside a synchronous call it can be aborted by the call's own callbacks
- * (`onProgress`, a step observer). Every limit is off unless given.
+ * (`onProgress`, a step observer). The wall time and the simulated time are off unless given;
+ * the step budget and the sizes of studies have defaults ({@link RUN_LIMITS}), so a file cannot
+ * ask for work without end; `Infinity` lifts any of them.
  */
 export interface RunLimits {
   /**
-   * Accepted time steps of one time-domain run.
-   * @defaultValue no limit
+   * Accepted time steps of one time-domain run. A run whose `until` and `max-step` need more
+   * steps than this is refused before it starts; any other run stops when the budget is spent.
+   * @defaultValue 10 000 000
    */
   readonly maxSteps?: number;
   /**
@@ -35,7 +38,47 @@ export interface RunLimits {
   readonly maxWallTime?: number;
   /** Stops the call when aborted (see the remarks for when it is looked at). */
   readonly signal?: AbortSignal;
+  /**
+   * Settings one sweep visits (`steps=`, or what `step=` leads to).
+   * @defaultValue 10 000
+   */
+  readonly maxSweepPoints?: number;
+  /**
+   * Samples of one tolerance study (`runs=`).
+   * @defaultValue 100 000
+   */
+  readonly maxRuns?: number;
+  /**
+   * Samples of a sweep with a tolerance study at each setting (settings × runs).
+   * @defaultValue 1 000 000
+   */
+  readonly maxStudyRuns?: number;
+  /**
+   * Values a transient keeps of its waveforms (time points × (probes + 1)); a longer run keeps
+   * every 2nd, 4th, … accepted step, so memory stays within this whatever the run's length.
+   * @defaultValue 2 000 000 (16 MB)
+   */
+  readonly maxStoredPoints?: number;
 }
+
+/** The default of each counted limit (the others are off unless given). */
+export const RUN_LIMITS = {
+  maxSteps: 10_000_000,
+  maxSweepPoints: 10_000,
+  maxRuns: 100_000,
+  maxStudyRuns: 1_000_000,
+  maxStoredPoints: 2_000_000,
+} as const;
+
+/** The command-line name of each limit (`--limit NAME=VALUE`; the wall time is `--time-limit`). */
+export const RUN_LIMIT_FLAGS = {
+  maxSteps: "steps",
+  maxSimulatedTime: "simulated-time",
+  maxSweepPoints: "sweep-points",
+  maxRuns: "runs",
+  maxStudyRuns: "study-runs",
+  maxStoredPoints: "stored-points",
+} as const;
 
 /** The name of a limit in {@link RunLimits}. */
 export type LimitName = keyof RunLimits;
@@ -46,6 +89,10 @@ export const LIMIT_CODES: Readonly<Record<LimitName, string>> = {
   maxSimulatedTime: "simulated-time-limit",
   maxWallTime: "wall-time-limit",
   signal: "aborted",
+  maxSweepPoints: "sweep-limit",
+  maxRuns: "runs-limit",
+  maxStudyRuns: "study-limit",
+  maxStoredPoints: "stored-points-limit",
 };
 
 /**
@@ -88,7 +135,16 @@ const RAISE: Readonly<Record<LimitName, string>> = {
   maxSimulatedTime: "raise the limit with --limit simulated-time=T (API: limits.maxSimulatedTime), or shorten until=",
   maxWallTime: "raise the limit with --time-limit SECONDS (API: limits.maxWallTime)",
   signal: "the caller aborted the run",
+  maxSweepPoints: "raise the limit with --limit sweep-points=N (API: limits.maxSweepPoints), or sweep with fewer steps",
+  maxRuns: "raise the limit with --limit runs=N (API: limits.maxRuns), or run the study in shards (--shard k/n) of fewer runs each",
+  maxStudyRuns: "raise the limit with --limit study-runs=N (API: limits.maxStudyRuns), or sweep fewer settings or draw fewer runs",
+  maxStoredPoints: "raise the limit with --limit stored-points=N (API: limits.maxStoredPoints)",
 };
+
+/** A count as people read it: `10 000 000`, `1e+12`. */
+function count(value: number): string {
+  return value < 1e15 ? Math.round(value).toLocaleString("en-US").replace(/,/g, " ") : value.toPrecision(3);
+}
 
 function seconds(value: number): string {
   return `${Number(value.toPrecision(4))} s`;
@@ -99,10 +155,13 @@ function limitError(limit: LimitName, value: number | null, reached: number, mes
   return new RunLimitError(diagnostic, limit, value, reached);
 }
 
-function checked(limits: RunLimits, name: "maxSteps" | "maxSimulatedTime" | "maxWallTime"): number {
+/** A limit counted in whole numbers. */
+type CountLimit = keyof typeof RUN_LIMITS;
+
+function checked(limits: RunLimits, name: CountLimit | "maxSimulatedTime" | "maxWallTime"): number {
   const value = limits[name];
-  if (value === undefined) return Infinity;
-  const whole = name === "maxSteps";
+  if (value === undefined) return name in RUN_LIMITS ? RUN_LIMITS[name as CountLimit] : Infinity;
+  const whole = name in RUN_LIMITS;
   if (typeof value !== "number" || !(value > 0) || (whole && value !== Infinity && !Number.isSafeInteger(value))) {
     throw inputError("bad-limit", `limits.${name} must be ${whole ? "a whole number" : "a number of seconds"} above 0, got ${String(value)}`, {
       hint: "leave it out (or give Infinity) for no limit",
@@ -119,6 +178,7 @@ function clockMs(): number {
 /** The limits of a {@link RunBudget} as plain data for a worker thread (no signal: it cannot be posted). */
 export interface WorkerLimits {
   readonly maxSteps: number;
+  readonly maxStoredPoints: number;
   readonly maxSimulatedTime: number;
   /** What was left of the wall time when the job was sent (s). */
   readonly maxWallTime: number;
@@ -139,6 +199,10 @@ export class RunBudget {
   readonly maxSteps: number;
   readonly maxSimulatedTime: number;
   readonly maxWallTime: number;
+  readonly maxSweepPoints: number;
+  readonly maxRuns: number;
+  readonly maxStudyRuns: number;
+  readonly maxStoredPoints: number;
   readonly signal: AbortSignal | undefined;
   /** When the wall time runs out (ms on this thread's clock; another thread gets what is left). */
   private readonly deadline: number;
@@ -150,6 +214,10 @@ export class RunBudget {
     this.maxSteps = checked(limits, "maxSteps");
     this.maxSimulatedTime = checked(limits, "maxSimulatedTime");
     this.maxWallTime = checked(limits, "maxWallTime");
+    this.maxSweepPoints = checked(limits, "maxSweepPoints");
+    this.maxRuns = checked(limits, "maxRuns");
+    this.maxStudyRuns = checked(limits, "maxStudyRuns");
+    this.maxStoredPoints = checked(limits, "maxStoredPoints");
     if (limits.signal !== undefined && !(typeof limits.signal === "object" && limits.signal !== null && "aborted" in limits.signal)) {
       throw inputError("bad-limit", "limits.signal must be an AbortSignal");
     }
@@ -165,7 +233,7 @@ export class RunBudget {
 
   /** The limits as plain data for another thread, the wall time as what is left of it now. */
   forWorker(): WorkerLimits {
-    return { maxSteps: this.maxSteps, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
+    return { maxSteps: this.maxSteps, maxStoredPoints: this.maxStoredPoints, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
   }
 
   /** True when the signal is aborted or the wall time has run out (cheap: no message is made). */
@@ -198,6 +266,35 @@ export class RunBudget {
         `${what} until=${seconds(until)} is longer than the simulated-time limit of ${seconds(this.maxSimulatedTime)}; it was not started`,
         span,
       );
+    }
+  }
+
+  /**
+   * Refuses up front a run of fixed length that cannot finish within the step budget: no step
+   * is longer than `maxStep`, so it needs at least `until / maxStep` steps.
+   */
+  refuseSteps(until: number, maxStep: number, what: string, span?: SourceSpan): void {
+    const needed = Math.ceil(until / maxStep);
+    if (needed > this.maxSteps) {
+      throw limitError(
+        "maxSteps",
+        this.maxSteps,
+        needed,
+        `${what} until=${seconds(until)} with max-step=${seconds(maxStep)} needs at least ${count(needed)} steps, more than the step limit of ${count(this.maxSteps)}; it was not started`,
+        span,
+      );
+    }
+  }
+
+  /**
+   * Refuses a study of `size` settings or samples above its limit before anything is
+   * allocated; `what` says what was counted ("the sweep visits 1e12 settings").
+   */
+  refuseStudy(limit: "maxSweepPoints" | "maxRuns" | "maxStudyRuns", size: number, what: string, span?: SourceSpan): void {
+    const max = this[limit];
+    if (!(size <= max)) {
+      const name = { maxSweepPoints: "sweep-points", maxRuns: "runs", maxStudyRuns: "study-runs" }[limit];
+      throw limitError(limit, max, size, `${what}, more than the ${name} limit of ${count(max)}`, span);
     }
   }
 

@@ -1,3 +1,4 @@
+import { checkCircuit, checkOptions } from "../circuit/arguments.js";
 import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import type { Circuit, PolesAnalysis } from "../circuit/circuit.js";
 import { simulationError } from "../circuit/diagnostic.js";
@@ -101,6 +102,8 @@ export function startsFrom(pole: Pole): boolean {
 
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
 export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
+  checkCircuit("runPoles", circuit);
+  checkOptions("runPoles", options);
   const budget = budgetOf(options);
   budget.check("before the bias point");
   const system = buildSystem(circuit, options.extraParts);

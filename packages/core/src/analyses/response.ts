@@ -1,3 +1,4 @@
+import { checkAnalysis, checkCircuit, checkOptions } from "../circuit/arguments.js";
 import type { Circuit, Probe, ResponseAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError, simulationError } from "../circuit/diagnostic.js";
@@ -185,6 +186,9 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 
 /** Runs a `response` analysis: small-signal |H| and phase of `to` for a unit signal at `from`. */
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
+  checkCircuit("runResponse", circuit);
+  checkAnalysis("runResponse", analysis, "response");
+  checkOptions("runResponse", options);
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));

@@ -1,3 +1,4 @@
+import { checkCircuit, checkOptions } from "../circuit/arguments.js";
 import type { AnalysisSpec, Circuit, SpecAnalysis } from "../circuit/circuit.js";
 import { evaluateSpec, sampleCriteria, type SpecReport } from "../spec/evaluate.js";
 import type { StartupResult } from "./startup.js";
@@ -38,6 +39,8 @@ export function circuitSpec(circuit: Circuit, results: readonly AnalysisResult[]
 
 /** Runs every simulating analysis of a circuit in file order and checks its spec. */
 export function runCircuit(circuit: Circuit, options: RunOptions = {}): CircuitRun {
+  checkCircuit("runCircuit", circuit);
+  checkOptions("runCircuit", options);
   const shared = { ...options, budget: budgetOf(options) };
   const results = circuit.analyses.filter(isSimulating).map((a) => runAnalysis(circuit, a, shared));
   return { results, spec: circuitSpec(circuit, results) };

@@ -1,3 +1,4 @@
+import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
 import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
@@ -24,6 +25,7 @@ import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
+import { refuseShortWindow } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
@@ -153,6 +155,11 @@ function corner(at: number): SourceTerm {
  * outcome's class.
  */
 export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options: RunOptions = {}): StartupResult {
+  checkCircuit("runStartup", circuit);
+  checkAnalysis("runStartup", analysis, "startup");
+  if (analysis.until !== "auto") checkSeconds("runStartup", "until", analysis.until);
+  checkSeconds("runStartup", "maxStep", analysis.maxStep, true);
+  checkOptions("runStartup", options);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const kick = analysis.kick ?? DEFAULT_KICK;
   const budget = budgetOf(options);
@@ -177,6 +184,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   // (A frequency where the circuit is singular is left out of its integral, so it does not throw.)
   const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles) : 0;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+  refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
+  if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);
   const time = new GrowableSeries(4096);

@@ -1,12 +1,13 @@
+import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
 import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { accuracyTolerances, type Tolerances } from "../solver/tolerances.js";
-import { GrowableSeries } from "./growable.js";
+import { ThinnedRecord } from "./thinned-record.js";
 import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
-import { budgetOf, type BudgetOptions } from "./limits.js";
+import { budgetOf, RUN_LIMITS, type BudgetOptions } from "./limits.js";
 
 /** One recorded signal. */
 export interface Signal {
@@ -15,13 +16,21 @@ export interface Signal {
   readonly probe: Probe;
   readonly unit: QuantityUnit;
   readonly values: Float64Array;
+  /** Smallest and largest value over every accepted step (the stored values may be thinned). */
+  readonly min?: number;
+  readonly max?: number;
 }
 
 /** What `runTransient` returns: the accepted time points, every probed signal and the stepper's counts. */
 export interface TransientResult {
   readonly analysis: "transient";
-  /** Accepted time points (s), starting at 0. */
+  /**
+   * Time points (s), starting at 0: every accepted step, or on a long run every `stride`-th
+   * (and the last), within `limits.maxStoredPoints`.
+   */
   readonly time: Float64Array;
+  /** Every how many accepted steps a point is stored (1 unless the run was long enough to thin). */
+  readonly stride?: number;
   readonly signals: readonly Signal[];
   readonly stats: StepperStats;
 }
@@ -50,32 +59,50 @@ export interface RunOptions extends BudgetOptions {
   readonly settledFromOrbit?: boolean;
 }
 
-/** Records the chosen probes at every accepted point. */
+/** Smallest number of time points a transient keeps, however many probes it has. */
+const MIN_STORED_TIMES = 64;
+
+/**
+ * Records the chosen probes at every accepted point, thinned to at most `maxValues` stored
+ * values (time points × (probes + 1)); see {@link ThinnedRecord}.
+ */
 export class ProbeRecorder {
-  readonly time = new GrowableSeries();
-  private readonly series: GrowableSeries[];
+  private readonly store: ThinnedRecord;
   private readonly readers: ReturnType<typeof probeReader>[];
   private readonly units: QuantityUnit[];
   readonly probes: readonly Probe[];
 
-  constructor(system: MnaSystem, probes: readonly Probe[]) {
+  constructor(system: MnaSystem, probes: readonly Probe[], maxValues: number = RUN_LIMITS.maxStoredPoints) {
     this.probes = probes;
     this.units = probes.map((p) => probeUnit(system, p));
     this.readers = probes.map((p) => probeReader(system, p));
-    this.series = probes.map(() => new GrowableSeries());
+    const times = maxValues === Infinity ? Infinity : Math.max(MIN_STORED_TIMES, Math.floor(maxValues / (probes.length + 1)));
+    this.store = new ThinnedRecord(probes.length, times);
   }
 
   readonly record = (t: number, x: Float64Array, dxdt: Float64Array): void => {
-    this.time.push(t);
-    for (let k = 0; k < this.readers.length; k++) this.series[k]!.push(this.readers[k]!(x, dxdt, t));
+    for (let k = 0; k < this.readers.length; k++) this.store.set(k, this.readers[k]!(x, dxdt, t));
+    this.store.add(t);
   };
+
+  /** The stored time points (every `stride`-th accepted step, and the last). */
+  times(): Float64Array {
+    return this.store.times();
+  }
+
+  /** Every how many accepted steps a point was stored (1: every step). */
+  get stride(): number {
+    return this.store.stride;
+  }
 
   signals(): Signal[] {
     return this.probes.map((probe, k) => ({
       name: probeName(probe),
       probe,
       unit: this.units[k]!,
-      values: this.series[k]!.toArray(),
+      values: this.store.values(k),
+      min: this.store.min[k]!,
+      max: this.store.max[k]!,
     }));
   }
 }
@@ -104,18 +131,26 @@ export function defaultMaxStep(until: number): number {
 
 /** Runs a `transient` analysis on a circuit. */
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
+  checkCircuit("runTransient", circuit);
+  checkAnalysis("runTransient", analysis, "transient");
+  checkSeconds("runTransient", "until", analysis.until);
+  checkSeconds("runTransient", "maxStep", analysis.maxStep, true);
+  checkOptions("runTransient", options);
   const budget = budgetOf(options);
   budget.refuseLength(analysis.until, "the transient", analysis.span);
+  const maxStep = analysis.maxStep ?? defaultMaxStep(analysis.until);
+  budget.refuseSteps(analysis.until, maxStep, "the transient", analysis.span);
   const system = buildSystem(circuit, options.extraParts);
   const stepper = new TransientStepper(system, {
     start: analysis.start,
-    maxStep: analysis.maxStep ?? defaultMaxStep(analysis.until),
+    maxStep,
     tolerances: { ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances },
   });
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
-  const recorder = new ProbeRecorder(system, probes);
+  const recorder = new ProbeRecorder(system, probes, budget.maxStoredPoints);
   stepper.observe(recorder.record);
   budget.watch(stepper, "the transient", analysis.span);
   advanceWithProgress(stepper, analysis.until, options.onProgress);
-  return { analysis: "transient", time: recorder.time.toArray(), signals: recorder.signals(), stats: { ...stepper.stats } };
+  const thinned = recorder.stride > 1 ? { stride: recorder.stride } : {};
+  return { analysis: "transient", time: recorder.times(), signals: recorder.signals(), stats: { ...stepper.stats }, ...thinned };
 }

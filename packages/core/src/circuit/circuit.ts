@@ -62,6 +62,8 @@ export interface TransientAnalysis {
   /** Absolute accuracy floor of a voltage (V; default 1 µV; currents 1 nA per µV, temperatures 0.1 mK per µV). */
   readonly accuracyFloor?: number;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /**
@@ -106,6 +108,8 @@ export interface StartupAnalysis {
   /** Absolute accuracy floor of a voltage (V; default 1 µV; currents 1 nA per µV, temperatures 0.1 mK per µV). */
   readonly accuracyFloor?: number;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /**
@@ -167,6 +171,8 @@ export interface SweepAnalysis {
   readonly step?: number;
   readonly log: boolean;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** `tolerance`: a Monte Carlo study of `runs` samples drawing every `±` tolerance from its distribution with `seed`. */
@@ -178,6 +184,8 @@ export interface ToleranceAnalysis {
   /** What each sample measures: its start-up run (default), or its periodic steady state by shooting (no start-up time). */
   readonly measure?: StudyMeasure;
   readonly span?: SourceSpan;
+  /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
+  readonly optionSpans?: Readonly<Record<string, SourceSpan>>;
 }
 
 /** Which startup metric (or the yield) a criterion reads. */

@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import { checkWaveform } from "./waveform-check.js";
 import { cubicLevelCrossing, cubicOnInterval, cubicScratch } from "./local-cubic.js";
 
@@ -92,9 +93,9 @@ export function risingCrossings(
   to = Infinity,
 ): Float64Array {
   checkWaveform("risingCrossings", t, v);
-  if (!Number.isFinite(level)) throw new RangeError(`risingCrossings: level must be finite (got ${level})`);
+  if (!Number.isFinite(level)) throw badArgument(`risingCrossings: level must be finite (got ${describe(level)})`);
   if (!(hysteresis >= 0) || !Number.isFinite(hysteresis)) {
-    throw new RangeError(`risingCrossings: hysteresis must be finite and >= 0 (got ${hysteresis})`);
+    throw badArgument(`risingCrossings: hysteresis must be finite and >= 0 (got ${describe(hysteresis)})`);
   }
   let first = 0;
   while (first < t.length && t[first] < from) first++;

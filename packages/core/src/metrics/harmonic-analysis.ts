@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import { checkWaveform } from "./waveform-check.js";
 import { intervalAt } from "./local-cubic.js";
 import { resampleUniform } from "./resample.js";
@@ -54,21 +55,21 @@ export function harmonicAnalysis(
 ): HarmonicAnalysis {
   checkWaveform("harmonicAnalysis", t, v);
   if (!(Number.isInteger(cycles) && cycles >= 1)) {
-    throw new RangeError(`harmonicAnalysis: cycles must be a whole number >= 1 (got ${cycles})`);
+    throw badArgument(`harmonicAnalysis: cycles must be a whole number >= 1 (got ${describe(cycles)})`);
   }
   if (!(fundamental > 0) || !Number.isFinite(fundamental)) {
-    throw new RangeError(`harmonicAnalysis: fundamental must be a positive frequency in Hz (got ${fundamental})`);
+    throw badArgument(`harmonicAnalysis: fundamental must be a positive frequency in Hz (got ${describe(fundamental)})`);
   }
   if (!(Number.isInteger(maxOrder) && maxOrder >= 1)) {
-    throw new RangeError(`harmonicAnalysis: maxOrder must be a whole number >= 1 (got ${maxOrder})`);
+    throw badArgument(`harmonicAnalysis: maxOrder must be a whole number >= 1 (got ${describe(maxOrder)})`);
   }
   const toTime = fromTime + cycles / fundamental;
   const last = t[t.length - 1];
   // Allow rounding in a span that ends on the record's last sample.
   const slack = 1e-9 * (last - t[0]);
   if (!(fromTime >= t[0] - slack) || !(toTime <= last + slack)) {
-    throw new RangeError(
-      `harmonicAnalysis: ${cycles} cycles of ${fundamental} Hz from ${fromTime} s end at ${toTime} s, outside the record [${t[0]}, ${last}] s`,
+    throw badArgument(
+      `harmonicAnalysis: ${describe(cycles)} cycles of ${describe(fundamental)} Hz from ${describe(fromTime)} s end at ${describe(toTime)} s, outside the record [${describe(t[0])}, ${describe(last)}] s`,
     );
   }
   return analyseCycles(t, v, fromTime, toTime, cycles, maxOrder, fundamental);

@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import FFT from "fft.js";
 
 /** One harmonic of a periodic waveform. */
@@ -58,17 +59,17 @@ export function powerOfTwoAtLeast(n: number): number {
 
 function checkPeriodicArguments(api: string, samples: Float64Array, cycles: number, maxOrder: number): void {
   if (!isPowerOfTwo(samples.length)) {
-    throw new RangeError(`${api}: the sample count must be a power of two >= 2 (got ${samples.length})`);
+    throw badArgument(`${api}: the sample count must be a power of two >= 2 (got ${describe(samples.length)})`);
   }
   if (!(Number.isInteger(cycles) && cycles >= 1)) {
-    throw new RangeError(`${api}: cycles must be a whole number >= 1 (got ${cycles})`);
+    throw badArgument(`${api}: cycles must be a whole number >= 1 (got ${describe(cycles)})`);
   }
   if (!(Number.isInteger(maxOrder) && maxOrder >= 1)) {
-    throw new RangeError(`${api}: maxOrder must be a whole number >= 1 (got ${maxOrder})`);
+    throw badArgument(`${api}: maxOrder must be a whole number >= 1 (got ${describe(maxOrder)})`);
   }
   if (maxOrder * cycles > samples.length / 2) {
-    throw new RangeError(
-      `${api}: harmonic ${maxOrder} of ${cycles} cycles lies above the Nyquist bin of ${samples.length} samples`,
+    throw badArgument(
+      `${api}: harmonic ${describe(maxOrder)} of ${describe(cycles)} cycles lies above the Nyquist bin of ${describe(samples.length)} samples`,
     );
   }
 }

@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import type { LinearPrediction } from "./oscillation-kind.js";
 
 /** Options of {@link measureStartup}. */
@@ -66,7 +67,7 @@ export interface StartupSettings {
 
 function positiveOrZero(name: string, value: number): number {
   if (!(value >= 0) || !Number.isFinite(value)) {
-    throw new RangeError(`measureStartup: ${name} must be a finite number >= 0 (got ${value})`);
+    throw badArgument(`measureStartup: ${name} must be a finite number >= 0 (got ${describe(value)})`);
   }
   return value;
 }
@@ -74,19 +75,19 @@ function positiveOrZero(name: string, value: number): number {
 export function resolveStartupOptions(options: StartupMetricsOptions): StartupSettings {
   const maxOrder = options.maxOrder ?? 10;
   if (!(Number.isInteger(maxOrder) && maxOrder >= 1)) {
-    throw new RangeError(`measureStartup: maxOrder must be a whole number >= 1 (got ${maxOrder})`);
+    throw badArgument(`measureStartup: maxOrder must be a whole number >= 1 (got ${describe(maxOrder)})`);
   }
   const settleCycles = options.settleCycles ?? 10;
   if (!(Number.isInteger(settleCycles) && settleCycles >= 2)) {
-    throw new RangeError(`measureStartup: settleCycles must be a whole number >= 2 (got ${settleCycles})`);
+    throw badArgument(`measureStartup: settleCycles must be a whole number >= 2 (got ${describe(settleCycles)})`);
   }
   const settleTolerance = options.settleTolerance ?? 0.001;
   if (!(settleTolerance > 0 && settleTolerance < 1)) {
-    throw new RangeError(`measureStartup: settleTolerance must lie between 0 and 1 (got ${settleTolerance})`);
+    throw badArgument(`measureStartup: settleTolerance must lie between 0 and 1 (got ${describe(settleTolerance)})`);
   }
   const amplitudeLimit = options.amplitudeLimit;
   if (amplitudeLimit !== undefined && !(amplitudeLimit > 0 && Number.isFinite(amplitudeLimit))) {
-    throw new RangeError(`measureStartup: amplitudeLimit must be a positive voltage (got ${amplitudeLimit})`);
+    throw badArgument(`measureStartup: amplitudeLimit must be a positive voltage (got ${describe(amplitudeLimit)})`);
   }
   return {
     noiseFloor: positiveOrZero("noiseFloor", options.noiseFloor ?? 0),

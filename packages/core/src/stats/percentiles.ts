@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 /** The percentiles reported for every Monte Carlo metric. */
 export const REPORTED_PERCENTILES = [0, 1, 5, 50, 95, 99, 100] as const;
 
@@ -20,6 +21,8 @@ export interface PercentileSummary {
  * (Hyndman & Fan 1996, definition 7: position (n − 1)·p/100).
  */
 export function percentileOfSorted(sorted: ArrayLike<number>, p: number): number {
+  if (!isList(sorted)) throw badArgument("percentileOfSorted: sorted must be an array of numbers");
+  if (!(typeof p === "number" && p >= 0 && p <= 100)) throw badArgument(`percentileOfSorted: p must be a percentage from 0 to 100, got ${describe(p)}`);
   const n = sorted.length;
   if (n === 0) return Number.NaN;
   const pos = ((n - 1) * p) / 100;
@@ -28,8 +31,14 @@ export function percentileOfSorted(sorted: ArrayLike<number>, p: number): number
   return sorted[lo]! + (pos - lo) * (sorted[hi]! - sorted[lo]!);
 }
 
+/** An array or typed array (anything with a whole-number length, readable by index). */
+function isList(value: unknown): value is ArrayLike<number> {
+  return Array.isArray(value) || ArrayBuffer.isView(value);
+}
+
 /** Percentiles, mean and standard deviation of the finite values; null when there are none. */
 export function summarize(values: ArrayLike<number>): PercentileSummary | null {
+  if (!isList(values)) throw badArgument("summarize: values must be an array of numbers");
   const finite: number[] = [];
   for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) finite.push(values[i]!);
   if (finite.length === 0) return null;

@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 /** The standard normal quantile for a two-sided 95 % interval, Φ⁻¹(0.975) (docs/references.md §6). */
 export const Z95 = 1.959963984540054;
 
@@ -12,6 +13,10 @@ export interface Interval {
  * centre (p̂ + z²/2n)/(1 + z²/n), half-width z/(1 + z²/n)·√(p̂(1−p̂)/n + z²/4n²).
  */
 export function wilsonInterval(successes: number, trials: number, z = Z95): Interval {
+  if (!(Number.isSafeInteger(trials) && trials >= 0 && Number.isSafeInteger(successes) && successes >= 0 && successes <= trials)) {
+    throw badArgument(`wilsonInterval: successes and trials must be whole numbers with 0 ≤ successes ≤ trials, got ${describe(successes)} of ${describe(trials)}`);
+  }
+  if (!(typeof z === "number" && z > 0 && Number.isFinite(z))) throw badArgument(`wilsonInterval: z must be a finite number above 0, got ${describe(z)}`);
   if (!(trials > 0)) return { low: 0, high: 1 };
   const p = successes / trials;
   const z2 = z * z;

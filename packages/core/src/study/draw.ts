@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import type { ToleranceSpec } from "../circuit/circuit.js";
 import { randomStream } from "../random/stream.js";
 
@@ -11,6 +12,11 @@ export type Distribution = "normal" | "uniform";
  * uniform: evenly over ±tol.
  */
 export function drawSample(tolerances: readonly ToleranceSpec[], seed: number, index: number, dist: Distribution): Record<string, number> {
+  if (!Array.isArray(tolerances) || !tolerances.every((t) => typeof t === "object" && t !== null && typeof t.target === "string" && Number.isFinite(t.nominal))) {
+    throw badArgument("drawSample: tolerances must be an array of { target, nominal, relative | absolute }");
+  }
+  if (!Number.isSafeInteger(seed) || !Number.isSafeInteger(index) || index < 0) throw badArgument(`drawSample: seed and index must be whole numbers (index ≥ 0), got seed ${describe(seed)}, index ${describe(index)}`);
+  if (dist !== "normal" && dist !== "uniform") throw badArgument(`drawSample: dist must be "normal" or "uniform", got ${describe(dist)}`);
   const stream = randomStream(seed, index);
   const drawn: Record<string, number> = {};
   for (const t of tolerances) {

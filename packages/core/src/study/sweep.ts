@@ -1,9 +1,10 @@
+import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
 import type { Circuit, SweepAnalysis } from "../circuit/circuit.js";
-import { inputError } from "../circuit/diagnostic.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
 import { runStartup, type StartupResult } from "../analyses/startup.js";
 import type { RunOptions } from "../analyses/transient.js";
-import { budgetOf } from "../analyses/limits.js";
+import { budgetOf, RUN_LIMITS, RunBudget } from "../analyses/limits.js";
+import { stepsSpan, sweepCount } from "./sweep-count.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
 import type { CircuitBuilder } from "./tolerance.js";
@@ -36,32 +37,24 @@ export interface SweepResult {
   readonly threshold: StartThreshold | null;
 }
 
-/** The settings a sweep visits: `steps=N` is N values from `from` to `to` inclusive; `step=` an increment (a ratio with `log`). */
-export function sweepValues(s: SweepAnalysis): number[] {
-  if (s.log && !(s.from > 0 && s.to > 0)) {
-    throw inputError("out-of-range", `a log sweep needs positive limits, got from=${s.from} to=${s.to}`, { span: s.span });
-  }
+/**
+ * The settings a sweep visits: `steps=N` is N values from `from` to `to` inclusive; `step=` an
+ * increment (a ratio with `log`). More than `maxPoints` settings is a `sweep-limit` error,
+ * found before anything is allocated.
+ */
+export function sweepValues(s: SweepAnalysis, maxPoints: number = RUN_LIMITS.maxSweepPoints): number[] {
+  checkAnalysis("sweepValues", s, "sweep");
+  const count = sweepCount(s);
+  new RunBudget({ maxSweepPoints: maxPoints }).refuseStudy("maxSweepPoints", count, `the sweep of ${s.target} visits ${count} settings`, stepsSpan(s));
   if (s.steps !== undefined) {
-    if (!(Number.isInteger(s.steps) && s.steps >= 1)) throw inputError("out-of-range", `sweep steps=${s.steps} must be a whole number ≥ 1`, { span: s.span });
-    if (s.steps === 1) return [s.from];
-    return Array.from({ length: s.steps }, (_, k) => {
-      const u = k / (s.steps! - 1);
+    if (count === 1) return [s.from];
+    return Array.from({ length: count }, (_, k) => {
+      const u = k / (count - 1);
       return s.log ? s.from * Math.pow(s.to / s.from, u) : s.from + u * (s.to - s.from);
     });
   }
-  const step = s.step ?? NaN;
-  const forward = s.to >= s.from;
-  if (s.log ? !(step > 0 && step !== 1 && step > 1 === forward) : !(step !== 0 && step > 0 === forward)) {
-    throw inputError("out-of-range", `sweep step=${s.step} does not lead from ${s.from} to ${s.to}`, {
-      span: s.span,
-      hint: s.log ? "with log, step= is a ratio greater than 1 (or below 1 going down)" : "give a step with the sign of to − from",
-    });
-  }
-  const values: number[] = [];
-  const count = s.log ? Math.floor(Math.log(s.to / s.from) / Math.log(step) + 1e-9) : Math.floor((s.to - s.from) / step + 1e-9);
-  if (count > 100_000) throw inputError("out-of-range", `sweep would visit ${count + 1} settings`, { span: s.span, hint: "use a larger step" });
-  for (let k = 0; k <= count; k++) values.push(s.log ? s.from * Math.pow(step, k) : s.from + k * step);
-  return values;
+  const step = s.step!;
+  return Array.from({ length: count }, (_, k) => (s.log ? s.from * Math.pow(step, k) : s.from + k * step));
 }
 
 /**
@@ -91,9 +84,12 @@ function firstStartup(run: CircuitRun): StartupResult | undefined {
  * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
  */
 export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: SweepOptions = {}): SweepResult {
+  if (typeof build !== "function") throw badArgument(`runSweep: build must be a function from overrides to a circuit, got ${describe(build)}`);
+  checkAnalysis("runSweep", analysis, "sweep");
+  checkOptions("runSweep", given);
   // One budget for every setting and the bisection: the wall time counts from here.
   const options = { ...given, budget: budgetOf(given) };
-  const values = sweepValues(analysis);
+  const values = sweepValues(analysis, options.budget.maxSweepPoints);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
     options.budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);

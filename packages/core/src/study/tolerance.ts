@@ -1,7 +1,10 @@
+import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
 import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
+import { startupAnalysisOf } from "./sample.js";
+import { nothingToMeasure } from "./study-size.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
@@ -75,10 +78,16 @@ export async function runToleranceStudy(
   criteria: readonly SpecCriterion[],
   options: ToleranceStudyOptions = {},
 ): Promise<ToleranceSample[]> {
+  if (typeof build !== "function") throw badArgument(`runToleranceStudy: build must be a function from overrides to a circuit, got ${describe(build)}`);
+  if (!Array.isArray(tolerances)) throw badArgument(`runToleranceStudy: tolerances must be an array, got ${describe(tolerances)}`);
+  checkAnalysis("runToleranceStudy", analysis, "tolerance");
+  if (!Array.isArray(criteria)) throw badArgument(`runToleranceStudy: criteria must be an array, got ${describe(criteria)}`);
+  checkOptions("runToleranceStudy", options);
   if (!(Number.isInteger(analysis.runs) && analysis.runs > 0)) {
     throw inputError("out-of-range", `tolerance runs=${analysis.runs} must be a whole number above 0`, { span: analysis.span });
   }
   const budget = budgetOf(options);
+  budget.refuseStudy("maxRuns", analysis.runs, `the tolerance study draws ${analysis.runs} runs`, analysis.optionSpans?.runs ?? analysis.span);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
   const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}), ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}) };
@@ -93,6 +102,7 @@ export async function runToleranceStudy(
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
+      if (!startupAnalysisOf(circuit)) throw nothingToMeasure(analysis);
       const outcome = await pool.run({ kind: "sample", circuit, settings });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);

@@ -60,11 +60,13 @@ export async function runDesignWindow(
   options: ToleranceStudyOptions & { readonly onPoint?: (point: WindowPoint, done: number, total: number) => void } = {},
 ): Promise<DesignWindow> {
   const required = requiredYield(criteria);
-  const values = sweepValues(sweep);
+  const budget = budgetOf(options);
+  const values = sweepValues(sweep, budget.maxSweepPoints);
+  const samples = values.length * tolerance.runs;
+  budget.refuseStudy("maxStudyRuns", samples, `the sweep's ${values.length} settings × ${tolerance.runs} runs make ${samples} samples`, tolerance.optionSpans?.runs ?? tolerance.span);
   const points: WindowPoint[] = [];
   // The swept value overrides its own tolerance: the trimmer is set, not drawn.
   const drawnTolerances = tolerances.filter((t) => t.target !== sweep.target);
-  const budget = budgetOf(options);
   for (const value of values) {
     const samples = await runToleranceStudy(build, drawnTolerances, tolerance, criteria, { ...options, budget, fixed: { ...options.fixed, [sweep.target]: value } });
     const summary = summarizeSamples(samples, criteria);

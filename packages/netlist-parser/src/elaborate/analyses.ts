@@ -160,8 +160,16 @@ function readOptions(ctx: Elaboration, l: Located<AnalysisStatement>, globals: S
   return out;
 }
 
-function withSpan<T extends object>(spec: T, span: SourceSpan): T & { span: SourceSpan } {
-  return { ...spec, span };
+function withSpan<T extends object>(spec: T, span: SourceSpan, l?: Located<AnalysisStatement>, o?: Parsed): T & { span: SourceSpan } {
+  if (!l || !o || o.given.size === 0) return { ...spec, span };
+  return { ...spec, span, optionSpans: optionSpansOf(l, o) };
+}
+
+/** Where each written option's value is, by its key. */
+function optionSpansOf(l: Located<AnalysisStatement>, o: Parsed): Record<string, SourceSpan> {
+  const spans: Record<string, SourceSpan> = {};
+  for (const [key, arg] of o.given) spans[key] = spanIn(l, arg.value.span);
+  return spans;
 }
 
 /** Cross-option rules of an analysis model, reported on the option's key or value (on the keyword when it was set from outside the file). */
@@ -188,11 +196,11 @@ export function elaborateAnalysis(ctx: Elaboration, l: Located<AnalysisStatement
   const o = readOptions(ctx, a, globals, () => undefined);
   if (stmt.analysis === "tolerance") {
     const measure = o.word.measure === "steady" ? { measure: "steady" as const } : {};
-    return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span);
+    return withSpan({ kind: "tolerance" as const, runs: o.num.runs!, seed: o.num.seed ?? 1, dist: (o.word.dist ?? "normal") as "normal" | "uniform", ...measure }, span, a, o);
   }
   const partStates = new Set(ctx.parts.flatMap((p) => Object.keys(partKinds[p.kind]?.states ?? {})));
-  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()), partStates, spans: Object.fromEntries([...o.given].map(([key, node]) => [key, spanIn(a, node.value.span)])) };
-  return withSpan(analysisModel(stmt.analysis)!.build(values, checksOn(ctx, a, o)), span);
+  const values = { numbers: o.num, words: o.word, probes: o.probe, probeLists: o.probes, written: new Set(o.given.keys()), partStates, spans: optionSpansOf(a, o) };
+  return withSpan(analysisModel(stmt.analysis)!.build(values, checksOn(ctx, a, o)), span, a, o);
 }
 
 function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, span: SourceSpan): AnalysisSpec {
@@ -215,16 +223,20 @@ function sweep(ctx: Elaboration, l: Located<AnalysisStatement>, globals: Scope, 
     const hint = info.summary === undefined ? undefined : `${target.name} is the ${info.summary}`;
     if (info.range) checkRange(v, info.range, info.expect.unit, `${key}= of sweep ${target.name}`, spanIn(l, o.given.get(key)!.value.span), hint);
   }
-  return {
-    kind: "sweep",
-    target: target.name,
-    from: from!,
-    to: to!,
-    ...(steps === undefined ? {} : { steps }),
-    ...(step === undefined ? {} : { step }),
-    log,
+  return withSpan(
+    {
+      kind: "sweep" as const,
+      target: target.name,
+      from: from!,
+      to: to!,
+      ...(steps === undefined ? {} : { steps }),
+      ...(step === undefined ? {} : { step }),
+      log,
+    },
     span,
-  };
+    l,
+    o,
+  );
 }
 
 function criterion(ctx: Elaboration, l: Located<SpecStatement>, c: CriterionNode, globals: Scope): SpecCriterion {

@@ -8,12 +8,22 @@ import { elaborateScope } from "./instances.js";
 import { checkPreset } from "./presets.js";
 import { Scope } from "./scope.js";
 import { sharedDrawWarnings } from "./shared-draws.js";
+import { useNestingProblem } from "./use-nesting.js";
+import { capPerFile } from "../diagnostic-cap.js";
+import { limitsOfProgram } from "../program-limits.js";
+import type { SourceLimits } from "../source-limits.js";
 
 /** The full state after elaborating, for the checker and `overrideTargets`. */
-export function runElaboration(program: Program, overrides: Overrides): { ctx: Elaboration; analyses: AnalysisSpec[] } {
+export function runElaboration(program: Program, overrides: Overrides, given?: SourceLimits): { ctx: Elaboration; analyses: AnalysisSpec[] } {
   const index = indexProgram(program);
   const ctx = new Elaboration(index, overrides);
   ctx.diagnostics.push(...index.diagnostics);
+  // Flattening recurses once per level of use lines: their depth (and the parts they make) is checked first, without recursion.
+  const nesting = useNestingProblem(index, limitsOfProgram(program, given));
+  if (nesting) {
+    ctx.diagnostics.push(nesting);
+    return { ctx, analyses: [] };
+  }
   const globals = new Scope(undefined, "");
   const failedPresets = new Set<string>();
   for (const [name, preset] of index.presets) if (!checkPreset(ctx, preset, globals)) failedPresets.add(name);
@@ -33,9 +43,9 @@ export function runElaboration(program: Program, overrides: Overrides): { ctx: E
  * by name and tolerances kept for Monte Carlo. The circuit is undefined when any error is found.
  * Cheap to repeat with different overrides on the same program (the index is cached).
  */
-export function elaborate(program: Program, options: { overrides?: Overrides } = {}): { circuit: Circuit | undefined; diagnostics: Diagnostic[] } {
-  const { ctx, analyses } = runElaboration(program, options.overrides ?? {});
-  const diagnostics = ctx.diagnostics;
+export function elaborate(program: Program, options: { overrides?: Overrides; limits?: SourceLimits } = {}): { circuit: Circuit | undefined; diagnostics: Diagnostic[] } {
+  const { ctx, analyses } = runElaboration(program, options.overrides ?? {}, options.limits);
+  const diagnostics = capPerFile(ctx.diagnostics, limitsOfProgram(program, options.limits).maxDiagnostics);
   if (hasErrors(diagnostics)) return { circuit: undefined, diagnostics };
   const title = ctx.index.title?.node.text;
   const circuit: Circuit = {

@@ -48,12 +48,31 @@ export function checkUnit(literal: NumberLiteral, expect: NumberExpectation, wha
   raise("unit-mismatch", `unit mismatch: '${literal.text}' is in ${formName(literal)}, but ${what} ${isIn(exp)}`, span, { hint });
 }
 
+/**
+ * The magnitudes a value may have besides 0: below 1e-300 a number is (nearly) subnormal and
+ * loses its precision in the first product, above 1e300 its square overflows. Both would
+ * surface far from the option as a singular matrix or an infinity, so they are refused here.
+ */
+export const SMALLEST_VALUE = 1e-300;
+export const LARGEST_VALUE = 1e300;
+
+/** Raises `unrepresentable` for a nonzero finite value outside [{@link SMALLEST_VALUE}, {@link LARGEST_VALUE}]. */
+export function refuseUnrepresentable(v: number, unit: UnitSymbol | undefined, what: string, span: SourceSpan | undefined): void {
+  const size = Math.abs(v);
+  if (v === 0 || !Number.isFinite(v) || (size >= SMALLEST_VALUE && size <= LARGEST_VALUE)) return;
+  const small = size < SMALLEST_VALUE;
+  raise("unrepresentable", `${what} is ${v}${unit === undefined || unit === "1" ? "" : ` ${unit}`}, too ${small ? "small" : "large"} to compute with (nonzero values lie between 1e-300 and 1e300 in size)`, span, {
+    hint: small ? "write 0, or a value of at least 1e-300" : "write a value of at most 1e300 (or inf where the option takes it)",
+  });
+}
+
 /** Raises `out-of-range` or `not-integer` when `v` breaks the rule. */
 export function checkRange(v: number, rule: RangeRule, unit: UnitSymbol | undefined, what: string, span: SourceSpan | undefined, hint?: string): void {
   const extra = hint === undefined ? {} : { hint };
   if (rule.integer && Number.isFinite(v) && !Number.isInteger(v)) {
     raise("not-integer", `${what} must be a whole number, got ${formatQuantity(v, unit)}`, span, extra);
   }
+  refuseUnrepresentable(v, unit, what, span);
   const { min, max } = rule;
   const belowMin = min !== undefined && (rule.minExclusive ? !(v > min) : !(v >= min));
   const aboveMax = max !== undefined && !(v <= max);

@@ -1,0 +1,43 @@
+import type { Circuit, SweepAnalysis, ToleranceAnalysis } from "../circuit/circuit.js";
+import { inputError, type OnsetError } from "../circuit/diagnostic.js";
+import { isSimulating } from "../analyses/run.js";
+import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
+import { stepsSpan, sweepCount } from "./sweep-count.js";
+
+/** A tolerance study on a file without a start-up analysis: its samples would have nothing to be judged on. */
+export function nothingToMeasure(tolerance: ToleranceAnalysis): OnsetError {
+  return inputError("nothing-to-measure", "the tolerance study has nothing to measure: the file has no startup analysis", {
+    span: tolerance.span,
+    hint: "each sample is judged on its start-up: add a line such as: startup probe=o until=auto",
+  });
+}
+
+/**
+ * Refuses, before anything runs or is allocated, a study larger than its limits (settings of a
+ * sweep, samples of a tolerance study, settings × samples of both) and a study with nothing
+ * to measure: a tolerance study needs a `startup` analysis (its samples are judged on one),
+ * a sweep needs some analysis to run at each setting.
+ */
+export function refuseStudy(circuit: Circuit, options: BudgetOptions = {}): void {
+  const budget = budgetOf(options);
+  const sweep = circuit.analyses.find((a): a is SweepAnalysis => a.kind === "sweep");
+  const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
+  const settings = sweep ? sweepCount(sweep) : 1;
+  if (sweep) budget.refuseStudy("maxSweepPoints", settings, `the sweep of ${sweep.target} visits ${settings} settings`, stepsSpan(sweep));
+  if (tolerance) {
+    if (!(Number.isSafeInteger(tolerance.runs) && tolerance.runs > 0)) {
+      throw inputError("out-of-range", `tolerance runs=${tolerance.runs} must be a whole number above 0`, { span: tolerance.span });
+    }
+    budget.refuseStudy("maxRuns", tolerance.runs, `the tolerance study draws ${tolerance.runs} runs`, tolerance.optionSpans?.runs ?? tolerance.span);
+    if (sweep) {
+      budget.refuseStudy("maxStudyRuns", settings * tolerance.runs, `the sweep's ${settings} settings × ${tolerance.runs} runs make ${settings * tolerance.runs} samples`, tolerance.optionSpans?.runs ?? tolerance.span);
+    }
+    if (!circuit.analyses.some((a) => a.kind === "startup")) throw nothingToMeasure(tolerance);
+  }
+  if (sweep && !tolerance && !circuit.analyses.some(isSimulating)) {
+    throw inputError("nothing-to-measure", `the sweep of ${sweep.target} has nothing to measure: the file has no analysis to run at each setting`, {
+      span: sweep.span,
+      hint: "add the analysis to repeat, such as: startup probe=o until=auto",
+    });
+  }
+}
