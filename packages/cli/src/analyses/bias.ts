@@ -5,7 +5,14 @@ import type { AnalysisWriters } from "./analysis-writers.js";
 /** `bias`: a table of node voltages and source currents; CSV `name,quantity,value,unit`; no figure. */
 export const biasWriters: AnalysisWriters<"bias"> = {
   text: ({ result }, _runs, p) => biasReport(result, p),
-  json: (r) => ({ analysis: "bias", nodes: r.nodes.map((n) => ({ ...n })), sources: r.sources.map((s) => ({ ...s })), method: r.method, iterations: r.iterations }),
+  json: (r) => ({
+    analysis: "bias",
+    nodes: r.nodes.map((n) => ({ ...n })),
+    sources: r.sources.map((s) => ({ ...s })),
+    method: r.method,
+    iterations: r.iterations,
+    ...(r.warnings ? { warnings: r.warnings.map((w) => ({ code: w.diagnostic.code, part: w.part, message: w.diagnostic.message })) } : {}),
+  }),
   csv: (r) =>
     csvDocument(["name", "quantity", "value", "unit"], [
       ...r.nodes.map((n) => [csvField(n.node), "voltage", csvNumber(n.voltage), "V"]),
