@@ -11,7 +11,7 @@ describe("the CLI's analysis writers", () => {
 
   test("bias and poles are tables (no figure); every analysis writes a CSV", () => {
     const kinds = Object.keys(analysisModels) as (keyof typeof analysisModels)[];
-    expect(kinds.filter(hasFigure)).toEqual(["transient", "startup", "response"]);
+    expect(kinds.filter(hasFigure)).toEqual(["transient", "startup", "steady", "response"]);
     expect(kinds.filter(hasCsv)).toEqual(kinds);
   });
 });

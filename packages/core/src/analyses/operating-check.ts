@@ -7,6 +7,7 @@ import type { MnaSystem } from "../solver/system.js";
  * hard at under 1 V), from memory of device data, rounded generously.
  */
 export const IMPLAUSIBLE_CURRENT = 1e3;
+/** Forward bias of a junction (V) beyond which it is reported; see {@link IMPLAUSIBLE_CURRENT}. */
 export const IMPLAUSIBLE_JUNCTION_VOLTAGE = 50;
 
 /** A part far outside any physical operating point, and the warning that says so. */

@@ -36,7 +36,7 @@ export interface LoopJudgement {
  * of cycles, a creep with a long time constant — still move it. The envelope (or, when the
  * record was steady on it, the per-cycle strength) from its first reaching the final level is
  * fitted (`envelopeDynamics`); then
- * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
+ * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times and has not settled since, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
  *    above `settleTolerance` (relative);
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
@@ -60,7 +60,9 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   const dynamics = envelopeDynamics(cycles.midTime, measure, level);
   const collapses = collapsesAndRestarts(cycles, SILENT_RATIO * settings.noiseFloor);
   const { trend } = judgement;
-  if (collapses >= COLLAPSES_TO_BOUNCE) {
+  // Collapses the record then settled from (steady cycle to cycle, and its fit moves it no more) were the loop's start-up.
+  const settledSince = judgement.verdict === "settled" && !dynamics.sustained && !(dynamics.remaining > settings.settleTolerance);
+  if (collapses >= COLLAPSES_TO_BOUNCE && !settledSince) {
     return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
   }
   if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };

@@ -4,12 +4,18 @@ import { isSimulating } from "../analyses/run.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { stepsSpan, sweepCount } from "./sweep-count.js";
 
-/** A tolerance study on a file without a start-up analysis: its samples would have nothing to be judged on. */
+/** A tolerance study on a file without the analysis its samples are judged on (`startup`; `steady` or `startup` under measure=steady). */
 export function nothingToMeasure(tolerance: ToleranceAnalysis): OnsetError {
-  return inputError("nothing-to-measure", "the tolerance study has nothing to measure: the file has no startup analysis", {
+  const steady = tolerance.measure === "steady";
+  return inputError("nothing-to-measure", `the tolerance study has nothing to measure: the file has no ${steady ? "steady or startup" : "startup"} analysis`, {
     span: tolerance.span,
-    hint: "each sample is judged on its start-up: add a line such as: startup probe=o until=auto",
+    hint: `each sample is judged on its ${steady ? "steady state" : "start-up"}: add a line such as: ${steady ? "steady probe=o" : "startup probe=o until=auto"}`,
   });
+}
+
+/** Whether a file holds the analysis a tolerance study's samples are judged on. */
+export function hasMeasure(circuit: Circuit, tolerance: ToleranceAnalysis): boolean {
+  return circuit.analyses.some((a) => a.kind === "startup" || (tolerance.measure === "steady" && a.kind === "steady"));
 }
 
 /**
@@ -32,7 +38,7 @@ export function refuseStudy(circuit: Circuit, options: BudgetOptions = {}): void
     if (sweep) {
       budget.refuseStudy("maxStudyRuns", settings * tolerance.runs, `the sweep's ${settings} settings × ${tolerance.runs} runs make ${settings * tolerance.runs} samples`, tolerance.optionSpans?.runs ?? tolerance.span);
     }
-    if (!circuit.analyses.some((a) => a.kind === "startup")) throw nothingToMeasure(tolerance);
+    if (!hasMeasure(circuit, tolerance)) throw nothingToMeasure(tolerance);
   }
   if (sweep && !tolerance && !circuit.analyses.some(isSimulating)) {
     throw inputError("nothing-to-measure", `the sweep of ${sweep.target} has nothing to measure: the file has no analysis to run at each setting`, {

@@ -3,8 +3,7 @@ import type { Circuit, SpecCriterion, ToleranceAnalysis, ToleranceSpec } from ".
 import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
-import { startupAnalysisOf } from "./sample.js";
-import { nothingToMeasure } from "./study-size.js";
+import { hasMeasure, nothingToMeasure } from "./study-size.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
@@ -102,7 +101,7 @@ export async function runToleranceStudy(
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
-      if (!startupAnalysisOf(circuit)) throw nothingToMeasure(analysis);
+      if (!hasMeasure(circuit, analysis)) throw nothingToMeasure(analysis);
       const outcome = await pool.run({ kind: "sample", circuit, settings });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);
