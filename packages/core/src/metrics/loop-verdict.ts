@@ -60,8 +60,8 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   const dynamics = envelopeDynamics(cycles.midTime, measure, level);
   const collapses = collapsesAndRestarts(cycles, SILENT_RATIO * settings.noiseFloor);
   const { trend } = judgement;
-  // Collapses the record then settled from (steady cycle to cycle, and its fit moves it no more) were the loop's start-up.
-  const settledSince = judgement.verdict === "settled" && !dynamics.sustained && !(dynamics.remaining > settings.settleTolerance);
+  // Collapses the record then steadied from (cycle to cycle, its bounce dying away) were the loop's start-up; the fit below still judges whether it has settled.
+  const settledSince = judgement.verdict === "settled" && !dynamics.sustained;
   if (collapses >= COLLAPSES_TO_BOUNCE && !settledSince) {
     return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
   }
