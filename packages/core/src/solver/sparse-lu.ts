@@ -1,0 +1,241 @@
+import { compileElimination, type CompiledElimination } from "./compiled-elimination.js";
+import { DenseLu } from "./dense-lu.js";
+import { EliminationSchedule } from "./elimination-schedule.js";
+import { markowitzOrder } from "./markowitz.js";
+
+/**
+ * Threshold for keeping the previous pivot order: a pivot at least this fraction of the largest
+ * entry below it in its column (threshold partial pivoting; Duff, Erisman & Reid, *Direct Methods
+ * for Sparse Matrices*, §4.4) bounds element growth almost as well as choosing the largest.
+ */
+export const KEEP_PIVOT = 0.1;
+
+/**
+ * Up to this size a matrix the sparse ordering finds singular is tried once more with dense
+ * partial pivoting, which names the first dependent column in the natural order (and factors
+ * the rare matrix whose only usable pivots the threshold rule turned down). Beyond it the n²
+ * storage would outgrow the circuit.
+ */
+const DENSE_LIMIT = 400;
+
+/** A factorisation as a snapshot keeps it: the pivot order and the packed factors. */
+export interface SparseLuState {
+  /** Whether the factors follow the sparse schedule of that order (else the dense fallback's). */
+  readonly scheduled: boolean;
+  readonly rowOrder: Int32Array;
+  readonly colOrder: Int32Array;
+  readonly lu: Float64Array;
+  /** The dense fallback's factors and row order, when it factored. */
+  readonly dense: { readonly lu: Float64Array; readonly perm: Int32Array } | undefined;
+}
+
+/**
+ * Sparse LU (P·A·Q = L·U) of matrices with a fixed set of structural entries, as the Newton
+ * matrix of a circuit: the caller writes the entries' values into `a` (entry e at a[e], in the
+ * order given to the constructor) and calls `factor`. The pivot order is chosen by the
+ * Markowitz criterion with threshold pivoting (markowitz.ts) on the first factorisation and kept
+ * while every pivot stays above KEEP_PIVOT of its column; only when one fails is it chosen afresh.
+ * The elimination in a kept order visits only the nonzeros of L and U (elimination-schedule.ts),
+ * as straight-line code for small circuits (compiled-elimination.ts). No n×n storage.
+ */
+export class SparseLu {
+  readonly n: number;
+  /** The matrix's entry values, written by the caller before each `factor`. */
+  readonly a: Float64Array;
+  readonly rows: Int32Array;
+  readonly cols: Int32Array;
+  /** Row i of P·A·Q is row rowOrder[i] of A; column j is column colOrder[j]. */
+  readonly rowOrder: Int32Array;
+  readonly colOrder: Int32Array;
+  /** A pivot smaller than this fraction of its column's largest entry counts as zero. */
+  pivotTolerance = 1e-13;
+  /** Original column of the first zero pivot found by the last `factor`, or −1. */
+  singularColumn = -1;
+  /** Factorisations that chose their pivots afresh (the rest reused an order). */
+  pivotings = 0;
+  private schedule: EliminationSchedule | undefined;
+  private compiled: CompiledElimination | undefined;
+  private lu = new Float64Array(0);
+  private readonly work: Float64Array;
+  private dense: DenseLu | undefined;
+  private denseFactored = false;
+  private readonly compile: boolean;
+
+  /** `rows[e]`, `cols[e]`: the structural entries, each position at most once. */
+  constructor(n: number, rows: Int32Array, cols: Int32Array, options: { readonly compile?: boolean } = {}) {
+    if (rows.length !== cols.length) throw new RangeError("SparseLu: rows and cols differ in length");
+    this.n = n;
+    this.rows = rows;
+    this.cols = cols;
+    this.a = new Float64Array(rows.length);
+    this.rowOrder = new Int32Array(n);
+    this.colOrder = new Int32Array(n);
+    this.work = new Float64Array(n);
+    this.compile = options.compile ?? true;
+  }
+
+  /** Entries of L and U (with the pattern's own), or 0 before the first sparse factorisation. */
+  get factorSize(): number {
+    return this.schedule?.slots ?? 0;
+  }
+
+  /** Factors the matrix in `a`. Returns false when it is singular, leaving `singularColumn` set. */
+  factor(): boolean {
+    this.singularColumn = -1;
+    if (this.schedule && this.refactor()) return true;
+    this.pivotings++;
+    this.schedule = undefined;
+    this.compiled = undefined;
+    this.denseFactored = false;
+    const stuck = markowitzOrder(this.n, this.rows, this.cols, this.a, KEEP_PIVOT, this.pivotTolerance, this.rowOrder, this.colOrder);
+    if (stuck < 0) {
+      this.plan();
+      if (this.refactor()) return true;
+      this.schedule = undefined;
+      this.compiled = undefined;
+    }
+    if (this.n > DENSE_LIMIT) {
+      this.singularColumn = Math.max(stuck, 0);
+      return false;
+    }
+    return this.factorDense();
+  }
+
+  private plan(): void {
+    const s = new EliminationSchedule(this.n, this.rows, this.cols, this.rowOrder, this.colOrder);
+    this.schedule = s;
+    if (this.lu.length < s.slots) this.lu = new Float64Array(s.slots);
+    this.compiled = this.compile ? compileElimination(s, this.n, this.rowOrder, this.colOrder) : undefined;
+  }
+
+  private factorDense(): boolean {
+    const n = this.n;
+    this.dense ??= new DenseLu(n);
+    this.dense.pivotTolerance = this.pivotTolerance;
+    const full = new Float64Array(n * n);
+    for (let e = 0; e < this.a.length; e++) full[this.rows[e]! * n + this.cols[e]!] = this.a[e]!;
+    this.denseFactored = this.dense.factor(full);
+    this.singularColumn = this.dense.singularColumn;
+    return this.denseFactored;
+  }
+
+  /** Elimination in the kept order over the kept nonzeros; false when a pivot got too small. */
+  private refactor(): boolean {
+    const { a, lu } = this;
+    if (this.compiled) return this.compiled.refactor(a, lu, KEEP_PIVOT, this.pivotTolerance);
+    const s = this.schedule!;
+    const { pivotAt, lowerStart, lowerAt, upperStart, upperAt, updateAt, columnStart, columnAt } = s;
+    lu.set(a);
+    lu.fill(0, s.entries, s.slots);
+    let t = 0;
+    for (let k = 0; k < this.n; k++) {
+      const pivot = lu[pivotAt[k]!]!;
+      const pivotAbs = Math.abs(pivot);
+      let below = 0;
+      const lEnd = lowerStart[k + 1]!;
+      for (let e = lowerStart[k]!; e < lEnd; e++) {
+        const v = Math.abs(lu[lowerAt[e]!]!);
+        if (v > below) below = v;
+      }
+      let original = 0;
+      const cEnd = columnStart[k + 1]!;
+      for (let e = columnStart[k]!; e < cEnd; e++) {
+        const v = Math.abs(a[columnAt[e]!]!);
+        if (v > original) original = v;
+      }
+      if (!(pivotAbs >= KEEP_PIVOT * below) || !(pivotAbs > this.pivotTolerance * original)) return false;
+      const uStart = upperStart[k]!;
+      const uEnd = upperStart[k + 1]!;
+      for (let e = lowerStart[k]!; e < lEnd; e++) {
+        const ik = lowerAt[e]!;
+        const m = lu[ik]! / pivot;
+        lu[ik] = m;
+        for (let u = uStart; u < uEnd; u++) lu[updateAt[t++]!] -= m * lu[upperAt[u]!]!;
+      }
+    }
+    return true;
+  }
+
+  /** Solves A·x = b for the last factored A; `b` and `x` may be the same array. */
+  solve(b: Float64Array, x: Float64Array): void {
+    this.solveSigned(b, x, 1);
+  }
+
+  /** Solves A·x = −b (the Newton update from a residual); `b` and `x` may be the same array. */
+  solveNegated(b: Float64Array, x: Float64Array): void {
+    this.solveSigned(b, x, -1);
+  }
+
+  private solveSigned(b: Float64Array, x: Float64Array, sign: number): void {
+    if (this.denseFactored) {
+      this.dense!.solve(b, x);
+      if (sign < 0) for (let i = 0; i < this.n; i++) x[i] = -x[i]!;
+      return;
+    }
+    if (this.compiled) {
+      this.compiled.solve(this.lu, b, x, sign);
+      return;
+    }
+    const { n, lu, rowOrder, colOrder, work: y } = this;
+    const { rowLowerStart, rowLowerAt, rowLowerCol, upperStart, upperAt, upperCol, pivotAt } = this.schedule!;
+    for (let i = 0; i < n; i++) {
+      let s = b[rowOrder[i]!]!;
+      const end = rowLowerStart[i + 1]!;
+      for (let e = rowLowerStart[i]!; e < end; e++) s -= lu[rowLowerAt[e]!]! * y[rowLowerCol[e]!]!;
+      y[i] = s;
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      let s = y[i]!;
+      const end = upperStart[i + 1]!;
+      for (let u = upperStart[i]!; u < end; u++) s -= lu[upperAt[u]!]! * y[upperCol[u]!]!;
+      y[i] = s / lu[pivotAt[i]!]!;
+    }
+    for (let j = 0; j < n; j++) x[colOrder[j]!] = sign * y[j]!;
+  }
+
+  /** The factors' entry at row i, column j of P·A·Q (L below the diagonal, U on and above), for checks. */
+  factorEntry(i: number, j: number): number {
+    const s = this.schedule;
+    if (!s) throw new RangeError("SparseLu.factorEntry: no sparse factorisation");
+    if (i > j) {
+      for (let e = s.rowLowerStart[i]!; e < s.rowLowerStart[i + 1]!; e++) if (s.rowLowerCol[e] === j) return this.lu[s.rowLowerAt[e]!]!;
+      return 0;
+    }
+    if (i === j) return this.lu[s.pivotAt[i]!]!;
+    for (let u = s.upperStart[i]!; u < s.upperStart[i + 1]!; u++) if (s.upperCol[u] === j) return this.lu[s.upperAt[u]!]!;
+    return 0;
+  }
+
+  /** Whether the last factorisation followed the sparse schedule (else the dense fallback). */
+  get scheduled(): boolean {
+    return this.schedule !== undefined && !this.denseFactored;
+  }
+
+  state(): SparseLuState {
+    return {
+      scheduled: this.scheduled,
+      rowOrder: Int32Array.from(this.rowOrder),
+      colOrder: Int32Array.from(this.colOrder),
+      lu: this.scheduled ? this.lu.slice(0, this.schedule!.slots) : new Float64Array(0),
+      dense: this.denseFactored ? { lu: Float64Array.from(this.dense!.lu), perm: Int32Array.from(this.dense!.perm) } : undefined,
+    };
+  }
+
+  /** Continues from a snapshot's factorisation: same order, same schedule, same factors. */
+  restore(state: SparseLuState): void {
+    this.schedule = undefined;
+    this.compiled = undefined;
+    this.denseFactored = false;
+    this.rowOrder.set(state.rowOrder);
+    this.colOrder.set(state.colOrder);
+    if (state.dense) {
+      this.dense ??= new DenseLu(this.n);
+      this.dense.lu.set(state.dense.lu);
+      this.dense.perm.set(state.dense.perm);
+      this.denseFactored = true;
+    }
+    if (!state.scheduled) return;
+    this.plan();
+    this.lu.set(state.lu);
+  }
+}
