@@ -10,7 +10,7 @@ export interface CompiledElimination {
 }
 
 /** Larger schedules stay with the loops: the generated code would grow without getting faster. */
-const MAX_OPERATIONS = 3000;
+const MAX_OPERATIONS = 1000;
 
 /**
  * Generates the schedule's elimination and substitution as unrolled JavaScript (a small circuit's

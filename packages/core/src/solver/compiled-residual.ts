@@ -4,7 +4,7 @@ import { generatedFunction } from "./generated-code.js";
 export type ResidualProduct = (matrix: Float64Array, x: Float64Array, history: Float64Array, u: Float64Array, r: Float64Array) => void;
 
 /** Beyond this many entries the product stays a loop (generated code would only grow). */
-const MAX_ENTRIES = 3000;
+const MAX_ENTRIES = 1000;
 
 /**
  * The linear part of the Newton residual as unrolled code over the structure's entries: row i's

@@ -1,4 +1,10 @@
 /**
+ * Most multiply-adds a schedule may hold (its update targets take 4 bytes each): beyond it the
+ * factors of the circuit would not fit in a bounded memory, and the schedule is refused.
+ */
+export const MAX_SCHEDULE_OPERATIONS = 50_000_000;
+
+/**
  * Where the nonzeros of L and U fall for a matrix pattern eliminated in a fixed order, and which
  * operations the elimination performs: the symbolic step of sparse Gaussian elimination (Duff,
  * Erisman & Reid, *Direct Methods for Sparse Matrices*, ch. 9), computed once per order and
@@ -74,10 +80,13 @@ export class EliminationSchedule {
     for (let e = 0; e < entries; e++) columnAt[columnFill[colOf[cols[e]!]!]!++] = e;
     this.columnAt = columnAt;
 
+    // Slot of each position (i·n + j) of L and U: one lookup per update, whatever the rows' lengths.
+    const slotOf = new Map<number, number>();
+    for (let i = 0; i < n; i++) {
+      const cs = rowCols[i]!;
+      for (let t = 0; t < cs.length; t++) slotOf.set(i * n + cs[t]!, rowSlots[i]![t]!);
+    }
     let slots = entries;
-    const position = new Int32Array(n);
-    const mark = new Int32Array(n).fill(-1);
-    let stamp = 0;
     const pivotAt = new Int32Array(n);
     const lowerStart = new Int32Array(n + 1);
     const upperStart = new Int32Array(n + 1);
@@ -102,21 +111,19 @@ export class EliminationSchedule {
       const uEnd = upperAt.length;
       lowerStart[k] = lowerAt.length;
       for (const i of below[k]!) {
-        const ri = rowCols[i]!;
-        const si = rowSlots[i]!;
-        stamp++;
-        for (let t = 0; t < ri.length; t++) {
-          position[ri[t]!] = t;
-          mark[ri[t]!] = stamp;
+        lowerAt.push(slotOf.get(i * n + k)!);
+        if (updateAt.length + (uEnd - uStart) > MAX_SCHEDULE_OPERATIONS) {
+          throw new RangeError(`EliminationSchedule: the elimination needs more than ${MAX_SCHEDULE_OPERATIONS} operations`);
         }
-        lowerAt.push(si[position[k]!]!);
         for (let u = uStart; u < uEnd; u++) {
           const j = upperCol[u]!;
-          if (mark[j] === stamp) {
-            updateAt.push(si[position[j]!]!);
+          const at = slotOf.get(i * n + j);
+          if (at !== undefined) {
+            updateAt.push(at);
           } else {
-            ri.push(j);
-            si.push(slots);
+            slotOf.set(i * n + j, slots);
+            rowCols[i]!.push(j);
+            rowSlots[i]!.push(slots);
             updateAt.push(slots++);
             if (i > j) below[j]!.push(i);
           }

@@ -1,12 +1,16 @@
 import { CountBuckets } from "./count-buckets.js";
 
+/** Rows and columns a step's search looks at once it has a pivot (Zlatev's restricted search uses 2–4). */
+const SEARCH_ROWS = 4;
+
 /**
  * Pivot order for sparse Gaussian elimination by the Markowitz criterion with threshold
  * pivoting (Duff, Erisman & Reid, *Direct Methods for Sparse Matrices*, §7.2 and §4.4): at each
  * step, among the entries at least `threshold` of the largest in their column, take the one
  * whose row and column counts promise the least fill, (r − 1)·(c − 1). The search visits the
- * rows and columns of smallest count first and stops once no unvisited entry can do better
- * (ibid. §10.2), so a step costs about the entries it touches, not n².
+ * rows and columns of smallest count first and stops once no unvisited entry can do better, or
+ * once SEARCH_ROWS rows and columns have been looked at and some pivot found (ibid. §10.2,
+ * after Zlatev's restricted search), so a step costs about the entries it touches, not n².
  *
  * The active submatrix is kept as row lists (columns and values) and column lists (rows); the
  * elimination updates values and adds fill as the factorisation would. Memory is linear in the
@@ -84,13 +88,14 @@ export function markowitzOrder(
         pj = j;
       }
     };
+    let looked = 0;
     search: for (let count = 1; count <= n; count++) {
       for (let j = colBuckets.head[count]!; j >= 0; j = colBuckets.next[j]!) {
         for (const i of colRows[j]!) {
           const v = Math.abs(valueAt(i, j));
           if (usable(v, j, step)) consider(i, j, v, (rowCols[i]!.length - 1) * (count - 1));
         }
-        if (bestCost <= (count - 1) * (count - 1)) break search;
+        if (bestCost <= (count - 1) * (count - 1) || (++looked >= SEARCH_ROWS && pi >= 0)) break search;
       }
       for (let i = rowBuckets.head[count]!; i >= 0; i = rowBuckets.next[i]!) {
         const cs = rowCols[i]!;
@@ -100,7 +105,7 @@ export function markowitzOrder(
           const v = Math.abs(vs[t]!);
           if (usable(v, j, step)) consider(i, j, v, (count - 1) * (colRows[j]!.length - 1));
         }
-        if (bestCost <= (count - 1) * (count - 1)) break search;
+        if (bestCost <= (count - 1) * (count - 1) || (++looked >= SEARCH_ROWS && pi >= 0)) break search;
       }
       // Every entry not yet seen lies in a row and a column of more than `count` entries.
       if (bestCost <= count * count) break;

@@ -18,12 +18,28 @@ export const KEEP_PIVOT = 0.1;
  */
 const DENSE_LIMIT = 400;
 
-/** A factorisation as a snapshot keeps it: the pivot order and the packed factors. */
-export interface SparseLuState {
-  /** Whether the factors follow the sparse schedule of that order (else the dense fallback's). */
-  readonly scheduled: boolean;
+/**
+ * Pivot orders kept for reuse. A circuit's devices swing between a few operating regions (a
+ * diode conducting or not, an amplifier in its linear range or at a rail), and an order that
+ * failed the threshold test in one region usually serves again when the circuit comes back to it;
+ * trying the kept ones costs a refactorisation each, far less than ordering afresh.
+ */
+const KEPT_ORDERS = 4;
+
+/** One pivot order with its schedule and, for small circuits, its generated code. */
+interface Plan {
   readonly rowOrder: Int32Array;
   readonly colOrder: Int32Array;
+  readonly schedule: EliminationSchedule;
+  readonly compiled: CompiledElimination | undefined;
+}
+
+/** A factorisation as a snapshot keeps it: the kept pivot orders and the packed factors. */
+export interface SparseLuState {
+  /** Whether the factors follow the first kept order's schedule (else the dense fallback's). */
+  readonly scheduled: boolean;
+  /** The kept orders, the one in use first. */
+  readonly orders: readonly { readonly rowOrder: Int32Array; readonly colOrder: Int32Array }[];
   readonly lu: Float64Array;
   /** The dense fallback's factors and row order, when it factored. */
   readonly dense: { readonly lu: Float64Array; readonly perm: Int32Array } | undefined;
@@ -34,7 +50,8 @@ export interface SparseLuState {
  * matrix of a circuit: the caller writes the entries' values into `a` (entry e at a[e], in the
  * order given to the constructor) and calls `factor`. The pivot order is chosen by the
  * Markowitz criterion with threshold pivoting (markowitz.ts) on the first factorisation and kept
- * while every pivot stays above KEEP_PIVOT of its column; only when one fails is it chosen afresh.
+ * while every pivot stays above KEEP_PIVOT of its column; only when one fails (and none of the
+ * last KEPT_ORDERS orders serves either) is it chosen afresh.
  * The elimination in a kept order visits only the nonzeros of L and U (elimination-schedule.ts),
  * as straight-line code for small circuits (compiled-elimination.ts). No n×n storage.
  */
@@ -44,17 +61,15 @@ export class SparseLu {
   readonly a: Float64Array;
   readonly rows: Int32Array;
   readonly cols: Int32Array;
-  /** Row i of P·A·Q is row rowOrder[i] of A; column j is column colOrder[j]. */
-  readonly rowOrder: Int32Array;
-  readonly colOrder: Int32Array;
   /** A pivot smaller than this fraction of its column's largest entry counts as zero. */
   pivotTolerance = 1e-13;
   /** Original column of the first zero pivot found by the last `factor`, or −1. */
   singularColumn = -1;
   /** Factorisations that chose their pivots afresh (the rest reused an order). */
   pivotings = 0;
-  private schedule: EliminationSchedule | undefined;
-  private compiled: CompiledElimination | undefined;
+  /** The order in use (undefined: none, or the dense fallback's), and the kept ones, most recent first. */
+  private current: Plan | undefined;
+  private plans: Plan[] = [];
   private lu = new Float64Array(0);
   private readonly work: Float64Array;
   private dense: DenseLu | undefined;
@@ -68,31 +83,40 @@ export class SparseLu {
     this.rows = rows;
     this.cols = cols;
     this.a = new Float64Array(rows.length);
-    this.rowOrder = new Int32Array(n);
-    this.colOrder = new Int32Array(n);
     this.work = new Float64Array(n);
     this.compile = options.compile ?? true;
   }
 
+  /** Row i of P·A·Q is row rowOrder[i] of A (of the order in use). */
+  get rowOrder(): Int32Array {
+    return this.current?.rowOrder ?? new Int32Array(0);
+  }
+
+  /** Column j of P·A·Q is column colOrder[j] of A (of the order in use). */
+  get colOrder(): Int32Array {
+    return this.current?.colOrder ?? new Int32Array(0);
+  }
+
   /** Entries of L and U (with the pattern's own), or 0 before the first sparse factorisation. */
   get factorSize(): number {
-    return this.schedule?.slots ?? 0;
+    return this.current?.schedule.slots ?? 0;
   }
 
   /** Factors the matrix in `a`. Returns false when it is singular, leaving `singularColumn` set. */
   factor(): boolean {
     this.singularColumn = -1;
-    if (this.schedule && this.refactor()) return true;
-    this.pivotings++;
-    this.schedule = undefined;
-    this.compiled = undefined;
     this.denseFactored = false;
-    const stuck = markowitzOrder(this.n, this.rows, this.cols, this.a, KEEP_PIVOT, this.pivotTolerance, this.rowOrder, this.colOrder);
+    const current = this.current;
+    if (current && this.refactor(current)) return true;
+    for (const p of this.plans) if (p !== current && this.refactor(p)) return this.use(p);
+    this.pivotings++;
+    this.current = undefined;
+    const rowOrder = new Int32Array(this.n);
+    const colOrder = new Int32Array(this.n);
+    const stuck = markowitzOrder(this.n, this.rows, this.cols, this.a, KEEP_PIVOT, this.pivotTolerance, rowOrder, colOrder);
     if (stuck < 0) {
-      this.plan();
-      if (this.refactor()) return true;
-      this.schedule = undefined;
-      this.compiled = undefined;
+      const p = this.plan(rowOrder, colOrder);
+      if (this.refactor(p)) return this.use(p);
     }
     if (this.n > DENSE_LIMIT) {
       this.singularColumn = Math.max(stuck, 0);
@@ -101,11 +125,18 @@ export class SparseLu {
     return this.factorDense();
   }
 
-  private plan(): void {
-    const s = new EliminationSchedule(this.n, this.rows, this.cols, this.rowOrder, this.colOrder);
-    this.schedule = s;
-    if (this.lu.length < s.slots) this.lu = new Float64Array(s.slots);
-    this.compiled = this.compile ? compileElimination(s, this.n, this.rowOrder, this.colOrder) : undefined;
+  /** Makes p the order in use and the most recent kept one. */
+  private use(p: Plan): true {
+    this.current = p;
+    this.plans = [p, ...this.plans.filter((q) => q !== p)].slice(0, KEPT_ORDERS);
+    return true;
+  }
+
+  private plan(rowOrder: Int32Array, colOrder: Int32Array): Plan {
+    const schedule = new EliminationSchedule(this.n, this.rows, this.cols, rowOrder, colOrder);
+    if (this.lu.length < schedule.slots) this.lu = new Float64Array(schedule.slots);
+    const compiled = this.compile ? compileElimination(schedule, this.n, rowOrder, colOrder) : undefined;
+    return { rowOrder, colOrder, schedule, compiled };
   }
 
   private factorDense(): boolean {
@@ -119,11 +150,11 @@ export class SparseLu {
     return this.denseFactored;
   }
 
-  /** Elimination in the kept order over the kept nonzeros; false when a pivot got too small. */
-  private refactor(): boolean {
+  /** Elimination in a kept order over its nonzeros; false when a pivot got too small. */
+  private refactor(p: Plan): boolean {
     const { a, lu } = this;
-    if (this.compiled) return this.compiled.refactor(a, lu, KEEP_PIVOT, this.pivotTolerance);
-    const s = this.schedule!;
+    if (p.compiled) return p.compiled.refactor(a, lu, KEEP_PIVOT, this.pivotTolerance);
+    const s = p.schedule;
     const { pivotAt, lowerStart, lowerAt, upperStart, upperAt, updateAt, columnStart, columnAt } = s;
     lu.set(a);
     lu.fill(0, s.entries, s.slots);
@@ -172,12 +203,14 @@ export class SparseLu {
       if (sign < 0) for (let i = 0; i < this.n; i++) x[i] = -x[i]!;
       return;
     }
-    if (this.compiled) {
-      this.compiled.solve(this.lu, b, x, sign);
+    const p = this.current!;
+    if (p.compiled) {
+      p.compiled.solve(this.lu, b, x, sign);
       return;
     }
-    const { n, lu, rowOrder, colOrder, work: y } = this;
-    const { rowLowerStart, rowLowerAt, rowLowerCol, upperStart, upperAt, upperCol, pivotAt } = this.schedule!;
+    const { n, lu, work: y } = this;
+    const { rowOrder, colOrder } = p;
+    const { rowLowerStart, rowLowerAt, rowLowerCol, upperStart, upperAt, upperCol, pivotAt } = p.schedule;
     for (let i = 0; i < n; i++) {
       let s = b[rowOrder[i]!]!;
       const end = rowLowerStart[i + 1]!;
@@ -195,7 +228,7 @@ export class SparseLu {
 
   /** The factors' entry at row i, column j of P·A·Q (L below the diagonal, U on and above), for checks. */
   factorEntry(i: number, j: number): number {
-    const s = this.schedule;
+    const s = this.current?.schedule;
     if (!s) throw new RangeError("SparseLu.factorEntry: no sparse factorisation");
     if (i > j) {
       for (let e = s.rowLowerStart[i]!; e < s.rowLowerStart[i + 1]!; e++) if (s.rowLowerCol[e] === j) return this.lu[s.rowLowerAt[e]!]!;
@@ -206,36 +239,35 @@ export class SparseLu {
     return 0;
   }
 
-  /** Whether the last factorisation followed the sparse schedule (else the dense fallback). */
+  /** Whether the last factorisation followed a sparse schedule (else the dense fallback). */
   get scheduled(): boolean {
-    return this.schedule !== undefined && !this.denseFactored;
+    return this.current !== undefined && !this.denseFactored;
   }
 
   state(): SparseLuState {
+    const current = this.scheduled ? this.current : undefined;
     return {
-      scheduled: this.scheduled,
-      rowOrder: Int32Array.from(this.rowOrder),
-      colOrder: Int32Array.from(this.colOrder),
-      lu: this.scheduled ? this.lu.slice(0, this.schedule!.slots) : new Float64Array(0),
+      scheduled: current !== undefined,
+      orders: (current ? [current, ...this.plans.filter((p) => p !== current)] : this.plans).map((p) => ({
+        rowOrder: Int32Array.from(p.rowOrder),
+        colOrder: Int32Array.from(p.colOrder),
+      })),
+      lu: current ? this.lu.slice(0, current.schedule.slots) : new Float64Array(0),
       dense: this.denseFactored ? { lu: Float64Array.from(this.dense!.lu), perm: Int32Array.from(this.dense!.perm) } : undefined,
     };
   }
 
-  /** Continues from a snapshot's factorisation: same order, same schedule, same factors. */
+  /** Continues from a snapshot's factorisation: same kept orders, same schedules, same factors. */
   restore(state: SparseLuState): void {
-    this.schedule = undefined;
-    this.compiled = undefined;
+    this.plans = state.orders.map((o) => this.plan(Int32Array.from(o.rowOrder), Int32Array.from(o.colOrder)));
+    this.current = state.scheduled ? this.plans[0] : undefined;
     this.denseFactored = false;
-    this.rowOrder.set(state.rowOrder);
-    this.colOrder.set(state.colOrder);
     if (state.dense) {
       this.dense ??= new DenseLu(this.n);
       this.dense.lu.set(state.dense.lu);
       this.dense.perm.set(state.dense.perm);
       this.denseFactored = true;
     }
-    if (!state.scheduled) return;
-    this.plan();
-    this.lu.set(state.lu);
+    if (this.current) this.lu.set(state.lu);
   }
 }
