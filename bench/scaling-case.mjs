@@ -27,7 +27,7 @@ const cases = {
   /** The same ladder driven by a sine at the oscillator's frequency, stepped as the oscillator is. */
   "driven-ladder": (sections) => ({
     circuit: [part("vsource", "Vs", ["n0", "gnd"], undefined, { wave: "sine", amp: 1, freq: 1 / PERIOD }), ...ladderParts(sections)],
-    until: 20 * PERIOD,
+    until: 80 * PERIOD,
     maxStep: PERIOD / 100,
     start: "bias",
   }),
@@ -51,7 +51,7 @@ const cases = {
       part("opamp", "U1", ["p", "n", "o"], undefined, { gain: 200000, gbw: 1e6, slew: 5e5, rout: 75, rin: 2e6, headroom: 1.5, knee: 0.01, noise: 0, rails: [-12, 12], vos: 0 }),
       part("capacitor", "Ckick", [`l${sections >> 1}`, "gnd"], 1e-12, { initial: 0.1 }),
     ],
-    until: 20 * PERIOD,
+    until: 80 * PERIOD,
     maxStep: PERIOD / 100,
     start: "rest",
   }),

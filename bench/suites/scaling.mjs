@@ -46,7 +46,7 @@ export async function run() {
 
   const oscillator = runCase("oscillator", 300);
   const ladder = runCase("driven-ladder", 300);
-  console.log("\nNonlinear against linear at 300 sections, the same step limit (T/100), 20 periods; rate over the second half:\n");
+  console.log("\nNonlinear against linear at 300 sections, the same step limit (T/100), 80 periods; rate over the second half (the oscillation settled):\n");
   printTable(
     [oscillator, ladder].map((r) => ({
       case: r.kind === "oscillator" ? "ladder-network oscillator (op-amp, 4 diodes)" : "RC ladder driven by a sine",

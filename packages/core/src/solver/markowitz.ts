@@ -1,6 +1,9 @@
 import { CountBuckets } from "./count-buckets.js";
 
-/** Rows and columns a step's search looks at once it has a pivot (Zlatev's restricted search uses 2–4). */
+/**
+ * Rows and columns a step's search looks at once it has a pivot (Zlatev, "On some pivotal
+ * strategies in Gaussian elimination by sparse technique", SIAM J. Numer. Anal. 17, 1980: 2–4).
+ */
 const SEARCH_ROWS = 4;
 
 /**
