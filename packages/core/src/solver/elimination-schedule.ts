@@ -99,7 +99,8 @@ export class EliminationSchedule {
       const ss = rowSlots[k]!;
       upperStart[k] = upperAt.length;
       pivotAt[k] = -1;
-      for (let t = 0; t < cs.length; t++) {
+      // By column, so that the substitutions sum in the same order whatever order the entries came in.
+      for (const t of byColumn(cs)) {
         if (cs[t] === k) pivotAt[k] = ss[t]!;
         else if (cs[t]! > k) {
           upperAt.push(ss[t]!);
@@ -146,7 +147,7 @@ export class EliminationSchedule {
     for (let i = 0; i < n; i++) {
       rowLowerStart[i] = rowLowerAt.length;
       const cs = rowCols[i]!;
-      for (let t = 0; t < cs.length; t++) {
+      for (const t of byColumn(cs)) {
         if (cs[t]! >= i) continue;
         rowLowerAt.push(rowSlots[i]![t]!);
         rowLowerCol.push(cs[t]!);
@@ -162,4 +163,9 @@ export class EliminationSchedule {
   get operations(): number {
     return this.updateAt.length;
   }
+}
+
+/** Positions of a row's entries in increasing column order. */
+function byColumn(cols: readonly number[]): number[] {
+  return cols.map((_, t) => t).sort((p, q) => cols[p]! - cols[q]!);
 }

@@ -7,6 +7,13 @@ import { CountBuckets } from "./count-buckets.js";
 const SEARCH_ROWS = 4;
 
 /**
+ * Up to this size the search is exhaustive (pruned only where no unseen entry can tie), so a
+ * small circuit gets the one order the criterion and its tie-breaks define: least cost, then the
+ * largest pivot relative to its column, then the first in row-major order.
+ */
+const EXHAUSTIVE = 64;
+
+/**
  * Pivot order for sparse Gaussian elimination by the Markowitz criterion with threshold
  * pivoting (Duff, Erisman & Reid, *Direct Methods for Sparse Matrices*, §7.2 and §4.4): at each
  * step, among the entries at least `threshold` of the largest in their column, take the one
@@ -76,6 +83,7 @@ export function markowitzOrder(
   const mark = new Int32Array(n).fill(-1);
   let stamp = 0;
   const colDone = new Uint8Array(n);
+  const exhaustive = n <= EXHAUSTIVE;
 
   for (let step = 0; step < n; step++) {
     let pi = -1;
@@ -84,7 +92,7 @@ export function markowitzOrder(
     let bestQuality = 0;
     const consider = (i: number, j: number, v: number, cost: number): void => {
       const quality = v / columnMax(j, step);
-      if (cost < bestCost || (cost === bestCost && quality > bestQuality)) {
+      if (cost < bestCost || (cost === bestCost && (quality > bestQuality || (quality === bestQuality && (i < pi || (i === pi && j < pj)))))) {
         bestCost = cost;
         bestQuality = quality;
         pi = i;
@@ -92,13 +100,15 @@ export function markowitzOrder(
       }
     };
     let looked = 0;
+    // Stop once the best cost is below (exhaustive: strictly) what any unseen entry could cost.
+    const enough = (bound: number): boolean => (exhaustive ? bestCost < bound : bestCost <= bound || (++looked >= SEARCH_ROWS && pi >= 0));
     search: for (let count = 1; count <= n; count++) {
       for (let j = colBuckets.head[count]!; j >= 0; j = colBuckets.next[j]!) {
         for (const i of colRows[j]!) {
           const v = Math.abs(valueAt(i, j));
           if (usable(v, j, step)) consider(i, j, v, (rowCols[i]!.length - 1) * (count - 1));
         }
-        if (bestCost <= (count - 1) * (count - 1) || (++looked >= SEARCH_ROWS && pi >= 0)) break search;
+        if (enough((count - 1) * (count - 1))) break search;
       }
       for (let i = rowBuckets.head[count]!; i >= 0; i = rowBuckets.next[i]!) {
         const cs = rowCols[i]!;
@@ -108,10 +118,10 @@ export function markowitzOrder(
           const v = Math.abs(vs[t]!);
           if (usable(v, j, step)) consider(i, j, v, (count - 1) * (colRows[j]!.length - 1));
         }
-        if (bestCost <= (count - 1) * (count - 1) || (++looked >= SEARCH_ROWS && pi >= 0)) break search;
+        if (enough((count - 1) * (count - 1))) break search;
       }
       // Every entry not yet seen lies in a row and a column of more than `count` entries.
-      if (bestCost <= count * count) break;
+      if (exhaustive ? bestCost < count * count : bestCost <= count * count) break;
     }
     if (pi < 0) return colDone.indexOf(0);
     rowOrder[step] = pi;
