@@ -171,6 +171,28 @@ describe("SparseLu (Markowitz order kept across factorisations, P·A·Q = L·U)"
     expect(worst).toBeLessThanOrEqual(1e-14 * scale);
   });
 
+  test("an earlier order that serves again is taken back without ordering afresh", () => {
+    const n = 2;
+    const pattern = new Uint8Array(4).fill(1);
+    const a = Float64Array.from([40, 1, 1, 3]); // pivots (0, 0) then (1, 1)
+    const b = Float64Array.from([1e-9, 1, 1, 3]); // (0, 0) is no pivot now: (1, 0) first
+    const lu = sparseLuOf(n, a, pattern);
+    expect(lu.factor()).toBe(true);
+    lu.a.set(b);
+    expect(lu.factor()).toBe(true);
+    expect(lu.pivotings).toBe(2);
+    expect([...lu.rowOrder]).toEqual([1, 0]);
+    // On a, pivot (1, 0) = 1 is below 0.1 of the 40 under it: the first order serves again.
+    lu.a.set(a);
+    expect(lu.factor()).toBe(true);
+    expect(lu.pivotings).toBe(2);
+    expect([...lu.rowOrder]).toEqual([0, 1]);
+    const x = new Float64Array(n);
+    lu.solve(Float64Array.from([41, 4]), x);
+    expect(x[0]).toBeCloseTo(1, 14);
+    expect(x[1]).toBeCloseTo(1, 14);
+  });
+
   test("a singular matrix is reported with the column of the zero pivot", () => {
     const lu = sparseLuOf(3, Float64Array.from([1, 2, 3, 4, 5, 9, 7, 8, 15]), new Uint8Array(9).fill(1));
     expect(lu.factor()).toBe(false);
