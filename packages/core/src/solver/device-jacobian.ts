@@ -9,11 +9,19 @@ export interface DeviceJacobianState {
 const GOLDEN = 0x9e3779b1;
 
 /**
+ * Up to this many unknowns the entries are found through an n×n position table (at most 64 KiB)
+ * instead of the hash: small circuits stamp a few dozen entries per iterate, and there the
+ * probing cost as much as the devices' own arithmetic.
+ */
+const POSITION_TABLE_LIMIT = 128;
+
+/**
  * The nonlinear devices' share of the Newton matrix (∂f/∂x + a·∂q/∂x), kept apart from the
  * constant G + a·C so that each iteration can tell whether the factorisation in use still
  * describes the circuit. Devices stamp on every iteration into the entries they have touched,
  * found by an open-addressing hash of (row, col) (Knuth, *TAoCP* vol. 3, §6.4, algorithm L);
- * storage and an iteration's cost follow the device entries, not n².
+ * storage and an iteration's cost follow the device entries, not n². Small circuits index an
+ * n×n table of entry positions instead.
  */
 export class DeviceJacobian {
   readonly n: number;
@@ -29,9 +37,12 @@ export class DeviceJacobian {
   /** Entry index per hash slot, −1 where free. */
   private table = new Int32Array(32).fill(-1);
   private mask = 31;
+  /** Small circuits: entry index at row·n + col, −1 where not touched (undefined: the hash serves). */
+  private readonly position: Int32Array | undefined;
 
   constructor(n: number) {
     this.n = n;
+    if (n <= POSITION_TABLE_LIMIT) this.position = new Int32Array(n * n).fill(-1);
   }
 
   /** How many entries the devices have touched so far (it only grows). */
@@ -39,23 +50,37 @@ export class DeviceJacobian {
     return this.count;
   }
 
-  /** Adds to entry (row, col), both ≥ 0, touching it first if new. */
+  /**
+   * Adds to entry (row, col), both ≥ 0, touching it first if new. Kept this small so that it
+   * inlines into the devices' loads: a double handed to a call that is not inlined is boxed, and
+   * those boxes were most of the garbage a small circuit's time step made.
+   */
   add(row: number, col: number, value: number): void {
+    const e = this.entryOf(row, col);
+    this.values[e] += value;
+  }
+
+  /** The index of entry (row, col), touched first if new (which may grow the arrays). */
+  private entryOf(row: number, col: number): number {
+    const position = this.position;
+    if (position !== undefined) {
+      const k = row * this.n + col;
+      const e = position[k]!;
+      if (e >= 0) return e;
+      position[k] = this.count;
+      return this.touch(row, col, -1);
+    }
     const { table, mask, rows, cols } = this;
     let h = (Math.imul(row, GOLDEN) + col) & mask;
     for (;;) {
       const e = table[h]!;
-      if (e < 0) break;
-      if (rows[e] === row && cols[e] === col) {
-        this.values[e] += value;
-        return;
-      }
+      if (e < 0) return this.touch(row, col, h);
+      if (rows[e] === row && cols[e] === col) return e;
       h = (h + 1) & mask;
     }
-    this.values[this.touch(row, col, h)] += value;
   }
 
-  /** Records a new entry at free hash slot h; returns its index. */
+  /** Records a new entry at free hash slot h (−1: the position table holds it); returns its index. */
   private touch(row: number, col: number, h: number): number {
     const e = this.count;
     if (e === this.rows.length) this.grow();
@@ -65,6 +90,7 @@ export class DeviceJacobian {
     this.baseAt[e] = -1;
     this.targetAt[e] = -1;
     this.count++;
+    if (h < 0) return e;
     if (2 * this.count > this.mask) this.rehash();
     else this.table[h] = e;
     return e;
