@@ -56,6 +56,14 @@ export class DeviceJacobian {
    * those boxes were most of the garbage a small circuit's time step made.
    */
   add(row: number, col: number, value: number): void {
+    const position = this.position;
+    if (position !== undefined) {
+      const known = position[row * this.n + col]!;
+      if (known >= 0) {
+        this.values[known] += value;
+        return;
+      }
+    }
     const e = this.entryOf(row, col);
     this.values[e] += value;
   }
@@ -134,7 +142,9 @@ export class DeviceJacobian {
 
   /** Zeroes the touched entries before the devices stamp again. */
   clear(): void {
-    this.values.fill(0, 0, this.count);
+    // A loop, not fill(): a builtin call costs more than the few dozen entries of a small circuit.
+    const values = this.values;
+    for (let e = 0; e < this.count; e++) values[e] = 0;
   }
 
   /** matrix[target] += these values (after `link`), remembered as the factored ones. */
