@@ -62,3 +62,16 @@ export function residual(n: number, a: Float64Array, x: Float64Array, b: Float64
   }
   return { worst, scale };
 }
+
+/** The pattern's entries of a row-major matrix as (row, col, value) lists, in an order given by `shuffle` (a rotation). */
+export function entriesOf(n: number, a: Float64Array, pattern: Uint8Array, shuffle = 0): { rows: Int32Array; cols: Int32Array; values: Float64Array } {
+  const at: number[] = [];
+  for (let k = 0; k < n * n; k++) if (pattern[k]) at.push(k);
+  const s = at.length === 0 ? 0 : shuffle % at.length;
+  const order = [...at.slice(s), ...at.slice(0, s)];
+  return {
+    rows: Int32Array.from(order, (k) => Math.floor(k / n)),
+    cols: Int32Array.from(order, (k) => k % n),
+    values: Float64Array.from(order, (k) => a[k]!),
+  };
+}

@@ -1,35 +1,48 @@
 /** The touched entries, in the order they were first touched, and the values last factored. */
 export interface DeviceJacobianState {
-  readonly entries: Int32Array;
+  readonly rows: Int32Array;
+  readonly cols: Int32Array;
   readonly factored: Float64Array;
 }
+
+/** Knuth's multiplicative hashing constant (2³² / golden ratio), for the entry table. */
+const GOLDEN = 0x9e3779b1;
+
+/**
+ * Up to this many unknowns the entries are found through an n×n position table (at most 64 KiB)
+ * instead of the hash: small circuits stamp a few dozen entries per iterate, and there the
+ * probing cost as much as the devices' own arithmetic.
+ */
+const POSITION_TABLE_LIMIT = 128;
 
 /**
  * The nonlinear devices' share of the Newton matrix (∂f/∂x + a·∂q/∂x), kept apart from the
  * constant G + a·C so that each iteration can tell whether the factorisation in use still
- * describes the circuit. Devices stamp on every iteration; only the entries they have ever
- * touched are visited, so an iteration costs O(device entries), not O(n²).
+ * describes the circuit. Devices stamp on every iteration into the entries they have touched,
+ * found by an open-addressing hash of (row, col) (Knuth, *TAoCP* vol. 3, §6.4, algorithm L);
+ * storage and an iteration's cost follow the device entries, not n². Small circuits index an
+ * n×n table of entry positions instead.
  */
 export class DeviceJacobian {
   readonly n: number;
-  /** Row-major n×n, nonzero only at touched entries. */
-  readonly values: Float64Array;
-  /** The values that went into the last factorisation. */
-  private readonly factored: Float64Array;
-  /** 1 at the entries touched so far. */
-  readonly marked: Uint8Array;
-  private entries: Int32Array;
-  /** The row of each touched entry. */
-  private rows: Int32Array;
+  /** Per entry, in the order first touched: its row, column, current and last factored value. */
+  rows = new Int32Array(16);
+  cols = new Int32Array(16);
+  values = new Float64Array(16);
+  private factored = new Float64Array(16);
+  /** Per entry: its index in the constant matrix's entries (the base array), and in the matrix factored. */
+  private baseAt = new Int32Array(16);
+  private targetAt = new Int32Array(16);
   private count = 0;
+  /** Entry index per hash slot, −1 where free. */
+  private table = new Int32Array(32).fill(-1);
+  private mask = 31;
+  /** Small circuits: entry index at row·n + col, −1 where not touched (undefined: the hash serves). */
+  private readonly position: Int32Array | undefined;
 
   constructor(n: number) {
     this.n = n;
-    this.values = new Float64Array(n * n);
-    this.factored = new Float64Array(n * n);
-    this.marked = new Uint8Array(n * n);
-    this.entries = new Int32Array(16);
-    this.rows = new Int32Array(16);
+    if (n <= POSITION_TABLE_LIMIT) this.position = new Int32Array(n * n).fill(-1);
   }
 
   /** How many entries the devices have touched so far (it only grows). */
@@ -37,45 +50,110 @@ export class DeviceJacobian {
     return this.count;
   }
 
-  /** Sets mask[k] = 1 at every touched entry. */
-  markInto(mask: Uint8Array): void {
-    for (let e = 0; e < this.count; e++) mask[this.entries[e]!] = 1;
+  /**
+   * Adds to entry (row, col), both ≥ 0, touching it first if new. Kept this small so that it
+   * inlines into the devices' loads: a double handed to a call that is not inlined is boxed, and
+   * those boxes were most of the garbage a small circuit's time step made.
+   */
+  add(row: number, col: number, value: number): void {
+    const position = this.position;
+    if (position !== undefined) {
+      const known = position[row * this.n + col]!;
+      if (known >= 0) {
+        this.values[known] += value;
+        return;
+      }
+    }
+    const e = this.entryOf(row, col);
+    this.values[e] += value;
+  }
+
+  /** The index of entry (row, col), touched first if new (which may grow the arrays). */
+  private entryOf(row: number, col: number): number {
+    const position = this.position;
+    if (position !== undefined) {
+      const k = row * this.n + col;
+      const e = position[k]!;
+      if (e >= 0) return e;
+      position[k] = this.count;
+      return this.touch(row, col, -1);
+    }
+    const { table, mask, rows, cols } = this;
+    let h = (Math.imul(row, GOLDEN) + col) & mask;
+    for (;;) {
+      const e = table[h]!;
+      if (e < 0) return this.touch(row, col, h);
+      if (rows[e] === row && cols[e] === col) return e;
+      h = (h + 1) & mask;
+    }
+  }
+
+  /** Records a new entry at free hash slot h (−1: the position table holds it); returns its index. */
+  private touch(row: number, col: number, h: number): number {
+    const e = this.count;
+    if (e === this.rows.length) this.grow();
+    this.rows[e] = row;
+    this.cols[e] = col;
+    this.values[e] = 0;
+    this.baseAt[e] = -1;
+    this.targetAt[e] = -1;
+    this.count++;
+    if (h < 0) return e;
+    if (2 * this.count > this.mask) this.rehash();
+    else this.table[h] = e;
+    return e;
+  }
+
+  private grow(): void {
+    const size = 2 * this.rows.length;
+    const widen = <T extends Int32Array | Float64Array>(a: T): T => {
+      const b = new (a.constructor as new (n: number) => T)(size);
+      b.set(a);
+      return b;
+    };
+    this.rows = widen(this.rows);
+    this.cols = widen(this.cols);
+    this.values = widen(this.values);
+    this.factored = widen(this.factored);
+    this.baseAt = widen(this.baseAt);
+    this.targetAt = widen(this.targetAt);
+  }
+
+  private rehash(): void {
+    const size = 4 * (this.mask + 1);
+    this.mask = size - 1;
+    this.table = new Int32Array(size).fill(-1);
+    for (let e = 0; e < this.count; e++) {
+      let h = (Math.imul(this.rows[e]!, GOLDEN) + this.cols[e]!) & this.mask;
+      while (this.table[h]! >= 0) h = (h + 1) & this.mask;
+      this.table[h] = e;
+    }
+  }
+
+  /** Where entry e sits in the constant part's entries (`moved` reads base[at]; −1: not there). */
+  linkBase(e: number, at: number): void {
+    this.baseAt[e] = at;
+  }
+
+  /** Where entry e sits in the factored matrix's entries (`assemble` adds it there). */
+  linkTarget(e: number, at: number): void {
+    this.targetAt[e] = at;
   }
 
   /** Zeroes the touched entries before the devices stamp again. */
   clear(): void {
-    const { values, entries } = this;
-    for (let e = 0; e < this.count; e++) values[entries[e]!] = 0;
+    // A loop, not fill(): a builtin call costs more than the few dozen entries of a small circuit.
+    const values = this.values;
+    for (let e = 0; e < this.count; e++) values[e] = 0;
   }
 
-  /**
-   * Records entry (row, col), both ≥ 0, as touched; callers then add to `values` themselves
-   * (the solver's load checks `marked` first, so this runs once per entry).
-   */
-  touch(row: number, col: number): void {
-    const k = row * this.n + col;
-    if (this.marked[k] === 1) return;
-    this.marked[k] = 1;
-    if (this.count === this.entries.length) {
-      const entries = new Int32Array(2 * this.count);
-      entries.set(this.entries);
-      this.entries = entries;
-      const rows = new Int32Array(2 * this.count);
-      rows.set(this.rows);
-      this.rows = rows;
-    }
-    this.rows[this.count] = row;
-    this.entries[this.count++] = k;
-  }
-
-  /** matrix ← base + these values, remembered as the factored ones. */
-  assemble(base: Float64Array, matrix: Float64Array): void {
-    const { values, factored, entries } = this;
-    matrix.set(base);
+  /** matrix[target] += these values (after `link`), remembered as the factored ones. */
+  assemble(matrix: Float64Array): void {
+    const { values, factored, targetAt } = this;
     for (let e = 0; e < this.count; e++) {
-      const k = entries[e]!;
-      matrix[k] += values[k]!;
-      factored[k] = values[k]!;
+      const v = values[e]!;
+      matrix[targetAt[e]!] += v;
+      factored[e] = v;
     }
   }
 
@@ -85,27 +163,27 @@ export class DeviceJacobian {
    * on the old factorisation then contracts at about that fraction or worse.
    */
   moved(base: Float64Array, fraction: number, floor: Float64Array): boolean {
-    const { values, factored, entries, rows } = this;
+    const { values, factored, baseAt, rows } = this;
     for (let e = 0; e < this.count; e++) {
-      const k = entries[e]!;
-      const was = factored[k]!;
-      const change = Math.abs(values[k]! - was);
-      if (change > fraction * Math.abs(base[k]! + was) && change > floor[rows[e]!]!) return true;
+      const was = factored[e]!;
+      const change = Math.abs(values[e]! - was);
+      const b = baseAt[e]!;
+      const whole = b >= 0 ? base[b]! + was : was;
+      if (change > fraction * Math.abs(whole) && change > floor[rows[e]!]!) return true;
     }
     return false;
   }
 
   state(): DeviceJacobianState {
-    const entries = this.entries.slice(0, this.count);
-    return { entries, factored: Float64Array.from(entries, (k) => this.factored[k]!) };
+    const c = this.count;
+    return { rows: this.rows.slice(0, c), cols: this.cols.slice(0, c), factored: this.factored.slice(0, c) };
   }
 
   /** Touches the snapshot's entries in their order and sets the factored values (on a fresh instance). */
   restore(state: DeviceJacobianState): void {
-    const n = this.n;
-    state.entries.forEach((k, e) => {
-      this.touch(Math.floor(k / n), k % n);
-      this.factored[k] = state.factored[e]!;
+    state.rows.forEach((row, e) => {
+      this.add(row, state.cols[e]!, 0);
+      this.factored[e] = state.factored[e]!;
     });
   }
 }

@@ -1,7 +1,8 @@
 import { simulationError } from "../circuit/diagnostic.js";
 import { compileResidual, type ResidualProduct } from "./compiled-residual.js";
 import { DeviceJacobian, type DeviceJacobianState } from "./device-jacobian.js";
-import { LuSolver, type LuState } from "./lu.js";
+import { linearStructureOf, type LinearStructure } from "./linear-structure.js";
+import { SparseLu, type SparseLuState } from "./sparse-lu.js";
 import type { MnaSystem } from "./system.js";
 
 /**
@@ -12,22 +13,13 @@ export const STALE_ENTRY = 0.25;
 /** Entry changes below this fraction of their row's largest constant entry are ignored. */
 const ENTRY_FLOOR = 1e-9;
 
-/** The entries G + a·C + gmin can have: those of G and C, and every diagonal. */
-function linearPatternOf(system: MnaSystem): Uint8Array {
-  const n = system.n;
-  const pattern = new Uint8Array(n * n);
-  for (let k = 0; k < n * n; k++) if (system.G[k] !== 0 || system.C[k] !== 0) pattern[k] = 1;
-  for (let i = 0; i < n; i++) pattern[i * n + i] = 1;
-  return pattern;
-}
-
 /** What a snapshot keeps of the Newton matrix so that a resumed run factors exactly as the original. */
 export interface NewtonMatrixState {
   readonly a: Float64Array;
   readonly factorizations: number;
   readonly luValid: boolean;
   readonly patternEntries: number;
-  readonly lu: LuState;
+  readonly lu: SparseLuState | undefined;
   readonly devices: DeviceJacobianState;
 }
 
@@ -48,23 +40,21 @@ export class NewtonMatrix {
   factorizations = 0;
 
   private readonly system: MnaSystem;
+  private readonly structure: LinearStructure;
+  /** G + a·C + gmin at the structure's entries. */
   private readonly base: Float64Array;
-  private readonly matrix: Float64Array;
-  private readonly lu: LuSolver;
+  /** The factored matrix: the structure's entries, then the device entries outside it. */
+  private lu: SparseLu | undefined;
   /** Per row: changes of a device entry below this never force a new factorisation. */
   private readonly entryFloor: Float64Array;
-  /** The entries G + a·C + gmin can have. */
-  private readonly linearPattern: Uint8Array;
-  /** The product over the pattern of G, C and the node diagonals, generated once per circuit. */
+  /** The product over the structure, generated once per circuit (else a loop). */
   private readonly residualProduct: ResidualProduct | undefined;
-  // Compressed rows of the assembled G + a·C (+ gmin), rebuilt with it (when not generated).
-  private readonly baseRowStart: Int32Array;
-  private baseCols = new Int32Array(0);
-  private baseValues = new Float64Array(0);
   private baseValid = false;
   private luValid = false;
-  /** Device entries already in the pattern handed to the LU (-1: none handed yet). */
+  /** Device entries already in the structure handed to the LU (-1: none handed yet). */
   private patternEntries = -1;
+  /** Device entries whose place among the constant part's entries is known to them. */
+  private baseLinked = 0;
   private lastUniform = Number.NaN;
   private lastStiff = Number.NaN;
 
@@ -73,13 +63,10 @@ export class NewtonMatrix {
     this.n = n;
     this.system = system;
     this.a = new Float64Array(n);
-    this.base = new Float64Array(n * n);
-    this.matrix = new Float64Array(n * n);
-    this.lu = new LuSolver(n);
+    this.structure = linearStructureOf(system);
+    this.base = new Float64Array(this.structure.rows.length);
     this.entryFloor = new Float64Array(n);
-    this.baseRowStart = new Int32Array(n + 1);
-    this.linearPattern = linearPatternOf(system);
-    this.residualProduct = compileResidual(n, this.linearPattern);
+    this.residualProduct = compileResidual(n, this.structure.rowStart, this.structure.cols);
     this.devices = new DeviceJacobian(n);
   }
 
@@ -123,43 +110,16 @@ export class NewtonMatrix {
   }
 
   private assembleBase(): void {
-    const { n, system, base, a } = this;
-    const { G, C } = system;
-    for (let i = 0; i < n; i++) {
-      const ai = a[i]!;
-      const row = i * n;
-      for (let j = 0; j < n; j++) base[row + j] = G[row + j]! + ai * C[row + j]!;
-    }
-    if (this.gmin > 0) {
-      system.unknowns.forEach((u, i) => {
-        if (u.isNode) base[i * n + i] += this.gmin;
-      });
-    }
+    const { n, base, a, entryFloor } = this;
+    const { rows, g, c, rowStart, nodeDiagonals } = this.structure;
+    for (let e = 0; e < base.length; e++) base[e] = g[e]! + a[rows[e]!]! * c[e]!;
+    if (this.gmin > 0) for (const e of nodeDiagonals) base[e] += this.gmin;
     for (let i = 0; i < n; i++) {
       let largest = 0;
-      for (let j = 0; j < n; j++) largest = Math.max(largest, Math.abs(base[i * n + j]!));
-      this.entryFloor[i] = ENTRY_FLOOR * largest;
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) largest = Math.max(largest, Math.abs(base[e]!));
+      entryFloor[i] = ENTRY_FLOOR * largest;
     }
     this.baseValid = true;
-    if (this.residualProduct) return;
-    // The nonzeros of the assembled matrix, row by row, for the residual product.
-    let count = 0;
-    for (let k = 0; k < n * n; k++) if (base[k] !== 0) count++;
-    if (this.baseCols.length < count) {
-      this.baseCols = new Int32Array(count);
-      this.baseValues = new Float64Array(count);
-    }
-    let k = 0;
-    for (let i = 0; i < n; i++) {
-      this.baseRowStart[i] = k;
-      for (let j = 0; j < n; j++) {
-        const v = base[i * n + j]!;
-        if (v === 0) continue;
-        this.baseCols[k] = j;
-        this.baseValues[k++] = v;
-      }
-    }
-    this.baseRowStart[n] = k;
   }
 
   /** r = (G + a·C + gmin)·x − history − u (the linear part of the residual). */
@@ -168,34 +128,61 @@ export class NewtonMatrix {
       this.residualProduct(this.base, x, history, u, r);
       return;
     }
-    const { n, baseRowStart: start, baseCols: cols, baseValues: values } = this;
+    const { n, base } = this;
+    const { rowStart, cols } = this.structure;
     for (let i = 0; i < n; i++) {
       let sum = -history[i]! - u[i]!;
-      const end = start[i + 1]!;
-      for (let k = start[i]!; k < end; k++) sum += values[k]! * x[cols[k]!]!;
+      const end = rowStart[i + 1]!;
+      for (let e = rowStart[i]!; e < end; e++) sum += base[e]! * x[cols[e]!]!;
       r[i] = sum;
     }
   }
 
   /** True when there is no factorisation, or the devices' entries have moved too far from it. */
   stale(nonlinear: boolean): boolean {
-    return !this.luValid || (nonlinear && this.devices.moved(this.base, STALE_ENTRY, this.entryFloor));
+    if (!this.luValid) return true;
+    if (!nonlinear) return false;
+    const devices = this.devices;
+    for (let e = this.baseLinked; e < devices.entryCount; e++) devices.linkBase(e, this.structure.entryOf(devices.rows[e]!, devices.cols[e]!) ?? -1);
+    this.baseLinked = devices.entryCount;
+    return devices.moved(this.base, STALE_ENTRY, this.entryFloor);
   }
 
-  /** The entries that can ever be nonzero: the linear pattern and the device entries. */
-  private updatePattern(): void {
-    const pattern = Uint8Array.from(this.linearPattern);
-    this.devices.markInto(pattern);
-    this.lu.setPattern(pattern);
-    this.patternEntries = this.devices.entryCount;
+  /**
+   * A new LU for the structure's entries plus the first `count` device entries outside it (the
+   * pivot order is chosen afresh at its first factorisation).
+   */
+  private updatePattern(count: number): SparseLu {
+    const { structure, devices } = this;
+    const rows = Array.from(structure.rows);
+    const cols = Array.from(structure.cols);
+    for (let e = 0; e < count; e++) {
+      const row = devices.rows[e]!;
+      const col = devices.cols[e]!;
+      const at = structure.entryOf(row, col);
+      if (at !== undefined) {
+        devices.linkTarget(e, at);
+      } else {
+        devices.linkTarget(e, rows.length);
+        rows.push(row);
+        cols.push(col);
+      }
+    }
+    this.lu = new SparseLu(this.n, Int32Array.from(rows), Int32Array.from(cols));
+    this.patternEntries = count;
+    return this.lu;
   }
 
   /** Factors the constant part plus the devices' derivatives at the last iterate. */
   factor(): void {
-    if (this.devices.entryCount !== this.patternEntries) this.updatePattern();
-    this.devices.assemble(this.base, this.matrix);
-    if (!this.lu.factor(this.matrix)) {
-      const label = this.system.unknowns[this.lu.singularColumn]?.label ?? "?";
+    if (this.devices.entryCount !== this.patternEntries) this.updatePattern(this.devices.entryCount);
+    const lu = this.lu!;
+    const matrix = lu.a;
+    matrix.set(this.base);
+    matrix.fill(0, this.base.length);
+    this.devices.assemble(matrix);
+    if (!lu.factor()) {
+      const label = this.system.unknowns[lu.singularColumn]?.label ?? "?";
       throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
         hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
       });
@@ -206,7 +193,7 @@ export class NewtonMatrix {
 
   /** dx = −M⁻¹·r with the factorisation in use. */
   solveNegated(r: Float64Array, dx: Float64Array): void {
-    this.lu.solveNegated(r, dx);
+    this.lu!.solveNegated(r, dx);
   }
 
   /** Everything a resumed run needs to factor and reuse exactly as this one would. */
@@ -216,7 +203,7 @@ export class NewtonMatrix {
       factorizations: this.factorizations,
       luValid: this.luValid,
       patternEntries: this.patternEntries,
-      lu: this.lu.state(),
+      lu: this.lu?.state(),
       devices: this.devices.state(),
     };
   }
@@ -229,8 +216,12 @@ export class NewtonMatrix {
     // Coefficients are compared against `a` itself in setCoefficients, so the matrix stays valid.
     this.assembleBase();
     this.devices.restore(state.devices);
-    this.patternEntries = state.patternEntries;
-    this.lu.restore(state.lu);
+    this.patternEntries = -1;
+    this.lu = undefined;
+    if (state.patternEntries >= 0) {
+      const lu = this.updatePattern(state.patternEntries);
+      if (state.lu) lu.restore(state.lu);
+    }
     this.luValid = state.luValid;
   }
 }

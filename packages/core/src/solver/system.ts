@@ -41,7 +41,7 @@ export interface Triplets {
 
 /**
  * The assembled MNA description of a circuit: the unknown layout, the constant G and C
- * matrices (dense for factoring, triplets for products), and the sources and nonlinear devices
+ * matrices (as triplets, and dense on demand), and the sources and nonlinear devices
  * that contribute per time point.
  */
 export interface MnaSystem {
@@ -54,7 +54,10 @@ export interface MnaSystem {
   readonly nonlinear: readonly NonlinearTerm[];
   /** The nonlinear devices that watch their own change per step (see `NonlinearTerm.changeRatio`). */
   readonly changeWatchers: readonly NonlinearTerm[];
-  /** Row-major n×n. */
+  /**
+   * Row-major n×n, built on first read for the analyses that work dense (small-signal,
+   * periodic); the transient path reads only the triplets.
+   */
   readonly G: Float64Array;
   readonly C: Float64Array;
   readonly gTriplets: Triplets;
@@ -71,23 +74,43 @@ export interface MnaSystem {
   readonly stateIndex: ReadonlyMap<string, number>;
 }
 
-function toTriplets(dense: Float64Array, n: number): Triplets {
-  let count = 0;
-  for (let i = 0; i < n * n; i++) if (dense[i] !== 0) count++;
-  const rows = new Int32Array(count);
-  const cols = new Int32Array(count);
-  const values = new Float64Array(count);
-  let k = 0;
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      const v = dense[i * n + j]!;
-      if (v === 0) continue;
-      rows[k] = i;
-      cols[k] = j;
-      values[k++] = v;
+/** Sums stamped values per position, without n×n storage. */
+class TripletSum {
+  private readonly at = new Map<number, number>();
+  private readonly keys: number[] = [];
+  private readonly sums: number[] = [];
+
+  constructor(private readonly n: number) {}
+
+  add(row: number, col: number, value: number): void {
+    const key = row * this.n + col;
+    const k = this.at.get(key);
+    if (k === undefined) {
+      this.at.set(key, this.keys.length);
+      this.keys.push(key);
+      this.sums.push(value);
+    } else {
+      this.sums[k] += value;
     }
   }
-  return { rows, cols, values };
+
+  /** The nonzero sums in row-major order. */
+  triplets(): Triplets {
+    const order = this.keys.map((_, k) => k).filter((k) => this.sums[k] !== 0);
+    order.sort((p, q) => this.keys[p]! - this.keys[q]!);
+    return {
+      rows: Int32Array.from(order, (k) => Math.floor(this.keys[k]! / this.n)),
+      cols: Int32Array.from(order, (k) => this.keys[k]! % this.n),
+      values: Float64Array.from(order, (k) => this.sums[k]!),
+    };
+  }
+}
+
+/** The row-major n×n matrix of some triplets. */
+export function denseOf(t: Triplets, n: number): Float64Array {
+  const dense = new Float64Array(n * n);
+  for (let k = 0; k < t.rows.length; k++) dense[t.rows[k]! * n + t.cols[k]!] = t.values[k]!;
+  return dense;
 }
 
 /** An unknown as allocated, before the charges decide its error control. */
@@ -98,19 +121,19 @@ type Allocated = Omit<UnknownInfo, "errorControl">;
  * charges): 1 on a trapezoidal row's charge, 2 on an L-stable row's (whose formula has the
  * larger error constant, so it decides where both apply), 0 for algebraic unknowns.
  */
-function chargeDependence(n: number, C: Float64Array, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
+function chargeDependence(n: number, C: Triplets, declared: readonly (readonly [number, number])[], stiff: Uint8Array): Uint8Array {
   const judged = new Uint8Array(n);
   const mark = (row: number, col: number) => {
     judged[col] = Math.max(judged[col]!, stiff[row] ? 2 : 1);
   };
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) mark(i, j);
+  for (let k = 0; k < C.rows.length; k++) mark(C.rows[k]!, C.cols[k]!);
   for (const [row, col] of declared) mark(row, col);
   return judged;
 }
 
-function chargedRowsOf(n: number, C: Float64Array, declared: readonly (readonly [number, number])[]): Uint8Array {
+function chargedRowsOf(n: number, C: Triplets, declared: readonly (readonly [number, number])[]): Uint8Array {
   const charged = new Uint8Array(n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (C[i * n + j] !== 0) charged[i] = 1;
+  for (let k = 0; k < C.rows.length; k++) charged[C.rows[k]!] = 1;
   for (const [row] of declared) charged[row] = 1;
   return charged;
 }
@@ -182,22 +205,26 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     }
   }
   const n = allocated.length;
-  const G = new Float64Array(n * n);
-  const C = new Float64Array(n * n);
+  const gSum = new TripletSum(n);
+  const cSum = new TripletSum(n);
   const stamp: LinearStamp = {
     addG(row, col, value) {
-      if (row >= 0 && col >= 0) G[row * n + col] += value;
+      if (row >= 0 && col >= 0) gSum.add(row, col, value);
     },
     addC(row, col, value) {
-      if (row >= 0 && col >= 0) C[row * n + col] += value;
+      if (row >= 0 && col >= 0) cSum.add(row, col, value);
     },
   };
   for (const device of devices) device.stampLinear?.(stamp);
+  const gTriplets = gSum.triplets();
+  const cTriplets = cSum.triplets();
   const stiffRows = Uint8Array.from(allocated, (u) => (u.stiff ? 1 : 0));
-  const judged = chargeDependence(n, C, declared, stiffRows);
+  const judged = chargeDependence(n, cTriplets, declared, stiffRows);
   const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j]! > 0 }));
   const states: number[] = [];
   for (let j = 0; j < n; j++) if (judged[j]) states.push(j);
+  let G: Float64Array | undefined;
+  let C: Float64Array | undefined;
   return {
     n,
     unknowns,
@@ -207,19 +234,25 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
     sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
     nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
     changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
-    G,
-    C,
-    gTriplets: toTriplets(G, n),
-    cTriplets: toTriplets(C, n),
+    get G() {
+      return (G ??= denseOf(gTriplets, n));
+    },
+    get C() {
+      return (C ??= denseOf(cTriplets, n));
+    },
+    gTriplets,
+    cTriplets,
     stiffRows,
     stateColumns: Int32Array.from(states),
     stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
-    chargedRows: chargedRowsOf(n, C, declared),
+    chargedRows: chargedRowsOf(n, cTriplets, declared),
     stateIndex,
   };
 }
 
 /** The same system with further excitations (a noise bank built from its devices). */
 export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
-  return { ...system, sources: [...system.sources, ...sources] };
+  // Copied by descriptors: a spread would read (and so build) the dense G and C.
+  const copy = Object.defineProperties({}, Object.getOwnPropertyDescriptors(system)) as MnaSystem;
+  return Object.defineProperty(copy, "sources", { value: [...system.sources, ...sources], enumerable: true });
 }
