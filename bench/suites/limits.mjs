@@ -50,12 +50,12 @@ export async function run() {
   const rows = [];
   const transient = analysisOf(RUNAWAY, "transient");
   for (const limit of [0.25, 0.5, 1]) {
-    rows.push(row("transient, 10⁸ steps", limit, await stopTime(() => runTransient(RUNAWAY, transient, { limits: { maxWallTime: limit } }))));
+    rows.push(row("transient, 10⁸ steps", limit, await stopTime(() => runTransient(RUNAWAY, transient, { limits: { maxWallTime: limit, maxSteps: Infinity } }))));
   }
   const { build, circuit } = bridge();
   const startup = analysisOf(circuit, "startup");
   for (const limit of [0.25, 0.5]) {
-    rows.push(row("start-up, 5 s simulated", limit, await stopTime(() => runStartup(circuit, startup, { limits: { maxWallTime: limit } }))));
+    rows.push(row("start-up, 5 s simulated", limit, await stopTime(() => runStartup(circuit, startup, { limits: { maxWallTime: limit, maxSteps: Infinity } }))));
   }
   const tolerance = { kind: "tolerance", runs: 10_000, seed: 7, dist: "normal" };
   for (const limit of [0.5, 1]) {
