@@ -1,18 +1,10 @@
 import type { Circuit, OptionValue, PartSpec } from "../circuit/circuit.js";
 import { runPoles } from "../analyses/poles.js";
 import { builtinPresets } from "../devices/registry.js";
+import type { DesignedPart } from "./designed-file.js";
 
-/** One line of a generated file: a part with its value, tolerance and options. */
-export interface Line {
-  readonly kind: string;
-  readonly name: string;
-  readonly nodes: readonly string[];
-  readonly value?: number;
-  readonly tolerance?: number;
-  readonly options?: Readonly<Record<string, OptionValue>>;
-  /** Written after the line. */
-  readonly comment?: string;
-}
+/** One line of a generated file: a part with its value, tolerance, options and comment. */
+export type Line = DesignedPart;
 
 /** One value a design chose, with the formula's ideal beside it. */
 export interface DesignChoice {

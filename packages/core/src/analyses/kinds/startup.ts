@@ -2,6 +2,7 @@ import type { AnalysisOptions } from "../../circuit/analysis-schema.js";
 import type { StartupAnalysis, StartupKick } from "../../circuit/circuit.js";
 import { startupSpread } from "../../study/startup-spread.js";
 import type { AnalysisModel } from "../analysis-model.js";
+import { settledFigureOptions } from "./settled-figures.js";
 import { budgetOf } from "../limits.js";
 import { runStartup, type StartupResult } from "../startup.js";
 
@@ -50,9 +51,6 @@ export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
     if (o.written.has("settle-within") && until !== "auto") {
       checks.warn("settle-within", "key", "unused-option", "settle-within= has no effect with a fixed until=", "settle-within= bounds until=auto; with until= a time, the run stops there");
     }
-    if (o.written.has("bandwidth") && o.written.has("harmonics")) {
-      checks.fail("bandwidth", "key", "conflicting-options", "startup takes harmonics= or bandwidth=, not both", "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency");
-    }
     const n = o.numbers;
     return {
       kind: "startup",
@@ -66,10 +64,7 @@ export const startup: AnalysisModel<StartupAnalysis, StartupResult> = {
       ...(n.temperature === undefined ? {} : { temperature: n.temperature }),
       ...(n.ramp === undefined ? {} : { ramp: n.ramp }),
       ...(n.seeds === undefined ? {} : { seeds: n.seeds }),
-      ...(n.harmonics === undefined ? {} : { harmonics: n.harmonics }),
-      ...(n.bandwidth === undefined ? {} : { bandwidth: n.bandwidth }),
-      ...(n.accuracy === undefined ? {} : { accuracy: n.accuracy }),
-      ...(n["accuracy-floor"] === undefined ? {} : { accuracyFloor: n["accuracy-floor"] }),
+      ...settledFigureOptions("startup", o, checks),
     };
   },
   run: (circuit, analysis, runOptions) => {

@@ -1,6 +1,7 @@
 import type { AnalysisOptions } from "../../circuit/analysis-schema.js";
 import type { SteadyAnalysis } from "../../circuit/circuit.js";
 import type { AnalysisModel } from "../analysis-model.js";
+import { settledFigureOptions } from "./settled-figures.js";
 import { runSteady, type SteadyResult } from "../steady.js";
 
 // Plain literals only: a bundler then drops this table from a build that does not use it.
@@ -21,9 +22,6 @@ export const steady: AnalysisModel<SteadyAnalysis, SteadyResult> = {
   summary: "the periodic steady state by shooting: frequency, amplitude, THD over one period of the orbit, and its stability",
   options,
   build: (o, checks) => {
-    if (o.written.has("bandwidth") && o.written.has("harmonics")) {
-      checks.fail("bandwidth", "key", "conflicting-options", "steady takes harmonics= or bandwidth=, not both", "harmonics= counts orders 2 … N; bandwidth= counts the harmonics below a frequency");
-    }
     const n = o.numbers;
     return {
       kind: "steady",
@@ -31,10 +29,7 @@ export const steady: AnalysisModel<SteadyAnalysis, SteadyResult> = {
       from: (o.words.from ?? "startup") as "startup" | "poles",
       ...(n.cycles === undefined ? {} : { cycles: n.cycles }),
       ...(n["max-step"] === undefined ? {} : { maxStep: n["max-step"] }),
-      ...(n.harmonics === undefined ? {} : { harmonics: n.harmonics }),
-      ...(n.bandwidth === undefined ? {} : { bandwidth: n.bandwidth }),
-      ...(n.accuracy === undefined ? {} : { accuracy: n.accuracy }),
-      ...(n["accuracy-floor"] === undefined ? {} : { accuracyFloor: n["accuracy-floor"] }),
+      ...settledFigureOptions("steady", o, checks),
     };
   },
   run: runSteady,
