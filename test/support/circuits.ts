@@ -54,3 +54,17 @@ export function crLadder(R: number, C: number): PartSpec[] {
     part("capacitor", "C3", ["b", "c"], C),
   ];
 }
+
+/** A Wien bridge in the language, gain 3.3 (R = 10 kΩ, C = 10 nF: f₀ ≈ 1.59 kHz), diode-limited, ±12 V rails; no analyses. */
+export const DIODE_WIEN_SOURCE = `param R = 10k
+param C = 10n
+resistor  R1 o s (R)±1%
+capacitor C1 s p (C)±5%
+resistor  R2 p gnd (R)±1%
+capacitor C2 p gnd (C)±5%
+resistor  Rg n gnd 10k
+resistor  Rf n o 23k
+diode     D1 n o
+diode     D2 o n
+opamp     U1 p n o preset=general rails=(-12, 12)
+`;

@@ -20,6 +20,7 @@ import {
 } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { thrownBy } from "../../support/thrown.js";
+import { DIODE_WIEN_SOURCE } from "../../support/circuits.js";
 
 /** RC charging from rest (τ = 1 ms), 100 µs largest step: 100 steps per ms at most. */
 const RC = `vsource V1 in gnd 5
@@ -29,18 +30,7 @@ transient until=20m max-step=10u start=rest probes=(o)
 `;
 
 /** A Wien bridge above its start threshold (gain 3.3), diode-limited; f₀ ≈ 1.59 kHz. */
-const WIEN = `param R = 10k
-param C = 10n
-resistor  R1 o s (R)±1%
-capacitor C1 s p (C)±5%
-resistor  R2 p gnd (R)±1%
-capacitor C2 p gnd (C)±5%
-resistor  Rg n gnd 10k
-resistor  Rf n o 23k
-diode     D1 n o
-diode     D2 o n
-opamp     U1 p n o preset=general rails=(-12, 12)
-startup probe=o until=auto
+const WIEN = `${DIODE_WIEN_SOURCE}startup probe=o until=auto
 sweep Rf from=15k to=30k steps=4
 tolerance runs=6 seed=3
 `;

@@ -2,20 +2,10 @@ import { describe, expect, test } from "vitest";
 import { analysisOf, isOnsetError, refuseStudy, RunLimitError, runStartup, runToleranceStudy, sweepValues, type Circuit } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { thrownBy } from "../../support/thrown.js";
+import { DIODE_WIEN_SOURCE } from "../../support/circuits.js";
 
 /** A Wien bridge (R = 10 kΩ, C = 10 nF: f₀ = 1/(2πRC) ≈ 1.59 kHz), diode-limited. */
-const WIEN = `param R = 10k
-param C = 10n
-resistor  R1 o s (R)±1%
-capacitor C1 s p (C)±5%
-resistor  R2 p gnd (R)±1%
-capacitor C2 p gnd (C)±5%
-resistor  Rg n gnd 10k
-resistor  Rf n o 23k
-diode     D1 n o
-diode     D2 o n
-opamp     U1 p n o preset=general rails=(-12, 12)
-`;
+const WIEN = DIODE_WIEN_SOURCE;
 
 const build = (text: string, overrides: Record<string, number> = {}): Circuit => buildCircuit(loadSource("t.onset", text), { overrides }).circuit;
 const refusal = (f: () => unknown) => thrownBy(RunLimitError, f);

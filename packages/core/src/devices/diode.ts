@@ -1,7 +1,7 @@
 import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { numberOption, requirePositive } from "./options.js";
-import { stampConductance, valueAt } from "./stamps.js";
+import { stampConductance, stampNonlinearBranch, valueAt } from "./stamps.js";
 import { BOLTZMANN, thermalCurrent } from "./thermal-noise.js";
 
 export const diodeSchema: PartKindSchema = {
@@ -102,13 +102,7 @@ class Junction implements NonlinearTerm {
     const { a, c, state } = this;
     const vd = valueAt(x, a) - valueAt(x, c);
     junctionCurrent(vd, this.is, this.nvt, state);
-    out.addF(a, state.current);
-    out.addF(c, -state.current);
-    const g = state.conductance;
-    out.adddF(a, a, g);
-    out.adddF(a, c, -g);
-    out.adddF(c, a, -g);
-    out.adddF(c, c, g);
+    stampNonlinearBranch(out, a, c, state.current, state.conductance);
     if (this.cj0 > 0) {
       junctionCharge(vd, this.cj0, state);
       // The depletion charge from a to c, row by row (sign +1 on a, −1 on c).

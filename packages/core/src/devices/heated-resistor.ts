@@ -1,6 +1,6 @@
 import type { PartSpec } from "../circuit/circuit.js";
 import type { Device, NonlinearLoad, NonlinearTerm, SetupContext } from "./device.js";
-import { valueAt } from "./stamps.js";
+import { stampNonlinearBranch, valueAt } from "./stamps.js";
 import { thermalCurrent } from "./thermal-noise.js";
 
 /** The conductance of a temperature-dependent resistor and its slope in temperature. */
@@ -70,12 +70,7 @@ export class HeatedResistor implements NonlinearTerm {
     const v = valueAt(x, a) - valueAt(x, b);
     const { conductance: g, slope } = this.conductanceAt(x);
     const i = v * g;
-    out.addF(a, i);
-    out.addF(b, -i);
-    out.adddF(a, a, g);
-    out.adddF(a, b, -g);
-    out.adddF(b, a, -g);
-    out.adddF(b, b, g);
+    stampNonlinearBranch(out, a, b, i, g);
     const di = v * slope;
     out.adddF(a, theta, di);
     out.adddF(b, theta, -di);

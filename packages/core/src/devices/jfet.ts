@@ -4,7 +4,7 @@ import type { PartKindSchema } from "../circuit/schema.js";
 import type { DeviceModel, NonlinearLoad, NonlinearTerm } from "./device.js";
 import { junctionCurrent, limitJunctionVoltage, THERMAL_VOLTAGE, type JunctionState } from "./diode.js";
 import { numberOption, requirePositive, wordOption } from "./options.js";
-import { stampConductance, valueAt } from "./stamps.js";
+import { stampConductance, stampNonlinearBranch, valueAt } from "./stamps.js";
 
 export const jfetSchema: PartKindSchema = {
   kind: "jfet",
@@ -138,14 +138,7 @@ class JfetChannel implements NonlinearTerm {
   private loadJunction(x: Float64Array, out: NonlinearLoad, side: number): void {
     const { g, sign, junction } = this;
     junctionCurrent(sign * (valueAt(x, g) - valueAt(x, side)), GATE_SATURATION, GATE_NVT, junction);
-    const i = sign * junction.current;
-    const c = junction.conductance;
-    out.addF(g, i);
-    out.addF(side, -i);
-    out.adddF(g, g, c);
-    out.adddF(g, side, -c);
-    out.adddF(side, g, -c);
-    out.adddF(side, side, c);
+    stampNonlinearBranch(out, g, side, sign * junction.current, junction.conductance);
   }
 
   limitStep(x: Float64Array, dx: Float64Array): number {

@@ -1,4 +1,4 @@
-import type { LinearStamp } from "./device.js";
+import type { LinearStamp, NonlinearLoad } from "./device.js";
 
 /** A conductance `g` between nodes a and b (either may be ground, -1). */
 export function stampConductance(s: LinearStamp, a: number, b: number, g: number): void {
@@ -6,6 +6,16 @@ export function stampConductance(s: LinearStamp, a: number, b: number, g: number
   s.addG(b, b, g);
   s.addG(a, b, -g);
   s.addG(b, a, -g);
+}
+
+/** A nonlinear branch from node a to node b: its current `i` (a → b) and its conductance `g` = ∂i/∂v(a, b). */
+export function stampNonlinearBranch(out: NonlinearLoad, a: number, b: number, i: number, g: number): void {
+  out.addF(a, i);
+  out.addF(b, -i);
+  out.adddF(a, a, g);
+  out.adddF(a, b, -g);
+  out.adddF(b, a, -g);
+  out.adddF(b, b, g);
 }
 
 /** A capacitance `c` between nodes a and b. */
