@@ -10,7 +10,10 @@ import { elaborate, loadProgram } from "@onset/netlist-parser";
 const examples = join(import.meta.dirname, "..", "..", "..", "examples");
 
 describe("steady against the settled start-up run on the examples", () => {
-  test.each(["bridge-excitation", "cable-tracer", "tuning-reference"])("%s", (name) => {
+  // The last three hold their amplitude by a slow loop (lamp, JFET with a peak detector,
+  // thermistor): the JFET loop dies out for a while when kicked hard, so its orbit comes from the
+  // second, small start — the answer does not depend on the kick.
+  test.each(["bridge-excitation", "cable-tracer", "tuning-reference", "audio-test-source", "jfet-loop-source", "low-frequency-reference"])("%s", (name) => {
     const file = join(examples, `${name}.onset`);
     const circuit = elaborate(loadProgram(file, readFileSync(file, "utf8")).program, {}).circuit!;
     const startup = startupAnalysisOf(circuit)!;

@@ -34,13 +34,21 @@ const RETRIES = 4;
 /** Steps per guessed period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
 /** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures). */
-const ORBIT_SHARE = 1e-5;
+const ORBIT_SHARE = 1e-2;
 /**
  * The growing mode starts with its largest node swinging over the amplifiers' half output range
  * (4 V without amplifiers): above the orbit rather than below, since a limiter pulls a large
  * swing down within a few periods while a small one grows only at the poles' slow rate.
  */
 const KICK_SHARE = 1;
+/** The second start's swing, as a fraction of the first's (see `runSteady`). */
+const SMALL_KICK_SHARE = 1e-3;
+/** The first shooting waits until the swing changes by less than this fraction per period… */
+const FIRST_LEVEL = 0.02;
+/** …and each retry, after more transient, until it changes this many times less. */
+const LEVEL_RETRY = 10;
+/** Shooting iterations (periods) allowed before the last retry. */
+const EARLY_ITERATIONS = 10;
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
@@ -177,27 +185,36 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
-  const start = kicked(system, bias.x, mode);
-  const stepper = new TransientStepper(system, { start: { t: 0, x: start }, maxStep, tolerances });
-  budget.watch(stepper, "the steady state's transient", analysis.span);
-  const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
   const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
-  for (let attempt = 0; attempt <= RETRIES; attempt++) {
-    const where = approach.advance(batch, from === "startup", check);
-    if (where.kind === "died-out") {
-      return noOrbit({ ...idle(), transient: transientOf(stepper, where.periods, maxStep) }, `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`);
+  let periods = 0;
+  let transient = { periods: 0, until: 0, maxStep, solver: emptyStats() };
+  // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
+  // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
+  // so a kick that dies out is tried again small, growing as the circuit would from noise.
+  for (const share of [KICK_SHARE, SMALL_KICK_SHARE]) {
+    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep, tolerances });
+    budget.watch(stepper, "the steady state's transient", analysis.span);
+    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
+    for (let attempt = 0; attempt <= RETRIES; attempt++) {
+      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** attempt : undefined, check);
+      transient = transientOf(stepper, periods + approach.periods, maxStep);
+      if (where.kind === "died-out") {
+        why = `started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+        break;
+      }
+      const shot = shoot(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
+      if (typeof shot !== "string") {
+        const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
+        return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
+      }
+      why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
     }
-    const period = from === "startup" ? where.period : guessPeriod;
-    const shot = shoot(context, stepper, period, maxStep, true);
-    if (typeof shot !== "string") {
-      const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
-      return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient: transientOf(stepper, approach.periods, maxStep) });
-    }
-    why = shot;
+    periods += approach.periods;
+    if (!why.startsWith("started")) break;
   }
-  return noOrbit({ ...idle(), transient: transientOf(stepper, approach.periods, maxStep) }, `no periodic orbit found after ${approach.periods} periods of transient: ${why}`);
+  return noOrbit({ ...idle(), transient }, why.startsWith("started") ? `no periodic orbit: ${why}` : why);
 }
 
 interface Context {
@@ -236,15 +253,15 @@ function commonPeriod(drives: readonly number[]): number | null {
 
 /**
  * bias + k·mode on the charged unknowns, with k so that the mode's largest node voltage swings
- * by the amplifiers' half range (or 4 V). The algebraic unknowns start at the bias point and
+ * by `share` of the amplifiers' half range (or of 4 V). The algebraic unknowns start at the bias point and
  * the first step solves them: the mode's values there can lie far out on a diode's exponential,
  * where Newton would not find its way back.
  */
-function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array): Float64Array {
+function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array, share: number): Float64Array {
   let peak = 0;
   for (let i = 0; i < system.n; i++) if (system.unknowns[i]!.isNode) peak = Math.max(peak, Math.abs(mode[i]!));
   if (!(peak > 0)) for (let i = 0; i < system.n; i++) peak = Math.max(peak, Math.abs(mode[i]!));
-  const level = KICK_SHARE * (amplitudeLimit(system, bias) ?? 4);
+  const level = share * (amplitudeLimit(system, bias) ?? 4);
   const x = Float64Array.from(bias);
   for (const j of system.stateColumns) x[j] = bias[j]! + (level / peak) * mode[j]!;
   return x;
@@ -255,7 +272,7 @@ function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array): Floa
  * with the Floquet multipliers; the reason when no orbit is found, or when the shooting only
  * found the rest point.
  */
-function shoot(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean): RefinedOrbit | string {
+function shoot(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
   try {
     const { guess, fractions, trajectory } = recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances);
     const settings = {
@@ -264,6 +281,7 @@ function shoot(c: Context, stepper: TransientStepper, period: number, maxStep: n
       relative: ORBIT_SHARE * c.tolerances.lteRelative,
       corners: autonomous ? [] : cornersWithin(c.system, guess.t0, period),
       multipliers: true,
+      ...(maxIterations === undefined ? {} : { maxIterations }),
       check: () => c.budget.check("during the steady state's shooting", c.analysis.span),
     };
     const orders = thdOrder(c.analysis, 1 / period);

@@ -4,11 +4,10 @@ import { risingCrossings } from "../metrics/crossings.js";
 import { GrowableSeries } from "../analyses/growable.js";
 
 /**
- * The swing counts as levelled off when it changes by less than this fraction per period, and
- * by less than this share of the linear growth per period (so a slowly growing swing, still in
- * the linear range, does not pass)…
+ * The swing counts as levelled off when it changes by less than a given fraction per period
+ * (see `advance`), and by less than this share of the linear growth per period (so a slowly
+ * growing swing, still in the linear range, does not pass)…
  */
-const LEVEL_CHANGE = 0.02;
 const LEVEL_SHARE = 0.25;
 /** …over this many periods in a row. */
 const LEVEL_PERIODS = 3;
@@ -53,8 +52,11 @@ export class OrbitApproach {
     return this.swings.length;
   }
 
-  /** Runs up to `most` more periods (fewer with `level` once the swing levels off) and says where that left the oscillation. */
-  advance(most: number, level: boolean, check: () => void): Approach {
+  /**
+   * Runs up to `most` more periods (fewer once the swing changes by less than `level` per
+   * period, when given) and says where that left the oscillation.
+   */
+  advance(most: number, level: number | undefined, check: () => void): Approach {
     const end = this.swings.length + most;
     while (this.swings.length < end) {
       check();
@@ -63,7 +65,7 @@ export class OrbitApproach {
       this.swings.push(this.swingSince(from));
       this.largest = Math.max(this.largest, this.swings[this.swings.length - 1]!);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
-      if (level && this.levelled()) break;
+      if (level !== undefined && this.levelled(level)) break;
     }
     return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods };
   }
@@ -92,10 +94,10 @@ export class OrbitApproach {
     return true;
   }
 
-  private levelled(): boolean {
+  private levelled(level: number): boolean {
     const s = this.swings;
     if (s.length <= LEVEL_PERIODS) return false;
-    const change = Math.min(LEVEL_CHANGE, LEVEL_SHARE * this.linearGrowth);
+    const change = Math.min(level, LEVEL_SHARE * this.linearGrowth);
     for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < change)) return false;
     return true;
   }

@@ -159,8 +159,8 @@ export class PeriodicMap {
   }
 
   private solve(x: Float64Array, k: number, N: number): void {
-    // A fresh Jacobian at every stage: Newton then converges quadratically to the tight tolerance.
-    this.solver.refreshJacobian();
+    // The Jacobian is kept from stage to stage while the iteration contracts (the solver's own
+    // chord rule): the inner tolerance is a hundredth of the orbit's, so the map stays smooth.
     if (!this.solver.solve(x, this.iterations).converged) {
       throw simulationError("orbit-step", `the periodic-orbit map did not converge at step ${k + 1} of ${N}`, {
         hint: "the guessed orbit is too far from a periodic solution; run the start-up longer before refining",

@@ -129,6 +129,8 @@ export function refineOrbit(
     readonly check?: () => void;
     /** The finer grid's orbit carries its Floquet multipliers. */
     readonly multipliers?: boolean;
+    /** Largest number of periods each grid's shooting integrates. */
+    readonly maxIterations?: number;
   } = {},
 ): RefinedOrbit {
   const options = {
@@ -136,6 +138,7 @@ export function refineOrbit(
     ...(settings.tolerances ? { tolerances: settings.tolerances } : {}),
     ...(settings.relative === undefined ? {} : { relative: settings.relative }),
     ...(settings.check ? { check: settings.check } : {}),
+    ...(settings.maxIterations === undefined ? {} : { maxIterations: settings.maxIterations }),
   };
   const coarse = shootOrbit(system, guess, fractions, trajectory, options);
   const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian, multipliers: settings.multipliers ?? false });

@@ -34,6 +34,8 @@ export interface PeriodicOrbit {
 export interface ShootingJacobian {
   readonly lu: LuSolver;
   readonly phase: number;
+  /** The matrix itself, unfactored (Broyden's update corrects it). */
+  readonly matrix: Float64Array;
 }
 
 /** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
@@ -71,8 +73,13 @@ function innerTolerances(base: Tolerances, relative: number): Tolerances {
  * Kundert, White & Sangiovanni-Vincentelli 1990; docs/references.md §9). Unknowns: the state
  * x₀ and T; equations x_N − x₀ = 0 and x₀[j] = its guessed value, for the state j moving
  * fastest at the start (where a shift in time changes it most). The Jacobian
- * [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] comes from the sensitivities the map carries; it is kept while
- * the iteration contracts well (each period with sensitivities costs n + 1 extra solves per step).
+ * [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] comes from the sensitivities the map carries (each period with
+ * them costs n + 1 extra solves per step), so it is computed only at the start and where the
+ * iteration stops contracting; in between it is kept up to date by Broyden's rank-one update
+ * from each step taken (Broyden 1965; Dennis & Schnabel 1983, §8). A step that does not shrink
+ * the mismatch is halved back towards the last point (a damped Newton method: a slowly
+ * attracting orbit — an amplitude loop with a thermal time constant — has a nearly singular
+ * Jacobian, whose full steps can overshoot far).
  */
 export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
   const relative = options.relative ?? 1e-9;
@@ -84,18 +91,31 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const trace = predictor ?? [guess.x];
   for (const x of trace) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i]!, Math.abs(x[i]!));
   map.solver.reference.set(peak);
+  const unknowns = n + (options.autonomous ? 1 : 0);
+  const phase = options.jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
+  const newton = new NewtonMatrixOf(unknowns, phase, options.jacobian);
+  // The point the last step started from (x₀ and T), its residual, the step, and how much of it was taken.
   const x0 = Float64Array.from(guess.x);
   let T = guess.period;
-  const unknowns = n + (options.autonomous ? 1 : 0);
-  let jacobian = options.jacobian;
-  const phase = jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
+  const from = new Float64Array(unknowns);
+  const fromResidual = new Float64Array(unknowns);
+  const step = new Float64Array(unknowns);
+  let damping = 1;
+  /** x₀ lies on a step from `from` (it is judged against `previous` before it is kept). */
+  let trial = false;
+  let fresh = options.jacobian === undefined;
+  let freshAtFrom = false;
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
   const maxIterations = options.maxIterations ?? 25;
+  const moveTo = (lambda: number) => {
+    damping = lambda;
+    for (let i = 0; i < n; i++) x0[i] = from[i]! + damping * step[i]!;
+    if (options.autonomous) T = from[n]! + damping * step[n]!;
+  };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
-    const fresh = jacobian === undefined;
     const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh);
     states = map.states;
     let mismatch = 0;
@@ -103,33 +123,50 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       residual[i] = end.x[i]! - x0[i]!;
       mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
     }
-    if (fresh) jacobian = newtonMatrix(end.sensitivity!, n, unknowns, phase);
-    else if (mismatch > CHORD_CONTRACTION * previous) {
-      // The kept matrix no longer predicts the map well: the next period recomputes it.
-      jacobian = undefined;
-      previous = Infinity;
-      continue;
-    }
-    previous = mismatch;
     if (options.autonomous) residual[n] = 0;
-    jacobian!.lu.solveNegated(residual, residual);
+    if (trial && !(mismatch < previous)) {
+      if (damping > MIN_DAMPING) {
+        // The step overshot: learn from it, and try half of it.
+        newton.secant(step, damping, fromResidual, residual);
+        moveTo(damping / 2);
+        fresh = false;
+        continue;
+      }
+      if (!freshAtFrom) {
+        // Halving did not help: back to where the step started, with the Jacobian there.
+        moveTo(0);
+        fresh = true;
+        trial = false;
+        continue;
+      }
+      // Even the exact Jacobian's direction does not shrink this measure of the mismatch: go on from here.
+    }
+    if (end.sensitivity) newton.set(end.sensitivity, n);
+    else if (trial) newton.secant(step, damping, fromResidual, residual);
+    freshAtFrom = end.sensitivity !== undefined;
+    const contracted = !trial || mismatch <= CHORD_CONTRACTION * previous;
+    for (let i = 0; i < n; i++) from[i] = x0[i]!;
+    if (options.autonomous) from[n] = T;
+    fromResidual.set(residual);
+    newton.solve(residual, step);
     // Newton's update is the distance to the orbit (the residual alone understates it by
     // 1/(1 − μ) when the orbit attracts slowly, μ the multiplier nearest 1): once it is within
     // the tolerance, this period's states are the orbit, and the update only sharpens x₀ and T.
-    let step = 0;
-    for (let i = 0; i < n; i++) step = Math.max(step, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
-    if (options.autonomous) step = Math.max(step, Math.abs(residual[n]!) / (relative * T));
-    if (step <= 1) {
+    let size = 0;
+    for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
+    if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
+    if (size <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
-      const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + residual[i]!), period: options.autonomous ? T + residual[n]! : T };
-      const multipliers = options.multipliers ? floquetMultipliers(fresh ? end.sensitivity! : map.run(start, fractions, kept, true).sensitivity!, n) : [];
-      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: jacobian! };
+      const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
+      const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
+      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
+    // A slow contraction asks for the Jacobian at the next point.
+    fresh = !contracted;
+    previous = mismatch;
+    trial = true;
     // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
-    let scale = 1;
-    if (options.autonomous && Math.abs(residual[n]!) > 0.2 * T) scale = (0.2 * T) / Math.abs(residual[n]!);
-    for (let i = 0; i < n; i++) x0[i] += scale * residual[i]!;
-    if (options.autonomous) T += scale * residual[n]!;
+    moveTo(options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   }
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
@@ -137,18 +174,81 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   });
 }
 
-/** [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] (or Sx − I for a driven orbit), factored. */
-function newtonMatrix(s: MapSensitivity, n: number, unknowns: number, phase: number): ShootingJacobian {
-  const matrix = new Float64Array(unknowns * unknowns);
-  for (let i = 0; i < n; i++) {
-    for (let c = 0; c < n; c++) matrix[i * unknowns + c] = s.x[i * s.columns + c]!;
-    matrix[i * unknowns + i] -= 1;
-    if (unknowns > n) matrix[i * unknowns + n] = s.x[i * s.columns + n]!;
+/** A step moves the period by at most this fraction of it. */
+const MAX_PERIOD_MOVE = 0.2;
+
+/** A step is halved at most this often (to 1/16) before the Jacobian is recomputed. */
+const MIN_DAMPING = 1 / 16;
+
+/**
+ * The shooting's Newton matrix M (of F(x₀, T) = [x_N − x₀; x₀[j] − c]), kept unfactored
+ * beside its factorisation so that Broyden's update can correct it after a step.
+ */
+class NewtonMatrixOf {
+  private readonly matrix: Float64Array;
+  /** The factorisation of `matrix`, or undefined while it is out of date. */
+  private lu: LuSolver | undefined;
+  private own: LuSolver | undefined;
+  private readonly product: Float64Array;
+
+  constructor(
+    private readonly unknowns: number,
+    private readonly phase: number,
+    start: ShootingJacobian | undefined,
+  ) {
+    this.matrix = start ? Float64Array.from(start.matrix) : new Float64Array(unknowns * unknowns);
+    this.lu = start?.lu;
+    this.product = new Float64Array(unknowns);
   }
-  if (unknowns > n) matrix[n * unknowns + phase] = 1;
-  const lu = new LuSolver(unknowns);
-  if (!lu.factor(matrix)) throw simulationError("orbit-singular", "the shooting equations are singular: the orbit's period is not determined");
-  return { lu, phase };
+
+  /** M from the map's sensitivities. */
+  set(s: MapSensitivity, n: number): void {
+    const { matrix, unknowns } = this;
+    matrix.fill(0);
+    for (let i = 0; i < n; i++) {
+      for (let c = 0; c < n; c++) matrix[i * unknowns + c] = s.x[i * s.columns + c]!;
+      matrix[i * unknowns + i] -= 1;
+      if (unknowns > n) matrix[i * unknowns + n] = s.x[i * s.columns + n]!;
+    }
+    if (unknowns > n) matrix[n * unknowns + this.phase] = 1;
+    this.lu = undefined;
+  }
+
+  /**
+   * Broyden's update after the step s = λ·step moved the residual from `before` to `after`:
+   * M += (Δr − M·s)·sᵀ / (sᵀs), so that M·s = Δr (the phase row, being linear, stays as it is).
+   */
+  secant(step: Float64Array, damping: number, before: Float64Array, after: Float64Array): void {
+    const { matrix, unknowns, product } = this;
+    let norm = 0;
+    for (let c = 0; c < unknowns; c++) norm += (damping * step[c]!) ** 2;
+    if (!(norm > 0)) return;
+    for (let i = 0; i < unknowns; i++) {
+      let sum = 0;
+      for (let c = 0; c < unknowns; c++) sum += matrix[i * unknowns + c]! * damping * step[c]!;
+      product[i] = after[i]! - before[i]! - sum;
+    }
+    for (let i = 0; i < unknowns; i++) {
+      const w = product[i]! / norm;
+      if (w === 0) continue;
+      for (let c = 0; c < unknowns; c++) matrix[i * unknowns + c] += w * damping * step[c]!;
+    }
+    this.lu = undefined;
+  }
+
+  /** out = −M⁻¹·residual. */
+  solve(residual: Float64Array, out: Float64Array): void {
+    this.factored().lu.solveNegated(residual, out);
+  }
+
+  factored(): ShootingJacobian {
+    if (!this.lu) {
+      const lu = (this.own ??= new LuSolver(this.unknowns));
+      if (!lu.factor(this.matrix)) throw simulationError("orbit-singular", "the shooting equations are singular: the orbit's period is not determined");
+      this.lu = lu;
+    }
+    return { lu: this.lu, phase: this.phase, matrix: this.matrix };
+  }
 }
 
 /**
