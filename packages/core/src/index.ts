@@ -78,8 +78,8 @@ export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/re
 export { DEFAULT_KICK, DEFAULT_KICK_LEVEL, runStartup } from "./analyses/startup.js";
 export type { SettledFigures, StartupResult, StartupRun, StartupTimeSpread } from "./analyses/startup.js";
 export type { NumericalError } from "./steady/refine.js";
-export { DEFAULT_STEADY_CYCLES, runSteady } from "./analyses/steady.js";
-export type { SteadyOptions, SteadyPrediction, SteadyResult } from "./analyses/steady.js";
+export { DEFAULT_STEADY_CYCLES, runSteady, steadySeed } from "./analyses/steady.js";
+export type { OrbitSeed, SteadyOptions, SteadyPrediction, SteadyResult } from "./analyses/steady.js";
 export type { OrbitStability } from "./steady/stability.js";
 export type { Multiplier } from "./steady/shooting.js";
 export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";

@@ -12,7 +12,7 @@ import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
-import { shootOrbit, type Multiplier, type ShootingOptions } from "../steady/shooting.js";
+import { shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -33,8 +33,10 @@ export const DEFAULT_STEADY_CYCLES: Readonly<Record<"startup" | "poles" | "drive
 const RETRIES = 4;
 /** Steps per guessed period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
-/** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures). */
+/** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures)… */
 const ORBIT_SHARE = 1e-2;
+/** …and a study's sample on one grid to within this one (its figures carry the grid's own error, some ten times larger). */
+const SAMPLE_ORBIT_SHARE = 1e-1;
 /**
  * The growing mode starts with its largest node swinging over the amplifiers' half output range
  * (4 V without amplifiers): above the orbit rather than below, since a limiter pulls a large
@@ -44,7 +46,7 @@ const KICK_SHARE = 1;
 /** The second start's swing, as a fraction of the first's (see `runSteady`). */
 const SMALL_KICK_SHARE = 1e-3;
 /** The first shooting waits until the swing changes by less than this fraction per period… */
-const FIRST_LEVEL = 0.02;
+const FIRST_LEVEL = 0.1;
 /** …and each retry, after more transient, until it changes this many times less. */
 const LEVEL_RETRY = 10;
 /** Shooting iterations (periods) allowed before the last retry. */
@@ -119,6 +121,26 @@ export interface SteadyOptions extends RunOptions {
    * error bars): a study's samples, whose spread dwarfs the grid's error, at less than half the cost.
    */
   readonly singleGrid?: boolean;
+  /**
+   * A neighbouring circuit's orbit (a study's nominal, see {@link steadySeed}) to shoot from
+   * before anything else: a sample whose parts moved by their tolerances lies a few Newton
+   * steps from it, with no transient at all. When the shooting does not converge from it, the
+   * run goes on as without it.
+   */
+  readonly seed?: OrbitSeed;
+}
+
+/** A converged orbit handed to a neighbouring circuit's shooting: plain data, so it can be posted to a worker thread. */
+export interface OrbitSeed {
+  /** The unknowns at the orbit's start, and its period. */
+  readonly x: Float64Array;
+  readonly period: number;
+  /** The orbit's grid (step k is fractions[k]·T) and its states at the grid points. */
+  readonly fractions: Float64Array;
+  readonly states: readonly Float64Array[];
+  /** The shooting's Newton matrix at the orbit ((n + 1)², row-major) and the unknown its phase condition holds. */
+  readonly matrix: Float64Array;
+  readonly phase: number;
 }
 
 /**
@@ -132,6 +154,25 @@ export interface SteadyOptions extends RunOptions {
  * whose transient dies out, or whose shooting finds nothing, gets `found: false` and why.
  */
 export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): SteadyResult {
+  return solveSteady(circuit, analysis, options);
+}
+
+/**
+ * The orbit of `circuit` (a study's nominal) as a seed for its neighbours' shootings, on the
+ * grid a study's samples use (the transient's own); null when it has no orbit (or a driven one,
+ * whose samples start from their sources anyway).
+ */
+export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
+  let seed: OrbitSeed | null = null;
+  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true }, (refined) => {
+    const { orbit } = refined;
+    const { matrix, phase } = orbit.jacobian;
+    seed = { x: orbit.start.x, period: orbit.start.period, fractions: orbit.fractions, states: orbit.states, matrix: Float64Array.from(matrix), phase };
+  });
+  return result.found && result.kind === "autonomous" ? seed : null;
+}
+
+function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
@@ -153,7 +194,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
     warnings: defaultWarnings(circuit),
   };
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
-  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, ...(onOrbit ? { onOrbit } : {}) };
 
   if (drives.length > 0) {
     const period = commonPeriod(drives);
@@ -169,7 +210,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
     const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
-    const shot = shoot(context, stepper, period, maxStep, false);
+    const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep), false);
     if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
@@ -182,6 +223,13 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
   if (!growing) return noOrbit(idle(), `no periodic orbit: the circuit does not oscillate — ${polesVerdict(pole)}`);
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
+  }
+  if (options.seed && options.seed.x.length === system.n) {
+    const shot = shoot(context, seededStart(options.seed), true, EARLY_ITERATIONS);
+    if (typeof shot !== "string") {
+      const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
+      return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime } });
+    }
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
@@ -204,7 +252,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
         why = `started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
         break;
       }
-      const shot = shoot(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
       if (typeof shot !== "string") {
         const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
         return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
@@ -225,6 +273,8 @@ interface Context {
   readonly budget: RunBudget;
   readonly read: ProbeReader;
   readonly singleGrid: boolean;
+  /** Told of the orbit a result is built from. */
+  readonly onOrbit?: (orbit: RefinedOrbit) => void;
 }
 
 type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from" | "predicted" | "transient">;
@@ -267,21 +317,40 @@ function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array, share
   return x;
 }
 
+/** Where a shooting starts: a guessed period start, its grid, the states along it, and a Newton matrix when one is known. */
+interface ShootingStart {
+  readonly guess: PeriodStart;
+  readonly fractions: Float64Array;
+  readonly trajectory: readonly Float64Array[];
+  readonly jacobian?: ShootingJacobian;
+}
+
+/** One period recorded from the stepper's state (see `recordPeriod`). */
+function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number): ShootingStart {
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances);
+}
+
+/** A seed's orbit as the start of a shooting. */
+function seededStart(seed: OrbitSeed): ShootingStart {
+  return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase } };
+}
+
 /**
- * One period recorded from the stepper's state and refined by shooting (see `refineOrbit`),
- * with the Floquet multipliers; the reason when no orbit is found, or when the shooting only
- * found the rest point.
+ * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
+ * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
+function shoot(c: Context, start: ShootingStart | (() => ShootingStart), autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
   try {
-    const { guess, fractions, trajectory } = recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances);
+    const { guess, fractions, trajectory, jacobian } = typeof start === "function" ? start() : start;
+    const period = guess.period;
     const settings = {
       tolerances: c.tolerances,
       autonomous,
-      relative: ORBIT_SHARE * c.tolerances.lteRelative,
+      relative: (c.singleGrid ? SAMPLE_ORBIT_SHARE : ORBIT_SHARE) * c.tolerances.lteRelative,
       corners: autonomous ? [] : cornersWithin(c.system, guess.t0, period),
       multipliers: true,
       ...(maxIterations === undefined ? {} : { maxIterations }),
+      ...(jacobian ? { jacobian } : {}),
       check: () => c.budget.check("during the steady state's shooting", c.analysis.span),
     };
     const orders = thdOrder(c.analysis, 1 / period);
@@ -382,6 +451,7 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
         ? `unstable: a disturbance grows by ${Math.hypot(stability.largest!.re, stability.largest!.im).toPrecision(3)} per period, so the circuit leaves this orbit`
         : "marginal: its largest multiplier lies on the unit circle";
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
+  c.onOrbit?.(orbit);
   return {
     analysis: "steady",
     ...common,

@@ -4,7 +4,7 @@ import { harmonicList } from "../metrics/spectrum.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { orbitMetrics, type OrbitMetrics } from "./orbit-metrics.js";
-import { shootOrbit, type PeriodicOrbit } from "./shooting.js";
+import { shootOrbit, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
 
 /** A last step shorter than this fraction of the one before it is merged into it (it only landed on T). */
@@ -21,8 +21,8 @@ export interface NumericalError {
 /** Settled figures from the periodic orbit, extrapolated in the step, with their error bars. */
 export interface RefinedOrbit extends OrbitMetrics {
   readonly numericalError: NumericalError;
-  /** The orbit on the finer grid. */
-  readonly orbit: PeriodicOrbit;
+  /** The orbit on the finer grid, and the shooting's Newton matrix there. */
+  readonly orbit: PeriodicOrbit & { readonly jacobian: ShootingJacobian };
   /** Grid points per period: the run's own, and halved. */
   readonly points: readonly [number, number];
   /** Shooting iterations on each grid. */
@@ -127,10 +127,12 @@ export function refineOrbit(
     readonly corners?: readonly number[];
     /** Called before each period is integrated; throws to stop (a run's limits). */
     readonly check?: () => void;
-    /** The finer grid's orbit carries its Floquet multipliers. */
+    /** The orbit carries its Floquet multipliers (computed on the run's own grid). */
     readonly multipliers?: boolean;
     /** Largest number of periods each grid's shooting integrates. */
     readonly maxIterations?: number;
+    /** A Newton matrix to start the coarser grid's shooting from (a neighbouring orbit's). */
+    readonly jacobian?: ShootingJacobian;
   } = {},
 ): RefinedOrbit {
   const options = {
@@ -140,8 +142,10 @@ export function refineOrbit(
     ...(settings.check ? { check: settings.check } : {}),
     ...(settings.maxIterations === undefined ? {} : { maxIterations: settings.maxIterations }),
   };
-  const coarse = shootOrbit(system, guess, fractions, trajectory, options);
-  const fine = shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian, multipliers: settings.multipliers ?? false });
+  // The multipliers come from the run's own grid (a stability verdict and a rate, where the
+  // grids differ in the fourth digit), at half the cost of the finer grid's.
+  const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
+  const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian }), multipliers: coarse.multipliers };
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the

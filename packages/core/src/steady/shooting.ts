@@ -32,10 +32,11 @@ export interface PeriodicOrbit {
  * handed from one grid to the next finer one, whose map barely differs.
  */
 export interface ShootingJacobian {
-  readonly lu: LuSolver;
-  readonly phase: number;
-  /** The matrix itself, unfactored (Broyden's update corrects it). */
+  /** The matrix, (n + 1)² or n² row-major, unfactored (Broyden's update corrects it). */
   readonly matrix: Float64Array;
+  readonly phase: number;
+  /** Its factorisation, when at hand (else it is factored on first use). */
+  readonly lu?: LuSolver;
 }
 
 /** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
@@ -125,18 +126,18 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     }
     if (options.autonomous) residual[n] = 0;
     if (trial && !(mismatch < previous)) {
-      if (damping > MIN_DAMPING) {
-        // The step overshot: learn from it, and try half of it.
-        newton.secant(step, damping, fromResidual, residual);
-        moveTo(damping / 2);
-        fresh = false;
-        continue;
-      }
       if (!freshAtFrom) {
-        // Halving did not help: back to where the step started, with the Jacobian there.
+        // An updated matrix led astray: back to where the step started, with the Jacobian there.
         moveTo(0);
         fresh = true;
         trial = false;
+        continue;
+      }
+      if (damping > MIN_DAMPING) {
+        // The exact Jacobian's step overshot (the map bends within it): learn from it, try half of it.
+        newton.secant(step, damping, fromResidual, residual);
+        moveTo(damping / 2);
+        fresh = false;
         continue;
       }
       // Even the exact Jacobian's direction does not shrink this measure of the mismatch: go on from here.
@@ -161,8 +162,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
-    // A slow contraction asks for the Jacobian at the next point.
-    fresh = !contracted;
+    // A slow contraction asks for the Jacobian at the next point; so does a period that will
+    // likely be the last (the step shrinking as the mismatch did), when the multipliers need it.
+    const last = trial && options.multipliers === true && size * (mismatch / previous) <= 1;
+    fresh = !contracted || last;
     previous = mismatch;
     trial = true;
     // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
@@ -241,7 +244,7 @@ class NewtonMatrixOf {
     this.factored().lu.solveNegated(residual, out);
   }
 
-  factored(): ShootingJacobian {
+  factored(): ShootingJacobian & { readonly lu: LuSolver } {
     if (!this.lu) {
       const lu = (this.own ??= new LuSolver(this.unknowns));
       if (!lu.factor(this.matrix)) throw simulationError("orbit-singular", "the shooting equations are singular: the orbit's period is not determined");

@@ -7,6 +7,7 @@ import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 import type { NumericalError } from "../steady/refine.js";
+import type { OrbitSeed } from "../analyses/steady.js";
 
 /** The metrics kept for every Monte Carlo sample (SI units). */
 export interface SampleMetrics {
@@ -57,6 +58,8 @@ export interface SampleSettings {
   readonly tolerances?: Partial<Tolerances>;
   /** `steady`: each sample's figures come from its periodic steady state (see `steadySample`). */
   readonly measure?: StudyMeasure;
+  /** Under `steady`: the nominal's orbit each sample's shooting starts from. */
+  readonly seed?: OrbitSeed;
 }
 
 /** The first startup analysis of a circuit, which every sample is judged on. */

@@ -1,6 +1,8 @@
 import type { Circuit, SteadyAnalysis } from "../circuit/circuit.js";
-import { RunBudget } from "../analyses/limits.js";
-import { runSteady, type SteadyResult } from "../analyses/steady.js";
+import { isRunLimitError, RunBudget } from "../analyses/limits.js";
+import { runSteady, steadySeed, type OrbitSeed, type SteadyResult } from "../analyses/steady.js";
+import { isOnsetError } from "../circuit/diagnostic.js";
+import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 import { failureMessage, startupAnalysisOf, type SampleMetrics, type SampleOutcome, type SampleSettings } from "./sample.js";
@@ -36,7 +38,8 @@ export function steadyVerdict(r: SteadyResult): StartupVerdict {
 /**
  * One Monte Carlo sample measured by its periodic steady state: the file's `steady` analysis (or
  * one on its start-up's probe) with the drawn values, on the transient's own grid only (the
- * samples' spread dwarfs the grid's error). There is no simulated start-up: the
+ * samples' spread dwarfs the grid's error), shot from the nominal's orbit when the study has one
+ * (`settings.seed`, see {@link nominalSeed}). There is no simulated start-up: the
  * start-up time is the linear prediction (see `SteadyPrediction.startupTime`), computed only
  * when a criterion reads it; settling time and measured growth rate are null.
  */
@@ -45,7 +48,13 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
   if (!analysis) return { metrics: null, pass: false, failures: ["no steady or startup analysis"], error: "the file has neither a steady nor a startup analysis" };
   const criteria = sampleCriteria(settings.criteria);
   try {
-    const r = runSteady(circuit, analysis, { tolerances: settings.tolerances, budget, predictStartup: criteria.some((c) => c.metric === "startup"), singleGrid: true });
+    const r = runSteady(circuit, analysis, {
+      tolerances: settings.tolerances,
+      budget,
+      predictStartup: criteria.some((c) => c.metric === "startup"),
+      singleGrid: true,
+      ...(settings.seed ? { seed: settings.seed } : {}),
+    });
     const verdict = steadyVerdict(r);
     const metrics: SampleMetrics = {
       verdict,
@@ -66,5 +75,22 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
     return { metrics, pass: failures.length === 0 && verdict === "settled", failures: verdict === "settled" ? failures : [`verdict ${verdict}`, ...failures] };
   } catch (error) {
     return { metrics: null, pass: false, failures: ["simulation failed"], error: failureMessage(error) };
+  }
+}
+
+/**
+ * The nominal circuit's orbit, which every sample's shooting starts from: computed once by the
+ * study, the same whatever the number of workers or shards, so no sample depends on how the
+ * work is shared out. Undefined when the nominal has no (autonomous) orbit; the samples then
+ * start from their own transients.
+ */
+export function nominalSeed(nominal: Circuit, tolerances: Partial<Tolerances> | undefined, budget: RunBudget): OrbitSeed | undefined {
+  const analysis = steadyAnalysisOf(nominal);
+  if (!analysis) return undefined;
+  try {
+    return steadySeed(nominal, analysis, { ...(tolerances ? { tolerances } : {}), budget }) ?? undefined;
+  } catch (error) {
+    if (isRunLimitError(error) || !isOnsetError(error)) throw error;
+    return undefined;
   }
 }

@@ -4,6 +4,7 @@ import { inputError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
 import { hasMeasure, nothingToMeasure } from "./study-size.js";
+import { nominalSeed } from "./steady-sample.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { ToleranceSample } from "./summary.js";
@@ -89,7 +90,13 @@ export async function runToleranceStudy(
   budget.refuseStudy("maxRuns", analysis.runs, `the tolerance study draws ${analysis.runs} runs`, analysis.optionSpans?.runs ?? analysis.span);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
-  const settings = { criteria, ...(options.tolerances ? { tolerances: options.tolerances } : {}), ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}) };
+  const seed = analysis.measure === "steady" && indices.length > 0 ? nominalSeed(build({ ...options.fixed }), options.tolerances, budget) : undefined;
+  const settings = {
+    criteria,
+    ...(options.tolerances ? { tolerances: options.tolerances } : {}),
+    ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}),
+    ...(seed ? { seed } : {}),
+  };
   const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;
