@@ -125,6 +125,9 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {
+      if (sweeps[0]?.measure === "steady" && tolerance.measure !== "steady") {
+        ctx.note("the sweep's measure=steady does not apply to a design window: each sample is measured by its start-up run (write tolerance … measure=steady to measure the samples by their steady state)");
+      }
       const report = await runStudy({
         source,
         overrides: sets,
