@@ -3,7 +3,7 @@
 // workers, the CSV, the text report's labels and the HTML page.
 import { readFileSync } from "node:fs";
 import { afterAll, describe, expect, test } from "vitest";
-import { Workspace } from "./support/onset.js";
+import { Workspace, wien } from "./support/onset.js";
 
 const ws = new Workspace();
 afterAll(() => ws.remove());
@@ -81,5 +81,12 @@ describe("onset run with sweep … measure=steady", () => {
     expect(html).toContain("(periodic steady state)");
     expect(html).toContain("start-up (predicted)");
     expect(html).toContain("no orbit");
+  });
+
+  test("a design window whose sweep alone says measure=steady measures its samples by start-up runs, and says so", async () => {
+    ws.write("window.onset", wien("startup probe=o until=30m\nsweep Rf from=22k to=23k steps=2 measure=steady\ntolerance runs=1 seed=2\n"));
+    const r = await ws.run(["run", "window.onset", "--results", "window.jsonl"]);
+    expect(r.status).toBe(0);
+    expect(r.stderr).toContain("the sweep's measure=steady does not apply to a design window: each sample is measured by its start-up run");
   });
 });
