@@ -2,7 +2,8 @@
 // measurement runs in a process of its own (bench/steady-measure.mjs, bench/steady-study.mjs),
 // the two methods side by side: per example, the wall time of one warm run and the settled
 // figures of both; then the bridge source's tolerance study with measure=steady on 1 and 2
-// workers against the same study with start-up runs.
+// workers against the same study with start-up runs; then its trimmer sweep (bench/steady-sweep.mjs)
+// with measure=steady on 1 and 2 workers against the same sweep of start-up runs.
 import { execFileSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { printTable } from "../table.mjs";
@@ -59,4 +60,29 @@ export async function run() {
   const [startupStudy, one, two] = studies;
   console.log(`\nstart-up runs / measure=steady on 2 workers: ${(startupStudy.ms / two.ms).toFixed(1)}×; measure=steady samples identical on 1 and 2 workers: ${one.digest === two.digest}`);
   console.log(`target: ≤ 3 s for 1000 samples with measure=steady on 2 cores (${RUNS} run here: ${((two.ms / RUNS) * 1000 / 1000).toFixed(2)} s per 1000 at this rate)`);
+
+  const sweeps = [measure("steady-sweep.mjs", ["startup", "1"]), measure("steady-sweep.mjs", ["steady", "1"]), measure("steady-sweep.mjs", ["steady", "2"])];
+  const [startupSweep, steadyOne, steadyTwo] = sweeps;
+  // The largest relative difference over the settings where both found an oscillation.
+  const worst = (key) => {
+    const ds = steadyOne.figures.flatMap((f, k) => {
+      const u = startupSweep.figures[k][key];
+      return f[key] === null || u === null ? [] : [Math.abs(f[key] / u - 1)];
+    });
+    return ds.length === 0 ? "—" : `${(Math.max(...ds) * 100).toExponential(1)} %`;
+  };
+  console.log("");
+  printTable(
+    sweeps.map((s) => ({
+      measure: s.measure,
+      workers: s.jobs,
+      settings: s.settings,
+      "wall s": (s.ms / 1000).toFixed(2),
+      oscillating: s.oscillating,
+      threshold: s.threshold?.toFixed(4) ?? "—",
+      digest: s.digest,
+    })),
+  );
+  console.log(`\nbridge trimmer sweep wall time, measure=startup / measure=steady: ${(startupSweep.ms / steadyOne.ms).toFixed(1)}× on 1 worker, ${(startupSweep.ms / steadyTwo.ms).toFixed(1)}× on 2`);
+  console.log(`largest difference over the settings, steady against start-up: frequency ${worst("frequency")}, amplitude ${worst("amplitude")}, THD ${worst("thd")}; identical on 1 and 2 workers: ${steadyOne.digest === steadyTwo.digest}`);
 }

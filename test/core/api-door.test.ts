@@ -12,6 +12,7 @@ import {
   runResponse,
   runStartup,
   runSweep,
+  runSweepInParallel,
   runToleranceStudy,
   runTransient,
   summarize,
@@ -74,6 +75,19 @@ describe("the public API validates at the door", () => {
       fc.asyncProperty(hostile, hostile, hostile, async (a, b, c) => {
         try {
           await runToleranceStudy(a as never, b as never, c as never, [] as never);
+        } catch (e) {
+          if (!(e instanceof OnsetError)) throw new Error(`not a typed error: ${String(e)}`);
+        }
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  test("runSweepInParallel rejects hostile arguments with an OnsetError", async () => {
+    await fc.assert(
+      fc.asyncProperty(hostile, hostile, hostile, async (a, b, c) => {
+        try {
+          await runSweepInParallel(a as never, b as never, c as never);
         } catch (e) {
           if (!(e instanceof OnsetError)) throw new Error(`not a typed error: ${String(e)}`);
         }

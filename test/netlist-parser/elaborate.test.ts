@@ -394,3 +394,12 @@ transient until=1m probes=(o, U1.pole, D1.junction, (D1.junction, k), R1.i)
     ]);
   });
 });
+
+describe("what a study measures", () => {
+  test("sweep … measure=steady elaborates to measure: steady; startup, or none written, leaves it out (the start-up run)", () => {
+    const sweepOf = (options: string) => circuit(program(`resistor R1 a gnd 1k\nvsource V1 a gnd 1\nsweep R1 from=1k to=2k steps=3${options}\n`)).analyses.find((a) => a.kind === "sweep");
+    expect(sweepOf(" measure=steady")).toMatchObject({ kind: "sweep", target: "R1", measure: "steady" });
+    expect(sweepOf(" measure=startup")).not.toHaveProperty("measure");
+    expect(sweepOf("")).not.toHaveProperty("measure");
+  });
+});

@@ -1005,6 +1005,16 @@ const cases: readonly Case[] = [
   },
   {
     code: "bad-word",
+    source: "resistor R1 o gnd 1k\nsweep R1 from=1k to=2k steps=3 measure=steadyy",
+    expected: [
+      "t.onset:2:40: error: measure=steadyy is not a choice for sweep (did you mean 'steady'?)",
+      "  sweep R1 from=1k to=2k steps=3 measure=steadyy",
+      "                                         ^~~~~~~",
+      "hint: measure= is one of startup, steady",
+    ].join("\n"),
+  },
+  {
+    code: "bad-word",
     source: "resistor R1 o gnd 1k\nstartup probe=o kick=termal",
     expected: [
       "t.onset:2:22: error: kick=termal is not a choice for startup (did you mean 'thermal'?)",

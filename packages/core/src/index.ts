@@ -151,5 +151,8 @@ export { oscillates, runSweep, sweepValues } from "./study/sweep.js";
 export { sweepCount } from "./study/sweep-count.js";
 export { refuseStudy } from "./study/study-size.js";
 export type { StartThreshold, SweepOptions, SweepPoint, SweepResult } from "./study/sweep.js";
+export { runSweepInParallel } from "./study/sweep-parallel.js";
+export type { ParallelSweepOptions } from "./study/sweep-parallel.js";
+export type { SteadySettingOutcome } from "./study/sweep-steady.js";
 export { DEFAULT_REQUIRED_YIELD, requiredYield, runDesignWindow, widestPassingRange } from "./study/window.js";
 export type { DesignWindow, WindowPoint } from "./study/window.js";

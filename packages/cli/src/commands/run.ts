@@ -1,4 +1,4 @@
-import { checkTopology, drawSample, refuseStudy, isRunLimitError, isSimulating, runCircuitInParallel, runSweep, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
+import { checkTopology, drawSample, refuseStudy, isRunLimitError, isSimulating, runCircuitInParallel, runSweepInParallel, steadyAnalysisOf, sweepValues, type Circuit, type RunLimits, type SweepAnalysis, type ToleranceAnalysis } from "@onset/core";
 import { workerPool } from "@onset/core/node";
 import type { ParsedArgs } from "../args.js";
 import { CliError, usageError } from "../cli-error.js";
@@ -32,18 +32,21 @@ async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLi
   };
 }
 
-function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, sweep: SweepAnalysis, limits: RunLimits): Outcome {
+/** A sweep without tolerances; under measure=steady its settings run on `jobs` workers and each holds its steady state only. */
+async function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, sweep: SweepAnalysis, limits: RunLimits, jobs: number): Promise<Outcome> {
   const info = targetInfo(circuit, source.program, sweep.target, sets);
   const tick = ctx.progress.counter("settings", sweepValues(sweep).length);
   const build = (values: Readonly<Record<string, number>>) => elaborateSource(source, { ...sets, ...values }).circuit;
-  const result = runSweep(build, sweep, {
+  const result = await runSweepInParallel(build, sweep, {
     ...(info.nominal === null ? {} : { nominal: info.nominal }),
     onPoint: (_point, done) => tick(done),
     limits,
+    pool: workerPool(jobs),
   });
   ctx.progress.stop();
   const hasSpec = circuit.analyses.some((a) => a.kind === "spec");
-  return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: circuit.analyses.filter(isSimulating) };
+  const steady = sweep.measure === "steady" ? steadyAnalysisOf(circuit) : undefined;
+  return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: steady ? [steady] : circuit.analyses.filter(isSimulating) };
 }
 
 function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits, jobs: number): Promise<Outcome> {
@@ -122,6 +125,9 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
   else {
     if (sweeps.length > 1) ctx.note(`only the first sweep (of ${sweeps[0]!.target}) runs; the file has ${sweeps.length}`);
     if (tolerance) {
+      if (sweeps[0]?.measure === "steady" && tolerance.measure !== "steady") {
+        ctx.note("the sweep's measure=steady does not apply to a design window: each sample is measured by its start-up run (write tolerance … measure=steady to measure the samples by their steady state)");
+      }
       const report = await runStudy({
         source,
         overrides: sets,
@@ -146,7 +152,7 @@ async function runOnce(ctx: CommandContext, args: ParsedArgs, signal?: AbortSign
       if (results !== null && results.kind !== "stdout") ctx.note(`samples in ${results.shown}`);
     } else {
       refuseStudyOptions(ctx, studyOnly, false);
-      outcome = sweepOutcome(ctx, source, sets, circuit, sweeps[0]!, limits);
+      outcome = await sweepOutcome(ctx, source, sets, circuit, sweeps[0]!, limits, jobs);
     }
   }
   return emitOutcome(ctx, { ...outputs, results }, subject, outcome);

@@ -56,7 +56,7 @@ function bodySections(outcome: Outcome, doc: Json): string[] {
     }
     case "sweep": {
       const d = results[0] ?? null;
-      const figure = { ...sweepSvgFigure(outcome.report, ""), title: `amplitude, frequency and THD against ${outcome.report.result.target}`, width: WIDE };
+      const figure = { ...sweepSvgFigure(outcome.report, ""), title: `amplitude, frequency and THD against ${outcome.report.result.target}${outcome.report.result.measure === "steady" ? " (periodic steady state)" : ""}`, width: WIDE };
       return [section("sweep", "a1", sweepSection(d) + plotsMarkup([{ id: "a1-sweep", figure }]))];
     }
   }

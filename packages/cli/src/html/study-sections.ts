@@ -1,4 +1,4 @@
-import { METRIC_LABELS, metric, percent, si } from "../report/values.js";
+import { METRIC_LABELS, metric, percent, si, withBar } from "../report/values.js";
 import type { Json } from "../json/results.js";
 import { tag, textTag } from "./markup.js";
 import { verdictBadge } from "./plain-sections.js";
@@ -11,10 +11,45 @@ function note(text: string): string {
   return textTag("p", { class: "note" }, text);
 }
 
-/** The sweep: every setting with its verdict and metrics (silent ones too), and the start threshold. */
-export function sweepSection(d: Json): string {
+/** A setting's steady state as a badge: its orbit's stability, or `no orbit`. */
+function orbitBadge(r: Json | undefined): Cell {
+  if (!r) return "";
+  const stability = str(field(r, "stability"), "verdict");
+  const tone = field(r, "found") !== true ? "bad" : stability === "stable" ? "good" : stability === "unstable" ? "bad" : "warn";
+  return { html: textTag("span", { class: `verdict ${tone}` }, field(r, "found") === true ? (stability ?? "marginal") : "no orbit") };
+}
+
+/** A steady figure with its error bar (`value ± bar`) from the result's `numericalError`. */
+function barred(r: Json | undefined, key: "frequency" | "amplitude" | "thd", unit: string): string {
+  return withBar(num(r, key), num(field(r, "numericalError"), key) ?? undefined, unit);
+}
+
+/** The rows of a `sweep … measure=steady`: each setting's orbit, its figures with their error bars, the predicted start-up time and the poles' growth rate. */
+function steadyRows(d: Json, unit: string): { headers: string[]; rows: Cell[][]; notes: string[] } {
   const target = str(d, "target") ?? "";
-  const unit = str(d, "unit") ?? "";
+  const notes: string[] = [];
+  const rows = list(d, "points").map((p): Cell[] => {
+    const st = list(p, "results").find((r) => str(r, "analysis") === "steady");
+    const spec = field(p, "spec");
+    if (st && field(st, "found") !== true) notes.push(`${target} = ${si(num(p, "value"), unit)}: ${str(st, "explanation") ?? ""}`);
+    const predicted = field(st, "predicted");
+    return [
+      si(num(p, "value"), unit),
+      orbitBadge(st),
+      barred(st, "frequency", "Hz"),
+      barred(st, "amplitude", str(st, "unit") ?? "V"),
+      barred(st, "thd", "1"),
+      metric("startupTime", num(predicted, "startupTime")),
+      metric("growthRate", num(predicted, "growthRate")),
+      spec ? outcomeCell(field(spec, "pass") === true) : "",
+    ];
+  });
+  notes.push("figures: the periodic steady state at each setting (shooting on two grids, extrapolated; ± bounds the numerical error); start-up times are predicted from the poles and the thermal noise, not simulated");
+  return { headers: [target, "orbit", "frequency", "amplitude", "THD", "start-up (predicted)", "growth rate (poles)", "spec"], rows, notes };
+}
+
+/** The rows of a start-up sweep: each setting's first start-up run. */
+function startupRows(d: Json, unit: string): { headers: string[]; rows: Cell[][]; notes: string[] } {
   const rows = list(d, "points").map((p): Cell[] => {
     const st = list(p, "results").find((r) => str(r, "analysis") === "startup");
     const spec = field(p, "spec");
@@ -29,17 +64,28 @@ export function sweepSection(d: Json): string {
       spec ? outcomeCell(field(spec, "pass") === true) : "",
     ];
   });
+  return { headers: [str(d, "target") ?? "", "verdict", "frequency", "amplitude", "THD", "start-up", "growth rate", "spec"], rows, notes: [] };
+}
+
+/** The sweep: every setting with its verdict (or orbit) and metrics (silent ones too), and the start threshold. */
+export function sweepSection(d: Json): string {
+  const target = str(d, "target") ?? "";
+  const unit = str(d, "unit") ?? "";
+  const steady = str(d, "measure") === "steady";
+  const { headers, rows, notes } = steady ? steadyRows(d, unit) : startupRows(d, unit);
   const t = field(d, "threshold");
-  let threshold = "start threshold: not crossed within the sweep (the verdict does not change between settings)";
+  const named = steady ? "start threshold (poles)" : "start threshold";
+  let threshold = `${named}: not crossed within the sweep (the verdict does not change between settings)`;
   if (t) {
-    threshold = `start threshold: ${target} = ${si(num(t, "value"), unit)} ± ${si(num(t, "precision"), unit, 2)} (${field(t, "startsAbove") === true ? "oscillates above it" : "oscillates below it"})`;
+    threshold = `${named}: ${target} = ${si(num(t, "value"), unit)} ± ${si(num(t, "precision"), unit, 2)} (${field(t, "startsAbove") === true ? "oscillates above it" : "oscillates below it"})`;
     const margin = num(t, "margin");
     if (num(t, "nominal") !== null && margin !== null) threshold += `; nominal ${si(num(t, "nominal"), unit)}: margin ${percent(margin, 3)}, the nominal ${margin > 0 ? "starts" : "does not start"}`;
   }
   return (
-    tag("h3", {}, `sweep of ${textTag("code", {}, target)}`) +
+    tag("h3", {}, `sweep of ${textTag("code", {}, target)}${steady ? " (periodic steady state)" : ""}`) +
     textTag("p", { class: "explanation" }, threshold) +
-    tag("div", { class: "tables" }, dataTable([target, "verdict", "frequency", "amplitude", "THD", "start-up", "growth rate", "spec"], rows, [true, false, true, true, true, true, true, false]))
+    tag("div", { class: "tables" }, dataTable(headers, rows, [true, false, true, true, true, true, true, false])) +
+    notes.map(note).join("")
   );
 }
 

@@ -170,6 +170,8 @@ export interface SweepAnalysis {
   readonly steps?: number;
   readonly step?: number;
   readonly log: boolean;
+  /** What each setting measures: the file's analyses with its start-up run (default), or its periodic steady state by shooting (no simulated start-up). */
+  readonly measure?: StudyMeasure;
   readonly span?: SourceSpan;
   /** Where each written option's value is, by its key (`until`, `runs`, …), for errors placed at the option. */
   readonly optionSpans?: Readonly<Record<string, SourceSpan>>;

@@ -63,8 +63,8 @@ export function judgedValue(metrics: JudgedMetrics, criterion: SpecCriterion): n
   return metrics.verdict === "settled" || criterion.metric === "frequency" ? metricValue(metrics, criterion.metric) : null;
 }
 
-/** Checks the criteria on one start-up result (see `judgedValue`); `yield` reads `yieldValue`. */
-export function evaluateSpec(criteria: readonly SpecCriterion[], metrics: StartupMetrics, yieldValue?: number): SpecReport {
+/** Checks the criteria on one start-up result or steady state (see `judgedValue`); `yield` reads `yieldValue`. */
+export function evaluateSpec(criteria: readonly SpecCriterion[], metrics: JudgedMetrics, yieldValue?: number): SpecReport {
   const results = criteria.map((criterion) => {
     const measured = criterion.metric === "yield" ? (yieldValue ?? null) : judgedValue(metrics, criterion);
     return { criterion, measured, pass: meets(criterion, measured) };

@@ -5,11 +5,16 @@ import type { RunOptions } from "../analyses/transient.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { failureMessage, runSample, type SampleOutcome, type SampleSettings } from "./sample.js";
+import { runSteadySetting, type SteadySettingOutcome } from "./sweep-steady.js";
 
-/** Work a pool runs: a Monte Carlo sample, or one seed of a start-up run (`seeds=`). Plain data, so it can be posted to a worker thread. */
+/**
+ * Work a pool runs: a Monte Carlo sample, one seed of a start-up run (`seeds=`), or one setting
+ * of a `sweep … measure=steady`. Plain data, so it can be posted to a worker thread.
+ */
 export type Job =
   | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: SampleSettings }
-  | { readonly kind: "seed"; readonly circuit: Circuit; readonly analysis: StartupAnalysis; readonly tolerances?: Partial<Tolerances> };
+  | { readonly kind: "seed"; readonly circuit: Circuit; readonly analysis: StartupAnalysis; readonly tolerances?: Partial<Tolerances> }
+  | { readonly kind: "steady-setting"; readonly circuit: Circuit; readonly tolerances?: Partial<Tolerances> };
 
 /** What one seed of a start-up run gives: its start-up time, or why there is none. */
 export interface SeedOutcome {
@@ -23,8 +28,8 @@ export interface SeedOutcome {
   readonly error?: string;
 }
 
-/** What a job gives: a {@link SampleOutcome} for a sample, a {@link SeedOutcome} for a seed. */
-export type JobResult<J extends Job> = J extends { kind: "sample" } ? SampleOutcome : SeedOutcome;
+/** What a job gives: a {@link SampleOutcome} for a sample, a {@link SeedOutcome} for a seed, a {@link SteadySettingOutcome} for a sweep's setting. */
+export type JobResult<J extends Job> = J extends { kind: "sample" } ? SampleOutcome : J extends { kind: "seed" } ? SeedOutcome : SteadySettingOutcome;
 
 /**
  * Runs one seed of a start-up analysis (its own seed in `analysis.seed`), without a spread of
@@ -43,6 +48,12 @@ export function runSeed(circuit: Circuit, analysis: StartupAnalysis, options: Ru
 /** Runs a job in this thread within `budget` (a worker runs the same function). */
 export function runJob<J extends Job>(job: J, budget: RunBudget = new RunBudget()): JobResult<J> {
   const work: Job = job;
-  const outcome = work.kind === "sample" ? runSample(work.circuit, work.settings, budget) : runSeed(work.circuit, work.analysis, { ...(work.tolerances ? { tolerances: work.tolerances } : {}), budget });
-  return outcome as JobResult<J>;
+  switch (work.kind) {
+    case "sample":
+      return runSample(work.circuit, work.settings, budget) as JobResult<J>;
+    case "seed":
+      return runSeed(work.circuit, work.analysis, { ...(work.tolerances ? { tolerances: work.tolerances } : {}), budget }) as JobResult<J>;
+    case "steady-setting":
+      return runSteadySetting(work.circuit, work.tolerances, budget) as JobResult<J>;
+  }
 }

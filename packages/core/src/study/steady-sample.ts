@@ -36,6 +36,28 @@ export function steadyVerdict(r: SteadyResult): StartupVerdict {
 }
 
 /**
+ * A steady result's figures as a sample's: its verdict (see {@link steadyVerdict}), the
+ * predicted start-up time (when it was computed), no settling time and no measured growth rate.
+ */
+export function steadyMetrics(r: SteadyResult): SampleMetrics {
+  return {
+    verdict: steadyVerdict(r),
+    frequency: r.frequency,
+    amplitude: r.amplitude,
+    thd: r.thd,
+    startupTime: r.predicted.startupTime,
+    settlingTime: null,
+    growthRate: null,
+    offset: r.offset,
+    rms: r.rms,
+    peakToPeak: r.peakToPeak,
+    predictedFrequency: r.predicted.frequency,
+    predictedGrowthRate: r.predicted.growthRate,
+    numericalError: r.numericalError,
+  };
+}
+
+/**
  * One Monte Carlo sample measured by its periodic steady state: the file's `steady` analysis (or
  * one on its start-up's probe) with the drawn values, on the transient's own grid only (the
  * samples' spread dwarfs the grid's error), shot from the nominal's orbit when the study has one
@@ -55,22 +77,8 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       singleGrid: true,
       ...(settings.seed ? { seed: settings.seed } : {}),
     });
-    const verdict = steadyVerdict(r);
-    const metrics: SampleMetrics = {
-      verdict,
-      frequency: r.frequency,
-      amplitude: r.amplitude,
-      thd: r.thd,
-      startupTime: r.predicted.startupTime,
-      settlingTime: null,
-      growthRate: null,
-      offset: r.offset,
-      rms: r.rms,
-      peakToPeak: r.peakToPeak,
-      predictedFrequency: r.predicted.frequency,
-      predictedGrowthRate: r.predicted.growthRate,
-      numericalError: r.numericalError,
-    };
+    const metrics = steadyMetrics(r);
+    const verdict = metrics.verdict;
     const failures = criteria.filter((c) => !meets(c, judgedValue(metrics, c))).map((c) => c.text);
     return { metrics, pass: failures.length === 0 && verdict === "settled", failures: verdict === "settled" ? failures : [`verdict ${verdict}`, ...failures] };
   } catch (error) {

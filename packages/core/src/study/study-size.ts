@@ -22,7 +22,7 @@ export function hasMeasure(circuit: Circuit, tolerance: ToleranceAnalysis): bool
  * Refuses, before anything runs or is allocated, a study larger than its limits (settings of a
  * sweep, samples of a tolerance study, settings × samples of both) and a study with nothing
  * to measure: a tolerance study needs a `startup` analysis (its samples are judged on one),
- * a sweep needs some analysis to run at each setting.
+ * a sweep needs some analysis to run at each setting (a `steady` or `startup` one under measure=steady).
  */
 export function refuseStudy(circuit: Circuit, options: BudgetOptions = {}): void {
   const budget = budgetOf(options);
@@ -40,10 +40,24 @@ export function refuseStudy(circuit: Circuit, options: BudgetOptions = {}): void
     }
     if (!hasMeasure(circuit, tolerance)) throw nothingToMeasure(tolerance);
   }
-  if (sweep && !tolerance && !circuit.analyses.some(isSimulating)) {
-    throw inputError("nothing-to-measure", `the sweep of ${sweep.target} has nothing to measure: the file has no analysis to run at each setting`, {
+  if (sweep && !tolerance && !sweepHasMeasure(circuit, sweep)) throw sweepNothingToMeasure(sweep);
+}
+
+/** Whether a file holds what a sweep runs at each setting: some simulating analysis, or under measure=steady a `steady` or `startup` one. */
+export function sweepHasMeasure(circuit: Circuit, sweep: SweepAnalysis): boolean {
+  return circuit.analyses.some((a) => (sweep.measure === "steady" ? a.kind === "steady" || a.kind === "startup" : isSimulating(a)));
+}
+
+/** A sweep on a file without what its settings are measured by (see {@link sweepHasMeasure}). */
+export function sweepNothingToMeasure(sweep: SweepAnalysis): OnsetError {
+  if (sweep.measure === "steady") {
+    return inputError("nothing-to-measure", `the sweep of ${sweep.target} has nothing to measure: the file has no steady or startup analysis`, {
       span: sweep.span,
-      hint: "add the analysis to repeat, such as: startup probe=o until=auto",
+      hint: "each setting is measured by its steady state: add a line such as: steady probe=o",
     });
   }
+  return inputError("nothing-to-measure", `the sweep of ${sweep.target} has nothing to measure: the file has no analysis to run at each setting`, {
+    span: sweep.span,
+    hint: "add the analysis to repeat, such as: startup probe=o until=auto",
+  });
 }

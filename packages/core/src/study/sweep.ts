@@ -1,15 +1,22 @@
 import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
-import type { Circuit, SweepAnalysis } from "../circuit/circuit.js";
+import type { Circuit, StudyMeasure, SweepAnalysis } from "../circuit/circuit.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
-import { runStartup, type StartupResult } from "../analyses/startup.js";
+import { runPoles } from "../analyses/poles.js";
+import { runStartup } from "../analyses/startup.js";
 import type { RunOptions } from "../analyses/transient.js";
 import { budgetOf, RUN_LIMITS, RunBudget } from "../analyses/limits.js";
 import { stepsSpan, sweepCount } from "./sweep-count.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
+import { steadyVerdict } from "./steady-sample.js";
+import { sweepHasMeasure, sweepNothingToMeasure } from "./study-size.js";
+import { runSteadySetting, settingRun } from "./sweep-steady.js";
 import type { CircuitBuilder } from "./tolerance.js";
 
-/** One setting of a sweep and the file's analyses run at it. */
+/**
+ * One setting of a sweep and what ran at it: the file's analyses, or under measure=steady its
+ * steady state only (`run.results` holds the one steady result, `run.spec` is judged on it).
+ */
 export interface SweepPoint {
   readonly value: number;
   readonly run: CircuitRun;
@@ -33,6 +40,8 @@ export interface SweepResult {
   readonly analysis: "sweep";
   readonly target: string;
   readonly log: boolean;
+  /** What each setting was measured by: its start-up run (with the file's other analyses) or its periodic steady state. */
+  readonly measure: StudyMeasure;
   readonly points: readonly SweepPoint[];
   readonly threshold: StartThreshold | null;
 }
@@ -75,36 +84,76 @@ export interface SweepOptions extends RunOptions {
   readonly onPoint?: (point: SweepPoint, done: number, total: number) => void;
 }
 
-function firstStartup(run: CircuitRun): StartupResult | undefined {
-  return run.results.find((r): r is StartupResult => r.analysis === "startup");
+/** The verdict a setting is judged on: its first start-up run's, or under measure=steady its orbit's (see `steadyVerdict`). */
+function verdictAt(run: CircuitRun, measure: StudyMeasure): StartupVerdict | undefined {
+  for (const r of run.results) {
+    if (measure === "startup" && r.analysis === "startup") return r.verdict;
+    if (measure === "steady" && r.analysis === "steady") return steadyVerdict(r);
+  }
+  return undefined;
+}
+
+/** The checked arguments of a sweep: its options with one budget for every setting and the bisection, and the settings. */
+export function sweepSetup<O extends SweepOptions>(api: string, build: CircuitBuilder, analysis: SweepAnalysis, given: O): { options: O & { budget: RunBudget }; values: number[] } {
+  if (typeof build !== "function") throw badArgument(`${api}: build must be a function from overrides to a circuit, got ${describe(build)}`);
+  checkAnalysis(api, analysis, "sweep");
+  checkOptions(api, given);
+  // The wall time counts from here.
+  const options = { ...given, budget: budgetOf(given) };
+  return { options, values: sweepValues(analysis, options.budget.maxSweepPoints) };
+}
+
+/** The circuit at one setting, refused when it holds nothing the sweep measures. */
+export function settingCircuit(build: CircuitBuilder, analysis: SweepAnalysis, value: number, budget: RunBudget): Circuit {
+  budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);
+  const circuit = build({ [analysis.target]: value });
+  if (!sweepHasMeasure(circuit, analysis)) throw sweepNothingToMeasure(analysis);
+  return circuit;
 }
 
 /**
- * Runs the file's analyses at every setting of the sweep, then refines the start threshold by
- * bisection between the two neighbouring settings whose verdicts differ (oscillating or not).
+ * Runs the file's analyses at every setting of the sweep (under measure=steady, its periodic
+ * steady state: see `runSteadySetting`), then refines the start threshold by bisection between
+ * the two neighbouring settings whose verdicts differ (oscillating or not).
  */
 export function runSweep(build: CircuitBuilder, analysis: SweepAnalysis, given: SweepOptions = {}): SweepResult {
-  if (typeof build !== "function") throw badArgument(`runSweep: build must be a function from overrides to a circuit, got ${describe(build)}`);
-  checkAnalysis("runSweep", analysis, "sweep");
-  checkOptions("runSweep", given);
-  // One budget for every setting and the bisection: the wall time counts from here.
-  const options = { ...given, budget: budgetOf(given) };
-  const values = sweepValues(analysis, options.budget.maxSweepPoints);
+  const { options, values } = sweepSetup("runSweep", build, analysis, given);
   const points: SweepPoint[] = [];
   values.forEach((value, k) => {
-    options.budget.check(`before the sweep setting ${analysis.target} = ${value}`, analysis.span);
-    const point = { value, run: runCircuit(build({ [analysis.target]: value }), { ...options, seedSpread: false }) };
+    const circuit = settingCircuit(build, analysis, value, options.budget);
+    const run = analysis.measure === "steady" ? settingRun(runSteadySetting(circuit, options.tolerances, options.budget)) : runCircuit(circuit, { ...options, seedSpread: false });
+    const point = { value, run };
     points.push(point);
     options.onPoint?.(point, k + 1, values.length);
   });
+  return sweepResult(build, analysis, points, options);
+}
+
+/** The sweep's result from its settings' runs (in setting order): the first start threshold between two of them, refined. */
+export function sweepResult(build: CircuitBuilder, analysis: SweepAnalysis, points: readonly SweepPoint[], options: SweepOptions): SweepResult {
+  const measure = analysis.measure ?? "startup";
   let threshold: StartThreshold | null = null;
   for (let k = 1; k < points.length && !threshold; k++) {
-    const a = firstStartup(points[k - 1]!.run);
-    const b = firstStartup(points[k]!.run);
-    if (!a || !b || oscillates(a.verdict) === oscillates(b.verdict)) continue;
-    threshold = bisectThreshold(build, analysis, points[k - 1]!.value, points[k]!.value, oscillates(a.verdict), options);
+    const a = verdictAt(points[k - 1]!.run, measure);
+    const b = verdictAt(points[k]!.run, measure);
+    if (!a || !b || oscillates(a) === oscillates(b)) continue;
+    threshold = bisectThreshold(build, analysis, points[k - 1]!.value, points[k]!.value, oscillates(a), options);
   }
-  return { analysis: "sweep", target: analysis.target, log: analysis.log, points, threshold };
+  return { analysis: "sweep", target: analysis.target, log: analysis.log, measure, points, threshold };
+}
+
+/**
+ * Whether the circuit starts at a setting: its start-up run's verdict; under measure=steady its
+ * poles (the dominant pair in the right half-plane), which is where an orbit appears, at the
+ * cost of a bias point instead of a simulation.
+ */
+function startsAt(build: CircuitBuilder, analysis: SweepAnalysis, value: number, options: SweepOptions): boolean {
+  options.budget?.check(`while bisecting for the start threshold`);
+  const circuit: Circuit = build({ [analysis.target]: value });
+  if (analysis.measure === "steady") return runPoles(circuit, { kind: "poles" }, options).starts;
+  const startup = startupAnalysisOf(circuit);
+  if (!startup) return false;
+  return oscillates(runStartup(circuit, startup, options).verdict);
 }
 
 function bisectThreshold(
@@ -118,16 +167,9 @@ function bisectThreshold(
   const span = Math.abs(analysis.to - analysis.from);
   const precision = options.precision ?? (analysis.log ? 1e-3 : 1e-3 * span);
   const narrow = (a: number, b: number) => (analysis.log ? Math.abs(Math.log(b / a)) < precision : Math.abs(b - a) < precision);
-  const startsAt = (value: number): boolean => {
-    options.budget?.check(`while bisecting for the start threshold`);
-    const circuit: Circuit = build({ [analysis.target]: value });
-    const startup = startupAnalysisOf(circuit);
-    if (!startup) return false;
-    return oscillates(runStartup(circuit, startup, options).verdict);
-  };
   for (let k = 0; k < 40 && !narrow(lo, hi); k++) {
     const mid = analysis.log ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);
-    if (startsAt(mid) === loOscillates) lo = mid;
+    if (startsAt(build, analysis, mid, options) === loOscillates) lo = mid;
     else hi = mid;
   }
   const value = analysis.log ? Math.sqrt(lo * hi) : 0.5 * (lo + hi);

@@ -59,7 +59,7 @@ export interface ToleranceStudyOptions extends BudgetOptions {
 }
 
 /** Lets timers and I/O run (setImmediate where there is one: Node; else a zero timeout). */
-function yieldToEvents(): Promise<void> {
+export function yieldToEvents(): Promise<void> {
   const later: (callback: () => void) => unknown = (globalThis as { setImmediate?: (callback: () => void) => unknown }).setImmediate ?? ((callback) => setTimeout(callback, 0));
   return new Promise((resolve) => later(resolve));
 }

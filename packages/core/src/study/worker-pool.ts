@@ -4,6 +4,7 @@ import { runLimitError, type RunLimitRecord, type WorkerLimits } from "../analys
 import type { Job, JobResult, SeedOutcome } from "./jobs.js";
 import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
 import type { SampleOutcome } from "./sample.js";
+import type { SteadySettingOutcome } from "./sweep-steady.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
@@ -15,7 +16,7 @@ export interface WorkerRequest {
 }
 
 /** A worker's answer: the job's outcome, or the limit that stopped it. */
-export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome } | { readonly limit: RunLimitRecord };
+export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome | SteadySettingOutcome } | { readonly limit: RunLimitRecord };
 
 /** The default number of workers: the machine's cores. */
 export function defaultJobs(): number {
@@ -34,7 +35,7 @@ function workerEntry(): URL | null {
 }
 
 interface Pending {
-  resolve(outcome: SampleOutcome | SeedOutcome): void;
+  resolve(outcome: SampleOutcome | SeedOutcome | SteadySettingOutcome): void;
   reject(error: unknown): void;
 }
 
