@@ -11,6 +11,8 @@ import { printTable } from "../table.mjs";
 export const title = "Steady state by shooting against the start-up run to settled (wall time, agreement, tolerance study)";
 
 const EXAMPLES = ["bridge-excitation", "cable-tracer", "tuning-reference"];
+/** The amplitude-control examples, whose slow loops take the start-up run hundreds to thousands of periods (target 30×). */
+const SLOW_LOOPS = ["audio-test-source", "jfet-loop-source", "low-frequency-reference"];
 const REPEATS = Number(process.env.ONSET_BENCH_REPEATS ?? 5);
 const RUNS = Number(process.env.ONSET_BENCH_RUNS ?? 1000);
 
@@ -24,22 +26,23 @@ const rel = (a, b) => (a === null || b === null ? "—" : `${(Math.abs(a / b - 1
 export async function run() {
   const rows = [];
   const ratios = [];
-  for (const name of EXAMPLES) {
+  for (const name of [...EXAMPLES, ...SLOW_LOOPS]) {
     const startup = measure("steady-measure.mjs", [name, "startup", String(REPEATS)]);
     const steady = measure("steady-measure.mjs", [name, "steady", String(REPEATS)]);
     ratios.push(startup.ms / steady.ms);
     rows.push({
       example: name,
-      "start-up ms": startup.ms.toFixed(1),
-      "steady ms": steady.ms.toFixed(1),
+      "start-up CPU ms": startup.ms.toFixed(1),
+      "steady CPU ms": steady.ms.toFixed(1),
       ratio: `${(startup.ms / steady.ms).toFixed(1)}×`,
+      target: SLOW_LOOPS.includes(name) ? "30×" : "10×",
       "Δf": rel(steady.frequency, startup.frequency),
       "ΔA": rel(steady.amplitude, startup.amplitude),
       "ΔTHD": rel(steady.thd, startup.thd),
     });
   }
   printTable(rows);
-  console.log(`\nwall time, start-up to settled / steady: ${ratios.map((r) => `${r.toFixed(1)}×`).join(", ")} (target ≥ 10×)`);
+  console.log(`\nprocessor time, start-up to settled / steady: ${ratios.map((r) => `${r.toFixed(1)}×`).join(", ")} (target ≥ 10×; ≥ 30× for the slow loops)`);
   console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
 
   const studies = [measure("steady-study.mjs", ["startup", "2", String(RUNS)]), measure("steady-study.mjs", ["steady", "1", String(RUNS)]), measure("steady-study.mjs", ["steady", "2", String(RUNS)])];
