@@ -164,7 +164,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     }
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
     // likely be the last (the step shrinking as the mismatch did), when the multipliers need it.
-    const last = trial && options.multipliers === true && size * (mismatch / previous) <= 1;
+    // (After an exact Jacobian Newton converges quadratically: a step within a thousand tolerances
+    // is most often the last but one.)
+    const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom && size <= LIKELY_LAST;
+    const last = options.multipliers === true && likely;
     fresh = !contracted || last;
     previous = mismatch;
     trial = true;
@@ -177,6 +180,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   });
 }
 
+/** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */
+const LIKELY_LAST = 1e3;
 /** A step moves the period by at most this fraction of it. */
 const MAX_PERIOD_MOVE = 0.2;
 
