@@ -145,7 +145,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     if (end.sensitivity) newton.set(end.sensitivity, n);
     else if (trial) newton.secant(step, damping, fromResidual, residual);
     freshAtFrom = end.sensitivity !== undefined;
-    const contracted = !trial || mismatch <= CHORD_CONTRACTION * previous;
+    // (A step cut short to λ is expected to shrink the mismatch to about 1 − λ of it.)
+    const contracted = !trial || mismatch <= (1 - damping * (1 - CHORD_CONTRACTION)) * previous;
     for (let i = 0; i < n; i++) from[i] = x0[i]!;
     if (options.autonomous) from[n] = T;
     fromResidual.set(residual);
