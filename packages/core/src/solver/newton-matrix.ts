@@ -12,6 +12,11 @@ import type { MnaSystem } from "./system.js";
 export const STALE_ENTRY = 0.25;
 /** Entry changes below this fraction of their row's largest constant entry are ignored. */
 const ENTRY_FLOOR = 1e-9;
+/**
+ * Multiple of the unit roundoff a row's residual is taken to carry: rows of a circuit matrix sum
+ * a handful of terms, and the solve adds an error of the same order.
+ */
+const ROUNDING_MARGIN = 16;
 
 /** What a snapshot keeps of the Newton matrix so that a resumed run factors exactly as the original. */
 export interface NewtonMatrixState {
@@ -189,6 +194,25 @@ export class NewtonMatrix {
     }
     this.factorizations++;
     this.luValid = true;
+  }
+
+  /**
+   * How far rounding alone moves a Newton update, per unknown: |M⁻¹·s| with
+   * sᵢ = ROUNDING_MARGIN·ε·(Σⱼ|Mᵢⱼ·xⱼ| + |historyᵢ| + |uᵢ|), the rounding error a row's
+   * residual can carry (a sum of m terms is exact to m·ε of the sum of their sizes: Higham,
+   * *Accuracy and Stability of Numerical Algorithms*, 2nd ed., §3.1). At tiny steps a·C·x and
+   * the history are large and cancel, so this floor grows as 1/h.
+   */
+  roundingFloor(x: Float64Array, history: Float64Array, u: Float64Array, out: Float64Array): void {
+    const { n, base } = this;
+    const { rowStart, cols } = this.structure;
+    for (let i = 0; i < n; i++) {
+      let size = Math.abs(history[i]!) + Math.abs(u[i]!);
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) size += Math.abs(base[e]! * x[cols[e]!]!);
+      out[i] = ROUNDING_MARGIN * Number.EPSILON * size;
+    }
+    this.lu!.solve(out, out);
+    for (let i = 0; i < n; i++) out[i] = Math.abs(out[i]!);
   }
 
   /** dx = −M⁻¹·r with the factorisation in use. */
