@@ -147,10 +147,16 @@ export class NewtonMatrix {
   stale(nonlinear: boolean): boolean {
     if (!this.luValid) return true;
     if (!nonlinear) return false;
+    this.linkBase();
+    return this.devices.moved(this.base, STALE_ENTRY, this.entryFloor);
+  }
+
+  /** Tells the device entries touched since where they sit among the constant part's. */
+  private linkBase(): void {
     const devices = this.devices;
+    if (this.baseLinked === devices.entryCount) return;
     for (let e = this.baseLinked; e < devices.entryCount; e++) devices.linkBase(e, this.structure.entryOf(devices.rows[e]!, devices.cols[e]!) ?? -1);
     this.baseLinked = devices.entryCount;
-    return devices.moved(this.base, STALE_ENTRY, this.entryFloor);
   }
 
   /**
@@ -183,9 +189,13 @@ export class NewtonMatrix {
     if (this.devices.entryCount !== this.patternEntries) this.updatePattern(this.devices.entryCount);
     const lu = this.lu!;
     const matrix = lu.a;
-    matrix.set(this.base);
-    matrix.fill(0, this.base.length);
-    this.devices.assemble(matrix);
+    // Loops, not set() and fill(): a builtin call costs more than a small circuit's few dozen entries.
+    const base = this.base;
+    const constant = base.length;
+    for (let e = 0; e < constant; e++) matrix[e] = base[e]!;
+    for (let e = constant; e < matrix.length; e++) matrix[e] = 0;
+    this.linkBase();
+    this.devices.assemble(matrix, base, this.entryFloor);
     if (!lu.factor()) {
       const label = this.system.unknowns[lu.singularColumn]?.label ?? "?";
       throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {

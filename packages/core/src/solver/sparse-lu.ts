@@ -1,7 +1,6 @@
-import { compileElimination, type CompiledElimination } from "./compiled-elimination.js";
 import { DenseLu } from "./dense-lu.js";
-import { EliminationSchedule } from "./elimination-schedule.js";
 import { markowitzOrder } from "./markowitz.js";
+import { planOf, type Plan } from "./plan-cache.js";
 
 /**
  * Threshold for keeping the previous pivot order: a pivot at least this fraction of the largest
@@ -25,14 +24,6 @@ const DENSE_LIMIT = 400;
  * trying the kept ones costs a refactorisation each, far less than ordering afresh.
  */
 const KEPT_ORDERS = 4;
-
-/** One pivot order with its schedule and, for small circuits, its generated code. */
-interface Plan {
-  readonly rowOrder: Int32Array;
-  readonly colOrder: Int32Array;
-  readonly schedule: EliminationSchedule;
-  readonly compiled: CompiledElimination | undefined;
-}
 
 /** A factorisation as a snapshot keeps it: the kept pivot orders and the packed factors. */
 export interface SparseLuState {
@@ -133,10 +124,9 @@ export class SparseLu {
   }
 
   private plan(rowOrder: Int32Array, colOrder: Int32Array): Plan {
-    const schedule = new EliminationSchedule(this.n, this.rows, this.cols, rowOrder, colOrder);
-    if (this.lu.length < schedule.slots) this.lu = new Float64Array(schedule.slots);
-    const compiled = this.compile ? compileElimination(schedule, this.n, rowOrder, colOrder) : undefined;
-    return { rowOrder, colOrder, schedule, compiled };
+    const p = planOf(this.n, this.rows, this.cols, rowOrder, colOrder, this.compile);
+    if (this.lu.length < p.schedule.slots) this.lu = new Float64Array(p.schedule.slots);
+    return p;
   }
 
   private factorDense(): boolean {
