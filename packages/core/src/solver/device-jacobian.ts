@@ -186,8 +186,13 @@ export class DeviceJacobian {
       const change = Math.abs(values[e]! - factored[e]!);
       if (change > fraction * whole[e]! && change > floorAt[e]!) return true;
     }
-    const { baseAt, rows } = this;
-    for (let e = assembled; e < this.count; e++) {
+    return assembled < this.count && this.movedSinceAssembly(base, fraction, floor);
+  }
+
+  /** `moved` for the entries touched after the last assembly (apart, to keep `moved` small enough to inline). */
+  private movedSinceAssembly(base: Float64Array, fraction: number, floor: Float64Array): boolean {
+    const { values, factored, baseAt, rows } = this;
+    for (let e = this.assembled; e < this.count; e++) {
       const was = factored[e]!;
       const change = Math.abs(values[e]! - was);
       const b = baseAt[e]!;

@@ -147,14 +147,14 @@ export class NewtonMatrix {
   stale(nonlinear: boolean): boolean {
     if (!this.luValid) return true;
     if (!nonlinear) return false;
-    this.linkBase();
+    // The check outside linkBase keeps this method small enough to inline into the Newton loop.
+    if (this.baseLinked !== this.devices.entryCount) this.linkBase();
     return this.devices.moved(this.base, STALE_ENTRY, this.entryFloor);
   }
 
   /** Tells the device entries touched since where they sit among the constant part's. */
   private linkBase(): void {
     const devices = this.devices;
-    if (this.baseLinked === devices.entryCount) return;
     for (let e = this.baseLinked; e < devices.entryCount; e++) devices.linkBase(e, this.structure.entryOf(devices.rows[e]!, devices.cols[e]!) ?? -1);
     this.baseLinked = devices.entryCount;
   }
@@ -194,7 +194,7 @@ export class NewtonMatrix {
     const constant = base.length;
     for (let e = 0; e < constant; e++) matrix[e] = base[e]!;
     for (let e = constant; e < matrix.length; e++) matrix[e] = 0;
-    this.linkBase();
+    if (this.baseLinked !== this.devices.entryCount) this.linkBase();
     this.devices.assemble(matrix, base, this.entryFloor);
     if (!lu.factor()) {
       const label = this.system.unknowns[lu.singularColumn]?.label ?? "?";

@@ -98,7 +98,16 @@ export class SparseLu {
     this.singularColumn = -1;
     this.denseFactored = false;
     const current = this.current;
-    if (current && this.refactor(current)) return true;
+    if (current !== undefined && this.refactor(current)) return true;
+    return this.factorOtherwise(current);
+  }
+
+  /**
+   * The kept orders other than `current`, else a fresh order, else the dense fallback. Apart from
+   * `factor` so that the common path stays small enough for the JIT to inline into the Newton
+   * loop (with room left for the devices' code there).
+   */
+  private factorOtherwise(current: Plan | undefined): boolean {
     for (const p of this.plans) if (p !== current && this.refactor(p)) return this.use(p);
     this.pivotings++;
     this.current = undefined;
@@ -142,8 +151,12 @@ export class SparseLu {
 
   /** Elimination in a kept order over its nonzeros; false when a pivot got too small. */
   private refactor(p: Plan): boolean {
+    const compiled = p.compiled;
+    return compiled !== undefined ? compiled.refactor(this.a, this.lu, KEEP_PIVOT, this.pivotTolerance) : this.refactorByLoops(p);
+  }
+
+  private refactorByLoops(p: Plan): boolean {
     const { a, lu } = this;
-    if (p.compiled) return p.compiled.refactor(a, lu, KEEP_PIVOT, this.pivotTolerance);
     const s = p.schedule;
     const { pivotAt, lowerStart, lowerAt, upperStart, upperAt, updateAt, columnStart, columnAt } = s;
     lu.set(a);
@@ -187,17 +200,20 @@ export class SparseLu {
     this.solveSigned(b, x, -1);
   }
 
+  // Kept small (see factorOtherwise): the generated code's call, everything else apart.
   private solveSigned(b: Float64Array, x: Float64Array, sign: number): void {
+    const compiled = this.denseFactored ? undefined : this.current!.compiled;
+    if (compiled !== undefined) compiled.solve(this.lu, b, x, sign);
+    else this.solveByLoops(b, x, sign);
+  }
+
+  private solveByLoops(b: Float64Array, x: Float64Array, sign: number): void {
     if (this.denseFactored) {
       this.dense!.solve(b, x);
       if (sign < 0) for (let i = 0; i < this.n; i++) x[i] = -x[i]!;
       return;
     }
     const p = this.current!;
-    if (p.compiled) {
-      p.compiled.solve(this.lu, b, x, sign);
-      return;
-    }
     const { n, lu, work: y } = this;
     const { rowOrder, colOrder } = p;
     const { rowLowerStart, rowLowerAt, rowLowerCol, upperStart, upperAt, upperCol, pivotAt } = p.schedule;
