@@ -1,4 +1,4 @@
-import { simulationError } from "../circuit/diagnostic.js";
+import { simulationError, type OnsetError } from "../circuit/diagnostic.js";
 import { compileResidual, type ResidualProduct } from "./compiled-residual.js";
 import { DeviceJacobian, type DeviceJacobianState } from "./device-jacobian.js";
 import { linearStructureOf, type LinearStructure } from "./linear-structure.js";
@@ -196,14 +196,16 @@ export class NewtonMatrix {
     for (let e = constant; e < matrix.length; e++) matrix[e] = 0;
     if (this.baseLinked !== this.devices.entryCount) this.linkBase();
     this.devices.assemble(matrix, base, this.entryFloor);
-    if (!lu.factor()) {
-      const label = this.system.unknowns[lu.singularColumn]?.label ?? "?";
-      throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
-        hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
-      });
-    }
+    if (!lu.factor()) throw this.singular(lu.singularColumn);
     this.factorizations++;
     this.luValid = true;
+  }
+
+  private singular(column: number): OnsetError {
+    const label = this.system.unknowns[column]?.label ?? "?";
+    return simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
+      hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
+    });
   }
 
   /**
