@@ -65,14 +65,9 @@ export class DeviceJacobian {
    */
   add(row: number, col: number, value: number): void {
     const position = this.position;
-    if (position !== undefined) {
-      const known = position[row * this.n + col]!;
-      if (known >= 0) {
-        this.values[known] += value;
-        return;
-      }
-    }
-    const e = this.entryOf(row, col);
+    const known = position !== undefined ? position[row * this.n + col]! : -1;
+    // entryOf may grow the arrays: the index first, then the (new) values array.
+    const e = known >= 0 ? known : this.entryOf(row, col);
     this.values[e] += value;
   }
 
