@@ -1,11 +1,38 @@
 // Issue 2: the MNA transient engine on linear circuits at a fixed step.
 import { buildSystem, randomStream, TransientStepper } from "@onset/core/engine";
 import { Matrix, solve } from "ml-matrix";
+import { spawnSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
 import { printTable, timeBest } from "../table.mjs";
 
 export const title = "Engine: accepted steps per second at a fixed step (linear circuits)";
 
 const part = (kind, name, nodes, value, options = {}) => ({ kind, name, nodes, value, options });
+
+/**
+ * The twin-T's stepping rate with the solver before the sparse merge (397449b^1), which this
+ * bench cannot build: measured 2026-12-02 on this 2-core machine shared with other sessions, as
+ * `twinTSteppingRate` measures (accepted steps per CPU second of advance, process.cpuUsage, best
+ * of 20 runs after a warm-up in a fresh process), best of 30 such processes interleaved with 30
+ * of the new code from throwaway worktrees (new then: 760,000, best/best 0.935, median of the
+ * paired ratios 0.949). The old figure varied from 740,000 to 820,000 between such comparisons
+ * under the machine's load; the paired ratio from 0.92 to 0.98.
+ */
+const OLD_SOLVER_TWIN_T = 813_000;
+const TWIN_T_PROCESSES = 15;
+const TWIN_T = fileURLToPath(new URL("../twin-t.mjs", import.meta.url));
+
+/** Best twin-T stepping rate over fresh processes (each the best of 20 runs), as the old figure was taken. */
+function twinTRate() {
+  let best = { rate: 0, accepted: 0 };
+  for (let p = 0; p < TWIN_T_PROCESSES; p++) {
+    const run = spawnSync(process.execPath, [TWIN_T, "20"], { encoding: "utf8" });
+    if (run.status !== 0) throw new Error(`twin-T rate: ${run.stderr}`);
+    const result = JSON.parse(run.stdout.trim().split("\n").pop());
+    if (result.rate > best.rate) best = result;
+  }
+  return best;
+}
 
 /** An RC ladder of `sections` with seeded random values around 1 kΩ / 10 nF, driven by a sine. */
 function ladder(sections, seed) {
@@ -111,4 +138,8 @@ export async function run() {
   const ratio = (fast, slow) => (fast.result.accepted / fast.ms / (slow.result.accepted / slow.ms)).toFixed(1);
   console.log(`\nengine / naive speed ratio: LC tank ${ratio(engine, naive)}×, 10-section ladder ${ratio(ladderTen, naiveLadder)}×`);
   console.log("target: ≥ 1,000,000 accepted steps/s for a ~10-unknown circuit (the 10-section ladder has 12 unknowns)");
+  const twinT = twinTRate();
+  const fmt = (r) => Math.round(r).toLocaleString("en-US");
+  console.log(`\ntwin-T tuning reference (10 unknowns, 4 diodes, op-amp; ${twinT.accepted} steps over 150 ms from rest): ${fmt(twinT.rate)} accepted steps per CPU second (best of ${TWIN_T_PROCESSES} processes × 20 runs)`);
+  console.log(`solver before the sparse merge, same measure: ${fmt(OLD_SOLVER_TWIN_T)}; now / then: ${(twinT.rate / OLD_SOLVER_TWIN_T).toFixed(3)} (target: ≥ 0.95)`);
 }

@@ -1,11 +1,9 @@
 // Issue 5: the twin-T tuning reference from power-on, against its own state equations under odex.
-import { readFileSync } from "node:fs";
-import { fileURLToPath } from "node:url";
 import { createRequire } from "node:module";
 import { opampConstants, THERMAL_VOLTAGE, risingCrossings } from "@onset/core";
 import { buildSystem, TransientStepper } from "@onset/core/engine";
-import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { printTable, timeBest } from "../table.mjs";
+import { TWIN_T_MAX_STEP as MAX_STEP, twinTCircuit as circuit } from "../twin-t.mjs";
 
 const require = createRequire(import.meta.url);
 const { Solver } = require("odex");
@@ -14,18 +12,7 @@ export const title = "Start-up: the 440 Hz twin-T tuning reference, engine again
 
 const UNTIL = 0.15;
 const FROM = 0.1; // frequency measured from the crossings in [FROM, UNTIL]
-const MAX_STEP = 1 / 440 / 100; // T0/100, as the startup analysis chooses
 const RUNS = 60; // the engine's run is timed this often (best and median reported)
-
-/** The example circuit, with the diodes' series resistance set to 0 and a 0.5 V start on Ca (same initial state in both runs). */
-function circuit() {
-  const file = fileURLToPath(new URL("../../examples/tuning-reference.onset", import.meta.url));
-  const { program } = loadProgram(file, readFileSync(file, "utf8"));
-  const { circuit } = elaborate(program, {
-    overrides: { "D1.series": 0, "D2.series": 0, "D3.series": 0, "D4.series": 0, "N1.Ca.initial": 0.5 },
-  });
-  return circuit;
-}
 
 function frequencyOf(t, v) {
   const c = risingCrossings(Float64Array.from(t), Float64Array.from(v), 0, 1e-3, FROM, UNTIL);

@@ -12,7 +12,7 @@ describe("DeviceJacobian", () => {
     jacobian.linkBase(0, 0);
     jacobian.linkTarget(0, 3);
     const matrix = Float64Array.from([1, -1, -1, 1]);
-    jacobian.assemble(matrix);
+    jacobian.assemble(matrix, base, floor);
     return { jacobian, matrix };
   }
 

@@ -30,6 +30,14 @@ export class DeviceJacobian {
   cols = new Int32Array(16);
   values = new Float64Array(16);
   private factored = new Float64Array(16);
+  /**
+   * Per entry, as of the last `assemble`: the size of the whole matrix entry it went into
+   * (constant part + device part) and its row's floor, which `moved` reads on every iteration.
+   */
+  private whole = new Float64Array(16);
+  private floorAt = new Float64Array(16);
+  /** Entries the last `assemble` saw (later ones are judged against the constant part itself). */
+  private assembled = 0;
   /** Per entry: its index in the constant matrix's entries (the base array), and in the matrix factored. */
   private baseAt = new Int32Array(16);
   private targetAt = new Int32Array(16);
@@ -57,14 +65,9 @@ export class DeviceJacobian {
    */
   add(row: number, col: number, value: number): void {
     const position = this.position;
-    if (position !== undefined) {
-      const known = position[row * this.n + col]!;
-      if (known >= 0) {
-        this.values[known] += value;
-        return;
-      }
-    }
-    const e = this.entryOf(row, col);
+    const known = position !== undefined ? position[row * this.n + col]! : -1;
+    // entryOf may grow the arrays: the index first, then the (new) values array.
+    const e = known >= 0 ? known : this.entryOf(row, col);
     this.values[e] += value;
   }
 
@@ -115,6 +118,8 @@ export class DeviceJacobian {
     this.cols = widen(this.cols);
     this.values = widen(this.values);
     this.factored = widen(this.factored);
+    this.whole = widen(this.whole);
+    this.floorAt = widen(this.floorAt);
     this.baseAt = widen(this.baseAt);
     this.targetAt = widen(this.targetAt);
   }
@@ -147,14 +152,22 @@ export class DeviceJacobian {
     for (let e = 0; e < this.count; e++) values[e] = 0;
   }
 
-  /** matrix[target] += these values (after `link`), remembered as the factored ones. */
-  assemble(matrix: Float64Array): void {
-    const { values, factored, targetAt } = this;
+  /**
+   * matrix[target] += these values (after `link`), remembered as the factored ones, with the
+   * whole entry each makes with the constant part `base` and its row's `floor` (valid until the
+   * constant part changes, which always brings a new factorisation).
+   */
+  assemble(matrix: Float64Array, base: Float64Array, floor: Float64Array): void {
+    const { values, factored, targetAt, baseAt, rows, whole, floorAt } = this;
     for (let e = 0; e < this.count; e++) {
       const v = values[e]!;
       matrix[targetAt[e]!] += v;
       factored[e] = v;
+      const b = baseAt[e]!;
+      whole[e] = Math.abs(b >= 0 ? base[b]! + v : v);
+      floorAt[e] = floor[rows[e]!]!;
     }
+    this.assembled = this.count;
   }
 
   /**
@@ -163,13 +176,23 @@ export class DeviceJacobian {
    * on the old factorisation then contracts at about that fraction or worse.
    */
   moved(base: Float64Array, fraction: number, floor: Float64Array): boolean {
+    const { values, factored, whole, floorAt, assembled } = this;
+    for (let e = 0; e < assembled; e++) {
+      const change = Math.abs(values[e]! - factored[e]!);
+      if (change > fraction * whole[e]! && change > floorAt[e]!) return true;
+    }
+    return assembled < this.count && this.movedSinceAssembly(base, fraction, floor);
+  }
+
+  /** `moved` for the entries touched after the last assembly (apart, to keep `moved` small enough to inline). */
+  private movedSinceAssembly(base: Float64Array, fraction: number, floor: Float64Array): boolean {
     const { values, factored, baseAt, rows } = this;
-    for (let e = 0; e < this.count; e++) {
+    for (let e = this.assembled; e < this.count; e++) {
       const was = factored[e]!;
       const change = Math.abs(values[e]! - was);
       const b = baseAt[e]!;
-      const whole = b >= 0 ? base[b]! + was : was;
-      if (change > fraction * Math.abs(whole) && change > floor[rows[e]!]!) return true;
+      const entry = b >= 0 ? base[b]! + was : was;
+      if (change > fraction * Math.abs(entry) && change > floor[rows[e]!]!) return true;
     }
     return false;
   }
@@ -181,6 +204,7 @@ export class DeviceJacobian {
 
   /** Touches the snapshot's entries in their order and sets the factored values (on a fresh instance). */
   restore(state: DeviceJacobianState): void {
+    this.assembled = 0;
     state.rows.forEach((row, e) => {
       this.add(row, state.cols[e]!, 0);
       this.factored[e] = state.factored[e]!;

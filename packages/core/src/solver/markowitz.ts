@@ -85,23 +85,32 @@ export function markowitzOrder(
   const colDone = new Uint8Array(n);
   const exhaustive = n <= EXHAUSTIVE;
 
-  for (let step = 0; step < n; step++) {
-    let pi = -1;
-    let pj = -1;
-    let bestCost = Infinity;
-    let bestQuality = 0;
-    const consider = (i: number, j: number, v: number, cost: number): void => {
-      const quality = v / columnMax(j, step);
-      if (cost < bestCost || (cost === bestCost && (quality > bestQuality || (quality === bestQuality && (i < pi || (i === pi && j < pj)))))) {
-        bestCost = cost;
-        bestQuality = quality;
-        pi = i;
-        pj = j;
-      }
-    };
-    let looked = 0;
-    // Stop once the best cost is below (exhaustive: strictly) what any unseen entry could cost.
-    const enough = (bound: number): boolean => (exhaustive ? bestCost < bound : bestCost <= bound || (++looked >= SEARCH_ROWS && pi >= 0));
+  // The step's search: its best candidate so far, and the rows and columns it has looked at.
+  // (Declared once, not per step: closures made per step were most of a small circuit's ordering.)
+  let step = 0;
+  let pi = -1;
+  let pj = -1;
+  let bestCost = Infinity;
+  let bestQuality = 0;
+  let looked = 0;
+  const consider = (i: number, j: number, v: number, cost: number): void => {
+    const quality = v / columnMax(j, step);
+    if (cost < bestCost || (cost === bestCost && (quality > bestQuality || (quality === bestQuality && (i < pi || (i === pi && j < pj)))))) {
+      bestCost = cost;
+      bestQuality = quality;
+      pi = i;
+      pj = j;
+    }
+  };
+  // Stop once the best cost is below (exhaustive: strictly) what any unseen entry could cost.
+  const enough = (bound: number): boolean => (exhaustive ? bestCost < bound : bestCost <= bound || (++looked >= SEARCH_ROWS && pi >= 0));
+
+  for (step = 0; step < n; step++) {
+    pi = -1;
+    pj = -1;
+    bestCost = Infinity;
+    bestQuality = 0;
+    looked = 0;
     search: for (let count = 1; count <= n; count++) {
       for (let j = colBuckets.head[count]!; j >= 0; j = colBuckets.next[j]!) {
         for (const i of colRows[j]!) {

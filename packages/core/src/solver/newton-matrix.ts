@@ -1,4 +1,4 @@
-import { simulationError } from "../circuit/diagnostic.js";
+import { simulationError, type OnsetError } from "../circuit/diagnostic.js";
 import { compileResidual, type ResidualProduct } from "./compiled-residual.js";
 import { DeviceJacobian, type DeviceJacobianState } from "./device-jacobian.js";
 import { linearStructureOf, type LinearStructure } from "./linear-structure.js";
@@ -12,6 +12,11 @@ import type { MnaSystem } from "./system.js";
 export const STALE_ENTRY = 0.25;
 /** Entry changes below this fraction of their row's largest constant entry are ignored. */
 const ENTRY_FLOOR = 1e-9;
+/**
+ * Multiple of the unit roundoff a row's residual is taken to carry: rows of a circuit matrix sum
+ * a handful of terms, and the solve adds an error of the same order.
+ */
+const ROUNDING_MARGIN = 16;
 
 /** What a snapshot keeps of the Newton matrix so that a resumed run factors exactly as the original. */
 export interface NewtonMatrixState {
@@ -142,10 +147,16 @@ export class NewtonMatrix {
   stale(nonlinear: boolean): boolean {
     if (!this.luValid) return true;
     if (!nonlinear) return false;
+    // The check outside linkBase keeps this method small enough to inline into the Newton loop.
+    if (this.baseLinked !== this.devices.entryCount) this.linkBase();
+    return this.devices.moved(this.base, STALE_ENTRY, this.entryFloor);
+  }
+
+  /** Tells the device entries touched since where they sit among the constant part's. */
+  private linkBase(): void {
     const devices = this.devices;
     for (let e = this.baseLinked; e < devices.entryCount; e++) devices.linkBase(e, this.structure.entryOf(devices.rows[e]!, devices.cols[e]!) ?? -1);
     this.baseLinked = devices.entryCount;
-    return devices.moved(this.base, STALE_ENTRY, this.entryFloor);
   }
 
   /**
@@ -178,17 +189,42 @@ export class NewtonMatrix {
     if (this.devices.entryCount !== this.patternEntries) this.updatePattern(this.devices.entryCount);
     const lu = this.lu!;
     const matrix = lu.a;
-    matrix.set(this.base);
-    matrix.fill(0, this.base.length);
-    this.devices.assemble(matrix);
-    if (!lu.factor()) {
-      const label = this.system.unknowns[lu.singularColumn]?.label ?? "?";
-      throw simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
-        hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
-      });
-    }
+    // Loops, not set() and fill(): a builtin call costs more than a small circuit's few dozen entries.
+    const base = this.base;
+    const constant = base.length;
+    for (let e = 0; e < constant; e++) matrix[e] = base[e]!;
+    for (let e = constant; e < matrix.length; e++) matrix[e] = 0;
+    if (this.baseLinked !== this.devices.entryCount) this.linkBase();
+    this.devices.assemble(matrix, base, this.entryFloor);
+    if (!lu.factor()) throw this.singular(lu.singularColumn);
     this.factorizations++;
     this.luValid = true;
+  }
+
+  private singular(column: number): OnsetError {
+    const label = this.system.unknowns[column]?.label ?? "?";
+    return simulationError("singular-matrix", `the circuit equations are singular at unknown '${label}'`, {
+      hint: "a node may be floating, or ideal sources/inductors may form a loop; check the parts at that node",
+    });
+  }
+
+  /**
+   * How far rounding alone moves a Newton update, per unknown: |M⁻¹·s| with
+   * sᵢ = ROUNDING_MARGIN·ε·(Σⱼ|Mᵢⱼ·xⱼ| + |historyᵢ| + |uᵢ|), the rounding error a row's
+   * residual can carry (a sum of m terms is exact to m·ε of the sum of their sizes: Higham,
+   * *Accuracy and Stability of Numerical Algorithms*, 2nd ed., §3.1). At tiny steps a·C·x and
+   * the history are large and cancel, so this floor grows as 1/h.
+   */
+  roundingFloor(x: Float64Array, history: Float64Array, u: Float64Array, out: Float64Array): void {
+    const { n, base } = this;
+    const { rowStart, cols } = this.structure;
+    for (let i = 0; i < n; i++) {
+      let size = Math.abs(history[i]!) + Math.abs(u[i]!);
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) size += Math.abs(base[e]! * x[cols[e]!]!);
+      out[i] = ROUNDING_MARGIN * Number.EPSILON * size;
+    }
+    this.lu!.solve(out, out);
+    for (let i = 0; i < n; i++) out[i] = Math.abs(out[i]!);
   }
 
   /** dx = −M⁻¹·r with the factorisation in use. */

@@ -49,6 +49,8 @@ export class NewtonSolver {
   private readonly sources: SourceVector;
   private readonly residual: Float64Array;
   private readonly update: Float64Array;
+  /** Per unknown, the update rounding alone can cause (see `withinRounding`). */
+  private readonly floor: Float64Array;
   private readonly load: IterateLoad;
   /** Absolute floor of each unknown's update, by its quantity. */
   private readonly tol: Float64Array;
@@ -86,6 +88,7 @@ export class NewtonSolver {
     this.sources = new SourceVector(n, system.sources);
     this.residual = new Float64Array(n);
     this.update = new Float64Array(n);
+    this.floor = new Float64Array(n);
     this.tol = absoluteTolerances(system.unknowns, tolerances, "newton");
     this.relative = tolerances.biasRelative;
     this.linear = system.nonlinear.length === 0;
@@ -181,6 +184,7 @@ export class NewtonSolver {
     matrix.prepare();
     let previousNorm = Infinity;
     let worst = 0;
+    let floorKnown = false;
     for (let iter = 1; iter <= maxIterations; iter++) {
       this.iterations++;
       matrix.linearResidual(x, this.history, this.sources.u, r);
@@ -233,12 +237,39 @@ export class NewtonSolver {
         }
       }
       if (!Number.isFinite(norm)) return this.finish(false, iter, worst);
+      // An update that stopped shrinking may be rounding noise: at tiny steps the residual's
+      // rounding error, mapped through the matrix, can exceed a tight absolute tolerance, and
+      // cutting the step only makes it larger. Such an iterate is as converged as arithmetic allows.
+      if (trusted && iter > 1 && norm > 0.3 * previousNorm) {
+        if (!floorKnown) this.matrix.roundingFloor(x, this.history, this.sources.u, this.floor);
+        floorKnown = true;
+        if (this.withinRounding(x, dx, lambda)) {
+          if (this.load.charged) this.loadDevices(x);
+          return this.finish(true, iter, worst);
+        }
+      }
       // Keep a stale Jacobian (a chord iteration) only close to the solution and while it
       // contracts well; after a large update the linearisation is refreshed.
       if (norm > this.chordLimit || !trusted || (!rebuild && iter > 1 && norm > 0.3 * previousNorm)) matrix.refresh();
       previousNorm = norm;
     }
     return this.finish(false, maxIterations, worst);
+  }
+
+  /**
+   * Whether the last update (λ·dx, already applied to x) is within the tolerance widened by each
+   * unknown's rounding floor (newton-matrix.ts), computed once per solve: a stalled iteration's
+   * iterates differ by rounding only.
+   */
+  private withinRounding(x: Float64Array, dx: Float64Array, lambda: number): boolean {
+    const { n, floor, tol, reference, relative } = this;
+    for (let i = 0; i < n; i++) {
+      const step = lambda * dx[i]!;
+      const next = x[i]!;
+      const scale = relative * Math.max(Math.abs(next - step), Math.abs(next), reference[i]!) + tol[i]! + floor[i]!;
+      if (!(Math.abs(step) <= scale)) return false;
+    }
+    return true;
   }
 
   /** The iteration's memory and the matrix, for a snapshot of a run. */

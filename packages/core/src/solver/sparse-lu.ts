@@ -1,7 +1,6 @@
-import { compileElimination, type CompiledElimination } from "./compiled-elimination.js";
 import { DenseLu } from "./dense-lu.js";
-import { EliminationSchedule } from "./elimination-schedule.js";
 import { markowitzOrder } from "./markowitz.js";
+import { planOf, type Plan } from "./plan-cache.js";
 
 /**
  * Threshold for keeping the previous pivot order: a pivot at least this fraction of the largest
@@ -25,14 +24,6 @@ const DENSE_LIMIT = 400;
  * trying the kept ones costs a refactorisation each, far less than ordering afresh.
  */
 const KEPT_ORDERS = 4;
-
-/** One pivot order with its schedule and, for small circuits, its generated code. */
-interface Plan {
-  readonly rowOrder: Int32Array;
-  readonly colOrder: Int32Array;
-  readonly schedule: EliminationSchedule;
-  readonly compiled: CompiledElimination | undefined;
-}
 
 /** A factorisation as a snapshot keeps it: the kept pivot orders and the packed factors. */
 export interface SparseLuState {
@@ -107,7 +98,16 @@ export class SparseLu {
     this.singularColumn = -1;
     this.denseFactored = false;
     const current = this.current;
-    if (current && this.refactor(current)) return true;
+    if (current !== undefined && this.refactor(current)) return true;
+    return this.factorOtherwise(current);
+  }
+
+  /**
+   * The kept orders other than `current`, else a fresh order, else the dense fallback. Apart from
+   * `factor` so that the common path stays small enough for the JIT to inline into the Newton
+   * loop (with room left for the devices' code there).
+   */
+  private factorOtherwise(current: Plan | undefined): boolean {
     for (const p of this.plans) if (p !== current && this.refactor(p)) return this.use(p);
     this.pivotings++;
     this.current = undefined;
@@ -133,10 +133,9 @@ export class SparseLu {
   }
 
   private plan(rowOrder: Int32Array, colOrder: Int32Array): Plan {
-    const schedule = new EliminationSchedule(this.n, this.rows, this.cols, rowOrder, colOrder);
-    if (this.lu.length < schedule.slots) this.lu = new Float64Array(schedule.slots);
-    const compiled = this.compile ? compileElimination(schedule, this.n, rowOrder, colOrder) : undefined;
-    return { rowOrder, colOrder, schedule, compiled };
+    const p = planOf(this.n, this.rows, this.cols, rowOrder, colOrder, this.compile);
+    if (this.lu.length < p.schedule.slots) this.lu = new Float64Array(p.schedule.slots);
+    return p;
   }
 
   private factorDense(): boolean {
@@ -152,8 +151,12 @@ export class SparseLu {
 
   /** Elimination in a kept order over its nonzeros; false when a pivot got too small. */
   private refactor(p: Plan): boolean {
+    const compiled = p.compiled;
+    return compiled !== undefined ? compiled.refactor(this.a, this.lu, KEEP_PIVOT, this.pivotTolerance) : this.refactorByLoops(p);
+  }
+
+  private refactorByLoops(p: Plan): boolean {
     const { a, lu } = this;
-    if (p.compiled) return p.compiled.refactor(a, lu, KEEP_PIVOT, this.pivotTolerance);
     const s = p.schedule;
     const { pivotAt, lowerStart, lowerAt, upperStart, upperAt, updateAt, columnStart, columnAt } = s;
     lu.set(a);
@@ -197,17 +200,20 @@ export class SparseLu {
     this.solveSigned(b, x, -1);
   }
 
+  // Kept small (see factorOtherwise): the generated code's call, everything else apart.
   private solveSigned(b: Float64Array, x: Float64Array, sign: number): void {
+    const compiled = this.denseFactored ? undefined : this.current!.compiled;
+    if (compiled !== undefined) compiled.solve(this.lu, b, x, sign);
+    else this.solveByLoops(b, x, sign);
+  }
+
+  private solveByLoops(b: Float64Array, x: Float64Array, sign: number): void {
     if (this.denseFactored) {
       this.dense!.solve(b, x);
       if (sign < 0) for (let i = 0; i < this.n; i++) x[i] = -x[i]!;
       return;
     }
     const p = this.current!;
-    if (p.compiled) {
-      p.compiled.solve(this.lu, b, x, sign);
-      return;
-    }
     const { n, lu, work: y } = this;
     const { rowOrder, colOrder } = p;
     const { rowLowerStart, rowLowerAt, rowLowerCol, upperStart, upperAt, upperCol, pivotAt } = p.schedule;
