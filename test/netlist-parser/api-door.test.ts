@@ -19,6 +19,7 @@ import {
   sourceLimits,
   tokenize,
 } from "@onset/netlist-parser";
+import { displayName, fileReader, readRegularFile, readSource } from "@onset/netlist-parser/node";
 
 // The parser package validates at the door like core (test/core/api-door.test.ts): whatever a
 // caller passes (NaN, ±∞, negatives, wrong shapes, huge counts, a source that is not a string,
@@ -116,6 +117,11 @@ const entries: Record<string, (a: unknown, b: unknown, c: unknown) => unknown> =
   "renderDiagnostic (sources)": (a) => renderDiagnostic(ERROR as never, a as never),
   "renderDiagnostic (text)": (a, b) => renderDiagnostic({ ...ERROR, span: { file: "t.onset", start: b, end: b } } as never, new Map([["t.onset", a]]) as never),
   "lineColumnAt (offset)": (a) => lineColumnAt(SOURCE, a as never),
+  // The Node entry: paths that are not strings, options of the wrong shape (a missing file is `cannot-read`).
+  readSource: (a, b) => readSource(typeof a === "string" ? `/nonexistent-onset-door/${a}` : (a as never), b as never),
+  fileReader: (a) => fileReader(a as never),
+  displayName: (a, b) => displayName(a as never, b as never),
+  readRegularFile: (a, b, c) => readRegularFile(typeof a === "string" ? `/nonexistent-onset-door/${a}` : (a as never), b as never, c as never),
 };
 
 describe("the parser's public API validates at the door", () => {
