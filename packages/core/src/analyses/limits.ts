@@ -57,8 +57,9 @@ export interface RunLimits {
    * Values a transient or a start-up run keeps of its waveforms (time points × (probes + 1)); a
    * longer run keeps every 2nd, 4th, … accepted step (a start-up run: before its last quarter of
    * them), so memory stays within this whatever the run's length. A start-up run whose thinned
-   * points would fall below 32 per period (about stored-points / 128 periods) stops with
-   * `stored-points-limit`: its cycles could no longer be measured.
+   * points would fall below 32 per period stops with `stored-points-limit` (its cycles could no
+   * longer be measured): refused up front past about stored-points / 85 predicted periods, and
+   * stopped where thinning crosses that line, from about stored-points / 170 periods on.
    * @defaultValue 2 000 000 (16 MB)
    */
   readonly maxStoredPoints?: number;

@@ -14,12 +14,16 @@ function storedTimes(maxStoredPoints: number): number {
   return maxStoredPoints === Infinity ? Infinity : Math.max(64, Math.floor(maxStoredPoints / 2));
 }
 
-/** The most periods a record of `times` points resolves once thinned (it then holds at least half its older share). */
+/**
+ * The most periods a record of `times` points can resolve once thinned: its older share (three
+ * quarters) full. Thinning halves it, so a run may stop from half as many periods on.
+ */
 function resolvablePeriods(times: number): number {
-  return (times * 3) / 8 / MIN_POINTS_PER_PERIOD;
+  return (times * 3) / 4 / MIN_POINTS_PER_PERIOD;
 }
 
 function tooCoarse(budget: RunBudget, periods: number, why: string, span?: SourceSpan) {
+  // Enough however thinning falls: the older share at least half full at 32 points per period.
   const needed = Math.ceil((periods * MIN_POINTS_PER_PERIOD * 16) / 3);
   return storedPointsError(
     budget.maxStoredPoints,
