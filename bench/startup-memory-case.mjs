@@ -2,7 +2,8 @@
 // until= and max-step = until / N), in a process of its own so its peak resident set is its own:
 // prints one JSON line with the peak RSS, the stored waveform's length and the figures.
 // Usage: node bench/startup-memory-case.mjs STEPS [UNTIL]; NO_ORBIT=1 keeps the run's own settled
-// figures (the orbit's grid is the run's step pattern over one period: its memory follows max-step).
+// figures (the orbit's grid is the run's step pattern over one period: its memory follows max-step);
+// STORED=N sets limits.maxStoredPoints.
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { isOnsetError, runStartup } from "@onset/core";
@@ -16,7 +17,8 @@ const analysis = { kind: "startup", probe: { kind: "node", node: "o" }, until, m
 const started = performance.now();
 let r;
 try {
-  r = runStartup(circuit, analysis, { limits: { maxSteps: Infinity }, settledFromOrbit: process.env.NO_ORBIT !== "1" });
+  const stored = process.env.STORED ? { maxStoredPoints: Number(process.env.STORED) } : {};
+  r = runStartup(circuit, analysis, { limits: { maxSteps: Infinity, ...stored }, settledFromOrbit: process.env.NO_ORBIT !== "1" });
 } catch (error) {
   if (!isOnsetError(error)) throw error;
   console.log(JSON.stringify({ refused: error.diagnostic.code, peakRssMB: process.resourceUsage().maxRSS / 1024 }));
