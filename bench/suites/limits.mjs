@@ -3,7 +3,10 @@
 // simulated time exactly): how long past maxWallTime a run really stops, for a long transient,
 // an until=auto start-up run and a 2-worker tolerance study; how soon an abort stops workers;
 // and what watching the budget costs per step.
+// Issue 19: a start-up run's memory is set by the stored-points limit, not by its length: the
+// peak resident set of start-up runs of 10⁵ … 10⁷ steps, each in a process of its own.
 import { readFileSync } from "node:fs";
+import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { analysisOf, isRunLimitError, runStartup, runToleranceStudy, runTransient } from "@onset/core";
 import { workerPool } from "@onset/core/node";
@@ -47,6 +50,7 @@ function row(what, limit, stopped) {
 }
 
 export async function run() {
+  startupMemory();
   const rows = [];
   const transient = analysisOf(RUNAWAY, "transient");
   for (const limit of [0.25, 0.5, 1]) {
@@ -96,4 +100,44 @@ transient until=20m max-step=1u probes=(o)
     { run: "20 000 steps, no limits", "best ms": free.toFixed(1), "ns/step": ((free * 1e6) / 20_000).toFixed(0) },
     { run: "20 000 steps, every limit watched", "best ms": watched.toFixed(1), "ns/step": ((watched * 1e6) / 20_000).toFixed(0) },
   ]);
+}
+
+/**
+ * Peak RSS of start-up runs of the bridge example forced to N steps, each in a fresh process
+ * (bench/startup-memory-case.mjs): `fine` runs 0.1 s (250 periods) with max-step = 0.1 s / N,
+ * `long` runs N steps of 4 µs (N / 100 periods). Before issue 19's bounded record (the whole
+ * waveform kept, same machine): fine 77 / 144 / 668 MB at 10⁵ / 10⁶ / 10⁷ steps; long 76 / 104 / 401 MB.
+ * `run's own figures` leaves out the settled orbit (its grid is the run's step pattern over one
+ * period, so its memory follows max-step, not the run's length); with stored-points lowered to
+ * what a 10⁵-step run keeps, a 10⁷-step run needs no more memory than it.
+ */
+function startupMemory() {
+  const script = fileURLToPath(new URL("../startup-memory-case.mjs", import.meta.url));
+  const rows = [];
+  for (const [family, steps, until, orbit, stored] of [
+    ["fine", 1e5, 0.1, true],
+    ["fine", 1e6, 0.1, true],
+    ["fine", 1e7, 0.1, true],
+    ["fine, run's own figures", 1e5, 0.1, false],
+    ["fine, run's own figures", 1e7, 0.1, false],
+    ["fine, run's own figures, stored-points 200k", 1e7, 0.1, false, 200_000],
+    ["long", 1e5, 0.4, true],
+    ["long", 1e6, 4, true],
+    ["long", 1e7, 40, true],
+  ]) {
+    const env = { ...process.env, NO_ORBIT: orbit ? "0" : "1", ...(stored ? { STORED: String(stored) } : {}) };
+    const out = spawnSync(process.execPath, [script, String(steps), String(until)], { encoding: "utf8", env });
+    if (out.status !== 0) throw new Error(out.stderr);
+    const r = JSON.parse(out.stdout.trim().split("\n").pop());
+    rows.push({
+      run: family,
+      steps: r.refused ? `${steps.toExponential(0)} asked` : r.steps,
+      "stored points": r.stored ?? "—",
+      "peak RSS MB": r.peakRssMB.toFixed(0),
+      s: r.seconds?.toFixed(1) ?? "—",
+      outcome: r.refused ?? `${r.verdict}, f ${r.frequency?.toFixed(4)} Hz, THD ${(r.thd * 100).toFixed(4)} %, start-up ${(r.startupTime * 1e3).toFixed(4)} ms`,
+    });
+  }
+  console.log();
+  printTable(rows);
 }

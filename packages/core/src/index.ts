@@ -31,6 +31,7 @@ export type {
 export { analysisOf } from "./circuit/analysis-of.js";
 export type { AnalysisKind } from "./circuit/analysis-of.js";
 export { OnsetError, inputError, isOnsetError, simulationError } from "./circuit/diagnostic.js";
+export { badArgument, describe as describeArgument } from "./circuit/arguments.js";
 export type { Diagnostic, Severity, SourceSpan, Stage } from "./circuit/diagnostic.js";
 export type {
   NameOption,

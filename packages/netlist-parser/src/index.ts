@@ -5,26 +5,33 @@
  * reads the file system.
  * @packageDocumentation
  */
-export { parseText } from "./parser.js";
-export { loadProgram } from "./loader.js";
+export {
+  buildCircuit,
+  checkProgram,
+  decodeNumber,
+  elaborate,
+  formatProgram,
+  formatText,
+  lineColumnAt,
+  loadProgram,
+  loadSource,
+  overrideTargets,
+  parseQuantity,
+  parseText,
+  printDesignedFile,
+  renderDiagnostic,
+  sourceLimits,
+  tokenize,
+} from "./door.js";
 export type { IncludeResolver, LoadedProgram, SourceText } from "./loader.js";
-export { buildCircuit, loadSource } from "./circuit-source.js";
 export type { BuiltCircuit, CircuitSource, LoadSourceOptions } from "./circuit-source.js";
 export { SourceError } from "./source-error.js";
-export { SOURCE_LIMIT_FLAGS, SOURCE_LIMITS, sourceLimits } from "./source-limits.js";
+export { SOURCE_LIMIT_FLAGS, SOURCE_LIMITS } from "./source-limits.js";
 export type { SourceLimits } from "./source-limits.js";
-export { elaborate, overrideTargets } from "./elaborate/elaborate.js";
 export type { Overrides } from "./elaborate/context.js";
-export { checkProgram } from "./check.js";
-export { formatText, formatProgram } from "./format.js";
-export { printDesignedFile } from "./print-design.js";
-export { renderDiagnostic } from "./render.js";
 export type { SourceFiles } from "./render.js";
-export { lineColumnAt } from "./positions.js";
-export { parseQuantity } from "./quantity.js";
-export { tokenize } from "./lexer.js";
 export type { LexResult } from "./lexer.js";
-export { decodeNumber, SI_PREFIXES, UNIT_SPELLINGS } from "./units.js";
+export { SI_PREFIXES, UNIT_SPELLINGS } from "./units.js";
 export type { NumberLiteral, NumberProblem, UnitForm } from "./units.js";
 export { FUNCTIONS } from "./evaluate.js";
 export { analysisOptions, specMetrics } from "./elaborate/analyses.js";

@@ -1,4 +1,5 @@
 import { isOnsetError, type Diagnostic, type SourceSpan } from "@onset/core";
+import { madeProgram } from "./arguments.js";
 import { problem } from "./errors.js";
 import { capPerFile } from "./diagnostic-cap.js";
 import { rememberLimits } from "./program-limits.js";
@@ -128,7 +129,7 @@ export function loadProgram(file: string, text: string, resolver?: IncludeResolv
     const empty = parseText("", file);
     return { program: empty.program, sources: new Map([[file, ""]]), diagnostics: [tooLarge(file, bytes, max.maxSourceBytes, { file, start: 0, end: 0 })] };
   }
-  const program = load(file, text, []);
+  const program = madeProgram(load(file, text, []));
   rememberLimits(program, max);
   return { program, sources, diagnostics: capPerFile(diagnostics, max.maxDiagnostics) };
 }

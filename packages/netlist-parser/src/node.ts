@@ -3,8 +3,7 @@
  * includes, `fileReader` for the include reader itself, confined to chosen folders.
  * @packageDocumentation
  */
-export { readSource } from "./files/read-source.js";
+export { displayName, fileReader, readRegularFile, readSource } from "./node-door.js";
 export type { ReadSourceOptions } from "./files/read-source.js";
-export { displayName, fileReader, STDIN_NAME } from "./files/file-reader.js";
+export { STDIN_NAME } from "./files/file-reader.js";
 export type { FileReaderOptions } from "./files/file-reader.js";
-export { readRegularFile } from "./files/regular-file.js";

@@ -19,6 +19,7 @@ import type {
   UseStatement,
 } from "./syntax.js";
 import { describeToken, type Token } from "./tokens.js";
+import { madeProgram } from "./arguments.js";
 
 /** Parses one file. Problems are collected per statement, so every independent error is reported. */
 export function parseText(text: string, file: string): { program: Program; diagnostics: Diagnostic[] } {
@@ -26,7 +27,7 @@ export function parseText(text: string, file: string): { program: Program; diagn
   const state = new ParserState(lexed.tokens, file);
   const statements = parseStatements(state, undefined);
   const diagnostics = [...lexed.diagnostics, ...state.diagnostics].sort((a, b) => (a.span?.start ?? 0) - (b.span?.start ?? 0));
-  return { program: { file, text, statements, comments: lexed.comments }, diagnostics };
+  return { program: madeProgram({ file, text, statements, comments: lexed.comments }), diagnostics };
 }
 
 /** End offset of the last consumed token. */

@@ -1,4 +1,4 @@
-import type { DesignedCriterion, DesignedFile, DesignedPart, OptionValue } from "@onset/core";
+import { badArgument, type DesignedCriterion, type DesignedFile, type DesignedPart, type OptionValue } from "@onset/core";
 import { formatText } from "./format.js";
 import { formatSI } from "./format-number.js";
 import { printString } from "./print.js";
@@ -41,7 +41,7 @@ export function printDesignedFile(file: DesignedFile): string {
     ...(file.spec.length > 0 ? [["spec", ...file.spec.map(criterion)].join(" ")] : []),
   ];
   const { text, diagnostics } = formatText(`${lines.join("\n")}\n`, "design.onset");
-  // Built from parts and analyses the engine checked: a syntax error here is a fault of this printer.
-  if (text === undefined) throw new Error(`printDesignedFile wrote a file that does not parse: ${diagnostics.map((d) => d.message).join("; ")}`);
+  // A file from designOscillator always parses; one made by hand may name what the language has no line for.
+  if (text === undefined) throw badArgument(`printDesignedFile: the file does not print as circuit text: ${diagnostics.map((d) => d.message).join("; ")}`);
   return text;
 }

@@ -54,8 +54,12 @@ export interface RunLimits {
    */
   readonly maxStudyRuns?: number;
   /**
-   * Values a transient keeps of its waveforms (time points × (probes + 1)); a longer run keeps
-   * every 2nd, 4th, … accepted step, so memory stays within this whatever the run's length.
+   * Values a transient or a start-up run keeps of its waveforms (time points × (probes + 1)); a
+   * longer run keeps every 2nd, 4th, … accepted step (a start-up run: before its last quarter of
+   * them), so memory stays within this whatever the run's length. A start-up run whose thinned
+   * points would fall below 32 per period stops with `stored-points-limit` (its cycles could no
+   * longer be measured): refused up front past about stored-points / 85 predicted periods, and
+   * stopped where thinning crosses that line, from about stored-points / 170 periods on.
    * @defaultValue 2 000 000 (16 MB)
    */
   readonly maxStoredPoints?: number;
@@ -153,6 +157,14 @@ function seconds(value: number): string {
 function limitError(limit: LimitName, value: number | null, reached: number, message: string, span?: SourceSpan): RunLimitError {
   const diagnostic: Diagnostic = { severity: "error", stage: "simulation", code: LIMIT_CODES[limit], message, hint: RAISE[limit], ...(span ? { span } : {}) };
   return new RunLimitError(diagnostic, limit, value, reached);
+}
+
+/**
+ * The error of a run whose stored waveform would be thinned below what its measurement needs
+ * (`stored-points-limit`): `value` the limit, `reached` what it would have needed.
+ */
+export function storedPointsError(value: number, reached: number, message: string, span?: SourceSpan): RunLimitError {
+  return limitError("maxStoredPoints", value, reached, message, span);
 }
 
 /** A limit counted in whole numbers. */

@@ -16,7 +16,6 @@ import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { DEFAULT_TEMPERATURE, excitationSetup, firstCycleRms, periodicDrives, type Excitation } from "./excitation.js";
 import { ZERO_CELSIUS } from "../devices/thermal-noise.js";
-import { GrowableSeries } from "./growable.js";
 import { latchedAt, outputRange } from "./latch.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import { noiseLevel } from "./noise-level.js";
@@ -27,6 +26,7 @@ import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
 import { refuseShortWindow } from "./window-length.js";
 import { budgetOf } from "./limits.js";
+import { checkResolved, startupRecord } from "./startup-record.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -111,7 +111,11 @@ export interface StartupResult extends StartupMetrics {
   readonly warnings: readonly Diagnostic[];
   /** With `seeds=N` (N > 1): the start-up time over N seeds. */
   readonly startupTimeSpread?: StartupTimeSpread;
-  /** The probe waveform at every accepted step (for plots and CSV). */
+  /**
+   * The probe waveform (for plots and CSV): every accepted step, or on a run longer than
+   * `limits.maxStoredPoints` allows, its last quarter of stored points at every step and every
+   * 2nd, 4th, … step before them.
+   */
   readonly waveform: { readonly time: Float64Array; readonly values: Float64Array };
 }
 
@@ -188,12 +192,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);
-  const time = new GrowableSeries(4096);
-  const values = new GrowableSeries(4096);
+  const record = startupRecord(budget, { until: analysis.until, maxStep, frequency: pole && pole.imag > 0 ? f0 : null, ...(analysis.span ? { span: analysis.span } : {}) });
   let steps = 0;
   stepper.observe((t, x, dxdt) => {
-    time.push(t);
-    values.push(read(x, dxdt, t));
+    record.push(t, read(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
   budget.watch(stepper, "the start-up run", analysis.span);
@@ -203,8 +205,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const searchFrom = powerOn ? powerOn.ramp : 0;
   const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);
-  const measure = () =>
-    measureStartup(time.view(), values.view(), {
+  const measure = () => {
+    const { time, values } = record.toArrays();
+    const measured = measureStartup(time, values, {
       maxOrder: windowOrder,
       noiseFloor: NOISE_PEAK * noiseAtProbe,
       ...(limit === undefined ? {} : { amplitudeLimit: limit }),
@@ -212,6 +215,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       drives,
       searchFrom,
     });
+    checkResolved(budget, record, measured.frequency, analysis.span);
+    return measured;
+  };
   let metrics: StartupMetrics;
   const warnings = defaultWarnings(circuit);
   if (analysis.until === "auto") {
@@ -240,8 +246,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     metrics = measure();
   }
   if (options.onProgress) options.onProgress(stepper.t, stepper.t);
-  const t = time.toArray();
-  const v = values.toArray();
+  const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });
   const excitation: Excitation = {

@@ -1,8 +1,10 @@
 import { withPrefix } from "../units/si-prefix.js";
+import { checkFinite, checkFunction, checkPositive, checkSeries, positiveResults } from "./design-arguments.js";
 import { E_SERIES, snapToSeries, type SeriesName } from "./eseries.js";
 
 /** A value as written in a circuit file: up to four significant digits and an SI prefix (`13.7k`, `4.7n`). */
 export function writeValue(value: number): string {
+  checkFinite("writeValue", "value", value);
   if (value === 0) return "0";
   const { mantissa, prefix } = withPrefix(value);
   // The language also accepts µ; u keeps generated files plain ASCII.
@@ -26,13 +28,19 @@ export function chooseCapacitor(
   target: number,
   series: SeriesName,
 ): number {
+  checkFunction("chooseCapacitor", "resistanceFor", resistanceFor);
+  checkFunction("chooseCapacitor", "frequencyWith", frequencyWith);
+  checkPositive("chooseCapacitor", "target", target);
+  checkSeries("chooseCapacitor", series);
+  const idealFor = positiveResults("chooseCapacitor", "resistanceFor", resistanceFor);
+  const frequency = positiveResults("chooseCapacitor", "frequencyWith", frequencyWith);
   let best = { c: 10e-9, error: Infinity, distance: Infinity };
   for (let decade = -10; decade <= -7; decade++) {
     for (const m of E_SERIES.E6) {
       const c = Number((m * Math.pow(10, decade)).toPrecision(12));
-      const ideal = resistanceFor(c);
+      const ideal = idealFor(c);
       if (ideal < RESISTANCE_BAND[0] || ideal > RESISTANCE_BAND[1]) continue;
-      const error = Math.abs(frequencyWith(snapToSeries(ideal, series), c) / target - 1);
+      const error = Math.abs(frequency(snapToSeries(ideal, series), c) / target - 1);
       const distance = Math.abs(Math.log(ideal / TARGET_RESISTANCE));
       if (error < best.error - 1e-3 || (Math.abs(error - best.error) <= 1e-3 && distance < best.distance)) best = { c, error, distance };
     }

@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import { inputError } from "../circuit/diagnostic.js";
 
 /**
@@ -22,7 +23,7 @@ export type SeriesName = keyof typeof E_SERIES;
 
 /** True when `name` is one of the IEC 60063 series the designer knows. */
 export function isSeriesName(name: string): name is SeriesName {
-  return Object.prototype.hasOwnProperty.call(E_SERIES, name);
+  return typeof name === "string" && Object.prototype.hasOwnProperty.call(E_SERIES, name);
 }
 
 /**
@@ -32,8 +33,9 @@ export function isSeriesName(name: string): name is SeriesName {
  * geometric series and is Onset's documented choice.
  */
 export function snapToSeries(x: number, series: SeriesName): number {
-  if (!(x > 0) || !Number.isFinite(x)) {
-    throw inputError("out-of-range", `cannot snap ${x} to ${series}: values must be positive and finite`);
+  if (!isSeriesName(series)) throw badArgument(`snapToSeries: series must be E6, E12, E24 or E96, got ${describe(series)}`);
+  if (typeof x !== "number" || !(x > 0) || !Number.isFinite(x)) {
+    throw inputError("out-of-range", `cannot snap ${describe(x)} to ${series}: values must be positive and finite`);
   }
   const table = E_SERIES[series];
   const decade = Math.floor(Math.log10(x));

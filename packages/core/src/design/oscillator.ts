@@ -6,6 +6,7 @@ import { snapToSeries, type SeriesName } from "./eseries.js";
 import { CAPACITOR_TOLERANCE, opampLine, predict, RESISTOR_TOLERANCE, type DesignChoice, type Line, type Sizing } from "./sizing.js";
 import { AMPLITUDE_LIMITS, wienLimited, wienNetworkLines, type AmplitudeLimit } from "./wien-limiters.js";
 import { withPrefix } from "../units/si-prefix.js";
+import { checkDesignRequest, checkPositive, checkSimulated, finiteResult } from "./design-arguments.js";
 import type { DesignedFile } from "./designed-file.js";
 
 export type { DesignChoice } from "./sizing.js";
@@ -194,9 +195,10 @@ function phaseShift(req: DesignResult["request"], required: number): Sizing {
 
 /** Ω at which the twin-T's response is real: k(2k+1)Ω⁴ + k(1−2k)Ω² − 1 = 0 (docs/references.md §2.3). */
 export function twinTCrossing(k: number): number {
+  checkPositive("twinTCrossing", "k", k);
   const a = k * (2 * k + 1);
   const b = k * (1 - 2 * k);
-  return Math.sqrt((-b + Math.sqrt(b * b + 4 * a)) / (2 * a));
+  return finiteResult("twinTCrossing", Math.sqrt((-b + Math.sqrt(b * b + 4 * a)) / (2 * a)), `k = ${k}`);
 }
 
 function twinTLines(r: number, rs: number, c: number, rin: number, rf1: number, rf2: number, rp1: number, rp2: number, req: DesignResult["request"]): Line[] {
@@ -333,9 +335,10 @@ function designedFile(result: Omit<DesignResult, "file">, sizing: Sizing): Desig
  * `options.simulate`, runs the file's start-up and reports its settled frequency beside the poles.
  */
 export function designOscillator(request: DesignRequest, options: DesignOptions = {}): DesignResult {
+  checkDesignRequest("designOscillator", request, options);
   const f = request.frequency;
   if (!(f > 0) || !Number.isFinite(f)) throw inputError("out-of-range", `design needs a positive frequency, got ${f} Hz`, { hint: "e.g. --freq 2.5k" });
-  if (request.capacitor !== undefined && !(request.capacitor > 0)) {
+  if (request.capacitor !== undefined && !(request.capacitor > 0 && Number.isFinite(request.capacitor))) {
     throw inputError("out-of-range", `design needs a positive capacitor, got ${request.capacitor} F`, { hint: "e.g. --cap 4.7n" });
   }
   const preset = request.preset ?? "general";
@@ -388,6 +391,7 @@ export function designOscillator(request: DesignRequest, options: DesignOptions 
   if (!options.simulate) return { ...partial, simulated: null, file: designedFile({ ...partial, simulated: null }, sizing) };
   // The header lines do not change the circuit, so the file is simulated before its header says how it ran.
   const run = options.simulate(designedFile({ ...partial, simulated: null }, sizing));
+  checkSimulated("designOscillator", run);
   const simulated: SimulatedStartup = {
     verdict: run.verdict,
     frequency: run.frequency,

@@ -2,6 +2,7 @@ import { DEFAULT_AMBIENT } from "../solver/system.js";
 import { lampNetwork, TUNGSTEN_EXPONENT } from "../devices/lamp.js";
 import { REFERENCE_TEMPERATURE } from "../devices/thermistor.js";
 import { writeValue } from "./choose.js";
+import { checkPositive, finiteResult } from "./design-arguments.js";
 import { E_SERIES, snapToSeries, type SeriesName } from "./eseries.js";
 import { CAPACITOR_TOLERANCE, opampLine, RESISTOR_TOLERANCE, type Line, type Sizing } from "./sizing.js";
 
@@ -56,17 +57,22 @@ function amplitudeRoom(rails: readonly [number, number]): number {
 
 /** Settled peak of a lamp-stabilised Wien bridge with Rf above the lamp (docs/references.md §12.4). */
 export function lampWienAmplitude(rf: number, ambient = DEFAULT_AMBIENT): number {
+  checkPositive("lampWienAmplitude", "rf", rf);
+  checkPositive("lampWienAmplitude", "ambient", ambient);
   const rLamp = rf / 2;
   const theta = ambient * Math.pow(rLamp / DESIGN_LAMP.cold, 1 / TUNGSTEN_EXPONENT);
   const power = (theta - ambient) / lampNetwork(DESIGN_LAMP, ambient).resistance;
-  return 3 * Math.sqrt(2 * power * rLamp);
+  // Below the lamp's cold resistance (or at an ambient the lamp cannot heat above) there is no settled amplitude.
+  return finiteResult("lampWienAmplitude", 3 * Math.sqrt(2 * power * rLamp), `rf = ${rf} Ω and ambient = ${ambient} K`);
 }
 
 /** Settled peak of a thermistor-stabilised Wien bridge with the bead above Rg (docs/references.md §12.4). */
 export function thermistorWienAmplitude(rg: number, ambient = DEFAULT_AMBIENT): number {
+  checkPositive("thermistorWienAmplitude", "rg", rg);
+  checkPositive("thermistorWienAmplitude", "ambient", ambient);
   const r = 2 * rg;
   const theta = 1 / (1 / REFERENCE_TEMPERATURE + Math.log(r / DESIGN_BEAD.r25) / DESIGN_BEAD.beta);
-  return 1.5 * Math.sqrt(2 * DESIGN_BEAD.dissipation * (theta - ambient) * r);
+  return finiteResult("thermistorWienAmplitude", 1.5 * Math.sqrt(2 * DESIGN_BEAD.dissipation * (theta - ambient) * r), `rg = ${rg} Ω and ambient = ${ambient} K`);
 }
 
 const wienDescription = (how: string[]): string[] => [
