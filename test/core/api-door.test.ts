@@ -19,6 +19,7 @@ import {
   sweepValues,
   wilsonInterval,
 } from "@onset/core";
+import { onlyTypedErrors } from "../support/door.js";
 
 // The library validates at the door: whatever a caller passes (NaN, ±∞, negatives, wrong
 // shapes, huge counts), a public function returns or throws an OnsetError with a code, in
@@ -31,17 +32,6 @@ const hostile = fc.oneof(
   fc.record({ kind: fc.constantFrom("transient", "startup", "sweep", "tolerance", "response"), until: fc.oneof(fc.double(), fc.constant("auto")), maxStep: fc.double(), runs: fc.double(), steps: fc.double(), from: fc.double(), to: fc.double(), target: fc.string() }, { requiredKeys: ["kind"] }),
   fc.record({ parts: fc.oneof(fc.constant([]), fc.array(fc.anything(), { maxLength: 3 })), analyses: fc.oneof(fc.constant([]), fc.anything()), tolerances: fc.anything() }, { requiredKeys: [] }),
 );
-
-/** Calls `f`; anything thrown must be an OnsetError with a code, and the call must end quickly. */
-function onlyTypedErrors(f: () => unknown): void {
-  const started = performance.now();
-  try {
-    f();
-  } catch (e) {
-    if (!(e instanceof OnsetError) || typeof e.diagnostic.code !== "string") throw new Error(`not a typed error: ${String(e)}`);
-  }
-  expect(performance.now() - started).toBeLessThan(5000);
-}
 
 const entries: Record<string, (a: unknown, b: unknown, c: unknown) => unknown> = {
   runTransient: (a, b, c) => runTransient(a as never, b as never, c as never),

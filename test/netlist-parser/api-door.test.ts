@@ -20,6 +20,8 @@ import {
   tokenize,
 } from "@onset/netlist-parser";
 import { displayName, fileReader, readRegularFile, readSource } from "@onset/netlist-parser/node";
+import { onlyTypedErrors } from "../support/door.js";
+import { thrownBy } from "../support/thrown.js";
 
 // The parser package validates at the door like core (test/core/api-door.test.ts): whatever a
 // caller passes (NaN, ±∞, negatives, wrong shapes, huge counts, a source that is not a string,
@@ -53,17 +55,6 @@ const badResolver = fc.oneof(
   ),
   hostile,
 );
-
-/** Calls `f`; anything thrown must be an OnsetError with a code, and the call must end quickly. */
-function onlyTypedErrors(f: () => unknown): void {
-  const started = performance.now();
-  try {
-    f();
-  } catch (e) {
-    if (!(e instanceof OnsetError) || typeof e.diagnostic.code !== "string") throw new Error(`not a typed error: ${String(e)}\n${(e as Error).stack}`);
-  }
-  expect(performance.now() - started).toBeLessThan(5000);
-}
 
 const INCLUDING = `include "part.onset"\n${SOURCE}`;
 const PROGRAM = parseText(SOURCE, "t.onset").program;
@@ -137,15 +128,7 @@ describe("the parser's public API validates at the door", () => {
 });
 
 describe("the door's errors", () => {
-  const thrown = (f: () => unknown): OnsetError => {
-    try {
-      f();
-    } catch (e) {
-      if (e instanceof OnsetError) return e;
-      throw e;
-    }
-    throw new Error("nothing was thrown");
-  };
+  const thrown = (f: () => unknown): OnsetError => thrownBy(OnsetError, f);
 
   test("parseText(42, file): bad-argument, the message names the function and what it got", () => {
     const e = thrown(() => parseText(42 as never, "t.onset"));

@@ -1,3 +1,4 @@
+import { widened } from "./growable.js";
 import { badArgument } from "../circuit/arguments.js";
 import { ThinnedRecord } from "./thinned-record.js";
 
@@ -73,13 +74,8 @@ export class TailRecord {
 
   private grow(): void {
     const size = Math.min(this.ringCapacity, this.time.length * 2);
-    const widen = (a: Float64Array) => {
-      const b = new Float64Array(size);
-      b.set(a);
-      return b;
-    };
-    this.time = widen(this.time);
-    this.value = widen(this.value);
+    this.time = widened(this.time, size);
+    this.value = widened(this.value, size);
   }
 
   /** The kept time points and values, in order (copies). */

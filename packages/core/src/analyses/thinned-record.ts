@@ -1,3 +1,4 @@
+import { widened } from "./growable.js";
 import { badArgument } from "../circuit/arguments.js";
 
 /**
@@ -61,13 +62,8 @@ export class ThinnedRecord {
 
   private grow(): void {
     const size = Math.min(this.capacity, this.time.length * 2);
-    const widen = (a: Float64Array) => {
-      const b = new Float64Array(size);
-      b.set(a);
-      return b;
-    };
-    this.time = widen(this.time);
-    for (let k = 0; k < this.series.length; k++) this.series[k] = widen(this.series[k]!);
+    this.time = widened(this.time, size);
+    for (let k = 0; k < this.series.length; k++) this.series[k] = widened(this.series[k]!, size);
   }
 
   /** Keeps the points at even positions (steps 0, 2·stride, 4·stride, …) and doubles the stride. */
