@@ -224,12 +224,13 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
   }
+  const orbitFound = (shot: RefinedOrbit, transient: SteadyResult["transient"]) => {
+    const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
+    return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
+  };
   if (options.seed && options.seed.x.length === system.n) {
-    const shot = shoot(context, seededStart(options.seed), true, EARLY_ITERATIONS);
-    if (typeof shot !== "string") {
-      const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
-      return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime } });
-    }
+    const shot = shoot(context, () => seededStart(options.seed!), true, EARLY_ITERATIONS);
+    if (typeof shot !== "string") return orbitFound(shot, idle().transient);
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
@@ -245,24 +246,24 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
-    for (let attempt = 0; attempt <= RETRIES; attempt++) {
+    let diedOut = false;
+    for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
       const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** attempt : undefined, check);
       transient = transientOf(stepper, periods + approach.periods, maxStep);
       if (where.kind === "died-out") {
-        why = `started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
-        break;
+        diedOut = true;
+        why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+        continue;
       }
       const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
-      if (typeof shot !== "string") {
-        const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
-        return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
-      }
+      if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
     }
     periods += approach.periods;
-    if (!why.startsWith("started")) break;
+    // Only a start that died out is tried again, small.
+    if (!diedOut) break;
   }
-  return noOrbit({ ...idle(), transient }, why.startsWith("started") ? `no periodic orbit: ${why}` : why);
+  return noOrbit({ ...idle(), transient }, why);
 }
 
 interface Context {
@@ -339,9 +340,9 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: ShootingStart | (() => ShootingStart), autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
   try {
-    const { guess, fractions, trajectory, jacobian } = typeof start === "function" ? start() : start;
+    const { guess, fractions, trajectory, jacobian } = start();
     const period = guess.period;
     const settings = {
       tolerances: c.tolerances,

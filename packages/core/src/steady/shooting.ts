@@ -94,7 +94,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   map.solver.reference.set(peak);
   const unknowns = n + (options.autonomous ? 1 : 0);
   const phase = options.jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
-  const newton = new NewtonMatrixOf(unknowns, phase, options.jacobian);
+  const newton = new ShootingMatrix(unknowns, phase, options.jacobian);
   // The point the last step started from (x₀ and T), its residual, the step, and how much of it was taken.
   const x0 = Float64Array.from(guess.x);
   let T = guess.period;
@@ -193,7 +193,7 @@ const MIN_DAMPING = 1 / 16;
  * The shooting's Newton matrix M (of F(x₀, T) = [x_N − x₀; x₀[j] − c]), kept unfactored
  * beside its factorisation so that Broyden's update can correct it after a step.
  */
-class NewtonMatrixOf {
+class ShootingMatrix {
   private readonly matrix: Float64Array;
   /** The factorisation of `matrix`, or undefined while it is out of date. */
   private lu: LuSolver | undefined;
