@@ -1,4 +1,5 @@
 import { CountBuckets } from "./count-buckets.js";
+import { SMALL_ORDERING, smallMarkowitzOrder } from "./markowitz-small.js";
 
 /**
  * Rows and columns a step's search looks at once it has a pivot (Zlatev, "On some pivotal
@@ -32,6 +33,21 @@ const EXHAUSTIVE = 64;
  * (the matrix is singular to working precision there).
  */
 export function markowitzOrder(
+  n: number,
+  rows: Int32Array,
+  cols: Int32Array,
+  a: Float64Array,
+  threshold: number,
+  pivotTolerance: number,
+  rowOrder: Int32Array,
+  colOrder: Int32Array,
+): number {
+  const order = n <= SMALL_ORDERING ? smallMarkowitzOrder : markowitzOrderByLists;
+  return order(n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder);
+}
+
+/** {@link markowitzOrder} on row and column lists, whatever the size (exported for the tests). */
+export function markowitzOrderByLists(
   n: number,
   rows: Int32Array,
   cols: Int32Array,
