@@ -1,5 +1,6 @@
 import { csvDocument, csvField, csvNumber } from "../csv/csv.js";
 import { biasReport } from "../report/bias.js";
+import { partWarningsJson } from "../report/part-warnings.js";
 import type { AnalysisWriters } from "./analysis-writers.js";
 
 /** `bias`: a table of node voltages and source currents; CSV `name,quantity,value,unit`; no figure. */
@@ -11,7 +12,7 @@ export const biasWriters: AnalysisWriters<"bias"> = {
     sources: r.sources.map((s) => ({ ...s })),
     method: r.method,
     iterations: r.iterations,
-    ...(r.warnings ? { warnings: r.warnings.map((w) => ({ code: w.diagnostic.code, part: w.part, message: w.diagnostic.message })) } : {}),
+    ...partWarningsJson(r.warnings),
   }),
   csv: (r) =>
     csvDocument(["name", "quantity", "value", "unit"], [

@@ -1,5 +1,6 @@
 import { columnRows, csvDocument, headed } from "../csv/csv.js";
 import { transientFigure } from "../plot/index.js";
+import { partWarningsJson } from "../report/part-warnings.js";
 import { extremes, transientReport } from "../report/transient.js";
 import type { AnalysisWriters } from "./analysis-writers.js";
 
@@ -15,6 +16,7 @@ export const transientWriters: AnalysisWriters<"transient"> = {
       return { name: s.name, unit: s.unit, min, max, final: s.values.length > 0 ? s.values[s.values.length - 1]! : null };
     }),
     solver: { ...r.stats },
+    ...partWarningsJson(r.warnings),
   }),
   csv: (r) => csvDocument([headed("time", "s"), ...r.signals.map((s) => headed(s.name, s.unit))], columnRows(r.time, r.signals.map((s) => s.values))),
   figure: (r, title) => transientFigure({ title: `${title} \u2014 transient`, time: r.time, probes: r.signals.map((s) => ({ name: s.name, unit: s.unit, values: s.values })) }),

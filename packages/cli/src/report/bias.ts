@@ -1,5 +1,6 @@
 import type { BiasResult } from "@onset/core";
 import type { Paint } from "../color.js";
+import { partWarningLines } from "./part-warnings.js";
 import { table } from "./table.js";
 import { si } from "./values.js";
 
@@ -13,6 +14,6 @@ export function biasReport(r: BiasResult, p: Paint): string[] {
     lines.push(...table([{ header: "source" }, { header: "current", align: "right" }], r.sources.map((s) => [s.part, si(s.current, "A")])));
     lines.push(p.dim("  source currents flow from plus through the source to minus"));
   }
-  for (const { diagnostic: d } of r.warnings ?? []) lines.push(`  ${p.bold("warning")}: ${d.message}`, p.dim(`    hint: ${d.hint ?? ""}`));
+  lines.push(...partWarningLines(r.warnings, p));
   return lines;
 }

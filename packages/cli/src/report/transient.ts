@@ -1,5 +1,6 @@
 import type { TransientAnalysis, TransientResult } from "@onset/core";
 import type { Paint } from "../color.js";
+import { partWarningLines } from "./part-warnings.js";
 import { table } from "./table.js";
 import { si } from "./values.js";
 
@@ -35,5 +36,6 @@ export function transientReport(a: TransientAnalysis, r: TransientResult, p: Pai
       rows,
     ),
   );
+  lines.push(...partWarningLines(r.warnings, p));
   return lines;
 }

@@ -23,7 +23,7 @@ import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
-import type { RunOptions } from "./transient.js";
+import { watchOperation, type RunOptions } from "./transient.js";
 import { refuseShortWindow } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
@@ -198,6 +198,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     record.push(t, read(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
+  const watch = watchOperation(stepper);
   budget.watch(stepper, "the start-up run", analysis.span);
   const limit = amplitudeLimit(plain, bias.x);
   const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
@@ -246,6 +247,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     metrics = measure();
   }
   if (options.onProgress) options.onProgress(stepper.t, stepper.t);
+  warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });

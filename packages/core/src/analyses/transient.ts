@@ -8,6 +8,7 @@ import { ThinnedRecord } from "./thinned-record.js";
 import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import { budgetOf, RUN_LIMITS, type BudgetOptions } from "./limits.js";
+import { OperatingWatch, type ImplausiblePart } from "./operating-check.js";
 
 /** One recorded signal. */
 export interface Signal {
@@ -33,6 +34,8 @@ export interface TransientResult {
   readonly stride?: number;
   readonly signals: readonly Signal[];
   readonly stats: StepperStats;
+  /** Parts far outside any physical operating point during the run (`implausible-operation`); absent when there are none. */
+  readonly warnings?: readonly ImplausiblePart[];
 }
 
 /** Progress of a long run, reported every few thousand steps. */
@@ -149,8 +152,26 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
   const recorder = new ProbeRecorder(system, probes, budget.maxStoredPoints);
   stepper.observe(recorder.record);
+  const watch = watchOperation(stepper);
   budget.watch(stepper, "the transient", analysis.span);
   advanceWithProgress(stepper, analysis.until, options.onProgress);
   const thinned = recorder.stride > 1 ? { stride: recorder.stride } : {};
-  return { analysis: "transient", time: recorder.times(), signals: recorder.signals(), stats: { ...stepper.stats }, ...thinned };
+  const warnings = watch.finish("in the transient");
+  return { analysis: "transient", time: recorder.times(), signals: recorder.signals(), stats: { ...stepper.stats }, ...thinned, ...(warnings.length > 0 ? { warnings } : {}) };
+}
+
+/**
+ * Watches a time-domain run's parts (see `OperatingWatch`): at its start, at every few accepted
+ * steps and, through `finish`, at its last point, which returns the warnings.
+ */
+export function watchOperation(stepper: TransientStepper): { finish(where: string): ImplausiblePart[] } {
+  const watch = new OperatingWatch(stepper.system);
+  watch.check(stepper.t, stepper.x, stepper.dxdt);
+  stepper.observe(watch.observe);
+  return {
+    finish(where) {
+      watch.check(stepper.t, stepper.x, stepper.dxdt);
+      return watch.warnings(where);
+    },
+  };
 }
