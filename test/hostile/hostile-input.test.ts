@@ -1,6 +1,8 @@
 import { spawn } from "node:child_process";
 import { readFileSync, writeFileSync } from "node:fs";
 import { afterAll, describe, expect, test } from "vitest";
+import { OnsetError, runStartup, runTransient, type TransientAnalysis } from "@onset/core";
+import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { MAIN, wien, Workspace } from "../e2e/support/onset.js";
 
 // The hostile-input suite: every row of issue 19's table and every limit, run through the built
@@ -176,6 +178,44 @@ describe("the rows of the table", () => {
     ws.write("nothing.onset", wien("bias\ntolerance runs=20\n"));
     const e = await jsonError("nothing.onset");
     expect([e.status, e.code, e.line]).toEqual([2, "nothing-to-measure", 12]);
+  });
+});
+
+describe("the rows of the table, continued", () => {
+  test("the API given NaN, negatives and wrong shapes: an OnsetError naming the entry and the rule, never a TypeError", () => {
+    const circuit = buildCircuit(loadSource("t.onset", "vsource V1 a gnd 1\nresistor R1 a o 1k\ncapacitor C1 o gnd 1u\ntransient until=1m\n")).circuit;
+    const transient = circuit.analyses[0] as TransientAnalysis;
+    const outcome = (f: () => unknown): string => {
+      try {
+        f();
+        return "no error";
+      } catch (e) {
+        if (!(e instanceof OnsetError)) throw e;
+        return `${e.diagnostic.code}: ${e.diagnostic.message}`;
+      }
+    };
+    const r1 = (change: object) => ({ ...circuit, parts: circuit.parts.map((p) => (p.name === "R1" ? { ...p, ...change } : p)) });
+    expect(outcome(() => runTransient(circuit, { ...transient, until: NaN }))).toBe("bad-argument: runTransient: until must be a finite time above 0 s, got NaN");
+    expect(outcome(() => runTransient(circuit, { ...transient, maxStep: -1e-6 }))).toBe("bad-argument: runTransient: maxStep must be a finite time above 0 s, got -0.000001");
+    expect(outcome(() => runTransient({ ...circuit, parts: "R1" } as never, transient))).toBe('bad-argument: runTransient: circuit.parts must be an array of objects, got "R1"');
+    expect(outcome(() => runTransient(r1({ nodes: [1, 2] }) as never, transient))).toBe("bad-argument: runTransient: every part needs a kind, a name and nodes (strings), got an object");
+    expect(outcome(() => runTransient(r1({ value: NaN }), transient))).toBe("out-of-range: resistor R1: resistance must be positive and finite, got NaN Ω");
+    expect(outcome(() => runTransient(circuit, transient, { limits: { maxSteps: -5 } }))).toBe("bad-limit: limits.maxSteps must be a whole number above 0, got -5");
+    expect(outcome(() => runStartup(circuit, transient as never))).toBe('bad-argument: runStartup: analysis must be a startup analysis ({ kind: "startup", … }), got an object');
+  });
+
+  test("a 2000-section RC ladder (2002 unknowns): a transient within the time and memory caps; the far end has not moved (diffusion takes about N²·RC = 10 s)", async () => {
+    const lines = ["vsource Vs n0 gnd wave=sine amp=1 freq=1k"];
+    for (let k = 1; k <= 2000; k++) lines.push(`resistor R${k} n${k - 1} n${k} 1k`, `capacitor C${k} n${k} gnd 10n`);
+    lines.push("transient until=2m max-step=10u probes=(n1, n2000)");
+    ws.write("ladder.onset", `${lines.join("\n")}\n`);
+    const r = await capped(["run", "ladder.onset", "--json"]);
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout) as { results: Array<{ probes: Array<{ name: string; min: number; max: number }> }> };
+    const [near, far] = doc.results[0]!.probes;
+    expect(near!.max).toBeGreaterThan(0.5);
+    expect(near!.max).toBeLessThan(1);
+    expect(Math.max(Math.abs(far!.min), Math.abs(far!.max))).toBeLessThan(1e-9);
   });
 });
 
