@@ -3,8 +3,9 @@
 // simulated time exactly): how long past maxWallTime a run really stops, for a long transient,
 // an until=auto start-up run and a 2-worker tolerance study; how soon an abort stops workers;
 // and what watching the budget costs per step.
-// Issue 19: a start-up run's memory is set by the stored-points limit, not by its length: the
-// peak resident set of start-up runs of 10⁵ … 10⁷ steps, each in a process of its own.
+// Issue 19: a start-up run's or a transient's memory is set by the stored-points limit, not by
+// its length: the peak resident set of runs of 10⁵ … 10⁷ steps (10⁸ with BENCH_1E8=1), each in a
+// process of its own.
 import { readFileSync } from "node:fs";
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
@@ -103,39 +104,53 @@ transient until=20m max-step=1u probes=(o)
 }
 
 /**
- * Peak RSS of start-up runs of the bridge example forced to N steps, each in a fresh process
- * (bench/startup-memory-case.mjs): `fine` runs 0.1 s (250 periods) with max-step = 0.1 s / N,
- * `long` runs N steps of 4 µs (N / 100 periods). Before issue 19's bounded record (the whole
- * waveform kept, same machine): fine 77 / 144 / 668 MB at 10⁵ / 10⁶ / 10⁷ steps; long 76 / 104 / 401 MB.
+ * Peak RSS of start-up runs and transients of the bridge example forced to N steps, each in a
+ * fresh process (bench/startup-memory-case.mjs): `fine` runs 0.1 s (250 periods) with
+ * max-step = 0.1 s / N, `long` runs N steps of 4 µs (N / 100 periods), a transient N steps of
+ * 4 µs from the bias point. Before issue 19's bounded record (the whole waveform kept, same
+ * machine): fine 77 / 144 / 668 MB at 10⁵ / 10⁶ / 10⁷ steps; long 76 / 104 / 401 MB.
+ * Measured 2026-12-03: fine 74 / 134 / 344 MB; run's own figures 73 / 156 MB at 10⁵ / 10⁷; with
+ * stored-points 200k 74 / 74 MB; long 75 / 117 MB, 10⁷ refused up front (stored-points-limit:
+ * 97 000 periods need more than the default keeps at 32 points per period); transient 67 / 101 /
+ * 102 MB, with stored-points 200k 63 / 64 MB, and 10⁸ steps 64 MB.
  * `run's own figures` leaves out the settled orbit (its grid is the run's step pattern over one
- * period, so its memory follows max-step, not the run's length); with stored-points lowered to
- * what a 10⁵-step run keeps, a 10⁷-step run needs no more memory than it.
+ * period, so its memory follows max-step, not the run's length). Past the stored-points limit a
+ * longer run needs no more memory: with stored-points lowered to what a 10⁵-step run keeps, a
+ * 10⁷-step run (a transient: 10⁸) needs what the 10⁵-step run does.
  */
 function startupMemory() {
   const script = fileURLToPath(new URL("../startup-memory-case.mjs", import.meta.url));
   const rows = [];
-  for (const [family, steps, until, orbit, stored] of [
+  for (const [family, steps, until, orbit, stored, kind] of [
     ["fine", 1e5, 0.1, true],
     ["fine", 1e6, 0.1, true],
     ["fine", 1e7, 0.1, true],
     ["fine, run's own figures", 1e5, 0.1, false],
     ["fine, run's own figures", 1e7, 0.1, false],
+    ["fine, run's own figures, stored-points 200k", 1e5, 0.1, false, 200_000],
     ["fine, run's own figures, stored-points 200k", 1e7, 0.1, false, 200_000],
     ["long", 1e5, 0.4, true],
     ["long", 1e6, 4, true],
     ["long", 1e7, 40, true],
+    ["transient", 1e5, 0.4, false, undefined, "transient"],
+    ["transient", 1e6, 4, false, undefined, "transient"],
+    ["transient", 1e7, 40, false, undefined, "transient"],
+    ["transient, stored-points 200k", 1e5, 0.4, false, 200_000, "transient"],
+    ["transient, stored-points 200k", 1e7, 40, false, 200_000, "transient"],
+    ...(process.env.BENCH_1E8 === "1" ? [["transient, stored-points 200k", 1e8, 400, false, 200_000, "transient"]] : []),
   ]) {
-    const env = { ...process.env, NO_ORBIT: orbit ? "0" : "1", ...(stored ? { STORED: String(stored) } : {}) };
+    const env = { ...process.env, NO_ORBIT: orbit ? "0" : "1", KIND: kind ?? "startup", ...(stored ? { STORED: String(stored) } : {}) };
     const out = spawnSync(process.execPath, [script, String(steps), String(until)], { encoding: "utf8", env });
     if (out.status !== 0) throw new Error(out.stderr);
     const r = JSON.parse(out.stdout.trim().split("\n").pop());
+    const outcome = r.refused ?? (kind === "transient" ? `final ${r.final.toPrecision(4)} V, min ${r.min.toPrecision(4)} V, max ${r.max.toPrecision(4)} V` : `${r.verdict}, f ${r.frequency?.toFixed(4)} Hz, THD ${(r.thd * 100).toFixed(4)} %, start-up ${(r.startupTime * 1e3).toFixed(4)} ms`);
     rows.push({
       run: family,
       steps: r.refused ? `${steps.toExponential(0)} asked` : r.steps,
       "stored points": r.stored ?? "—",
       "peak RSS MB": r.peakRssMB.toFixed(0),
       s: r.seconds?.toFixed(1) ?? "—",
-      outcome: r.refused ?? `${r.verdict}, f ${r.frequency?.toFixed(4)} Hz, THD ${(r.thd * 100).toFixed(4)} %, start-up ${(r.startupTime * 1e3).toFixed(4)} ms`,
+      outcome,
     });
   }
   console.log();
