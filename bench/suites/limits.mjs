@@ -112,7 +112,7 @@ transient until=20m max-step=1u probes=(o)
  * Measured 2026-12-03: fine 74 / 134 / 344 MB; run's own figures 73 / 156 MB at 10⁵ / 10⁷; with
  * stored-points 200k 74 / 74 MB; long 75 / 117 MB, 10⁷ refused up front (stored-points-limit:
  * 97 000 periods need more than the default keeps at 32 points per period); transient 67 / 101 /
- * 102 MB, with stored-points 200k 63 / 64 MB, and 10⁸ steps 64 MB.
+ * 102 MB, with stored-points 200k 63 / 64 MB, and 68 MB at 10⁸ steps (254 s).
  * `run's own figures` leaves out the settled orbit (its grid is the run's step pattern over one
  * period, so its memory follows max-step, not the run's length). Past the stored-points limit a
  * longer run needs no more memory: with stored-points lowered to what a 10⁵-step run keeps, a

@@ -46,7 +46,7 @@ export class DeviceJacobian {
   private table = new Int32Array(32).fill(-1);
   private mask = 31;
   /** Small circuits: entry index at row·n + col, −1 where not touched (undefined: the hash serves). */
-  private readonly position: Int32Array | undefined;
+  readonly position: Int32Array | undefined;
 
   constructor(n: number) {
     this.n = n;

@@ -10,20 +10,35 @@ import type { DeviceJacobian } from "./device-jacobian.js";
 export class IterateLoad implements NonlinearLoad {
   /** Set once a device has added a nonlinear charge; until then `charges` stays zero. */
   charged = false;
+  private readonly n: number;
+  /** The Jacobian's table of entry positions (empty when it has none: every read is then undefined). */
+  private readonly position: Int32Array;
 
   constructor(
     private readonly residual: Float64Array,
     private readonly coefficients: Float64Array,
     private readonly charges: Float64Array,
     private readonly jacobian: DeviceJacobian,
-  ) {}
+  ) {
+    this.n = jacobian.n;
+    this.position = jacobian.position ?? new Int32Array(0);
+  }
 
   addF(row: number, value: number): void {
     if (row >= 0) this.residual[row] += value;
   }
 
+  /**
+   * A known entry of a small circuit is added to here, without a call: the devices' stamps
+   * (four of these per branch) then stay small enough to be inlined into their loads, and the
+   * doubles they pass are not boxed.
+   */
   adddF(row: number, col: number, value: number): void {
-    if (row >= 0 && col >= 0) this.jacobian.add(row, col, value);
+    if ((row | col) < 0) return;
+    // Past the end of an empty table the read is undefined, and undefined >= 0 is false.
+    const e = this.position[row * this.n + col]!;
+    if (e >= 0) this.jacobian.values[e] += value;
+    else this.jacobian.add(row, col, value);
   }
 
   addQ(row: number, value: number): void {
