@@ -50,7 +50,11 @@ export class DeviceJacobian {
 
   constructor(n: number) {
     this.n = n;
-    if (n <= POSITION_TABLE_LIMIT) this.position = new Int32Array(n * n).fill(-1);
+    if (n <= POSITION_TABLE_LIMIT) {
+      this.position = new Int32Array(n * n).fill(-1);
+      // Room for every entry the table can name, so `values` is never replaced (IterateLoad holds it).
+      this.values = new Float64Array(Math.max(16, n * n));
+    }
   }
 
   /** How many entries the devices have touched so far (it only grows). */
@@ -116,7 +120,7 @@ export class DeviceJacobian {
     };
     this.rows = widen(this.rows);
     this.cols = widen(this.cols);
-    this.values = widen(this.values);
+    if (this.values.length < size) this.values = widen(this.values);
     this.factored = widen(this.factored);
     this.whole = widen(this.whole);
     this.floorAt = widen(this.floorAt);

@@ -13,6 +13,8 @@ export class IterateLoad implements NonlinearLoad {
   private readonly n: number;
   /** The Jacobian's table of entry positions (empty when it has none: every read is then undefined). */
   private readonly position: Int32Array;
+  /** The Jacobian's values, never replaced when it has a position table. */
+  private readonly values: Float64Array;
 
   constructor(
     private readonly residual: Float64Array,
@@ -22,6 +24,7 @@ export class IterateLoad implements NonlinearLoad {
   ) {
     this.n = jacobian.n;
     this.position = jacobian.position ?? new Int32Array(0);
+    this.values = jacobian.values;
   }
 
   addF(row: number, value: number): void {
@@ -37,7 +40,7 @@ export class IterateLoad implements NonlinearLoad {
     if ((row | col) < 0) return;
     // Past the end of an empty table the read is undefined, and undefined >= 0 is false.
     const e = this.position[row * this.n + col]!;
-    if (e >= 0) this.jacobian.values[e] += value;
+    if (e >= 0) this.values[e] += value;
     else this.jacobian.add(row, col, value);
   }
 
