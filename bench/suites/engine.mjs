@@ -17,6 +17,13 @@ const part = (kind, name, nodes, value, options = {}) => ({ kind, name, nodes, v
  * of the new code from throwaway worktrees (new then: 760,000, best/best 0.935, median of the
  * paired ratios 0.949). The old figure varied from 740,000 to 820,000 between such comparisons
  * under the machine's load; the paired ratio from 0.92 to 0.98.
+ * 2026-12-03, after the small-circuit Markowitz ordering on dense arrays and the iterate load's
+ * direct adds (which let the diode's branch stamp inline into the Newton loop): both engines
+ * bundled alike (esbuild of packages/core/src/engine.ts at 397449b^1 and now), 40 pairs of fresh
+ * processes alternating which runs first, load average 5.6–7.1 on the 2 cores: median of the
+ * paired ratios 0.978 (quartiles 0.956–0.991), best/best 0.980 (788,000 then, 772,000 now);
+ * against the branch point of those changes +6.1 % (median of 20 pairs). Twin-T results
+ * bit-identical throughout (every unknown at 150 ms, and the start-up figures).
  */
 const OLD_SOLVER_TWIN_T = 813_000;
 const TWIN_T_PROCESSES = 15;
