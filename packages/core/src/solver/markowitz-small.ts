@@ -1,3 +1,5 @@
+import type { PivotOrdering } from "./markowitz.js";
+
 /**
  * Up to this size the ordering works on dense n×n arrays: a small circuit orders afresh a few
  * times per run, and for it the row and column lists, their searches and closures cost more
@@ -12,16 +14,7 @@ export const SMALL_ORDERING = 24;
  * first in row-major order; the active submatrix is updated by the same operations in the same
  * order, and an entry stays structural once present, whatever its value (it counts in r and c).
  */
-export function smallMarkowitzOrder(
-  n: number,
-  rows: Int32Array,
-  cols: Int32Array,
-  a: Float64Array,
-  threshold: number,
-  pivotTolerance: number,
-  rowOrder: Int32Array,
-  colOrder: Int32Array,
-): number {
+export const smallMarkowitzOrder: PivotOrdering = (n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder) => {
   const value = new Float64Array(n * n);
   const present = new Uint8Array(n * n);
   const rowCount = new Int32Array(n);
@@ -93,4 +86,4 @@ export function smallMarkowitzOrder(
     }
   }
   return -1;
-}
+};

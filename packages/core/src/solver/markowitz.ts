@@ -32,7 +32,11 @@ const EXHAUSTIVE = 64;
  * row and column of pivot k); otherwise the lowest original column left without a usable pivot
  * (the matrix is singular to working precision there).
  */
-export function markowitzOrder(
+export const markowitzOrder: PivotOrdering = (n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder) =>
+  (n <= SMALL_ORDERING ? smallMarkowitzOrder : markowitzOrderByLists)(n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder);
+
+/** The arguments and result of {@link markowitzOrder}. */
+export type PivotOrdering = (
   n: number,
   rows: Int32Array,
   cols: Int32Array,
@@ -41,22 +45,10 @@ export function markowitzOrder(
   pivotTolerance: number,
   rowOrder: Int32Array,
   colOrder: Int32Array,
-): number {
-  const order = n <= SMALL_ORDERING ? smallMarkowitzOrder : markowitzOrderByLists;
-  return order(n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder);
-}
+) => number;
 
 /** {@link markowitzOrder} on row and column lists, whatever the size (exported for the tests). */
-export function markowitzOrderByLists(
-  n: number,
-  rows: Int32Array,
-  cols: Int32Array,
-  a: Float64Array,
-  threshold: number,
-  pivotTolerance: number,
-  rowOrder: Int32Array,
-  colOrder: Int32Array,
-): number {
+export const markowitzOrderByLists: PivotOrdering = (n, rows, cols, a, threshold, pivotTolerance, rowOrder, colOrder) => {
   const rowCols: number[][] = [];
   const rowValues: number[][] = [];
   const colRows: number[][] = [];
@@ -200,4 +192,4 @@ export function markowitzOrderByLists(
     rowValues[pi] = [];
   }
   return -1;
-}
+};
