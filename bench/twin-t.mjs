@@ -19,8 +19,8 @@ export function twinTCircuit() {
  * The stepping rate (accepted steps per CPU second of `advance`, the system and stepper built
  * outside it) of 150 ms from rest, best of `runs` after one warm-up.
  */
-export async function twinTSteppingRate(runs) {
-  const { buildSystem, TransientStepper } = await import("@onset/core/engine");
+export async function twinTSteppingRate(runs, engine = "@onset/core/engine") {
+  const { buildSystem, TransientStepper } = await import(engine);
   const circuit = twinTCircuit();
   let best = Infinity;
   let accepted = 0;
@@ -39,5 +39,6 @@ export async function twinTSteppingRate(runs) {
   return { accepted, rate: accepted / (best / 1e6) };
 }
 
-// `node bench/twin-t.mjs <runs>` prints one process's rate as JSON (the engine suite runs it in fresh processes).
-if (process.argv[1] === fileURLToPath(import.meta.url)) console.log(JSON.stringify(await twinTSteppingRate(Number(process.argv[2] ?? 20))));
+// `node bench/twin-t.mjs <runs> [engine module]` prints one process's rate as JSON (the engine
+// suite runs it in fresh processes); the engine defaults to this checkout's built one.
+if (process.argv[1] === fileURLToPath(import.meta.url)) console.log(JSON.stringify(await twinTSteppingRate(Number(process.argv[2] ?? 20), process.argv[3])));

@@ -2,6 +2,7 @@
 import { buildSystem, randomStream, TransientStepper } from "@onset/core/engine";
 import { Matrix, solve } from "ml-matrix";
 import { spawnSync } from "node:child_process";
+import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { printTable, timeBest } from "../table.mjs";
 
@@ -23,22 +24,53 @@ const part = (kind, name, nodes, value, options = {}) => ({ kind, name, nodes, v
  * processes alternating which runs first, load average 5.6–7.1 on the 2 cores: median of the
  * paired ratios 0.978 (quartiles 0.956–0.991), best/best 0.980 (788,000 then, 772,000 now);
  * against the branch point of those changes +6.1 % (median of 20 pairs). Twin-T results
- * bit-identical throughout (every unknown at 150 ms, and the start-up figures).
+ * bit-identical throughout (every unknown at 150 ms, and the start-up figures). The suite prints
+ * such a pairing when ONSET_OLD_ENGINE names the old engine's bundle (see pairedAgainstOld): this
+ * checkout's build against it, 20 pairs at load 5.5–6: median 0.979 (quartiles 0.957–0.985).
  */
 const OLD_SOLVER_TWIN_T = 813_000;
 const TWIN_T_PROCESSES = 15;
 const TWIN_T = fileURLToPath(new URL("../twin-t.mjs", import.meta.url));
 
+/** One fresh process's twin-T rate (the best of 20 runs) with the given engine module (default: this checkout's). */
+function twinTProcess(engine) {
+  const run = spawnSync(process.execPath, [TWIN_T, "20", ...(engine ? [engine] : [])], { encoding: "utf8" });
+  if (run.status !== 0) throw new Error(`twin-T rate: ${run.stderr}`);
+  return JSON.parse(run.stdout.trim().split("\n").pop());
+}
+
 /** Best twin-T stepping rate over fresh processes (each the best of 20 runs), as the old figure was taken. */
 function twinTRate() {
   let best = { rate: 0, accepted: 0 };
   for (let p = 0; p < TWIN_T_PROCESSES; p++) {
-    const run = spawnSync(process.execPath, [TWIN_T, "20"], { encoding: "utf8" });
-    if (run.status !== 0) throw new Error(`twin-T rate: ${run.stderr}`);
-    const result = JSON.parse(run.stdout.trim().split("\n").pop());
+    const result = twinTProcess();
     if (result.rate > best.rate) best = result;
   }
   return best;
+}
+
+/**
+ * With ONSET_OLD_ENGINE set to a bundle of the old solver's engine (for instance
+ * `git archive 397449b^1 packages/core tsconfig.base.json | tar -x -C OLD`, node_modules linked in,
+ * then `esbuild OLD/packages/core/src/engine.ts --bundle --format=esm --platform=node
+ * --outfile=OLD/engine.mjs`), fresh processes of the old and this engine in pairs, alternating
+ * which runs first: the paired ratios say more under a shared machine's changing load than two
+ * best figures taken at different times.
+ */
+function pairedAgainstOld(old, pairs = 20) {
+  const ratios = [];
+  let bestOld = 0;
+  let bestNew = 0;
+  for (let p = 0; p < pairs; p++) {
+    const [a, b] = p % 2 === 0 ? [twinTProcess(old), twinTProcess()] : [null, twinTProcess()];
+    const then = a ?? twinTProcess(old);
+    ratios.push(b.rate / then.rate);
+    bestOld = Math.max(bestOld, then.rate);
+    bestNew = Math.max(bestNew, b.rate);
+  }
+  ratios.sort((x, y) => x - y);
+  const at = (f) => ratios[Math.round(f * (ratios.length - 1))].toFixed(3);
+  console.log(`paired against ${old} (${pairs} pairs of fresh processes, load average ${loadavg()[0].toFixed(1)} at the end): median now / then ${at(0.5)} (quartiles ${at(0.25)}–${at(0.75)}), best / best ${(bestNew / bestOld).toFixed(3)}`);
 }
 
 /** An RC ladder of `sections` with seeded random values around 1 kΩ / 10 nF, driven by a sine. */
@@ -148,5 +180,6 @@ export async function run() {
   const twinT = twinTRate();
   const fmt = (r) => Math.round(r).toLocaleString("en-US");
   console.log(`\ntwin-T tuning reference (10 unknowns, 4 diodes, op-amp; ${twinT.accepted} steps over 150 ms from rest): ${fmt(twinT.rate)} accepted steps per CPU second (best of ${TWIN_T_PROCESSES} processes × 20 runs)`);
-  console.log(`solver before the sparse merge, same measure: ${fmt(OLD_SOLVER_TWIN_T)}; now / then: ${(twinT.rate / OLD_SOLVER_TWIN_T).toFixed(3)} (target: ≥ 0.95)`);
+  console.log(`solver before the sparse merge, same measure: ${fmt(OLD_SOLVER_TWIN_T)}; now / then: ${(twinT.rate / OLD_SOLVER_TWIN_T).toFixed(3)} (target: ≥ 0.95; the load average now is ${loadavg()[0].toFixed(1)})`);
+  if (process.env.ONSET_OLD_ENGINE) pairedAgainstOld(process.env.ONSET_OLD_ENGINE);
 }
