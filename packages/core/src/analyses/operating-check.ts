@@ -2,6 +2,7 @@ import type { Diagnostic } from "../circuit/diagnostic.js";
 import type { Device } from "../devices/device.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { MnaSystem } from "../solver/system.js";
+import type { TransientStepper } from "./stepper.js";
 
 /**
  * Beyond these a part is far outside any physical operating point: a kiloampere through a
@@ -143,4 +144,20 @@ export function implausibleOnOrbit(system: MnaSystem, times: ArrayLike<number>, 
   const none = new Float64Array(system.n);
   for (let k = 0; k < states.length; k++) watch.check(times[k]!, states[k]!, rates?.[k] ?? none);
   return watch.warnings("on the steady orbit");
+}
+
+/**
+ * Watches a time-domain run's parts (see `OperatingWatch`): at its start, at every few accepted
+ * steps and, through `finish`, at its last point, which returns the warnings.
+ */
+export function watchOperation(stepper: TransientStepper): { finish(where: string): ImplausiblePart[] } {
+  const watch = new OperatingWatch(stepper.system);
+  watch.check(stepper.t, stepper.x, stepper.dxdt);
+  stepper.observe(watch.observe);
+  return {
+    finish(where) {
+      watch.check(stepper.t, stepper.x, stepper.dxdt);
+      return watch.warnings(where);
+    },
+  };
 }

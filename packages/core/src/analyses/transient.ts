@@ -8,7 +8,7 @@ import { ThinnedRecord } from "./thinned-record.js";
 import { allNodeProbes, probeReader, probeUnit } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import { budgetOf, RUN_LIMITS, type BudgetOptions } from "./limits.js";
-import { OperatingWatch, type ImplausiblePart } from "./operating-check.js";
+import { watchOperation, type ImplausiblePart } from "./operating-check.js";
 
 /** One recorded signal. */
 export interface Signal {
@@ -158,20 +158,4 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   const thinned = recorder.stride > 1 ? { stride: recorder.stride } : {};
   const warnings = watch.finish("in the transient");
   return { analysis: "transient", time: recorder.times(), signals: recorder.signals(), stats: { ...stepper.stats }, ...thinned, ...(warnings.length > 0 ? { warnings } : {}) };
-}
-
-/**
- * Watches a time-domain run's parts (see `OperatingWatch`): at its start, at every few accepted
- * steps and, through `finish`, at its last point, which returns the warnings.
- */
-export function watchOperation(stepper: TransientStepper): { finish(where: string): ImplausiblePart[] } {
-  const watch = new OperatingWatch(stepper.system);
-  watch.check(stepper.t, stepper.x, stepper.dxdt);
-  stepper.observe(watch.observe);
-  return {
-    finish(where) {
-      watch.check(stepper.t, stepper.x, stepper.dxdt);
-      return watch.warnings(where);
-    },
-  };
 }
