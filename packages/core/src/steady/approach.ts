@@ -1,7 +1,7 @@
 import type { ProbeReader } from "../analyses/probes.js";
 import type { TransientStepper } from "../analyses/stepper.js";
+import { widened } from "../analyses/growable.js";
 import { risingCrossings } from "../metrics/crossings.js";
-import { GrowableSeries } from "../analyses/growable.js";
 
 /**
  * The swing counts as levelled off when it changes by less than a given fraction per period
@@ -29,10 +29,15 @@ export type Approach =
  * the probe through its mean; a swing that shrank to nothing means the oscillation died out.
  */
 export class OrbitApproach {
-  private readonly time = new GrowableSeries(4096);
-  private readonly values = new GrowableSeries(4096);
+  /** The probe's samples over the last few guessed periods only (all the period's measurement reads). */
+  private readonly samples = new SampleWindow();
+  /** The swings of the last periods (the level and died-out criteria look no further back). */
   private readonly swings: number[] = [];
+  private count = 0;
   private largest = 0;
+  /** The probe's extremes since the current period's start. */
+  private lo = Infinity;
+  private hi = -Infinity;
 
   constructor(
     private readonly stepper: TransientStepper,
@@ -42,14 +47,21 @@ export class OrbitApproach {
     private readonly linearGrowth: number,
   ) {
     stepper.observe((t, x, dxdt) => {
-      this.time.push(t);
-      this.values.push(read(x, dxdt, t));
+      const v = read(x, dxdt, t);
+      this.samples.push(t, v);
+      this.lo = Math.min(this.lo, v);
+      this.hi = Math.max(this.hi, v);
     });
   }
 
   /** Periods run so far. */
   get periods(): number {
-    return this.swings.length;
+    return this.count;
+  }
+
+  /** Probe samples held (bounded by the samples of a few periods, however long the approach). */
+  get samplesHeld(): number {
+    return this.samples.length;
   }
 
   /**
@@ -57,34 +69,30 @@ export class OrbitApproach {
    * period, when given) and says where that left the oscillation.
    */
   advance(most: number, level: number | undefined, check: () => void): Approach {
-    const end = this.swings.length + most;
-    while (this.swings.length < end) {
+    const end = this.count + most;
+    while (this.count < end) {
       check();
-      const from = this.stepper.t;
-      this.stepper.advance(from + this.guess);
-      this.swings.push(this.swingSince(from));
-      this.largest = Math.max(this.largest, this.swings[this.swings.length - 1]!);
+      // The period's extremes start from the sample at its start (the last of the one before).
+      this.lo = this.hi = this.samples.last();
+      this.stepper.advance(this.stepper.t + this.guess);
+      this.record(this.hi > this.lo ? this.hi - this.lo : 0);
+      this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
       if (level !== undefined && this.levelled(level)) break;
     }
     return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods };
   }
 
-  private swingSince(from: number): number {
-    const t = this.time.view();
-    const v = this.values.view();
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (let k = t.length - 1; k >= 0 && t[k]! >= from; k--) {
-      lo = Math.min(lo, v[k]!);
-      hi = Math.max(hi, v[k]!);
-    }
-    return hi > lo ? hi - lo : 0;
+  private record(swing: number): void {
+    this.count++;
+    this.largest = Math.max(this.largest, swing);
+    this.swings.push(swing);
+    if (this.swings.length > LEVEL_PERIODS + 1) this.swings.shift();
   }
 
   private diedOut(): boolean {
     const last = this.swings[this.swings.length - 1] ?? 0;
-    return !(last > DIED_OUT * this.largest) || (this.swings.length > 2 * LEVEL_PERIODS && this.shrinking() && last < 0.01 * this.largest);
+    return !(last > DIED_OUT * this.largest) || (this.count > 2 * LEVEL_PERIODS && this.shrinking() && last < 0.01 * this.largest);
   }
 
   /** Every one of the last periods smaller than the one before. */
@@ -96,7 +104,7 @@ export class OrbitApproach {
 
   private levelled(level: number): boolean {
     const s = this.swings;
-    if (s.length <= LEVEL_PERIODS) return false;
+    if (this.count <= LEVEL_PERIODS) return false;
     const change = Math.min(level, LEVEL_SHARE * this.linearGrowth);
     for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < change)) return false;
     return true;
@@ -104,8 +112,8 @@ export class OrbitApproach {
 
   /** The mean interval between the rising crossings of the last few guessed periods; the guess when there are too few. */
   private measuredPeriod(): number {
-    const t = this.time.view();
-    const v = this.values.view();
+    const t = this.samples.times();
+    const v = this.samples.values();
     const from = this.stepper.t - (LEVEL_PERIODS + 1) * this.guess;
     let sum = 0;
     let count = 0;
@@ -121,5 +129,44 @@ export class OrbitApproach {
     const crossings = risingCrossings(t, v, sum / count, HYSTERESIS * (hi - lo), from);
     if (crossings.length < 2) return this.guess;
     return (crossings[crossings.length - 1]! - crossings[0]!) / (crossings.length - 1);
+  }
+}
+
+/** Samples (t, v) appended in time order, from which the ones before a time can be dropped: memory bounded by the span kept. */
+class SampleWindow {
+  private t: Float64Array = new Float64Array(1024);
+  private v: Float64Array = new Float64Array(1024);
+  length = 0;
+
+  push(t: number, v: number): void {
+    if (this.length === this.t.length) {
+      this.t = widened(this.t, 2 * this.length);
+      this.v = widened(this.v, 2 * this.length);
+    }
+    this.t[this.length] = t;
+    this.v[this.length++] = v;
+  }
+
+  last(): number {
+    return this.v[this.length - 1]!;
+  }
+
+  /** Drops the samples before `time`. */
+  dropBefore(time: number): void {
+    let first = 0;
+    while (first < this.length && this.t[first]! < time) first++;
+    if (first === 0) return;
+    this.t.copyWithin(0, first, this.length);
+    this.v.copyWithin(0, first, this.length);
+    this.length -= first;
+  }
+
+  /** Views (no copy) valid until the next push or drop. */
+  times(): Float64Array {
+    return this.t.subarray(0, this.length);
+  }
+
+  values(): Float64Array {
+    return this.v.subarray(0, this.length);
   }
 }
