@@ -247,14 +247,19 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
     let diedOut = false;
+    // Each batch of transient ends in a shooting once the swing has levelled off (or when the
+    // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
+    let shots = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** attempt : undefined, check);
+      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check);
       transient = transientOf(stepper, periods + approach.periods, maxStep);
       if (where.kind === "died-out") {
         diedOut = true;
         why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
         continue;
       }
+      if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
+      shots++;
       const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;

@@ -18,21 +18,29 @@ const HYSTERESIS = 0.05;
 
 /** Where a short transient left the oscillation: the period measured on the probe, or why none. */
 export type Approach =
-  | { readonly kind: "oscillating"; readonly period: number; readonly periods: number }
+  | { readonly kind: "oscillating"; readonly period: number; readonly periods: number; readonly levelled: boolean }
   | { readonly kind: "died-out"; readonly periods: number };
 
 /**
  * Runs a transient towards the orbit, one guessed period at a time, watching the probe's swing
  * per period. It stops after `most` periods, or earlier (with `level`) once the swing has
  * levelled off: the shooting converges from there, so waiting out the slow end of the
- * settling buys nothing. The period is then measured from the last few rising crossings of
- * the probe through its mean; a swing that shrank to nothing means the oscillation died out.
+ * settling buys nothing. An amplitude loop's envelope can bounce (an overshoot, then a dip far
+ * below the orbit, where the swing lingers as if levelled), and Newton's method does not
+ * converge from there: once the swing has peaked, the bounce about the peak (from the dip
+ * before it, if any, to the dip after it, or to now) must be within the level too. The period is
+ * then measured from the last few rising crossings of the probe through its mean; a swing that
+ * shrank to nothing means the oscillation died out.
  */
 export class OrbitApproach {
   /** The probe's samples over the last few guessed periods only (all the period's measurement reads). */
   private readonly samples = new SampleWindow();
   /** The swings of the last periods (the level and died-out criteria look no further back). */
   private readonly swings: number[] = [];
+  /** The swing at the envelope's last peak, and at the dips before and after it. */
+  private peak = NaN;
+  private before = NaN;
+  private dip = NaN;
   private count = 0;
   private largest = 0;
   /** The probe's extremes since the current period's start. */
@@ -70,6 +78,7 @@ export class OrbitApproach {
    */
   advance(most: number, level: number | undefined, check: () => void): Approach {
     const end = this.count + most;
+    let levelled = false;
     while (this.count < end) {
       check();
       // The period's extremes start from the sample at its start (the last of the one before).
@@ -78,9 +87,9 @@ export class OrbitApproach {
       this.record(this.hi > this.lo ? this.hi - this.lo : 0);
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
-      if (level !== undefined && this.levelled(level)) break;
+      if (level !== undefined && (levelled = this.levelled(level))) break;
     }
-    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods };
+    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
   }
 
   private record(swing: number): void {
@@ -88,6 +97,13 @@ export class OrbitApproach {
     this.largest = Math.max(this.largest, swing);
     this.swings.push(swing);
     if (this.swings.length > LEVEL_PERIODS + 1) this.swings.shift();
+    const [a, b, c] = this.swings.slice(-3);
+    // The envelope's turning points: a peak (the dip before it kept), or a dip.
+    if (c !== undefined && b! > a! && b! >= c) {
+      this.before = this.dip;
+      this.peak = b!;
+      this.dip = NaN;
+    } else if (c !== undefined && b! < a! && b! <= c) this.dip = b!;
   }
 
   private diedOut(): boolean {
@@ -104,10 +120,13 @@ export class OrbitApproach {
 
   private levelled(level: number): boolean {
     const s = this.swings;
-    if (this.count <= LEVEL_PERIODS) return false;
+    if (s.length <= LEVEL_PERIODS) return false;
     const change = Math.min(level, LEVEL_SHARE * this.linearGrowth);
     for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < change)) return false;
-    return true;
+    // After a peak of the envelope, its bounce (from the dip before it, down to the dip after it or to now) must be small too.
+    const last = s[s.length - 1]!;
+    const after = Number.isNaN(this.dip) ? last : this.dip;
+    return !(Math.abs(this.peak - after) >= level * last || Math.abs(this.peak - this.before) >= level * last);
   }
 
   /** The mean interval between the rising crossings of the last few guessed periods; the guess when there are too few. */
