@@ -33,6 +33,11 @@ export const DEFAULT_STEADY_CYCLES: Readonly<Record<"startup" | "poles" | "drive
 const RETRIES = 4;
 /** Steps per guessed period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
+/**
+ * The transient towards the orbit only brings the shooting near it: it steps at most a quarter
+ * as finely as the orbit's grid, whose period is recorded at the grid's own steps.
+ */
+const APPROACH_STEPS_PER_PERIOD = 25;
 /** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures)… */
 const ORBIT_SHARE = 1e-2;
 /** …and a study's sample on one grid to within this one (its figures carry the grid's own error, some ten times larger). */
@@ -239,11 +244,12 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   let why = "";
   let periods = 0;
   let transient = { periods: 0, until: 0, maxStep, solver: emptyStats() };
+  const approachStep = Math.max(maxStep, guessPeriod / APPROACH_STEPS_PER_PERIOD);
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
   for (const share of [KICK_SHARE, SMALL_KICK_SHARE]) {
-    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep, tolerances });
+    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
     let diedOut = false;
@@ -252,7 +258,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     let shots = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
       const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check);
-      transient = transientOf(stepper, periods + approach.periods, maxStep);
+      transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
         why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;

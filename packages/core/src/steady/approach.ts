@@ -43,9 +43,6 @@ export class OrbitApproach {
   private dip = NaN;
   private count = 0;
   private largest = 0;
-  /** The probe's extremes since the current period's start. */
-  private lo = Infinity;
-  private hi = -Infinity;
 
   constructor(
     private readonly stepper: TransientStepper,
@@ -54,12 +51,7 @@ export class OrbitApproach {
     /** e^(σT) − 1: the swing's relative growth per period while the circuit is linear. */
     private readonly linearGrowth: number,
   ) {
-    stepper.observe((t, x, dxdt) => {
-      const v = read(x, dxdt, t);
-      this.samples.push(t, v);
-      this.lo = Math.min(this.lo, v);
-      this.hi = Math.max(this.hi, v);
-    });
+    stepper.observe((t, x, dxdt) => this.samples.push(t, read(x, dxdt, t)));
   }
 
   /** Periods run so far. */
@@ -81,10 +73,9 @@ export class OrbitApproach {
     let levelled = false;
     while (this.count < end) {
       check();
-      // The period's extremes start from the sample at its start (the last of the one before).
-      this.lo = this.hi = this.samples.last();
-      this.stepper.advance(this.stepper.t + this.guess);
-      this.record(this.hi > this.lo ? this.hi - this.lo : 0);
+      const from = this.stepper.t;
+      this.stepper.advance(from + this.guess);
+      this.record(this.samples.swingSince(from));
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
       if (level !== undefined && (levelled = this.levelled(level))) break;
@@ -178,6 +169,40 @@ class SampleWindow {
     this.t.copyWithin(0, first, this.length);
     this.v.copyWithin(0, first, this.length);
     this.length -= first;
+  }
+
+  /**
+   * The swing (highest − lowest) of the samples from `time` on (and the one before), each
+   * extreme refined by the parabola through it and its neighbours: the steps' placement then
+   * moves it by O(h³), not O(h²), so a swing that has levelled off measures level.
+   */
+  swingSince(time: number): number {
+    const { t, v } = this;
+    let first = this.length - 1;
+    while (first > 0 && t[first]! >= time) first--;
+    let top = first;
+    let bottom = first;
+    for (let k = first; k < this.length; k++) {
+      if (v[k]! > v[top]!) top = k;
+      if (v[k]! < v[bottom]!) bottom = k;
+    }
+    const swing = this.vertex(top) - this.vertex(bottom);
+    return swing > 0 ? swing : 0;
+  }
+
+  /** The value at the vertex of the parabola through samples k − 1, k, k + 1 (sample k's own value at the ends or where the vertex falls outside them). */
+  private vertex(k: number): number {
+    const { t, v } = this;
+    if (k === 0 || k >= this.length - 1) return v[k]!;
+    const h0 = t[k - 1]! - t[k]!;
+    const h2 = t[k + 1]! - t[k]!;
+    const d0 = v[k - 1]! - v[k]!;
+    const d2 = v[k + 1]! - v[k]!;
+    const det = h0 * h2 * (h0 - h2);
+    const a = (d0 * h2 - d2 * h0) / det;
+    const b = (d2 * h0 * h0 - d0 * h2 * h2) / det;
+    const at = -b / (2 * a);
+    return a !== 0 && at > h0 && at < h2 ? v[k]! - (b * b) / (4 * a) : v[k]!;
   }
 
   /** Views (no copy) valid until the next push or drop. */
