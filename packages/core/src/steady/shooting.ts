@@ -45,6 +45,8 @@ export interface ShootingOptions {
   readonly autonomous: boolean;
   /** Largest number of periods integrated. @defaultValue 25 */
   readonly maxIterations?: number;
+  /** Periods after which a shooting whose mismatch never fell below its first one gives up (a start out of Newton's reach). @defaultValue never */
+  readonly giveUpAfter?: number;
   /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
   readonly relative?: number;
   readonly tolerances?: Partial<Tolerances>;
@@ -109,6 +111,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
+  let first = Infinity;
+  let best = Infinity;
   const maxIterations = options.maxIterations ?? 25;
   const moveTo = (lambda: number) => {
     damping = lambda;
@@ -125,6 +129,11 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
     }
     if (options.autonomous) residual[n] = 0;
+    if (iteration === 1) first = mismatch;
+    else best = Math.min(best, mismatch);
+    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first)) {
+      throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+    }
     if (trial && !(mismatch < previous)) {
       if (!freshAtFrom) {
         // An updated matrix led astray: back to where the step started, with the Jacobian there.
