@@ -54,8 +54,11 @@ const SMALL_KICK_SHARE = 1e-3;
 const FIRST_LEVEL = 0.1;
 /** …and each retry, after more transient, until it changes this many times less. */
 const LEVEL_RETRY = 10;
-/** Shooting iterations (periods) allowed before the last retry. */
+/** Shooting iterations (periods) allowed before the last retry… */
 const EARLY_ITERATIONS = 10;
+/** …and after how many of them a shooting whose mismatch never fell below its first one gives up. */
+const GIVE_UP = 5;
+const EARLY_LIMITS = { maxIterations: EARLY_ITERATIONS, giveUpAfter: GIVE_UP };
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
@@ -234,7 +237,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
   };
   if (options.seed && options.seed.x.length === system.n) {
-    const shot = shoot(context, () => seededStart(options.seed!), true, EARLY_ITERATIONS);
+    const shot = shoot(context, () => seededStart(options.seed!), true, { maxIterations: EARLY_ITERATIONS });
     if (typeof shot !== "string") return orbitFound(shot, idle().transient);
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
@@ -266,7 +269,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
       shots++;
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
     }
@@ -351,7 +354,7 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}): RefinedOrbit | string {
   try {
     const { guess, fractions, trajectory, jacobian } = start();
     const period = guess.period;
@@ -361,7 +364,7 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, maxI
       relative: (c.singleGrid ? SAMPLE_ORBIT_SHARE : ORBIT_SHARE) * c.tolerances.lteRelative,
       corners: autonomous ? [] : cornersWithin(c.system, guess.t0, period),
       multipliers: true,
-      ...(maxIterations === undefined ? {} : { maxIterations }),
+      ...limits,
       ...(jacobian ? { jacobian } : {}),
       check: () => c.budget.check("during the steady state's shooting", c.analysis.span),
     };
