@@ -1,0 +1,30 @@
+// A shooting told to give up without headway (`giveUpAfter`) gives up only then: from a start near
+// the orbit it converges as without the option; one with no headway by then stops at that period
+// with a typed error, not after all its periods.
+import { describe, expect, test } from "vitest";
+import { isOnsetError } from "@onset/core";
+import { shootOrbit } from "@onset/core/engine";
+import { clippedWien, settledPeriod } from "./support.js";
+
+describe("shootOrbit's giveUpAfter", () => {
+  const { system, guess, fractions, trajectory } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+
+  test("near the orbit it converges to the same orbit in the same periods as without it", () => {
+    const plain = shootOrbit(system, guess, fractions, trajectory, { autonomous: true });
+    const patient = shootOrbit(system, guess, fractions, trajectory, { autonomous: true, giveUpAfter: 2 });
+    expect(patient.iterations).toBe(plain.iterations);
+    expect(patient.start.period).toBe(plain.start.period);
+  });
+
+  test("it stops at that period with a typed error: after one period no step has been tried, so there is no headway yet", () => {
+    let periods = 0;
+    let error: unknown;
+    try {
+      shootOrbit(system, guess, fractions, trajectory, { autonomous: true, giveUpAfter: 1, check: () => periods++ });
+    } catch (e) {
+      error = e;
+    }
+    expect(isOnsetError(error) && error.diagnostic.code).toBe("orbit-not-converged");
+    expect(periods).toBe(1);
+  });
+});
