@@ -27,4 +27,21 @@ describe("shootOrbit's giveUpAfter", () => {
     expect(isOnsetError(error) && error.diagnostic.code).toBe("orbit-not-converged");
     expect(periods).toBe(1);
   });
+
+  test("a first step that would move the period by more than a fifth gives up at once (the start is out of Newton's reach)", () => {
+    // The settled state with the period guessed at a third of the orbit's: Newton's first step
+    // triples it. Without the option the damped iteration still finds its way back, in many periods.
+    const far = { ...guess, period: guess.period / 3 };
+    const found = shootOrbit(system, far, fractions, undefined, { autonomous: true });
+    expect(Math.abs(found.start.period / guess.period - 1)).toBeLessThan(1e-3);
+    let periods = 0;
+    let error: unknown;
+    try {
+      shootOrbit(system, far, fractions, undefined, { autonomous: true, giveUpAfter: 5, check: () => periods++ });
+    } catch (e) {
+      error = e;
+    }
+    expect(isOnsetError(error) && error.diagnostic.code).toBe("orbit-not-converged");
+    expect(periods).toBe(1);
+  });
 });

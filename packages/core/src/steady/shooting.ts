@@ -45,7 +45,11 @@ export interface ShootingOptions {
   readonly autonomous: boolean;
   /** Largest number of periods integrated. @defaultValue 25 */
   readonly maxIterations?: number;
-  /** Periods after which a shooting whose mismatch never fell below its first one gives up (a start out of Newton's reach). @defaultValue never */
+  /**
+   * Periods after which a shooting whose mismatch never fell below its first one gives up (a
+   * start out of Newton's reach); with it, so does one whose first step would move the period by
+   * more than a fifth. @defaultValue never
+   */
   readonly giveUpAfter?: number;
   /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
   readonly relative?: number;
@@ -182,7 +186,12 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     previous = mismatch;
     trial = true;
     // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
-    moveTo(options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
+    // (A first step that would move it further says the start is out of Newton's reach.)
+    const wild = options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T;
+    if (wild && iteration === 1 && options.giveUpAfter !== undefined) {
+      throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+    }
+    moveTo(wild ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   }
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
