@@ -54,11 +54,16 @@ const SMALL_KICK_SHARE = 1e-3;
 const FIRST_LEVEL = 0.1;
 /** …and each retry, after more transient, until it changes this many times less. */
 const LEVEL_RETRY = 10;
-/** Shooting iterations (periods) allowed before the last retry… */
+/** Shooting iterations (periods) allowed from a neighbouring circuit's orbit. */
 const EARLY_ITERATIONS = 10;
-/** …and after how many of them a shooting whose mismatch never fell below its first one gives up. */
+/**
+ * A shooting before the last retry gives up after this many periods when its mismatch never fell
+ * below its first one, or at once when its first step would move the period by more than a fifth
+ * (see `ShootingOptions.giveUpAfter`): a start out of Newton's reach costs a period or a few, and
+ * one making headway may use all its periods.
+ */
 const GIVE_UP = 5;
-const EARLY_LIMITS = { maxIterations: EARLY_ITERATIONS, giveUpAfter: GIVE_UP };
+const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
