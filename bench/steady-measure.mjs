@@ -1,6 +1,9 @@
 // One measurement of bench/suites/steady.mjs, in a process of its own: the example's start-up run
-// to settled (its own startup statement) or the steady analysis on the same probe, timed (processor
-// time, best of the repeats) after one warm-up run; prints one JSON line.
+// to settled (its own startup statement) or the steady analysis on the same probe. Two figures of
+// processor time (user + system: on a shared machine the other processes lengthen the wall time,
+// not the work done): the first run in this fresh process (cold: the code not yet compiled, as a
+// one-off command-line run meets it), and the best of the repeats after it (warm, as inside a
+// study or a sweep). Prints one JSON line.
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { runStartup, runSteady, startupAnalysisOf } from "@onset/core";
@@ -13,25 +16,33 @@ const { circuit } = elaborate(program, {});
 const startup = startupAnalysisOf(circuit);
 const steady = { kind: "steady", probe: startup.probe };
 const once = () => (method === "startup" ? runStartup(circuit, startup) : runSteady(circuit, steady));
-let result = once();
-// Processor time of the run (user + system), the best of the repeats: on a shared machine the
-// other processes lengthen the wall time, not the work done.
+const timed = () => {
+  const c0 = process.cpuUsage();
+  const result = once();
+  const c = process.cpuUsage(c0);
+  return { result, ms: (c.user + c.system) / 1000 };
+};
+const cold = timed();
+let result = cold.result;
 const times = [];
 for (let k = 0; k < Number(repeats); k++) {
-  const c0 = process.cpuUsage();
-  result = once();
-  const c = process.cpuUsage(c0);
-  times.push((c.user + c.system) / 1000);
+  const run = timed();
+  result = run.result;
+  times.push(run.ms);
 }
 times.sort((a, b) => a - b);
 console.log(
   JSON.stringify({
     name,
     method,
-    ms: times[0],
+    coldMs: cold.ms,
+    warmMs: times[0] ?? cold.ms,
     verdict: result.verdict ?? (result.found ? "found" : "none"),
     frequency: result.frequency,
     amplitude: result.amplitude,
     thd: result.thd,
+    // The steady analysis' work: transient periods before the shooting, shooting periods on each grid.
+    periods: result.transient?.periods ?? null,
+    iterations: result.iterations ?? null,
   }),
 );

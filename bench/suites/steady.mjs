@@ -1,6 +1,7 @@
 // Issue 15: the periodic steady state by shooting against the start-up run to settled. Each
 // measurement runs in a process of its own (bench/steady-measure.mjs, bench/steady-study.mjs),
-// the two methods side by side: per example, the wall time of one warm run and the settled
+// the two methods side by side: per example, the processor time of the first (cold) run in a fresh
+// process and of a warm run (best of the repeats), the steady analysis' work, and the settled
 // figures of both; then the bridge source's tolerance study with measure=steady on 1 and 2
 // workers against the same study with start-up runs; then its trimmer sweep (bench/steady-sweep.mjs)
 // with measure=steady on 1 and 2 workers against the same sweep of start-up runs.
@@ -25,24 +26,33 @@ const rel = (a, b) => (a === null || b === null ? "—" : `${(Math.abs(a / b - 1
 
 export async function run() {
   const rows = [];
-  const ratios = [];
+  const cold = [];
+  const warm = [];
   for (const name of [...EXAMPLES, ...SLOW_LOOPS]) {
     const startup = measure("steady-measure.mjs", [name, "startup", String(REPEATS)]);
     const steady = measure("steady-measure.mjs", [name, "steady", String(REPEATS)]);
-    ratios.push(startup.ms / steady.ms);
+    cold.push(startup.coldMs / steady.coldMs);
+    warm.push(startup.warmMs / steady.warmMs);
     rows.push({
       example: name,
-      "start-up CPU ms": startup.ms.toFixed(1),
-      "steady CPU ms": steady.ms.toFixed(1),
-      ratio: `${(startup.ms / steady.ms).toFixed(1)}×`,
+      "start-up cold": startup.coldMs.toFixed(1),
+      "steady cold": steady.coldMs.toFixed(1),
+      "cold ratio": `${(startup.coldMs / steady.coldMs).toFixed(1)}×`,
+      "start-up warm": startup.warmMs.toFixed(1),
+      "steady warm": steady.warmMs.toFixed(1),
+      "warm ratio": `${(startup.warmMs / steady.warmMs).toFixed(1)}×`,
       target: SLOW_LOOPS.includes(name) ? "30×" : "10×",
+      periods: steady.periods,
+      iterations: steady.iterations ? steady.iterations.join("+") : "—",
       "Δf": rel(steady.frequency, startup.frequency),
       "ΔA": rel(steady.amplitude, startup.amplitude),
       "ΔTHD": rel(steady.thd, startup.thd),
     });
   }
   printTable(rows);
-  console.log(`\nprocessor time, start-up to settled / steady: ${ratios.map((r) => `${r.toFixed(1)}×`).join(", ")} (target ≥ 10×; ≥ 30× for the slow loops)`);
+  const list = (rs) => rs.map((r) => `${r.toFixed(1)}×`).join(", ");
+  console.log(`\nprocessor time in ms: cold = the first run in a fresh process; warm = the best of ${REPEATS} after it. periods = the steady analysis' transient periods, iterations = its shooting periods on the two grids`);
+  console.log(`start-up to settled / steady, cold: ${list(cold)}; warm: ${list(warm)} (target ≥ 10×; ≥ 30× for the slow loops)`);
   console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
 
   const studies = [measure("steady-study.mjs", ["startup", "2", String(RUNS)]), measure("steady-study.mjs", ["steady", "1", String(RUNS)]), measure("steady-study.mjs", ["steady", "2", String(RUNS)])];

@@ -53,6 +53,9 @@ export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } fro
 export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";
 export { recordPeriod, refineOrbit } from "./steady/refine.js";
+export { OrbitApproach } from "./steady/approach.js";
+export { SampleWindow } from "./steady/sample-window.js";
+export type { Approach } from "./steady/approach.js";
 export type { NumericalError, RefinedOrbit } from "./steady/refine.js";
 
 // Noise sources and random streams

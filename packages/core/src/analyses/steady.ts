@@ -33,6 +33,11 @@ export const DEFAULT_STEADY_CYCLES: Readonly<Record<"startup" | "poles" | "drive
 const RETRIES = 4;
 /** Steps per guessed period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
+/**
+ * The transient towards the orbit only brings the shooting near it: it steps at most a quarter
+ * as finely as the orbit's grid, whose period is recorded at the grid's own steps.
+ */
+const APPROACH_STEPS_PER_PERIOD = 25;
 /** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures)… */
 const ORBIT_SHARE = 1e-2;
 /** …and a study's sample on one grid to within this one (its figures carry the grid's own error, some ten times larger). */
@@ -49,8 +54,16 @@ const SMALL_KICK_SHARE = 1e-3;
 const FIRST_LEVEL = 0.1;
 /** …and each retry, after more transient, until it changes this many times less. */
 const LEVEL_RETRY = 10;
-/** Shooting iterations (periods) allowed before the last retry. */
+/** Shooting iterations (periods) allowed from a neighbouring circuit's orbit. */
 const EARLY_ITERATIONS = 10;
+/**
+ * A shooting before the last retry gives up after this many periods when its mismatch never fell
+ * below its first one, or at once when its first step would move the period by more than a fifth
+ * (see `ShootingOptions.giveUpAfter`): a start out of Newton's reach costs a period or a few, and
+ * one making headway may use all its periods.
+ */
+const GIVE_UP = 5;
+const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
@@ -229,7 +242,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
   };
   if (options.seed && options.seed.x.length === system.n) {
-    const shot = shoot(context, () => seededStart(options.seed!), true, EARLY_ITERATIONS);
+    const shot = shoot(context, () => seededStart(options.seed!), true, { maxIterations: EARLY_ITERATIONS });
     if (typeof shot !== "string") return orbitFound(shot, idle().transient);
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
@@ -239,23 +252,29 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   let why = "";
   let periods = 0;
   let transient = { periods: 0, until: 0, maxStep, solver: emptyStats() };
+  const approachStep = Math.max(maxStep, guessPeriod / APPROACH_STEPS_PER_PERIOD);
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
   for (const share of [KICK_SHARE, SMALL_KICK_SHARE]) {
-    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep, tolerances });
+    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
     let diedOut = false;
+    // Each batch of transient ends in a shooting once the swing has levelled off (or when the
+    // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
+    let shots = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** attempt : undefined, check);
-      transient = transientOf(stepper, periods + approach.periods, maxStep);
+      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check);
+      transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
         why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
         continue;
       }
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_ITERATIONS : undefined);
+      if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
+      shots++;
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
     }
@@ -340,7 +359,7 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, maxIterations?: number): RefinedOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}): RefinedOrbit | string {
   try {
     const { guess, fractions, trajectory, jacobian } = start();
     const period = guess.period;
@@ -350,7 +369,7 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, maxI
       relative: (c.singleGrid ? SAMPLE_ORBIT_SHARE : ORBIT_SHARE) * c.tolerances.lteRelative,
       corners: autonomous ? [] : cornersWithin(c.system, guess.t0, period),
       multipliers: true,
-      ...(maxIterations === undefined ? {} : { maxIterations }),
+      ...limits,
       ...(jacobian ? { jacobian } : {}),
       check: () => c.budget.check("during the steady state's shooting", c.analysis.span),
     };

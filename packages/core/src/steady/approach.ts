@@ -1,7 +1,7 @@
 import type { ProbeReader } from "../analyses/probes.js";
 import type { TransientStepper } from "../analyses/stepper.js";
 import { risingCrossings } from "../metrics/crossings.js";
-import { GrowableSeries } from "../analyses/growable.js";
+import { SampleWindow } from "./sample-window.js";
 
 /**
  * The swing counts as levelled off when it changes by less than a given fraction per period
@@ -18,20 +18,30 @@ const HYSTERESIS = 0.05;
 
 /** Where a short transient left the oscillation: the period measured on the probe, or why none. */
 export type Approach =
-  | { readonly kind: "oscillating"; readonly period: number; readonly periods: number }
+  | { readonly kind: "oscillating"; readonly period: number; readonly periods: number; readonly levelled: boolean }
   | { readonly kind: "died-out"; readonly periods: number };
 
 /**
  * Runs a transient towards the orbit, one guessed period at a time, watching the probe's swing
  * per period. It stops after `most` periods, or earlier (with `level`) once the swing has
  * levelled off: the shooting converges from there, so waiting out the slow end of the
- * settling buys nothing. The period is then measured from the last few rising crossings of
- * the probe through its mean; a swing that shrank to nothing means the oscillation died out.
+ * settling buys nothing. An amplitude loop's envelope can bounce (an overshoot, then a dip far
+ * below the orbit, where the swing lingers as if levelled), and Newton's method does not
+ * converge from there: once the swing has peaked, the bounce about the peak (from the dip
+ * before it, if any, to the dip after it, or to now) must be within the level too. The period is
+ * then measured from the last few rising crossings of the probe through its mean; a swing that
+ * shrank to nothing means the oscillation died out.
  */
 export class OrbitApproach {
-  private readonly time = new GrowableSeries(4096);
-  private readonly values = new GrowableSeries(4096);
+  /** The probe's samples over the last few guessed periods only (all the period's measurement reads). */
+  private readonly samples = new SampleWindow();
+  /** The swings of the last periods (the level and died-out criteria look no further back). */
   private readonly swings: number[] = [];
+  /** The swing at the envelope's last peak, and at the dips before and after it. */
+  private peak = NaN;
+  private before = NaN;
+  private dip = NaN;
+  private count = 0;
   private largest = 0;
 
   constructor(
@@ -41,15 +51,17 @@ export class OrbitApproach {
     /** e^(σT) − 1: the swing's relative growth per period while the circuit is linear. */
     private readonly linearGrowth: number,
   ) {
-    stepper.observe((t, x, dxdt) => {
-      this.time.push(t);
-      this.values.push(read(x, dxdt, t));
-    });
+    stepper.observe((t, x, dxdt) => this.samples.push(t, read(x, dxdt, t)));
   }
 
   /** Periods run so far. */
   get periods(): number {
-    return this.swings.length;
+    return this.count;
+  }
+
+  /** Probe samples held (bounded by the samples of a few periods, however long the approach). */
+  get samplesHeld(): number {
+    return this.samples.length;
   }
 
   /**
@@ -57,34 +69,37 @@ export class OrbitApproach {
    * period, when given) and says where that left the oscillation.
    */
   advance(most: number, level: number | undefined, check: () => void): Approach {
-    const end = this.swings.length + most;
-    while (this.swings.length < end) {
+    const end = this.count + most;
+    let levelled = false;
+    while (this.count < end) {
       check();
       const from = this.stepper.t;
       this.stepper.advance(from + this.guess);
-      this.swings.push(this.swingSince(from));
-      this.largest = Math.max(this.largest, this.swings[this.swings.length - 1]!);
+      this.record(this.samples.swingSince(from));
+      this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
-      if (level !== undefined && this.levelled(level)) break;
+      if (level !== undefined && (levelled = this.levelled(level))) break;
     }
-    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods };
+    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
   }
 
-  private swingSince(from: number): number {
-    const t = this.time.view();
-    const v = this.values.view();
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (let k = t.length - 1; k >= 0 && t[k]! >= from; k--) {
-      lo = Math.min(lo, v[k]!);
-      hi = Math.max(hi, v[k]!);
-    }
-    return hi > lo ? hi - lo : 0;
+  private record(swing: number): void {
+    this.count++;
+    this.largest = Math.max(this.largest, swing);
+    this.swings.push(swing);
+    if (this.swings.length > LEVEL_PERIODS + 1) this.swings.shift();
+    const [a, b, c] = this.swings.slice(-3);
+    // The envelope's turning points: a peak (the dip before it kept), or a dip.
+    if (c !== undefined && b! > a! && b! >= c) {
+      this.before = this.dip;
+      this.peak = b!;
+      this.dip = NaN;
+    } else if (c !== undefined && b! < a! && b! <= c) this.dip = b!;
   }
 
   private diedOut(): boolean {
     const last = this.swings[this.swings.length - 1] ?? 0;
-    return !(last > DIED_OUT * this.largest) || (this.swings.length > 2 * LEVEL_PERIODS && this.shrinking() && last < 0.01 * this.largest);
+    return !(last > DIED_OUT * this.largest) || (this.count > 2 * LEVEL_PERIODS && this.shrinking() && last < 0.01 * this.largest);
   }
 
   /** Every one of the last periods smaller than the one before. */
@@ -99,13 +114,16 @@ export class OrbitApproach {
     if (s.length <= LEVEL_PERIODS) return false;
     const change = Math.min(level, LEVEL_SHARE * this.linearGrowth);
     for (let k = s.length - LEVEL_PERIODS; k < s.length; k++) if (!(Math.abs(s[k]! / s[k - 1]! - 1) < change)) return false;
-    return true;
+    // After a peak of the envelope, its bounce (from the dip before it, down to the dip after it or to now) must be small too.
+    const last = s[s.length - 1]!;
+    const after = Number.isNaN(this.dip) ? last : this.dip;
+    return !(Math.abs(this.peak - after) >= level * last || Math.abs(this.peak - this.before) >= level * last);
   }
 
   /** The mean interval between the rising crossings of the last few guessed periods; the guess when there are too few. */
   private measuredPeriod(): number {
-    const t = this.time.view();
-    const v = this.values.view();
+    const t = this.samples.times();
+    const v = this.samples.values();
     const from = this.stepper.t - (LEVEL_PERIODS + 1) * this.guess;
     let sum = 0;
     let count = 0;

@@ -131,6 +131,8 @@ export function refineOrbit(
     readonly multipliers?: boolean;
     /** Largest number of periods each grid's shooting integrates. */
     readonly maxIterations?: number;
+    /** Periods after which a shooting making no headway gives up (see `ShootingOptions.giveUpAfter`). */
+    readonly giveUpAfter?: number;
     /** A Newton matrix to start the coarser grid's shooting from (a neighbouring orbit's). */
     readonly jacobian?: ShootingJacobian;
   } = {},
@@ -141,6 +143,7 @@ export function refineOrbit(
     ...(settings.relative === undefined ? {} : { relative: settings.relative }),
     ...(settings.check ? { check: settings.check } : {}),
     ...(settings.maxIterations === undefined ? {} : { maxIterations: settings.maxIterations }),
+    ...(settings.giveUpAfter === undefined ? {} : { giveUpAfter: settings.giveUpAfter }),
   };
   // The multipliers come from the run's own grid (a stability verdict and a rate, where the
   // grids differ in the fourth digit), at half the cost of the finer grid's.

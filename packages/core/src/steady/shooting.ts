@@ -45,6 +45,12 @@ export interface ShootingOptions {
   readonly autonomous: boolean;
   /** Largest number of periods integrated. @defaultValue 25 */
   readonly maxIterations?: number;
+  /**
+   * Periods after which a shooting whose mismatch never fell below its first one gives up (a
+   * start out of Newton's reach); with it, so does one whose first step would move the period by
+   * more than a fifth. @defaultValue never
+   */
+  readonly giveUpAfter?: number;
   /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
   readonly relative?: number;
   readonly tolerances?: Partial<Tolerances>;
@@ -109,6 +115,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
+  let first = Infinity;
+  let best = Infinity;
   const maxIterations = options.maxIterations ?? 25;
   const moveTo = (lambda: number) => {
     damping = lambda;
@@ -125,6 +133,11 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
     }
     if (options.autonomous) residual[n] = 0;
+    if (iteration === 1) first = mismatch;
+    else best = Math.min(best, mismatch);
+    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first)) {
+      throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+    }
     if (trial && !(mismatch < previous)) {
       if (!freshAtFrom) {
         // An updated matrix led astray: back to where the step started, with the Jacobian there.
@@ -173,7 +186,12 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     previous = mismatch;
     trial = true;
     // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
-    moveTo(options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
+    // (A first step that would move it further says the start is out of Newton's reach.)
+    const wild = options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T;
+    if (wild && iteration === 1 && options.giveUpAfter !== undefined) {
+      throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+    }
+    moveTo(wild ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   }
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
