@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { analysisOf, runBias, runStartup, runTransient, type Circuit } from "@onset/core";
+import { analysisOf, runBias, runStartup, runSteady, runTransient, type Circuit, type SteadyAnalysis } from "@onset/core";
 import { buildSystem } from "../../../packages/core/src/solver/system.js";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { implausibleOnOrbit, IMPLAUSIBLE_CURRENT, OperatingWatch } from "../../../packages/core/src/analyses/operating-check.js";
@@ -91,5 +91,31 @@ describe("implausible operating points", () => {
     const orbit = implausibleOnOrbit(system, [0, 0.5], [state(0.1), state(IMPLAUSIBLE_CURRENT * 2e-3)]);
     expect(orbit.find((w) => w.part === "R1")!.diagnostic.message).toBe("resistor R1 carries 2000 A at t = 500 ms on the steady orbit, far outside any physical operating point");
     expect(implausibleOnOrbit(system, [0], [state(0.1)]).find((w) => w.part === "R1")).toBeUndefined();
+  });
+
+  test("a steady analysis reports a part that reaches kiloamperes on its orbit (and none on an ordinary one)", () => {
+    // A 1 kHz sine of 2 kV peak across 1 Ω in parallel with an RC: 0 A at the bias point (the
+    // sine starts at 0), a 2 kA peak on the driven orbit (Ohm's law), at a quarter or three
+    // quarters of a period of the sources' time.
+    const text = (amp: string) => `vsource V1 a gnd wave=sine amp=${amp} freq=1k
+resistor R1 a gnd 1
+resistor R2 a o 1k
+capacitor C1 o gnd 100n
+steady probe=o
+`;
+    const circuit = build(text("2k"));
+    const r = runSteady(circuit, analysisOf(circuit, "steady") as SteadyAnalysis);
+    expect(r.found).toBe(true);
+    const warned = r.warnings.filter((w) => w.code === "implausible-operation");
+    expect(warned.map((w) => w.message.split(" ").slice(0, 2).join(" "))).toEqual(["vsource V1", "resistor R1"]);
+    const m = /^resistor R1 carries (\S+) A at t = (\S+) (\S?)s on the steady orbit, far outside any physical operating point$/.exec(warned[1]!.message);
+    expect(m).not.toBeNull();
+    expect(Math.abs(Number(m![1]))).toBeGreaterThan(1990);
+    expect(Math.abs(Number(m![1]))).toBeLessThanOrEqual(2000 * (1 + 1e-9));
+    const at = Number(m![2]) * ({ "": 1, m: 1e-3, µ: 1e-6 } as Record<string, number>)[m![3]!]!;
+    const phase = (at * 1e3) % 1;
+    expect(Math.min(Math.abs(phase - 0.25), Math.abs(phase - 0.75))).toBeLessThan(0.02);
+    const fine = build(text("2"));
+    expect(runSteady(fine, analysisOf(fine, "steady") as SteadyAnalysis).warnings.filter((w) => w.code === "implausible-operation")).toEqual([]);
   });
 });

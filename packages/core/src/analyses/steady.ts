@@ -9,7 +9,7 @@ import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { OrbitApproach } from "../steady/approach.js";
 import { modeOfPole } from "../steady/growing-mode.js";
-import { orbitMetrics, orbitWaveform } from "../steady/orbit-metrics.js";
+import { orbitMetrics, orbitRates, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
@@ -19,6 +19,7 @@ import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, periodicDrives } from "./excitation.js";
 import { budgetOf, isRunLimitError, type RunBudget } from "./limits.js";
 import { linearize } from "./linearize.js";
+import { implausibleOnOrbit } from "./operating-check.js";
 import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { probeReader, probeUnit, probeWeights, type ProbeReader } from "./probes.js";
@@ -472,9 +473,14 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
         : "marginal: its largest multiplier lies on the unit circle";
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
   c.onOrbit?.(orbit);
+  const times = orbitTimes(orbit.orbit);
+  const { states, start } = orbit.orbit;
+  const at = times.map((t) => start.t0 + t);
+  const implausible = implausibleOnOrbit(c.system, at, states, orbitRates(times, states, c.system.n)).map((w) => w.diagnostic);
   return {
     analysis: "steady",
     ...common,
+    warnings: [...common.warnings, ...implausible],
     found: true,
     explanation: `${what}; ${how}`,
     frequency: orbit.frequency,
@@ -494,3 +500,4 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
     waveform: orbitWaveform(orbit.orbit, c.read),
   };
 }
+

@@ -24,7 +24,7 @@ export interface OrbitMetrics {
  * The unknowns' rates at the grid points of a periodic orbit: the derivative of the quadratic
  * through each point and its two neighbours (wrapping around the period), second order on any grid.
  */
-function orbitRates(times: Float64Array, states: readonly Float64Array[], n: number): Float64Array[] {
+export function orbitRates(times: Float64Array, states: readonly Float64Array[], n: number): Float64Array[] {
   const N = times.length - 1;
   const T = times[N]! - times[0]!;
   return states.map((_, k) => {
@@ -44,14 +44,19 @@ function orbitRates(times: Float64Array, states: readonly Float64Array[], n: num
   });
 }
 
+/** The times of the orbit's grid points from its start (step k is fractions[k]·T; the last is T exactly). */
+export function orbitTimes(orbit: PeriodicOrbit): Float64Array {
+  const N = orbit.fractions.length;
+  const times = new Float64Array(N + 1);
+  for (let k = 0; k < N; k++) times[k + 1] = times[k]! + orbit.fractions[k]! * orbit.start.period;
+  times[N] = orbit.start.period;
+  return times;
+}
+
 /** The probe over one period of the orbit: times from the orbit's start, and values. */
 export function orbitWaveform(orbit: PeriodicOrbit, read: ProbeReader): { time: Float64Array; values: Float64Array } {
-  const { states, fractions } = orbit;
-  const T = orbit.start.period;
-  const N = fractions.length;
-  const time = new Float64Array(N + 1);
-  for (let k = 0; k < N; k++) time[k + 1] = time[k]! + fractions[k]! * T;
-  time[N] = T;
+  const { states } = orbit;
+  const time = orbitTimes(orbit);
   const rates = orbitRates(time, states, states[0]!.length);
   const values = Float64Array.from(states, (x, k) => read(x, rates[k]!, orbit.start.t0 + time[k]!));
   return { time, values };
@@ -64,12 +69,10 @@ export function orbitWaveform(orbit: PeriodicOrbit, read: ProbeReader): { time: 
  * harmonics come from its uniform resampling over exactly one period.
  */
 export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number, corners: readonly number[] = []): OrbitMetrics {
-  const { states, fractions } = orbit;
+  const { states } = orbit;
   const T = orbit.start.period;
-  const N = fractions.length;
-  const times = new Float64Array(N + 1);
-  for (let k = 0; k < N; k++) times[k + 1] = times[k]! + fractions[k]! * T;
-  times[N] = T;
+  const N = orbit.fractions.length;
+  const times = orbitTimes(orbit);
   const n = states[0]!.length;
   const rates = orbitRates(times, states, n);
   const t = new Float64Array(N + 3);
