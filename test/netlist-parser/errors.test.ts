@@ -87,10 +87,10 @@ const cases: readonly Case[] = [
     code: "too-deep",
     source: "resistor R1 a gnd ((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((1))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))",
     expected: [
-      "t.onset:1:83: error: brackets nest deeper than 64 levels",
+      "t.onset:1:83: error: brackets nest deeper than 64 levels, past the expression-depth limit",
       "  resistor R1 a gnd ((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((((1))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))))",
       "                                                                                    ^",
-      "hint: split the expression with param lines",
+      "hint: split the expression with param lines, or raise the limit with --limit expression-depth=128 (API: limits.maxExpressionDepth)",
     ].join("\n"),
   },
   {

@@ -13,7 +13,7 @@ function chain(n: number): Record<string, string> {
 
 describe("source limits (the defaults are documented in docs/language.md, Limits)", () => {
   test("the defaults", () => {
-    expect(SOURCE_LIMITS).toEqual({ maxSourceBytes: 4_000_000, maxIncludeDepth: 16, maxSourceFiles: 100, maxDiagnostics: 100, maxUseDepth: 64, maxParts: 250_000 });
+    expect(SOURCE_LIMITS).toEqual({ maxSourceBytes: 4_000_000, maxIncludeDepth: 16, maxSourceFiles: 100, maxDiagnostics: 100, maxUseDepth: 64, maxParts: 250_000, maxExpressionDepth: 64, maxOperators: 2000, maxParameterDepth: 256 });
   });
 
   test("includes may nest as deep as the limit, and one more is a positioned include-too-deep at its path", () => {

@@ -33,11 +33,12 @@ import { decodeNumber as decodeNumberInner, type NumberLiteral, type NumberProbl
 // The package's public functions, each checking its arguments before the function behind it
 // (which trusts them): what they cannot take is an OnsetError `bad-argument` (docs/language.md §6).
 
-/** Parses one file (syntax only); problems are diagnostics, collected per statement. */
-export function parseText(text: string, file: string): { program: Program; diagnostics: Diagnostic[] } {
+/** Parses one file (syntax only); problems are diagnostics, collected per statement. `limits` bound its expressions (see {@link SourceLimits}). */
+export function parseText(text: string, file: string, limits: SourceLimits = {}): { program: Program; diagnostics: Diagnostic[] } {
   checkText("parseText", "text", text);
   checkText("parseText", "file", file);
-  return parseTextInner(text, file);
+  checkOptionsObject("parseText", "limits", limits);
+  return parseTextInner(text, file, sourceLimitsInner(limits));
 }
 
 /** The tokens, comments and lexical problems of one file. */

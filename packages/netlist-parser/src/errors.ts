@@ -35,6 +35,14 @@ export function raise(code: string, message: string, span: SourceSpan | undefine
 }
 
 /** The diagnostic a caught value carries: a raised problem, or an `OnsetError` from a device model. */
+/**
+ * True for the engine's "Maximum call stack size exceeded": a raised depth limit let recursion
+ * run past the stack. No regular expression: compiling one this close to the stack's end fails.
+ */
+export function isStackOverflow(e: unknown): boolean {
+  return e instanceof RangeError && e.message.includes("call stack");
+}
+
 export function raisedDiagnostic(e: unknown): Diagnostic | undefined {
   if (e instanceof RaisedProblem) return e.diagnostic;
   if (e instanceof OnsetError) return e.diagnostic.stage === "input" ? e.diagnostic : { ...e.diagnostic, stage: "input" };

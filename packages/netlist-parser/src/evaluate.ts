@@ -1,5 +1,5 @@
 import { didYouMean, type SourceSpan } from "@onset/core";
-import { raise } from "./errors.js";
+import { isStackOverflow, raise } from "./errors.js";
 import { formatSI } from "./format-number.js";
 import type { Expr, Span } from "./syntax.js";
 
@@ -36,6 +36,17 @@ function at(ctx: EvalContext, span: Span): SourceSpan {
  * a plain hundredth and allowed).
  */
 export function evaluate(expr: Expr, ctx: EvalContext): number {
+  try {
+    return evaluateNode(expr, ctx);
+  } catch (e) {
+    if (!isStackOverflow(e)) throw e;
+    return raise("too-deep", "the expression is too deep to evaluate within this machine's stack", at(ctx, expr.span), {
+      hint: "split the expression with param lines (or lower a raised operators or parameter-depth limit)",
+    });
+  }
+}
+
+function evaluateNode(expr: Expr, ctx: EvalContext): number {
   switch (expr.kind) {
     case "number": {
       const l = expr.literal;
@@ -56,20 +67,20 @@ export function evaluate(expr: Expr, ctx: EvalContext): number {
       return ctx.param(expr.name, at(ctx, expr.span));
     }
     case "unary":
-      return -evaluate(expr.operand, ctx);
+      return -evaluateNode(expr.operand, ctx);
     case "group": {
       if (expr.items.length !== 1) {
         raise("unexpected-list", `a list of ${expr.items.length} items cannot be used as a number`, at(ctx, expr.span), {
           hint: "commas separate list items; inside an expression use one value per ( )",
         });
       }
-      return evaluate(expr.items[0]!, ctx);
+      return evaluateNode(expr.items[0]!, ctx);
     }
     case "call":
       return call(expr, ctx);
     case "binary": {
-      const a = evaluate(expr.left, ctx);
-      const b = evaluate(expr.right, ctx);
+      const a = evaluateNode(expr.left, ctx);
+      const b = evaluateNode(expr.right, ctx);
       let r: number;
       switch (expr.op) {
         case "+":
@@ -113,7 +124,7 @@ function call(expr: Extract<Expr, { kind: "call" }>, ctx: EvalContext): number {
       hint: `write ${name}(x)`,
     });
   }
-  const args = expr.args.map((a) => evaluate(a, ctx));
+  const args = expr.args.map((a) => evaluateNode(a, ctx));
   const r = f(...args);
   if (!Number.isFinite(r)) {
     raise("math-error", `${name}(${args.map(formatSI).join(", ")}) is not a finite real number`, at(ctx, expr.span), {

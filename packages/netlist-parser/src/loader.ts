@@ -61,7 +61,7 @@ export function loadProgram(file: string, text: string, resolver?: IncludeResolv
   const load = (name: string, source: string, chain: readonly string[]): Program => {
     sources.set(name, source);
     done.add(name);
-    const parsed = parseText(source, name);
+    const parsed = parseText(source, name, max);
     diagnostics.push(...parsed.diagnostics);
     const statements = parsed.program.statements.map((s): Statement => (s.kind === "include" ? follow(s, name, [...chain, name]) : s));
     return { ...parsed.program, statements };

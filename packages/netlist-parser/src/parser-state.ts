@@ -2,11 +2,13 @@ import type { Diagnostic, SourceSpan } from "@onset/core";
 import { raise, type ProblemExtra } from "./errors.js";
 import type { Span } from "./syntax.js";
 import { describeToken, type Token, type TokenKind } from "./tokens.js";
+import { raiseHint, SOURCE_LIMITS } from "./source-limits.js";
 
-/** Nesting deeper than this is reported instead of recursing further. */
-const MAX_DEPTH = 64;
-/** Operators one statement may hold; bounds the depth of the trees that evaluation walks. */
-const MAX_OPERATORS = 2000;
+/** What bounds the parser's recursion: bracket depth, and operators per statement (see `SourceLimits`). */
+export interface ExpressionLimits {
+  readonly maxExpressionDepth: number;
+  readonly maxOperators: number;
+}
 
 /** All the parser's state: the tokens, where it is, and what it has reported. */
 export class ParserState {
@@ -18,6 +20,7 @@ export class ParserState {
   constructor(
     readonly tokens: readonly Token[],
     readonly file: string,
+    private readonly limits: ExpressionLimits = SOURCE_LIMITS,
   ) {}
 
   peek(ahead = 0): Token {
@@ -63,7 +66,8 @@ export class ParserState {
 
   /** Guards recursion in nested brackets and expressions. */
   nested<T>(where: Token, work: () => T): T {
-    if (this.depth >= MAX_DEPTH) this.fail("too-deep", `brackets nest deeper than ${MAX_DEPTH} levels`, where, { hint: "split the expression with param lines" });
+    const max = this.limits.maxExpressionDepth;
+    if (this.depth >= max) this.fail("too-deep", `brackets nest deeper than ${max} levels, past the expression-depth limit`, where, { hint: `split the expression with param lines, or ${raiseHint("maxExpressionDepth", String(2 * max))}` });
     this.depth++;
     try {
       return work();
@@ -74,7 +78,8 @@ export class ParserState {
 
   /** Counts one binary operator of the current statement; too many is reported. */
   operator(where: Token): void {
-    if (++this.operators > MAX_OPERATORS) this.fail("too-deep", `the statement holds more than ${MAX_OPERATORS} operators`, where, { hint: "split the expression with param lines" });
+    const max = this.limits.maxOperators;
+    if (++this.operators > max) this.fail("too-deep", `the statement holds more than ${max} operators, past the operators limit`, where, { hint: `split the expression with param lines, or ${raiseHint("maxOperators", String(2 * max))}` });
   }
 
   /** Starts the budget of a new statement. */

@@ -1,8 +1,9 @@
 import { didYouMean, partKinds, type Diagnostic, type PartKindSchema } from "@onset/core";
-import { raisedDiagnostic } from "./errors.js";
+import { isStackOverflow, raisedDiagnostic } from "./errors.js";
 import { EACH, isAnalysisKeyword, statementWords } from "./keywords.js";
 import { tokenize } from "./lexer.js";
-import { ParserState, cover, sp } from "./parser-state.js";
+import { ParserState, cover, sp, type ExpressionLimits } from "./parser-state.js";
+import { SOURCE_LIMITS } from "./source-limits.js";
 import { atOption, atValueStart, parseKey, parseOption, parseOptions, parseValue } from "./parse-values.js";
 import type {
   AnalysisArg,
@@ -22,9 +23,9 @@ import { describeToken, type Token } from "./tokens.js";
 import { madeProgram } from "./arguments.js";
 
 /** Parses one file. Problems are collected per statement, so every independent error is reported. */
-export function parseText(text: string, file: string): { program: Program; diagnostics: Diagnostic[] } {
+export function parseText(text: string, file: string, limits: ExpressionLimits = SOURCE_LIMITS): { program: Program; diagnostics: Diagnostic[] } {
   const lexed = tokenize(text, file);
-  const state = new ParserState(lexed.tokens, file);
+  const state = new ParserState(lexed.tokens, file, limits);
   const statements = parseStatements(state, undefined);
   const diagnostics = [...lexed.diagnostics, ...state.diagnostics].sort((a, b) => (a.span?.start ?? 0) - (b.span?.start ?? 0));
   return { program: madeProgram({ file, text, statements, comments: lexed.comments }), diagnostics };
@@ -51,6 +52,7 @@ function parseStatements(state: ParserState, block: Token | undefined): Statemen
     }
     if (block && t.kind === "name" && t.text === "end") return statements;
     state.startStatement();
+    const first = t;
     try {
       const statement = parseStatement(state, block !== undefined);
       if (statement) statements.push(statement);
@@ -61,12 +63,24 @@ function parseStatements(state: ParserState, block: Token | undefined): Statemen
         });
       }
     } catch (e) {
-      const d = raisedDiagnostic(e);
+      const d = raisedDiagnostic(e) ?? (isStackOverflow(e) ? tooDeepForStack(state, first) : undefined);
       if (!d) throw e;
       state.diagnostics.push(d);
       state.skipStatement();
     }
   }
+}
+
+/** A statement whose nesting, within a raised expression-depth limit, ran past the stack. */
+function tooDeepForStack(state: ParserState, first: Token): Diagnostic {
+  return {
+    severity: "error",
+    stage: "input",
+    code: "too-deep",
+    message: "the statement nests too deep to parse within this machine's stack",
+    span: state.span(first),
+    hint: "split the expression with param lines (or lower a raised expression-depth limit)",
+  };
 }
 
 function unclosedBlock(state: ParserState, block: Token): Diagnostic {

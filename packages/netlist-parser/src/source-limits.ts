@@ -36,6 +36,21 @@ export interface SourceLimits {
    * @defaultValue 250 000
    */
   readonly maxParts?: number;
+  /**
+   * How deep brackets (and function calls) nest in one expression.
+   * @defaultValue 64
+   */
+  readonly maxExpressionDepth?: number;
+  /**
+   * Binary operators in one statement (they bound the depth of the trees evaluation walks).
+   * @defaultValue 2000
+   */
+  readonly maxOperators?: number;
+  /**
+   * Longest chain of parameters reading parameters.
+   * @defaultValue 256
+   */
+  readonly maxParameterDepth?: number;
 }
 
 /** The default {@link SourceLimits}. */
@@ -46,6 +61,9 @@ export const SOURCE_LIMITS: Readonly<Required<SourceLimits>> = {
   maxDiagnostics: 100,
   maxUseDepth: 64,
   maxParts: 250_000,
+  maxExpressionDepth: 64,
+  maxOperators: 2000,
+  maxParameterDepth: 256,
 };
 
 /** The command-line name of each source limit (`--limit source-size=10M`). */
@@ -56,6 +74,9 @@ export const SOURCE_LIMIT_FLAGS: Readonly<Record<keyof SourceLimits, string>> = 
   maxDiagnostics: "diagnostics",
   maxUseDepth: "use-depth",
   maxParts: "parts",
+  maxExpressionDepth: "expression-depth",
+  maxOperators: "operators",
+  maxParameterDepth: "parameter-depth",
 };
 
 /** How to raise a source limit, from the command line and the API. */

@@ -7,9 +7,7 @@ import { unitName } from "../units.js";
 import { checkUnit, isIn, type NumberExpectation, type RangeRule } from "./value-checks.js";
 import { spanIn, type Located, type ProgramIndex } from "./index-program.js";
 import type { ParamEntry, Scope, ToleranceBand } from "./scope.js";
-
-/** Longest chain of parameters reading parameters; bounds the evaluator's recursion. */
-const MAX_PARAM_DEPTH = 256;
+import { raiseHint, SOURCE_LIMITS } from "../source-limits.js";
 
 /** `--set` values by override name. */
 export type Overrides = Readonly<Record<string, string | number>>;
@@ -69,6 +67,8 @@ export class Elaboration {
   constructor(
     readonly index: ProgramIndex,
     overrides: Overrides,
+    /** Longest chain of parameters reading parameters; bounds the evaluator's recursion. */
+    private readonly maxParameterDepth: number = SOURCE_LIMITS.maxParameterDepth,
   ) {
     for (const [k, v] of Object.entries(overrides)) this.overrides.set(k, { raw: v, used: false });
   }
@@ -227,8 +227,10 @@ export class Elaboration {
       case "busy":
         raise("param-cycle", `parameter '${entry.name}' depends on itself`, entry.span, { hint: "a parameter's expression cannot use it, directly or through others" });
     }
-    if (this.evaluating.length >= MAX_PARAM_DEPTH) {
-      raise("too-deep", `parameters depend on each other more than ${MAX_PARAM_DEPTH} levels deep`, entry.span, { hint: "shorten the chain of parameters" });
+    if (this.evaluating.length >= this.maxParameterDepth) {
+      raise("too-deep", `parameters depend on each other more than ${this.maxParameterDepth} levels deep, past the parameter-depth limit`, entry.span, {
+        hint: `shorten the chain of parameters, or ${raiseHint("maxParameterDepth", String(2 * this.maxParameterDepth))}`,
+      });
     }
     entry.state = "busy";
     this.evaluating.push(entry);

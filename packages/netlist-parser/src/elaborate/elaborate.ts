@@ -16,10 +16,11 @@ import type { SourceLimits } from "../source-limits.js";
 /** The full state after elaborating, for the checker and `overrideTargets`. */
 export function runElaboration(program: Program, overrides: Overrides, given?: SourceLimits): { ctx: Elaboration; analyses: AnalysisSpec[] } {
   const index = indexProgram(program);
-  const ctx = new Elaboration(index, overrides);
+  const limits = limitsOfProgram(program, given);
+  const ctx = new Elaboration(index, overrides, limits.maxParameterDepth);
   ctx.diagnostics.push(...index.diagnostics);
   // Flattening recurses once per level of use lines: their depth (and the parts they make) is checked first, without recursion.
-  const nesting = useNestingProblem(index, limitsOfProgram(program, given));
+  const nesting = useNestingProblem(index, limits);
   if (nesting) {
     ctx.diagnostics.push(nesting);
     return { ctx, analyses: [] };
