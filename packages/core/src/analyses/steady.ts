@@ -49,7 +49,7 @@ const SAMPLE_ORBIT_SHARE = 1e-1;
  * swing down within a few periods while a small one grows only at the poles' slow rate.
  */
 const KICK_SHARE = 1;
-/** The second start's swing, as a fraction of the first's (see `runSteady`). */
+/** The second start's swing, as a share of the amplifiers' half range, whatever the first kick (see `runSteady`). */
 const SMALL_KICK_SHARE = 1e-3;
 /** The first shooting waits until the swing changes by less than this fraction per period… */
 const FIRST_LEVEL = 0.1;
@@ -265,7 +265,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
-  for (const share of [kick, kick * SMALL_KICK_SHARE]) {
+  for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
