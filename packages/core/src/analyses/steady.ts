@@ -1,5 +1,6 @@
 import type { Circuit, SteadyAnalysis, StartupAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
+import { badArgument } from "../circuit/arguments.js";
 import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
@@ -49,7 +50,7 @@ const SAMPLE_ORBIT_SHARE = 1e-1;
  * swing down within a few periods while a small one grows only at the poles' slow rate.
  */
 const KICK_SHARE = 1;
-/** The second start's swing, as a fraction of the first's (see `runSteady`). */
+/** The second start's swing, as a share of the amplifiers' half range, whatever the first kick (see `runSteady`). */
 const SMALL_KICK_SHARE = 1e-3;
 /** The first shooting waits until the swing changes by less than this fraction per period… */
 const FIRST_LEVEL = 0.1;
@@ -142,6 +143,12 @@ export interface SteadyOptions extends RunOptions {
    * run goes on as without it.
    */
   readonly seed?: OrbitSeed;
+  /**
+   * The growing mode's first kick: its largest node's swing as a share of the amplifiers' half
+   * output range (default 1, see `KICK_SHARE`). The orbit found does not depend on it (a test
+   * checks two kicks against each other); it only moves the transient before the shooting.
+   */
+  readonly kick?: number;
 }
 
 /** A converged orbit handed to a neighbouring circuit's shooting: plain data, so it can be posted to a worker thread. */
@@ -187,6 +194,8 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
 }
 
 function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
+  const kick = options.kick ?? KICK_SHARE;
+  if (!(kick > 0 && Number.isFinite(kick))) throw badArgument(`runSteady: options.kick must be a positive number, got ${String(kick)}`);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
@@ -257,7 +266,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
-  for (const share of [KICK_SHARE, SMALL_KICK_SHARE]) {
+  for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
