@@ -3,16 +3,25 @@ import { Worker } from "node:worker_threads";
 import { runLimitError, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
 import type { Job, JobResult, SeedOutcome } from "./jobs.js";
 import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
-import type { SampleOutcome } from "./sample.js";
+import type { Circuit } from "../circuit/circuit.js";
+import type { SampleOutcome, SampleSettings } from "./sample.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
 
-/** What a worker is sent: one job and the limits it runs within (the wall time as what is left). */
+/**
+ * A job as posted: a sample's settings, one object shared by every sample of a study (with the
+ * nominal's orbit in it), go to each worker once and are named by a number afterwards.
+ */
+export type PostedJob = Exclude<Job, { readonly kind: "sample" }> | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: number };
+
+/** What a worker is sent: one job, the limits it runs within (the wall time as what is left), and settings it has not seen yet. */
 export interface WorkerRequest {
-  readonly job: Job;
+  readonly job: PostedJob;
   readonly limits: WorkerLimits;
+  /** Settings the job (or a later one) names by `id`. */
+  readonly settings?: { readonly id: number; readonly value: SampleSettings };
 }
 
 /** A worker's answer: the job's outcome, or the limit that stopped it. */
@@ -89,10 +98,24 @@ function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): Job
   const left = budget.remaining();
   if (left !== Infinity) timer = setTimeout(stopByBudget, Math.max(0, left * 1000));
   timer?.unref?.();
+  const settingsIds = new Map<SampleSettings, number>();
+  const sent = new Map<Worker, Set<number>>();
   const dispatch = (worker: Worker, job: Job, pending: Pending) => {
     busy.set(worker, pending);
-    const request: WorkerRequest = { job, limits: budget.forWorker() };
-    worker.postMessage(request);
+    const limits = budget.forWorker();
+    if (job.kind !== "sample") {
+      worker.postMessage({ job, limits } satisfies WorkerRequest);
+      return;
+    }
+    let id = settingsIds.get(job.settings);
+    if (id === undefined) settingsIds.set(job.settings, (id = settingsIds.size));
+    const known = sent.get(worker)!;
+    const posted = { kind: "sample" as const, circuit: job.circuit, settings: id };
+    if (known.has(id)) worker.postMessage({ job: posted, limits } satisfies WorkerRequest);
+    else {
+      known.add(id);
+      worker.postMessage({ job: posted, limits, settings: { id, value: job.settings } } satisfies WorkerRequest);
+    }
   };
   for (let k = 0; k < jobs; k++) {
     const worker = new Worker(entry, { execArgv });
@@ -112,6 +135,7 @@ function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): Job
     // A worker that fails outside a job leaves the call without it: stop rather than wait.
     worker.on("error", (error) => stop(error));
     workers.push(worker);
+    sent.set(worker, new Set());
     idle.push(worker);
   }
   return {
