@@ -12,7 +12,7 @@ function received(job: PostedJob): Job {
   if (job.kind !== "sample") return job;
   const settings = settingsById.get(job.settings);
   if (!settings) throw new Error(`worker: a sample named settings ${job.settings}, which it was never sent`);
-  return { kind: "sample", circuit: job.circuit, settings };
+  return { kind: "sample", circuit: job.circuit, settings, ...(job.start ? { start: job.start } : {}) };
 }
 
 parentPort?.on("message", ({ job, limits, settings }: WorkerRequest) => {

@@ -3,6 +3,7 @@ import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
+import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
@@ -12,7 +13,7 @@ import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
-import { shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
+import { periodMismatch, shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -170,6 +171,26 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
     seed = { x: orbit.start.x, period: orbit.start.period, fractions: orbit.fractions, states: orbit.states, matrix: Float64Array.from(matrix), phase };
   });
   return result.found && result.kind === "autonomous" ? seed : null;
+}
+
+/**
+ * How far a seed's start (x₀, T) moves for a neighbouring circuit, to first order: the Newton
+ * step −M⁻¹·[φ(x₀) − x₀; 0] with the seed's own matrix M and one period of the neighbour's map
+ * φ from the seed's orbit (n + 1 values, T last); null when the neighbour's unknowns differ.
+ */
+export function seedStep(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions = {}): Float64Array | null {
+  const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
+  const system = buildSystem(neighbour, options.extraParts);
+  const n = seed.x.length;
+  if (system.n !== n) return null;
+  const start = { t0: 0, x: seed.x, period: seed.period };
+  const residual = new Float64Array(n + 1);
+  residual.set(periodMismatch(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative }));
+  const lu = new LuSolver(n + 1);
+  if (!lu.factor(seed.matrix)) return null;
+  const step = new Float64Array(n + 1);
+  lu.solveNegated(residual, step);
+  return step;
 }
 
 function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {

@@ -154,10 +154,12 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // Newton's update is the distance to the orbit (the residual alone understates it by
     // 1/(1 − μ) when the orbit attracts slowly, μ the multiplier nearest 1): once it is within
     // the tolerance, this period's states are the orbit, and the update only sharpens x₀ and T.
+    // The residual must be within it too: an update from a secant-updated matrix can understate
+    // the distance (a mismatch of several tolerances with an update below one).
     let size = 0;
     for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
     if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
-    if (size <= 1) {
+    if (size <= 1 && mismatch <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
       const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
@@ -179,6 +181,16 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
   });
+}
+
+/**
+ * x_N − x₀ over one period from `start` (the periodicity condition's residual), with the map's
+ * Newton held as tightly as {@link shootOrbit} holds it for the same `relative`.
+ */
+export function periodMismatch(system: MnaSystem, start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[], options: Pick<ShootingOptions, "relative" | "tolerances">): Float64Array {
+  const map = new PeriodicMap(system, innerTolerances(resolveTolerances(options.tolerances), options.relative ?? 1e-9));
+  const end = map.run(start, fractions, predictor, false).x;
+  return Float64Array.from(end, (v, i) => v - start.x[i]!);
 }
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */

@@ -5,6 +5,7 @@ import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
 import { hasMeasure, nothingToMeasure } from "./study-size.js";
 import { nominalSeed } from "./steady-sample.js";
+import { predictedStart, seedPredictor, type SeedPredictor } from "./seed-predictor.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
 import type { SampleSettings } from "./sample.js";
@@ -97,14 +98,15 @@ export async function runToleranceStudy(
   let next = 0;
   // One lane per worker keeps each busy; in this thread a lane yields between samples so
   // progress can be drawn and results written as they finish.
-  const lane = async (settings: SampleSettings) => {
+  const lane = async (settings: SampleSettings, predictor: SeedPredictor | undefined) => {
     while (next < indices.length) {
       budget.check("between samples");
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
       if (!hasMeasure(circuit, analysis)) throw nothingToMeasure(analysis);
-      const outcome = await pool.run({ kind: "sample", circuit, settings });
+      const start = predictor && settings.seed ? predictedStart(settings.seed, predictor, drawn) : undefined;
+      const outcome = await pool.run({ kind: "sample", circuit, settings, ...(start ? { start } : {}) });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);
       options.onSample?.(sample);
@@ -120,7 +122,8 @@ export async function runToleranceStudy(
       ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}),
       ...(seed ? { seed } : {}),
     };
-    await Promise.all(Array.from({ length: pool.jobs }, () => lane(settings)));
+    const predictor = seed ? seedPredictor(build, options.fixed, drawnAround, seed, { ...(options.tolerances ? { tolerances: options.tolerances } : {}), budget }) : undefined;
+    await Promise.all(Array.from({ length: pool.jobs }, () => lane(settings, predictor)));
   } finally {
     await pool.close();
   }

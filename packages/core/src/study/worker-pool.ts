@@ -5,6 +5,7 @@ import type { Job, JobResult, SeedOutcome } from "./jobs.js";
 import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
 import type { Circuit } from "../circuit/circuit.js";
 import type { SampleOutcome, SampleSettings } from "./sample.js";
+import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
@@ -14,7 +15,7 @@ const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "-
  * A job as posted: a sample's settings, one object shared by every sample of a study (with the
  * nominal's orbit in it), go to each worker once and are named by a number afterwards.
  */
-export type PostedJob = Exclude<Job, { readonly kind: "sample" }> | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: number };
+export type PostedJob = Exclude<Job, { readonly kind: "sample" }> | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: number; readonly start?: SeedStart };
 
 /** What a worker is sent: one job, the limits it runs within (the wall time as what is left), and settings it has not seen yet. */
 export interface WorkerRequest {
@@ -110,7 +111,7 @@ function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): Job
     let id = settingsIds.get(job.settings);
     if (id === undefined) settingsIds.set(job.settings, (id = settingsIds.size));
     const known = sent.get(worker)!;
-    const posted = { kind: "sample" as const, circuit: job.circuit, settings: id };
+    const posted = { kind: "sample" as const, circuit: job.circuit, settings: id, ...(job.start ? { start: job.start } : {}) };
     if (known.has(id)) worker.postMessage({ job: posted, limits } satisfies WorkerRequest);
     else {
       known.add(id);
