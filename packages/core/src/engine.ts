@@ -53,6 +53,8 @@ export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } fro
 export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";
 export { recordPeriod, refineOrbit } from "./steady/refine.js";
+export { predictedStart, seedPredictor } from "./study/seed-predictor.js";
+export type { SeedPredictor, SeedStart } from "./study/seed-predictor.js";
 export type { NumericalError, RefinedOrbit } from "./steady/refine.js";
 
 // Noise sources and random streams
