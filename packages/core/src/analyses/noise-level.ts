@@ -73,26 +73,11 @@ function frequencyGrid(corner: number, poles: readonly Pole[]): Float64Array {
  * oscillation starts from (the variance ∫₀^∞ e^(−2σt)·N dt of the noise its mode collects).
  */
 export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: readonly NoiseGenerator[], corner: number, poles: readonly Pole[]): number {
-  const { n, G, C } = ss;
+  const { n } = ss;
   if (generators.length === 0 || n === 0) return 0;
   const n2 = 2 * n;
-  // The real form of (G + jωC)ᵀ has the same nonzeros at every frequency: a sparse LU on that
-  // pattern keeps a large circuit's hundreds of solves cheap.
-  const pattern = new Uint8Array(n2 * n2);
-  for (let i = 0; i < n; i++) {
-    pattern[i * n2 + i] = 1;
-    pattern[(n + i) * n2 + n + i] = 1;
-    for (let j = 0; j < n; j++) {
-      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
-        pattern[i * n2 + j] = 1;
-        pattern[i * n2 + n + j] = 1;
-        pattern[(n + i) * n2 + j] = 1;
-        pattern[(n + i) * n2 + n + j] = 1;
-      }
-    }
-  }
   const lu = new LuSolver(n2, { compile: false });
-  lu.setPattern(pattern);
+  if (n > DENSE_UNKNOWNS) lu.setPattern(sparsityOf(ss));
   const m = new Float64Array(n2 * n2);
   const rhs = new Float64Array(n2);
   const y = new Float64Array(n2);
@@ -136,4 +121,31 @@ export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: rea
     if (Number.isFinite(a) && Number.isFinite(b)) total += 0.5 * (a + b) * (grid[k]! - grid[k - 1]!);
   }
   return Math.sqrt(total);
+}
+
+/**
+ * Up to this many unknowns the real form (2n × 2n) is factored dense: ordering it sparse afresh
+ * at every call costs more than the sparse solves save (measured on the examples, n = 6…14:
+ * dense twice as fast). A large circuit's hundreds of solves stay sparse.
+ */
+const DENSE_UNKNOWNS = 16;
+
+/** The nonzeros of the real form of (G + jωC)ᵀ, the same at every frequency. */
+function sparsityOf(ss: SmallSignal): Uint8Array {
+  const { n, G, C } = ss;
+  const n2 = 2 * n;
+  const pattern = new Uint8Array(n2 * n2);
+  for (let i = 0; i < n; i++) {
+    pattern[i * n2 + i] = 1;
+    pattern[(n + i) * n2 + n + i] = 1;
+    for (let j = 0; j < n; j++) {
+      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
+        pattern[i * n2 + j] = 1;
+        pattern[i * n2 + n + j] = 1;
+        pattern[(n + i) * n2 + j] = 1;
+        pattern[(n + i) * n2 + n + j] = 1;
+      }
+    }
+  }
+  return pattern;
 }
