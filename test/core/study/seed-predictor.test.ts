@@ -1,6 +1,7 @@
-// Issue 15: a steady study's samples start their shooting from the nominal's orbit moved to first
-// order in each drawn value (mathematics: Taylor's theorem; the remainder is second order in the
-// move, so the predicted start lies nearer the sample's orbit than the nominal's start does).
+// Issue 15: a steady study's samples start their shooting from the nominal's orbit, and with its
+// Newton matrix, moved to first order in each drawn value (mathematics: Taylor's theorem; the
+// remainder is second order in the move, so the predicted start lies nearer the sample's orbit
+// than the nominal's start does).
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, test } from "vitest";
@@ -27,6 +28,7 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     const start = predictedStart(seed, predictor, at);
     expect(start.period).toBe(seed.period);
     expect(Array.from(start.x)).toEqual(Array.from(seed.x));
+    expect(Array.from(start.matrix)).toEqual(Array.from(predictor.matrix));
   });
 
   test.each([0, 1, 2, 3, 4])("sample %d: the predicted period lies nearer the sample's own than the nominal's, and shooting from it finds the same orbit", (index) => {

@@ -3,7 +3,6 @@ import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
-import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
@@ -13,7 +12,7 @@ import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
-import { periodMismatch, shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
+import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -174,23 +173,16 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
 }
 
 /**
- * How far a seed's start (x₀, T) moves for a neighbouring circuit, to first order: the Newton
- * step −M⁻¹·[φ(x₀) − x₀; 0] with the seed's own matrix M and one period of the neighbour's map
- * φ from the seed's orbit (n + 1 values, T last); null when the neighbour's unknowns differ.
+ * One period of a neighbouring circuit's map (a study's sample, or the nominal with one value
+ * moved) on a seed's grid, from `start` (the seed's own start by default), held as tightly as a
+ * seeded sample's shooting: see `periodAt`. Null when the neighbour's unknowns differ.
  */
-export function seedStep(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions = {}): Float64Array | null {
+export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions & { readonly start?: { readonly x: Float64Array; readonly period: number }; readonly matrix?: boolean } = {}): PeriodAt | null {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const system = buildSystem(neighbour, options.extraParts);
-  const n = seed.x.length;
-  if (system.n !== n) return null;
-  const start = { t0: 0, x: seed.x, period: seed.period };
-  const residual = new Float64Array(n + 1);
-  residual.set(periodMismatch(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative }));
-  const lu = new LuSolver(n + 1);
-  if (!lu.factor(seed.matrix)) return null;
-  const step = new Float64Array(n + 1);
-  lu.solveNegated(residual, step);
-  return step;
+  if (system.n !== seed.x.length) return null;
+  const start = { t0: 0, x: options.start?.x ?? seed.x, period: options.start?.period ?? seed.period };
+  return periodAt(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative, ...(options.matrix ? { phase: seed.phase } : {}) });
 }
 
 function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {

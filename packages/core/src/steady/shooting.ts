@@ -183,14 +183,29 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   });
 }
 
+/** One period of the map from a point: the shooting's residual there and, when asked, its Newton matrix. */
+export interface PeriodAt {
+  /** [x_N − x₀; 0]: n + 1 values for an autonomous shooting (its phase row holds). */
+  readonly residual: Float64Array;
+  /** The shooting's Newton matrix at the point ((n + 1)², row-major), or null when not asked for. */
+  readonly matrix: Float64Array | null;
+}
+
 /**
- * x_N − x₀ over one period from `start` (the periodicity condition's residual), with the map's
- * Newton held as tightly as {@link shootOrbit} holds it for the same `relative`.
+ * One period of an autonomous shooting's map from `start`, with the map's Newton held as tightly
+ * as {@link shootOrbit} holds it for the same `relative`: the residual, and with `phase` (the
+ * unknown the phase condition holds) the Newton matrix from the map's sensitivities.
  */
-export function periodMismatch(system: MnaSystem, start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[], options: Pick<ShootingOptions, "relative" | "tolerances">): Float64Array {
+export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[], options: Pick<ShootingOptions, "relative" | "tolerances"> & { readonly phase?: number }): PeriodAt {
   const map = new PeriodicMap(system, innerTolerances(resolveTolerances(options.tolerances), options.relative ?? 1e-9));
-  const end = map.run(start, fractions, predictor, false).x;
-  return Float64Array.from(end, (v, i) => v - start.x[i]!);
+  const { n } = map;
+  const end = map.run(start, fractions, predictor, options.phase !== undefined);
+  const residual = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) residual[i] = end.x[i]! - start.x[i]!;
+  if (options.phase === undefined) return { residual, matrix: null };
+  const newton = new ShootingMatrix(n + 1, options.phase, undefined);
+  newton.set(end.sensitivity!, n);
+  return { residual, matrix: Float64Array.from(newton.factored().matrix) };
 }
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */

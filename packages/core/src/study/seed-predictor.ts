@@ -1,27 +1,38 @@
 import type { Circuit, ToleranceSpec } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { isRunLimitError, type RunBudget } from "../analyses/limits.js";
-import { seedStep, type OrbitSeed } from "../analyses/steady.js";
+import { seedPeriod, type OrbitSeed } from "../analyses/steady.js";
+import { LuSolver } from "../solver/lu.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { steadyAnalysisOf } from "./steady-sample.js";
 
-/** Where a sample's shooting starts: the unknowns at the orbit's start, and the period. */
+/** Where a sample's shooting starts: the unknowns at the orbit's start, the period, and the shooting's Newton matrix there. */
 export interface SeedStart {
   readonly x: Float64Array;
   readonly period: number;
-}
-
-/** How the nominal's orbit start (x₀, T) moves per unit of each toleranced value, to first order. */
-export interface SeedPredictor {
-  readonly parts: readonly { readonly target: string; readonly nominal: number; readonly slope: Float64Array }[];
+  /** (n + 1)², row-major (see `OrbitSeed.matrix`). */
+  readonly matrix: Float64Array;
 }
 
 /**
- * The slope of the seed's start in each toleranced value: the seed's Newton step towards the
- * nominal with that one value moved by its tolerance's σ (a third of it, the normal draw's; see
- * draw.ts), per unit of the move. Each costs one period of the map, and saves every sample the
- * first period of its shooting (whose chord step it anticipates, with the same matrix). A value
- * whose moved circuit cannot be run (another structure, a map that fails) gets no slope.
+ * How the nominal's orbit start (x₀, T) and the shooting's Newton matrix there move per unit of
+ * each toleranced value, to first order.
+ */
+export interface SeedPredictor {
+  /** The nominal's Newton matrix at the seed, from the map's sensitivities. */
+  readonly matrix: Float64Array;
+  readonly parts: readonly { readonly target: string; readonly nominal: number; readonly slope: Float64Array; readonly matrixSlope: Float64Array }[];
+}
+
+/**
+ * The slopes of the seed's start and of the Newton matrix in each toleranced value, by moving
+ * that one value by its tolerance's σ (a third of it, the normal draw's; see draw.ts): the start
+ * moves by the Newton step −M⁻¹·(r₁ − r₀) (r the residual of one period from the seed's start,
+ * M the nominal's matrix there), and the matrix to the moved circuit's at the moved start.
+ * Each value costs two periods of the map (one with sensitivities); every sample saves its first
+ * period (whose chord step the start anticipates) and shoots with a matrix near its own, so its
+ * secant (Broyden) steps contract faster. A value whose moved circuit cannot be run (another
+ * structure, a map that fails) gets no slopes.
  */
 export function seedPredictor(
   build: (overrides: Readonly<Record<string, number>>) => Circuit,
@@ -30,6 +41,15 @@ export function seedPredictor(
   seed: OrbitSeed,
   options: { readonly tolerances?: Partial<Tolerances>; readonly budget: RunBudget },
 ): SeedPredictor {
+  const none = { matrix: seed.matrix, parts: [] };
+  const nominal = build({ ...fixed });
+  const analysis = steadyAnalysisOf(nominal);
+  if (!analysis) return none;
+  const run = options.tolerances ? { tolerances: options.tolerances } : {};
+  const at = seedPeriod(seed, nominal, analysis, { ...run, matrix: true });
+  const n = seed.x.length;
+  const lu = new LuSolver(n + 1);
+  if (!at || !lu.factor(at.matrix!)) return none;
   const parts: SeedPredictor["parts"][number][] = [];
   for (const t of tolerances) {
     options.budget.check("while predicting the samples' orbits");
@@ -37,26 +57,37 @@ export function seedPredictor(
     if (!(move > 0)) continue;
     try {
       const moved = build({ ...fixed, [t.target]: t.nominal + move });
-      const analysis = steadyAnalysisOf(moved);
-      const step = analysis ? seedStep(seed, moved, analysis, options.tolerances ? { tolerances: options.tolerances } : {}) : null;
-      if (step && step.every(Number.isFinite)) parts.push({ target: t.target, nominal: t.nominal, slope: step.map((v) => v / move) });
+      const first = seedPeriod(seed, moved, analysis, run);
+      if (!first) continue;
+      const step = new Float64Array(n + 1);
+      lu.solveNegated(
+        first.residual.map((r, i) => r - at.residual[i]!),
+        step,
+      );
+      const start = { x: seed.x.map((v, i) => v + step[i]!), period: seed.period + step[n]! };
+      const second = seedPeriod(seed, moved, analysis, { ...run, start, matrix: true });
+      if (!second || !step.every(Number.isFinite) || !second.matrix!.every(Number.isFinite)) continue;
+      const matrixSlope = second.matrix!.map((v, k) => (v - at.matrix![k]!) / move);
+      parts.push({ target: t.target, nominal: t.nominal, slope: step.map((v) => v / move), matrixSlope });
     } catch (error) {
       if (isRunLimitError(error) || !isOnsetError(error)) throw error;
     }
   }
-  return { parts };
+  return { matrix: at.matrix!, parts };
 }
 
-/** A sample's predicted start: the seed's moved along each slope by the sample's drawn value. */
+/** A sample's predicted start: the seed's start and the nominal's matrix moved along each slope by the sample's drawn value. */
 export function predictedStart(seed: OrbitSeed, predictor: SeedPredictor, drawn: Readonly<Record<string, number>>): SeedStart {
   const n = seed.x.length;
   const x = Float64Array.from(seed.x);
+  const matrix = Float64Array.from(predictor.matrix);
   let period = seed.period;
-  for (const { target, nominal, slope } of predictor.parts) {
+  for (const { target, nominal, slope, matrixSlope } of predictor.parts) {
     const d = (drawn[target] ?? nominal) - nominal;
     if (d === 0) continue;
     for (let i = 0; i < n; i++) x[i] += slope[i]! * d;
     period += slope[n]! * d;
+    for (let k = 0; k < matrix.length; k++) matrix[k] += matrixSlope[k]! * d;
   }
-  return period > 0 ? { x, period } : { x: seed.x, period: seed.period };
+  return period > 0 ? { x, period, matrix } : { x: seed.x, period: seed.period, matrix: seed.matrix };
 }
