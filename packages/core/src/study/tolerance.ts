@@ -123,7 +123,7 @@ export async function runToleranceStudy(
       ...(seed ? { seed } : {}),
     };
     const predictor = seed ? seedPredictor(build, options.fixed, drawnAround, seed, { ...(options.tolerances ? { tolerances: options.tolerances } : {}), budget }) : undefined;
-    await Promise.all(Array.from({ length: pool.jobs }, () => lane(settings, predictor)));
+    await Promise.all(Array.from({ length: pool.lanes ?? pool.jobs }, () => lane(settings, predictor)));
   } finally {
     await pool.close();
   }
