@@ -96,8 +96,8 @@ export async function runToleranceStudy(
   const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;
-  // One lane per worker keeps each busy; in this thread a lane yields between samples so
-  // progress can be drawn and results written as they finish.
+  // One lane per job the pool takes at once keeps it busy; in this thread a lane yields between
+  // samples so progress can be drawn and results written as they finish.
   const lane = async (settings: SampleSettings, predictor: SeedPredictor | undefined) => {
     while (next < indices.length) {
       budget.check("between samples");
