@@ -25,14 +25,14 @@ export interface SeedPredictor {
 }
 
 /**
- * The slopes of the seed's start and of the Newton matrix in each toleranced value, by moving
- * that one value by its tolerance's σ (a third of it, the normal draw's; see draw.ts): the start
- * moves by the Newton step −M⁻¹·(r₁ − r₀) (r the residual of one period from the seed's start,
- * M the nominal's matrix there), and the matrix to the moved circuit's at the moved start.
- * Each value costs two periods of the map (one with sensitivities); every sample saves its first
- * period (whose chord step the start anticipates) and shoots with a matrix near its own, so its
- * secant (Broyden) steps contract faster. A value whose moved circuit cannot be run (another
- * structure, a map that fails) gets no slopes.
+ * The slopes of the seed's start and of the Newton matrix in each toleranced value, by central
+ * differences over ± its tolerance's σ (a third of it, the normal draw's; see draw.ts): at each
+ * side the start moves by the Newton step −M⁻¹·(r₁ − r₀) (r the residual of one period from the
+ * seed's start, M the nominal's matrix there), and the matrix is the moved circuit's at the
+ * moved start. Each value costs four periods of the map (two with sensitivities); every sample
+ * saves its first period (whose chord step the start anticipates) and shoots with a matrix near
+ * its own, so its secant (Broyden) steps contract faster. A value whose moved circuit cannot be
+ * run (another structure, a map that fails) gets no slopes.
  */
 export function seedPredictor(
   build: (overrides: Readonly<Record<string, number>>) => Circuit,
@@ -51,24 +51,35 @@ export function seedPredictor(
   const lu = new LuSolver(n + 1);
   if (!at || !lu.factor(at.matrix!)) return none;
   const parts: SeedPredictor["parts"][number][] = [];
+  /** The start and the matrix of the nominal with one value moved: the chord step from the seed, and the matrix there. */
+  const movedTo = (target: string, value: number): { readonly step: Float64Array; readonly matrix: Float64Array } | null => {
+    const moved = build({ ...fixed, [target]: value });
+    const first = seedPeriod(seed, moved, analysis, run);
+    if (!first) return null;
+    const step = new Float64Array(n + 1);
+    lu.solveNegated(
+      first.residual.map((r, i) => r - at.residual[i]!),
+      step,
+    );
+    const start = { x: seed.x.map((v, i) => v + step[i]!), period: seed.period + step[n]! };
+    const second = seedPeriod(seed, moved, analysis, { ...run, start, matrix: true });
+    return second && step.every(Number.isFinite) && second.matrix!.every(Number.isFinite) ? { step, matrix: second.matrix! } : null;
+  };
   for (const t of tolerances) {
     options.budget.check("while predicting the samples' orbits");
     const move = (t.relative !== undefined ? Math.abs(t.nominal) * t.relative : (t.absolute ?? 0)) / 3;
     if (!(move > 0)) continue;
     try {
-      const moved = build({ ...fixed, [t.target]: t.nominal + move });
-      const first = seedPeriod(seed, moved, analysis, run);
-      if (!first) continue;
-      const step = new Float64Array(n + 1);
-      lu.solveNegated(
-        first.residual.map((r, i) => r - at.residual[i]!),
-        step,
-      );
-      const start = { x: seed.x.map((v, i) => v + step[i]!), period: seed.period + step[n]! };
-      const second = seedPeriod(seed, moved, analysis, { ...run, start, matrix: true });
-      if (!second || !step.every(Number.isFinite) || !second.matrix!.every(Number.isFinite)) continue;
-      const matrixSlope = second.matrix!.map((v, k) => (v - at.matrix![k]!) / move);
-      parts.push({ target: t.target, nominal: t.nominal, slope: step.map((v) => v / move), matrixSlope });
+      // Central differences: the one-sided ones are off by half the curvature times the move.
+      const up = movedTo(t.target, t.nominal + move);
+      const down = movedTo(t.target, t.nominal - move);
+      if (!up || !down) continue;
+      parts.push({
+        target: t.target,
+        nominal: t.nominal,
+        slope: up.step.map((v, i) => (v - down.step[i]!) / (2 * move)),
+        matrixSlope: up.matrix.map((v, k) => (v - down.matrix[k]!) / (2 * move)),
+      });
     } catch (error) {
       if (isRunLimitError(error) || !isOnsetError(error)) throw error;
     }
