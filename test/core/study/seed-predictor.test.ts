@@ -29,6 +29,7 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     expect(start.period).toBe(seed.period);
     expect(Array.from(start.x)).toEqual(Array.from(seed.x));
     expect(Array.from(start.matrix)).toEqual(Array.from(predictor.matrix));
+    expect(start.contraction).toBe(0);
   });
 
   test.each([0, 1, 2, 3, 4])("sample %d: the predicted period lies nearer the sample's own than the nominal's, and shooting from it finds the same orbit", (index) => {
@@ -46,8 +47,19 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     expect(Math.abs(predicted.amplitude! / own.amplitude! - 1)).toBeLessThan(3e-5);
   });
 
-  test("a value whose moved circuit has other unknowns gets no slope", () => {
-    const other = seedPredictor(() => ({ ...nominal, parts: nominal.parts.slice(0, -1) }), undefined, nominal.tolerances.slice(0, 1), seed, { budget: new RunBudget() });
+  test("a sample's expected contraction grows as the square of its moves (the matrix's remainder is second order)", () => {
+    const drawn = drawSample(nominal.tolerances, 2026, 0, "normal");
+    const half = Object.fromEntries(nominal.tolerances.map((t) => [t.target, (t.nominal + drawn[t.target]!) / 2]));
+    const full = predictedStart(seed, predictor, drawn).contraction;
+    expect(full).toBeGreaterThan(0);
+    expect(full).toBeLessThan(1);
+    expect(predictedStart(seed, predictor, half).contraction / full).toBeCloseTo(0.25, 10);
+  });
+
+  test("a value whose moved circuit has other unknowns gets no slope, and the contraction is then unknown", () => {
+    const other = seedPredictor((o) => (Object.keys(o).length > 0 ? { ...nominal, parts: nominal.parts.slice(0, -1) } : nominal), undefined, nominal.tolerances.slice(0, 1), seed, { budget: new RunBudget() });
     expect(other.parts).toEqual([]);
+    expect(other.partial).toBe(true);
+    expect(predictedStart(seed, other, drawSample(nominal.tolerances, 2026, 0, "normal")).contraction).toBe(Infinity);
   });
 });

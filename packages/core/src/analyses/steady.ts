@@ -141,6 +141,8 @@ export interface OrbitSeed {
   /** The shooting's Newton matrix at the orbit ((n + 1)², row-major) and the unknown its phase condition holds. */
   readonly matrix: Float64Array;
   readonly phase: number;
+  /** How much a shooting step from `matrix` is expected to shrink the distance to the orbit, when known (see `ShootingJacobian`). */
+  readonly contraction?: number;
 }
 
 /**
@@ -346,7 +348,7 @@ function recordedStart(c: Context, stepper: TransientStepper, period: number, ma
 
 /** A seed's orbit as the start of a shooting. */
 function seededStart(seed: OrbitSeed): ShootingStart {
-  return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase } };
+  return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase, ...(seed.contraction === undefined ? {} : { contraction: seed.contraction }) } };
 }
 
 /**

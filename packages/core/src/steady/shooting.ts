@@ -37,6 +37,8 @@ export interface ShootingJacobian {
   readonly phase: number;
   /** Its factorisation, when at hand (else it is factored on first use). */
   readonly lu?: LuSolver;
+  /** How much a step from it is expected to shrink the distance to the orbit (its relative error), when known. */
+  readonly contraction?: number;
 }
 
 /** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
@@ -168,8 +170,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
     // likely be the last (the step shrinking as the mismatch did), when the multipliers need it.
     // (After an exact Jacobian Newton converges quadratically: a step within a thousand tolerances
-    // is most often the last but one.)
-    const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom && size <= LIKELY_LAST;
+    // is most often the last but one; after a given matrix, the step shrinks by its contraction.)
+    const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom ? size <= LIKELY_LAST : size * (options.jacobian?.contraction ?? Infinity) <= 1;
     const last = options.multipliers === true && likely;
     fresh = !contracted || last;
     previous = mismatch;

@@ -1,3 +1,4 @@
+import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import type { Circuit, ToleranceSpec } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { isRunLimitError, type RunBudget } from "../analyses/limits.js";
@@ -12,6 +13,8 @@ export interface SeedStart {
   readonly period: number;
   /** (n + 1)², row-major (see `OrbitSeed.matrix`). */
   readonly matrix: Float64Array;
+  /** How much a shooting step from `matrix` is expected to shrink the distance to the orbit. */
+  readonly contraction: number;
 }
 
 /**
@@ -21,7 +24,26 @@ export interface SeedStart {
 export interface SeedPredictor {
   /** The nominal's Newton matrix at the seed, from the map's sensitivities. */
   readonly matrix: Float64Array;
-  readonly parts: readonly { readonly target: string; readonly nominal: number; readonly slope: Float64Array; readonly matrixSlope: Float64Array }[];
+  readonly parts: readonly SeedPart[];
+  /** Whether some toleranced value got no slopes (its moves then go unpredicted, and so does the contraction). */
+  readonly partial: boolean;
+}
+
+/** One toleranced value's part of the prediction. */
+export interface SeedPart {
+  readonly target: string;
+  readonly nominal: number;
+  /** The move the slopes were taken over (σ). */
+  readonly move: number;
+  /** d(x₀, T)/d value. */
+  readonly slope: Float64Array;
+  /** d(Newton matrix)/d value. */
+  readonly matrixSlope: Float64Array;
+  /**
+   * The contraction of a shooting step from the predicted matrix for a move of σ: the spectral
+   * radius of M⁻¹·E, E the matrix's second-order remainder (M₊ + M₋)/2 − M₀.
+   */
+  readonly contraction: number;
 }
 
 /**
@@ -41,7 +63,7 @@ export function seedPredictor(
   seed: OrbitSeed,
   options: { readonly tolerances?: Partial<Tolerances>; readonly budget: RunBudget },
 ): SeedPredictor {
-  const none = { matrix: seed.matrix, parts: [] };
+  const none = { matrix: seed.matrix, parts: [], partial: true };
   const nominal = build({ ...fixed });
   const analysis = steadyAnalysisOf(nominal);
   if (!analysis) return none;
@@ -50,7 +72,8 @@ export function seedPredictor(
   const n = seed.x.length;
   const lu = new LuSolver(n + 1);
   if (!at || !lu.factor(at.matrix!)) return none;
-  const parts: SeedPredictor["parts"][number][] = [];
+  const parts: SeedPart[] = [];
+  let partial = false;
   /** The start and the matrix of the nominal with one value moved: the chord step from the seed, and the matrix there. */
   const movedTo = (target: string, value: number): { readonly step: Float64Array; readonly matrix: Float64Array } | null => {
     const moved = build({ ...fixed, [target]: value });
@@ -73,18 +96,25 @@ export function seedPredictor(
       // Central differences: the one-sided ones are off by half the curvature times the move.
       const up = movedTo(t.target, t.nominal + move);
       const down = movedTo(t.target, t.nominal - move);
-      if (!up || !down) continue;
+      if (!up || !down) {
+        partial = true;
+        continue;
+      }
+      const remainder = up.matrix.map((v, k) => (v + down.matrix[k]!) / 2 - at.matrix![k]!);
       parts.push({
         target: t.target,
         nominal: t.nominal,
+        move,
         slope: up.step.map((v, i) => (v - down.step[i]!) / (2 * move)),
         matrixSlope: up.matrix.map((v, k) => (v - down.matrix[k]!) / (2 * move)),
+        contraction: spectralRadius(lu, remainder, n + 1),
       });
     } catch (error) {
       if (isRunLimitError(error) || !isOnsetError(error)) throw error;
+      partial = true;
     }
   }
-  return { matrix: at.matrix!, parts };
+  return { matrix: at.matrix!, parts, partial };
 }
 
 /** A sample's predicted start: the seed's start and the nominal's matrix moved along each slope by the sample's drawn value. */
@@ -93,12 +123,28 @@ export function predictedStart(seed: OrbitSeed, predictor: SeedPredictor, drawn:
   const x = Float64Array.from(seed.x);
   const matrix = Float64Array.from(predictor.matrix);
   let period = seed.period;
-  for (const { target, nominal, slope, matrixSlope } of predictor.parts) {
+  // The remainders of the parts add up to at most (Σ √ρᵢ·|dᵢ|/σᵢ)² (second order in the moves, cross terms included).
+  let root = 0;
+  for (const { target, nominal, move, slope, matrixSlope, contraction } of predictor.parts) {
     const d = (drawn[target] ?? nominal) - nominal;
     if (d === 0) continue;
     for (let i = 0; i < n; i++) x[i] += slope[i]! * d;
     period += slope[n]! * d;
     for (let k = 0; k < matrix.length; k++) matrix[k] += matrixSlope[k]! * d;
+    root += Math.sqrt(contraction) * Math.abs(d / move);
   }
-  return period > 0 ? { x, period, matrix } : { x: seed.x, period: seed.period, matrix: seed.matrix };
+  return period > 0 ? { x, period, matrix, contraction: predictor.partial ? Infinity : root * root } : { x: seed.x, period: seed.period, matrix: seed.matrix, contraction: Infinity };
+}
+
+/** The spectral radius of A⁻¹·E (A factored in `lu`, E row-major m×m). */
+function spectralRadius(lu: LuSolver, e: Float64Array, m: number): number {
+  const product = new Matrix(m, m);
+  const column = new Float64Array(m);
+  for (let j = 0; j < m; j++) {
+    for (let i = 0; i < m; i++) column[i] = e[i * m + j]!;
+    lu.solve(column, column);
+    for (let i = 0; i < m; i++) product.set(i, j, column[i]!);
+  }
+  const eig = new EigenvalueDecomposition(product);
+  return eig.realEigenvalues.reduce((r, re, k) => Math.max(r, Math.hypot(re, eig.imaginaryEigenvalues[k]!)), 0);
 }
