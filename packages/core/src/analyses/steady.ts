@@ -121,6 +121,8 @@ export interface SteadyOptions extends RunOptions {
    * error bars): a study's samples, whose spread dwarfs the grid's error, at less than half the cost.
    */
   readonly singleGrid?: boolean;
+  /** Fill in the result's waveform (default true; a study's sample has no use for it). */
+  readonly waveform?: boolean;
   /**
    * A neighbouring circuit's orbit (a study's nominal, see {@link steadySeed}) to shoot from
    * before anything else: a sample whose parts moved by their tolerances lies a few Newton
@@ -166,7 +168,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
  */
 export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
   let seed: OrbitSeed | null = null;
-  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true }, (refined) => {
+  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false }, (refined) => {
     const { orbit } = refined;
     const { matrix, phase } = orbit.jacobian;
     seed = { x: orbit.start.x, period: orbit.start.period, fractions: orbit.fractions, states: orbit.states, matrix: Float64Array.from(matrix), phase };
@@ -209,7 +211,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     warnings: defaultWarnings(circuit),
   };
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
-  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, ...(onOrbit ? { onOrbit } : {}) };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, ...(onOrbit ? { onOrbit } : {}) };
 
   if (drives.length > 0) {
     const period = commonPeriod(drives);
@@ -289,6 +291,7 @@ interface Context {
   readonly budget: RunBudget;
   readonly read: ProbeReader;
   readonly singleGrid: boolean;
+  readonly waveform: boolean;
   /** Told of the orbit a result is built from. */
   readonly onOrbit?: (orbit: RefinedOrbit) => void;
 }
@@ -487,6 +490,6 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
     points: orbit.points,
     multipliers,
     stability,
-    waveform: orbitWaveform(orbit.orbit, c.read),
+    waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
   };
 }

@@ -77,6 +77,7 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       budget,
       predictStartup: criteria.some((c) => c.metric === "startup"),
       singleGrid: true,
+      waveform: false,
       ...(settings.seed ? { seed: start ? { ...settings.seed, ...start } : settings.seed } : {}),
     });
     const metrics = steadyMetrics(r);
