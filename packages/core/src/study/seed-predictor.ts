@@ -1,4 +1,5 @@
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
+import { EigenvalueDecomposition } from "ml-matrix";
+import { solvedColumns } from "../analyses/poles.js";
 import type { Circuit, ToleranceSpec } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { isRunLimitError, type RunBudget } from "../analyses/limits.js";
@@ -138,13 +139,6 @@ export function predictedStart(seed: OrbitSeed, predictor: SeedPredictor, drawn:
 
 /** The spectral radius of A⁻¹·E (A factored in `lu`, E row-major m×m). */
 function spectralRadius(lu: LuSolver, e: Float64Array, m: number): number {
-  const product = new Matrix(m, m);
-  const column = new Float64Array(m);
-  for (let j = 0; j < m; j++) {
-    for (let i = 0; i < m; i++) column[i] = e[i * m + j]!;
-    lu.solve(column, column);
-    for (let i = 0; i < m; i++) product.set(i, j, column[i]!);
-  }
-  const eig = new EigenvalueDecomposition(product);
+  const eig = new EigenvalueDecomposition(solvedColumns(lu, e, m));
   return eig.realEigenvalues.reduce((r, re, k) => Math.max(r, Math.hypot(re, eig.imaginaryEigenvalues[k]!)), 0);
 }
