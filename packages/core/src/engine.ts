@@ -54,9 +54,11 @@ export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } fro
 export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";
 export { recordPeriod, refineOrbit } from "./steady/refine.js";
-export { predictedStart, seedPredictor } from "./study/seed-predictor.js";
-export type { SeedPredictor, SeedStart } from "./study/seed-predictor.js";
 export type { NumericalError, RefinedOrbit } from "./steady/refine.js";
+
+// A study's samples shot from the nominal's orbit, moved to first order
+export { predictedStart, seedPredictor } from "./study/seed-predictor.js";
+export type { SeedPart, SeedPredictor, SeedStart } from "./study/seed-predictor.js";
 
 // Noise sources and random streams
 export { randomStream } from "./random/stream.js";
