@@ -44,6 +44,7 @@ export type { SmallSignal } from "./analyses/linearize.js";
 export { dominantPair, pencilPoles } from "./analyses/poles.js";
 export { PhasorSolver } from "./analyses/response.js";
 export { noiseLevel, noiseShape } from "./analyses/noise-level.js";
+export { ComplexLu } from "./analyses/complex-lu.js";
 
 // Periodic steady state (shooting)
 export { PeriodicMap } from "./steady/periodic-map.js";
@@ -57,6 +58,10 @@ export { OrbitApproach } from "./steady/approach.js";
 export { SampleWindow } from "./steady/sample-window.js";
 export type { Approach } from "./steady/approach.js";
 export type { NumericalError, RefinedOrbit } from "./steady/refine.js";
+
+// A study's samples shot from the nominal's orbit, moved to first order
+export { predictedStart, seedPredictor } from "./study/seed-predictor.js";
+export type { SeedPart, SeedPredictor, SeedStart } from "./study/seed-predictor.js";
 
 // Noise sources and random streams
 export { randomStream } from "./random/stream.js";

@@ -1,13 +1,25 @@
 // Worker-thread entry of the job pool: runs one job (a Monte Carlo sample, a start-up seed) per message.
 import { parentPort } from "node:worker_threads";
 import { isRunLimitError, RunBudget } from "./analyses/limits.js";
-import { runJob } from "./study/jobs.js";
-import type { WorkerReply, WorkerRequest } from "./study/worker-pool.js";
+import { runJob, type Job } from "./study/jobs.js";
+import type { SampleSettings } from "./study/sample.js";
+import type { PostedJob, WorkerReply, WorkerRequest } from "./study/worker-pool.js";
 
-parentPort?.on("message", ({ job, limits }: WorkerRequest) => {
+/** The studies' settings this worker was sent, by the number its jobs name them with. */
+const settingsById = new Map<number, SampleSettings>();
+
+function received(job: PostedJob): Job {
+  if (job.kind !== "sample") return job;
+  const settings = settingsById.get(job.settings);
+  if (!settings) throw new Error(`worker: a sample named settings ${job.settings}, which it was never sent`);
+  return { kind: "sample", circuit: job.circuit, settings, ...(job.start ? { start: job.start } : {}) };
+}
+
+parentPort?.on("message", ({ job, limits, settings }: WorkerRequest) => {
+  if (settings) settingsById.set(settings.id, settings.value);
   let reply: WorkerReply;
   try {
-    reply = { outcome: runJob(job, new RunBudget(limits)) };
+    reply = { outcome: runJob(received(job), new RunBudget(limits)) };
   } catch (error) {
     if (!isRunLimitError(error)) throw error;
     reply = { limit: { diagnostic: error.diagnostic, limit: error.limit, value: error.value, reached: error.reached } };

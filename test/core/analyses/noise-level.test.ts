@@ -24,6 +24,15 @@ describe("noise level at a probe, linearised (Johnson 1928, Nyquist 1928: therma
     }
   });
 
+  test("twenty separate R ∥ C nodes (a circuit large enough for the sparse factorisation): each node's noise is still kT/C, within 1 %", () => {
+    const C = 10e-9;
+    const R = 47e3;
+    const parts = Array.from({ length: 20 }, (_, k) => [part("resistor", `R${k}`, [`a${k}`, "gnd"], R * (1 + k / 10)), part("capacitor", `C${k}`, [`a${k}`, "gnd"], C)]).flat();
+    const { rms, system } = level(circuit(parts), "a7", 1000 / (2 * Math.PI * R * C));
+    expect(system.n).toBeGreaterThan(16);
+    expect(Math.abs(rms / Math.sqrt((BOLTZMANN * kelvin) / C) - 1)).toBeLessThan(0.01);
+  });
+
   test("a parallel R–L–C tank of Q ≈ 316: still kT/C (equipartition), the narrow resonance integrated within 1 %", () => {
     const R = 100e3;
     const L = 10e-3;

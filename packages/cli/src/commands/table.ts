@@ -73,7 +73,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       svg,
       html,
       set,
-      { name: "jobs", value: "N", summary: "worker threads for a tolerance study and the further seeds of seeds=N (default: the number of cores)" },
+      { name: "jobs", value: "N", summary: "jobs at once for a tolerance study and the further seeds of seeds=N: N − 1 worker threads and the main one (default: the number of cores)" },
       { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
       { name: "results", value: "FILE", summary: "the study's results file (JSON Lines; a pipe or - streams it)" },
       { name: "resume", summary: "continue the study in the results file, running only missing samples" },

@@ -1,5 +1,6 @@
 import type { NoiseGenerator } from "../devices/device.js";
 import { LuSolver } from "../solver/lu.js";
+import { ComplexLu } from "./complex-lu.js";
 import type { SmallSignal } from "./linearize.js";
 import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { Pole } from "./poles.js";
@@ -73,56 +74,33 @@ function frequencyGrid(corner: number, poles: readonly Pole[]): Float64Array {
  * oscillation starts from (the variance ∫₀^∞ e^(−2σt)·N dt of the noise its mode collects).
  */
 export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: readonly NoiseGenerator[], corner: number, poles: readonly Pole[]): number {
-  const { n, G, C } = ss;
+  const { n } = ss;
   if (generators.length === 0 || n === 0) return 0;
-  const n2 = 2 * n;
-  // The real form of (G + jωC)ᵀ has the same nonzeros at every frequency: a sparse LU on that
-  // pattern keeps a large circuit's hundreds of solves cheap.
-  const pattern = new Uint8Array(n2 * n2);
-  for (let i = 0; i < n; i++) {
-    pattern[i * n2 + i] = 1;
-    pattern[(n + i) * n2 + n + i] = 1;
-    for (let j = 0; j < n; j++) {
-      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
-        pattern[i * n2 + j] = 1;
-        pattern[i * n2 + n + j] = 1;
-        pattern[(n + i) * n2 + j] = 1;
-        pattern[(n + i) * n2 + n + j] = 1;
-      }
-    }
-  }
-  const lu = new LuSolver(n2, { compile: false });
-  lu.setPattern(pattern);
-  const m = new Float64Array(n2 * n2);
-  const rhs = new Float64Array(n2);
-  const y = new Float64Array(n2);
+  const solve = n > DENSE_UNKNOWNS ? sparseAdjoint(ss) : denseAdjoint(ss);
+  const yRe = new Float64Array(n);
+  const yIm = new Float64Array(n);
+  const rate = new Float64Array(n);
   const grid = frequencyGrid(corner, poles);
   const power = new Float64Array(grid.length);
   for (let k = 0; k < grid.length; k++) {
     const f = grid[k]!;
     const omega = 2 * Math.PI * f;
-    // the adjoint (G + jωC)ᵀ in real form
-    fillPhasorMatrix(ss, omega, m, true);
-    for (let i = 0; i < n; i++) {
-      rhs[i] = probe.value[i]!;
-      rhs[n + i] = omega * probe.rate[i]!;
-    }
-    if (!lu.factor(m)) {
+    for (let i = 0; i < n; i++) rate[i] = omega * probe.rate[i]!;
+    if (!solve(omega, probe.value, rate, yRe, yIm)) {
       power[k] = Number.NaN;
       continue;
     }
-    lu.solve(rhs, y);
     let sum = 0;
     for (const g of generators) {
       let re = 0;
       let im = 0;
       if (g.to >= 0) {
-        re += g.gain * y[g.to]!;
-        im += g.gain * y[n + g.to]!;
+        re += g.gain * yRe[g.to]!;
+        im += g.gain * yIm[g.to]!;
       }
       if (g.from >= 0) {
-        re -= g.gain * y[g.from]!;
-        im -= g.gain * y[n + g.from]!;
+        re -= g.gain * yRe[g.from]!;
+        im -= g.gain * yIm[g.from]!;
       }
       sum += g.density * (re * re + im * im);
     }
@@ -136,4 +114,72 @@ export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: rea
     if (Number.isFinite(a) && Number.isFinite(b)) total += 0.5 * (a + b) * (grid[k]! - grid[k - 1]!);
   }
   return Math.sqrt(total);
+}
+
+/**
+ * Up to this many unknowns (G + jωC)ᵀ is factored dense in complex arithmetic: ordering its real
+ * form sparse afresh at every call costs more than the sparse solves save (measured on the
+ * examples, n = 6…14: the real form dense was already twice as fast, the complex form halves
+ * that again). A large circuit's hundreds of solves stay sparse.
+ */
+const DENSE_UNKNOWNS = 16;
+
+/** Solves (G + jωC)ᵀ·y = b (parts apart); false when the matrix is singular at ω. */
+type AdjointSolve = (omega: number, bRe: Float64Array, bIm: Float64Array, yRe: Float64Array, yIm: Float64Array) => boolean;
+
+function denseAdjoint(ss: SmallSignal): AdjointSolve {
+  const { n, G, C } = ss;
+  const lu = new ComplexLu(n);
+  return (omega, bRe, bIm, yRe, yIm) => {
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        lu.re[i * n + j] = G[j * n + i]!;
+        lu.im[i * n + j] = omega * C[j * n + i]!;
+      }
+    }
+    if (!lu.factor()) return false;
+    lu.solve(bRe, bIm, yRe, yIm);
+    return true;
+  };
+}
+
+/** The real form [[A, −B], [B, A]] of (G + jωC)ᵀ, factored sparse on its fixed pattern. */
+function sparseAdjoint(ss: SmallSignal): AdjointSolve {
+  const { n } = ss;
+  const n2 = 2 * n;
+  const lu = new LuSolver(n2, { compile: false });
+  lu.setPattern(sparsityOf(ss));
+  const m = new Float64Array(n2 * n2);
+  const rhs = new Float64Array(n2);
+  const y = new Float64Array(n2);
+  return (omega, bRe, bIm, yRe, yIm) => {
+    fillPhasorMatrix(ss, omega, m, true);
+    rhs.set(bRe);
+    rhs.set(bIm, n);
+    if (!lu.factor(m)) return false;
+    lu.solve(rhs, y);
+    yRe.set(y.subarray(0, n));
+    yIm.set(y.subarray(n));
+    return true;
+  };
+}
+
+/** The nonzeros of the real form of (G + jωC)ᵀ, the same at every frequency. */
+function sparsityOf(ss: SmallSignal): Uint8Array {
+  const { n, G, C } = ss;
+  const n2 = 2 * n;
+  const pattern = new Uint8Array(n2 * n2);
+  for (let i = 0; i < n; i++) {
+    pattern[i * n2 + i] = 1;
+    pattern[(n + i) * n2 + n + i] = 1;
+    for (let j = 0; j < n; j++) {
+      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
+        pattern[i * n2 + j] = 1;
+        pattern[i * n2 + n + j] = 1;
+        pattern[(n + i) * n2 + j] = 1;
+        pattern[(n + i) * n2 + n + j] = 1;
+      }
+    }
+  }
+  return pattern;
 }

@@ -37,6 +37,18 @@ export interface PolesResult {
 /** Eigenvalues μ smaller than this fraction of the largest belong to algebraic unknowns (s = ∞). */
 const INFINITE_POLE = 1e-12;
 
+/** A⁻¹·B as a matrix, A factored in `lu`, B row-major n×n: solved column by column. */
+export function solvedColumns(lu: LuSolver, b: Float64Array, n: number): Matrix {
+  const a = new Matrix(n, n);
+  const column = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    for (let i = 0; i < n; i++) column[i] = b[i * n + j]!;
+    lu.solve(column, column);
+    for (let i = 0; i < n; i++) a.set(i, j, column[i]!);
+  }
+  return a;
+}
+
 /**
  * Natural frequencies of the pencil G + s·C with C singular. With G nonsingular (it is the
  * bias point's Jacobian), G·v = −s·C·v becomes the standard problem (G⁻¹C)·v = μ·v with
@@ -60,15 +72,7 @@ export function pencilPoles(ss: SmallSignal): Pole[] {
     for (let i = 0; i < n * n; i++) shifted[i] = G[i]! + shift * C[i]!;
     if (!lu.factor(shifted)) throw simulationError("singular-pencil", "the linearised circuit is singular at every frequency tried");
   }
-  const a = new Matrix(n, n);
-  const column = new Float64Array(n);
-  const solved = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    for (let i = 0; i < n; i++) column[i] = C[i * n + j]!;
-    lu.solve(column, solved);
-    for (let i = 0; i < n; i++) a.set(i, j, solved[i]!);
-  }
-  const eig = new EigenvalueDecomposition(a);
+  const eig = new EigenvalueDecomposition(solvedColumns(lu, C, n));
   const re = eig.realEigenvalues;
   const im = eig.imaginaryEigenvalues;
   let largest = 0;

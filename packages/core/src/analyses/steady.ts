@@ -13,7 +13,7 @@ import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRates, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
-import { shootOrbit, type Multiplier, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
+import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -136,6 +136,8 @@ export interface SteadyOptions extends RunOptions {
    * error bars): a study's samples, whose spread dwarfs the grid's error, at less than half the cost.
    */
   readonly singleGrid?: boolean;
+  /** Fill in the result's waveform (default true; a study's sample has no use for it). */
+  readonly waveform?: boolean;
   /**
    * A neighbouring circuit's orbit (a study's nominal, see {@link steadySeed}) to shoot from
    * before anything else: a sample whose parts moved by their tolerances lies a few Newton
@@ -162,6 +164,8 @@ export interface OrbitSeed {
   /** The shooting's Newton matrix at the orbit ((n + 1)², row-major) and the unknown its phase condition holds. */
   readonly matrix: Float64Array;
   readonly phase: number;
+  /** How much a shooting step from `matrix` is expected to shrink the distance to the orbit, when known (see `ShootingJacobian`). */
+  readonly contraction?: number;
 }
 
 /**
@@ -185,12 +189,25 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
  */
 export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
   let seed: OrbitSeed | null = null;
-  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true }, (refined) => {
+  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false }, (refined) => {
     const { orbit } = refined;
     const { matrix, phase } = orbit.jacobian;
     seed = { x: orbit.start.x, period: orbit.start.period, fractions: orbit.fractions, states: orbit.states, matrix: Float64Array.from(matrix), phase };
   });
   return result.found && result.kind === "autonomous" ? seed : null;
+}
+
+/**
+ * One period of a neighbouring circuit's map (a study's sample, or the nominal with one value
+ * moved) on a seed's grid, from `start` (the seed's own start by default), held as tightly as a
+ * seeded sample's shooting: see `periodAt`. Null when the neighbour's unknowns differ.
+ */
+export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions & { readonly start?: { readonly x: Float64Array; readonly period: number }; readonly matrix?: boolean } = {}): PeriodAt | null {
+  const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
+  const system = buildSystem(neighbour, options.extraParts);
+  if (system.n !== seed.x.length) return null;
+  const start = { t0: 0, x: options.start?.x ?? seed.x, period: options.start?.period ?? seed.period };
+  return periodAt(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative, ...(options.matrix ? { phase: seed.phase } : {}) });
 }
 
 function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
@@ -217,7 +234,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     warnings: defaultWarnings(circuit),
   };
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
-  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, ...(onOrbit ? { onOrbit } : {}) };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, ...(onOrbit ? { onOrbit } : {}) };
 
   if (drives.length > 0) {
     const period = commonPeriod(drives);
@@ -303,6 +320,7 @@ interface Context {
   readonly budget: RunBudget;
   readonly read: ProbeReader;
   readonly singleGrid: boolean;
+  readonly waveform: boolean;
   /** Told of the orbit a result is built from. */
   readonly onOrbit?: (orbit: RefinedOrbit) => void;
 }
@@ -362,7 +380,7 @@ function recordedStart(c: Context, stepper: TransientStepper, period: number, ma
 
 /** A seed's orbit as the start of a shooting. */
 function seededStart(seed: OrbitSeed): ShootingStart {
-  return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase } };
+  return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase, ...(seed.contraction === undefined ? {} : { contraction: seed.contraction }) } };
 }
 
 /**
@@ -506,7 +524,7 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
     points: orbit.points,
     multipliers,
     stability,
-    waveform: orbitWaveform(orbit.orbit, c.read),
+    waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
   };
 }
 

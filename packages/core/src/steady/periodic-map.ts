@@ -1,6 +1,6 @@
 import { simulationError } from "../circuit/diagnostic.js";
 import { Linearisation } from "../solver/linearisation.js";
-import { LuSolver } from "../solver/lu.js";
+import { DenseLu } from "../solver/dense-lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
@@ -50,7 +50,7 @@ export class PeriodicMap {
   private here: Linearisation;
   private readonly middle: Linearisation;
   private next: Linearisation;
-  private readonly lu: LuSolver;
+  private readonly lu: DenseLu;
   private readonly jacobian: Float64Array;
   // Charges and rates at xₖ, x_γ and xₖ₊₁ (here and next swap at each step).
   private qHere: Float64Array;
@@ -63,7 +63,6 @@ export class PeriodicMap {
   private readonly xNext: Float64Array;
   private readonly sMiddle: Float64Array;
   private readonly rhs: Float64Array;
-  private readonly column: Float64Array;
   private readonly iterations: number;
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
@@ -76,7 +75,7 @@ export class PeriodicMap {
     this.here = new Linearisation(system);
     this.middle = new Linearisation(system);
     this.next = new Linearisation(system);
-    this.lu = new LuSolver(n);
+    this.lu = new DenseLu(n);
     this.jacobian = new Float64Array(n * n);
     this.qHere = new Float64Array(n);
     this.rateHere = new Float64Array(n);
@@ -88,7 +87,6 @@ export class PeriodicMap {
     this.xNext = new Float64Array(n);
     this.sMiddle = new Float64Array(n * (n + 1));
     this.rhs = new Float64Array(n * (n + 1));
-    this.column = new Float64Array(n);
   }
 
   /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from a linearisation at x. */
@@ -151,9 +149,15 @@ export class PeriodicMap {
       if (sx) this.propagate(sx, columns, a, h, fractions[k]!);
       this.states[k + 1]!.set(this.xNext);
       // The new point becomes the start of the next step.
-      [this.here, this.next] = [this.next, this.here];
-      [this.qHere, this.qNext] = [this.qNext, this.qHere];
-      [this.rateHere, this.rateNext] = [this.rateNext, this.rateHere];
+      const at = this.here;
+      this.here = this.next;
+      this.next = at;
+      const q = this.qHere;
+      this.qHere = this.qNext;
+      this.qNext = q;
+      const rate = this.rateHere;
+      this.rateHere = this.rateNext;
+      this.rateNext = rate;
     }
     return { x: this.states[N]!, sensitivity: sx ? { columns, x: sx } : undefined };
   }
@@ -175,13 +179,50 @@ export class PeriodicMap {
     if (!this.lu.factor(jacobian)) throw simulationError("orbit-singular", "the periodic-orbit map's Jacobian is singular");
   }
 
-  /** out = lu⁻¹·rhs, column by column (n rows of `columns`). */
+  /**
+   * out = lu⁻¹·rhs for all `columns` at once (n rows of them, row-major): the dense solve's own
+   * substitutions, each row update applied to a whole row of columns.
+   */
   private solveColumns(out: Float64Array, columns: number): void {
-    const { n, rhs, column } = this;
-    for (let c = 0; c < columns; c++) {
-      for (let i = 0; i < n; i++) column[i] = rhs[i * columns + c]!;
-      this.lu.solve(column, column);
-      for (let i = 0; i < n; i++) out[i * columns + c] = column[i]!;
+    const { n, rhs } = this;
+    const { lu, perm } = this.lu;
+    for (let i = 0; i < n; i++) {
+      const row = i * columns;
+      const from = perm[i]! * columns;
+      for (let c = 0; c < columns; c++) out[row + c] = rhs[from + c]!;
+      for (let j = 0; j < i; j++) {
+        const l = lu[i * n + j]!;
+        if (l === 0) continue;
+        const other = j * columns;
+        for (let c = 0; c < columns; c++) out[row + c] -= l * out[other + c]!;
+      }
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      const row = i * columns;
+      for (let j = i + 1; j < n; j++) {
+        const u = lu[i * n + j]!;
+        if (u === 0) continue;
+        const other = j * columns;
+        for (let c = 0; c < columns; c++) out[row + c] -= u * out[other + c]!;
+      }
+      const pivot = lu[i * n + i]!;
+      for (let c = 0; c < columns; c++) out[row + c] /= pivot;
+    }
+  }
+
+  /** rhs += (weightC·C_x + weightG·G_x|charged rows)·s, at a linearisation (n rows of `columns`). */
+  private product(weightC: number, weightG: number, at: Linearisation, s: Float64Array, columns: number): void {
+    const { n, rhs } = this;
+    const charged = this.system.chargedRows;
+    for (let i = 0; i < n; i++) {
+      const g = charged[i] ? weightG : 0;
+      const row = i * columns;
+      for (let j = 0; j < n; j++) {
+        const w = weightC * at.C[i * n + j]! + g * at.G[i * n + j]!;
+        if (w === 0) continue;
+        const from = j * columns;
+        for (let c = 0; c < columns; c++) rhs[row + c] += w * s[from + c]!;
+      }
     }
   }
 
@@ -191,30 +232,18 @@ export class PeriodicMap {
    *   J₊·Sₖ₊₁ = a·(c₁·C_x(x_γ)·S_γ − c₂·C_x(xₖ)·Sₖ) − ∂R₂/∂h·f·e_T.
    */
   private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number): void {
-    const { n, here, middle, next, rhs, sMiddle, system } = this;
-    const charged = system.chargedRows;
-    const product = (weightC: number, weightG: number, at: Linearisation, s: Float64Array, add: boolean) => {
-      if (!add) rhs.fill(0);
-      for (let i = 0; i < n; i++) {
-        const g = charged[i] ? weightG : 0;
-        const row = i * columns;
-        for (let j = 0; j < n; j++) {
-          const w = weightC * at.C[i * n + j]! + g * at.G[i * n + j]!;
-          if (w === 0) continue;
-          const from = j * columns;
-          for (let c = 0; c < columns; c++) rhs[row + c] += w * s[from + c]!;
-        }
-      }
-    };
+    const { n, here, middle, next, rhs, sMiddle } = this;
     // Stage 1. q̇_γ = u − G·x_γ − f (its rate) equals a·(q_γ − qₖ) − q̇ₖ at the solution.
     this.factorAt(middle, a);
-    product(a, -1, here, sx, false);
+    rhs.fill(0);
+    this.product(a, -1, here, sx, columns);
     for (let i = 0; i < n; i++) rhs[i * columns + n] += ((this.rateMiddle[i]! + this.rateHere[i]!) / h) * fraction;
     this.solveColumns(sMiddle, columns);
     // Stage 2.
     this.factorAt(next, a);
-    product(a * STAGE_NOW, 0, middle, sMiddle, false);
-    product(-a * STAGE_BEFORE, 0, here, sx, true);
+    rhs.fill(0);
+    this.product(a * STAGE_NOW, 0, middle, sMiddle, columns);
+    this.product(-a * STAGE_BEFORE, 0, here, sx, columns);
     for (let i = 0; i < n; i++) rhs[i * columns + n] += (this.rateNext[i]! / h) * fraction;
     this.solveColumns(sx, columns);
   }

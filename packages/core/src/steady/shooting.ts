@@ -37,6 +37,8 @@ export interface ShootingJacobian {
   readonly phase: number;
   /** Its factorisation, when at hand (else it is factored on first use). */
   readonly lu?: LuSolver;
+  /** How much a step from it is expected to shrink the distance to the orbit (its relative error), when known. */
+  readonly contraction?: number;
 }
 
 /** How {@link shootOrbit} looks for a periodic orbit: autonomous or driven, its iteration bound and tolerance, the multipliers, a Jacobian to start from. */
@@ -167,10 +169,12 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // Newton's update is the distance to the orbit (the residual alone understates it by
     // 1/(1 − μ) when the orbit attracts slowly, μ the multiplier nearest 1): once it is within
     // the tolerance, this period's states are the orbit, and the update only sharpens x₀ and T.
+    // The residual must be within it too: an update from a secant-updated matrix can understate
+    // the distance (a mismatch of several tolerances with an update below one).
     let size = 0;
     for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
     if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
-    if (size <= 1) {
+    if (size <= 1 && mismatch <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
       const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
@@ -179,8 +183,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
     // likely be the last (the step shrinking as the mismatch did), when the multipliers need it.
     // (After an exact Jacobian Newton converges quadratically: a step within a thousand tolerances
-    // is most often the last but one.)
-    const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom && size <= LIKELY_LAST;
+    // is most often the last but one; after a given matrix, the step shrinks by its contraction.)
+    const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom ? size <= LIKELY_LAST : size * (options.jacobian?.contraction ?? Infinity) <= 1;
     const last = options.multipliers === true && likely;
     fresh = !contracted || last;
     previous = mismatch;
@@ -197,6 +201,31 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
   });
+}
+
+/** One period of the map from a point: the shooting's residual there and, when asked, its Newton matrix. */
+export interface PeriodAt {
+  /** [x_N − x₀; 0]: n + 1 values for an autonomous shooting (its phase row holds). */
+  readonly residual: Float64Array;
+  /** The shooting's Newton matrix at the point ((n + 1)², row-major), or null when not asked for. */
+  readonly matrix: Float64Array | null;
+}
+
+/**
+ * One period of an autonomous shooting's map from `start`, with the map's Newton held as tightly
+ * as {@link shootOrbit} holds it for the same `relative`: the residual, and with `phase` (the
+ * unknown the phase condition holds) the Newton matrix from the map's sensitivities.
+ */
+export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[], options: Pick<ShootingOptions, "relative" | "tolerances"> & { readonly phase?: number }): PeriodAt {
+  const map = new PeriodicMap(system, innerTolerances(resolveTolerances(options.tolerances), options.relative ?? 1e-9));
+  const { n } = map;
+  const end = map.run(start, fractions, predictor, options.phase !== undefined);
+  const residual = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) residual[i] = end.x[i]! - start.x[i]!;
+  if (options.phase === undefined) return { residual, matrix: null };
+  const newton = new ShootingMatrix(n + 1, options.phase, undefined);
+  newton.set(end.sensitivity!, n);
+  return { residual, matrix: Float64Array.from(newton.factored().matrix) };
 }
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */

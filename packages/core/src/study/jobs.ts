@@ -5,6 +5,7 @@ import type { RunOptions } from "../analyses/transient.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { failureMessage, runSample, type SampleOutcome, type SampleSettings } from "./sample.js";
+import type { SeedStart } from "./seed-predictor.js";
 import { runSteadySetting, type SteadySettingOutcome } from "./sweep-steady.js";
 
 /**
@@ -12,7 +13,7 @@ import { runSteadySetting, type SteadySettingOutcome } from "./sweep-steady.js";
  * of a `sweep … measure=steady`. Plain data, so it can be posted to a worker thread.
  */
 export type Job =
-  | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: SampleSettings }
+  | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: SampleSettings; readonly start?: SeedStart }
   | { readonly kind: "seed"; readonly circuit: Circuit; readonly analysis: StartupAnalysis; readonly tolerances?: Partial<Tolerances> }
   | { readonly kind: "steady-setting"; readonly circuit: Circuit; readonly tolerances?: Partial<Tolerances> };
 
@@ -50,7 +51,7 @@ export function runJob<J extends Job>(job: J, budget: RunBudget = new RunBudget(
   const work: Job = job;
   switch (work.kind) {
     case "sample":
-      return runSample(work.circuit, work.settings, budget) as JobResult<J>;
+      return runSample(work.circuit, work.settings, budget, work.start) as JobResult<J>;
     case "seed":
       return runSeed(work.circuit, work.analysis, { ...(work.tolerances ? { tolerances: work.tolerances } : {}), budget }) as JobResult<J>;
     case "steady-setting":

@@ -5,6 +5,8 @@ import { runJob, type Job, type JobResult } from "./jobs.js";
 export interface JobPool {
   /** How many jobs it runs at once. */
   readonly jobs: number;
+  /** How many jobs to hand it at once (running, or queued at a worker so that it never waits between jobs). @defaultValue `jobs` */
+  readonly lanes?: number;
   /** Runs one job; rejects with a `RunLimitError` when the budget runs out. */
   run<J extends Job>(job: J): Promise<JobResult<J>>;
   /** Stops the pool; jobs still running are rejected. */

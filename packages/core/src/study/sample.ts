@@ -8,6 +8,7 @@ import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 import type { NumericalError } from "../steady/refine.js";
 import type { OrbitSeed } from "../analyses/steady.js";
+import type { SeedStart } from "./seed-predictor.js";
 
 /** The metrics kept for every Monte Carlo sample (SI units). */
 export interface SampleMetrics {
@@ -69,11 +70,12 @@ export function startupAnalysisOf(circuit: Circuit): StartupAnalysis | undefined
 
 /**
  * Runs one sample: the circuit's startup analysis (and the linear prediction) with the drawn
- * values already elaborated into it, then its criteria. A simulation failure fails the sample;
+ * values already elaborated into it, then its criteria (under `steady`, `start` is where its
+ * shooting starts, see {@link predictedStart}). A simulation failure fails the sample;
  * a limit that runs out ({@link RunLimitError}) stops it and is thrown, so the study stops too.
  */
-export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
-  if (settings.measure === "steady") return steadySample(circuit, settings, budget);
+export function runSample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget(), start?: SeedStart): SampleOutcome {
+  if (settings.measure === "steady") return steadySample(circuit, settings, budget, start);
   const analysis = startupAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no startup analysis"], error: "the file has no startup analysis" };
   try {

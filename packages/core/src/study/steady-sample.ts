@@ -3,6 +3,7 @@ import { isRunLimitError, RunBudget } from "../analyses/limits.js";
 import { runSteady, steadySeed, type OrbitSeed, type SteadyResult } from "../analyses/steady.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import type { Tolerances } from "../solver/tolerances.js";
+import type { SeedStart } from "./seed-predictor.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 import { failureMessage, startupAnalysisOf, type SampleMetrics, type SampleOutcome, type SampleSettings } from "./sample.js";
@@ -61,11 +62,12 @@ export function steadyMetrics(r: SteadyResult): SampleMetrics {
  * One Monte Carlo sample measured by its periodic steady state: the file's `steady` analysis (or
  * one on its start-up's probe) with the drawn values, on the transient's own grid only (the
  * samples' spread dwarfs the grid's error), shot from the nominal's orbit when the study has one
- * (`settings.seed`, see {@link nominalSeed}). There is no simulated start-up: the
+ * (`settings.seed`, see {@link nominalSeed}), moved to `start` (its predicted start, see
+ * `predictedStart`) when given. There is no simulated start-up: the
  * start-up time is the linear prediction (see `SteadyPrediction.startupTime`), computed only
  * when a criterion reads it; settling time and measured growth rate are null.
  */
-export function steadySample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget()): SampleOutcome {
+export function steadySample(circuit: Circuit, settings: SampleSettings, budget: RunBudget = new RunBudget(), start?: SeedStart): SampleOutcome {
   const analysis = steadyAnalysisOf(circuit);
   if (!analysis) return { metrics: null, pass: false, failures: ["no steady or startup analysis"], error: "the file has neither a steady nor a startup analysis" };
   const criteria = sampleCriteria(settings.criteria);
@@ -75,7 +77,8 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       budget,
       predictStartup: criteria.some((c) => c.metric === "startup"),
       singleGrid: true,
-      ...(settings.seed ? { seed: settings.seed } : {}),
+      waveform: false,
+      ...(settings.seed ? { seed: start ? { ...settings.seed, ...start } : settings.seed } : {}),
     });
     const metrics = steadyMetrics(r);
     const verdict = metrics.verdict;

@@ -39,7 +39,7 @@ export async function runSweepInParallel(build: CircuitBuilder, analysis: SweepA
     }
   };
   try {
-    await Promise.all(Array.from({ length: pool.jobs }, lane));
+    await Promise.all(Array.from({ length: pool.lanes ?? pool.jobs }, lane));
   } finally {
     await pool.close();
   }

@@ -5,8 +5,10 @@ import type { Tolerances } from "../solver/tolerances.js";
 import { drawSample } from "./draw.js";
 import { hasMeasure, nothingToMeasure } from "./study-size.js";
 import { nominalSeed } from "./steady-sample.js";
+import { predictedStart, seedPredictor, type SeedPredictor } from "./seed-predictor.js";
 import { budgetOf, type BudgetOptions } from "../analyses/limits.js";
 import { inThreadPool, type JobPoolFactory } from "./pool.js";
+import type { SampleSettings } from "./sample.js";
 import type { ToleranceSample } from "./summary.js";
 
 /** Builds the circuit with some values overridden by name (the elaborator behind it). */
@@ -90,26 +92,21 @@ export async function runToleranceStudy(
   budget.refuseStudy("maxRuns", analysis.runs, `the tolerance study draws ${analysis.runs} runs`, analysis.optionSpans?.runs ?? analysis.span);
   const indices = (options.only ?? shardIndices(analysis.runs, options.shard)).filter((i) => !options.done?.has(i));
   const drawnAround = options.fixed && indices.length > 0 ? nominalsAt(build, tolerances, options.fixed) : tolerances;
-  const seed = analysis.measure === "steady" && indices.length > 0 ? nominalSeed(build({ ...options.fixed }), options.tolerances, budget) : undefined;
-  const settings = {
-    criteria,
-    ...(options.tolerances ? { tolerances: options.tolerances } : {}),
-    ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}),
-    ...(seed ? { seed } : {}),
-  };
+  // The pool first: worker threads start up while this thread computes the nominal's orbit.
   const pool = (options.pool ?? inThreadPool)({ count: indices.length, budget });
   const samples: ToleranceSample[] = [];
   let next = 0;
-  // One lane per worker keeps each busy; in this thread a lane yields between samples so
-  // progress can be drawn and results written as they finish.
-  const lane = async () => {
+  // One lane per job the pool takes at once keeps it busy; in this thread a lane yields between
+  // samples so progress can be drawn and results written as they finish.
+  const lane = async (settings: SampleSettings, predictor: SeedPredictor | undefined) => {
     while (next < indices.length) {
       budget.check("between samples");
       const index = indices[next++]!;
       const drawn = drawSample(drawnAround, analysis.seed, index, analysis.dist);
       const circuit = build({ ...options.fixed, ...drawn });
       if (!hasMeasure(circuit, analysis)) throw nothingToMeasure(analysis);
-      const outcome = await pool.run({ kind: "sample", circuit, settings });
+      const start = predictor && settings.seed ? predictedStart(settings.seed, predictor, drawn) : undefined;
+      const outcome = await pool.run({ kind: "sample", circuit, settings, ...(start ? { start } : {}) });
       const sample: ToleranceSample = { index, drawn, ...outcome };
       samples.push(sample);
       options.onSample?.(sample);
@@ -117,7 +114,16 @@ export async function runToleranceStudy(
     }
   };
   try {
-    await Promise.all(Array.from({ length: pool.jobs }, lane));
+    const seed = analysis.measure === "steady" && indices.length > 0 ? nominalSeed(build({ ...options.fixed }), options.tolerances, budget) : undefined;
+    // One object for every sample: a worker is sent it once (see worker-pool.ts).
+    const settings: SampleSettings = {
+      criteria,
+      ...(options.tolerances ? { tolerances: options.tolerances } : {}),
+      ...(analysis.measure === "steady" ? { measure: "steady" as const } : {}),
+      ...(seed ? { seed } : {}),
+    };
+    const predictor = seed ? seedPredictor(build, options.fixed, drawnAround, seed, { ...(options.tolerances ? { tolerances: options.tolerances } : {}), budget }) : undefined;
+    await Promise.all(Array.from({ length: pool.lanes ?? pool.jobs }, () => lane(settings, predictor)));
   } finally {
     await pool.close();
   }

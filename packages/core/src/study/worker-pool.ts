@@ -1,18 +1,28 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import { runLimitError, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
-import type { Job, JobResult, SeedOutcome } from "./jobs.js";
+import { runJob, type Job, type JobResult, type SeedOutcome } from "./jobs.js";
 import { inThreadPool, type JobPool, type JobPoolContext, type JobPoolFactory } from "./pool.js";
-import type { SampleOutcome } from "./sample.js";
+import type { Circuit } from "../circuit/circuit.js";
+import type { SampleOutcome, SampleSettings } from "./sample.js";
+import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
 
-/** What a worker is sent: one job and the limits it runs within (the wall time as what is left). */
+/**
+ * A job as posted: a sample's settings, one object shared by every sample of a study (with the
+ * nominal's orbit in it), go to each worker once and are named by a number afterwards.
+ */
+export type PostedJob = Exclude<Job, { readonly kind: "sample" }> | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: number; readonly start?: SeedStart };
+
+/** What a worker is sent: one job, the limits it runs within (the wall time as what is left), and settings it has not seen yet. */
 export interface WorkerRequest {
-  readonly job: Job;
+  readonly job: PostedJob;
   readonly limits: WorkerLimits;
+  /** Settings the job (or a later one) names by `id`. */
+  readonly settings?: { readonly id: number; readonly value: SampleSettings };
 }
 
 /** A worker's answer: the job's outcome, or the limit that stopped it. */
@@ -40,35 +50,41 @@ interface Pending {
 }
 
 /**
- * Runs jobs (Monte Carlo samples, start-up seeds) on `jobs` worker threads, one job each at a
- * time; one thread, or running from TypeScript sources, runs them in this thread. The budget
- * goes with every job (its wall time as what is left); an aborted signal or the end of the wall
- * time terminates the workers at once, so a job stuck between its checks cannot hold the call.
- * Every job is deterministic, so the results do not depend on `jobs`.
+ * Runs jobs (Monte Carlo samples, start-up seeds) `jobs` at a time: on `jobs − 1` worker threads
+ * and this thread, whose code the nominal's own run has already compiled (a worker starts cold);
+ * one job, or running from TypeScript sources, runs them in this thread alone. Each worker is
+ * handed the job after the one it runs, so it does not wait for this thread between jobs. The
+ * budget goes with every job (its wall time as what is left); an aborted signal or the end of
+ * the wall time terminates the workers at once, so a job stuck between its checks cannot hold
+ * the call. Every job is deterministic, so the results do not depend on `jobs`.
  */
 export function workerPool(jobs: number = defaultJobs()): JobPoolFactory {
   return (context) => {
     const entry = workerEntry();
     const count = Math.min(jobs, Math.max(1, context.count));
     if (count <= 1 || entry === null) return inThreadPool(context);
-    return startWorkers(entry, count, context);
+    return startWorkers(entry, count - 1, context);
   };
 }
 
-function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): JobPool {
+/** Jobs handed to a worker at once: the one it runs and the next. */
+const WORKER_DEPTH = 2;
+
+function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): JobPool {
   // Workers inherit the parent's flags, except those Node refuses in a worker.
   const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
-  const idle: Worker[] = [];
   const waiting: Array<{ job: Job; pending: Pending }> = [];
-  const busy = new Map<Worker, Pending>();
+  /** Each worker's jobs in the order posted (a worker answers in that order). */
+  const queued = new Map<Worker, Pending[]>();
   const workers: Worker[] = [];
+  let hereBusy = false;
   let stopped: unknown = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
   const stop = (reason: unknown) => {
     if (stopped !== null) return;
     stopped = reason;
-    for (const pending of [...busy.values(), ...waiting.map((w) => w.pending)]) pending.reject(reason);
-    busy.clear();
+    for (const pending of [...[...queued.values()].flat(), ...waiting.map((w) => w.pending)]) pending.reject(reason);
+    for (const q of queued.values()) q.length = 0;
     waiting.length = 0;
     clearTimeout(timer);
     budget.signal?.removeEventListener("abort", onAbort);
@@ -89,33 +105,81 @@ function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): Job
   const left = budget.remaining();
   if (left !== Infinity) timer = setTimeout(stopByBudget, Math.max(0, left * 1000));
   timer?.unref?.();
-  const dispatch = (worker: Worker, job: Job, pending: Pending) => {
-    busy.set(worker, pending);
-    const request: WorkerRequest = { job, limits: budget.forWorker() };
-    worker.postMessage(request);
+  const settingsIds = new Map<SampleSettings, number>();
+  const sent = new Map<Worker, Set<number>>();
+  const post = (worker: Worker, job: Job, pending: Pending) => {
+    queued.get(worker)!.push(pending);
+    const limits = budget.forWorker();
+    if (job.kind !== "sample") {
+      worker.postMessage({ job, limits } satisfies WorkerRequest);
+      return;
+    }
+    let id = settingsIds.get(job.settings);
+    if (id === undefined) settingsIds.set(job.settings, (id = settingsIds.size));
+    const known = sent.get(worker)!;
+    const posted = { kind: "sample" as const, circuit: job.circuit, settings: id, ...(job.start ? { start: job.start } : {}) };
+    if (known.has(id)) worker.postMessage({ job: posted, limits } satisfies WorkerRequest);
+    else {
+      known.add(id);
+      worker.postMessage({ job: posted, limits, settings: { id, value: job.settings } } satisfies WorkerRequest);
+    }
   };
-  for (let k = 0; k < jobs; k++) {
+  const runHere = (job: Job, pending: Pending) => {
+    hereBusy = true;
+    // Later, so that the other lanes can first hand their jobs to the workers.
+    setImmediate(() => {
+      if (stopped !== null) pending.reject(stopped);
+      else {
+        try {
+          pending.resolve(runJob(job, budget));
+        } catch (error) {
+          pending.reject(error);
+          stop(error);
+        }
+      }
+      hereBusy = false;
+      drain();
+    });
+  };
+  /** The worker with the fewest jobs, and how many it has. */
+  const leastQueued = (): [Worker, number] => {
+    let best = workers[0]!;
+    for (const w of workers) if (queued.get(w)!.length < queued.get(best)!.length) best = w;
+    return [best, queued.get(best)!.length];
+  };
+  // An idle worker first, then this thread, then a worker's queue.
+  const place = (job: Job, pending: Pending): boolean => {
+    const [worker, count] = leastQueued();
+    if (count === 0) post(worker, job, pending);
+    else if (!hereBusy) runHere(job, pending);
+    else if (count < WORKER_DEPTH) post(worker, job, pending);
+    else return false;
+    return true;
+  };
+  const drain = () => {
+    while (stopped === null && waiting.length > 0 && place(waiting[0]!.job, waiting[0]!.pending)) waiting.shift();
+  };
+  for (let k = 0; k < threads; k++) {
     const worker = new Worker(entry, { execArgv });
     worker.on("message", (reply: WorkerReply) => {
-      const pending = busy.get(worker);
-      busy.delete(worker);
+      const pending = queued.get(worker)!.shift();
       if (!pending) return;
       if ("limit" in reply) {
         stop(runLimitError(reply.limit));
         return;
       }
-      const next = waiting.shift();
-      if (next) dispatch(worker, next.job, next.pending);
-      else idle.push(worker);
       pending.resolve(reply.outcome);
+      drain();
     });
     // A worker that fails outside a job leaves the call without it: stop rather than wait.
     worker.on("error", (error) => stop(error));
     workers.push(worker);
-    idle.push(worker);
+    queued.set(worker, []);
+    sent.set(worker, new Set());
   }
   return {
-    jobs,
+    jobs: threads + 1,
+    lanes: threads * WORKER_DEPTH + 1,
     run<J extends Job>(job: J) {
       return new Promise<JobResult<J>>((resolve, reject) => {
         if (stopped !== null) {
@@ -123,9 +187,7 @@ function startWorkers(entry: URL, jobs: number, { budget }: JobPoolContext): Job
           return;
         }
         const pending: Pending = { resolve: (outcome) => resolve(outcome as JobResult<J>), reject };
-        const worker = idle.pop();
-        if (worker) dispatch(worker, job, pending);
-        else waiting.push({ job, pending });
+        if (waiting.length > 0 || !place(job, pending)) waiting.push({ job, pending });
       });
     },
     close() {
