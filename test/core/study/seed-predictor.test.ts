@@ -42,7 +42,10 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     const predicted = runSteady(circuit, analysis, { ...options, seed: { ...seed, ...start } });
     expect(predicted.transient.periods).toBe(0);
     expect(predicted.stability!.verdict).toBe(own.stability!.verdict);
-    expect(Math.abs(predicted.frequency! / own.frequency! - 1)).toBeLessThan(1e-6);
+    // (seeded, the sample is shot on the nominal's grid; its own run on the grid of its own
+    // transient, which may differ by a step: the frequencies differ by the two grids' discretisation
+    // errors, a small part of the single grid's own, as in steady-seed.test.ts)
+    expect(Math.abs(predicted.frequency! / own.frequency! - 1)).toBeLessThan(1e-5);
     // (a sample's orbit is solved to 1e-5 of each unknown's peak, so two solutions differ by up to twice that)
     expect(Math.abs(predicted.amplitude! / own.amplitude! - 1)).toBeLessThan(3e-5);
   });
