@@ -16,7 +16,9 @@ function kernel(x: number): number {
 
 /** |Φ(f)/Φ(0)|² of the kernel at f = r·corner, tabulated for r ∈ [0, 2] (Φ vanishes beyond). */
 const SHAPE_POINTS = 256;
-const shapeTable = (() => {
+/** Built on first use (about 30 ms of cosines), not when the library is imported. */
+let shapeTable: Float64Array | undefined;
+function buildShapeTable(): Float64Array {
   const table = new Float64Array(SHAPE_POINTS + 1);
   const n = 2048;
   for (let i = 0; i <= SHAPE_POINTS; i++) {
@@ -30,7 +32,7 @@ const shapeTable = (() => {
     table[i] = ((sum * 4) / n) ** 2;
   }
   return table;
-})();
+}
 
 /** The noise streams' spectral shape at frequency f: 1 at DC, 0.9996 at corner/10, 0 from 2·corner. */
 export function noiseShape(f: number, corner: number): number {
@@ -38,7 +40,8 @@ export function noiseShape(f: number, corner: number): number {
   if (!(r < SHAPE_POINTS)) return 0;
   const i = Math.floor(r);
   const u = r - i;
-  return shapeTable[i]! * (1 - u) + shapeTable[i + 1]! * u;
+  const table = (shapeTable ??= buildShapeTable());
+  return table[i]! * (1 - u) + table[i + 1]! * u;
 }
 
 /** Frequencies to integrate over: log-spaced over the band, dense around every resonance in it. */
