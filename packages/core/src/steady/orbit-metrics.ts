@@ -25,23 +25,25 @@ export interface OrbitMetrics {
  * through each point and its two neighbours (wrapping around the period), second order on any grid.
  */
 export function orbitRates(times: Float64Array, states: readonly Float64Array[], n: number): Float64Array[] {
+  return states.map((_, k) => orbitRate(times, states, k, new Float64Array(n)));
+}
+
+/** The rates at grid point k (see {@link orbitRates}) into `out`, so a period is read without a copy of its states. */
+export function orbitRate(times: Float64Array, states: readonly Float64Array[], k: number, out: Float64Array): Float64Array {
   const N = times.length - 1;
   const T = times[N]! - times[0]!;
-  return states.map((_, k) => {
-    const kk = k === N ? 0 : k;
-    const before = kk === 0 ? N - 1 : kk - 1;
-    const after = kk + 1;
-    const hb = times[kk]! - (kk === 0 ? times[N - 1]! - T : times[before]!);
-    const ha = times[after]! - times[kk]!;
-    const xb = states[before]!;
-    const x0 = states[kk]!;
-    const xa = states[after]!;
-    const rate = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      rate[i] = (-ha / (hb * (ha + hb))) * xb[i]! + ((ha - hb) / (ha * hb)) * x0[i]! + (hb / (ha * (ha + hb))) * xa[i]!;
-    }
-    return rate;
-  });
+  const kk = k === N ? 0 : k;
+  const before = kk === 0 ? N - 1 : kk - 1;
+  const after = kk + 1;
+  const hb = times[kk]! - (kk === 0 ? times[N - 1]! - T : times[before]!);
+  const ha = times[after]! - times[kk]!;
+  const xb = states[before]!;
+  const x0 = states[kk]!;
+  const xa = states[after]!;
+  for (let i = 0; i < out.length; i++) {
+    out[i] = (-ha / (hb * (ha + hb))) * xb[i]! + ((ha - hb) / (ha * hb)) * x0[i]! + (hb / (ha * (ha + hb))) * xa[i]!;
+  }
+  return out;
 }
 
 /** The times of the orbit's grid points from its start (step k is fractions[k]·T; the last is T exactly). */
@@ -57,8 +59,8 @@ export function orbitTimes(orbit: PeriodicOrbit): Float64Array {
 export function orbitWaveform(orbit: PeriodicOrbit, read: ProbeReader): { time: Float64Array; values: Float64Array } {
   const { states } = orbit;
   const time = orbitTimes(orbit);
-  const rates = orbitRates(time, states, states[0]!.length);
-  const values = Float64Array.from(states, (x, k) => read(x, rates[k]!, orbit.start.t0 + time[k]!));
+  const rate = new Float64Array(states[0]!.length);
+  const values = Float64Array.from(states, (x, k) => read(x, orbitRate(time, states, k, rate), orbit.start.t0 + time[k]!));
   return { time, values };
 }
 
@@ -73,13 +75,12 @@ export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
   const T = orbit.start.period;
   const N = orbit.fractions.length;
   const times = orbitTimes(orbit);
-  const n = states[0]!.length;
-  const rates = orbitRates(times, states, n);
+  const rate = new Float64Array(states[0]!.length);
   const t = new Float64Array(N + 3);
   const v = new Float64Array(N + 3);
   for (let k = 0; k <= N; k++) {
     t[k + 1] = times[k]!;
-    v[k + 1] = read(states[k]!, rates[k]!, orbit.start.t0 + times[k]!);
+    v[k + 1] = read(states[k]!, orbitRate(times, states, k, rate), orbit.start.t0 + times[k]!);
   }
   t[0] = times[N - 1]! - T;
   v[0] = v[N]!;
