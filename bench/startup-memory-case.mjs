@@ -48,5 +48,6 @@ console.log(
     startupTime: r.startupTime,
     settlingTime: r.settlingTime,
     cycles: r.cycles,
+    orbit: r.settled,
   }),
 );

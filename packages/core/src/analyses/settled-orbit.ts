@@ -2,8 +2,8 @@ import type { Probe } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
-import { recordPeriod, refineOrbit, type RefinedOrbit } from "../steady/refine.js";
-import { isRunLimitError } from "./limits.js";
+import { orbitPointLimit, recordPeriod, refineOrbit, type RefinedOrbit } from "../steady/refine.js";
+import { isRunLimitError, RUN_LIMITS } from "./limits.js";
 import { probeReader } from "./probes.js";
 import type { TransientStepper } from "./stepper.js";
 
@@ -15,12 +15,17 @@ export interface OrbitFailure {
   readonly failure: string;
 }
 
+/** The settled orbit, and how many of the run's steps each step of its grid merges (1: none). */
+export type SettledOrbit = RefinedOrbit & { readonly merged: number };
+
 /**
  * The periodic steady state next to a settled run: one period of the run continued without its
  * noise (`quiet` is the circuit with the same unknowns and no excitation), refined by shooting
  * on the run's own grid and on it halved (see `refineOrbit`). A circuit driven by a periodic
  * source at the measured frequency has the drive's period; otherwise the period is an unknown.
- * When no orbit is found (the oscillation still drifts, or is not periodic) it says why.
+ * When no orbit is found (the oscillation still drifts, or is not periodic) it says why. The
+ * grid keeps its memory within `maxStoredPoints` values (see `orbitPointLimit`): a finer run
+ * has its steps merged in twos, fours, … (`merged`).
  */
 export function settledOrbit(
   quiet: MnaSystem,
@@ -31,17 +36,19 @@ export function settledOrbit(
   tolerances: Tolerances,
   maxOrder: number,
   check?: () => void,
-): RefinedOrbit | OrbitFailure {
+  maxStoredPoints: number = RUN_LIMITS.maxStoredPoints,
+): SettledOrbit | OrbitFailure {
   const period = measured.drive === undefined ? measured.period : 1 / measured.drive;
   try {
-    const { guess, fractions, trajectory } = recordPeriod(quiet, stepper.snapshot(), period, maxStep, tolerances);
-    return refineOrbit(quiet, guess, fractions, trajectory, probeReader(quiet, probe), maxOrder, {
+    const { guess, fractions, trajectory, merged } = recordPeriod(quiet, stepper.snapshot(), period, maxStep, tolerances, orbitPointLimit(maxStoredPoints, quiet.n));
+    const refined = refineOrbit(quiet, guess, fractions, trajectory, probeReader(quiet, probe), maxOrder, {
       tolerances,
       autonomous: measured.drive === undefined,
       relative: ORBIT_SHARE * tolerances.lteRelative,
       corners: cornersWithin(quiet, guess.t0, period),
       ...(check ? { check } : {}),
     });
+    return { ...refined, merged };
   } catch (error) {
     // A run limit stops the whole run, not just the refinement.
     if (!isOnsetError(error) || isRunLimitError(error)) throw error;
@@ -58,6 +65,6 @@ export function cornersWithin(system: MnaSystem, t0: number, period: number): nu
   return out;
 }
 
-export function isOrbitFailure(x: RefinedOrbit | OrbitFailure): x is OrbitFailure {
+export function isOrbitFailure(x: SettledOrbit | OrbitFailure): x is OrbitFailure {
   return "failure" in x;
 }

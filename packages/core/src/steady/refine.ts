@@ -30,19 +30,52 @@ export interface RefinedOrbit extends OrbitMetrics {
 }
 
 /**
+ * Grid points per period the orbit may have on the run's own grid, for a run keeping at most
+ * `maxStoredPoints` values: the shooting holds about eight copies of the unknowns per point of
+ * that grid (the recorded period, each grid's iterate and result, the halved grid having twice
+ * the points), so a max-step far below the period no longer sets its memory.
+ */
+export function orbitPointLimit(maxStoredPoints: number, unknowns: number): number {
+  return Math.max(MIN_ORBIT_POINTS, Math.floor(maxStoredPoints / (ORBIT_COPIES * Math.max(1, unknowns))));
+}
+
+/** Copies of the unknowns the shooting holds per point of the run's grid (see `orbitPointLimit`). */
+const ORBIT_COPIES = 8;
+
+/** The orbit's grid is never merged below this many points per period. */
+const MIN_ORBIT_POINTS = 256;
+
+/**
  * One period of a run continued from `snapshot`: the shooting guess and the run's own grid,
  * started (by rotating the period) where the state with the largest swing moves fastest, so
- * that the phase condition fixes a value that a shift in time changes most.
+ * that the phase condition fixes a value that a shift in time changes most. A period of more
+ * than `maxPoints` steps keeps every 2nd, 4th, … of them (`merged`), its last point included.
  */
-export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, period: number, maxStep: number, tolerances?: Partial<Tolerances>) {
+export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, period: number, maxStep: number, tolerances?: Partial<Tolerances>, maxPoints = Infinity) {
   const stepper = new TransientStepper(system, { start: snapshot, maxStep, ...(tolerances ? { tolerances } : {}) });
-  const times: number[] = [];
-  const states: Float64Array[] = [];
+  let times: number[] = [];
+  let states: Float64Array[] = [];
+  let merged = 1;
+  let seen = 0;
+  let lastTime = snapshot.t;
+  const last = new Float64Array(system.n);
   stepper.observe((t, x) => {
+    lastTime = t;
+    last.set(x);
+    if (seen++ % merged !== 0) return;
     times.push(t);
     states.push(Float64Array.from(x));
+    if (times.length > maxPoints + 1) {
+      times = times.filter((_, k) => k % 2 === 0);
+      states = states.filter((_, k) => k % 2 === 0);
+      merged *= 2;
+    }
   });
   stepper.advance(snapshot.t + period);
+  if (times[times.length - 1] !== lastTime) {
+    times.push(lastTime);
+    states.push(Float64Array.from(last));
+  }
   let N = times.length - 1;
   if (N >= 2 && times[N]! - times[N - 1]! < SLIVER * (times[N - 1]! - times[N - 2]!)) {
     times.splice(N - 1, 1);
@@ -54,7 +87,7 @@ export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, perio
   const fractions = Float64Array.from({ length: N }, (_, k) => (times[rotated(k) + 1]! - times[rotated(k)]!) / period);
   const trajectory = Array.from({ length: N + 1 }, (_, k) => states[rotated(k)]!);
   const guess: PeriodStart = { t0: times[start]!, x: Float64Array.from(states[start]!), period };
-  return { guess, fractions, trajectory };
+  return { guess, fractions, trajectory, merged };
 }
 
 /** The recorded point (not the last) where the charged state with the largest swing changes fastest. */
@@ -148,8 +181,8 @@ export function refineOrbit(
   // The multipliers come from the run's own grid (a stability verdict and a rate, where the
   // grids differ in the fourth digit), at half the cost of the finer grid's.
   const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
-  const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian }), multipliers: coarse.multipliers };
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
+  const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian }), multipliers: coarse.multipliers };
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
