@@ -84,7 +84,7 @@ export interface SettledFigures {
    * cycles (when no orbit was found, or the run did not settle).
    */
   readonly from: "orbit" | "run";
-  /** Why the orbit was not used, when it was tried. */
+  /** Why the orbit was not used, when it was tried; with the orbit, that its grid merges the run's steps (stored-points bounds it), else null. */
   readonly note: string | null;
   /** Shooting iterations (periods integrated) on the two grids. */
   readonly iterations: readonly [number, number] | null;
@@ -251,7 +251,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span) });
+  const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -361,6 +361,7 @@ function refineSettled(
     readonly tolerances: Tolerances;
     readonly orders: number;
     readonly check: () => void;
+    readonly maxStoredPoints: number;
   },
 ): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
@@ -373,7 +374,7 @@ function refineSettled(
     return fromRun("the settled figures are the run's last cycles: the sources have no common period with the measured one");
   }
   const orders = thdOrder(s.analysis, drive ?? f);
-  const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check);
+  const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check, s.maxStoredPoints);
   if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);
   return {
     metrics: {
@@ -391,8 +392,13 @@ function refineSettled(
     },
     numericalError: orbit.numericalError,
     orders,
-    settled: { from: "orbit", note: null, iterations: orbit.iterations, points: orbit.points },
+    settled: { from: "orbit", note: orbit.merged > 1 ? mergedNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points },
   };
+}
+
+/** Why the orbit's grid is coarser than the run's steps, and how to keep them all. */
+function mergedNote(merged: number, maxStoredPoints: number): string {
+  return `the orbit's grid merges every ${merged} of the run's steps: stored-points=${maxStoredPoints} bounds its memory (raise it with --limit stored-points=N, or maxStoredPoints)`;
 }
 
 /**
