@@ -137,7 +137,7 @@ function spreadEntry(s: StartupTimeSpread): [string, string] {
 function settledText(r: StartupResult): string {
   const s = r.settled;
   if (s.from === "orbit" && s.points && s.iterations) {
-    return `the periodic orbit next to the run, found by shooting on ${s.points[0]} and ${s.points[1]} points per period and extrapolated; ± is how far the extrapolation moved each figure, a bound on its numerical error`;
+    return `the periodic orbit next to the run, found by shooting on ${s.points[0]} and ${s.points[1]} points per period and extrapolated; ± is how far the extrapolation moved each figure, a bound on its numerical error${s.note ? `; ${s.note}` : ""}`;
   }
   return s.note ?? "the run's last cycles";
 }
