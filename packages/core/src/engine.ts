@@ -53,7 +53,7 @@ export { shootOrbit } from "./steady/shooting.js";
 export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } from "./steady/shooting.js";
 export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";
-export { recordPeriod, refineOrbit } from "./steady/refine.js";
+export { orbitPointLimit, recordPeriod, refineOrbit } from "./steady/refine.js";
 export { OrbitApproach } from "./steady/approach.js";
 export { SampleWindow } from "./steady/sample-window.js";
 export type { Approach } from "./steady/approach.js";

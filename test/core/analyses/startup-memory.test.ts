@@ -52,3 +52,21 @@ describe("the start-up run's memory is set by the stored-points limit, not by th
     expect(e.message).toMatch(/^the start-up run stopped at t = [\d.e-]+ s: within the stored-points limit of 2000 values/);
   });
 });
+
+describe("the settled orbit's grid is bounded by stored-points too", () => {
+  const circuit = build(TEXT.replace("until=80m", "until=50m"));
+  const whole = runStartup(circuit, startupOf(circuit));
+  const bounded = runStartup(circuit, startupOf(circuit), { limits: { maxStoredPoints: 16_000 } });
+
+  test("a run with more steps a period than the bound allows has them merged, says so naming the limit, and keeps its figures within their error bars", () => {
+    expect(whole.settled.from).toBe("orbit");
+    expect(whole.settled.note).toBeNull();
+    expect(bounded.settled.from).toBe("orbit");
+    expect(bounded.settled.points![0]).toBeLessThanOrEqual(256);
+    expect(bounded.settled.points![0]).toBeLessThan(whole.settled.points![0] / 1.5);
+    expect(bounded.settled.note).toMatch(/merges every \d+ of the run's steps.*stored-points/);
+    expect(Math.abs(bounded.frequency! - whole.frequency!)).toBeLessThan(bounded.numericalError!.frequency + whole.numericalError!.frequency);
+    expect(Math.abs(bounded.amplitude! - whole.amplitude!)).toBeLessThan(bounded.numericalError!.amplitude + whole.numericalError!.amplitude);
+    expect(Math.abs(bounded.thd! - whole.thd!)).toBeLessThan(bounded.numericalError!.thd + whole.numericalError!.thd);
+  });
+});
