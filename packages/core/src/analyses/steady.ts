@@ -12,7 +12,7 @@ import { OrbitApproach } from "../steady/approach.js";
 import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRates, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
-import { recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
+import { orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
@@ -373,9 +373,9 @@ interface ShootingStart {
   readonly jacobian?: ShootingJacobian;
 }
 
-/** One period recorded from the stepper's state (see `recordPeriod`). */
+/** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points). */
 function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number): ShootingStart {
-  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances);
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n));
 }
 
 /** A seed's orbit as the start of a shooting. */
