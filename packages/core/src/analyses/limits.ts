@@ -59,7 +59,10 @@ export interface RunLimits {
    * them), so memory stays within this whatever the run's length. A start-up run whose thinned
    * points would fall below 32 per period stops with `stored-points-limit` (its cycles could no
    * longer be measured): refused up front past about stored-points / 85 predicted periods, and
-   * stopped where thinning crosses that line, from about stored-points / 170 periods on.
+   * stopped where thinning crosses that line, from about stored-points / 170 periods on. It also
+   * bounds a settled orbit's grid (the start-up run's and the steady analysis'): at most
+   * stored-points / (8 × unknowns) points per period, at least 256; a finer run's steps are merged
+   * in twos, fours, … (the start-up result's settled note says so).
    * @defaultValue 2 000 000 (16 MB)
    */
   readonly maxStoredPoints?: number;
