@@ -73,6 +73,11 @@ export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, perio
   });
   stepper.advance(snapshot.t + period);
   if (times[times.length - 1] !== lastTime) {
+    // The period's end, in place of the last kept point when that would pass the bound.
+    if (times.length > maxPoints) {
+      times.pop();
+      states.pop();
+    }
     times.push(lastTime);
     states.push(Float64Array.from(last));
   }
