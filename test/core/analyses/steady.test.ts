@@ -95,4 +95,17 @@ describe("runSteady on a driven circuit (mathematics: the steady-state phasor)",
     const r = runSteady(rc, steady());
     expect(r.thd!).toBeLessThan(1e-6);
   });
+
+  test("a max-step far below the period under a small stored-points: the orbit grid merges the run's steps, says so, and keeps the phasor within its error bar", () => {
+    // 1000 steps per period; stored-points 6000 bounds the grid at 256 points for 3 unknowns
+    // (stored-points / (8 × unknowns), at least 256), so every 4 steps become one.
+    const r = runSteady(rc, steady({ maxStep: 1e-6 }), { limits: { maxStoredPoints: 6000 } });
+    expect(r.found).toBe(true);
+    expect(r.points![0]).toBeLessThanOrEqual(256);
+    const merged = r.warnings.filter((w) => w.code === "orbit-grid-merged");
+    expect(merged.map((w) => w.message)).toEqual(["the orbit's grid merges every 4 of the run's steps: stored-points=6000 bounds its memory (raise it with --limit stored-points=N, or maxStoredPoints)"]);
+    const w = 2 * Math.PI * f * R * Cap;
+    expect(Math.abs(r.harmonics[0]!.amplitude - 2 / Math.sqrt(1 + w * w))).toBeLessThanOrEqual(Math.max(r.numericalError!.amplitude, 1e-6 * r.amplitude!));
+    expect(runSteady(rc, steady({ maxStep: 1e-6 })).warnings.filter((x) => x.code === "orbit-grid-merged")).toEqual([]);
+  });
 });

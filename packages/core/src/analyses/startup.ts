@@ -10,7 +10,7 @@ import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, withSources, type MnaSystem } from "../solver/system.js";
 import { accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
-import type { NumericalError } from "../steady/refine.js";
+import { mergedGridNote, type NumericalError } from "../steady/refine.js";
 import { NoiseBank } from "../waves/noise-bank.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -392,13 +392,8 @@ function refineSettled(
     },
     numericalError: orbit.numericalError,
     orders,
-    settled: { from: "orbit", note: orbit.merged > 1 ? mergedNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points },
+    settled: { from: "orbit", note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points },
   };
-}
-
-/** Why the orbit's grid is coarser than the run's steps, and how to keep them all. */
-function mergedNote(merged: number, maxStoredPoints: number): string {
-  return `the orbit's grid merges every ${merged} of the run's steps: stored-points=${maxStoredPoints} bounds its memory (raise it with --limit stored-points=N, or maxStoredPoints)`;
 }
 
 /**

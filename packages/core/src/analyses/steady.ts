@@ -12,7 +12,7 @@ import { OrbitApproach } from "../steady/approach.js";
 import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRates, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
-import { orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
+import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { solveBias } from "./bias.js";
@@ -264,7 +264,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
   }
-  const orbitFound = (shot: RefinedOrbit, transient: SteadyResult["transient"]) => {
+  const orbitFound = (shot: ShotOrbit, transient: SteadyResult["transient"]) => {
     const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
   };
@@ -371,7 +371,12 @@ interface ShootingStart {
   readonly fractions: Float64Array;
   readonly trajectory: readonly Float64Array[];
   readonly jacobian?: ShootingJacobian;
+  /** The run's steps merged into each point of the grid (see `recordPeriod`); 1 when none are. */
+  readonly merged?: number;
 }
+
+/** A shooting's orbit, with how many of the run's steps each point of its grid merges. */
+type ShotOrbit = RefinedOrbit & { readonly merged: number };
 
 /** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points). */
 function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number): ShootingStart {
@@ -387,9 +392,9 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}): RefinedOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}): ShotOrbit | string {
   try {
-    const { guess, fractions, trajectory, jacobian } = start();
+    const { guess, fractions, trajectory, jacobian, merged = 1 } = start();
     const period = guess.period;
     const settings = {
       tolerances: c.tolerances,
@@ -404,7 +409,7 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limi
     const orders = thdOrder(c.analysis, 1 / period);
     const refined = c.singleGrid ? singleGridOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings) : refineOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings);
     if (collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
-    return refined;
+    return { ...refined, merged };
   } catch (error) {
     if (!isOnsetError(error) || isRunLimitError(error)) throw error;
     return error.diagnostic.message;
@@ -484,7 +489,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
   };
 }
 
-function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
+function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   const period = orbit.orbit.start.period;
   const multipliers = nonTrivialMultipliers(orbit.orbit.multipliers, common.kind === "autonomous");
   const stability = orbitStability(multipliers, period);
@@ -507,7 +512,7 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
   return {
     analysis: "steady",
     ...common,
-    warnings: [...common.warnings, ...implausible],
+    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : [])],
     found: true,
     explanation: `${what}; ${how}`,
     frequency: orbit.frequency,
@@ -528,3 +533,14 @@ function found(c: Context, orbit: RefinedOrbit, common: Common): SteadyResult {
   };
 }
 
+/** The warning of a steady analysis whose orbit grid merges the run's steps (a max-step far below the period). */
+function mergedWarning(c: Context, merged: number): Diagnostic {
+  return {
+    severity: "warning",
+    stage: "simulation",
+    code: "orbit-grid-merged",
+    message: mergedGridNote(merged, c.budget.maxStoredPoints),
+    ...(c.analysis.span ? { span: c.analysis.span } : {}),
+    hint: "the figures and their error bars are those of the merged grid",
+  };
+}

@@ -29,6 +29,11 @@ export interface RefinedOrbit extends OrbitMetrics {
   readonly iterations: readonly [number, number];
 }
 
+/** Why an orbit's grid is coarser than the run's steps, and how to keep them all. */
+export function mergedGridNote(merged: number, maxStoredPoints: number): string {
+  return `the orbit's grid merges every ${merged} of the run's steps: stored-points=${maxStoredPoints} bounds its memory (raise it with --limit stored-points=N, or maxStoredPoints)`;
+}
+
 /**
  * Grid points per period the orbit may have on the run's own grid, for a run keeping at most
  * `maxStoredPoints` values: the shooting holds about eight copies of the unknowns per point of
