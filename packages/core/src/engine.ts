@@ -44,7 +44,7 @@ export type { SmallSignal } from "./analyses/linearize.js";
 export { dominantPair, pencilPoles } from "./analyses/poles.js";
 export { PhasorSolver } from "./analyses/response.js";
 export { noiseLevel, noiseShape } from "./analyses/noise-level.js";
-export { ComplexLu } from "./analyses/complex-lu.js";
+export { ComplexLu } from "./solver/complex-lu.js";
 
 // Periodic steady state (shooting)
 export { PeriodicMap } from "./steady/periodic-map.js";

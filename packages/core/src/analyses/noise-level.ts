@@ -1,6 +1,6 @@
 import type { NoiseGenerator } from "../devices/device.js";
 import { LuSolver } from "../solver/lu.js";
-import { ComplexLu } from "./complex-lu.js";
+import { ComplexLu } from "../solver/complex-lu.js";
 import type { SmallSignal } from "./linearize.js";
 import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { Pole } from "./poles.js";

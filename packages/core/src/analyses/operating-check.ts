@@ -135,14 +135,17 @@ export function implausibleOperation(system: MnaSystem, x: Float64Array, where: 
 
 /**
  * The same warnings over the states of a periodic orbit (a steady analysis's period): `times[k]`
- * and `states[k]` (the unknowns, in the system's order) and `rates[k]` their time derivatives
- * (zeros where unknown: capacitor currents then read 0). Checks every state given: an orbit's
- * grid is one period, a few hundred points.
+ * and `states[k]` (the unknowns, in the system's order), and `rateAt(k, out)` filling `out` with
+ * their time derivatives there (without it they read 0, and so do capacitor currents). Checks
+ * every state given: an orbit's grid is one period, a few hundred points.
  */
-export function implausibleOnOrbit(system: MnaSystem, times: ArrayLike<number>, states: readonly Float64Array[], rates?: readonly Float64Array[]): ImplausiblePart[] {
+export function implausibleOnOrbit(system: MnaSystem, times: ArrayLike<number>, states: readonly Float64Array[], rateAt?: (k: number, out: Float64Array) => void): ImplausiblePart[] {
   const watch = new OperatingWatch(system);
-  const none = new Float64Array(system.n);
-  for (let k = 0; k < states.length; k++) watch.check(times[k]!, states[k]!, rates?.[k] ?? none);
+  const rates = new Float64Array(system.n);
+  for (let k = 0; k < states.length; k++) {
+    rateAt?.(k, rates);
+    watch.check(times[k]!, states[k]!, rates);
+  }
   return watch.warnings("on the steady orbit");
 }
 

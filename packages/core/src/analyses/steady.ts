@@ -10,7 +10,7 @@ import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { OrbitApproach } from "../steady/approach.js";
 import { modeOfPole } from "../steady/growing-mode.js";
-import { orbitMetrics, orbitRates, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
+import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
@@ -508,7 +508,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   const times = orbitTimes(orbit.orbit);
   const { states, start } = orbit.orbit;
   const at = times.map((t) => start.t0 + t);
-  const implausible = implausibleOnOrbit(c.system, at, states, orbitRates(times, states, c.system.n)).map((w) => w.diagnostic);
+  const implausible = implausibleOnOrbit(c.system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic);
   return {
     analysis: "steady",
     ...common,

@@ -80,6 +80,37 @@ export class DenseLu {
     return true;
   }
 
+  /**
+   * Solves A·X = B for `columns` right-hand sides at once (B and X n rows of `columns`,
+   * row-major; not the same array): the substitutions of {@link solve}, each row update applied to
+   * a whole row of columns.
+   */
+  solveColumns(b: Float64Array, x: Float64Array, columns: number): void {
+    const { n, lu, perm } = this;
+    for (let i = 0; i < n; i++) {
+      const row = i * columns;
+      const from = perm[i]! * columns;
+      for (let c = 0; c < columns; c++) x[row + c] = b[from + c]!;
+      for (let j = 0; j < i; j++) {
+        const l = lu[i * n + j]!;
+        if (l === 0) continue;
+        const other = j * columns;
+        for (let c = 0; c < columns; c++) x[row + c] -= l * x[other + c]!;
+      }
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      const row = i * columns;
+      for (let j = i + 1; j < n; j++) {
+        const u = lu[i * n + j]!;
+        if (u === 0) continue;
+        const other = j * columns;
+        for (let c = 0; c < columns; c++) x[row + c] -= u * x[other + c]!;
+      }
+      const pivot = lu[i * n + i]!;
+      for (let c = 0; c < columns; c++) x[row + c] /= pivot;
+    }
+  }
+
   /** Solves A·x = b for the last factored A; `b` and `x` may be the same array. */
   solve(b: Float64Array, x: Float64Array): void {
     const n = this.n;

@@ -21,14 +21,10 @@ export interface OrbitMetrics {
 }
 
 /**
- * The unknowns' rates at the grid points of a periodic orbit: the derivative of the quadratic
- * through each point and its two neighbours (wrapping around the period), second order on any grid.
+ * The unknowns' rates at grid point k of a periodic orbit, into `out`: the derivative of the
+ * quadratic through the point and its two neighbours (wrapping around the period), second order
+ * on any grid. One point at a time, so a period is read without a copy of its states.
  */
-export function orbitRates(times: Float64Array, states: readonly Float64Array[], n: number): Float64Array[] {
-  return states.map((_, k) => orbitRate(times, states, k, new Float64Array(n)));
-}
-
-/** The rates at grid point k (see {@link orbitRates}) into `out`, so a period is read without a copy of its states. */
 export function orbitRate(times: Float64Array, states: readonly Float64Array[], k: number, out: Float64Array): Float64Array {
   const N = times.length - 1;
   const T = times[N]! - times[0]!;

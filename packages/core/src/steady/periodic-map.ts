@@ -179,37 +179,6 @@ export class PeriodicMap {
     if (!this.lu.factor(jacobian)) throw simulationError("orbit-singular", "the periodic-orbit map's Jacobian is singular");
   }
 
-  /**
-   * out = lu⁻¹·rhs for all `columns` at once (n rows of them, row-major): the dense solve's own
-   * substitutions, each row update applied to a whole row of columns.
-   */
-  private solveColumns(out: Float64Array, columns: number): void {
-    const { n, rhs } = this;
-    const { lu, perm } = this.lu;
-    for (let i = 0; i < n; i++) {
-      const row = i * columns;
-      const from = perm[i]! * columns;
-      for (let c = 0; c < columns; c++) out[row + c] = rhs[from + c]!;
-      for (let j = 0; j < i; j++) {
-        const l = lu[i * n + j]!;
-        if (l === 0) continue;
-        const other = j * columns;
-        for (let c = 0; c < columns; c++) out[row + c] -= l * out[other + c]!;
-      }
-    }
-    for (let i = n - 1; i >= 0; i--) {
-      const row = i * columns;
-      for (let j = i + 1; j < n; j++) {
-        const u = lu[i * n + j]!;
-        if (u === 0) continue;
-        const other = j * columns;
-        for (let c = 0; c < columns; c++) out[row + c] -= u * out[other + c]!;
-      }
-      const pivot = lu[i * n + i]!;
-      for (let c = 0; c < columns; c++) out[row + c] /= pivot;
-    }
-  }
-
   /** rhs += (weightC·C_x + weightG·G_x|charged rows)·s, at a linearisation (n rows of `columns`). */
   private product(weightC: number, weightG: number, at: Linearisation, s: Float64Array, columns: number): void {
     const { n, rhs } = this;
@@ -238,13 +207,13 @@ export class PeriodicMap {
     rhs.fill(0);
     this.product(a, -1, here, sx, columns);
     for (let i = 0; i < n; i++) rhs[i * columns + n] += ((this.rateMiddle[i]! + this.rateHere[i]!) / h) * fraction;
-    this.solveColumns(sMiddle, columns);
+    this.lu.solveColumns(rhs, sMiddle, columns);
     // Stage 2.
     this.factorAt(next, a);
     rhs.fill(0);
     this.product(a * STAGE_NOW, 0, middle, sMiddle, columns);
     this.product(-a * STAGE_BEFORE, 0, here, sx, columns);
     for (let i = 0; i < n; i++) rhs[i * columns + n] += (this.rateNext[i]! / h) * fraction;
-    this.solveColumns(sx, columns);
+    this.lu.solveColumns(rhs, sx, columns);
   }
 }
