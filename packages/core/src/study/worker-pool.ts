@@ -9,7 +9,7 @@ import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
-const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof"]);
+const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof", "--cpu-prof-dir", "--cpu-prof-name", "--heap-prof-dir", "--heap-prof-name"]);
 
 /**
  * A job as posted: a sample's settings, one object shared by every sample of a study (with the
@@ -72,7 +72,7 @@ const WORKER_DEPTH = 2;
 
 function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): JobPool {
   // Workers inherit the parent's flags, except those Node refuses in a worker.
-  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a));
+  const execArgv = process.execArgv.filter((a) => !a.startsWith("--input-type") && !WORKER_REFUSED_FLAGS.has(a.split("=")[0]!));
   const waiting: Array<{ job: Job; pending: Pending }> = [];
   /** Each worker's jobs in the order posted (a worker answers in that order). */
   const queued = new Map<Worker, Pending[]>();
