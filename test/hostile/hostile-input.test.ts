@@ -156,6 +156,15 @@ describe("the rows of the table", () => {
     expect(doc.results).toHaveLength(2);
   });
 
+  test("a steady orbit through kiloamperes: its JSON warnings name the part in a field of their own", async () => {
+    // 2 kV peak across 1 Ω: a 2 kA peak on the driven orbit (Ohm's law).
+    ws.write("kiloamp.onset", "vsource V1 a gnd wave=sine amp=2k freq=1k\nresistor R1 a gnd 1\nresistor R2 a o 1k\ncapacitor C1 o gnd 100n\nsteady probe=o\n");
+    const r = await capped(["run", "kiloamp.onset", "--json"]);
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout) as { results: Array<{ warnings: Array<{ code: string; part?: string }> }> };
+    expect(doc.results[0]!.warnings.filter((w) => w.code === "implausible-operation").map((w) => w.part)).toEqual(["V1", "R1"]);
+  });
+
   test("onset merge of a results file whose drawn values were edited: refused naming file and line", async () => {
     ws.write("mc.onset", wien("startup probe=o until=auto\ntolerance runs=4\n"));
     for (const shard of ["0/2", "1/2"]) expect((await capped(["run", "mc.onset", "--jobs", "1", "--shard", shard, "--results", `s${shard[0]}.jsonl`])).status).toBe(0);

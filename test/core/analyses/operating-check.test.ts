@@ -69,6 +69,7 @@ describe("implausible operating points", () => {
     const bad = build(WIEN_AND_RAMP + analysis);
     const warned = runStartup(bad, analysisOf(bad, "startup"), { settledFromOrbit: false }).warnings.filter((w) => w.code === "implausible-operation");
     expect(warned.map((w) => w.message.split(" ").slice(0, 2).join(" "))).toEqual(["vsource V9", "resistor R9"]);
+    expect(warned.map((w) => w.part)).toEqual(["V9", "R9"]);
     expect(warned[1]!.message).toMatch(/^resistor R9 carries 10000 A at t = \S+ m?s in the start-up run, far outside any physical operating point$/);
     const fine = build(WIEN_AND_RAMP.replace("high=1k", "high=1") + analysis);
     expect(runStartup(fine, analysisOf(fine, "startup"), { settledFromOrbit: false }).warnings.filter((w) => w.code === "implausible-operation")).toEqual([]);
@@ -108,6 +109,7 @@ steady probe=o
     expect(r.found).toBe(true);
     const warned = r.warnings.filter((w) => w.code === "implausible-operation");
     expect(warned.map((w) => w.message.split(" ").slice(0, 2).join(" "))).toEqual(["vsource V1", "resistor R1"]);
+    expect(warned.map((w) => w.part)).toEqual(["V1", "R1"]);
     const m = /^resistor R1 carries (\S+) A at t = (\S+) (\S?)s on the steady orbit, far outside any physical operating point$/.exec(warned[1]!.message);
     expect(m).not.toBeNull();
     expect(Math.abs(Number(m![1]))).toBeGreaterThan(1990);

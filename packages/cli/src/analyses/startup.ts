@@ -5,6 +5,7 @@ import type { Json } from "../json/results.js";
 import { startupFigure } from "../plot/index.js";
 import { startupReport } from "../report/startup.js";
 import type { AnalysisWriters } from "./analysis-writers.js";
+import { warningsJson } from "../report/part-warnings.js";
 
 /** A start-up result without its waveform and envelope arrays (they are large). */
 export function startupJson(r: StartupResult): Json {
@@ -39,7 +40,7 @@ export function startupJson(r: StartupResult): Json {
     excitation: { ...r.run.excitation },
     predicted: { ...r.run.predicted },
     solver: { ...r.run.solver },
-    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, hint: w.hint })),
+    warnings: warningsJson(r.warnings),
   };
 }
 

@@ -1,5 +1,6 @@
 import type { SteadyResult } from "@onset/core";
 import type { Json } from "./results.js";
+import { warningsJson } from "../report/part-warnings.js";
 
 /** A steady result without its one-period waveform (the CSV carries it). */
 export function steadyJson(r: SteadyResult): Json {
@@ -28,6 +29,6 @@ export function steadyJson(r: SteadyResult): Json {
     stability: s ? { verdict: s.verdict, largest: s.largest ? Math.hypot(s.largest.re, s.largest.im) : null, rate: s.rate, cyclesToSettle: s.cyclesToSettle } : null,
     predicted: { ...r.predicted },
     transient: { periods: r.transient.periods, until: r.transient.until, maxStep: r.transient.maxStep, solver: { ...r.transient.solver } },
-    warnings: r.warnings.map((w) => ({ code: w.code, message: w.message, hint: w.hint })),
+    warnings: warningsJson(r.warnings),
   };
 }

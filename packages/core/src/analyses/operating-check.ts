@@ -40,6 +40,7 @@ function warning(device: Device, why: string, where: string): ImplausiblePart {
     code: "implausible-operation",
     message: `${part.kind} ${part.name} ${why} ${where}, far outside any physical operating point`,
     hint: "the figures follow from an idealised part: check its values (a diode's series=, a source's level) and what it is connected across",
+    part: part.name,
     ...(part.span ? { span: part.span } : {}),
   };
   return { part: part.name, diagnostic };

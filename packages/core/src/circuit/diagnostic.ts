@@ -23,6 +23,8 @@ export interface Diagnostic {
   readonly span?: SourceSpan;
   readonly hint?: string;
   readonly notes?: readonly string[];
+  /** The circuit part the diagnostic is about, by name (an `implausible-operation` warning's part). */
+  readonly part?: string;
 }
 
 /** The one exception type the library throws; it carries its diagnostic. */
