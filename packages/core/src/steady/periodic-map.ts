@@ -63,6 +63,8 @@ export class PeriodicMap {
   private readonly xNext: Float64Array;
   private readonly sMiddle: Float64Array;
   private readonly rhs: Float64Array;
+  /** The predictor's state at the current step's start, kept before the run overwrites it. */
+  private readonly before: Float64Array;
   private readonly iterations: number;
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
@@ -87,6 +89,7 @@ export class PeriodicMap {
     this.xNext = new Float64Array(n);
     this.sMiddle = new Float64Array(n * (n + 1));
     this.rhs = new Float64Array(n * (n + 1));
+    this.before = new Float64Array(n);
   }
 
   /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from a linearisation at x. */
@@ -108,13 +111,16 @@ export class PeriodicMap {
 
   /**
    * Integrates one period from `start` over the grid (step k is fractions[k]·T). `predictor`
-   * (the unknowns at each grid point of an earlier run) starts each step's Newton solves.
+   * (the unknowns at each grid point of an earlier run) starts each step's Newton solves: its
+   * step from point k to k + 1, taken from this run's point k, so that a start moved by the
+   * shooting's update (which moves the whole period nearly alike) costs no extra iterations.
    */
   run(start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, sensitivity: boolean): { x: Float64Array; sensitivity: MapSensitivity | undefined } {
     const { n, solver } = this;
     const N = fractions.length;
     const T = start.period;
     if (this.states.length !== N + 1) this.states = Array.from({ length: N + 1 }, () => new Float64Array(n));
+    if (predictor) this.before.set(predictor[0]!);
     this.states[0]!.set(start.x);
     const columns = n + 1;
     const sx = sensitivity ? new Float64Array(n * columns) : undefined;
@@ -134,19 +140,25 @@ export class PeriodicMap {
       for (let i = 0; i < n; i++) history[i] = a * this.qHere[i]! + this.rateHere[i]!;
       solver.loadSources(t + GAMMA * h, 1, false);
       const x = this.states[k]!;
-      const guess = predictor?.[k + 1];
-      for (let i = 0; i < n; i++) this.xMiddle[i] = guess ? x[i]! + GAMMA * (guess[i]! - x[i]!) : x[i]!;
+      const after = predictor?.[k + 1];
+      const before = this.before;
+      // The earlier run's step, carried from where this run stands now: x_k + (p_{k+1} − p_k).
+      if (after) for (let i = 0; i < n; i++) this.xNext[i] = x[i]! + (after[i]! - before[i]!);
+      else this.xNext.set(x);
+      for (let i = 0; i < n; i++) this.xMiddle[i] = x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
       this.solve(this.xMiddle, k, N);
       this.middle.at(this.xMiddle);
       this.chargeAndRate(this.xMiddle, this.middle, this.qMiddle, this.rateMiddle);
       // Stage 2: BDF2 through t, t + γh and t + h.
       for (let i = 0; i < n; i++) history[i] = a * (STAGE_NOW * this.qMiddle[i]! - STAGE_BEFORE * this.qHere[i]!);
       solver.loadSources(start.t0 + elapsed * T, 1, false);
-      this.xNext.set(guess ?? this.xMiddle);
+      if (!after) this.xNext.set(this.xMiddle);
       this.solve(this.xNext, k, N);
       this.next.at(this.xNext);
       this.chargeAndRate(this.xNext, this.next, this.qNext, this.rateNext);
       if (sx) this.propagate(sx, columns, a, h, fractions[k]!);
+      // (The predictor may be the last run's own states, about to be overwritten.)
+      if (after) before.set(after);
       this.states[k + 1]!.set(this.xNext);
       // The new point becomes the start of the next step.
       const at = this.here;
