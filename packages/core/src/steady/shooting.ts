@@ -60,6 +60,13 @@ export interface ShootingOptions {
   readonly multipliers?: boolean;
   /** A factored Newton matrix to start from (a chord iteration until it stops contracting). */
   readonly jacobian?: ShootingJacobian;
+  /**
+   * Where a fresh Newton matrix comes from: the map's sensitivities (`when-needed`), or, with
+   * `given`, `jacobian` again in place of Broyden's updates (a finer grid's shooting, whose map
+   * differs from the coarser grid's by O(h²): no period carries the n + 1 sensitivity columns).
+   * @defaultValue "when-needed"
+   */
+  readonly sensitivities?: "when-needed" | "given";
   /** Called before each period is integrated; throws to stop (a run's limits). */
   readonly check?: () => void;
 }
@@ -127,7 +134,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
-    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh);
+    const given = fresh && options.sensitivities === "given" && options.jacobian !== undefined;
+    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh && !given);
     states = map.states;
     let mismatch = 0;
     for (let i = 0; i < n; i++) {
@@ -158,8 +166,9 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       // Even the exact Jacobian's direction does not shrink this measure of the mismatch: go on from here.
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
+    else if (given) newton.reset(options.jacobian!);
     else if (trial) newton.secant(step, damping, fromResidual, residual);
-    freshAtFrom = end.sensitivity !== undefined;
+    freshAtFrom = end.sensitivity !== undefined || given;
     // (A step cut short to λ is expected to shrink the mismatch to about 1 − λ of it.)
     const contracted = !trial || mismatch <= (1 - damping * (1 - CHORD_CONTRACTION)) * previous;
     for (let i = 0; i < n; i++) from[i] = x0[i]!;
@@ -255,6 +264,12 @@ class ShootingMatrix {
     this.matrix = start ? Float64Array.from(start.matrix) : new Float64Array(unknowns * unknowns);
     this.lu = start?.lu;
     this.product = new Float64Array(unknowns);
+  }
+
+  /** M back to a given matrix (its factorisation kept). */
+  reset(start: ShootingJacobian): void {
+    this.matrix.set(start.matrix);
+    this.lu = start.lu;
   }
 
   /** M from the map's sensitivities. */
