@@ -1,6 +1,7 @@
 import { simulationError } from "../circuit/diagnostic.js";
 import { Linearisation } from "../solver/linearisation.js";
 import { DenseLu } from "../solver/dense-lu.js";
+import { DeviceValues } from "./device-values.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
@@ -47,9 +48,14 @@ export class PeriodicMap {
   /** The unknowns at every grid point of the last run (N + 1 of them). */
   states: Float64Array[] = [];
   private readonly system: MnaSystem;
-  private here: Linearisation;
-  private readonly middle: Linearisation;
-  private next: Linearisation;
+  // The devices at xₖ, x_γ and xₖ₊₁: linearised when sensitivities ride along, values only otherwise.
+  private readonly linearised: readonly [Linearisation, Linearisation, Linearisation];
+  private readonly values: readonly [DeviceValues, DeviceValues, DeviceValues];
+  /** The constant C and G by row, their nonzero entries only (column, C, G). */
+  private readonly rowStart: Int32Array;
+  private readonly rowColumn: Int32Array;
+  private readonly rowC: Float64Array;
+  private readonly rowG: Float64Array;
   private readonly lu: DenseLu;
   private readonly jacobian: Float64Array;
   // Charges and rates at xₖ, x_γ and xₖ₊₁ (here and next swap at each step).
@@ -74,9 +80,17 @@ export class PeriodicMap {
     this.solver = new NewtonSolver(system, tolerances);
     this.solver.setMode("step");
     this.iterations = tolerances.stepIterations;
-    this.here = new Linearisation(system);
-    this.middle = new Linearisation(system);
-    this.next = new Linearisation(system);
+    this.linearised = [new Linearisation(system), new Linearisation(system), new Linearisation(system)];
+    this.values = [new DeviceValues(system), new DeviceValues(system), new DeviceValues(system)];
+    const entries: number[] = [];
+    this.rowStart = new Int32Array(n + 1);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) if (system.C[i * n + j] !== 0 || system.G[i * n + j] !== 0) entries.push(i * n + j);
+      this.rowStart[i + 1] = entries.length;
+    }
+    this.rowColumn = Int32Array.from(entries, (e) => e % n);
+    this.rowC = Float64Array.from(entries, (e) => system.C[e]!);
+    this.rowG = Float64Array.from(entries, (e) => system.G[e]!);
     this.lu = new DenseLu(n);
     this.jacobian = new Float64Array(n * n);
     this.qHere = new Float64Array(n);
@@ -92,17 +106,18 @@ export class PeriodicMap {
     this.before = new Float64Array(n);
   }
 
-  /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from a linearisation at x. */
-  private chargeAndRate(x: Float64Array, at: Linearisation, q: Float64Array, rate: Float64Array): void {
-    const { n, system } = this;
+  /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from the devices at x. */
+  private chargeAndRate(x: Float64Array, at: DeviceValues | Linearisation, q: Float64Array, rate: Float64Array): void {
+    const { n, rowStart, rowColumn, rowC, rowG } = this;
     const u = this.solver.u;
-    const { G, C, chargedRows } = system;
+    const { chargedRows } = this.system;
     for (let i = 0; i < n; i++) {
       let cx = at.charges[i]!;
       let gx = at.f[i]!;
-      for (let j = 0; j < n; j++) {
-        cx += C[i * n + j]! * x[j]!;
-        gx += G[i * n + j]! * x[j]!;
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+        const xj = x[rowColumn[e]!]!;
+        cx += rowC[e]! * xj;
+        gx += rowG[e]! * xj;
       }
       q[i] = cx;
       rate[i] = chargedRows[i] ? u[i]! - gx : 0;
@@ -125,9 +140,11 @@ export class PeriodicMap {
     const columns = n + 1;
     const sx = sensitivity ? new Float64Array(n * columns) : undefined;
     if (sx) for (let i = 0; i < n; i++) sx[i * columns + i] = 1;
-    this.here.at(start.x);
+    // (Linearisations exactly when sensitivities ride along: `propagate` reads their G_x and C_x.)
+    let [here, middle, next]: readonly (DeviceValues | Linearisation)[] = sx ? this.linearised : this.values;
+    here!.at(start.x);
     solver.loadSources(start.t0, 1, false);
-    this.chargeAndRate(start.x, this.here, this.qHere, this.rateHere);
+    this.chargeAndRate(start.x, here!, this.qHere, this.rateHere);
     let elapsed = 0;
     for (let k = 0; k < N; k++) {
       const h = fractions[k]! * T;
@@ -147,23 +164,21 @@ export class PeriodicMap {
       else this.xNext.set(x);
       for (let i = 0; i < n; i++) this.xMiddle[i] = x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
       this.solve(this.xMiddle, k, N);
-      this.middle.at(this.xMiddle);
-      this.chargeAndRate(this.xMiddle, this.middle, this.qMiddle, this.rateMiddle);
+      middle!.at(this.xMiddle);
+      this.chargeAndRate(this.xMiddle, middle!, this.qMiddle, this.rateMiddle);
       // Stage 2: BDF2 through t, t + γh and t + h.
       for (let i = 0; i < n; i++) history[i] = a * (STAGE_NOW * this.qMiddle[i]! - STAGE_BEFORE * this.qHere[i]!);
       solver.loadSources(start.t0 + elapsed * T, 1, false);
       if (!after) this.xNext.set(this.xMiddle);
       this.solve(this.xNext, k, N);
-      this.next.at(this.xNext);
-      this.chargeAndRate(this.xNext, this.next, this.qNext, this.rateNext);
-      if (sx) this.propagate(sx, columns, a, h, fractions[k]!);
+      next!.at(this.xNext);
+      this.chargeAndRate(this.xNext, next!, this.qNext, this.rateNext);
+      if (sx) this.propagate(sx, columns, a, h, fractions[k]!, here as Linearisation, middle as Linearisation, next as Linearisation);
       // (The predictor may be the last run's own states, about to be overwritten.)
       if (after) before.set(after);
       this.states[k + 1]!.set(this.xNext);
       // The new point becomes the start of the next step.
-      const at = this.here;
-      this.here = this.next;
-      this.next = at;
+      [here, next] = [next, here];
       const q = this.qHere;
       this.qHere = this.qNext;
       this.qNext = q;
@@ -212,8 +227,8 @@ export class PeriodicMap {
    *   J_γ·S_γ = (a·C_x(xₖ) − G_x(xₖ)|charged)·Sₖ − ∂R₁/∂h·f·e_T,
    *   J₊·Sₖ₊₁ = a·(c₁·C_x(x_γ)·S_γ − c₂·C_x(xₖ)·Sₖ) − ∂R₂/∂h·f·e_T.
    */
-  private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number): void {
-    const { n, here, middle, next, rhs, sMiddle } = this;
+  private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number, here: Linearisation, middle: Linearisation, next: Linearisation): void {
+    const { n, rhs, sMiddle } = this;
     // Stage 1. q̇_γ = u − G·x_γ − f (its rate) equals a·(q_γ − qₖ) − q̇ₖ at the solution.
     this.factorAt(middle, a);
     rhs.fill(0);
