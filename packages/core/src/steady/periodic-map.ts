@@ -71,6 +71,8 @@ export class PeriodicMap {
   private readonly rhs: Float64Array;
   /** The predictor's state at the current step's start, kept before the run overwrites it. */
   private readonly before: Float64Array;
+  /** This run's deviation from the predictor at the last step's start. */
+  private readonly deviation: Float64Array;
   private readonly iterations: number;
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
@@ -104,6 +106,7 @@ export class PeriodicMap {
     this.sMiddle = new Float64Array(n * (n + 1));
     this.rhs = new Float64Array(n * (n + 1));
     this.before = new Float64Array(n);
+    this.deviation = new Float64Array(n);
   }
 
   /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from the devices at x. */
@@ -158,10 +161,17 @@ export class PeriodicMap {
       solver.loadSources(t + GAMMA * h, 1, false);
       const x = this.states[k]!;
       const after = predictor?.[k + 1];
-      const before = this.before;
-      // The earlier run's step, carried from where this run stands now: x_k + (p_{k+1} − p_k).
-      if (after) for (let i = 0; i < n; i++) this.xNext[i] = x[i]! + (after[i]! - before[i]!);
-      else this.xNext.set(x);
+      const { before, deviation } = this;
+      // The earlier run's point k + 1 moved by this run's deviation from it, dₖ = xₖ − pₖ,
+      // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁).
+      if (after) {
+        const trend = k > 0 ? fractions[k]! / fractions[k - 1]! : 0;
+        for (let i = 0; i < n; i++) {
+          const d = x[i]! - before[i]!;
+          this.xNext[i] = after[i]! + d + trend * (d - deviation[i]!);
+          deviation[i] = d;
+        }
+      } else this.xNext.set(x);
       for (let i = 0; i < n; i++) this.xMiddle[i] = x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
       this.solve(this.xMiddle, k, N);
       middle!.at(this.xMiddle);
