@@ -124,6 +124,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
+  /** The last sensitivities, when taken within `MULTIPLIER_REACH` of the orbit. */
+  let near: MapSensitivity | undefined;
   let first = Infinity;
   let best = Infinity;
   const maxIterations = options.maxIterations ?? 25;
@@ -183,10 +185,11 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     let size = 0;
     for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
     if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
+    if (end.sensitivity) near = size <= MULTIPLIER_REACH ? end.sensitivity : undefined;
     if (size <= 1 && mismatch <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
-      const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
+      const multipliers = options.multipliers ? floquetMultipliers(near ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
@@ -194,7 +197,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // (After an exact Jacobian Newton converges quadratically: a step within a thousand tolerances
     // is most often the last but one; after a given matrix, the step shrinks by its contraction.)
     const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom ? size <= LIKELY_LAST : size * (options.jacobian?.contraction ?? Infinity) <= 1;
-    const last = options.multipliers === true && likely;
+    const last = options.multipliers === true && likely && near === undefined;
     fresh = !contracted || last;
     previous = mismatch;
     trial = true;
@@ -239,6 +242,12 @@ export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */
 const LIKELY_LAST = 1e3;
+/**
+ * Sensitivities taken this close to the orbit (Newton's update from their point, in tolerances)
+ * give its multipliers as well as the converged period's own, which is itself only known to
+ * within one tolerance: no further period carries them.
+ */
+const MULTIPLIER_REACH = 2;
 /** A step moves the period by at most this fraction of it. */
 const MAX_PERIOD_MOVE = 0.2;
 
