@@ -62,8 +62,9 @@ export interface ShootingOptions {
   readonly jacobian?: ShootingJacobian;
   /**
    * Where a fresh Newton matrix comes from: the map's sensitivities (`when-needed`), or, with
-   * `given`, `jacobian` again in place of Broyden's updates (a finer grid's shooting, whose map
-   * differs from the coarser grid's by O(h²): no period carries the n + 1 sensitivity columns).
+   * `given`, `jacobian` again in place of Broyden's updates the first time one is asked for (a
+   * finer grid's shooting, whose map differs from the coarser grid's by O(h²): no period carries
+   * the n + 1 sensitivity columns unless the given matrix, put back, still does not contract).
    * @defaultValue "when-needed"
    */
   readonly sensitivities?: "when-needed" | "given";
@@ -124,6 +125,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
+  /** Whether the given matrix was already put back once (see `ShootingOptions.sensitivities`). */
+  let givenAgain = false;
   /** The last sensitivities, when taken within `MULTIPLIER_REACH` of the orbit. */
   let near: MapSensitivity | undefined;
   let first = Infinity;
@@ -136,7 +139,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
-    const given = fresh && options.sensitivities === "given" && options.jacobian !== undefined;
+    const given: boolean = fresh && options.sensitivities === "given" && options.jacobian !== undefined && !givenAgain;
+    givenAgain ||= given;
     const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh && !given);
     states = map.states;
     let mismatch = 0;
