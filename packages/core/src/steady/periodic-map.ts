@@ -24,6 +24,8 @@ const GAMMA = 2 - Math.SQRT2;
 /** The second stage's weights of q(t+γh) and q(t) (Bank et al. 1985; Hosea & Shampine 1996). */
 const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
 const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
+/** The predictor's deviation is extrapolated over at most twice the last step (see `run`). */
+const MAX_TREND = 2;
 
 /**
  * One period of the circuit by TR-BDF2 on a fixed grid whose steps are fractions of T: the map
@@ -163,9 +165,10 @@ export class PeriodicMap {
       const after = predictor?.[k + 1];
       const { before, deviation } = this;
       // The earlier run's point k + 1 moved by this run's deviation from it, dₖ = xₖ − pₖ,
-      // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁).
+      // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁) (the ratio at most 2,
+      // so that a step far longer than the last does not magnify its Newton noise).
       if (after) {
-        const trend = k > 0 ? fractions[k]! / fractions[k - 1]! : 0;
+        const trend = k > 0 ? Math.min(MAX_TREND, fractions[k]! / fractions[k - 1]!) : 0;
         for (let i = 0; i < n; i++) {
           const d = x[i]! - before[i]!;
           this.xNext[i] = after[i]! + d + trend * (d - deviation[i]!);

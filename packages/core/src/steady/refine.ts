@@ -214,8 +214,8 @@ export function refineOrbit(
   const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
   // The halved grid's map differs from the run's own by O(h²): its shooting iterates on the
-  // coarser grid's Newton matrix (reset to it wherever Broyden's updates stop contracting), so no
-  // period of it carries the sensitivities.
+  // coarser grid's Newton matrix (put back once where Broyden's updates stop contracting), so no
+  // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
