@@ -29,3 +29,21 @@ describe("the halved grid's shooting on the run's grid's Newton matrix", () => {
     for (let i = 0; i < system.n; i++) expect(Math.abs(given.start.x[i]! - exact.start.x[i]!)).toBeLessThan(1e-6);
   });
 });
+
+describe("sensitivities \"given\" with a matrix that does not contract", () => {
+  afterEach(() => vi.restoreAllMocks());
+
+  test("the shooting puts it back once, then takes the map's sensitivities, and converges to the same orbit", () => {
+    const { system, guess, fractions, trajectory } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+    const relative = 1e-8;
+    const coarse = shootOrbit(system, guess, fractions, trajectory, { autonomous: true, relative });
+    // The coarse matrix's periodicity rows times 3: a step from it goes a third of the way, leaving two thirds of the distance.
+    const u = system.n + 1;
+    const matrix = Float64Array.from(coarse.jacobian.matrix, (v, k) => (Math.floor(k / u) < system.n ? 3 * v : v));
+    const run = vi.spyOn(PeriodicMap.prototype, "run");
+    const orbit = shootOrbit(system, coarse.start, halved(fractions), undefined, { autonomous: true, relative, jacobian: { matrix, phase: coarse.jacobian.phase }, sensitivities: "given" });
+    expect(run.mock.calls.some(([, , , sensitivity]) => sensitivity)).toBe(true);
+    const exact = shootOrbit(system, coarse.start, halved(fractions), undefined, { autonomous: true, relative, jacobian: coarse.jacobian });
+    expect(Math.abs(orbit.start.period / exact.start.period - 1)).toBeLessThan(2 * relative);
+  });
+});
