@@ -153,19 +153,22 @@ function halvedPredictor(states: readonly Float64Array[], fractions: Float64Arra
   for (let k = 0; k <= N; k++) {
     out.push(states[k]!);
     if (k === N) break;
-    // Lagrange weights at the middle of step k, on the points k − 1 … k + 2 (times from point k).
-    const hb = fractions[(k + N - 1) % N]!;
+    // Lagrange weights at the middle of step k (length h), on the points k − 1 … k + 2, at times
+    // −b, 0, h, h + c from point k.
+    const b = fractions[(k + N - 1) % N]!;
     const h = fractions[k]!;
-    const ha = fractions[(k + 1) % N]!;
-    const nodes = [-hb, 0, h, h + ha];
+    const c = fractions[(k + 1) % N]!;
     const t = 0.5 * h;
-    const w = nodes.map((tj, j) => nodes.reduce((p, tm, m) => (m === j ? p : (p * (t - tm)) / (tj - tm)), 1));
+    const w0 = (t * (t - h) * (t - h - c)) / (-b * (-b - h) * (-b - h - c));
+    const w1 = ((t + b) * (t - h) * (t - h - c)) / (b * -h * (-h - c));
+    const w2 = ((t + b) * t * (t - h - c)) / ((h + b) * h * -c);
+    const w3 = ((t + b) * t * (t - h)) / ((h + c + b) * (h + c) * c);
     const before = states[k === 0 ? N - 1 : k - 1]!;
     const after = states[k + 2 <= N ? k + 2 : 1]!;
     const here = states[k]!;
     const next = states[k + 1]!;
     const mid = new Float64Array(n);
-    for (let i = 0; i < n; i++) mid[i] = w[0]! * before[i]! + w[1]! * here[i]! + w[2]! * next[i]! + w[3]! * after[i]!;
+    for (let i = 0; i < n; i++) mid[i] = w0 * before[i]! + w1 * here[i]! + w2 * next[i]! + w3 * after[i]!;
     out.push(mid);
   }
   return out;
