@@ -49,6 +49,8 @@ export class PeriodicMap {
   readonly solver: NewtonSolver;
   /** The unknowns at every grid point of the last run (N + 1 of them). */
   states: Float64Array[] = [];
+  /** The last run's first-stage solutions, at tₖ + γhₖ (N of them). */
+  private middles: Float64Array[] = [];
   private readonly system: MnaSystem;
   // The devices at xₖ, x_γ and xₖ₊₁: linearised when sensitivities ride along, values only otherwise.
   private readonly linearised: readonly [Linearisation, Linearisation, Linearisation];
@@ -139,7 +141,10 @@ export class PeriodicMap {
     const { n, solver } = this;
     const N = fractions.length;
     const T = start.period;
+    // A predictor that is this map's own last run on this grid also has its first stages.
+    const own = predictor === this.states && this.middles.length === N;
     if (this.states.length !== N + 1) this.states = Array.from({ length: N + 1 }, () => new Float64Array(n));
+    if (this.middles.length !== N) this.middles = Array.from({ length: N }, () => new Float64Array(n));
     if (predictor) this.before.set(predictor[0]!);
     this.states[0]!.set(start.x);
     const columns = n + 1;
@@ -167,16 +172,23 @@ export class PeriodicMap {
       // The earlier run's point k + 1 moved by this run's deviation from it, dₖ = xₖ − pₖ,
       // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁) (the ratio at most 2,
       // so that a step far longer than the last does not magnify its Newton noise).
+      // The first stage likewise from the last run's own, or on the chord to the guessed xₖ₊₁.
+      const lastMiddle = own ? this.middles[k] : undefined;
       if (after) {
         const trend = k > 0 ? Math.min(MAX_TREND, fractions[k]! / fractions[k - 1]!) : 0;
         for (let i = 0; i < n; i++) {
           const d = x[i]! - before[i]!;
-          this.xNext[i] = after[i]! + d + trend * (d - deviation[i]!);
+          const drift = trend * (d - deviation[i]!);
+          this.xNext[i] = after[i]! + d + drift;
+          this.xMiddle[i] = lastMiddle ? lastMiddle[i]! + d + GAMMA * drift : x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
           deviation[i] = d;
         }
-      } else this.xNext.set(x);
-      for (let i = 0; i < n; i++) this.xMiddle[i] = x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
+      } else {
+        this.xNext.set(x);
+        this.xMiddle.set(x);
+      }
       this.solve(this.xMiddle, k, N);
+      this.middles[k]!.set(this.xMiddle);
       middle!.at(this.xMiddle);
       this.chargeAndRate(this.xMiddle, middle!, this.qMiddle, this.rateMiddle);
       // Stage 2: BDF2 through t, t + γh and t + h.
