@@ -24,6 +24,12 @@ const GAMMA = 2 - Math.SQRT2;
 /** The second stage's weights of q(t+γh) and q(t) (Bank et al. 1985; Hosea & Shampine 1996). */
 const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
 const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
+/** Weights of xₖ₋₁, xₖ and xₖ₊₁ in the parabola through them at tₖ + γhₖ, for steps hₖ₋₁ = `before`, hₖ = `step`. */
+function stageWeights(before: number, step: number): readonly [number, number, number] {
+  const t = GAMMA * step;
+  return [(t * (t - step)) / (before * (before + step)), ((t + before) * (step - t)) / (before * step), ((t + before) * t) / ((step + before) * step)];
+}
+
 /** The predictor's deviation is extrapolated over at most twice the last step (see `run`). */
 const MAX_TREND = 2;
 
@@ -172,15 +178,18 @@ export class PeriodicMap {
       // The earlier run's point k + 1 moved by this run's deviation from it, dₖ = xₖ − pₖ,
       // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁) (the ratio at most 2,
       // so that a step far longer than the last does not magnify its Newton noise).
-      // The first stage likewise from the last run's own, or on the chord to the guessed xₖ₊₁.
+      // The first stage likewise from the last run's own, or on the parabola through xₖ₋₁, xₖ
+      // and the guessed xₖ₊₁ (the chord's curvature error alone would cost a Newton update).
       const lastMiddle = own ? this.middles[k] : undefined;
       if (after) {
         const trend = k > 0 ? Math.min(MAX_TREND, fractions[k]! / fractions[k - 1]!) : 0;
+        const [wBefore, wHere, wNext] = k > 0 ? stageWeights(fractions[k - 1]!, fractions[k]!) : [0, 1 - GAMMA, GAMMA];
+        const xBefore = this.states[k > 0 ? k - 1 : 0]!;
         for (let i = 0; i < n; i++) {
           const d = x[i]! - before[i]!;
           const drift = trend * (d - deviation[i]!);
           this.xNext[i] = after[i]! + d + drift;
-          this.xMiddle[i] = lastMiddle ? lastMiddle[i]! + d + GAMMA * drift : x[i]! + GAMMA * (this.xNext[i]! - x[i]!);
+          this.xMiddle[i] = lastMiddle ? lastMiddle[i]! + d + GAMMA * drift : wBefore * xBefore[i]! + wHere * x[i]! + wNext * this.xNext[i]!;
           deviation[i] = d;
         }
       } else {
