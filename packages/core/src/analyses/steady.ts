@@ -116,7 +116,11 @@ export interface SteadyResult {
   readonly iterations: readonly [number, number] | null;
   /** Grid points per period on the two grids. */
   readonly points: readonly [number, number] | null;
-  /** The non-trivial Floquet multipliers, largest magnitude first. */
+  /**
+   * The non-trivial Floquet multipliers, largest magnitude first: the eigenvalues of the map's
+   * derivative on the transient's own grid (the coarser; the halved grid's differ by O(h²), in
+   * the fourth digit), taken at the orbit or at a period within two tolerances of it.
+   */
   readonly multipliers: readonly Multiplier[];
   readonly stability: OrbitStability | null;
   readonly predicted: SteadyPrediction;

@@ -1,6 +1,7 @@
 import { simulationError } from "../circuit/diagnostic.js";
 import { Linearisation } from "../solver/linearisation.js";
 import { DenseLu } from "../solver/dense-lu.js";
+import { DeviceValues } from "./device-values.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
@@ -23,6 +24,14 @@ const GAMMA = 2 - Math.SQRT2;
 /** The second stage's weights of q(t+γh) and q(t) (Bank et al. 1985; Hosea & Shampine 1996). */
 const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
 const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
+/** Weights of xₖ₋₁, xₖ and xₖ₊₁ in the parabola through them at tₖ + γhₖ, for steps hₖ₋₁ = `before`, hₖ = `step`. */
+function stageWeights(before: number, step: number): readonly [number, number, number] {
+  const t = GAMMA * step;
+  return [(t * (t - step)) / (before * (before + step)), ((t + before) * (step - t)) / (before * step), ((t + before) * t) / ((step + before) * step)];
+}
+
+/** The predictor's deviation is extrapolated over at most twice the last step (see `run`). */
+const MAX_TREND = 2;
 
 /**
  * One period of the circuit by TR-BDF2 on a fixed grid whose steps are fractions of T: the map
@@ -46,10 +55,17 @@ export class PeriodicMap {
   readonly solver: NewtonSolver;
   /** The unknowns at every grid point of the last run (N + 1 of them). */
   states: Float64Array[] = [];
+  /** The last run's first-stage solutions, at tₖ + γhₖ (N of them). */
+  private middles: Float64Array[] = [];
   private readonly system: MnaSystem;
-  private here: Linearisation;
-  private readonly middle: Linearisation;
-  private next: Linearisation;
+  // The devices at xₖ, x_γ and xₖ₊₁: linearised when sensitivities ride along, values only otherwise.
+  private readonly linearised: readonly [Linearisation, Linearisation, Linearisation];
+  private readonly values: readonly [DeviceValues, DeviceValues, DeviceValues];
+  /** The constant C and G by row, their nonzero entries only (column, C, G). */
+  private readonly rowStart: Int32Array;
+  private readonly rowColumn: Int32Array;
+  private readonly rowC: Float64Array;
+  private readonly rowG: Float64Array;
   private readonly lu: DenseLu;
   private readonly jacobian: Float64Array;
   // Charges and rates at xₖ, x_γ and xₖ₊₁ (here and next swap at each step).
@@ -63,6 +79,10 @@ export class PeriodicMap {
   private readonly xNext: Float64Array;
   private readonly sMiddle: Float64Array;
   private readonly rhs: Float64Array;
+  /** The predictor's state at the current step's start, kept before the run overwrites it. */
+  private readonly before: Float64Array;
+  /** This run's deviation from the predictor at the last step's start. */
+  private readonly deviation: Float64Array;
   private readonly iterations: number;
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
@@ -72,9 +92,17 @@ export class PeriodicMap {
     this.solver = new NewtonSolver(system, tolerances);
     this.solver.setMode("step");
     this.iterations = tolerances.stepIterations;
-    this.here = new Linearisation(system);
-    this.middle = new Linearisation(system);
-    this.next = new Linearisation(system);
+    this.linearised = [new Linearisation(system), new Linearisation(system), new Linearisation(system)];
+    this.values = [new DeviceValues(system), new DeviceValues(system), new DeviceValues(system)];
+    const entries: number[] = [];
+    this.rowStart = new Int32Array(n + 1);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) if (system.C[i * n + j] !== 0 || system.G[i * n + j] !== 0) entries.push(i * n + j);
+      this.rowStart[i + 1] = entries.length;
+    }
+    this.rowColumn = Int32Array.from(entries, (e) => e % n);
+    this.rowC = Float64Array.from(entries, (e) => system.C[e]!);
+    this.rowG = Float64Array.from(entries, (e) => system.G[e]!);
     this.lu = new DenseLu(n);
     this.jacobian = new Float64Array(n * n);
     this.qHere = new Float64Array(n);
@@ -87,19 +115,22 @@ export class PeriodicMap {
     this.xNext = new Float64Array(n);
     this.sMiddle = new Float64Array(n * (n + 1));
     this.rhs = new Float64Array(n * (n + 1));
+    this.before = new Float64Array(n);
+    this.deviation = new Float64Array(n);
   }
 
-  /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from a linearisation at x. */
-  private chargeAndRate(x: Float64Array, at: Linearisation, q: Float64Array, rate: Float64Array): void {
-    const { n, system } = this;
+  /** q = C·x + the devices' charges, and q̇ = u − G·x − f on charged rows, from the devices at x. */
+  private chargeAndRate(x: Float64Array, at: DeviceValues | Linearisation, q: Float64Array, rate: Float64Array): void {
+    const { n, rowStart, rowColumn, rowC, rowG } = this;
     const u = this.solver.u;
-    const { G, C, chargedRows } = system;
+    const { chargedRows } = this.system;
     for (let i = 0; i < n; i++) {
       let cx = at.charges[i]!;
       let gx = at.f[i]!;
-      for (let j = 0; j < n; j++) {
-        cx += C[i * n + j]! * x[j]!;
-        gx += G[i * n + j]! * x[j]!;
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) {
+        const xj = x[rowColumn[e]!]!;
+        cx += rowC[e]! * xj;
+        gx += rowG[e]! * xj;
       }
       q[i] = cx;
       rate[i] = chargedRows[i] ? u[i]! - gx : 0;
@@ -108,20 +139,28 @@ export class PeriodicMap {
 
   /**
    * Integrates one period from `start` over the grid (step k is fractions[k]·T). `predictor`
-   * (the unknowns at each grid point of an earlier run) starts each step's Newton solves.
+   * (the unknowns at each grid point of an earlier run) starts each step's Newton solves: its
+   * step from point k to k + 1, taken from this run's point k, so that a start moved by the
+   * shooting's update (which moves the whole period nearly alike) costs no extra iterations.
    */
   run(start: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, sensitivity: boolean): { x: Float64Array; sensitivity: MapSensitivity | undefined } {
     const { n, solver } = this;
     const N = fractions.length;
     const T = start.period;
+    // A predictor that is this map's own last run on this grid also has its first stages.
+    const own = predictor === this.states && this.middles.length === N;
     if (this.states.length !== N + 1) this.states = Array.from({ length: N + 1 }, () => new Float64Array(n));
+    if (this.middles.length !== N) this.middles = Array.from({ length: N }, () => new Float64Array(n));
+    if (predictor) this.before.set(predictor[0]!);
     this.states[0]!.set(start.x);
     const columns = n + 1;
     const sx = sensitivity ? new Float64Array(n * columns) : undefined;
     if (sx) for (let i = 0; i < n; i++) sx[i * columns + i] = 1;
-    this.here.at(start.x);
+    // (Linearisations exactly when sensitivities ride along: `propagate` reads their G_x and C_x.)
+    let [here, middle, next]: readonly (DeviceValues | Linearisation)[] = sx ? this.linearised : this.values;
+    here!.at(start.x);
     solver.loadSources(start.t0, 1, false);
-    this.chargeAndRate(start.x, this.here, this.qHere, this.rateHere);
+    this.chargeAndRate(start.x, here!, this.qHere, this.rateHere);
     let elapsed = 0;
     for (let k = 0; k < N; k++) {
       const h = fractions[k]! * T;
@@ -134,24 +173,46 @@ export class PeriodicMap {
       for (let i = 0; i < n; i++) history[i] = a * this.qHere[i]! + this.rateHere[i]!;
       solver.loadSources(t + GAMMA * h, 1, false);
       const x = this.states[k]!;
-      const guess = predictor?.[k + 1];
-      for (let i = 0; i < n; i++) this.xMiddle[i] = guess ? x[i]! + GAMMA * (guess[i]! - x[i]!) : x[i]!;
+      const after = predictor?.[k + 1];
+      const { before, deviation } = this;
+      // The earlier run's point k + 1 moved by this run's deviation from it, dₖ = xₖ − pₖ,
+      // extrapolated along the step: p_{k+1} + dₖ + (hₖ/hₖ₋₁)·(dₖ − dₖ₋₁) (the ratio at most 2,
+      // so that a step far longer than the last does not magnify its Newton noise).
+      // The first stage likewise from the last run's own, or on the parabola through xₖ₋₁, xₖ
+      // and the guessed xₖ₊₁ (the chord's curvature error alone would cost a Newton update).
+      const lastMiddle = own ? this.middles[k] : undefined;
+      if (after) {
+        const trend = k > 0 ? Math.min(MAX_TREND, fractions[k]! / fractions[k - 1]!) : 0;
+        const [wBefore, wHere, wNext] = k > 0 ? stageWeights(fractions[k - 1]!, fractions[k]!) : [0, 1 - GAMMA, GAMMA];
+        const xBefore = this.states[k > 0 ? k - 1 : 0]!;
+        for (let i = 0; i < n; i++) {
+          const d = x[i]! - before[i]!;
+          const drift = trend * (d - deviation[i]!);
+          this.xNext[i] = after[i]! + d + drift;
+          this.xMiddle[i] = lastMiddle ? lastMiddle[i]! + d + GAMMA * drift : wBefore * xBefore[i]! + wHere * x[i]! + wNext * this.xNext[i]!;
+          deviation[i] = d;
+        }
+      } else {
+        this.xNext.set(x);
+        this.xMiddle.set(x);
+      }
       this.solve(this.xMiddle, k, N);
-      this.middle.at(this.xMiddle);
-      this.chargeAndRate(this.xMiddle, this.middle, this.qMiddle, this.rateMiddle);
+      this.middles[k]!.set(this.xMiddle);
+      middle!.at(this.xMiddle);
+      this.chargeAndRate(this.xMiddle, middle!, this.qMiddle, this.rateMiddle);
       // Stage 2: BDF2 through t, t + γh and t + h.
       for (let i = 0; i < n; i++) history[i] = a * (STAGE_NOW * this.qMiddle[i]! - STAGE_BEFORE * this.qHere[i]!);
       solver.loadSources(start.t0 + elapsed * T, 1, false);
-      this.xNext.set(guess ?? this.xMiddle);
+      if (!after) this.xNext.set(this.xMiddle);
       this.solve(this.xNext, k, N);
-      this.next.at(this.xNext);
-      this.chargeAndRate(this.xNext, this.next, this.qNext, this.rateNext);
-      if (sx) this.propagate(sx, columns, a, h, fractions[k]!);
+      next!.at(this.xNext);
+      this.chargeAndRate(this.xNext, next!, this.qNext, this.rateNext);
+      if (sx) this.propagate(sx, columns, a, h, fractions[k]!, here as Linearisation, middle as Linearisation, next as Linearisation);
+      // (The predictor may be the last run's own states, about to be overwritten.)
+      if (after) before.set(after);
       this.states[k + 1]!.set(this.xNext);
       // The new point becomes the start of the next step.
-      const at = this.here;
-      this.here = this.next;
-      this.next = at;
+      [here, next] = [next, here];
       const q = this.qHere;
       this.qHere = this.qNext;
       this.qNext = q;
@@ -200,8 +261,8 @@ export class PeriodicMap {
    *   J_γ·S_γ = (a·C_x(xₖ) − G_x(xₖ)|charged)·Sₖ − ∂R₁/∂h·f·e_T,
    *   J₊·Sₖ₊₁ = a·(c₁·C_x(x_γ)·S_γ − c₂·C_x(xₖ)·Sₖ) − ∂R₂/∂h·f·e_T.
    */
-  private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number): void {
-    const { n, here, middle, next, rhs, sMiddle } = this;
+  private propagate(sx: Float64Array, columns: number, a: number, h: number, fraction: number, here: Linearisation, middle: Linearisation, next: Linearisation): void {
+    const { n, rhs, sMiddle } = this;
     // Stage 1. q̇_γ = u − G·x_γ − f (its rate) equals a·(q_γ − qₖ) − q̇ₖ at the solution.
     this.factorAt(middle, a);
     rhs.fill(0);

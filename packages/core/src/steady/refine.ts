@@ -133,19 +133,43 @@ function fastestPoint(system: MnaSystem, times: readonly number[], states: reado
 /** Each step of the grid split in two equal halves. */
 function halved(fractions: Float64Array): Float64Array {
   const out = new Float64Array(2 * fractions.length);
-  fractions.forEach((f, k) => {
-    out[2 * k] = 0.5 * f;
-    out[2 * k + 1] = 0.5 * f;
-  });
+  for (let k = 0; k < fractions.length; k++) {
+    out[2 * k] = 0.5 * fractions[k]!;
+    out[2 * k + 1] = 0.5 * fractions[k]!;
+  }
   return out;
 }
 
-/** The orbit's states at the halved grid's points: the originals, and midpoints between them. */
-function halvedPredictor(states: readonly Float64Array[]): Float64Array[] {
+/**
+ * The orbit's states at the halved grid's points: the originals, and between them the cubic
+ * through the four nearest points (wrapping around the period), whose error is O(h⁴) where the
+ * chord's midpoint is O(h²) — the halved grid's first period then starts its Newton solves at
+ * the orbit's own discretisation error.
+ */
+function halvedPredictor(states: readonly Float64Array[], fractions: Float64Array): Float64Array[] {
+  const N = fractions.length;
   const out: Float64Array[] = [];
-  for (let k = 0; k < states.length; k++) {
+  const n = states[0]!.length;
+  for (let k = 0; k <= N; k++) {
     out.push(states[k]!);
-    if (k + 1 < states.length) out.push(Float64Array.from(states[k]!, (v, i) => 0.5 * (v + states[k + 1]![i]!)));
+    if (k === N) break;
+    // Lagrange weights at the middle of step k (length h), on the points k − 1 … k + 2, at times
+    // −b, 0, h, h + c from point k.
+    const b = fractions[(k + N - 1) % N]!;
+    const h = fractions[k]!;
+    const c = fractions[(k + 1) % N]!;
+    const t = 0.5 * h;
+    const w0 = (t * (t - h) * (t - h - c)) / (-b * (-b - h) * (-b - h - c));
+    const w1 = ((t + b) * (t - h) * (t - h - c)) / (b * -h * (-h - c));
+    const w2 = ((t + b) * t * (t - h - c)) / ((h + b) * h * -c);
+    const w3 = ((t + b) * t * (t - h)) / ((h + c + b) * (h + c) * c);
+    const before = states[k === 0 ? N - 1 : k - 1]!;
+    const after = states[k + 2 <= N ? k + 2 : 1]!;
+    const here = states[k]!;
+    const next = states[k + 1]!;
+    const mid = new Float64Array(n);
+    for (let i = 0; i < n; i++) mid[i] = w0 * before[i]! + w1 * here[i]! + w2 * next[i]! + w3 * after[i]!;
+    out.push(mid);
   }
   return out;
 }
@@ -192,7 +216,10 @@ export function refineOrbit(
   // grids differ in the fourth digit), at half the cost of the finer grid's.
   const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
   const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
-  const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states), { ...options, jacobian: coarse.jacobian }), multipliers: coarse.multipliers };
+  // The halved grid's map differs from the run's own by O(h²): its shooting iterates on the
+  // coarser grid's Newton matrix (put back once where Broyden's updates stop contracting), so no
+  // period of it carries the sensitivities unless that matrix too fails to contract.
+  const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.

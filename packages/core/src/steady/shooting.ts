@@ -60,6 +60,14 @@ export interface ShootingOptions {
   readonly multipliers?: boolean;
   /** A factored Newton matrix to start from (a chord iteration until it stops contracting). */
   readonly jacobian?: ShootingJacobian;
+  /**
+   * Where a fresh Newton matrix comes from: the map's sensitivities (`when-needed`), or, with
+   * `given`, `jacobian` again in place of Broyden's updates the first time one is asked for (a
+   * finer grid's shooting, whose map differs from the coarser grid's by O(h²): no period carries
+   * the n + 1 sensitivity columns unless the given matrix, put back, still does not contract).
+   * @defaultValue "when-needed"
+   */
+  readonly sensitivities?: "when-needed" | "given";
   /** Called before each period is integrated; throws to stop (a run's limits). */
   readonly check?: () => void;
 }
@@ -117,6 +125,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
+  /** Whether the given matrix was already put back once (see `ShootingOptions.sensitivities`). */
+  let givenAgain = false;
+  /** The last sensitivities, when taken within `MULTIPLIER_REACH` of the orbit. */
+  let near: MapSensitivity | undefined;
   let first = Infinity;
   let best = Infinity;
   const maxIterations = options.maxIterations ?? 25;
@@ -127,7 +139,9 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
-    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh);
+    const given: boolean = fresh && options.sensitivities === "given" && options.jacobian !== undefined && !givenAgain;
+    givenAgain ||= given;
+    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh && !given);
     states = map.states;
     let mismatch = 0;
     for (let i = 0; i < n; i++) {
@@ -158,8 +172,9 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       // Even the exact Jacobian's direction does not shrink this measure of the mismatch: go on from here.
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
+    else if (given) newton.reset(options.jacobian!);
     else if (trial) newton.secant(step, damping, fromResidual, residual);
-    freshAtFrom = end.sensitivity !== undefined;
+    freshAtFrom = end.sensitivity !== undefined || given;
     // (A step cut short to λ is expected to shrink the mismatch to about 1 − λ of it.)
     const contracted = !trial || mismatch <= (1 - damping * (1 - CHORD_CONTRACTION)) * previous;
     for (let i = 0; i < n; i++) from[i] = x0[i]!;
@@ -174,10 +189,11 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     let size = 0;
     for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
     if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
+    if (end.sensitivity) near = size <= MULTIPLIER_REACH ? end.sensitivity : undefined;
     if (size <= 1 && mismatch <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
-      const multipliers = options.multipliers ? floquetMultipliers(end.sensitivity ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
+      const multipliers = options.multipliers ? floquetMultipliers(near ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
@@ -185,7 +201,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // (After an exact Jacobian Newton converges quadratically: a step within a thousand tolerances
     // is most often the last but one; after a given matrix, the step shrinks by its contraction.)
     const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom ? size <= LIKELY_LAST : size * (options.jacobian?.contraction ?? Infinity) <= 1;
-    const last = options.multipliers === true && likely;
+    const last = options.multipliers === true && likely && near === undefined;
     fresh = !contracted || last;
     previous = mismatch;
     trial = true;
@@ -230,6 +246,12 @@ export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */
 const LIKELY_LAST = 1e3;
+/**
+ * Sensitivities taken this close to the orbit (Newton's update from their point, in tolerances)
+ * give its multipliers as well as the converged period's own, which is itself only known to
+ * within one tolerance: no further period carries them.
+ */
+const MULTIPLIER_REACH = 2;
 /** A step moves the period by at most this fraction of it. */
 const MAX_PERIOD_MOVE = 0.2;
 
@@ -255,6 +277,12 @@ class ShootingMatrix {
     this.matrix = start ? Float64Array.from(start.matrix) : new Float64Array(unknowns * unknowns);
     this.lu = start?.lu;
     this.product = new Float64Array(unknowns);
+  }
+
+  /** M back to a given matrix (its factorisation kept). */
+  reset(start: ShootingJacobian): void {
+    this.matrix.set(start.matrix);
+    this.lu = start.lu;
   }
 
   /** M from the map's sensitivities. */
