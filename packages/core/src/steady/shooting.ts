@@ -5,7 +5,7 @@ import { QUANTITIES } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
-import { doglegStep, nextRadius } from "./trust-region.js";
+import { trustStep, nextRadius } from "./trust-region.js";
 
 /** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
 export interface Multiplier {
@@ -87,7 +87,7 @@ function innerTolerances(base: Tolerances, relative: number): Tolerances {
  * them costs n + 1 extra solves per step), so it is computed only at the start and where the
  * iteration stops contracting; in between it is kept up to date by Broyden's rank-one update
  * from each step taken (Broyden 1965; Dennis & Schnabel 1983, §8). Each step is held within a
- * trust radius in the unknowns scaled by their tolerances (Powell's dogleg, see `doglegStep`),
+ * trust radius in the unknowns scaled by their tolerances (Powell's dogleg, see `trustStep`),
  * grown where the residual fell as the linear model predicted and shrunk where it did not
  * (Dennis & Schnabel 1983, §6.4; Nocedal & Wright 2006, ch. 4): a slowly attracting orbit — an
  * amplitude loop with a thermal time constant — has a nearly singular Jacobian, whose full steps
@@ -122,6 +122,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let length = 0;
   let fromSquare = Infinity;
   let predicted = 0;
+  /** The radius cut the step short of Newton's. */
+  let cut = false;
   /** x₀ lies on a step from `from` (it is judged against `from` before it is kept). */
   let trial = false;
   let fresh = options.jacobian === undefined;
@@ -136,9 +138,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     for (let i = 0; i < n; i++) x0[i] = from[i]! + fraction * step[i]!;
     if (options.autonomous) T = from[n]! + fraction * step[n]!;
   };
-  /** The step from `from` within the trust radius (see `doglegStep`), taken. */
+  /** The step from `from` within the trust radius (see `trustStep`), taken. */
   const stepWithin = () => {
-    ({ length, predicted } = doglegStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
+    ({ length, predicted } = trustStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
+    cut = scaledLength(full, scale) > radius;
     moveTo(1);
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   };
@@ -165,8 +168,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     if (options.autonomous) residual[n] = 0;
     if (iteration === 1) first = mismatch;
     else best = Math.min(best, mismatch);
-    // (A step still cut short by the trust radius after that many periods says the start is out of Newton's reach too.)
-    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !(length >= radius))) {
+    // (So does one whose step the trust radius still cuts short after that many periods: the start is out of Newton's reach.)
+    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
       throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
     }
     // How well the model predicted the step's reduction of ‖r̃‖² (the trust region's test).
@@ -184,7 +187,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       newton.secant(step, 1, fromResidual, residual);
       newton.solve(fromResidual, full);
       stepWithin();
-      fresh = false;
+      fresh = cut;
       continue;
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
@@ -226,7 +229,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     }
     stepWithin();
     // A step cut short by the trust radius lies where the map bends: its point gets the exact Jacobian (a secant update learns too little there, and a step rejected from one would cost a period to recompute it at the start).
-    fresh = !contracted || last || length < scaledLength(full, scale);
+    fresh = !contracted || last || cut;
   }
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",

@@ -6,7 +6,7 @@
  * `out` gets the step (unscaled). Returns its scaled length and the model's predicted ‖r + J·p‖²
  * (scaled), against which the actual residual judges the radius (see {@link nextRadius}).
  */
-export function doglegStep(matrix: Float64Array, residual: Float64Array, scale: Float64Array, newton: Float64Array, radius: number, out: Float64Array): { readonly length: number; readonly predicted: number } {
+export function trustStep(matrix: Float64Array, residual: Float64Array, scale: Float64Array, newton: Float64Array, radius: number, out: Float64Array): { readonly length: number; readonly predicted: number } {
   const m = scale.length;
   const pn = new Float64Array(m);
   for (let c = 0; c < m; c++) pn[c] = newton[c]! / scale[c]!;
