@@ -51,7 +51,8 @@ export interface ShootingOptions {
   /**
    * Periods after which a shooting gives up whose mismatch never fell below its first one, or
    * whose Newton step still reaches beyond the trust radius (a start out of Newton's reach); with
-   * it, so does one whose first step would move the period by more than a fifth. @defaultValue never
+   * it, so does one whose first step would move the period by more than a fifth, or an unknown by
+   * more than its peak over the period. @defaultValue never
    */
   readonly giveUpAfter?: number;
   /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
@@ -223,9 +224,15 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     const last = options.multipliers === true && likely;
     previous = mismatch;
     trial = true;
-    // A first step that would move the period by more than a fifth says the start is out of Newton's reach.
-    if (options.autonomous && iteration === 1 && options.giveUpAfter !== undefined && Math.abs(full[n]!) > FIRST_RADIUS * T) {
-      throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+    // A first step that would move the period by more than a fifth, or an unknown by more than its peak
+    // over the period (out of the range it visited), says the start is out of Newton's reach.
+    if (iteration === 1 && options.giveUpAfter !== undefined) {
+      if (options.autonomous && Math.abs(full[n]!) > FIRST_RADIUS * T) {
+        throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+      }
+      for (let i = 0; i < n; i++) {
+        if (Math.abs(full[i]!) > peak[i]! + floor[i]!) throw simulationError("orbit-not-converged", "shooting's first step would move an unknown beyond its range over the period", { hint: "the start is too far from the orbit; run the start-up longer" });
+      }
     }
     stepWithin();
     // A step cut short by the trust radius lies where the map bends: its point gets the exact Jacobian (a secant update learns too little there, and a step rejected from one would cost a period to recompute it at the start).
