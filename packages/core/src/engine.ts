@@ -50,6 +50,7 @@ export { ComplexLu } from "./solver/complex-lu.js";
 export { PeriodicMap } from "./steady/periodic-map.js";
 export type { MapSensitivity, PeriodStart } from "./steady/periodic-map.js";
 export { shootOrbit } from "./steady/shooting.js";
+export { trustStep, nextRadius } from "./steady/trust-region.js";
 export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } from "./steady/shooting.js";
 export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";

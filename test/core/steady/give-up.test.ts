@@ -3,7 +3,8 @@
 // with a typed error, not after all its periods.
 import { describe, expect, test } from "vitest";
 import { isOnsetError } from "@onset/core";
-import { shootOrbit } from "@onset/core/engine";
+import { buildSystem, recordPeriod, shootOrbit, TransientStepper } from "@onset/core/engine";
+import { circuit, part } from "../../support/circuits.js";
 import { clippedWien, settledPeriod } from "./support.js";
 
 describe("shootOrbit's giveUpAfter", () => {
@@ -38,5 +39,34 @@ describe("shootOrbit's giveUpAfter", () => {
     const found = shootOrbit(system, far, fractions, undefined, { autonomous: true });
     expect(Math.abs(found.start.period / guess.period - 1)).toBeLessThan(1e-3);
     expect(stopped(far, undefined, 5)).toEqual({ code: "orbit-not-converged", periods: 1 });
+  });
+
+  test("a first step that would move an unknown by more than its peak over the period gives up at once (out of the range it visited)", () => {
+    // A driven RC low-pass (no period to move): its recorded period, then the capacitor started 3 V
+    // above a swing of about 1 V. Newton's first step moves it back by about 3 V, beyond its 1 V peak.
+    const rc = circuit([
+      part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 2, freq: 1e3 }),
+      part("resistor", "R1", ["in", "o"], 1e3),
+      part("capacitor", "C1", ["o", "gnd"], 1e-6),
+    ]);
+    const driven = buildSystem(rc);
+    const stepper = new TransientStepper(driven, { start: "bias", maxStep: 1e-5 });
+    stepper.advance(2e-3);
+    const recorded = recordPeriod(driven, stepper.snapshot(), 1e-3, 1e-5);
+    const x = Float64Array.from(recorded.guess.x);
+    x[driven.nodeIndex.get("o")!] += 3;
+    let periods = 0;
+    let code = "converged";
+    try {
+      shootOrbit(driven, { ...recorded.guess, x }, recorded.fractions, recorded.trajectory, { autonomous: false, giveUpAfter: 5, check: () => periods++ });
+    } catch (error) {
+      code = isOnsetError(error) ? error.diagnostic.code : String(error);
+    }
+    expect({ code, periods }).toEqual({ code: "orbit-not-converged", periods: 1 });
+    // Without the option the trust region walks back to the orbit found from the recorded start.
+    const o = driven.nodeIndex.get("o")!;
+    const far = shootOrbit(driven, { ...recorded.guess, x }, recorded.fractions, recorded.trajectory, { autonomous: false });
+    const near = shootOrbit(driven, recorded.guess, recorded.fractions, recorded.trajectory, { autonomous: false });
+    expect(Math.abs(far.start.x[o]! - near.start.x[o]!)).toBeLessThan(1e-6);
   });
 });

@@ -1,10 +1,11 @@
 import { EigenvalueDecomposition, Matrix } from "ml-matrix";
-import { simulationError } from "../circuit/diagnostic.js";
+import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
 import { LuSolver } from "../solver/lu.js";
 import { QUANTITIES } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
+import { trustStep, nextRadius } from "./trust-region.js";
 
 /** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
 export interface Multiplier {
@@ -48,9 +49,10 @@ export interface ShootingOptions {
   /** Largest number of periods integrated. @defaultValue 25 */
   readonly maxIterations?: number;
   /**
-   * Periods after which a shooting whose mismatch never fell below its first one gives up (a
-   * start out of Newton's reach); with it, so does one whose first step would move the period by
-   * more than a fifth. @defaultValue never
+   * Periods after which a shooting gives up whose mismatch never fell below its first one, or
+   * whose Newton step still reaches beyond the trust radius (a start out of Newton's reach); with
+   * it, so does one whose first step would move the period by more than a fifth, or an unknown by
+   * more than its peak over the period. @defaultValue never
    */
   readonly giveUpAfter?: number;
   /** The orbit is accepted when Newton's update of x₀ is within this fraction of each unknown's peak (plus its floor), and of T. @defaultValue 1e-9 */
@@ -93,10 +95,12 @@ function innerTolerances(base: Tolerances, relative: number): Tolerances {
  * [[Sx − I, ∂x_N/∂T], [eⱼ, 0]] comes from the sensitivities the map carries (each period with
  * them costs n + 1 extra solves per step), so it is computed only at the start and where the
  * iteration stops contracting; in between it is kept up to date by Broyden's rank-one update
- * from each step taken (Broyden 1965; Dennis & Schnabel 1983, §8). A step that does not shrink
- * the mismatch is halved back towards the last point (a damped Newton method: a slowly
- * attracting orbit — an amplitude loop with a thermal time constant — has a nearly singular
- * Jacobian, whose full steps can overshoot far).
+ * from each step taken (Broyden 1965; Dennis & Schnabel 1983, §8). Each step is held within a
+ * trust radius in the unknowns scaled by their tolerances (Powell's dogleg, see `trustStep`),
+ * grown where the residual fell as the linear model predicted and shrunk where it did not
+ * (Dennis & Schnabel 1983, §6.4; Nocedal & Wright 2006, ch. 4): a slowly attracting orbit — an
+ * amplitude loop with a thermal time constant — has a nearly singular Jacobian, whose full steps
+ * from far away overshoot far. A step the radius cuts short gets the exact Jacobian at its end.
  */
 export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
   const relative = options.relative ?? 1e-9;
@@ -111,14 +115,25 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   const unknowns = n + (options.autonomous ? 1 : 0);
   const phase = options.jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
   const newton = new ShootingMatrix(unknowns, phase, options.jacobian);
-  // The point the last step started from (x₀ and T), its residual, the step, and how much of it was taken.
+  // The scale of each unknown (and of its residual): its tolerance, as the mismatch measures it.
+  const scale = new Float64Array(unknowns);
+  for (let i = 0; i < n; i++) scale[i] = relative * peak[i]! + floor[i]!;
+  if (options.autonomous) scale[n] = relative * guess.period;
+  // The point the last step started from (x₀ and T), its residual, the step taken, and the Newton step there.
   const x0 = Float64Array.from(guess.x);
   let T = guess.period;
   const from = new Float64Array(unknowns);
   const fromResidual = new Float64Array(unknowns);
   const step = new Float64Array(unknowns);
-  let damping = 1;
-  /** x₀ lies on a step from `from` (it is judged against `previous` before it is kept). */
+  const full = new Float64Array(unknowns);
+  let radius = FIRST_RADIUS / relative;
+  /** The step's scaled length, ‖r̃‖² where it started, and the model's ‖r̃ + J̃p̃‖² after it. */
+  let length = 0;
+  let fromSquare = Infinity;
+  let predicted = 0;
+  /** The radius cut the step short of Newton's. */
+  let cut = false;
+  /** x₀ lies on a step from `from` (it is judged against `from` before it is kept). */
   let trial = false;
   let fresh = options.jacobian === undefined;
   let freshAtFrom = false;
@@ -132,29 +147,50 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let first = Infinity;
   let best = Infinity;
   const maxIterations = options.maxIterations ?? 25;
-  const moveTo = (lambda: number) => {
-    damping = lambda;
-    for (let i = 0; i < n; i++) x0[i] = from[i]! + damping * step[i]!;
-    if (options.autonomous) T = from[n]! + damping * step[n]!;
+  const moveTo = (fraction: number) => {
+    for (let i = 0; i < n; i++) x0[i] = from[i]! + fraction * step[i]!;
+    if (options.autonomous) T = from[n]! + fraction * step[n]!;
+  };
+  /** The step from `from` within the trust radius (see `trustStep`), taken. */
+  const stepWithin = () => {
+    ({ length, predicted } = trustStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
+    cut = scaledLength(full, scale) > radius;
+    moveTo(1);
+    if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
     const given: boolean = fresh && options.sensitivities === "given" && options.jacobian !== undefined && !givenAgain;
     givenAgain ||= given;
-    const end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh && !given);
+    let end: ReturnType<PeriodicMap["run"]>;
+    try {
+      end = map.run({ t0: guess.t0, x: x0, period: T }, fractions, states, fresh && !given);
+    } catch (error) {
+      // A trial step the map cannot follow (its inner Newton fails out there) lies beyond where the model holds.
+      if (!trial || !isOnsetError(error)) throw error;
+      radius = POOR_RADIUS * length;
+      stepWithin();
+      continue;
+    }
     states = map.states;
     let mismatch = 0;
+    let square = 0;
     for (let i = 0; i < n; i++) {
       residual[i] = end.x[i]! - x0[i]!;
-      mismatch = Math.max(mismatch, Math.abs(residual[i]!) / (relative * peak[i]! + floor[i]!));
+      mismatch = Math.max(mismatch, Math.abs(residual[i]!) / scale[i]!);
+      square += (residual[i]! / scale[i]!) ** 2;
     }
     if (options.autonomous) residual[n] = 0;
     if (iteration === 1) first = mismatch;
     else best = Math.min(best, mismatch);
-    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first)) {
+    // (So does one whose step the trust radius still cuts short after that many periods: the start is out of Newton's reach.)
+    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
       throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
     }
-    if (trial && !(mismatch < previous)) {
+    // How well the model predicted the step's reduction of ‖r̃‖² (the trust region's test).
+    const ratio = trial ? (fromSquare - square) / Math.max(fromSquare - predicted, Number.MIN_VALUE) : 1;
+    if (trial) radius = nextRadius(radius, length, ratio);
+    if (trial && !(ratio > ACCEPT_RATIO)) {
       if (!freshAtFrom) {
         // An updated matrix led astray: back to where the step started, with the Jacobian there.
         moveTo(0);
@@ -162,37 +198,37 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
         trial = false;
         continue;
       }
-      if (damping > MIN_DAMPING) {
-        // The exact Jacobian's step overshot (the map bends within it): learn from it, try half of it.
-        newton.secant(step, damping, fromResidual, residual);
-        moveTo(damping / 2);
-        fresh = false;
-        continue;
-      }
-      // Even the exact Jacobian's direction does not shrink this measure of the mismatch: go on from here.
+      // The exact Jacobian's model does not hold that far (the map bends within the step): learn from the step, try a shorter one.
+      newton.secant(step, 1, fromResidual, residual);
+      newton.solve(fromResidual, full);
+      stepWithin();
+      fresh = cut;
+      continue;
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
     else if (given) newton.reset(options.jacobian!);
-    else if (trial) newton.secant(step, damping, fromResidual, residual);
+    else if (trial) newton.secant(step, 1, fromResidual, residual);
     freshAtFrom = end.sensitivity !== undefined || given;
-    // (A step cut short to λ is expected to shrink the mismatch to about 1 − λ of it.)
-    const contracted = !trial || mismatch <= (1 - damping * (1 - CHORD_CONTRACTION)) * previous;
+    // (A step cut short to a share λ of Newton's is expected to shrink the mismatch to about 1 − λ of it.)
+    const share = trial ? Math.min(1, length / Math.max(scaledLength(full, scale), Number.MIN_VALUE)) : 1;
+    const contracted = !trial || mismatch <= (1 - share * (1 - CHORD_CONTRACTION)) * previous;
     for (let i = 0; i < n; i++) from[i] = x0[i]!;
     if (options.autonomous) from[n] = T;
     fromResidual.set(residual);
-    newton.solve(residual, step);
+    fromSquare = square;
+    newton.solve(residual, full);
     // Newton's update is the distance to the orbit (the residual alone understates it by
     // 1/(1 − μ) when the orbit attracts slowly, μ the multiplier nearest 1): once it is within
     // the tolerance, this period's states are the orbit, and the update only sharpens x₀ and T.
     // The residual must be within it too: an update from a secant-updated matrix can understate
     // the distance (a mismatch of several tolerances with an update below one).
     let size = 0;
-    for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(step[i]!) / (relative * peak[i]! + floor[i]!));
-    if (options.autonomous) size = Math.max(size, Math.abs(step[n]!) / (relative * T));
+    for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(full[i]!) / scale[i]!);
+    if (options.autonomous) size = Math.max(size, Math.abs(full[n]!) / (relative * T));
     if (end.sensitivity) near = size <= MULTIPLIER_REACH ? end.sensitivity : undefined;
     if (size <= 1 && mismatch <= 1) {
       const kept = map.states.map((v) => Float64Array.from(v));
-      const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + step[i]!), period: options.autonomous ? T + step[n]! : T };
+      const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + full[i]!), period: options.autonomous ? T + full[n]! : T };
       const multipliers = options.multipliers ? floquetMultipliers(near ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
@@ -202,17 +238,21 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // is most often the last but one; after a given matrix, the step shrinks by its contraction.)
     const likely = trial ? size * (mismatch / previous) <= 1 : freshAtFrom ? size <= LIKELY_LAST : size * (options.jacobian?.contraction ?? Infinity) <= 1;
     const last = options.multipliers === true && likely && near === undefined;
-    fresh = !contracted || last;
     previous = mismatch;
     trial = true;
-    // Keep a wild update from leaving the orbit's neighbourhood: at most a fifth of the period.
-    // (A first step that would move it further says the start is out of Newton's reach.)
-    const wild = options.autonomous && Math.abs(step[n]!) > MAX_PERIOD_MOVE * T;
-    if (wild && iteration === 1 && options.giveUpAfter !== undefined) {
-      throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+    // A first step that would move the period by more than a fifth, or an unknown by more than its peak
+    // over the period (out of the range it visited), says the start is out of Newton's reach.
+    if (iteration === 1 && options.giveUpAfter !== undefined) {
+      if (options.autonomous && Math.abs(full[n]!) > FIRST_RADIUS * T) {
+        throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
+      }
+      for (let i = 0; i < n; i++) {
+        if (Math.abs(full[i]!) > peak[i]! + floor[i]!) throw simulationError("orbit-not-converged", "shooting's first step would move an unknown beyond its range over the period", { hint: "the start is too far from the orbit; run the start-up longer" });
+      }
     }
-    moveTo(wild ? (MAX_PERIOD_MOVE * T) / Math.abs(step[n]!) : 1);
-    if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
+    stepWithin();
+    // A step cut short by the trust radius lies where the map bends: its point gets the exact Jacobian (a secant update learns too little there, and a step rejected from one would cost a period to recompute it at the start).
+    fresh = !contracted || last || cut;
   }
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
@@ -252,11 +292,24 @@ const LIKELY_LAST = 1e3;
  * within one tolerance: no further period carries them.
  */
 const MULTIPLIER_REACH = 2;
-/** A step moves the period by at most this fraction of it. */
-const MAX_PERIOD_MOVE = 0.2;
+/**
+ * The first trust radius, in tolerances (of `relative`) over `relative`: as long as a step moving
+ * one unknown by a fifth of its peak, or the period by a fifth of it (a cautious start, Dennis &
+ * Schnabel 1983, §6.4.1: a slowly attracting orbit's Newton step is long and bends out of the
+ * map's linear reach).
+ */
+const FIRST_RADIUS = 0.2;
+/** A trial step whose map fails cuts the radius to this share of it. */
+const POOR_RADIUS = 0.25;
+/** A trial step is kept when it achieves more than this share of the reduction its model predicted. */
+const ACCEPT_RATIO = 1e-4;
 
-/** A step is halved at most this often (to 1/16) before the Jacobian is recomputed. */
-const MIN_DAMPING = 1 / 16;
+/** The scaled length of a step. */
+function scaledLength(step: Float64Array, scale: Float64Array): number {
+  let sum = 0;
+  for (let c = 0; c < scale.length; c++) sum += (step[c]! / scale[c]!) ** 2;
+  return Math.sqrt(sum);
+}
 
 /**
  * The shooting's Newton matrix M (of F(x₀, T) = [x_N − x₀; x₀[j] − c]), kept unfactored
