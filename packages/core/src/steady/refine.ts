@@ -37,8 +37,9 @@ export function mergedGridNote(merged: number, maxStoredPoints: number): string 
 /**
  * Grid points per period the orbit may have on the run's own grid, for a run keeping at most
  * `maxStoredPoints` values: the shooting holds about eight copies of the unknowns per point of
- * that grid (the recorded period, each grid's iterate and result, the halved grid having twice
- * the points), so a max-step far below the period no longer sets its memory.
+ * that grid (the recorded period, each grid's states and its map's first stages, the halved
+ * grid's predictor, the halved grid having twice the points), so a max-step far below the period
+ * no longer sets its memory.
  */
 export function orbitPointLimit(maxStoredPoints: number, unknowns: number): number {
   return Math.max(MIN_ORBIT_POINTS, Math.floor(maxStoredPoints / (ORBIT_COPIES * Math.max(1, unknowns))));

@@ -227,7 +227,9 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     if (options.autonomous) size = Math.max(size, Math.abs(full[n]!) / (relative * T));
     if (end.sensitivity) near = size <= MULTIPLIER_REACH ? end.sensitivity : undefined;
     if (size <= 1 && mismatch <= 1) {
-      const kept = map.states.map((v) => Float64Array.from(v));
+      // (The map ends with this call: its states are the orbit's, copied only when one more period will overwrite them.)
+      const more = options.multipliers === true && near === undefined;
+      const kept = more ? map.states.map((v) => Float64Array.from(v)) : map.states;
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + full[i]!), period: options.autonomous ? T + full[n]! : T };
       const multipliers = options.multipliers ? floquetMultipliers(near ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
