@@ -1,5 +1,6 @@
 import type { RunBudget } from "../analyses/limits.js";
 import { runJob, type Job, type JobResult } from "./jobs.js";
+import type { SharedStudy, SharedStudyReport } from "./shared-study.js";
 
 /** Runs jobs (Monte Carlo samples, start-up seeds), in this thread or on worker threads. */
 export interface JobPool {
@@ -9,6 +10,12 @@ export interface JobPool {
   readonly lanes?: number;
   /** Runs one job; rejects with a `RunLimitError` when the budget runs out. */
   run<J extends Job>(job: J): Promise<JobResult<J>>;
+  /**
+   * Sets the pool's worker threads on a shared study (absent on a pool without them): each takes
+   * samples from `study.next` until none is left, reporting as it goes. Resolves when every worker
+   * has ended its part; rejects with a `RunLimitError` when the budget runs out.
+   */
+  share?(study: SharedStudy, onReport: (report: SharedStudyReport) => void): Promise<void>;
   /** Stops the pool; jobs still running are rejected. */
   close(): Promise<void>;
 }

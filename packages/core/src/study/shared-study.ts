@@ -1,0 +1,113 @@
+import type { SpecCriterion, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
+import { isRunLimitError, RunBudget, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
+import type { Tolerances } from "../solver/tolerances.js";
+import { sampleHere, studyPlan, type CircuitBuilder } from "./study-plan.js";
+import type { ToleranceSample } from "./summary.js";
+
+/**
+ * A circuit builder that a worker thread can make for itself: `(await import(module))[name](data)`
+ * is the builder, `data` plain (structured-cloneable) data. It must build the same circuits as the
+ * study's `build` (checked on the nominal); `programBuilder` of `@onset/netlist-parser` is one.
+ */
+export interface PortableBuilder {
+  /** A URL (`file:` or a package specifier the worker can resolve) of an ES module. */
+  readonly module: string;
+  /** Its export: a function from `data` to a {@link CircuitBuilder}. */
+  readonly name: string;
+  readonly data: unknown;
+}
+
+/**
+ * A study whose samples worker threads draw, build and run themselves, taking the next index from
+ * a counter they share with the calling thread: plain data, posted once to each worker.
+ */
+export interface SharedStudy {
+  readonly builder: PortableBuilder;
+  readonly tolerances: readonly ToleranceSpec[];
+  readonly analysis: ToleranceAnalysis;
+  readonly criteria: readonly SpecCriterion[];
+  readonly solverTolerances?: Partial<Tolerances>;
+  readonly fixed?: Readonly<Record<string, number>>;
+  /** The sample indices to run, in the order they are taken. */
+  readonly indices: readonly number[];
+  /** One Int32: the position in `indices` of the next sample to take (Atomics.add). */
+  readonly next: SharedArrayBuffer;
+}
+
+/** What a worker tells of a shared study, in this order: its nominal, then samples (or indices it hands back), then the end. */
+export type SharedStudyReport =
+  | { readonly nominal: string }
+  | { readonly sample: ToleranceSample }
+  /** A sample the worker could not build: the calling thread runs it (and reports the builder's error itself). */
+  | { readonly returned: number }
+  /** The worker took no (more) samples: it could not make the builder or plan the study. */
+  | { readonly unavailable: string }
+  | { readonly limit: RunLimitRecord }
+  | { readonly done: true };
+
+/**
+ * `import(specifier)` as Node runs it: written so that the CommonJS build keeps it an import
+ * (the bundler turns a plain one into `require`, which cannot load an ES module or a URL). Made
+ * when a worker needs it, not when the library is imported (a page's policy may refuse it).
+ */
+function importModule(specifier: string): Promise<unknown> {
+  return (new Function("specifier", "return import(specifier)") as (specifier: string) => Promise<unknown>)(specifier);
+}
+
+/** The nominal circuit as the calling thread compares it with a worker's (the same builder gives the same text). */
+export function nominalKey(build: CircuitBuilder, fixed: Readonly<Record<string, number>> | undefined): string {
+  return JSON.stringify(build({ ...fixed }));
+}
+
+/** Takes the next position in the study's indices, or −1 when none is left. */
+export function takeNext(counter: Int32Array, count: number): number {
+  const k = Atomics.add(counter, 0, 1);
+  return k < count ? k : -1;
+}
+
+/** Stops every thread taking samples (after a limit or an error). */
+export function takeNoMore(counter: Int32Array, count: number): void {
+  Atomics.store(counter, 0, count);
+}
+
+/**
+ * A worker's part of a shared study: makes the builder, plans the study as the calling thread
+ * does (the plan is deterministic, and warms this thread's code while it would otherwise wait),
+ * then runs samples until none is left, reporting each as it ends.
+ */
+export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, report: (r: SharedStudyReport) => void): Promise<void> {
+  const counter = new Int32Array(study.next);
+  const budget = new RunBudget(limits);
+  let build: CircuitBuilder;
+  let plan;
+  try {
+    const made = ((await importModule(study.builder.module)) as Record<string, unknown>)[study.builder.name];
+    if (typeof made !== "function") throw new Error(`${study.builder.module} has no function ${study.builder.name}`);
+    build = (made as (data: unknown) => CircuitBuilder)(study.builder.data);
+    report({ nominal: nominalKey(build, study.fixed) });
+    plan = studyPlan(build, study.tolerances, study.analysis, study.criteria, { ...(study.fixed ? { fixed: study.fixed } : {}), ...(study.solverTolerances ? { tolerances: study.solverTolerances } : {}), budget });
+  } catch (error) {
+    if (isRunLimitError(error)) report({ limit: limitRecord(error) });
+    else report({ unavailable: error instanceof Error ? error.message : String(error) });
+    return;
+  }
+  for (let k = takeNext(counter, study.indices.length); k >= 0; k = takeNext(counter, study.indices.length)) {
+    const index = study.indices[k]!;
+    try {
+      budget.check("between samples");
+      report({ sample: sampleHere(plan, build, index, budget) });
+    } catch (error) {
+      if (isRunLimitError(error)) {
+        report({ limit: limitRecord(error) });
+        return;
+      }
+      report({ returned: index });
+    }
+  }
+  report({ done: true });
+}
+
+/** A limit error as plain data (the calling thread throws it again). */
+export function limitRecord(error: RunLimitRecord): RunLimitRecord {
+  return { diagnostic: error.diagnostic, limit: error.limit, value: error.value, reached: error.reached };
+}
