@@ -3,7 +3,7 @@
 import { parentPort } from "node:worker_threads";
 import { isRunLimitError, RunBudget } from "./analyses/limits.js";
 import { runJob, type Job } from "./study/jobs.js";
-import { limitRecord, runSharedStudy } from "./study/shared-study.js";
+import { limitRecord, runSharedStudy, type SharedPlan } from "./study/shared-study.js";
 import type { SampleSettings } from "./study/sample.js";
 import type { PostedJob, WorkerReply, WorkerRequest } from "./study/worker-pool.js";
 
@@ -17,9 +17,17 @@ function received(job: PostedJob): Job {
   return { kind: "sample", circuit: job.circuit, settings, ...(job.start ? { start: job.start } : {}) };
 }
 
+/** The plan of the shared study under way, when it comes. */
+let planned: ((plan: SharedPlan) => void) | undefined;
+
 parentPort?.on("message", (request: WorkerRequest) => {
   if ("share" in request) {
-    void runSharedStudy(request.share, request.limits, (report) => parentPort!.postMessage({ report } satisfies WorkerReply));
+    const plan = new Promise<SharedPlan>((resolve) => (planned = resolve));
+    void runSharedStudy(request.share, request.limits, plan, (report) => parentPort!.postMessage({ report } satisfies WorkerReply));
+    return;
+  }
+  if ("plan" in request) {
+    planned?.(request.plan);
     return;
   }
   const { job, limits, settings } = request;

@@ -1,7 +1,6 @@
-import type { SpecCriterion, ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
+import type { ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { isRunLimitError, RunBudget, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
-import type { Tolerances } from "../solver/tolerances.js";
-import { sampleHere, studyPlan, type CircuitBuilder } from "./study-plan.js";
+import { sampleHere, type CircuitBuilder, type StudyPlan } from "./study-plan.js";
 import type { ToleranceSample } from "./summary.js";
 
 /**
@@ -19,14 +18,13 @@ export interface PortableBuilder {
 
 /**
  * A study whose samples worker threads draw, build and run themselves, taking the next index from
- * a counter they share with the calling thread: plain data, posted once to each worker.
+ * a counter they share with the calling thread: plain data, posted once to each worker (its
+ * {@link SharedPlan} follows when the calling thread has it).
  */
 export interface SharedStudy {
   readonly builder: PortableBuilder;
   readonly tolerances: readonly ToleranceSpec[];
   readonly analysis: ToleranceAnalysis;
-  readonly criteria: readonly SpecCriterion[];
-  readonly solverTolerances?: Partial<Tolerances>;
   readonly fixed?: Readonly<Record<string, number>>;
   /** The sample indices to run, in the order they are taken. */
   readonly indices: readonly number[];
@@ -34,13 +32,16 @@ export interface SharedStudy {
   readonly next: SharedArrayBuffer;
 }
 
+/** What the calling thread plans once for every sample (see `studyPlan`), posted to each worker. */
+export type SharedPlan = Pick<StudyPlan, "settings" | "predictor">;
+
 /** What a worker tells of a shared study, in this order: its nominal, then samples (or indices it hands back), then the end. */
 export type SharedStudyReport =
   | { readonly nominal: string }
   | { readonly sample: ToleranceSample }
   /** A sample the worker could not build: the calling thread runs it (and reports the builder's error itself). */
   | { readonly returned: number }
-  /** The worker took no (more) samples: it could not make the builder or plan the study. */
+  /** The worker took no (more) samples: it could not make the builder. */
   | { readonly unavailable: string }
   | { readonly limit: RunLimitRecord }
   | { readonly done: true };
@@ -71,26 +72,23 @@ export function takeNoMore(counter: Int32Array, count: number): void {
 }
 
 /**
- * A worker's part of a shared study: makes the builder, plans the study as the calling thread
- * does (the plan is deterministic, and warms this thread's code while it would otherwise wait),
- * then runs samples until none is left, reporting each as it ends.
+ * A worker's part of a shared study: makes the builder and its nominal while the calling thread
+ * plans, then runs samples with that plan until none is left, reporting each as it ends.
  */
-export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, report: (r: SharedStudyReport) => void): Promise<void> {
+export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, planned: Promise<SharedPlan>, report: (r: SharedStudyReport) => void): Promise<void> {
   const counter = new Int32Array(study.next);
   const budget = new RunBudget(limits);
   let build: CircuitBuilder;
-  let plan;
   try {
     const made = ((await importModule(study.builder.module)) as Record<string, unknown>)[study.builder.name];
     if (typeof made !== "function") throw new Error(`${study.builder.module} has no function ${study.builder.name}`);
     build = (made as (data: unknown) => CircuitBuilder)(study.builder.data);
     report({ nominal: nominalKey(build, study.fixed) });
-    plan = studyPlan(build, study.tolerances, study.analysis, study.criteria, { ...(study.fixed ? { fixed: study.fixed } : {}), ...(study.solverTolerances ? { tolerances: study.solverTolerances } : {}), budget });
   } catch (error) {
-    if (isRunLimitError(error)) report({ limit: limitRecord(error) });
-    else report({ unavailable: error instanceof Error ? error.message : String(error) });
+    report({ unavailable: error instanceof Error ? error.message : String(error) });
     return;
   }
+  const plan: StudyPlan = { tolerances: study.tolerances, analysis: study.analysis, ...(study.fixed ? { fixed: study.fixed } : {}), ...(await planned) };
   for (let k = takeNext(counter, study.indices.length); k >= 0; k = takeNext(counter, study.indices.length)) {
     const index = study.indices[k]!;
     try {

@@ -112,8 +112,6 @@ export async function runToleranceStudy(
         builder: options.portable,
         tolerances: drawnAround,
         analysis,
-        criteria,
-        ...(options.tolerances ? { solverTolerances: options.tolerances } : {}),
         ...(options.fixed ? { fixed: options.fixed } : {}),
         indices,
         next: new SharedArrayBuffer(4),
@@ -143,9 +141,10 @@ export async function runToleranceStudy(
 }
 
 /**
- * This thread's part of a shared study: it plans the study and takes samples from the shared
- * counter as the workers do, yielding between samples to hear theirs; a sample a worker hands
- * back (it could not build it) runs here, where the builder's error, if any, is thrown.
+ * This thread's part of a shared study: it plans the study (while the workers make their
+ * builders), hands them the plan and takes samples from the shared counter as they do, yielding
+ * between samples to hear theirs; a sample a worker hands back (it could not build it) runs
+ * here, where the builder's error, if any, is thrown.
  */
 async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuilder, planOf: () => StudyPlan, budget: RunBudget, finished: (sample: ToleranceSample) => void): Promise<void> {
   const counter = new Int32Array(study.next);
@@ -153,7 +152,7 @@ async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuil
   const returned: number[] = [];
   let failure: unknown = null;
   let nominal: string | undefined;
-  const workers = pool.share!(study, (report) => {
+  const run = pool.share!(study, (report) => {
     if (failure !== null) return;
     if ("nominal" in report) {
       nominal ??= nominalKey(build, study.fixed);
@@ -164,8 +163,9 @@ async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuil
     else if ("returned" in report) returned.push(report.returned);
   });
   // Heard at once if this thread fails first (the pool's close rejects it).
-  workers.catch(() => {});
+  run.ended.catch(() => {});
   const plan = planOf();
+  run.planned({ settings: plan.settings, ...(plan.predictor ? { predictor: plan.predictor } : {}) });
   const fail = () => {
     if (failure !== null) throw failure;
   };
@@ -175,7 +175,7 @@ async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuil
     finished(sampleHere(plan, build, study.indices[k]!, budget));
     await yieldToEvents();
   }
-  await workers;
+  await run.ended;
   fail();
   for (const index of returned) finished(sampleHere(plan, build, index, budget));
 }

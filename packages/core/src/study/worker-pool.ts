@@ -7,7 +7,7 @@ import type { Circuit } from "../circuit/circuit.js";
 import type { SampleOutcome, SampleSettings } from "./sample.js";
 import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
-import type { SharedStudy, SharedStudyReport } from "./shared-study.js";
+import type { SharedPlan, SharedStudy, SharedStudyReport } from "./shared-study.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof", "--cpu-prof-dir", "--cpu-prof-name", "--heap-prof-dir", "--heap-prof-name"]);
@@ -29,7 +29,8 @@ export type WorkerRequest =
       /** Settings the job (or a later one) names by `id`. */
       readonly settings?: { readonly id: number; readonly value: SampleSettings };
     }
-  | { readonly share: SharedStudy; readonly limits: WorkerLimits };
+  | { readonly share: SharedStudy; readonly limits: WorkerLimits }
+  | { readonly plan: SharedPlan };
 
 /** A worker's answer: the job's outcome, or the limit that stopped it; or a report on its shared study. */
 export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome | SteadySettingOutcome } | { readonly limit: RunLimitRecord } | { readonly report: SharedStudyReport };
@@ -211,7 +212,7 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
       });
     },
     share(study, onReport) {
-      return new Promise<void>((resolve, reject) => {
+      const ended = new Promise<void>((resolve, reject) => {
         if (stopped !== null) {
           reject(stopped);
           return;
@@ -219,6 +220,12 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
         sharing = { onReport, running: workers.length, resolve, reject };
         for (const w of workers) w.postMessage({ share: study, limits: budget.forWorker() } satisfies WorkerRequest);
       });
+      return {
+        ended,
+        planned(plan) {
+          if (stopped === null) for (const w of workers) w.postMessage({ plan } satisfies WorkerRequest);
+        },
+      };
     },
     close() {
       stop(new Error("the job pool was closed"));
