@@ -97,6 +97,19 @@ describe("shared study (portable builder)", () => {
     await expect(study({ runs: 6, pool: 2, portable, limits: { maxSteps: 5 } })).rejects.toBeInstanceOf(core.RunLimitError);
   }, 120_000);
 
+  test("a wall time that runs out while the threads take samples stops the study with a RunLimitError, before all samples ran", async () => {
+    let finished = 0;
+    const build = steadyBuilder(data);
+    const running = core.runToleranceStudy(build, nominal.tolerances, { kind: "tolerance", runs: 5000, seed: 3, dist: "normal", measure: "steady" }, criteria, {
+      pool: workerPool(2),
+      portable,
+      limits: { maxWallTime: 1 },
+      onSample: () => finished++,
+    });
+    await expect(running).rejects.toBeInstanceOf(core.RunLimitError);
+    expect(finished).toBeLessThan(5000);
+  }, 120_000);
+
   test("the CommonJS build's workers import the ES module builder too", async () => {
     const require = createRequire(import.meta.url);
     const cjs = require(join(dist, "index.cjs"));

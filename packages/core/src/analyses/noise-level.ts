@@ -146,13 +146,19 @@ type AdjointSolve = (omega: number, bRe: Float64Array, bIm: Float64Array, yRe: F
 function denseAdjoint(ss: SmallSignal): AdjointSolve {
   const { n, G, C } = ss;
   const lu = new ComplexLu(n);
-  return (omega, bRe, bIm, yRe, yIm) => {
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        lu.re[i * n + j] = G[j * n + i]!;
-        lu.im[i * n + j] = omega * C[j * n + i]!;
-      }
+  // Gᵀ and Cᵀ once: only ω changes from one frequency to the next.
+  const gT = new Float64Array(n * n);
+  const cT = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      gT[i * n + j] = G[j * n + i]!;
+      cT[i * n + j] = C[j * n + i]!;
     }
+  }
+  return (omega, bRe, bIm, yRe, yIm) => {
+    lu.re.set(gT);
+    const im = lu.im;
+    for (let k = 0; k < cT.length; k++) im[k] = omega * cT[k]!;
     if (!lu.factor()) return false;
     lu.solve(bRe, bIm, yRe, yIm);
     return true;

@@ -162,8 +162,11 @@ async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuil
     } else if ("sample" in report) finished(report.sample);
     else if ("returned" in report) returned.push(report.returned);
   });
-  // Heard at once if this thread fails first (the pool's close rejects it).
-  run.ended.catch(() => {});
+  // A worker's limit (or failure) stops this thread's samples too.
+  run.ended.catch((error: unknown) => {
+    failure ??= error;
+    takeNoMore(counter, count);
+  });
   const plan = planOf();
   run.planned({ settings: plan.settings, ...(plan.predictor ? { predictor: plan.predictor } : {}) });
   const fail = () => {
