@@ -110,6 +110,18 @@ describe("shared study (portable builder)", () => {
     expect(finished).toBeLessThan(5000);
   }, 120_000);
 
+  test("an onSample that throws stops the study with its error (whichever thread ran the sample)", async () => {
+    let heard = 0;
+    const running = core.runToleranceStudy(steadyBuilder(data), nominal.tolerances, { kind: "tolerance", runs: 200, seed: 5, dist: "normal", measure: "steady" }, criteria, {
+      pool: workerPool(2),
+      portable,
+      onSample: () => {
+        if (++heard === 60) throw new Error("the caller's callback failed");
+      },
+    });
+    await expect(running).rejects.toThrow("the caller's callback failed");
+  }, 120_000);
+
   test("the CommonJS build's workers import the ES module builder too", async () => {
     const require = createRequire(import.meta.url);
     const cjs = require(join(dist, "index.cjs"));

@@ -152,21 +152,25 @@ async function sharedStudy(pool: JobPool, study: SharedStudy, build: CircuitBuil
   const returned: number[] = [];
   let failure: unknown = null;
   let nominal: string | undefined;
-  const run = pool.share!(study, (report) => {
-    if (failure !== null) return;
-    if ("nominal" in report) {
-      nominal ??= nominalKey(build, study.fixed);
-      if (report.nominal === nominal) return;
-      failure = badArgument("runToleranceStudy: options.portable builds another nominal circuit than build does (a worker thread's samples would not be the study's)");
-      takeNoMore(counter, count);
-    } else if ("sample" in report) finished(report.sample);
-    else if ("returned" in report) returned.push(report.returned);
-  });
-  // A worker's limit (or failure) stops this thread's samples too.
-  run.ended.catch((error: unknown) => {
+  const stop = (error: unknown) => {
     failure ??= error;
     takeNoMore(counter, count);
+  };
+  const run = pool.share!(study, (report) => {
+    if (failure !== null) return;
+    // Heard between this thread's samples: what goes wrong here (onSample, the builder) is thrown by this thread's loop.
+    try {
+      if ("nominal" in report) {
+        nominal ??= nominalKey(build, study.fixed);
+        if (report.nominal !== nominal) stop(badArgument("runToleranceStudy: options.portable builds another nominal circuit than build does (a worker thread's samples would not be the study's)"));
+      } else if ("sample" in report) finished(report.sample);
+      else if ("returned" in report) returned.push(report.returned);
+    } catch (error) {
+      stop(error);
+    }
   });
+  // A worker's limit (or failure) stops this thread's samples too.
+  run.ended.catch(stop);
   const plan = planOf();
   run.planned({ settings: plan.settings, ...(plan.predictor ? { predictor: plan.predictor } : {}) });
   const fail = () => {
