@@ -1,6 +1,6 @@
 import type { ToleranceAnalysis, ToleranceSpec } from "../circuit/circuit.js";
 import { isRunLimitError, RunBudget, type RunLimitRecord, type WorkerLimits } from "../analyses/limits.js";
-import { sampleHere, type CircuitBuilder, type StudyPlan } from "./study-plan.js";
+import { builtSample, runBuilt, sampleHere, type BuiltSample, type CircuitBuilder, type SampleSource, type StudyPlan } from "./study-plan.js";
 import type { ToleranceSample } from "./summary.js";
 
 /**
@@ -26,6 +26,8 @@ export interface SharedStudy {
   readonly tolerances: readonly ToleranceSpec[];
   readonly analysis: ToleranceAnalysis;
   readonly fixed?: Readonly<Record<string, number>>;
+  /** The threads taking samples: the workers and the calling thread. */
+  readonly jobs: number;
   /** The sample indices to run, in the order they are taken. */
   readonly indices: readonly number[];
   /** One Int32: the position in `indices` of the next sample to take (Atomics.add). */
@@ -77,6 +79,7 @@ export function takeNoMore(counter: Int32Array, count: number): void {
  */
 export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, planned: Promise<SharedPlan>, report: (r: SharedStudyReport) => void): Promise<void> {
   const counter = new Int32Array(study.next);
+  const count = study.indices.length;
   const budget = new RunBudget(limits);
   let build: CircuitBuilder;
   try {
@@ -88,20 +91,42 @@ export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, p
     report({ unavailable: error instanceof Error ? error.message : String(error) });
     return;
   }
-  const plan: StudyPlan = { tolerances: study.tolerances, analysis: study.analysis, ...(study.fixed ? { fixed: study.fixed } : {}), ...(await planned) };
-  for (let k = takeNext(counter, study.indices.length); k >= 0; k = takeNext(counter, study.indices.length)) {
+  const source: SampleSource = { tolerances: study.tolerances, analysis: study.analysis, ...(study.fixed ? { fixed: study.fixed } : {}) };
+  // While the calling thread plans, build samples ahead (taken from the counter as any other):
+  // time this thread would spend waiting, which warms its builder. At most half the share it
+  // would take anyway, so a small study is not left to a cold thread.
+  let posted: SharedPlan | undefined;
+  void planned.then((p) => (posted = p));
+  const ahead: Array<{ readonly index: number; readonly built: BuiltSample }> = [];
+  const most = Math.floor(count / (2 * study.jobs));
+  while (posted === undefined && ahead.length < most) {
+    const k = takeNext(counter, count);
+    if (k < 0) break;
     const index = study.indices[k]!;
     try {
+      ahead.push({ index, built: builtSample(source, build, index) });
+    } catch {
+      report({ returned: index });
+    }
+    await new Promise((resolve) => setImmediate(resolve));
+  }
+  const plan: StudyPlan = { ...source, ...(posted ?? (await planned)) };
+  /** Runs one sample and reports it; false when a limit ran out (reported). */
+  const run = (index: number, built?: BuiltSample): boolean => {
+    try {
       budget.check("between samples");
-      report({ sample: sampleHere(plan, build, index, budget) });
+      report({ sample: built ? runBuilt(plan, index, built, budget) : sampleHere(plan, build, index, budget) });
     } catch (error) {
       if (isRunLimitError(error)) {
         report({ limit: limitRecord(error) });
-        return;
+        return false;
       }
       report({ returned: index });
     }
-  }
+    return true;
+  };
+  for (const { index, built } of ahead) if (!run(index, built)) return;
+  for (let k = takeNext(counter, count); k >= 0; k = takeNext(counter, count)) if (!run(study.indices[k]!)) return;
   report({ done: true });
 }
 

@@ -46,19 +46,43 @@ export function studyPlan(
   return { tolerances, analysis, ...(fixed ? { fixed } : {}), settings, ...(predictor ? { predictor } : {}) };
 }
 
-/** Sample `index` drawn and elaborated: its values, its circuit and where its shooting starts. */
-export function sampleJob(plan: StudyPlan, build: CircuitBuilder, index: number): { readonly drawn: Record<string, number>; readonly circuit: Circuit; readonly start?: SeedStart } {
-  const drawn = drawSample(plan.tolerances, plan.analysis.seed, index, plan.analysis.dist);
-  const circuit = build({ ...plan.fixed, ...drawn });
-  if (!hasMeasure(circuit, plan.analysis)) throw nothingToMeasure(plan.analysis);
+/** What a sample is drawn and built from: the part of a plan that needs no orbit. */
+export type SampleSource = Pick<StudyPlan, "tolerances" | "analysis" | "fixed">;
+
+/** A sample's drawn values and its circuit. */
+export interface BuiltSample {
+  readonly drawn: Record<string, number>;
+  readonly circuit: Circuit;
+}
+
+/** Sample `index` drawn and elaborated. */
+export function builtSample(source: SampleSource, build: CircuitBuilder, index: number): BuiltSample {
+  const drawn = drawSample(source.tolerances, source.analysis.seed, index, source.analysis.dist);
+  const circuit = build({ ...source.fixed, ...drawn });
+  if (!hasMeasure(circuit, source.analysis)) throw nothingToMeasure(source.analysis);
+  return { drawn, circuit };
+}
+
+/** Where a drawn sample's shooting starts: moved from the nominal's orbit by the plan's predictor (see `predictedStart`). */
+function sampleStart(plan: StudyPlan, drawn: Readonly<Record<string, number>>): SeedStart | undefined {
   const seed = plan.settings.seed;
-  const start = plan.predictor && seed ? predictedStart(seed, plan.predictor, drawn) : undefined;
-  return { drawn, circuit, ...(start ? { start } : {}) };
+  return plan.predictor && seed ? predictedStart(seed, plan.predictor, drawn) : undefined;
+}
+
+/** Sample `index` drawn and elaborated: its values, its circuit and where its shooting starts. */
+export function sampleJob(plan: StudyPlan, build: CircuitBuilder, index: number): BuiltSample & { readonly start?: SeedStart } {
+  const built = builtSample(plan, build, index);
+  const start = sampleStart(plan, built.drawn);
+  return { ...built, ...(start ? { start } : {}) };
+}
+
+/** Runs a built sample of the plan in this thread. */
+export function runBuilt(plan: StudyPlan, index: number, { drawn, circuit }: BuiltSample, budget: RunBudget): ToleranceSample {
+  const outcome: SampleOutcome = runSample(circuit, plan.settings, budget, sampleStart(plan, drawn));
+  return { index, drawn, ...outcome };
 }
 
 /** Runs sample `index` of the plan in this thread. */
 export function sampleHere(plan: StudyPlan, build: CircuitBuilder, index: number, budget: RunBudget): ToleranceSample {
-  const { drawn, circuit, start } = sampleJob(plan, build, index);
-  const outcome: SampleOutcome = runSample(circuit, plan.settings, budget, start);
-  return { index, drawn, ...outcome };
+  return runBuilt(plan, index, builtSample(plan, build, index), budget);
 }

@@ -113,6 +113,7 @@ export async function runToleranceStudy(
         tolerances: drawnAround,
         analysis,
         ...(options.fixed ? { fixed: options.fixed } : {}),
+        jobs: pool.jobs,
         indices,
         next: new SharedArrayBuffer(4),
       };
