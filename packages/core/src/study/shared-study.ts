@@ -74,8 +74,9 @@ export function takeNoMore(counter: Int32Array, count: number): void {
 }
 
 /**
- * A worker's part of a shared study: makes the builder and its nominal while the calling thread
- * plans, then runs samples with that plan until none is left, reporting each as it ends.
+ * A worker's part of a shared study: makes the builder and its nominal, and builds samples ahead,
+ * while the calling thread plans; then runs samples with the plan it is sent until none is left,
+ * reporting each as it ends.
  */
 export async function runSharedStudy(study: SharedStudy, limits: WorkerLimits, planned: Promise<SharedPlan>, report: (r: SharedStudyReport) => void): Promise<void> {
   const counter = new Int32Array(study.next);
