@@ -2,8 +2,8 @@
 // samples measured by start-up runs (as bench/suites/tolerance.mjs) or by the steady analysis;
 // prints one JSON line with the wall time, the CPU time of all its threads (a figure that holds on a
 // loaded machine), when the first sample was in, the samples per second over the second half, the
-// yield, the median frequency and a digest of every sample. POSTED=1: the workers are sent each
-// sample's circuit instead of building their own.
+// yield, the median frequency and a digest of every sample. POSTED=1: no portable builder (with
+// two workers or more, each builds its own samples otherwise; one worker is always sent them).
 import { createHash } from "node:crypto";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
@@ -19,7 +19,7 @@ const nominal = elaborate(program).circuit;
 const criteria = specCriteria(nominal);
 const startup = { kind: "startup", probe: { kind: "node", node: "o" }, until: 0.1, kick: "noise" };
 const steady = { kind: "steady", probe: { kind: "node", node: "o" } };
-// The workers make the same builder from the module and the data (the calling thread then builds no circuit for them).
+// Workers make the same builder from the module and the data (see runToleranceStudy's portable option).
 const data = { program, analysis: measure === "steady" ? steady : startup };
 const build = benchBuilder(data);
 const portable = { module: new URL("./study-builder.mjs", import.meta.url).href, name: "benchBuilder", data };

@@ -1,7 +1,7 @@
-// Given a portable builder, each worker thread builds and runs its own samples, taking them from
-// a counter shared with this thread; every sample is deterministic, so the samples are the same
-// whatever the number of jobs, whichever thread takes which sample, and whether the circuits are
-// posted or built by the workers. Node cannot start a worker from a .ts file, so the pool is
+// Given a portable builder and two workers or more, each worker thread builds and runs its own
+// samples, taking them from a counter shared with this thread; every sample is deterministic,
+// so the samples are the same whatever the number of jobs, whichever thread takes which sample,
+// and whether the circuits are posted or built by the workers. Node cannot start a worker from a .ts file, so the pool is
 // tested through the built package (packages/core/dist).
 import { existsSync, readFileSync } from "node:fs";
 import { createRequire } from "node:module";
@@ -67,8 +67,8 @@ describe("shared study (portable builder)", () => {
   test("the workers build their own samples' circuits: this thread builds fewer than the posted study does", async () => {
     // Enough samples that the worker, which starts some hundred ms after this thread, takes some.
     const runs = 120;
-    const shared = await study({ runs, pool: 2, portable });
-    const posted = await study({ runs, pool: 2 });
+    const shared = await study({ runs, pool: 3, portable });
+    const posted = await study({ runs, pool: 3 });
     expect(shared.text).toBe(posted.text);
     // Posted: the plan's circuits and every sample's are built here; shared: the plan's, the
     // nominal once more (to compare it with the worker's) and this thread's own samples.
@@ -76,32 +76,40 @@ describe("shared study (portable builder)", () => {
     expect(shared.built).toBeLessThan(posted.built);
   }, 120_000);
 
+  test("with one worker the circuits are posted (this thread builds every sample's), the same samples", async () => {
+    const runs = 40;
+    const one = await study({ runs, pool: 2, portable });
+    const posted = await study({ runs, pool: 2 });
+    expect(one.text).toBe(posted.text);
+    expect(one.built).toBe(posted.built);
+  }, 120_000);
+
   test("around a sweep value (fixed), the same samples in this thread and on the workers", async () => {
     const fixed = { "P1.at": 0.6 };
-    expect((await study({ runs: 6, pool: 2, portable, fixed })).text).toBe((await study({ runs: 6, fixed })).text);
+    expect((await study({ runs: 6, pool: 3, portable, fixed })).text).toBe((await study({ runs: 6, fixed })).text);
   }, 120_000);
 
   test("a module without the named builder: this thread runs every sample, the same samples", async () => {
     const missing = { ...portable, name: "noSuchBuilder" };
-    const r = await study({ runs: 6, pool: 2, portable: missing });
+    const r = await study({ runs: 6, pool: 3, portable: missing });
     expect(r.text).toBe((await study({ runs: 6 })).text);
     expect(r.built).toBeGreaterThanOrEqual(6);
   }, 120_000);
 
   test("a portable builder that builds another nominal circuit is refused", async () => {
     const other = { ...portable, data: { ...data, analysis: { ...steady, probe: { kind: "node", node: "p" } } } };
-    await expect(study({ runs: 6, pool: 2, portable: other })).rejects.toThrow(/another nominal circuit/);
+    await expect(study({ runs: 6, pool: 3, portable: other })).rejects.toThrow(/another nominal circuit/);
   }, 120_000);
 
   test("a run limit that runs out stops a shared study with a RunLimitError", async () => {
-    await expect(study({ runs: 6, pool: 2, portable, limits: { maxSteps: 5 } })).rejects.toBeInstanceOf(core.RunLimitError);
+    await expect(study({ runs: 6, pool: 3, portable, limits: { maxSteps: 5 } })).rejects.toBeInstanceOf(core.RunLimitError);
   }, 120_000);
 
   test("a wall time that runs out while the threads take samples stops the study with a RunLimitError, before all samples ran", async () => {
     let finished = 0;
     const build = steadyBuilder(data);
     const running = core.runToleranceStudy(build, nominal.tolerances, { kind: "tolerance", runs: 5000, seed: 3, dist: "normal", measure: "steady" }, criteria, {
-      pool: workerPool(2),
+      pool: workerPool(3),
       portable,
       limits: { maxWallTime: 1 },
       onSample: () => finished++,
@@ -113,7 +121,7 @@ describe("shared study (portable builder)", () => {
   test("an onSample that throws stops the study with its error (whichever thread ran the sample)", async () => {
     let heard = 0;
     const running = core.runToleranceStudy(steadyBuilder(data), nominal.tolerances, { kind: "tolerance", runs: 200, seed: 5, dist: "normal", measure: "steady" }, criteria, {
-      pool: workerPool(2),
+      pool: workerPool(3),
       portable,
       onSample: () => {
         if (++heard === 60) throw new Error("the caller's callback failed");
@@ -127,7 +135,7 @@ describe("shared study (portable builder)", () => {
     const cjs = require(join(dist, "index.cjs"));
     const pools = require(join(dist, "node.cjs"));
     const inThread = await study({ runs: 120 });
-    const r = await study({ runs: 120, pool: 2, portable, lib: cjs, pools });
+    const r = await study({ runs: 120, pool: 3, portable, lib: cjs, pools });
     expect(r.text).toBe(inThread.text);
     expect(r.built).toBeLessThan(inThread.built);
   }, 120_000);
