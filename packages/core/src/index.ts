@@ -148,6 +148,7 @@ export { runCircuitInParallel } from "./study/run-parallel.js";
 export type { ParallelRunOptions } from "./study/run-parallel.js";
 export { runToleranceStudy, shardIndices } from "./study/tolerance.js";
 export type { CircuitBuilder, Shard, ToleranceStudyOptions } from "./study/tolerance.js";
+export type { PortableBuilder } from "./study/shared-study.js";
 export { oscillates, runSweep, sweepValues } from "./study/sweep.js";
 export { sweepCount } from "./study/sweep-count.js";
 export { refuseStudy } from "./study/study-size.js";

@@ -26,6 +26,8 @@ export {
 export type { IncludeResolver, LoadedProgram, SourceText } from "./loader.js";
 export type { BuiltCircuit, CircuitSource, LoadSourceOptions } from "./circuit-source.js";
 export { SourceError } from "./source-error.js";
+export { programBuilder } from "./program-builder.js";
+export type { ProgramBuilderData } from "./program-builder.js";
 export { SOURCE_LIMIT_FLAGS, SOURCE_LIMITS } from "./source-limits.js";
 export type { SourceLimits } from "./source-limits.js";
 export type { Overrides } from "./elaborate/context.js";

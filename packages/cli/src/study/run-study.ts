@@ -6,6 +6,7 @@ import {
   specCriteria,
   sweepValues,
   type Circuit,
+  type PortableBuilder,
   type RunLimits,
   type Shard,
   type SweepAnalysis,
@@ -132,6 +133,19 @@ function resumed(s: StudySettings, header: StudyHeader, target: OutputTarget): S
 }
 
 /**
+ * The study's builder as worker threads make it for themselves (the language package's
+ * `programBuilder` on the program and the `--set` values); none where that package cannot be
+ * located, and the circuits are then built here and posted.
+ */
+function portableBuilder(s: StudySettings): PortableBuilder | undefined {
+  try {
+    return { module: import.meta.resolve("@onset/netlist-parser"), name: "programBuilder", data: { program: s.source.program, overrides: s.overrides } };
+  } catch {
+    return undefined;
+  }
+}
+
+/**
  * Runs the Monte Carlo samples of the study (every sweep setting of a design window in turn),
  * appending each finished sample to the results file, and reports on all of them.
  */
@@ -152,6 +166,7 @@ export async function runStudy(s: StudySettings): Promise<StudyReport> {
   const criteria = specCriteria(s.circuit);
   const budget = new RunBudget(s.limits);
   const pool = workerPool(s.jobs);
+  const portable = portableBuilder(s);
   try {
     for (let k = 0; k < settings.length; k++) {
       const value = settings[k];
@@ -160,6 +175,7 @@ export async function runStudy(s: StudySettings): Promise<StudyReport> {
       await runToleranceStudy(build, tolerances, s.tolerance, criteria, {
         pool,
         budget,
+        ...(portable ? { portable } : {}),
         ...(s.shard ? { shard: s.shard } : {}),
         done: already,
         ...(value === null ? {} : { fixed: { [s.sweep!.target]: value } }),

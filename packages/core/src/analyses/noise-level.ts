@@ -16,19 +16,23 @@ function kernel(x: number): number {
 
 /** |Φ(f)/Φ(0)|² of the kernel at f = r·corner, tabulated for r ∈ [0, 2] (Φ vanishes beyond). */
 const SHAPE_POINTS = 256;
-/** Built on first use (about 30 ms of cosines), not when the library is imported. */
+/** Built on first use (some 10 ms of cosines), not when the library is imported. */
 let shapeTable: Float64Array | undefined;
 function buildShapeTable(): Float64Array {
   const table = new Float64Array(SHAPE_POINTS + 1);
   const n = 2048;
+  // The kernel at the midpoints, the same for every frequency.
+  const xs = new Float64Array(n);
+  const weights = new Float64Array(n);
+  for (let m = 0; m < n; m++) {
+    xs[m] = -2 + (4 * (m + 0.5)) / n;
+    weights[m] = kernel(xs[m]!);
+  }
   for (let i = 0; i <= SHAPE_POINTS; i++) {
     // Samples 1/(2·corner) apart: f = r·corner is r/2 cycles per sample interval.
     const cycles = (2 * i) / SHAPE_POINTS / 2;
     let sum = 0;
-    for (let m = 0; m < n; m++) {
-      const x = -2 + (4 * (m + 0.5)) / n;
-      sum += kernel(x) * Math.cos(2 * Math.PI * cycles * x);
-    }
+    for (let m = 0; m < n; m++) sum += weights[m]! * Math.cos(2 * Math.PI * cycles * xs[m]!);
     table[i] = ((sum * 4) / n) ** 2;
   }
   return table;
@@ -44,21 +48,30 @@ export function noiseShape(f: number, corner: number): number {
   return table[i]! * (1 - u) + table[i + 1]! * u;
 }
 
+/** Log-spaced points per decade of the band. */
+const PER_DECADE = 20;
+/** 10^(k/PER_DECADE), computed once each (every sample's grid has them). */
+const decadeSteps: number[] = [];
+function decadeStep(k: number): number {
+  return (decadeSteps[k] ??= 10 ** (k / PER_DECADE));
+}
+/** sinh(0.2·k) for k = −20…20: a resonance's points in half-widths from its centre. */
+const RESONANCE_STEPS = Float64Array.from({ length: 41 }, (_, i) => Math.sinh(0.2 * (i - 20)));
+
 /** Frequencies to integrate over: log-spaced over the band, dense around every resonance in it. */
 function frequencyGrid(corner: number, poles: readonly Pole[]): Float64Array {
   const top = 2 * corner;
   // Below a ten-thousandth of the band the response is flat enough for one trapezoid from DC.
   const bottom = top * 1e-4;
   const points: number[] = [0];
-  const perDecade = 20;
   const decades = Math.log10(top / bottom);
-  for (let k = 0; k <= decades * perDecade; k++) points.push(bottom * 10 ** (k / perDecade));
+  for (let k = 0; k <= decades * PER_DECADE; k++) points.push(bottom * decadeStep(k));
   for (const p of poles) {
     const f = Math.abs(p.imag) / (2 * Math.PI);
     if (!(p.imag > 0 && f < top)) continue;
     // A resonance of half-width |σ|/2π: points at sinh-spaced multiples of it, out to ±30 widths.
     const width = Math.max(Math.abs(p.real) / (2 * Math.PI), f * 1e-9);
-    for (let k = -20; k <= 20; k++) points.push(f + width * Math.sinh(0.2 * k));
+    for (let k = 0; k < RESONANCE_STEPS.length; k++) points.push(f + width * RESONANCE_STEPS[k]!);
   }
   const sorted = Float64Array.from(points.filter((f) => f >= 0 && f <= top)).sort();
   return sorted.filter((f, i) => i === 0 || f > sorted[i - 1]!);
@@ -133,13 +146,19 @@ type AdjointSolve = (omega: number, bRe: Float64Array, bIm: Float64Array, yRe: F
 function denseAdjoint(ss: SmallSignal): AdjointSolve {
   const { n, G, C } = ss;
   const lu = new ComplexLu(n);
-  return (omega, bRe, bIm, yRe, yIm) => {
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        lu.re[i * n + j] = G[j * n + i]!;
-        lu.im[i * n + j] = omega * C[j * n + i]!;
-      }
+  // Gᵀ and Cᵀ once: only ω changes from one frequency to the next.
+  const gT = new Float64Array(n * n);
+  const cT = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      gT[i * n + j] = G[j * n + i]!;
+      cT[i * n + j] = C[j * n + i]!;
     }
+  }
+  return (omega, bRe, bIm, yRe, yIm) => {
+    lu.re.set(gT);
+    const im = lu.im;
+    for (let k = 0; k < cT.length; k++) im[k] = omega * cT[k]!;
     if (!lu.factor()) return false;
     lu.solve(bRe, bIm, yRe, yIm);
     return true;

@@ -1,5 +1,6 @@
 import type { RunBudget } from "../analyses/limits.js";
 import { runJob, type Job, type JobResult } from "./jobs.js";
+import type { SharedPlan, SharedStudy, SharedStudyReport } from "./shared-study.js";
 
 /** Runs jobs (Monte Carlo samples, start-up seeds), in this thread or on worker threads. */
 export interface JobPool {
@@ -9,8 +10,22 @@ export interface JobPool {
   readonly lanes?: number;
   /** Runs one job; rejects with a `RunLimitError` when the budget runs out. */
   run<J extends Job>(job: J): Promise<JobResult<J>>;
+  /**
+   * Sets the pool's worker threads on a shared study (absent on a pool without them): each makes
+   * its builder, waits for the plan (`planned`), then takes samples from `study.next` until none
+   * is left, reporting as it goes. `ended` resolves when every worker has ended its part; it
+   * rejects with a `RunLimitError` when the budget runs out.
+   */
+  share?(study: SharedStudy, onReport: (report: SharedStudyReport) => void): SharedRun;
   /** Stops the pool; jobs still running are rejected. */
   close(): Promise<void>;
+}
+
+/** A shared study under way on a pool's workers. */
+export interface SharedRun {
+  /** Hands every worker the study's plan. */
+  planned(plan: SharedPlan): void;
+  readonly ended: Promise<void>;
 }
 
 /** What a pool is made for: how many jobs at most, and the budget they all run within. */

@@ -7,6 +7,7 @@ import type { Circuit } from "../circuit/circuit.js";
 import type { SampleOutcome, SampleSettings } from "./sample.js";
 import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
+import type { SharedPlan, SharedStudy, SharedStudyReport } from "./shared-study.js";
 
 /** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof", "--cpu-prof-dir", "--cpu-prof-name", "--heap-prof-dir", "--heap-prof-name"]);
@@ -17,16 +18,22 @@ const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "-
  */
 export type PostedJob = Exclude<Job, { readonly kind: "sample" }> | { readonly kind: "sample"; readonly circuit: Circuit; readonly settings: number; readonly start?: SeedStart };
 
-/** What a worker is sent: one job, the limits it runs within (the wall time as what is left), and settings it has not seen yet. */
-export interface WorkerRequest {
-  readonly job: PostedJob;
-  readonly limits: WorkerLimits;
-  /** Settings the job (or a later one) names by `id`. */
-  readonly settings?: { readonly id: number; readonly value: SampleSettings };
-}
+/**
+ * What a worker is sent: one job, the limits it runs within (the wall time as what is left), and
+ * settings it has not seen yet; or a shared study to take samples from.
+ */
+export type WorkerRequest =
+  | {
+      readonly job: PostedJob;
+      readonly limits: WorkerLimits;
+      /** Settings the job (or a later one) names by `id`. */
+      readonly settings?: { readonly id: number; readonly value: SampleSettings };
+    }
+  | { readonly share: SharedStudy; readonly limits: WorkerLimits }
+  | { readonly plan: SharedPlan };
 
-/** A worker's answer: the job's outcome, or the limit that stopped it. */
-export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome | SteadySettingOutcome } | { readonly limit: RunLimitRecord };
+/** A worker's answer: the job's outcome, or the limit that stopped it; or a report on its shared study. */
+export type WorkerReply = { readonly outcome: SampleOutcome | SeedOutcome | SteadySettingOutcome } | { readonly limit: RunLimitRecord } | { readonly report: SharedStudyReport };
 
 /** The default number of workers: the machine's cores. */
 export function defaultJobs(): number {
@@ -79,11 +86,13 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
   const workers: Worker[] = [];
   let hereBusy = false;
   let stopped: unknown = null;
+  /** The shared study under way: who hears its reports, and how many workers have not ended their part. */
+  let sharing: { onReport: (report: SharedStudyReport) => void; running: number; resolve(): void; reject(error: unknown): void } | null = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
   const stop = (reason: unknown) => {
     if (stopped !== null) return;
     stopped = reason;
-    for (const pending of [...[...queued.values()].flat(), ...waiting.map((w) => w.pending)]) pending.reject(reason);
+    for (const pending of [...[...queued.values()].flat(), ...waiting.map((w) => w.pending), ...(sharing ? [sharing] : [])]) pending.reject(reason);
     for (const q of queued.values()) q.length = 0;
     waiting.length = 0;
     clearTimeout(timer);
@@ -159,9 +168,21 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
   const drain = () => {
     while (stopped === null && waiting.length > 0 && place(waiting[0]!.job, waiting[0]!.pending)) waiting.shift();
   };
+  const heard = (report: SharedStudyReport) => {
+    if (stopped !== null || !sharing) return;
+    if ("limit" in report) stop(runLimitError(report.limit));
+    else {
+      sharing.onReport(report);
+      if (("done" in report || "unavailable" in report) && --sharing.running === 0) sharing.resolve();
+    }
+  };
   for (let k = 0; k < threads; k++) {
     const worker = new Worker(entry, { execArgv });
     worker.on("message", (reply: WorkerReply) => {
+      if ("report" in reply) {
+        heard(reply.report);
+        return;
+      }
       const pending = queued.get(worker)!.shift();
       if (!pending) return;
       if ("limit" in reply) {
@@ -189,6 +210,22 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
         const pending: Pending = { resolve: (outcome) => resolve(outcome as JobResult<J>), reject };
         if (waiting.length > 0 || !place(job, pending)) waiting.push({ job, pending });
       });
+    },
+    share(study, onReport) {
+      const ended = new Promise<void>((resolve, reject) => {
+        if (stopped !== null) {
+          reject(stopped);
+          return;
+        }
+        sharing = { onReport, running: workers.length, resolve, reject };
+        for (const w of workers) w.postMessage({ share: study, limits: budget.forWorker() } satisfies WorkerRequest);
+      });
+      return {
+        ended,
+        planned(plan) {
+          if (stopped === null) for (const w of workers) w.postMessage({ plan } satisfies WorkerRequest);
+        },
+      };
     },
     close() {
       stop(new Error("the job pool was closed"));
