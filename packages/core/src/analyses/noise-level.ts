@@ -6,46 +6,46 @@ import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { Pole } from "./poles.js";
 import type { ProbeWeights } from "./probes.js";
 
-// Catmull–Rom kernel φ on [−2, 2] (the noise streams' interpolation, see waves/smooth-noise.ts).
-function kernel(x: number): number {
-  const a = Math.abs(x);
-  if (a < 1) return 1.5 * a ** 3 - 2.5 * a ** 2 + 1;
-  if (a < 2) return -0.5 * a ** 3 + 2.5 * a ** 2 - 4 * a + 2;
-  return 0;
+/** sin(πx)/(πx). */
+function sinc(x: number): number {
+  if (x === 0) return 1;
+  const a = Math.PI * x;
+  return Math.sin(a) / a;
 }
 
-/** |Φ(f)/Φ(0)|² of the kernel at f = r·corner, tabulated for r ∈ [0, 2] (Φ vanishes beyond). */
-const SHAPE_POINTS = 256;
-/** Built on first use (some 10 ms of cosines), not when the library is imported. */
-let shapeTable: Float64Array | undefined;
-function buildShapeTable(): Float64Array {
-  const table = new Float64Array(SHAPE_POINTS + 1);
-  const n = 2048;
-  // The kernel at the midpoints, the same for every frequency.
-  const xs = new Float64Array(n);
-  const weights = new Float64Array(n);
-  for (let m = 0; m < n; m++) {
-    xs[m] = -2 + (4 * (m + 0.5)) / n;
-    weights[m] = kernel(xs[m]!);
+/**
+ * Below this many cycles per sample interval the closed form's terms cancel (to some 1e-13 here);
+ * Φ's Taylor series takes over: Σ (−1)ᵏ·ω²ᵏ·M₂ₖ/(2k)!, ω = 2πν, with the kernel's moments
+ * M₀ = 1, M₂ = 0, M₄ = −3/10, M₆ = −17/21, M₈ = −31/15 (mathematics: the integrals of its cubic
+ * pieces), truncated after ω⁸ (the next term is below 2e-15 here).
+ */
+const SERIES_CYCLES = 0.02;
+/**
+ * Φ(ν)/Φ(0), the Fourier transform of the noise streams' Catmull–Rom kernel (see
+ * waves/smooth-noise.ts; Keys' cubic convolution kernel with a = −1/2) at ν cycles per sample
+ * interval, in closed form: 3/(πν)²·(sinc²ν − sinc 2ν) + 2a/(πν)²·(3·sinc²2ν − 2·sinc 2ν − sinc 4ν)
+ * (Park & Schowengerdt 1983, docs/references.md §9; checked in the tests against the Fourier
+ * integral by quadrature).
+ */
+function kernelTransform(nu: number): number {
+  if (nu < SERIES_CYCLES) {
+    const w2 = (2 * Math.PI * nu) ** 2;
+    return 1 - (w2 * w2) / 80 + (17 * w2 ** 3) / 15120 - (31 * w2 ** 4) / 604800;
   }
-  for (let i = 0; i <= SHAPE_POINTS; i++) {
-    // Samples 1/(2·corner) apart: f = r·corner is r/2 cycles per sample interval.
-    const cycles = (2 * i) / SHAPE_POINTS / 2;
-    let sum = 0;
-    for (let m = 0; m < n; m++) sum += weights[m]! * Math.cos(2 * Math.PI * cycles * xs[m]!);
-    table[i] = ((sum * 4) / n) ** 2;
-  }
-  return table;
+  const p = (Math.PI * nu) ** 2;
+  const s2 = sinc(2 * nu);
+  return (3 / p) * (sinc(nu) ** 2 - s2) - (1 / p) * (3 * s2 ** 2 - 2 * s2 - sinc(4 * nu));
 }
 
-/** The noise streams' spectral shape at frequency f: 1 at DC, 0.9996 at corner/10, 0 from 2·corner. */
+/**
+ * The noise streams' spectral shape at frequency f: |Φ|² of their kernel, the samples being
+ * 1/(2·corner) apart (f is f/(2·corner) cycles per sample interval): 1 at DC, 0.9996 at corner/10,
+ * and 0 from 2·corner, the top of the band (the kernel's sidelobes beyond it stay below 7e-5 of the power at DC).
+ */
 export function noiseShape(f: number, corner: number): number {
-  const r = (f / corner) * (SHAPE_POINTS / 2);
-  if (!(r < SHAPE_POINTS)) return 0;
-  const i = Math.floor(r);
-  const u = r - i;
-  const table = (shapeTable ??= buildShapeTable());
-  return table[i]! * (1 - u) + table[i + 1]! * u;
+  const nu = f / (2 * corner);
+  if (!(nu < 1)) return 0;
+  return kernelTransform(nu) ** 2;
 }
 
 /** Log-spaced points per decade of the band. */
