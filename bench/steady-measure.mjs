@@ -3,7 +3,9 @@
 // processor time (user + system: on a shared machine the other processes lengthen the wall time,
 // not the work done): the first run in this fresh process (cold: the code not yet compiled, as a
 // one-off command-line run meets it), and the best of the repeats after it (warm, as inside a
-// study or a sweep). Prints one JSON line.
+// study or a sweep): at least `repeats` of them, and more until both methods have had the same
+// processor time to compile their code (ONSET_BENCH_WARM_SECONDS, default 2 s; a run of a few
+// milliseconds is not compiled fully after ten repeats). Prints one JSON line.
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { runStartup, runSteady, startupAnalysisOf } from "@onset/core";
@@ -25,10 +27,13 @@ const timed = () => {
 const cold = timed();
 let result = cold.result;
 const times = [];
-for (let k = 0; k < Number(repeats); k++) {
+const warmMs = Number(process.env.ONSET_BENCH_WARM_SECONDS ?? 2) * 1000;
+let spent = 0;
+for (let k = 0; k < Number(repeats) || spent < warmMs; k++) {
   const run = timed();
   result = run.result;
   times.push(run.ms);
+  spent += run.ms;
 }
 times.sort((a, b) => a - b);
 console.log(
@@ -37,6 +42,7 @@ console.log(
     method,
     coldMs: cold.ms,
     warmMs: times[0] ?? cold.ms,
+    repeats: times.length,
     verdict: result.verdict ?? (result.found ? "found" : "none"),
     frequency: result.frequency,
     amplitude: result.amplitude,

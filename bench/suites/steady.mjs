@@ -41,6 +41,7 @@ export async function run() {
       "start-up warm": startup.warmMs.toFixed(1),
       "steady warm": steady.warmMs.toFixed(1),
       "warm ratio": `${(startup.warmMs / steady.warmMs).toFixed(1)}×`,
+      "warm runs": `${startup.repeats}/${steady.repeats}`,
       target: SLOW_LOOPS.includes(name) ? "30×" : "10×",
       periods: steady.periods,
       iterations: steady.iterations ? steady.iterations.join("+") : "—",
@@ -51,7 +52,7 @@ export async function run() {
   }
   printTable(rows);
   const list = (rs) => rs.map((r) => `${r.toFixed(1)}×`).join(", ");
-  console.log(`\nprocessor time in ms: cold = the first run in a fresh process; warm = the best of ${REPEATS} after it. periods = the steady analysis' transient periods, iterations = its shooting periods on the two grids`);
+  console.log(`\nprocessor time in ms: cold = the first run in a fresh process; warm = the best of the runs after it (at least ${REPEATS}, and until ${process.env.ONSET_BENCH_WARM_SECONDS ?? 2} s of processor time were spent). periods = the steady analysis' transient periods, iterations = its shooting periods on the two grids`);
   console.log(`start-up to settled / steady, cold: ${list(cold)}; warm: ${list(warm)} (target ≥ 10×; ≥ 30× for the slow loops)`);
   console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
 
