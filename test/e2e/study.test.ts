@@ -1,7 +1,8 @@
+import { execFile } from "node:child_process";
 import { lstatSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, test } from "vitest";
 import { mkfifo, readFifo } from "../support/special-files.js";
-import { Workspace, wien, type Ran } from "./support/onset.js";
+import { MAIN, Workspace, wien, type Ran } from "./support/onset.js";
 
 const ws = new Workspace();
 afterAll(() => ws.remove());
@@ -56,6 +57,18 @@ describe("a tolerance study", () => {
     const two = await ws.run(["run", "study.onset", "--json", "--jobs", "2", "--results", "two.jsonl"]);
     expect(two.status).toBe(0);
     expect(two.stdout).toBe(single.stdout);
+  });
+
+  test("node flags a worker thread refuses (V8's heap and stack sizes, a profiler's) do not stop a study on two workers", async () => {
+    const flags = ["--max-old-space-size=2048", "--stack-size=2000", "--max-semi-space-size=16"];
+    const run = await new Promise<{ status: number | null; stdout: string; stderr: string }>((done) => {
+      execFile(process.execPath, [...flags, MAIN, "run", "study.onset", "--json", "--jobs", "2", "--results", "flags.jsonl"], { cwd: ws.dir }, (error, stdout, stderr) =>
+        done({ status: error ? ((error as { code?: number }).code ?? 1) : 0, stdout, stderr }),
+      );
+    });
+    expect(run.stderr).not.toMatch(/ERR_WORKER_INVALID_EXEC_ARGV|\n\s+at /);
+    expect(run.status).toBe(0);
+    expect(run.stdout).toBe(single.stdout);
   });
 
   test("shards run as separate concurrent processes, merged, equal the single run byte for byte", async () => {

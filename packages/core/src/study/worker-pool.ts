@@ -9,8 +9,25 @@ import type { SeedStart } from "./seed-predictor.js";
 import type { SteadySettingOutcome } from "./sweep-steady.js";
 import type { SharedPlan, SharedStudy, SharedStudyReport } from "./shared-study.js";
 
-/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV). */
+/** Node flags a worker thread cannot take (ERR_WORKER_INVALID_EXEC_ARGV), known before trying. */
 const WORKER_REFUSED_FLAGS = new Set(["--expose-gc", "--expose_gc", "--prof", "--cpu-prof", "--heap-prof", "--cpu-prof-dir", "--cpu-prof-name", "--heap-prof-dir", "--heap-prof-name"]);
+
+/**
+ * A worker thread on `entry` with the parent's flags, less those a worker refuses: the ones known
+ * above, and any other the refusal names (V8's own flags such as --max-old-space-size or
+ * --stack-size, which hold for the whole process anyway, and the process's own such as --title).
+ */
+function startWorker(entry: URL, execArgv: string[]): Worker {
+  try {
+    return new Worker(entry, { execArgv });
+  } catch (error) {
+    if ((error as { code?: unknown }).code !== "ERR_WORKER_INVALID_EXEC_ARGV") throw error;
+    const named = /flags: (.*)$/.exec((error as Error).message)?.[1]?.split(", ") ?? [];
+    const kept = execArgv.filter((a) => !named.includes(a));
+    // Unless the refusal names what to leave out, the worker starts with none of the flags.
+    return new Worker(entry, { execArgv: kept.length < execArgv.length ? kept : [] });
+  }
+}
 
 /**
  * A job as posted: a sample's settings, one object shared by every sample of a study (with the
@@ -177,7 +194,7 @@ function startWorkers(entry: URL, threads: number, { budget }: JobPoolContext): 
     }
   };
   for (let k = 0; k < threads; k++) {
-    const worker = new Worker(entry, { execArgv });
+    const worker = startWorker(entry, execArgv);
     worker.on("message", (reply: WorkerReply) => {
       if ("report" in reply) {
         heard(reply.report);
