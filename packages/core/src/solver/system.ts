@@ -74,6 +74,12 @@ export interface MnaSystem {
   readonly stateIndex: ReadonlyMap<string, number>;
 }
 
+/** The dense G and C once built; both keys are there from the start, so the holder keeps one shape. */
+interface DenseMatrices {
+  G: Float64Array | undefined;
+  C: Float64Array | undefined;
+}
+
 /** A system's fields but the dense matrices. */
 type SystemFields = Omit<MnaSystem, "G" | "C">;
 
@@ -120,7 +126,7 @@ class AssembledSystem implements MnaSystem {
 
   constructor(
     f: SystemFields,
-    readonly dense: { G?: Float64Array; C?: Float64Array },
+    readonly dense: DenseMatrices,
   ) {
     this.n = f.n;
     this.unknowns = f.unknowns;
@@ -315,7 +321,7 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
       chargedRows: chargedRowsOf(n, cTriplets, declared),
       stateIndex,
     },
-    {},
+    { G: undefined, C: undefined },
   );
 }
 
@@ -323,5 +329,5 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
 export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
   const fields = { ...fieldsOf(system), sources: [...system.sources, ...sources] };
   // The dense G and C are shared with the original, built once by whichever reads them first.
-  return new AssembledSystem(fields, system instanceof AssembledSystem ? system.dense : {});
+  return new AssembledSystem(fields, system instanceof AssembledSystem ? system.dense : { G: undefined, C: undefined });
 }
