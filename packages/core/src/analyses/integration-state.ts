@@ -24,8 +24,8 @@ export class IntegrationState {
   readonly q: Float64Array;
   readonly qdot: Float64Array;
   readonly qPrevious: Float64Array;
-  /** Length of the last step taken (the BDF2 rows' previous step). */
-  lastStep = 0;
+  /** Length of the last step taken (the BDF2 rows' previous step); NaN, then 0: a double field from the start (see TransientStepper.t). */
+  lastStep = NaN;
   /** Row indices integrated by BDF2. */
   readonly stiffRowIndex: Int32Array;
   private readonly stiffRows: Uint8Array;
@@ -37,6 +37,7 @@ export class IntegrationState {
   private readonly chargeValues: Float64Array;
 
   constructor(system: MnaSystem) {
+    this.lastStep = 0;
     const n = system.n;
     this.n = n;
     this.x = new Float64Array(n);

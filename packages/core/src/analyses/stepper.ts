@@ -108,8 +108,13 @@ export class TransientStepper {
   readonly tolerances: Tolerances;
   readonly stats: StepperStats = { accepted: 0, rejected: 0, newtonFailures: 0, newtonIterations: 0, factorizations: 0, breakpoints: 0 };
   readonly bias: BiasPoint | undefined;
-  /** Current time and unknowns (read-only for observers). */
-  t = 0;
+  /**
+   * Current time and unknowns (read-only for observers). The time fields start as NaN and are
+   * zeroed in the constructor: a double first makes them double fields, where a 0 would make
+   * them small integers and the first fractional time would change the stepper's shape and
+   * throw away the optimised code of every method that had seen it.
+   */
+  t = NaN;
   readonly x: Float64Array;
   readonly dxdt: Float64Array;
 
@@ -120,9 +125,9 @@ export class TransientStepper {
   /** Unknowns, charges and their rates at the current point. */
   private readonly state: IntegrationState;
   /** Time points of a run of equal steps are segmentStart + k·segmentStep, so they do not drift. */
-  private segmentStart = 0;
-  private segmentStep = 0;
-  private segmentCount = 0;
+  private segmentStart = NaN;
+  private segmentStep = NaN;
+  private segmentCount = NaN;
   /** The next step is the checked first-order start (the first, and the first after a breakpoint). */
   private firstOrderNext = true;
   private pending: PendingHalf | undefined;
@@ -139,6 +144,7 @@ export class TransientStepper {
   private readonly observers: StepObserver[] = [];
 
   constructor(system: MnaSystem, settings: StepperSettings) {
+    this.t = this.segmentStart = this.segmentStep = this.segmentCount = 0;
     this.system = system;
     const n = system.n;
     this.n = n;

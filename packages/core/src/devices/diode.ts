@@ -87,7 +87,8 @@ export function limitJunctionVoltage(vOld: number, vNew: number, nvt: number, vc
  * `load` and one `limitStep` (the solver's calls then stay monomorphic however many there are).
  */
 class Junction implements NonlinearTerm {
-  private readonly state: JunctionState = { current: 0, conductance: 0 };
+  // Written before it is read; NaN makes its fields doubles from the start (see jfet.ts).
+  private readonly state: JunctionState = { current: NaN, conductance: NaN };
 
   constructor(
     private readonly a: number,
@@ -159,7 +160,7 @@ export const diode: DeviceModel = {
       setup.declareCharge(c, [a, c]);
     }
     const vcrit = nvt * Math.log(nvt / (Math.SQRT2 * is));
-    const state: JunctionState = { current: 0, conductance: 0 };
+    const state: JunctionState = { current: NaN, conductance: NaN };
     const v = valueAt;
     return {
       part,

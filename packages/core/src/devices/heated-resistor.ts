@@ -44,7 +44,8 @@ const HEAT_REMAINDER = 1e-4;
  * stamped once. A class, so every lamp and thermistor share one `load`.
  */
 export class HeatedResistor implements NonlinearTerm {
-  private readonly state: ConductanceState = { conductance: 0, slope: 0 };
+  // Written before it is read; NaN makes its fields doubles from the start (see jfet.ts).
+  private readonly state: ConductanceState = { conductance: NaN, slope: NaN };
   private readonly ambientFlow: number;
   private readonly floor: number;
 
@@ -103,7 +104,7 @@ export function heatedResistorDevice(part: PartSpec, setup: SetupContext, law: R
   const b = setup.node(part.nodes[1]!);
   const theta = setup.addUnknown(`${part.name}.temperature`, "temperature");
   const term = new HeatedResistor(a, b, theta, law, network);
-  const ambient: ConductanceState = { conductance: 0, slope: 0 };
+  const ambient: ConductanceState = { conductance: NaN, slope: NaN };
   law.conductanceAt(network.ambient, ambient);
   return {
     part,

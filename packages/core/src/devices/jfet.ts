@@ -71,9 +71,12 @@ export function channelCurrent(vg: number, v: number, beta: number, vp: number, 
  * the sign times the n-channel ones, so the slopes carry sign² = 1.
  */
 class JfetChannel implements NonlinearTerm {
-  private readonly channel: ChannelState = { current: 0, gm: 0, gds: 0 };
-  private readonly probe: ChannelState = { current: 0, gm: 0, gds: 0 };
-  private readonly junction: JunctionState = { current: 0, conductance: 0 };
+  // Out-parameters, written before they are read. NaN starts their fields as doubles: a 0 starts
+  // them as small integers, and the first fractional value then changes the shape of every such
+  // object and throws away the optimised code that had seen it.
+  private readonly channel: ChannelState = { current: NaN, gm: NaN, gds: NaN };
+  private readonly probe: ChannelState = { current: NaN, gm: NaN, gds: NaN };
+  private readonly junction: JunctionState = { current: NaN, conductance: NaN };
   private readonly vcrit = GATE_NVT * Math.log(GATE_NVT / (Math.SQRT2 * GATE_SATURATION));
 
   constructor(

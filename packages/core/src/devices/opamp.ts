@@ -104,8 +104,22 @@ export interface OpampConstants {
 
 function railsOf(part: PartSpec): readonly [number, number] {
   const rails = part.options.rails;
-  if (Array.isArray(rails) && rails.length === 2) return [rails[0] as number, rails[1] as number];
-  return DEFAULT_RAILS;
+  const [neg, pos] = Array.isArray(rails) && rails.length === 2 ? [rails[0] as number, rails[1] as number] : DEFAULT_RAILS;
+  // An array of doubles whatever the values: whole rails would make an array of small integers
+  // and a fractional one another element kind under the same optimised load.
+  const doubles: [number, number] = [NaN, NaN];
+  doubles[0] = neg;
+  doubles[1] = pos;
+  return doubles;
+}
+
+/**
+ * Constants whose number fields are doubles from the start (NaN), so every part's record has one
+ * shape: whole values in the first part would make them small integers, and a later part's
+ * fractional ones would then change the shape under the optimised clamp and load.
+ */
+function blankConstants(): OpampConstants {
+  return { gain: NaN, gbw: NaN, rPole: NaN, cPole: NaN, gm: NaN, iMax: NaN, gClamp: NaN, knee: NaN, headroom: NaN, rout: NaN, rin: NaN, vos: NaN, noise: NaN, rails: DEFAULT_RAILS };
 }
 
 /** The op-amp macromodel's constants for a part: its preset merged with its own options, rails resolved. */
@@ -119,7 +133,7 @@ export function opampConstants(part: PartSpec): OpampConstants {
   const cPole = Number.isFinite(gbw) ? gm / (2 * Math.PI * gbw) : 0;
   const slew = num("slew");
   const knee = num("knee");
-  return {
+  return Object.assign(blankConstants(), {
     gain,
     gbw,
     rPole,
@@ -137,7 +151,7 @@ export function opampConstants(part: PartSpec): OpampConstants {
     vos: num("vos"),
     noise: num("noise"),
     rails: railsOf(part),
-  };
+  });
 }
 
 /**
@@ -147,7 +161,7 @@ export function opampConstants(part: PartSpec): OpampConstants {
 class OutputStage implements NonlinearTerm {
   private readonly slewLimited: boolean;
   /** The share of the fixed rails reached at the time of the last load (1 unless powering on). */
-  private railLevel = 1;
+  private railLevel = NaN;
 
   constructor(
     private readonly plus: number,
@@ -160,6 +174,8 @@ class OutputStage implements NonlinearTerm {
     private readonly powerOn: PowerOn | undefined,
   ) {
     this.slewLimited = Number.isFinite(k.iMax);
+    // NaN, then 1: a double field from the start (see TransientStepper.t).
+    this.railLevel = 1;
   }
 
   /**

@@ -62,7 +62,8 @@ export class NewtonSolver {
   /** Whether every nonlinear device checks its tangents (then a first update may be judged by the last solve's contraction). */
   private readonly checkable: boolean;
   /** The time of the next solve (set by `loadSources`), handed to time-dependent devices. */
-  private time = 0;
+  // NaN, then 0 in the constructor: a double field from the start (see TransientStepper.t).
+  private time = NaN;
   /** The contraction factor the last iterations showed, for the stopping rule. */
   private contraction = 0.5;
   /**
@@ -73,10 +74,12 @@ export class NewtonSolver {
    * `newtonRelative` (a tenth of the truncation-error tolerance).
    */
   private mode: "bias" | "step" = "bias";
-  private chordLimit = CHORD_NEAR;
+  private chordLimit = NaN;
   private relative: number;
 
   constructor(system: MnaSystem, tolerances: Tolerances) {
+    this.time = 0;
+    this.chordLimit = CHORD_NEAR;
     const n = system.n;
     this.system = system;
     this.tolerances = tolerances;

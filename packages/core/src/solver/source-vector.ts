@@ -19,7 +19,8 @@ export class SourceVector {
   load(t: number, scale: number, left: boolean): void {
     const { sources, quietAfter, u } = this;
     let active = false;
-    for (let k = 0; k < sources.length; k++) {
+    // Counted on quietAfter: an empty source list is an array of another kind (a second map here).
+    for (let k = 0; k < quietAfter.length; k++) {
       if (!(t > quietAfter[k]!)) {
         active = true;
         break;

@@ -74,6 +74,86 @@ export interface MnaSystem {
   readonly stateIndex: ReadonlyMap<string, number>;
 }
 
+/** The dense G and C once built; both keys are there from the start, so the holder keeps one shape. */
+interface DenseMatrices {
+  G: Float64Array | undefined;
+  C: Float64Array | undefined;
+}
+
+/** A system's fields but the dense matrices. */
+type SystemFields = Omit<MnaSystem, "G" | "C">;
+
+function fieldsOf(s: MnaSystem): SystemFields {
+  return {
+    n: s.n,
+    unknowns: s.unknowns,
+    nodeIndex: s.nodeIndex,
+    devices: s.devices,
+    deviceByName: s.deviceByName,
+    sources: s.sources,
+    nonlinear: s.nonlinear,
+    changeWatchers: s.changeWatchers,
+    gTriplets: s.gTriplets,
+    cTriplets: s.cTriplets,
+    stiffRows: s.stiffRows,
+    stateColumns: s.stateColumns,
+    stiffStates: s.stiffStates,
+    chargedRows: s.chargedRows,
+    stateIndex: s.stateIndex,
+  };
+}
+
+/**
+ * A class, so that every system has one shape and the hot loop reads its fields through one
+ * map: an object literal with getters is kept as a dictionary, and a copy of it took another shape.
+ */
+class AssembledSystem implements MnaSystem {
+  readonly n: number;
+  readonly unknowns: readonly UnknownInfo[];
+  readonly nodeIndex: ReadonlyMap<string, number>;
+  readonly devices: readonly Device[];
+  readonly deviceByName: ReadonlyMap<string, Device>;
+  readonly sources: readonly SourceTerm[];
+  readonly nonlinear: readonly NonlinearTerm[];
+  readonly changeWatchers: readonly NonlinearTerm[];
+  readonly gTriplets: Triplets;
+  readonly cTriplets: Triplets;
+  readonly stiffRows: Uint8Array;
+  readonly stateColumns: Int32Array;
+  readonly stiffStates: Uint8Array;
+  readonly chargedRows: Uint8Array;
+  readonly stateIndex: ReadonlyMap<string, number>;
+
+  constructor(
+    f: SystemFields,
+    readonly dense: DenseMatrices,
+  ) {
+    this.n = f.n;
+    this.unknowns = f.unknowns;
+    this.nodeIndex = f.nodeIndex;
+    this.devices = f.devices;
+    this.deviceByName = f.deviceByName;
+    this.sources = f.sources;
+    this.nonlinear = f.nonlinear;
+    this.changeWatchers = f.changeWatchers;
+    this.gTriplets = f.gTriplets;
+    this.cTriplets = f.cTriplets;
+    this.stiffRows = f.stiffRows;
+    this.stateColumns = f.stateColumns;
+    this.stiffStates = f.stiffStates;
+    this.chargedRows = f.chargedRows;
+    this.stateIndex = f.stateIndex;
+  }
+
+  get G(): Float64Array {
+    return (this.dense.G ??= denseOf(this.gTriplets, this.n));
+  }
+
+  get C(): Float64Array {
+    return (this.dense.C ??= denseOf(this.cTriplets, this.n));
+  }
+}
+
 /** Sums stamped values per position, without n×n storage. */
 class TripletSum {
   private readonly at = new Map<number, number>();
@@ -223,36 +303,31 @@ export function buildSystem(circuit: Circuit, extraParts: readonly PartSpec[] = 
   const unknowns: UnknownInfo[] = allocated.map((u, j) => ({ ...u, errorControl: judged[j]! > 0 }));
   const states: number[] = [];
   for (let j = 0; j < n; j++) if (judged[j]) states.push(j);
-  let G: Float64Array | undefined;
-  let C: Float64Array | undefined;
-  return {
-    n,
-    unknowns,
-    nodeIndex,
-    devices,
-    deviceByName,
-    sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
-    nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
-    changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
-    get G() {
-      return (G ??= denseOf(gTriplets, n));
+  return new AssembledSystem(
+    {
+      n,
+      unknowns,
+      nodeIndex,
+      devices,
+      deviceByName,
+      sources: devices.flatMap((d) => (d.source ? [d.source] : [])),
+      nonlinear: devices.flatMap((d) => (d.nonlinear ? [d.nonlinear] : [])),
+      changeWatchers: devices.flatMap((d) => (d.nonlinear?.changeRatio ? [d.nonlinear] : [])),
+      gTriplets,
+      cTriplets,
+      stiffRows,
+      stateColumns: Int32Array.from(states),
+      stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
+      chargedRows: chargedRowsOf(n, cTriplets, declared),
+      stateIndex,
     },
-    get C() {
-      return (C ??= denseOf(cTriplets, n));
-    },
-    gTriplets,
-    cTriplets,
-    stiffRows,
-    stateColumns: Int32Array.from(states),
-    stiffStates: Uint8Array.from(states, (j) => (judged[j] === 2 ? 1 : 0)),
-    chargedRows: chargedRowsOf(n, cTriplets, declared),
-    stateIndex,
-  };
+    { G: undefined, C: undefined },
+  );
 }
 
 /** The same system with further excitations (a noise bank built from its devices). */
 export function withSources(system: MnaSystem, sources: readonly SourceTerm[]): MnaSystem {
-  // Copied by descriptors: a spread would read (and so build) the dense G and C.
-  const copy = Object.defineProperties({}, Object.getOwnPropertyDescriptors(system)) as MnaSystem;
-  return Object.defineProperty(copy, "sources", { value: [...system.sources, ...sources], enumerable: true });
+  const fields = { ...fieldsOf(system), sources: [...system.sources, ...sources] };
+  // The dense G and C are shared with the original, built once by whichever reads them first.
+  return new AssembledSystem(fields, system instanceof AssembledSystem ? system.dense : { G: undefined, C: undefined });
 }

@@ -66,7 +66,20 @@ export function resolveTolerances(given: Partial<Tolerances> = {}): Tolerances {
     const floor = given[lte];
     if (floor !== undefined && given[newton] === undefined) out[newton] = NEWTON_SHARE_ABSOLUTE * floor;
   }
-  return out as unknown as Tolerances;
+  // One literal, so every run's tolerances share one shape (a spread's result took the given keys' order).
+  return {
+    newtonRelative: out.newtonRelative!,
+    biasRelative: out.biasRelative!,
+    newtonVoltage: out.newtonVoltage!,
+    newtonCurrent: out.newtonCurrent!,
+    newtonTemperature: out.newtonTemperature!,
+    lteRelative: out.lteRelative!,
+    lteVoltage: out.lteVoltage!,
+    lteCurrent: out.lteCurrent!,
+    lteTemperature: out.lteTemperature!,
+    stepIterations: out.stepIterations!,
+    biasIterations: out.biasIterations!,
+  };
 }
 
 /**
