@@ -83,7 +83,7 @@ interface DenseMatrices {
 /** A system's fields but the dense matrices. */
 type SystemFields = Omit<MnaSystem, "G" | "C">;
 
-function fieldsOf(s: MnaSystem): SystemFields {
+function fieldsOf(s: SystemFields): SystemFields {
   return {
     n: s.n,
     unknowns: s.unknowns,
@@ -106,43 +106,15 @@ function fieldsOf(s: MnaSystem): SystemFields {
 /**
  * A class, so that every system has one shape and the hot loop reads its fields through one
  * map: an object literal with getters is kept as a dictionary, and a copy of it took another shape.
+ * The fields are set in `fieldsOf`'s order, whatever the order of the object given.
  */
+interface AssembledSystem extends SystemFields {}
 class AssembledSystem implements MnaSystem {
-  readonly n: number;
-  readonly unknowns: readonly UnknownInfo[];
-  readonly nodeIndex: ReadonlyMap<string, number>;
-  readonly devices: readonly Device[];
-  readonly deviceByName: ReadonlyMap<string, Device>;
-  readonly sources: readonly SourceTerm[];
-  readonly nonlinear: readonly NonlinearTerm[];
-  readonly changeWatchers: readonly NonlinearTerm[];
-  readonly gTriplets: Triplets;
-  readonly cTriplets: Triplets;
-  readonly stiffRows: Uint8Array;
-  readonly stateColumns: Int32Array;
-  readonly stiffStates: Uint8Array;
-  readonly chargedRows: Uint8Array;
-  readonly stateIndex: ReadonlyMap<string, number>;
-
   constructor(
     f: SystemFields,
     readonly dense: DenseMatrices,
   ) {
-    this.n = f.n;
-    this.unknowns = f.unknowns;
-    this.nodeIndex = f.nodeIndex;
-    this.devices = f.devices;
-    this.deviceByName = f.deviceByName;
-    this.sources = f.sources;
-    this.nonlinear = f.nonlinear;
-    this.changeWatchers = f.changeWatchers;
-    this.gTriplets = f.gTriplets;
-    this.cTriplets = f.cTriplets;
-    this.stiffRows = f.stiffRows;
-    this.stateColumns = f.stateColumns;
-    this.stiffStates = f.stiffStates;
-    this.chargedRows = f.chargedRows;
-    this.stateIndex = f.stateIndex;
+    Object.assign(this, fieldsOf(f));
   }
 
   get G(): Float64Array {
