@@ -129,6 +129,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let radius = FIRST_RADIUS / relative;
   /** The step's scaled length, ‖r̃‖² where it started, and the model's ‖r̃ + J̃p̃‖² after it. */
   let length = 0;
+  /** Newton's step's scaled length (the step is Newton's unless the radius cut it short). */
+  let newtonLength = 0;
   let fromSquare = Infinity;
   let predicted = 0;
   /** The radius cut the step short of Newton's. */
@@ -153,8 +155,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   };
   /** The step from `from` within the trust radius (see `trustStep`), taken. */
   const stepWithin = () => {
-    ({ length, predicted } = trustStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
-    cut = scaledLength(full, scale) > radius;
+    ({ length, newtonLength, predicted } = trustStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
+    cut = newtonLength > radius;
     moveTo(1);
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   };
@@ -199,7 +201,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
         continue;
       }
       // The exact Jacobian's model does not hold that far (the map bends within the step): learn from the step, try a shorter one.
-      newton.secant(step, 1, fromResidual, residual);
+      newton.secant(step, fromResidual, residual);
       newton.solve(fromResidual, full);
       stepWithin();
       fresh = cut;
@@ -207,10 +209,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
     else if (given) newton.reset(options.jacobian!);
-    else if (trial) newton.secant(step, 1, fromResidual, residual);
+    else if (trial) newton.secant(step, fromResidual, residual);
     freshAtFrom = end.sensitivity !== undefined || given;
     // (A step cut short to a share λ of Newton's is expected to shrink the mismatch to about 1 − λ of it.)
-    const share = trial ? Math.min(1, length / Math.max(scaledLength(full, scale), Number.MIN_VALUE)) : 1;
+    const share = trial ? Math.min(1, length / Math.max(newtonLength, Number.MIN_VALUE)) : 1;
     const contracted = !trial || mismatch <= (1 - share * (1 - CHORD_CONTRACTION)) * previous;
     for (let i = 0; i < n; i++) from[i] = x0[i]!;
     if (options.autonomous) from[n] = T;
@@ -306,13 +308,6 @@ const POOR_RADIUS = 0.25;
 /** A trial step is kept when it achieves more than this share of the reduction its model predicted. */
 const ACCEPT_RATIO = 1e-4;
 
-/** The scaled length of a step. */
-function scaledLength(step: Float64Array, scale: Float64Array): number {
-  let sum = 0;
-  for (let c = 0; c < scale.length; c++) sum += (step[c]! / scale[c]!) ** 2;
-  return Math.sqrt(sum);
-}
-
 /**
  * The shooting's Newton matrix M (of F(x₀, T) = [x_N − x₀; x₀[j] − c]), kept unfactored
  * beside its factorisation so that Broyden's update can correct it after a step.
@@ -354,23 +349,23 @@ class ShootingMatrix {
   }
 
   /**
-   * Broyden's update after the step s = λ·step moved the residual from `before` to `after`:
+   * Broyden's update after the step s moved the residual from `before` to `after`:
    * M += (Δr − M·s)·sᵀ / (sᵀs), so that M·s = Δr (the phase row, being linear, stays as it is).
    */
-  secant(step: Float64Array, damping: number, before: Float64Array, after: Float64Array): void {
+  secant(step: Float64Array, before: Float64Array, after: Float64Array): void {
     const { matrix, unknowns, product } = this;
     let norm = 0;
-    for (let c = 0; c < unknowns; c++) norm += (damping * step[c]!) ** 2;
+    for (let c = 0; c < unknowns; c++) norm += step[c]! ** 2;
     if (!(norm > 0)) return;
     for (let i = 0; i < unknowns; i++) {
       let sum = 0;
-      for (let c = 0; c < unknowns; c++) sum += matrix[i * unknowns + c]! * damping * step[c]!;
+      for (let c = 0; c < unknowns; c++) sum += matrix[i * unknowns + c]! * step[c]!;
       product[i] = after[i]! - before[i]! - sum;
     }
     for (let i = 0; i < unknowns; i++) {
       const w = product[i]! / norm;
       if (w === 0) continue;
-      for (let c = 0; c < unknowns; c++) matrix[i * unknowns + c] += w * damping * step[c]!;
+      for (let c = 0; c < unknowns; c++) matrix[i * unknowns + c] += w * step[c]!;
     }
     this.lu = undefined;
   }

@@ -3,17 +3,17 @@
  * residual divided by its scale): Powell's dogleg between the steepest-descent (Cauchy) step of
  * ½‖r + J·p‖² and the Newton step (Powell 1970; Dennis & Schnabel 1983, §6.4.2; Nocedal & Wright
  * 2006, §4.1). `matrix` is J (m × m, row-major), `newton` the Newton step −J⁻¹r (unscaled);
- * `out` gets the step (unscaled). Returns its scaled length and the model's predicted ‖r + J·p‖²
- * (scaled), against which the actual residual judges the radius (see {@link nextRadius}).
+ * `out` gets the step (unscaled). Returns its scaled length, the Newton step's scaled length and
+ * the model's predicted ‖r + J·p‖² (scaled), against which the actual residual judges the radius (see {@link nextRadius}).
  */
-export function trustStep(matrix: Float64Array, residual: Float64Array, scale: Float64Array, newton: Float64Array, radius: number, out: Float64Array): { readonly length: number; readonly predicted: number } {
+export function trustStep(matrix: Float64Array, residual: Float64Array, scale: Float64Array, newton: Float64Array, radius: number, out: Float64Array): { readonly length: number; readonly newtonLength: number; readonly predicted: number } {
   const m = scale.length;
   const pn = new Float64Array(m);
   for (let c = 0; c < m; c++) pn[c] = newton[c]! / scale[c]!;
   const newtonLength = norm(pn);
   if (newtonLength <= radius) {
     out.set(newton.subarray(0, m));
-    return { length: newtonLength, predicted: predictedSquare(matrix, residual, scale, out) };
+    return { length: newtonLength, newtonLength, predicted: predictedSquare(matrix, residual, scale, out) };
   }
   // The gradient of ½‖r̃ + J̃p̃‖² at p̃ = 0, J̃ᵀr̃, with J̃ = S⁻¹JS and r̃ = S⁻¹r.
   const g = new Float64Array(m);
@@ -50,7 +50,7 @@ export function trustStep(matrix: Float64Array, residual: Float64Array, scale: F
     }
   }
   for (let c = 0; c < m; c++) out[c] = p[c]! * scale[c]!;
-  return { length: Math.min(norm(p), radius), predicted: predictedSquare(matrix, residual, scale, out) };
+  return { length: Math.min(norm(p), radius), newtonLength, predicted: predictedSquare(matrix, residual, scale, out) };
 }
 
 /** The trust radius is cut to a quarter of the step when the model predicted the reduction badly (less than this share of it)… */
