@@ -1095,6 +1095,36 @@ const cases: readonly Case[] = [
   },
   {
     code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nsteady probe=o harmonics=1",
+    expected: [
+      "t.onset:2:26: error: harmonics= of steady must be between 2 and 1k, got 1",
+      "  steady probe=o harmonics=1",
+      "                           ^",
+      "hint: harmonics= is the highest harmonic order the THD counts, from 2 (default 30)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nsteady probe=o bandwidth=0",
+    expected: [
+      "t.onset:2:26: error: bandwidth= of steady must be greater than 0 Hz, got 0 Hz",
+      "  steady probe=o bandwidth=0",
+      "                           ^",
+      "hint: bandwidth= is the frequency below which the THD counts the harmonics, instead of harmonics=",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nstartup probe=o settle-within=0",
+    expected: [
+      "t.onset:2:31: error: settle-within= of startup must be greater than 0 s, got 0 s",
+      "  startup probe=o settle-within=0",
+      "                                ^",
+      "hint: settle-within= is the longest an until=auto run may go before it must have settled (default 4000 predicted periods)",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
     source: "resistor R1 o gnd 1k\nstartup probe=o ramp=-1m kick=power-on",
     expected: [
       "t.onset:2:22: error: ramp= of startup must be at least 0 s, got -1m s",
