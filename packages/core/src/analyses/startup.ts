@@ -203,7 +203,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   budget.watch(stepper, "the start-up run", analysis.span);
   const limit = amplitudeLimit(plain, bias.x);
   const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
-  const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
+  const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, naturalFrequency: pole ? Math.hypot(pole.real, pole.imag) / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
   const searchFrom = powerOn ? powerOn.ramp : 0;
   const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);

@@ -4,6 +4,13 @@ import type { WaveformShape } from "./waveform-shape.js";
 export interface LinearPrediction {
   /** Hz of the dominant (rightmost) complex pair, or null when every pole is real. */
   readonly frequency: number | null;
+  /**
+   * Hz of that pair's modulus |s|/2π, or null. A loop gain moves a resonator's pair along the
+   * circle |s| = ω₀ (the Wien bridge's s² + (3 − A)·ω₀·s + ω₀²), and the amplitude control
+   * brings it back to the axis at ω₀: with a large start-up gain the settled frequency is near
+   * the modulus, far from the imaginary part.
+   */
+  readonly naturalFrequency?: number | null;
   /** True when that pair lies in the right half-plane: a sine oscillation starts. */
   readonly starts: boolean;
   /** True when a real pole lies in the right half-plane: the bias point runs away without ringing. */
@@ -34,8 +41,9 @@ export const DRIVEN_TOLERANCE = 0.01;
  * 1. `settled` if its frequency is one of `drives`, a periodic source's (a driven waveform, any shape);
  * 2. `relaxation` if the bias point has no growing complex pair but a growing real pole: the
  *    loop runs away to a limit and recovers instead of ringing;
- * 3. `settled` if its frequency lies within a factor {@link FAR_FACTOR} of the predicted pair's:
- *    the sine oscillation the poles predict, however hard it is limited;
+ * 3. `settled` if its frequency lies within a factor {@link FAR_FACTOR} of the predicted pair's
+ *    (its imaginary part or its modulus): the sine oscillation the poles predict, however hard
+ *    it is limited, however far the start-up gain moved the pair;
  * 4. otherwise (far from the pair, or no pair): `relaxation` if the probe sees a square-like
  *    swing (slope crest above {@link SQUARE_CREST}) or a triangle (below {@link TRIANGLE_CREST}),
  *    else `parasitic`. Without a prediction, only the shape is used (square or triangle:
@@ -48,6 +56,7 @@ export function steadyKind(shape: WaveformShape, frequency: number, prediction: 
   if (!prediction) return switching ? { kind: "relaxation", why: switching, predicted: null } : { kind: "settled" };
   const predicted = prediction.frequency;
   if (!prediction.starts && prediction.realGrowth) return { kind: "relaxation", why: "no-ringing", predicted };
-  if (predicted !== null && Math.abs(Math.log(frequency / predicted)) < Math.log(FAR_FACTOR)) return { kind: "settled" };
+  const near = (f: number | null) => f !== null && Math.abs(Math.log(frequency / f)) < Math.log(FAR_FACTOR);
+  if (near(predicted) || near(prediction.naturalFrequency ?? null)) return { kind: "settled" };
   return switching ? { kind: "relaxation", why: switching, predicted } : { kind: "parasitic", predicted };
 }
