@@ -2,8 +2,14 @@ import type { SmallSignal } from "../analyses/linearize.js";
 import type { Pole } from "../analyses/poles.js";
 import { LuSolver } from "../solver/lu.js";
 
-/** The shift of inverse iteration from the pole, relative to |s|: near enough to converge in a few solves, far enough that the matrix is not singular. */
-const SHIFT = 1e-7;
+/**
+ * Shifts of inverse iteration from the pole, relative to |s|, tried in turn: near enough to
+ * converge in a few solves, far enough that the pencil is not singular to the LU's pivot test.
+ * A near-ideal amplifier (open-loop gain 1e7) makes the pencil that much worse conditioned, so
+ * 1e-7 off the pole its pivots fall below the test; 1e-3 still gains a factor of about
+ * 1e-3·|s| / (distance to the next pole) per solve.
+ */
+const SHIFTS = [1e-7, 1e-5, 1e-3];
 /** Inverse-iteration solves. */
 const SOLVES = 4;
 
@@ -12,12 +18,21 @@ const SOLVES = 4;
  * so that its largest entry is real (its peak); the circuit started at bias + k·v rings (or
  * grows) in that mode alone. Inverse iteration (Golub & Van Loan, *Matrix Computations*, §7.6.1)
  * on the real form of the complex pencil, [[G + σC, −ωC], [ωC, G + σC]], shifted a little off
- * the pole. Null when the pencil cannot be factored there.
+ * the pole. Null when the pencil cannot be factored at any of the shifts.
  */
 export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
+  for (const shift of SHIFTS) {
+    const mode = shiftedInverseIteration(ss, pole, shift);
+    if (mode !== undefined) return mode;
+  }
+  return null;
+}
+
+/** The mode by inverse iteration at `shift` (relative to |s|) off the pole; undefined when the pencil does not factor there. */
+function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number): Float64Array | null | undefined {
   const { n, G, C } = ss;
   const m = 2 * n;
-  const sigma = pole.real + SHIFT * Math.hypot(pole.real, pole.imag, 1);
+  const sigma = pole.real + shift * Math.hypot(pole.real, pole.imag, 1);
   const omega = pole.imag;
   const a = new Float64Array(m * m);
   for (let i = 0; i < n; i++) {
@@ -31,7 +46,7 @@ export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
     }
   }
   const lu = new LuSolver(m, { compile: false });
-  if (!lu.factor(a)) return null;
+  if (!lu.factor(a)) return undefined;
   // Start from every charged direction at once; C·y keeps the algebraic unknowns out of the right-hand side.
   let y = new Float64Array(m).fill(1);
   const rhs = new Float64Array(m);
