@@ -215,8 +215,11 @@ describe("studies with measure=steady", () => {
     ]);
     expect(mc2.stdout).toBe(mc1.stdout);
     expect(sw2.stdout).toBe(sw1.stdout);
-    const samples = (JSON.parse(mc1.stdout) as { results: [{ samples: { metrics: { verdict: string; startupTime: number | null } }[] }] }).results[0].samples;
-    expect(samples.map((s) => s.metrics.verdict)).toEqual(Array(24).fill("settled"));
+    const study = (JSON.parse(mc1.stdout) as { results: [{ measure?: string; samples: { metrics: { verdict: string; startupTime: number | null; settlingTime: number | null } }[] }] }).results[0];
+    // the document says how its samples were measured: their startupTime is the poles' prediction
+    expect(study.measure).toBe("steady");
+    expect(study.samples.map((s) => s.metrics.verdict)).toEqual(Array(24).fill("settled"));
+    for (const s of study.samples) expect(s.metrics.settlingTime).toBeNull();
     const sweep = (JSON.parse(sw1.stdout) as { results: [{ measure: string; points: { results: Steady[] }[] }] }).results[0];
     expect(sweep.measure).toBe("steady");
     for (const p of sweep.points) expect(p.results[0]!.stability!.verdict).toBe("stable");

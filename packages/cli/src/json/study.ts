@@ -30,6 +30,8 @@ function studyCommon(h: StudyHeader): Record<string, Json> {
     runs: h.runs,
     seed: h.seed,
     dist: h.dist,
+    // the samples' startupTime is then the poles' prediction, not a run's
+    ...(h.measure === "steady" ? { measure: "steady" } : {}),
     shard: h.shard ? { ...h.shard } : null,
     tolerances: h.tolerances.map((t) => ({ ...t })),
   };
