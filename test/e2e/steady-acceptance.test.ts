@@ -9,6 +9,7 @@ import { ladderReference } from "../support/clipped-oscillators.js";
 import {
   DIODE_WIEN,
   DOUBLING_RESONATOR,
+  JFET_FAST_DETECTOR,
   LADDER_CLIP,
   LAMP_WIEN,
   LC_CLIP,
@@ -200,6 +201,18 @@ describe("no fabricated orbits; unstable orbits named", () => {
       two = Math.max(two, Math.abs(at(t + 2 * T) - at(t)));
     }
     expect(two).toBeLessThan(one / 3);
+  });
+});
+
+describe("the orbit's stability as a check on an amplitude-control loop", () => {
+  test("a JFET loop whose detector over-corrects: steady says unstable (a multiplier below −1); the start-up run never settles on it (bouncing)", async () => {
+    const { results } = await run("jfet.onset", `${JFET_FAST_DETECTOR}steady probe=o\nstartup probe=o until=80m\n`);
+    const s = steadyOf(results);
+    expect(s.found).toBe(true);
+    expect(s.stability!.verdict).toBe("unstable");
+    expect(s.multipliers[0]!.re).toBeLessThan(-1);
+    // the independent route: the transient from the noise, which leaves an unstable orbit
+    expect(startupOf(results).verdict).toBe("bouncing");
   });
 });
 

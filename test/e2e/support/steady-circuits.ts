@@ -161,3 +161,26 @@ export function thermistorAmplitude(rg: number, r25: number, beta: number, dissi
   const theta = 1 / (1 / (25 + KELVIN) + Math.log(r / r25) / beta);
   return 1.5 * Math.sqrt(2 * dissipation * (theta - ambient) * r);
 }
+
+/**
+ * A Wien bridge (3.16 kΩ, 10 nF, about 4.9 kHz) whose gain 1 + Rf/(Rs + r_channel) is held by a
+ * JFET, its gate fed from a peak detector D1 into Cfil = 47 nF, bled by Rb = 470 kΩ. So small a
+ * capacitor is recharged by most of each peak's error: the detector over-corrects period by period.
+ */
+export const JFET_FAST_DETECTOR = `title "JFET-held Wien, 47 nF detector"
+param R = 3.16k
+param C = 10n
+resistor  R1   o s   (R)
+capacitor C1   s p   (C)
+resistor  R2   p gnd (R)
+capacitor C2   p gnd (C)
+resistor  Rf   o n   15k
+resistor  Rs   n d   5.6k
+jfet      J1   d g   gnd idss=5m pinchoff=-2
+resistor  Ra   d g   330k
+resistor  Rc   c g   330k
+diode     D1   c o
+capacitor Cfil c gnd 47n
+resistor  Rb   c gnd 470k
+opamp     U1   p n o preset=general rails=(-12, 12)
+`;
