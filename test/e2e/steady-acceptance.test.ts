@@ -239,6 +239,16 @@ describe("studies with measure=steady", () => {
   });
 });
 
+describe("the text report of a study with measure=steady", () => {
+  test("labels the samples' start-up time as predicted, in the percentiles and beside each worst sample", async () => {
+    ws.write("mc-text.onset", `${DIODE_WIEN}steady probe=o\ntolerance runs=6 seed=2 measure=steady\nspec startup<50m\n`);
+    const r = await ws.run(["run", "mc-text.onset"]);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/^ {2}start-up time \(predicted\) +[\d.]+ ms/m);
+    expect(r.stdout).toMatch(/, start-up [\d.]+ ms \(predicted\)$/m);
+  });
+});
+
 describe("bad input to steady: a positioned error with a hint, exit 2, no stack trace", () => {
   test.each([
     ["probe=zz", "unknown node 'zz'", "hint: a probe names a node"],

@@ -27,17 +27,22 @@ function verdictCounts(summary: ToleranceReport["summary"]): string {
     .join(", ");
 }
 
+/** Under measure=steady a sample's start-up time is the poles' prediction, and its label says so. */
+function startupLabel(r: StudyReport): string {
+  return r.header.measure === "steady" ? "start-up time (predicted)" : (METRIC_LABELS.startupTime ?? "start-up time");
+}
+
 /**
  * Percentiles of each metric; with error bars, a last column gives the largest numerical error
  * of the settled figures over the samples (a spread narrower than it is not resolved).
  */
-function percentileTable(summary: ToleranceReport["summary"]): string[] {
+function percentileTable(summary: ToleranceReport["summary"], startup: string): string[] {
   const names = ["min", "p1", "p5", "median", "p95", "p99", "max"] as const;
   const bars = summary.numericalError;
   const barOf = (key: string) => (bars && key in bars ? `± ${metric(key, bars[key as keyof typeof bars])}` : "");
   const rows = SAMPLE_METRICS.flatMap((key) => {
     const p = summary.percentiles[key];
-    return p ? [[METRIC_LABELS[key] ?? key, ...names.map((n) => metric(key, p[n])), ...(bars ? [barOf(key)] : [])]] : [];
+    return p ? [[key === "startupTime" ? startup : (METRIC_LABELS[key] ?? key), ...names.map((n) => metric(key, p[n])), ...(bars ? [barOf(key)] : [])]] : [];
   });
   const columns = [{ header: "metric" }, ...names.map((n) => ({ header: n, align: "right" as const }))];
   return table(bars ? [...columns, { header: "numerical error", align: "right" as const }] : columns, rows);
@@ -52,7 +57,7 @@ function toleranceText(r: ToleranceReport, p: Paint): string[] {
   const { summary, header } = r;
   const lines = [p.bold("Monte Carlo tolerance study") + p.dim(`  (${studyLine(r)})`)];
   lines.push(`  ${summary.runs} samples done; verdicts: ${verdictCounts(summary) || "none"}`, ...missingLine(r, p), "");
-  lines.push(...percentileTable(summary), "");
+  lines.push(...percentileTable(summary, startupLabel(r)), "");
   const y = summary.yield;
   lines.push(
     `  yield ${percent(y.value)} (${y.passed} of ${y.runs} pass), 95 % Wilson interval ${percent(y.interval.low)} to ${percent(y.interval.high)}`,
@@ -64,7 +69,7 @@ function toleranceText(r: ToleranceReport, p: Paint): string[] {
       const outcome = s.pass ? p.green("passes") : p.red(`fails: ${s.failures.join(", ")}`);
       const extra = s.error ? ` (${s.error})` : "";
       lines.push(`    #${s.index}  ${outcome}${extra}`);
-      lines.push(`         f ${metric("frequency", s.metrics?.frequency)}, amplitude ${metric("amplitude", s.metrics?.amplitude)}, THD ${metric("thd", s.metrics?.thd)}, start-up ${metric("startupTime", s.metrics?.startupTime)}`);
+      lines.push(`         f ${metric("frequency", s.metrics?.frequency)}, amplitude ${metric("amplitude", s.metrics?.amplitude)}, THD ${metric("thd", s.metrics?.thd)}, start-up ${metric("startupTime", s.metrics?.startupTime)}${r.header.measure === "steady" && s.metrics?.startupTime != null ? " (predicted)" : ""}`);
       if (header.tolerances.length > 0) lines.push(`         drawn ${drawnText(r, s)}`);
       lines.push(p.dim(`         reproduce: ${reproduceCommand(header, s.index)}`));
     }
