@@ -130,9 +130,15 @@ describe("steady against closed forms and the odex ODE integrator", () => {
 
 describe("steady against the settled start-up run, with a closed form where there is one", () => {
   test("a lamp-stabilised Wien (cold gain 4.9): agrees with the settled start-up run; amplitude within 1e-3 of the lamp's thermal balance (closed form)", async () => {
-    const { results } = await run("lamp.onset", `${LAMP_WIEN}steady probe=o\nstartup probe=o until=auto\n`);
+    const { results } = await run("lamp.onset", `${LAMP_WIEN}steady probe=o\nstartup probe=o until=auto\nsteady probe=o from=poles\n`);
     const s = steadyOf(results);
     agrees(s, startupOf(results));
+    // The poles' period is 2.7 of the orbit's (the cold lamp's gain moves the pair): a shooting
+    // from it converged on two turns of the orbit, reported at half the frequency with a THD of 2.7e6.
+    const fromPoles = results.filter((r): r is Steady => r.analysis === "steady")[1]!;
+    expect(fromPoles.from).toBe("poles");
+    expect(rel(fromPoles.frequency!, s.frequency!)).toBeLessThan(1e-6);
+    expect(rel(fromPoles.thd!, s.thd!)).toBeLessThan(2e-2);
     expect(rel(s.amplitude!, lampAmplitude(470, 120, 900, 10))).toBeLessThan(1e-3);
     // a slow loop: the largest multiplier close to, and inside, the unit circle
     expect(s.stability!.verdict).toBe("stable");

@@ -15,6 +15,7 @@ import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
+import { repeatsWithin } from "../steady/sub-period.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, periodicDrives } from "./excitation.js";
@@ -387,6 +388,14 @@ function recordedStart(c: Context, stepper: TransientStepper, period: number, ma
   return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n));
 }
 
+/** One turn of an orbit shot over `repeats` turns: a period of T/repeats recorded from its start. */
+function oneTurn(c: Context, start: PeriodStart, repeats: number): ShootingStart {
+  const period = start.period / repeats;
+  const maxStep = c.analysis.maxStep ?? period / STEPS_PER_PERIOD;
+  const stepper = new TransientStepper(c.system, { start: { t: start.t0, x: start.x }, maxStep, tolerances: c.tolerances });
+  return recordedStart(c, stepper, period, maxStep);
+}
+
 /** A seed's orbit as the start of a shooting. */
 function seededStart(seed: OrbitSeed): ShootingStart {
   return { guess: { t0: 0, x: seed.x, period: seed.period }, fractions: seed.fractions, trajectory: seed.states, jacobian: { matrix: seed.matrix, phase: seed.phase, ...(seed.contraction === undefined ? {} : { contraction: seed.contraction }) } };
@@ -396,7 +405,7 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}): ShotOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}, reshot = false): ShotOrbit | string {
   try {
     const { guess, fractions, trajectory, jacobian, merged = 1 } = start();
     const period = guess.period;
@@ -413,6 +422,9 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limi
     const orders = thdOrder(c.analysis, 1 / period);
     const refined = c.singleGrid ? singleGridOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings) : refineOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings);
     if (collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
+    // Converged on k turns of the orbit (x(kT) = x(0) holds too): shoot one turn instead.
+    const repeats = autonomous && !reshot ? repeatsWithin(refined.orbit, c.system.stateColumns, absoluteTolerances(c.system.unknowns, c.tolerances, "lte")) : 1;
+    if (repeats > 1) return shoot(c, () => oneTurn(c, refined.orbit.start, repeats), autonomous, limits, true);
     return { ...refined, merged };
   } catch (error) {
     if (!isOnsetError(error) || isRunLimitError(error)) throw error;
