@@ -16,6 +16,7 @@ import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type Numeri
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
+import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, periodicDrives } from "./excitation.js";
@@ -67,8 +68,13 @@ const EARLY_ITERATIONS = 10;
  */
 const GIVE_UP = 5;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
-/** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
+/** A source's frequency within this fraction of an integer multiple of the common frequency shares its period. */
 const COMMON_PERIOD = 1e-9;
+/**
+ * The common period is looked for up to this many periods of the lowest source (1 kHz and
+ * 1.5 kHz share 2 ms, two of 1 kHz's): the orbit's grid, and so the shooting's cost, grows with it.
+ */
+const MOST_COMMON_MULTIPLE = 64;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
 const COLLAPSED = 100;
 /** Fraction of the amplitude at which the start-up time is counted (the start-up metric's own). */
@@ -247,9 +253,10 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     const predicted = { ...prediction, startupTime: null };
     if (period === null) {
       const transient = { periods: 0, until: 0, maxStep: analysis.maxStep ?? 0, solver: emptyStats() };
-      return noOrbit({ ...base, kind: "driven", from, predicted, transient }, "no periodic orbit: the sources' frequencies have no common period");
+      return noOrbit({ ...base, kind: "driven", from, predicted, transient }, `no periodic orbit: the sources' frequencies have no common period within ${MOST_COMMON_MULTIPLE} periods of the lowest`);
     }
-    const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+    // Steps as fine as for the lowest source's period alone, however many of them the common one spans.
+    const maxStep = analysis.maxStep ?? 1 / Math.min(...drives) / STEPS_PER_PERIOD;
     const stepper = new TransientStepper(system, { start: { t: 0, x: bias.x }, maxStep, tolerances });
     const none = (why: string) => noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, 0, maxStep) }, why);
     const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
@@ -347,11 +354,18 @@ function polesVerdict(pole: Pole | null): string {
     : `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
 }
 
-/** The period every source repeats within (the lowest frequency's, when the others are its multiples), or null. */
+/**
+ * The shortest period every source repeats within: 1/f₀ for the largest f₀ = lowest/k
+ * (k ≤ MOST_COMMON_MULTIPLE) of which every source's frequency is a whole multiple; null when
+ * there is none (frequencies not in a ratio of small whole numbers).
+ */
 function commonPeriod(drives: readonly number[]): number | null {
   const lowest = Math.min(...drives);
-  for (const d of drives) if (Math.abs(d / lowest - Math.round(d / lowest)) > COMMON_PERIOD * (d / lowest)) return null;
-  return 1 / lowest;
+  for (let k = 1; k <= MOST_COMMON_MULTIPLE; k++) {
+    const common = lowest / k;
+    if (drives.every((d) => Math.abs(d / common - Math.round(d / common)) <= COMMON_PERIOD * (d / common))) return 1 / common;
+  }
+  return null;
 }
 
 /**
@@ -525,10 +539,11 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   const { states, start } = orbit.orbit;
   const at = times.map((t) => start.t0 + t);
   const implausible = implausibleOnOrbit(c.system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic);
+  const toneless = common.kind === "driven" && fundamentalAbsent(orbit.harmonics);
   return {
     analysis: "steady",
     ...common,
-    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : [])],
+    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []), ...(toneless ? [tonelessWarning(c, orbit.frequency)] : [])],
     found: true,
     explanation: `${what}; ${how}`,
     frequency: orbit.frequency,
@@ -537,15 +552,27 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     peakToPeak: orbit.peakToPeak,
     rms: orbit.rms,
     offset: orbit.offset,
-    thd: orbit.thd,
+    thd: toneless ? null : orbit.thd,
     thdOrders: [2, orbit.harmonics.length],
-    harmonics: orbit.harmonics,
-    numericalError: c.singleGrid ? null : orbit.numericalError,
+    harmonics: toneless ? relativeToLargest(orbit.harmonics) : orbit.harmonics,
+    numericalError: c.singleGrid ? null : toneless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
     iterations: orbit.iterations,
     points: orbit.points,
     multipliers,
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
+  };
+}
+
+/** The note of a driven orbit whose sources' tones are all harmonics 2, 3, … of their common period: no fundamental, so no THD. */
+function tonelessWarning(c: Context, frequency: number): Diagnostic {
+  return {
+    severity: "warning",
+    stage: "simulation",
+    code: "orbit-without-fundamental",
+    message: `the orbit's period is the sources' common one (${formatQuantity(frequency, "Hz")}), at which no source has a tone: there is no fundamental to measure THD against`,
+    ...(c.analysis.span ? { span: c.analysis.span } : {}),
+    hint: "THD is not given; the harmonics' levels are relative to the largest of them",
   };
 }
 

@@ -15,6 +15,7 @@ export interface NumericalError {
   readonly frequency: number;
   readonly amplitude: number;
   readonly rms: number;
+  /** NaN (null in JSON) where there is no THD: a driven orbit without a fundamental. */
   readonly thd: number;
 }
 
