@@ -259,8 +259,8 @@ describe("bad input to steady: a positioned error with a hint, exit 2, no stack 
   test.each([
     ["probe=zz", "unknown node 'zz'", "hint: a probe names a node"],
     ["probe=o from=bias", "from=bias is not a choice for steady", "hint: from= is one of startup, poles"],
-    ["probe=o cycles=0", "cycles= of steady must be between 1 and 100k, got 0", "hint: cycles= is the periods of transient"],
-    ["probe=o cycles=1e9", "cycles= of steady must be between 1 and 100k", "hint: cycles= is the periods of transient"],
+    ["probe=o cycles=0", "cycles= of steady must be between 1 and 100000, got 0", "hint: cycles= is the periods of transient"],
+    ["probe=o cycles=1e9", "cycles= of steady must be between 1 and 100000, got 1000000000", "hint: cycles= is the periods of transient"],
     ["from=poles", "steady needs probe=", "hint: probe= is the probe"],
   ])("steady %s", async (options, message, hint) => {
     ws.write("bad.onset", `${DIODE_WIEN}steady ${options}\n`);

@@ -1087,7 +1087,7 @@ const cases: readonly Case[] = [
     code: "out-of-range",
     source: "resistor R1 o gnd 1k\nstartup probe=o seeds=0",
     expected: [
-      "t.onset:2:23: error: seeds= of startup must be between 1 and 10k, got 0",
+      "t.onset:2:23: error: seeds= of startup must be between 1 and 10000, got 0",
       "  startup probe=o seeds=0",
       "                        ^",
       "hint: seeds= is the number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time",
@@ -1097,7 +1097,7 @@ const cases: readonly Case[] = [
     code: "out-of-range",
     source: "resistor R1 o gnd 1k\nsteady probe=o harmonics=1",
     expected: [
-      "t.onset:2:26: error: harmonics= of steady must be between 2 and 1k, got 1",
+      "t.onset:2:26: error: harmonics= of steady must be between 2 and 1000, got 1",
       "  steady probe=o harmonics=1",
       "                           ^",
       "hint: harmonics= is the highest harmonic order the THD counts, from 2 (default 30)",
