@@ -87,4 +87,12 @@ describe("OrbitApproach's level criterion", () => {
     expect(levelled.filter((p) => p > 40 && p < 400)).toEqual([]);
     expect(levelled).toContain(600);
   });
+
+  test("advance(most, level, check, earliest) does not stop for a levelled swing before `earliest` periods in all (a failed shooting's back-off)", () => {
+    // The same steadily settling swing as above levels off within ten periods; held back to 20, it stops at 20 exactly.
+    const approach = new OrbitApproach(sineWith((t) => 1 + Math.exp(-t / 2)), readFirst, 1, 1);
+    const where = approach.advance(100, 0.1, () => {}, 20);
+    expect(where.kind === "oscillating" && where.levelled).toBe(true);
+    expect(approach.periods).toBe(20);
+  });
 });

@@ -65,6 +65,8 @@ const EARLY_ITERATIONS = 10;
  * one making headway may use all its periods.
  */
 const GIVE_UP = 5;
+/** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
+const BACK_OFF = 2;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
 /** A source's frequency within this fraction of an integer multiple of the lowest shares its period. */
 const COMMON_PERIOD = 1e-9;
@@ -295,8 +297,13 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
     let shots = 0;
+    // A failed shooting's start was out of Newton's reach: the next waits until the transient has
+    // run as long again (a slowly attracting orbit's distance shrinks geometrically with the
+    // periods run), so a swing that passes the finer level at once (clipped at the rails, its
+    // swing steady while the loop's slow state still moves) costs no string of failed shootings.
+    let earliest = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check);
+      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
@@ -308,6 +315,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+      earliest = BACK_OFF * approach.periods;
     }
     periods += approach.periods;
     // Only a start that died out is tried again, small.

@@ -66,9 +66,10 @@ export class OrbitApproach {
 
   /**
    * Runs up to `most` more periods (fewer once the swing changes by less than `level` per
-   * period, when given) and says where that left the oscillation.
+   * period, when given, and `earliest` periods have been run in all) and says where that left
+   * the oscillation.
    */
-  advance(most: number, level: number | undefined, check: () => void): Approach {
+  advance(most: number, level: number | undefined, check: () => void, earliest = 0): Approach {
     const end = this.count + most;
     let levelled = false;
     while (this.count < end) {
@@ -78,7 +79,7 @@ export class OrbitApproach {
       this.record(this.samples.swingSince(from));
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
-      if (level !== undefined && (levelled = this.levelled(level))) break;
+      if (level !== undefined && this.count >= earliest && (levelled = this.levelled(level))) break;
     }
     return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
   }
