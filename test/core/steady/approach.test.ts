@@ -95,4 +95,17 @@ describe("OrbitApproach's level criterion", () => {
     expect(where.kind === "oscillating" && where.levelled).toBe(true);
     expect(approach.periods).toBe(20);
   });
+
+  test("a swing that dips far below its peak and grows again is died out without patience, oscillating with it", () => {
+    // Grows to 1 by t = 5, falls by half per period to about 1e-6 at t = 25, stays there until
+    // t = 60 (a peak detector bleeding back), then grows fourfold per period back to 1.
+    const envelope = (t: number) => (t < 5 ? 2 ** (t - 5) : t < 25 ? 0.5 ** (t - 5) : t < 60 ? 1e-6 : Math.min(1, 1e-6 * 4 ** (t - 60)));
+    const hasty = new OrbitApproach(sineWith(envelope), readFirst, 1, 1);
+    expect(hasty.advance(100, undefined, () => {}).kind).toBe("died-out");
+    const patient = new OrbitApproach(sineWith(envelope), readFirst, 1, 1, 60);
+    const where = patient.advance(30, undefined, () => {});
+    expect(where.kind).toBe("oscillating");
+    // The quiet periods (from about t = 12 on) do not count towards the thirty asked for.
+    expect(patient.periods).toBeGreaterThan(70);
+  });
 });

@@ -1,0 +1,61 @@
+// Issue 15 on slow amplitude loops of the test's own (not the examples): lamp, thermistor and
+// JFET loops with other filter time constants and gains. The steady analysis must find the orbit
+// the start-up run settles on by itself (the file's startup statement integrated to settled):
+// frequency within 0.05 %, amplitude within 0.5 %, THD within 2 % relative.
+import { describe, expect, test } from "vitest";
+import { runStartup, runSteady, startupAnalysisOf } from "@onset/core";
+import { elaborate, loadProgram } from "@onset/netlist-parser";
+
+const wien = (R: string, C: string) => `resistor R1 o s ${R}
+capacitor C1 s p ${C}
+resistor R2 p gnd ${R}
+capacitor C2 p gnd ${C}
+opamp U1 p n o preset=general rails=(-15, 15)
+`;
+
+const loops: Record<string, string> = {
+  // 2 kHz, a 50 ms filament (a hundred periods), cold gain 1 + 330/100 = 4.3.
+  "lamp, 2 kHz, 50 ms filament": `${wien("7.87k", "10n")}resistor Rf o n 330
+lamp L1 n gnd 100 hot=1k rated=12 tau=50m
+startup probe=o until=1.5
+`,
+  // 500 Hz, a 200 ms filament (a hundred periods), cold gain 3.4, barely above 3.
+  "lamp, 500 Hz, 200 ms filament, low cold gain": `${wien("31.6k", "10n")}resistor Rf o n 240
+lamp L1 n gnd 100 hot=1k rated=12 tau=200m
+startup probe=o until=6
+`,
+  // 200 Hz, a 1 s bead (two hundred periods).
+  "thermistor, 200 Hz, 1 s bead": `${wien("7.87k", "100n")}thermistor TH1 o n 10k beta=3500 dissipation=40uW/K tau=1
+resistor Rg n gnd 3.9k
+startup probe=o until=15
+`,
+  // 1 kHz, a 470 nF peak detector bled by 2.2 MΩ: kicked small, the swing overshoots and dips to a
+  // hundredth of its peak for some hundred periods before it grows again (not died out).
+  "JFET, 1 kHz, 470 nF peak detector": `${wien("15.8k", "10n")}resistor Rf o n 12k
+resistor Rs n d 4.7k
+jfet J1 d g gnd idss=8m pinchoff=-2.5
+resistor Ra d g 470k
+resistor Rc c g 470k
+diode D1 c o
+capacitor Cfil c gnd 470n
+resistor Rb c gnd 2.2M
+startup probe=o until=0.8
+`,
+};
+
+describe("steady against the settled start-up run on slow amplitude loops of the test's own", () => {
+  test.each(Object.keys(loops))("%s", (name) => {
+    const circuit = elaborate(loadProgram(`${name}.onset`, loops[name]!).program, {}).circuit!;
+    const startup = startupAnalysisOf(circuit)!;
+    // Source: the start-up run, integrated from its excitation until settled (its own step control).
+    const settled = runStartup(circuit, startup);
+    expect(settled.verdict).toBe("settled");
+    const steady = runSteady(circuit, { kind: "steady", probe: startup.probe });
+    expect(steady.found).toBe(true);
+    expect(steady.stability!.verdict).toBe("stable");
+    expect(Math.abs(steady.frequency! / settled.frequency! - 1)).toBeLessThan(5e-4);
+    expect(Math.abs(steady.amplitude! / settled.amplitude! - 1)).toBeLessThan(5e-3);
+    expect(Math.abs(steady.thd! / settled.thd! - 1)).toBeLessThan(2e-2);
+    expect(steady.transient.until).toBeLessThan(settled.run.until);
+  });
+});
