@@ -2,9 +2,9 @@
 // JFET loops with other filter time constants and gains. The steady analysis must find the orbit
 // the start-up run settles on by itself (the file's startup statement integrated to settled):
 // frequency within 0.05 %, amplitude within 0.5 %, THD within 2 % relative.
-import { describe, expect, test } from "vitest";
-import { runStartup, runSteady, startupAnalysisOf } from "@onset/core";
+import { describe, test } from "vitest";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
+import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
 const wien = (R: string, C: string) => `resistor R1 o s ${R}
 capacitor C1 s p ${C}
@@ -46,16 +46,7 @@ startup probe=o until=0.8
 describe("steady against the settled start-up run on slow amplitude loops of the test's own", () => {
   test.each(Object.keys(loops))("%s", (name) => {
     const circuit = elaborate(loadProgram(`${name}.onset`, loops[name]!).program, {}).circuit!;
-    const startup = startupAnalysisOf(circuit)!;
     // Source: the start-up run, integrated from its excitation until settled (its own step control).
-    const settled = runStartup(circuit, startup);
-    expect(settled.verdict).toBe("settled");
-    const steady = runSteady(circuit, { kind: "steady", probe: startup.probe });
-    expect(steady.found).toBe(true);
-    expect(steady.stability!.verdict).toBe("stable");
-    expect(Math.abs(steady.frequency! / settled.frequency! - 1)).toBeLessThan(5e-4);
-    expect(Math.abs(steady.amplitude! / settled.amplitude! - 1)).toBeLessThan(5e-3);
-    expect(Math.abs(steady.thd! / settled.thd! - 1)).toBeLessThan(2e-2);
-    expect(steady.transient.until).toBeLessThan(settled.run.until);
+    expectSteadyAgreesWithSettled(circuit);
   });
 });
