@@ -71,8 +71,8 @@ const GIVE_UP = 5;
  * after an overshoot, when the swing grows again)…
  */
 const RECOVERY = 3;
-/** …and at most this many periods (the transient's own limits bound it too). */
-const MAX_RECOVERY = 2000;
+/** …and at most this many batches of `cycles=` periods (2000 periods by default). */
+const RECOVERY_BATCHES = 34;
 /** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
 const BACK_OFF = 2;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
@@ -300,7 +300,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : recoveryPeriods(poles, guessPeriod));
+    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch));
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
@@ -350,12 +350,12 @@ type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from"
 /**
  * Periods the small start's swing may look died out before it counts as died out: `RECOVERY`
  * times the slowest decaying pole's time constant (a peak detector bleeding back down), at most
- * `MAX_RECOVERY` periods.
+ * `most` periods.
  */
-function recoveryPeriods(poles: readonly Pole[], period: number): number {
+function recoveryPeriods(poles: readonly Pole[], period: number, most: number): number {
   let slowest = Infinity;
   for (const p of poles) if (p.real < 0) slowest = Math.min(slowest, -p.real);
-  return Number.isFinite(slowest) ? Math.min(MAX_RECOVERY, Math.ceil(RECOVERY / slowest / period)) : 0;
+  return Number.isFinite(slowest) ? Math.min(most, Math.ceil(RECOVERY / slowest / period)) : 0;
 }
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */
