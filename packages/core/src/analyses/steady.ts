@@ -71,7 +71,7 @@ const GIVE_UP = 5;
  * after an overshoot, when the swing grows again)…
  */
 const RECOVERY = 3;
-/** …and at most this many batches of `cycles=` periods (2000 periods by default). */
+/** …and at most this many batches of `cycles=` periods (2040 periods by default). */
 const RECOVERY_BATCHES = 34;
 /** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
 const BACK_OFF = 2;
