@@ -297,10 +297,12 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
+  // The bias point's slowest decaying time constants, in periods, that a slow loop is given beyond the batches (see `RECOVERY`).
+  const slowWait = recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch);
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch));
+    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
@@ -324,6 +326,20 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
       earliest = BACK_OFF * approach.periods;
+    }
+    // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
+    // there fail: it gets one more wait, as long as the patience with a dip, for its swing to level off.
+    if (!diedOut && from === "startup" && slowWait > 0) {
+      const where = approach.advance(slowWait, FIRST_LEVEL, check);
+      transient = transientOf(stepper, periods + approach.periods, approachStep);
+      if (where.kind === "died-out") {
+        diedOut = true;
+        why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+      } else if (where.levelled) {
+        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep), true);
+        if (typeof shot !== "string") return orbitFound(shot, transient);
+        why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+      }
     }
     periods += approach.periods;
     // Only a start that died out is tried again, small.
