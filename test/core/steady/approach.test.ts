@@ -87,4 +87,25 @@ describe("OrbitApproach's level criterion", () => {
     expect(levelled.filter((p) => p > 40 && p < 400)).toEqual([]);
     expect(levelled).toContain(600);
   });
+
+  test("advance(most, level, check, earliest) does not stop for a levelled swing before `earliest` periods in all (a failed shooting's back-off)", () => {
+    // The same steadily settling swing as above levels off within ten periods; held back to 20, it stops at 20 exactly.
+    const approach = new OrbitApproach(sineWith((t) => 1 + Math.exp(-t / 2)), readFirst, 1, 1);
+    const where = approach.advance(100, 0.1, () => {}, 20);
+    expect(where.kind === "oscillating" && where.levelled).toBe(true);
+    expect(approach.periods).toBe(20);
+  });
+
+  test("a swing that dips far below its peak and grows again is died out without patience, oscillating with it", () => {
+    // Grows to 1 by t = 5, falls by half per period to about 1e-6 at t = 25, stays there until
+    // t = 60 (a peak detector bleeding back), then grows fourfold per period back to 1.
+    const envelope = (t: number) => (t < 5 ? 2 ** (t - 5) : t < 25 ? 0.5 ** (t - 5) : t < 60 ? 1e-6 : Math.min(1, 1e-6 * 4 ** (t - 60)));
+    const hasty = new OrbitApproach(sineWith(envelope), readFirst, 1, 1);
+    expect(hasty.advance(100, undefined, () => {}).kind).toBe("died-out");
+    const patient = new OrbitApproach(sineWith(envelope), readFirst, 1, 1, 60);
+    const where = patient.advance(30, undefined, () => {});
+    expect(where.kind).toBe("oscillating");
+    // The quiet periods (from about t = 12 on) do not count towards the thirty asked for.
+    expect(patient.periods).toBeGreaterThan(70);
+  });
 });

@@ -67,6 +67,16 @@ const EARLY_ITERATIONS = 10;
  * one making headway may use all its periods.
  */
 const GIVE_UP = 5;
+/**
+ * The small start's oscillation counts as died out only once its swing has stayed down for this
+ * many of the slowest decaying pole's time constants (an amplitude loop's slow state bleeding back
+ * after an overshoot, when the swing grows again)…
+ */
+const RECOVERY = 3;
+/** …and at most this many batches of `cycles=` periods (2040 periods by default). */
+const RECOVERY_BATCHES = 34;
+/** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
+const BACK_OFF = 2;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
 /** A source's frequency within this fraction of an integer multiple of the common frequency shares its period. */
 const COMMON_PERIOD = 1e-9;
@@ -295,16 +305,23 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
+  // The bias point's slowest decaying time constants, in periods, that a slow loop is given beyond the batches (see `RECOVERY`).
+  const slowWait = recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch);
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod));
+    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
     let shots = 0;
+    // A failed shooting's start was out of Newton's reach: the next waits until the transient has
+    // run as long again (a slowly attracting orbit's distance shrinks geometrically with the
+    // periods run), so a swing that passes the finer level at once (clipped at the rails, its
+    // swing steady while the loop's slow state still moves) costs no string of failed shootings.
+    let earliest = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check);
+      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
@@ -316,6 +333,21 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+      earliest = BACK_OFF * approach.periods;
+    }
+    // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
+    // there fail: it gets one more wait, as long as the patience with a dip, for its swing to level off.
+    if (!diedOut && from === "startup" && slowWait > 0) {
+      const where = approach.advance(slowWait, FIRST_LEVEL, check);
+      transient = transientOf(stepper, periods + approach.periods, approachStep);
+      if (where.kind === "died-out") {
+        diedOut = true;
+        why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+      } else if (where.levelled) {
+        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep), true);
+        if (typeof shot !== "string") return orbitFound(shot, transient);
+        why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+      }
     }
     periods += approach.periods;
     // Only a start that died out is tried again, small.
@@ -338,6 +370,17 @@ interface Context {
 }
 
 type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from" | "predicted" | "transient">;
+
+/**
+ * Periods the small start's swing may look died out before it counts as died out: `RECOVERY`
+ * times the slowest decaying pole's time constant (a peak detector bleeding back down), at most
+ * `most` periods.
+ */
+function recoveryPeriods(poles: readonly Pole[], period: number, most: number): number {
+  let slowest = Infinity;
+  for (const p of poles) if (p.real < 0) slowest = Math.min(slowest, -p.real);
+  return Number.isFinite(slowest) ? Math.min(most, Math.ceil(RECOVERY / slowest / period)) : 0;
+}
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */
 function rightmostGrowing(poles: readonly Pole[]): Pole | null {

@@ -43,6 +43,9 @@ export class OrbitApproach {
   private dip = NaN;
   private count = 0;
   private largest = 0;
+  /** Periods the swing has looked died out, in all; and whether it does now. */
+  private quietPeriods = 0;
+  private isQuiet = false;
 
   constructor(
     private readonly stepper: TransientStepper,
@@ -50,6 +53,13 @@ export class OrbitApproach {
     private readonly guess: number,
     /** e^(σT) − 1: the swing's relative growth per period while the circuit is linear. */
     private readonly linearGrowth: number,
+    /**
+     * Periods a swing that looks died out is watched before it counts as died out: an amplitude
+     * loop's envelope can dip far below its orbit after an overshoot (a peak detector charged
+     * past its level holds the gain down) and grow again once the loop's slow state bleeds back.
+     * The quiet periods (in all, over every dip) do not count towards `advance`'s `most`.
+     */
+    private readonly patience = 0,
   ) {
     stepper.observe((t, x, dxdt) => this.samples.push(t, read(x, dxdt, t)));
   }
@@ -66,19 +76,26 @@ export class OrbitApproach {
 
   /**
    * Runs up to `most` more periods (fewer once the swing changes by less than `level` per
-   * period, when given) and says where that left the oscillation.
+   * period, when given, and `earliest` periods have been run in all) and says where that left
+   * the oscillation.
    */
-  advance(most: number, level: number | undefined, check: () => void): Approach {
-    const end = this.count + most;
+  advance(most: number, level: number | undefined, check: () => void, earliest = 0): Approach {
+    let end = this.count + most;
     let levelled = false;
     while (this.count < end) {
       check();
       const from = this.stepper.t;
       this.stepper.advance(from + this.guess);
       this.record(this.samples.swingSince(from));
+      this.isQuiet = this.quiet();
+      if (this.isQuiet) this.quietPeriods++;
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
-      if (level !== undefined && (levelled = this.levelled(level))) break;
+      if (this.isQuiet) {
+        end++;
+        continue;
+      }
+      if (level !== undefined && this.count >= earliest && (levelled = this.levelled(level))) break;
     }
     return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
   }
@@ -97,7 +114,12 @@ export class OrbitApproach {
     } else if (c !== undefined && b! < a! && b! <= c) this.dip = b!;
   }
 
+  /** The swing looks died out, and has for more than `patience` periods in all (see the constructor). */
   private diedOut(): boolean {
+    return this.isQuiet && this.quietPeriods > this.patience;
+  }
+
+  private quiet(): boolean {
     const last = this.swings[this.swings.length - 1] ?? 0;
     return !(last > DIED_OUT * this.largest) || (this.count > 2 * LEVEL_PERIODS && this.shrinking() && last < 0.01 * this.largest);
   }

@@ -139,6 +139,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let trial = false;
   let fresh = options.jacobian === undefined;
   let freshAtFrom = false;
+  /** A step from `from` with an updated matrix was rejected once and learnt from. */
+  let learnedAtFrom = false;
   const residual = new Float64Array(unknowns);
   let states: readonly Float64Array[] | undefined = predictor;
   let previous = Infinity;
@@ -193,14 +195,16 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     const ratio = trial ? (fromSquare - square) / Math.max(fromSquare - predicted, Number.MIN_VALUE) : 1;
     if (trial) radius = nextRadius(radius, length, ratio);
     if (trial && !(ratio > ACCEPT_RATIO)) {
-      if (!freshAtFrom) {
-        // An updated matrix led astray: back to where the step started, with the Jacobian there.
+      if (!freshAtFrom && learnedAtFrom) {
+        // An updated matrix led astray again: back to where the step started, with the Jacobian there.
         moveTo(0);
         fresh = true;
         trial = false;
         continue;
       }
-      // The exact Jacobian's model does not hold that far (the map bends within the step): learn from the step, try a shorter one.
+      // The exact Jacobian's model does not hold that far (the map bends within the step), or an
+      // updated matrix led astray once: learn from the step, try a shorter one.
+      learnedAtFrom = !freshAtFrom;
       newton.secant(step, fromResidual, residual);
       newton.solve(fromResidual, full);
       stepWithin();
@@ -211,6 +215,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     else if (given) newton.reset(options.jacobian!);
     else if (trial) newton.secant(step, fromResidual, residual);
     freshAtFrom = end.sensitivity !== undefined || given;
+    learnedAtFrom = false;
     // (A step cut short to a share λ of Newton's is expected to shrink the mismatch to about 1 − λ of it.)
     const share = trial ? Math.min(1, length / Math.max(newtonLength, Number.MIN_VALUE)) : 1;
     const contracted = !trial || mismatch <= (1 - share * (1 - CHORD_CONTRACTION)) * previous;
@@ -233,7 +238,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       const more = options.multipliers === true && near === undefined;
       const kept = more ? map.states.map((v) => Float64Array.from(v)) : map.states;
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + full[i]!), period: options.autonomous ? T + full[n]! : T };
-      const multipliers = options.multipliers ? floquetMultipliers(near ?? map.run(start, fractions, kept, true).sensitivity!, n) : [];
+      const atOrbit = options.multipliers && !near ? map.run(start, fractions, kept, true).sensitivity! : undefined;
+      // (The exact matrix at the orbit, when that period computed it, is the one a finer grid starts from.)
+      if (atOrbit) newton.set(atOrbit, n);
+      const multipliers = options.multipliers ? floquetMultipliers(near ?? atOrbit!, n) : [];
       return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
     }
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
