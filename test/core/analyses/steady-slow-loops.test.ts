@@ -2,7 +2,8 @@
 // JFET loops with other filter time constants and gains. The steady analysis must find the orbit
 // the start-up run settles on by itself (the file's startup statement integrated to settled):
 // frequency within 0.05 %, amplitude within 0.5 %, THD within 2 % relative.
-import { describe, test } from "vitest";
+import { describe, expect, test } from "vitest";
+import { runSteady } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
@@ -59,5 +60,40 @@ describe("steady against the settled start-up run on slow amplitude loops of the
     const circuit = elaborate(loadProgram(`${name}.onset`, loops[name]!).program, {}).circuit!;
     // Source: the start-up run, integrated from its excitation until settled (its own step control).
     expectSteadyAgreesWithSettled(circuit);
+  });
+});
+
+describe("a JFET loop whose 4.7 µF detector over-corrects for longer than the default wait", () => {
+  // 4.9 kHz: kicked, the swing overshoots to the rails and the detector charges far past its
+  // orbit; the oscillation stays silent for thousands of periods while it bleeds back (time
+  // constant about 1 s). The default wait (34 × cycles= periods) is too short: the answer says so
+  // and how to wait longer; with cycles=1000 the orbit is found.
+  const source = `resistor R1 o s 3.16k
+capacitor C1 s p 10n
+resistor R2 p gnd 3.16k
+capacitor C2 p gnd 10n
+opamp U1 p n o preset=general rails=(-12, 12)
+resistor Rf o n 15k
+resistor Rs n d 5.6k
+jfet J1 d g gnd idss=5m pinchoff=-2
+resistor Ra d g 330k
+resistor Rc c g 330k
+diode D1 c o
+capacitor Cfil c gnd 4.7u
+resistor Rb c gnd 470k
+`;
+  const circuit = elaborate(loadProgram("slow-detector.onset", source).program, {}).circuit!;
+  const probe = { kind: "node", node: "o" } as const;
+  test("at the defaults: no orbit, with the wait its slowest time constant would want and how to give it", () => {
+    const r = runSteady(circuit, { kind: "steady", probe });
+    expect(r.found).toBe(false);
+    expect(r.explanation).toMatch(/died out within \d+ periods .*would have it wait \d+ periods .* raise cycles= to wait longer/);
+  });
+  test("with cycles=1000: the orbit the start-up run settles on (4922.80 Hz, 4.14592 V, its settled figures at until=3 s)", () => {
+    const r = runSteady(circuit, { kind: "steady", probe, cycles: 1000 });
+    expect(r.found).toBe(true);
+    // Source: the start-up run of the same circuit integrated to 3 s (kick=thermal), settled.
+    expect(Math.abs(r.frequency! / 4922.8 - 1)).toBeLessThan(5e-4);
+    expect(Math.abs(r.amplitude! / 4.14592 - 1)).toBeLessThan(5e-3);
   });
 });

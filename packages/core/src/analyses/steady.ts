@@ -282,7 +282,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const guessPeriod = pole ? (2 * Math.PI) / pole.imag : null;
   const maxStep = analysis.maxStep ?? (guessPeriod ?? 1e-3) / STEPS_PER_PERIOD;
   const idle = () => ({ ...base, kind: "autonomous" as const, from, predicted, transient: { periods: 0, until: 0, maxStep, solver: emptyStats() } });
-  if (!growing) return noOrbit(idle(), `no periodic orbit: the circuit does not oscillate — ${polesVerdict(pole)}`);
+  if (!growing) return noOrbit(idle(), `no periodic orbit: the circuit does not oscillate — ${polesVerdict(pole)}, so it does not start by itself (an orbit only a large disturbance would reach, a hard start, is not searched)`);
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
   }
@@ -307,6 +307,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
   // The bias point's slowest decaying time constants, in periods, that a slow loop is given beyond the batches (see `RECOVERY`).
   const slowWait = recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch);
+  const wantedWait = recoveryPeriods(poles, guessPeriod, Infinity);
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
@@ -325,7 +326,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
-        why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
         continue;
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
@@ -342,7 +343,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
-        why = `no periodic orbit: started in its growing mode, the oscillation died out within ${where.periods} periods (${polesVerdict(pole)})`;
+        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
       } else if (where.levelled) {
         const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep), true);
         if (typeof shot !== "string") return orbitFound(shot, transient);
@@ -380,6 +381,17 @@ function recoveryPeriods(poles: readonly Pole[], period: number, most: number): 
   let slowest = Infinity;
   for (const p of poles) if (p.real < 0) slowest = Math.min(slowest, -p.real);
   return Number.isFinite(slowest) ? Math.min(most, Math.ceil(RECOVERY / slowest / period)) : 0;
+}
+
+/**
+ * Why a start died out; when the wait for a dip was cut short by its bound (`wanted` > 0 periods
+ * of the slowest time constant's patience), how to wait longer: an amplitude loop that
+ * over-corrected may come back once its detector has bled down.
+ */
+function diedOutWhy(periods: number, pole: Pole, wanted: number): string {
+  const why = `no periodic orbit: started in its growing mode, the oscillation died out within ${periods} periods (${polesVerdict(pole)})`;
+  if (wanted === 0) return why;
+  return `${why}; the bias point's slowest time constant would have it wait ${wanted} periods for an over-corrected amplitude loop to come back, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (a start-up run shows whether it comes back)`;
 }
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */
