@@ -3,7 +3,8 @@
 // settled): frequency within 0.05 %, amplitude within 0.5 %, THD within 2 % relative.
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { describe, test } from "vitest";
+import { describe, expect, test } from "vitest";
+import { runSteady } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
@@ -18,5 +19,15 @@ describe("steady against the settled start-up run on the examples", () => {
     const circuit = elaborate(loadProgram(file, readFileSync(file, "utf8")).program, {}).circuit!;
     // Source: the start-up run, integrated from its excitation until settled; the steady analysis a few tens of periods.
     expectSteadyAgreesWithSettled(circuit);
+  });
+});
+
+describe("from=poles on a slow loop whose envelope still bounces", () => {
+  test("jfet-loop-source: no orbit within its batches, and the answer points to from=startup", () => {
+    const file = join(examples, "jfet-loop-source.onset");
+    const circuit = elaborate(loadProgram(file, readFileSync(file, "utf8")).program, {}).circuit!;
+    const r = runSteady(circuit, { kind: "steady", probe: { kind: "node", node: "o" }, from: "poles" });
+    expect(r.found).toBe(false);
+    expect(r.explanation).toMatch(/from=poles shoots every 4 periods .* from=startup \(the default\) waits for it/);
   });
 });

@@ -354,7 +354,9 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     // Only a start that died out is tried again, small.
     if (!diedOut) break;
   }
-  return noOrbit({ ...idle(), transient }, why);
+  // from=poles shoots after every few periods whatever the swing does; a slow loop's may still bounce.
+  const instead = from === "poles" && why.startsWith("no periodic orbit found") ? `; from=poles shoots every ${batch} periods whether or not the swing has levelled off — from=startup (the default) waits for it` : "";
+  return noOrbit({ ...idle(), transient }, `${why}${instead}`);
 }
 
 interface Context {
