@@ -65,3 +65,19 @@ describe("fundamentalAbsent and relativeToLargest (mathematics: dB of amplitude 
     expect(levels[0]).toBeCloseTo(-240, 9);
   });
 });
+
+describe("steady with a noise source (mathematics: a random signal has no period)", () => {
+  const noisy = (stop?: number) =>
+    circuit([
+      part("isource", "In", ["gnd", "o"], undefined, { wave: "noise", rms: 1e-6, seed: 7, corner: 50e3, ...(stop === undefined ? {} : { stop }) }),
+      part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 1, freq: 1e3 }),
+      part("resistor", "R1", ["in", "o"], R),
+      part("capacitor", "C1", ["o", "gnd"], C),
+    ]);
+  test("a noise source that never stops: no orbit, at once, and why", () => {
+    const r = runSteady(noisy(), { kind: "steady", probe: { kind: "node", node: "o" } });
+    expect(r.found).toBe(false);
+    expect(r.explanation).toMatch(/^no periodic orbit: In is a noise source that never stops/);
+    expect(r.transient.periods).toBe(0);
+  });
+});

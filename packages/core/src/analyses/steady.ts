@@ -257,6 +257,15 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
   const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, ...(onOrbit ? { onOrbit } : {}) };
 
+  const noisy = circuit.parts.find((p) => (p.kind === "vsource" || p.kind === "isource") && p.options.wave === "noise" && !Number.isFinite(p.options.stop));
+  if (noisy) {
+    const kind = drives.length > 0 ? ("driven" as const) : ("autonomous" as const);
+    const transient = { periods: 0, until: 0, maxStep: analysis.maxStep ?? 0, solver: emptyStats() };
+    return noOrbit(
+      { ...base, kind, from: kind === "driven" ? "driven" : (analysis.from ?? "startup"), predicted: { ...prediction, startupTime: null }, transient },
+      `no periodic orbit: ${noisy.name} is a noise source that never stops, so nothing in the circuit repeats — a steady state is periodic by definition; run startup or transient for the noisy circuit, or give the source a stop= time`,
+    );
+  }
   if (drives.length > 0) {
     const period = commonPeriod(drives);
     const from = "driven" as const;
