@@ -1,0 +1,175 @@
+import { simulationError } from "../circuit/diagnostic.js";
+import { linearStructureOf, type LinearStructure } from "../solver/linear-structure.js";
+import { SourceVector } from "../solver/source-vector.js";
+import { SparseLu } from "../solver/sparse-lu.js";
+import type { MnaSystem } from "../solver/system.js";
+import { DeviceEntries } from "./device-entries.js";
+import { GAMMA, STAGE_BEFORE, STAGE_NOW, type PeriodStart } from "./periodic-map.js";
+
+/** One run of the periodic map: its start, grid, and the points it passed (see `PeriodicMap`). */
+export interface MapRun {
+  readonly start: PeriodStart;
+  readonly fractions: Float64Array;
+  /** The N + 1 grid points. */
+  readonly states: readonly Float64Array[];
+  /** The N first-stage solutions, at tₖ + γhₖ. */
+  readonly middles: readonly Float64Array[];
+}
+
+/** The devices' derivatives (per shared entry) and the rate q̇ at one point of the run. */
+interface Point {
+  readonly dF: Float64Array;
+  readonly dQ: Float64Array;
+  readonly rate: Float64Array;
+}
+
+/**
+ * The derivative of one period of the periodic map along one direction: S·[v; τ] = dx_N for
+ * dx₀ = v, dT = τ, by the variational recursion `PeriodicMap.propagate` carries for all n + 1
+ * columns, here for one, each stage's matrix G_x + a·C_x factored sparse (the engine's SparseLu,
+ * its pivot order kept from step to step while it serves). A pass costs two sparse
+ * factorisations and two solves per step, about one plain period of the map; this makes
+ * Newton–Krylov shooting possible where the dense monodromy matrix is too dear (Telichevesky,
+ * Kundert & White 1995; docs/references.md §9).
+ *
+ * The devices are linearised once, at construction, on every point of the run: memory is
+ * (2N + 1)·(2e + n) doubles for e device entries (so a constant multiple of the run's own stored
+ * states, e being a few per device); the factorisations are redone on every pass (keeping 2N of
+ * them would cost the fill-in 2N times over).
+ */
+export class TangentPeriod {
+  readonly n: number;
+  private readonly system: MnaSystem;
+  private readonly fractions: Float64Array;
+  private readonly period: number;
+  private readonly structure: LinearStructure;
+  /** Points in run order: state k at 2k, the middle of step k at 2k + 1. */
+  private readonly points: Point[] = [];
+  private readonly deviceRows: Int32Array;
+  private readonly deviceCols: Int32Array;
+  /** Per device entry: its place among the factored matrix's entries. */
+  private readonly target: Int32Array;
+  private readonly lu: SparseLu;
+  private readonly s: Float64Array;
+  private readonly sMiddle: Float64Array;
+  private readonly rhs: Float64Array;
+  /** Tangent passes made. */
+  passes = 0;
+
+  constructor(system: MnaSystem, run: MapRun) {
+    const n = system.n;
+    this.n = n;
+    this.system = system;
+    this.fractions = run.fractions;
+    this.period = run.start.period;
+    this.structure = linearStructureOf(system);
+    const entries = new DeviceEntries(system);
+    const sources = new SourceVector(n, system.sources);
+    const add = (x: Float64Array, t: number) => {
+      entries.at(x);
+      sources.load(t, 1, false);
+      const rate = new Float64Array(n);
+      this.rateAt(x, entries.f, sources.u, rate);
+      this.points.push({ dF: entries.dF.slice(0, entries.count), dQ: entries.dQ.slice(0, entries.count), rate });
+    };
+    // The times as the map computes them (t₀ + T·Σ fractions, summed in the same order).
+    const { t0, period } = run.start;
+    let elapsed = 0;
+    add(run.states[0]!, t0);
+    for (let k = 0; k < run.fractions.length; k++) {
+      const h = run.fractions[k]! * period;
+      add(run.middles[k]!, t0 + elapsed * period + GAMMA * h);
+      elapsed += run.fractions[k]!;
+      add(run.states[k + 1]!, t0 + elapsed * period);
+    }
+    this.deviceRows = Int32Array.from(entries.rows);
+    this.deviceCols = Int32Array.from(entries.cols);
+    const rows = Array.from(this.structure.rows);
+    const cols = Array.from(this.structure.cols);
+    this.target = new Int32Array(entries.count);
+    for (let e = 0; e < entries.count; e++) {
+      const at = this.structure.entryOf(this.deviceRows[e]!, this.deviceCols[e]!);
+      this.target[e] = at ?? rows.length;
+      if (at === undefined) {
+        rows.push(this.deviceRows[e]!);
+        cols.push(this.deviceCols[e]!);
+      }
+    }
+    this.lu = new SparseLu(n, Int32Array.from(rows), Int32Array.from(cols));
+    this.s = new Float64Array(n);
+    this.sMiddle = new Float64Array(n);
+    this.rhs = new Float64Array(n);
+  }
+
+  /** q̇ = u − G·x − f on charged rows, 0 on algebraic ones (as the map's). */
+  private rateAt(x: Float64Array, f: Float64Array, u: Float64Array, rate: Float64Array): void {
+    const { rowStart, cols, g } = this.structure;
+    const charged = this.system.chargedRows;
+    for (let i = 0; i < this.n; i++) {
+      if (!charged[i]) continue;
+      let gx = f[i]!;
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) gx += g[e]! * x[cols[e]!]!;
+      rate[i] = u[i]! - gx;
+    }
+  }
+
+  /** out = S·[v; τ], the end state's change for a start moved by v and a period moved by τ. */
+  apply(v: Float64Array, tau: number, out: Float64Array): void {
+    const { n, points, fractions, period, s, sMiddle, rhs } = this;
+    s.set(v.subarray(0, n));
+    for (let k = 0; k < fractions.length; k++) {
+      const fraction = fractions[k]!;
+      const h = fraction * period;
+      const a = 2 / (GAMMA * h);
+      const here = points[2 * k]!;
+      const middle = points[2 * k + 1]!;
+      const next = points[2 * k + 2]!;
+      // Stage 1: J_γ·s_γ = (a·C_x(xₖ) − G_x(xₖ)|charged)·sₖ − ∂R₁/∂h·fraction·τ.
+      this.factorAt(middle, a);
+      rhs.fill(0);
+      this.product(a, -1, here, s);
+      if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += ((middle.rate[i]! + here.rate[i]!) / h) * fraction * tau;
+      this.lu.solve(rhs, sMiddle);
+      // Stage 2: J₊·sₖ₊₁ = a·(c₁·C_x(x_γ)·s_γ − c₂·C_x(xₖ)·sₖ) − ∂R₂/∂h·fraction·τ.
+      this.factorAt(next, a);
+      rhs.fill(0);
+      this.product(a * STAGE_NOW, 0, middle, sMiddle);
+      this.product(-a * STAGE_BEFORE, 0, here, s);
+      if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += (next.rate[i]! / h) * fraction * tau;
+      this.lu.solve(rhs, s);
+    }
+    out.set(s);
+    this.passes++;
+  }
+
+  /** Factors G_x + a·C_x at a point. */
+  private factorAt(p: Point, a: number): void {
+    const { g, c } = this.structure;
+    const matrix = this.lu.a;
+    const constant = g.length;
+    for (let e = 0; e < constant; e++) matrix[e] = g[e]! + a * c[e]!;
+    for (let e = constant; e < matrix.length; e++) matrix[e] = 0;
+    const { target } = this;
+    for (let e = 0; e < p.dF.length; e++) matrix[target[e]!] += p.dF[e]! + a * p.dQ[e]!;
+    if (!this.lu.factor()) throw simulationError("orbit-singular", "the periodic-orbit map's Jacobian is singular");
+  }
+
+  /** rhs += (weightC·C_x + weightG·G_x|charged rows)·s at a point. */
+  private product(weightC: number, weightG: number, p: Point, s: Float64Array): void {
+    const { rhs } = this;
+    const { rowStart, cols, g, c } = this.structure;
+    const charged = this.system.chargedRows;
+    for (let i = 0; i < this.n; i++) {
+      const wG = charged[i] ? weightG : 0;
+      let sum = 0;
+      for (let e = rowStart[i]!; e < rowStart[i + 1]!; e++) sum += (weightC * c[e]! + wG * g[e]!) * s[cols[e]!]!;
+      rhs[i] += sum;
+    }
+    const { deviceRows, deviceCols } = this;
+    for (let e = 0; e < p.dF.length; e++) {
+      const row = deviceRows[e]!;
+      const w = weightC * p.dQ[e]! + (charged[row] ? weightG : 0) * p.dF[e]!;
+      if (w !== 0) rhs[row] += w * s[deviceCols[e]!]!;
+    }
+  }
+}
