@@ -1,7 +1,9 @@
 import { describe, expect, test } from "vitest";
-import { orbitMetrics, shootOrbit } from "@onset/core/engine";
+import { runStartup, runSteady } from "@onset/core";
+import { buildSystem, orbitMetrics, shootOrbit } from "@onset/core/engine";
+import { MATRIX_FREE_FROM } from "../../../packages/core/src/steady/matrix-free-shooting.js";
 import { nonTrivialMultipliers } from "../../../packages/core/src/steady/stability.js";
-import { clippedWien, settledPeriod } from "./support.js";
+import { clippedWien, ladderOscillator, settledPeriod } from "./support.js";
 
 describe("shootOrbit with matrixFree (Newton–Krylov) against the dense shooting", () => {
   test.each([3.1, 3.3])("clipped Wien at A = %d: same period and amplitude within 1e-7 relative, same dominant multiplier within 1e-4", (A) => {
@@ -28,5 +30,17 @@ describe("shootOrbit with matrixFree (Newton–Krylov) against the dense shootin
     expect(again.jacobian.matrix.length).toBe(0);
     expect(again.jacobian.phase).toBe(free.jacobian.phase);
     expect(Math.abs(again.start.period / free.start.period - 1)).toBeLessThan(1e-7);
+  });
+});
+
+describe("the steady analysis of a large ladder-network oscillator (matrix-free by default)", () => {
+  test("100 sections (111 unknowns): its frequency agrees with the settled start-up run's within 5e-4 (source: the transient, until=auto)", () => {
+    const c = ladderOscillator(100);
+    expect(buildSystem(c).n).toBeGreaterThanOrEqual(MATRIX_FREE_FROM);
+    const probe = { kind: "node", node: "o" } as const;
+    const startup = runStartup(c, { kind: "startup", probe, until: "auto" });
+    const steady = runSteady(c, { kind: "steady", probe });
+    expect(steady.found).toBe(true);
+    expect(Math.abs(steady.frequency! / startup.frequency! - 1)).toBeLessThan(5e-4);
   });
 });
