@@ -1,8 +1,8 @@
 import { describe, expect, test } from "vitest";
-import { runStartup, runSteady } from "@onset/core";
+import { isOnsetError, runStartup, runSteady } from "@onset/core";
 import { buildSystem, orbitMetrics, recordPeriod, shootOrbit, TransientStepper } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
-import { MATRIX_FREE_FROM } from "../../../packages/core/src/steady/matrix-free-shooting.js";
+import { KRYLOV_PRODUCTS, MATRIX_FREE_FROM } from "../../../packages/core/src/steady/matrix-free-shooting.js";
 import { nonTrivialMultipliers } from "../../../packages/core/src/steady/stability.js";
 import { clippedWien, ladderOscillator, settledPeriod } from "./support.js";
 
@@ -31,6 +31,30 @@ describe("shootOrbit with matrixFree (Newton–Krylov) against the dense shootin
     expect(again.jacobian.matrix.length).toBe(0);
     expect(again.jacobian.phase).toBe(free.jacobian.phase);
     expect(Math.abs(again.start.period / free.start.period - 1)).toBeLessThan(1e-7);
+  });
+});
+
+describe("shootOrbit with matrixFree from a start far from the orbit", () => {
+  const { system, guess, fractions } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+  // The settled state with the period guessed at a third of the orbit's: Newton's first step triples it.
+  const far = { ...guess, period: guess.period / 3 };
+
+  test.each([1.1, 1.2])("from the settled state with the period guessed at 1/%d of the orbit's, the trust region brings it to the orbit", (share) => {
+    const found = shootOrbit(system, { ...guess, period: guess.period / share }, fractions, undefined, { autonomous: true, matrixFree: true });
+    expect(Math.abs(found.start.period / guess.period - 1)).toBeLessThan(1e-3);
+  });
+
+  test("with giveUpAfter it gives up at once with a typed error (the first step would move the period by more than a fifth)", () => {
+    let periods = 0;
+    let code = "converged";
+    try {
+      shootOrbit(system, far, fractions, undefined, { autonomous: true, matrixFree: true, giveUpAfter: 5, check: () => periods++ });
+    } catch (error) {
+      code = isOnsetError(error) ? error.diagnostic.code : String(error);
+    }
+    expect(code).toBe("orbit-not-converged");
+    // (One period, then the tangent passes of its Newton step: no second period.)
+    expect(periods).toBeLessThanOrEqual(1 + KRYLOV_PRODUCTS);
   });
 });
 

@@ -11,8 +11,22 @@ export interface GmresOptions {
   readonly maxProducts: number;
 }
 
+/**
+ * The last cycle's least-squares problem: x = x_c + V·y minimises ‖Ry − g‖² + g_k² (k = V's
+ * vectors), with V orthonormal, R upper triangular (k × k, row-major) and g (k + 1 entries) the
+ * rotated right-hand side: the linear model of ‖b − A·x‖ on the Krylov subspace.
+ */
+export interface KrylovModel {
+  readonly basis: readonly Float64Array[];
+  readonly triangular: Float64Array;
+  readonly rotated: Float64Array;
+  /** Whether the cycle started from x_c ≠ 0 (after a restart). */
+  readonly restarted: boolean;
+}
+
 export interface GmresResult {
   readonly x: Float64Array;
+  readonly model: KrylovModel;
   /** ‖b − A·x‖₂ (as the least-squares problem tracks it). */
   readonly residual: number;
   readonly products: number;
@@ -58,6 +72,8 @@ export function gmres(apply: LinearOperator, b: Float64Array, options: GmresOpti
   const y = new Float64Array(m);
   let products = 0;
   let residual = norm(r);
+  let model: KrylovModel = { basis: [], triangular: new Float64Array(0), rotated: Float64Array.of(residual), restarted: false };
+  let cycles = 0;
   while (residual > options.tolerance && products < options.maxProducts) {
     const beta = residual;
     for (let k = 0; k < size; k++) basis[0]![k] = r[k]! / beta;
@@ -103,6 +119,9 @@ export function gmres(apply: LinearOperator, b: Float64Array, options: GmresOpti
       const v = basis[i]!;
       for (let k = 0; k < size; k++) x[k] += y[i]! * v[k]!;
     }
+    const triangular = new Float64Array(used * used);
+    for (let j = 0; j < used; j++) for (let i = 0; i <= j; i++) triangular[i * used + j] = columns[j]![i]!;
+    model = { basis: basis.slice(0, used), triangular, rotated: g.slice(0, used + 1), restarted: cycles++ > 0 };
     if (breakdown || residual <= options.tolerance || products >= options.maxProducts) break;
     // The restart's residual, computed (the tracked one drifts from it in rounding).
     apply(x, r);
@@ -110,7 +129,7 @@ export function gmres(apply: LinearOperator, b: Float64Array, options: GmresOpti
     for (let k = 0; k < size; k++) r[k] = b[k]! - r[k]!;
     residual = norm(r);
   }
-  return { x, residual, products, converged: residual <= options.tolerance };
+  return { x, model, residual, products, converged: residual <= options.tolerance };
 }
 
 function norm(v: Float64Array): number {

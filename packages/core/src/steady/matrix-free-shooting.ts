@@ -2,11 +2,11 @@ import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances } from "../solver/tolerances.js";
-import { gmres, orthogonalise } from "./gmres.js";
+import { gmres, orthogonalise, type KrylovModel } from "./gmres.js";
 import { PeriodicMap, type PeriodStart } from "./periodic-map.js";
 import { innerTolerances, phaseUnknown, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
 import { TangentPeriod } from "./tangent-period.js";
-import { nextRadius } from "./trust-region.js";
+import { nextRadius, trustStep } from "./trust-region.js";
 
 /**
  * From this many unknowns on, shooting is matrix-free by default. Measured on the buffered
@@ -18,7 +18,7 @@ export const MATRIX_FREE_FROM = 60;
 /** Largest number of tangent passes one Newton step's GMRES makes (its restarts included). @defaultValue 60 */
 export const KRYLOV_PRODUCTS = 60;
 /** GMRES keeps this many Krylov vectors before it restarts. */
-const KRYLOV_RESTART = 40;
+const KRYLOV_RESTART = 60;
 /**
  * The inexact Newton's forcing term: GMRES stops at this share of the residual's (scaled) norm, a
  * fixed η (Eisenstat & Walker 1996, §2) small enough that Newton's convergence stays all but
@@ -90,14 +90,22 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
   let first = Infinity;
   let best = Infinity;
   const residual = new Float64Array(n);
+  let krylov: KrylovModel | undefined;
+  const step = new Float64Array(unknowns);
   const stepWithin = () => {
-    const share = Math.min(1, radius / Math.max(newtonLength, Number.MIN_VALUE));
-    cut = share < 1;
-    length = share * newtonLength;
-    // The model's residual along the step, (1 − λ)·r̃ + λ·(r̃ + J̃p̃), bounded by its parts' norms.
-    predicted = ((1 - share) * fromNorm + share * modelNorm) ** 2;
-    for (let i = 0; i < n; i++) x0[i] = from[i]! + share * newton[i]! * scale[i]!;
-    if (autonomous) T = from[n]! + share * newton[n]! * scale[n]!;
+    cut = newtonLength > radius;
+    if (cut && krylov && !krylov.restarted) {
+      ({ length, predicted } = subspaceDogleg(krylov, radius, step));
+    } else {
+      // (After a restart the model is not the subspace's alone: Newton's step scaled back, its
+      // model residual (1 − λ)·r̃ + λ·ρ̃ with r̃·ρ̃ = ‖ρ̃‖², ρ̃ being orthogonal to J̃p̃.)
+      const share = Math.min(1, radius / Math.max(newtonLength, Number.MIN_VALUE));
+      length = share * newtonLength;
+      predicted = (1 - share) ** 2 * fromNorm ** 2 + share * (2 - share) * modelNorm ** 2;
+      for (let i = 0; i < unknowns; i++) step[i] = share * newton[i]!;
+    }
+    for (let i = 0; i < n; i++) x0[i] = from[i]! + step[i]! * scale[i]!;
+    if (autonomous) T = from[n]! + step[n]! * scale[n]!;
     if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
@@ -143,6 +151,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     });
     newton = Float64Array.from(solved.x);
     modelNorm = solved.residual;
+    krylov = solved.model;
     let size = 0;
     for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(newton[i]!));
     if (autonomous) size = Math.max(size, Math.abs(newton[n]! * scale[n]!) / (relative * T));
@@ -168,6 +177,33 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
   throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
   });
+}
+
+/**
+ * Powell's dogleg within the Krylov subspace (Brown & Saad 1990, "Hybrid Krylov methods for
+ * nonlinear systems of equations", §3): the subspace's orthonormal basis keeps lengths, and its
+ * model ‖Ry − g‖² + g_k² is a square one in y, for `trustStep`. Far from the orbit the Jacobian
+ * is nearly singular and Newton's step, even scaled back, is a poor descent direction; the
+ * dogleg's first leg (the model's steepest descent) is a sure one. `step` gets V·y.
+ */
+function subspaceDogleg(krylov: KrylovModel, radius: number, step: Float64Array): { readonly length: number; readonly predicted: number } {
+  const k = krylov.basis.length;
+  const g = krylov.rotated;
+  const residual = Float64Array.from({ length: k }, (_, i) => -g[i]!);
+  const newton = new Float64Array(k);
+  for (let i = k - 1; i >= 0; i--) {
+    let sum = g[i]!;
+    for (let j = i + 1; j < k; j++) sum -= krylov.triangular[i * k + j]! * newton[j]!;
+    const pivot = krylov.triangular[i * k + i]!;
+    newton[i] = pivot !== 0 ? sum / pivot : 0;
+  }
+  const y = new Float64Array(k);
+  const { length, predicted } = trustStep(krylov.triangular, residual, new Float64Array(k).fill(1), newton, radius, y);
+  step.fill(0);
+  krylov.basis.forEach((v, i) => {
+    for (let c = 0; c < step.length; c++) step[c] += y[i]! * v[c]!;
+  });
+  return { length, predicted: predicted + g[k]! ** 2 };
 }
 
 /**
