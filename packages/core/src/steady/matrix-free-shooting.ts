@@ -92,6 +92,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
   let best = Infinity;
   const residual = new Float64Array(n);
   let krylov: KrylovModel | undefined;
+  let tangent: TangentPeriod | undefined;
   const step = new Float64Array(unknowns);
   const stepWithin = () => {
     cut = newtonLength > radius;
@@ -144,7 +145,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     from.set(x0.subarray(0, n));
     if (autonomous) from[n] = T;
     fromNorm = Math.sqrt(square);
-    const tangent = new TangentPeriod(system, { start: { t0: guess.t0, x: x0, period: T }, fractions, states: map.states, middles: map.middlePoints });
+    tangent = new TangentPeriod(system, { start: { t0: guess.t0, x: x0, period: T }, fractions, states: map.states, middles: map.middlePoints }, tangent);
     const solved = gmres(borderedProduct(tangent, scale, phase, options.check), Float64Array.from({ length: unknowns }, (_, i) => (i < n ? -residual[i]! / scale[i]! : 0)), {
       tolerance: Math.max(FORCING * fromNorm, KRYLOV_FLOOR),
       restart: KRYLOV_RESTART,

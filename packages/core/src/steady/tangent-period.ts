@@ -56,13 +56,14 @@ export class TangentPeriod {
   /** Tangent passes made. */
   passes = 0;
 
-  constructor(system: MnaSystem, run: MapRun) {
+  /** `previous`: a tangent of the same system, whose factorisation (its pivot order and schedule) is taken over when the device entries are the same. */
+  constructor(system: MnaSystem, run: MapRun, previous?: TangentPeriod) {
     const n = system.n;
     this.n = n;
     this.system = system;
     this.fractions = run.fractions;
     this.period = run.start.period;
-    this.structure = linearStructureOf(system);
+    this.structure = previous?.structure ?? linearStructureOf(system);
     const entries = new DeviceEntries(system);
     const sources = new SourceVector(n, system.sources);
     const add = (x: Float64Array, t: number) => {
@@ -84,6 +85,14 @@ export class TangentPeriod {
     }
     this.deviceRows = Int32Array.from(entries.rows);
     this.deviceCols = Int32Array.from(entries.cols);
+    this.s = new Float64Array(n);
+    this.sMiddle = new Float64Array(n);
+    this.rhs = new Float64Array(n);
+    if (previous && sameEntries(previous.deviceRows, this.deviceRows) && sameEntries(previous.deviceCols, this.deviceCols)) {
+      this.target = previous.target;
+      this.lu = previous.lu;
+      return;
+    }
     const rows = Array.from(this.structure.rows);
     const cols = Array.from(this.structure.cols);
     this.target = new Int32Array(entries.count);
@@ -96,9 +105,6 @@ export class TangentPeriod {
       }
     }
     this.lu = new SparseLu(n, Int32Array.from(rows), Int32Array.from(cols));
-    this.s = new Float64Array(n);
-    this.sMiddle = new Float64Array(n);
-    this.rhs = new Float64Array(n);
   }
 
   /** q̇ = u − G·x − f on charged rows, 0 on algebraic ones (as the map's). */
@@ -172,4 +178,10 @@ export class TangentPeriod {
       if (w !== 0) rhs[row] += w * s[deviceCols[e]!]!;
     }
   }
+}
+
+function sameEntries(a: Int32Array, b: Int32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let e = 0; e < a.length; e++) if (a[e] !== b[e]) return false;
+  return true;
 }
