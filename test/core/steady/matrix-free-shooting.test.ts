@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { isOnsetError, runStartup, runSteady } from "@onset/core";
+import { isOnsetError, runStartup, runSteady, steadySeed } from "@onset/core";
 import { buildSystem, orbitMetrics, recordPeriod, shootOrbit, TransientStepper } from "@onset/core/engine";
 import { circuit, part } from "../../support/circuits.js";
 import { KRYLOV_PRODUCTS, MATRIX_FREE_FROM } from "../../../packages/core/src/steady/matrix-free-shooting.js";
@@ -84,5 +84,25 @@ describe("the steady analysis of a large ladder-network oscillator (matrix-free 
     const steady = runSteady(c, { kind: "steady", probe });
     expect(steady.found).toBe(true);
     expect(Math.abs(steady.frequency! / startup.frequency! - 1)).toBeLessThan(5e-4);
+  });
+});
+
+describe("a study's seed from a matrix-free orbit", () => {
+  test("has no matrix, and a neighbour (one ladder capacitor 2 % up) seeded from it shoots matrix-free to its orbit", () => {
+    const nominal = ladderOscillator(60);
+    const probe = { kind: "node", node: "o" } as const;
+    const seed = steadySeed(nominal, { kind: "steady", probe })!;
+    expect(seed.matrix.length).toBe(0);
+    const neighbour = { ...nominal, parts: nominal.parts.map((p) => (p.name === "C30" ? { ...p, value: p.value! * 1.02 } : p)) };
+    const orbit = shootOrbit(buildSystem(neighbour), { t0: 0, x: seed.x, period: seed.period }, seed.fractions, seed.states, {
+      autonomous: true,
+      relative: 1e-5,
+      jacobian: { matrix: seed.matrix, phase: seed.phase },
+    });
+    expect(orbit.jacobian.matrix.length).toBe(0);
+    expect(orbit.mismatch).toBeLessThanOrEqual(1);
+    // (A larger capacitance lengthens the period, by well under the 2 % of one section in sixty.)
+    expect(orbit.start.period).toBeGreaterThan(seed.period);
+    expect(orbit.start.period / seed.period - 1).toBeLessThan(2e-3);
   });
 });
