@@ -40,4 +40,20 @@ describe("TangentPeriod.apply(v, τ) is the map's sensitivity S·[v; τ]", () =>
       expect(Math.abs(out[i]! - expected)).toBeLessThanOrEqual(1e-8 * (Math.abs(expected) + 1));
     }
   });
+
+  test("with the linearisations not kept (loaded again at each pass), the same numbers bit for bit", () => {
+    const { system, guess, fractions, trajectory } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+    const map = new PeriodicMap(system, resolveTolerances({}));
+    map.run(guess, fractions, trajectory, false);
+    const run = { start: guess, fractions, states: map.states, middles: map.middlePoints };
+    const kept = new TangentPeriod(system, run);
+    const loaded = new TangentPeriod(system, run, undefined, 0);
+    const v = Float64Array.from({ length: system.n }, (_, i) => Math.cos(3 * i));
+    const a = new Float64Array(system.n);
+    const b = new Float64Array(system.n);
+    kept.apply(v, 2e-6, a);
+    loaded.apply(v, 2e-6, b);
+    expect(Array.from(b)).toEqual(Array.from(a));
+    expect(a.some((x) => x !== 0)).toBe(true);
+  });
 });
