@@ -182,7 +182,7 @@ export interface OrbitSeed {
   /** The orbit's grid (step k is fractions[k]·T) and its states at the grid points. */
   readonly fractions: Float64Array;
   readonly states: readonly Float64Array[];
-  /** The shooting's Newton matrix at the orbit ((n + 1)², row-major) and the unknown its phase condition holds. */
+  /** The shooting's Newton matrix at the orbit ((n + 1)², row-major; empty when it was shot matrix-free, and a shooting seeded from it is matrix-free too) and the unknown its phase condition holds. */
   readonly matrix: Float64Array;
   readonly phase: number;
   /** How much a shooting step from `matrix` is expected to shrink the distance to the orbit, when known (see `ShootingJacobian`). */

@@ -20,10 +20,10 @@ export interface MapSensitivity {
 }
 
 /** TR-BDF2's stage fraction 2 − √2: both stages then share one Newton matrix G + a·C, a = 2/(γh). */
-const GAMMA = 2 - Math.SQRT2;
+export const GAMMA = 2 - Math.SQRT2;
 /** The second stage's weights of q(t+γh) and q(t) (Bank et al. 1985; Hosea & Shampine 1996). */
-const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
-const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
+export const STAGE_NOW = 1 / (GAMMA * (2 - GAMMA));
+export const STAGE_BEFORE = (1 - GAMMA) ** 2 / (GAMMA * (2 - GAMMA));
 /** Weights of xₖ₋₁, xₖ and xₖ₊₁ in the parabola through them at tₖ + γhₖ, for steps hₖ₋₁ = `before`, hₖ = `step`. */
 function stageWeights(before: number, step: number): readonly [number, number, number] {
   const t = GAMMA * step;
@@ -57,6 +57,10 @@ export class PeriodicMap {
   states: Float64Array[] = [];
   /** The last run's first-stage solutions, at tₖ + γhₖ (N of them). */
   private middles: Float64Array[] = [];
+  /** The last run's first-stage solutions (overwritten by the next run). */
+  get middlePoints(): readonly Float64Array[] {
+    return this.middles;
+  }
   private readonly system: MnaSystem;
   // The devices at xₖ, x_γ and xₖ₊₁: linearised when sensitivities ride along, values only otherwise.
   private readonly linearised: readonly [Linearisation, Linearisation, Linearisation];

@@ -204,6 +204,8 @@ export function refineOrbit(
     readonly giveUpAfter?: number;
     /** A Newton matrix to start the coarser grid's shooting from (a neighbouring orbit's). */
     readonly jacobian?: ShootingJacobian;
+    /** Both grids' shootings matrix-free or not (see `ShootingOptions.matrixFree`). */
+    readonly matrixFree?: boolean;
   } = {},
 ): RefinedOrbit {
   const options = {
@@ -213,6 +215,7 @@ export function refineOrbit(
     ...(settings.check ? { check: settings.check } : {}),
     ...(settings.maxIterations === undefined ? {} : { maxIterations: settings.maxIterations }),
     ...(settings.giveUpAfter === undefined ? {} : { giveUpAfter: settings.giveUpAfter }),
+    ...(settings.matrixFree === undefined ? {} : { matrixFree: settings.matrixFree }),
   };
   // The multipliers come from the run's own grid (a stability verdict and a rate, where the
   // grids differ in the fourth digit), at half the cost of the finer grid's.

@@ -4,6 +4,7 @@ import { LuSolver } from "../solver/lu.js";
 import { QUANTITIES } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import { matrixFreeFor, shootMatrixFree } from "./matrix-free-shooting.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
 import { trustStep, nextRadius } from "./trust-region.js";
 
@@ -33,7 +34,7 @@ export interface PeriodicOrbit {
  * handed from one grid to the next finer one, whose map barely differs.
  */
 export interface ShootingJacobian {
-  /** The matrix, (n + 1)² or n² row-major, unfactored (Broyden's update corrects it). */
+  /** The matrix, (n + 1)² or n² row-major, unfactored (Broyden's update corrects it); empty from a matrix-free shooting (a shooting given it goes matrix-free too). */
   readonly matrix: Float64Array;
   readonly phase: number;
   /** Its factorisation, when at hand (else it is factored on first use). */
@@ -72,6 +73,10 @@ export interface ShootingOptions {
   readonly sensitivities?: "when-needed" | "given";
   /** Called before each period is integrated; throws to stop (a run's limits). */
   readonly check?: () => void;
+  /** Newton–Krylov shooting without the dense Newton matrix (see `shootMatrixFree`). @defaultValue from `MATRIX_FREE_FROM` unknowns on */
+  readonly matrixFree?: boolean;
+  /** Matrix-free: the largest number of tangent passes per Newton step. @defaultValue 60 (`KRYLOV_PRODUCTS`) */
+  readonly krylovProducts?: number;
 }
 
 /** The map's inner Newton is held this far below the orbit's own tolerance, so the map is smooth enough to shoot on. */
@@ -80,7 +85,7 @@ const INNER_SHARE = 1e-2;
 const CHORD_CONTRACTION = 0.2;
 
 /** The map's Newton tolerances: a hundredth of the orbit's, relative and absolute. */
-function innerTolerances(base: Tolerances, relative: number): Tolerances {
+export function innerTolerances(base: Tolerances, relative: number): Tolerances {
   const inner: Record<string, number> = { ...base, newtonRelative: INNER_SHARE * relative };
   for (const q of Object.values(QUANTITIES)) inner[q.newton] = INNER_SHARE * base[q.newton];
   return inner as unknown as Tolerances;
@@ -103,6 +108,7 @@ function innerTolerances(base: Tolerances, relative: number): Tolerances {
  * from far away overshoot far. A step the radius cuts short gets the exact Jacobian at its end.
  */
 export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
+  if (matrixFreeFor(system.n, options)) return shootMatrixFree(system, guess, fractions, predictor, options);
   const relative = options.relative ?? 1e-9;
   const base = resolveTolerances(options.tolerances);
   const map = new PeriodicMap(system, innerTolerances(base, relative));
@@ -397,7 +403,7 @@ class ShootingMatrix {
  * The unknown the phase condition holds fixed: the charged state whose value changes fastest,
  * relative to its own scale, over the first step of the guessed period.
  */
-function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: Float64Array, floor: Float64Array): number {
+export function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: Float64Array, floor: Float64Array): number {
   let best = -1;
   let bestRate = -1;
   const first = trace[0]!;
