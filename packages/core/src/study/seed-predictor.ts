@@ -1,9 +1,9 @@
-import { EigenvalueDecomposition } from "ml-matrix";
 import { solvedColumns } from "../analyses/poles.js";
 import type { Circuit, ToleranceSpec } from "../circuit/circuit.js";
 import { isOnsetError } from "../circuit/diagnostic.js";
 import { isRunLimitError, type RunBudget } from "../analyses/limits.js";
 import { seedPeriod, type OrbitSeed } from "../analyses/steady.js";
+import { eigenvalues } from "../solver/eigenvalues.js";
 import { LuSolver } from "../solver/lu.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { steadyAnalysisOf } from "./steady-sample.js";
@@ -139,6 +139,6 @@ export function predictedStart(seed: OrbitSeed, predictor: SeedPredictor, drawn:
 
 /** The spectral radius of A⁻¹·E (A factored in `lu`, E row-major m×m). */
 function spectralRadius(lu: LuSolver, e: Float64Array, m: number): number {
-  const eig = new EigenvalueDecomposition(solvedColumns(lu, e, m));
-  return eig.realEigenvalues.reduce((r, re, k) => Math.max(r, Math.hypot(re, eig.imaginaryEigenvalues[k]!)), 0);
+  const { re, im } = eigenvalues(solvedColumns(lu, e, m), m);
+  return re.reduce((r, v, k) => Math.max(r, Math.hypot(v, im[k]!)), 0);
 }
