@@ -79,20 +79,22 @@ function hessenberg(h: Float64Array, n: number): void {
  */
 const MAX_SWEEPS = 30;
 
-/** The QR iteration's state between sweeps: the accumulated shift and the sweep's shift parameters. */
-interface Shift {
-  exshift: number;
-  x: number;
-  y: number;
-  w: number;
-}
+/**
+ * The QR iteration's state between sweeps, by index: the accumulated shift and the sweep's shift
+ * parameters x, y, w (doubles from the start: an object whose fields start as small integers
+ * changes shape when they turn fractional, and its readers get deoptimised).
+ */
+const EXSHIFT = 0;
+const X = 1;
+const Y = 2;
+const W = 3;
 
 /** The eigenvalues of the Hessenberg matrix H (destroyed) by the double-shift QR iteration (hqr). */
 function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Array): void {
   const eps = Number.EPSILON;
   let norm = 0;
   for (let i = 0; i < nn; i++) for (let j = Math.max(i - 1, 0); j < nn; j++) norm = norm + Math.abs(h[i * nn + j]!);
-  const shift: Shift = { exshift: 0, x: 0, y: 0, w: 0 };
+  const shift = new Float64Array(4);
   let n = nn - 1;
   let iter = 0;
   let sweeps = 0;
@@ -106,13 +108,13 @@ function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Arr
       l--;
     }
     if (l === n) {
-      h[n * nn + n] = h[n * nn + n]! + shift.exshift;
+      h[n * nn + n] = h[n * nn + n]! + shift[EXSHIFT]!;
       re[n] = h[n * nn + n]!;
       im[n] = 0;
       n--;
       iter = 0;
     } else if (l === n - 1) {
-      twoRoots(h, nn, n, shift.exshift, re, im);
+      twoRoots(h, nn, n, shift[EXSHIFT]!, re, im);
       n = n - 2;
       iter = 0;
     } else {
@@ -149,7 +151,7 @@ function twoRoots(h: Float64Array, nn: number, n: number, exshift: number, re: F
 }
 
 /** The sweep's shift: Wilkinson's from the trailing 2×2 block, or an exceptional one after 10 and 30 sweeps without deflation. */
-function shiftOf(h: Float64Array, nn: number, l: number, n: number, iter: number, shift: Shift): void {
+function shiftOf(h: Float64Array, nn: number, l: number, n: number, iter: number, shift: Float64Array): void {
   let x = h[n * nn + n]!;
   let y = 0;
   let w = 0;
@@ -158,7 +160,7 @@ function shiftOf(h: Float64Array, nn: number, l: number, n: number, iter: number
     w = h[n * nn + n - 1]! * h[(n - 1) * nn + n]!;
   }
   if (iter === 10) {
-    shift.exshift += x;
+    shift[EXSHIFT] += x;
     for (let i = 0; i <= n; i++) h[i * nn + i] = h[i * nn + i]! - x;
     const s = Math.abs(h[n * nn + n - 1]!) + Math.abs(h[(n - 1) * nn + n - 2]!);
     x = y = 0.75 * s;
@@ -172,20 +174,21 @@ function shiftOf(h: Float64Array, nn: number, l: number, n: number, iter: number
       if (y < x) s = -s;
       s = x - w / ((y - x) / 2 + s);
       for (let i = 0; i <= n; i++) h[i * nn + i] = h[i * nn + i]! - s;
-      shift.exshift += s;
+      shift[EXSHIFT] += s;
       x = y = w = 0.964;
     }
   }
-  shift.x = x;
-  shift.y = y;
-  shift.w = w;
+  shift[X] = x;
+  shift[Y] = y;
+  shift[W] = w;
 }
 
 /** One double-shift QR sweep over rows and columns l…n (Francis' step, by 3×3 Householder reflections). */
-function sweep(h: Float64Array, nn: number, l: number, n: number, shift: Shift): void {
+function sweep(h: Float64Array, nn: number, l: number, n: number, shift: Float64Array): void {
   const eps = Number.EPSILON;
-  let { x, y } = shift;
-  const w = shift.w;
+  let x = shift[X]!;
+  let y = shift[Y]!;
+  const w = shift[W]!;
   let p = 0;
   let q = 0;
   let r = 0;
