@@ -4,8 +4,9 @@
 // loaded machine), when the first sample was in, the samples per second over the second half, the
 // yield, the median frequency and a digest of every sample. POSTED=1: no portable builder (with
 // two workers or more, each builds its own samples otherwise; one worker is always sent them).
+// SAMPLES=file: the samples also written there as JSON (to compare two builds' figures).
 import { createHash } from "node:crypto";
-import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { runToleranceStudy, specCriteria, summarizeSamples } from "@onset/core";
 import { workerPool } from "@onset/core/node";
@@ -57,6 +58,7 @@ const others = [...threads].filter(([tid]) => tid !== String(process.pid)).map((
 const workers = others.slice(0, Number(jobs) - 1);
 const rest = others.slice(Number(jobs) - 1).reduce((a, b) => a + b, 0);
 const summary = summarizeSamples(samples, criteria);
+if (process.env.SAMPLES) writeFileSync(process.env.SAMPLES, JSON.stringify(samples));
 console.log(
   JSON.stringify({
     measure,

@@ -45,6 +45,8 @@ export { dominantPair, pencilPoles } from "./analyses/poles.js";
 export { PhasorSolver } from "./analyses/response.js";
 export { noiseLevel, noiseShape } from "./analyses/noise-level.js";
 export { ComplexLu } from "./solver/complex-lu.js";
+export { eigenvalues } from "./solver/eigenvalues.js";
+export type { Eigenvalues } from "./solver/eigenvalues.js";
 
 // Periodic steady state (shooting)
 export { PeriodicMap } from "./steady/periodic-map.js";

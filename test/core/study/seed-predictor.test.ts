@@ -59,6 +59,15 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     expect(predictedStart(seed, predictor, half).contraction / full).toBeCloseTo(0.25, 10);
   });
 
+  test("the expected contraction adds the parts' own remainders: Σ ρᵢ·(dᵢ/σᵢ)²", () => {
+    const [a, b] = predictor.parts;
+    const nominals = Object.fromEntries(nominal.tolerances.map((t) => [t.target, t.nominal]));
+    const one = predictedStart(seed, predictor, { ...nominals, [a!.target]: a!.nominal + 2 * a!.move }).contraction;
+    expect(one).toBeCloseTo(4 * a!.contraction, 12);
+    const two = predictedStart(seed, predictor, { ...nominals, [a!.target]: a!.nominal + 2 * a!.move, [b!.target]: b!.nominal - b!.move }).contraction;
+    expect(two).toBeCloseTo(4 * a!.contraction + b!.contraction, 12);
+  });
+
   test("a value whose moved circuit has other unknowns gets no slope, and the contraction is then unknown", () => {
     const other = seedPredictor((o) => (Object.keys(o).length > 0 ? { ...nominal, parts: nominal.parts.slice(0, -1) } : nominal), undefined, nominal.tolerances.slice(0, 1), seed, { budget: new RunBudget() });
     expect(other.parts).toEqual([]);

@@ -1,7 +1,7 @@
 import { checkCircuit, checkOptions } from "../circuit/arguments.js";
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import type { Circuit, PolesAnalysis } from "../circuit/circuit.js";
 import { simulationError } from "../circuit/diagnostic.js";
+import { eigenvalues } from "../solver/eigenvalues.js";
 import { LuSolver } from "../solver/lu.js";
 import { NewtonSolver } from "../solver/newton.js";
 import { buildSystem } from "../solver/system.js";
@@ -37,14 +37,14 @@ export interface PolesResult {
 /** Eigenvalues μ smaller than this fraction of the largest belong to algebraic unknowns (s = ∞). */
 const INFINITE_POLE = 1e-12;
 
-/** A⁻¹·B as a matrix, A factored in `lu`, B row-major n×n: solved column by column. */
-export function solvedColumns(lu: LuSolver, b: Float64Array, n: number): Matrix {
-  const a = new Matrix(n, n);
+/** A⁻¹·B (row-major n×n), A factored in `lu`, B row-major n×n: solved column by column. */
+export function solvedColumns(lu: LuSolver, b: Float64Array, n: number): Float64Array {
+  const a = new Float64Array(n * n);
   const column = new Float64Array(n);
   for (let j = 0; j < n; j++) {
     for (let i = 0; i < n; i++) column[i] = b[i * n + j]!;
     lu.solve(column, column);
-    for (let i = 0; i < n; i++) a.set(i, j, column[i]!);
+    for (let i = 0; i < n; i++) a[i * n + j] = column[i]!;
   }
   return a;
 }
@@ -72,9 +72,7 @@ export function pencilPoles(ss: SmallSignal): Pole[] {
     for (let i = 0; i < n * n; i++) shifted[i] = G[i]! + shift * C[i]!;
     if (!lu.factor(shifted)) throw simulationError("singular-pencil", "the linearised circuit is singular at every frequency tried");
   }
-  const eig = new EigenvalueDecomposition(solvedColumns(lu, C, n));
-  const re = eig.realEigenvalues;
-  const im = eig.imaginaryEigenvalues;
+  const { re, im } = eigenvalues(solvedColumns(lu, C, n), n);
   let largest = 0;
   for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(re[k]!, im[k]!));
   const poles: Pole[] = [];
