@@ -75,3 +75,17 @@ describe("seedPredictor: the nominal's orbit moved towards each sample", () => {
     expect(predictedStart(seed, other, drawSample(nominal.tolerances, 2026, 0, "normal")).contraction).toBe(Infinity);
   });
 });
+
+describe("seedPredictor on a seed shot matrix-free (no Newton matrix)", () => {
+  test("no slopes are taken (no circuit is built), and each sample starts at the seed, matrix-free", () => {
+    const seed = { ...steadySeed(nominal, analysis)!, matrix: new Float64Array(0) };
+    const refuse = (): Circuit => {
+      throw new Error("a matrix-free seed needs no moved circuits");
+    };
+    const predictor = seedPredictor(refuse, undefined, nominal.tolerances, seed, { budget: new RunBudget() });
+    expect(predictor.parts).toEqual([]);
+    const start = predictedStart(seed, predictor, { [nominal.tolerances[0]!.target]: nominal.tolerances[0]!.nominal * 1.01 });
+    expect(start.matrix.length).toBe(0);
+    expect(Array.from(start.x)).toEqual(Array.from(seed.x));
+  });
+});

@@ -1,5 +1,5 @@
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
+import { eigenvalues } from "../solver/eigenvalues.js";
 import { LuSolver } from "../solver/lu.js";
 import { QUANTITIES } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
@@ -421,10 +421,8 @@ export function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], 
 
 /** Eigenvalues of the monodromy matrix dx_N/dx₀, largest magnitude first. */
 function floquetMultipliers(s: MapSensitivity, n: number): Multiplier[] {
-  const monodromy = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let c = 0; c < n; c++) monodromy.set(i, c, s.x[i * s.columns + c]!);
-  const eig = new EigenvalueDecomposition(monodromy);
-  return eig.realEigenvalues
-    .map((re, k) => ({ re, im: eig.imaginaryEigenvalues[k]! }))
-    .sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
+  const monodromy = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let c = 0; c < n; c++) monodromy[i * n + c] = s.x[i * s.columns + c]!;
+  const { re, im } = eigenvalues(monodromy, n);
+  return Array.from(re, (v, k) => ({ re: v, im: im[k]! })).sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
 }

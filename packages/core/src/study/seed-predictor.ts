@@ -65,6 +65,9 @@ export function seedPredictor(
   options: { readonly tolerances?: Partial<Tolerances>; readonly budget: RunBudget },
 ): SeedPredictor {
   const none = { matrix: seed.matrix, parts: [], partial: true };
+  // A seed shot matrix-free has no Newton matrix to move (its samples shoot matrix-free from it):
+  // the slopes would cost dense (n + 1)-column periods, O(n³) a step, on a circuit that large.
+  if (seed.matrix.length === 0) return none;
   const nominal = build({ ...fixed });
   const analysis = steadyAnalysisOf(nominal);
   if (!analysis) return none;
