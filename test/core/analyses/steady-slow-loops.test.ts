@@ -5,6 +5,7 @@
 import { describe, expect, test } from "vitest";
 import { runSteady } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
+import { JFET_FAST_DETECTOR } from "../../e2e/support/steady-circuits.js";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
 const wien = (R: string, C: string) => `resistor R1 o s ${R}
@@ -68,20 +69,7 @@ describe("a JFET loop whose 4.7 µF detector over-corrects for longer than the d
   // orbit; the oscillation stays silent for thousands of periods while it bleeds back (time
   // constant about 1 s). The default wait (34 × cycles= periods) is too short: the answer says so
   // and how to wait longer; with cycles=1000 the orbit is found.
-  const source = `resistor R1 o s 3.16k
-capacitor C1 s p 10n
-resistor R2 p gnd 3.16k
-capacitor C2 p gnd 10n
-opamp U1 p n o preset=general rails=(-12, 12)
-resistor Rf o n 15k
-resistor Rs n d 5.6k
-jfet J1 d g gnd idss=5m pinchoff=-2
-resistor Ra d g 330k
-resistor Rc c g 330k
-diode D1 c o
-capacitor Cfil c gnd 4.7u
-resistor Rb c gnd 470k
-`;
+  const source = JFET_FAST_DETECTOR.replace("Cfil c gnd 47n", "Cfil c gnd 4.7u");
   const circuit = elaborate(loadProgram("slow-detector.onset", source).program, {}).circuit!;
   const probe = { kind: "node", node: "o" } as const;
   test("at the defaults: no orbit, with the wait its slowest time constant would want and how to give it", () => {

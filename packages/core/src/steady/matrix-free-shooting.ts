@@ -4,7 +4,7 @@ import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances } from "../solver/tolerances.js";
 import { gmres, orthogonalise, type KrylovModel } from "./gmres.js";
 import { PeriodicMap, type PeriodStart } from "./periodic-map.js";
-import { innerTolerances, phaseUnknown, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
+import { innerTolerances, periodResidual, phaseUnknown, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
 import { TangentPeriod } from "./tangent-period.js";
 import { nextRadius, trustStep } from "./trust-region.js";
 
@@ -122,13 +122,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
       continue;
     }
     states = map.states;
-    let mismatch = 0;
-    let square = 0;
-    for (let i = 0; i < n; i++) {
-      residual[i] = end[i]! - x0[i]!;
-      mismatch = Math.max(mismatch, Math.abs(residual[i]!) / scale[i]!);
-      square += (residual[i]! / scale[i]!) ** 2;
-    }
+    const { mismatch, square } = periodResidual(end, x0, scale, residual);
     if (iteration === 1) first = mismatch;
     else best = Math.min(best, mismatch);
     if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {

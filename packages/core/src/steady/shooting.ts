@@ -84,6 +84,21 @@ const INNER_SHARE = 1e-2;
 /** A chord iteration that shrinks the mismatch less than this much per period gets a fresh Jacobian. */
 const CHORD_CONTRACTION = 0.2;
 
+/**
+ * x_N − x₀ into the residual's first n entries, with its largest entry and its squared norm in
+ * units of the unknowns' tolerances (`scale`).
+ */
+export function periodResidual(end: Float64Array, x0: Float64Array, scale: Float64Array, residual: Float64Array): { readonly mismatch: number; readonly square: number } {
+  let mismatch = 0;
+  let square = 0;
+  for (let i = 0; i < x0.length; i++) {
+    residual[i] = end[i]! - x0[i]!;
+    mismatch = Math.max(mismatch, Math.abs(residual[i]!) / scale[i]!);
+    square += (residual[i]! / scale[i]!) ** 2;
+  }
+  return { mismatch, square };
+}
+
 /** The map's Newton tolerances: a hundredth of the orbit's, relative and absolute. */
 export function innerTolerances(base: Tolerances, relative: number): Tolerances {
   const inner: Record<string, number> = { ...base, newtonRelative: INNER_SHARE * relative };
@@ -183,13 +198,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       continue;
     }
     states = map.states;
-    let mismatch = 0;
-    let square = 0;
-    for (let i = 0; i < n; i++) {
-      residual[i] = end.x[i]! - x0[i]!;
-      mismatch = Math.max(mismatch, Math.abs(residual[i]!) / scale[i]!);
-      square += (residual[i]! / scale[i]!) ** 2;
-    }
+    const { mismatch, square } = periodResidual(end.x, x0, scale, residual);
     if (options.autonomous) residual[n] = 0;
     if (iteration === 1) first = mismatch;
     else best = Math.min(best, mismatch);
