@@ -37,6 +37,7 @@ describe("runSteady on an LC tank held by an ideal clip (mathematics: the tank's
     const poles = runPoles(c, { kind: "poles" });
     expect(poles.starts).toBe(true);
     const r = runSteady(c, steady());
+    expect(r.shooting).toBe("dense");
     expect(r.found).toBe(true);
     expect(r.kind).toBe("autonomous");
     expect(Math.abs(r.frequency! / poles.frequency! - 1)).toBeLessThan(1e-5);

@@ -83,6 +83,7 @@ describe("the steady analysis of a large ladder-network oscillator (matrix-free 
     const startup = runStartup(c, { kind: "startup", probe, until: "auto" });
     const steady = runSteady(c, { kind: "steady", probe });
     expect(steady.found).toBe(true);
+    expect(steady.shooting).toBe("matrix-free");
     expect(Math.abs(steady.frequency! / startup.frequency! - 1)).toBeLessThan(5e-4);
   });
 });

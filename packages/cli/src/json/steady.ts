@@ -25,6 +25,7 @@ export function steadyJson(r: SteadyResult): Json {
     harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),
     iterations: r.iterations && [...r.iterations],
     points: r.points && [...r.points],
+    shooting: r.shooting,
     multipliers: r.multipliers.map((m) => ({ re: m.re, im: m.im, magnitude: Math.hypot(m.re, m.im) })),
     stability: s ? { verdict: s.verdict, largest: s.largest ? Math.hypot(s.largest.re, s.largest.im) : null, rate: s.rate, cyclesToSettle: s.cyclesToSettle } : null,
     predicted: { ...r.predicted },

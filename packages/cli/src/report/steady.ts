@@ -59,7 +59,7 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
     ]),
   );
   lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
-  lines.push("", "  stability (Floquet multipliers, the trivial one left out)");
+  lines.push("", `  stability (Floquet multipliers, the trivial one left out${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
   const listed = r.multipliers.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
   const more = r.multipliers.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
   const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none (one state)"]];
@@ -78,7 +78,7 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   const t = r.transient.solver;
   lines.push(
     "",
-    p.dim(`  found from ${startText(r)}; Newton ${r.iterations![0]} + ${r.iterations![1]} periods on ${r.points![0]} and ${r.points![1]} points per period, extrapolated (± bounds the numerical error)`),
+    p.dim(`  found from ${startText(r)}; Newton ${r.iterations![0]} + ${r.iterations![1]} periods${r.shooting === "matrix-free" ? " (matrix-free: GMRES on tangent passes)" : ""} on ${r.points![0]} and ${r.points![1]} points per period, extrapolated (± bounds the numerical error)`),
     p.dim(`  solver (transient): ${t.accepted} steps, ${t.rejected} rejected, ${t.newtonIterations} Newton iterations, largest step ${si(r.transient.maxStep, "s", 3)}`),
   );
   for (const w of r.warnings) lines.push(p.yellow(`  warning: ${w.message}`), p.dim(`    hint: ${w.hint}`));

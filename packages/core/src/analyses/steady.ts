@@ -134,6 +134,12 @@ export interface SteadyResult {
   /** Grid points per period on the two grids. */
   readonly points: readonly [number, number] | null;
   /**
+   * How the shooting's Newton steps were solved: `dense`, from the map's sensitivities (the
+   * multipliers are all n eigenvalues), or `matrix-free`, by GMRES on tangent passes (from 60
+   * unknowns; the multipliers are the dominant ones only, Ritz values of an Arnoldi run).
+   */
+  readonly shooting: "dense" | "matrix-free" | null;
+  /**
    * The non-trivial Floquet multipliers, largest magnitude first: the eigenvalues of the map's
    * derivative on the transient's own grid (the coarser; the halved grid's differ by O(h²), in
    * the fourth digit), taken at the orbit or at a period within two tolerances of it.
@@ -579,6 +585,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
     numericalError: null,
     iterations: null,
     points: null,
+    shooting: null,
     multipliers: [],
     stability: null,
     waveform: { time: new Float64Array(0), values: new Float64Array(0) },
@@ -624,6 +631,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     numericalError: c.singleGrid ? null : toneless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
     iterations: orbit.iterations,
     points: orbit.points,
+    shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
     multipliers,
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
