@@ -5,7 +5,8 @@
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, test } from "vitest";
-import { drawSample, runSteady, steadyAnalysisOf, steadySeed } from "@onset/core";
+import { drawSample, RunBudget, runSteady, steadyAnalysisOf, steadySeed } from "@onset/core";
+import { predictedStart, seedPredictor } from "@onset/core/engine";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 
 const file = join(import.meta.dirname, "..", "..", "..", "examples", "bridge-excitation.onset");
@@ -51,5 +52,32 @@ describe("steadySeed: samples shot from the nominal's orbit", () => {
     const dead = elaborate(program, { overrides: { "P1.at": 0 } }).circuit!;
     const r = runSteady(dead, analysis, { singleGrid: true, seed });
     expect(r.found).toBe(false);
+  });
+});
+
+describe("a seeded sample's multipliers predicted from its predicted Newton matrix", () => {
+  const seed = steadySeed(nominal, analysis)!;
+  const build = (overrides: Readonly<Record<string, number>>) => elaborate(program, { overrides }).circuit!;
+  const predictor = seedPredictor(build, undefined, nominal.tolerances, seed, { budget: new RunBudget() });
+  test.each([0, 1, 2, 3])("sample %d: the exact multipliers' verdict, the largest within 0.15 of theirs, no more periods", (index) => {
+    const drawn = drawSample(nominal.tolerances, 2026, index, "normal");
+    const circuit = build(drawn);
+    const options = { singleGrid: true, predictStartup: false, seed: { ...seed, ...predictedStart(seed, predictor, drawn) } } as const;
+    const exact = runSteady(circuit, analysis, options);
+    const predicted = runSteady(circuit, analysis, { ...options, predictedMultipliers: true });
+    expect(predicted.stability!.verdict).toBe(exact.stability!.verdict);
+    // Source: the exact multipliers, the eigenvalues of the map's sensitivities at the sample's orbit.
+    const largest = (r: typeof exact) => Math.hypot(r.stability!.largest!.re, r.stability!.largest!.im);
+    expect(Math.abs(largest(predicted) - largest(exact))).toBeLessThan(0.15);
+    expect(predicted.iterations![0]).toBeLessThanOrEqual(exact.iterations![0]);
+    expect(Math.abs(predicted.frequency! / exact.frequency! - 1)).toBeLessThan(1e-5);
+  });
+
+  test("a raw seed (no predicted matrix, its contraction unknown) keeps the exact multipliers", () => {
+    const circuit = build(drawSample(nominal.tolerances, 2026, 0, "normal"));
+    const options = { singleGrid: true, predictStartup: false, seed } as const;
+    const exact = runSteady(circuit, analysis, options);
+    const predicted = runSteady(circuit, analysis, { ...options, predictedMultipliers: true });
+    expect(predicted.multipliers).toEqual(exact.multipliers);
   });
 });

@@ -173,6 +173,12 @@ export interface SteadyOptions extends RunOptions {
    */
   readonly seed?: OrbitSeed;
   /**
+   * A seeded shooting's multipliers may be the seed's Newton matrix's own when they leave the
+   * verdict beyond doubt (see `ShootingOptions.predictedMultipliers`): a study's sample, which
+   * reports only its verdict, then spends no period on sensitivities. Default false.
+   */
+  readonly predictedMultipliers?: boolean;
+  /**
    * The growing mode's first kick: its largest node's swing as a share of the amplifiers' half
    * output range (default 1, see `KICK_SHARE`). The orbit found does not depend on it (a test
    * checks two kicks against each other); it only moves the transient before the shooting.
@@ -306,7 +312,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
   };
   if (options.seed && options.seed.x.length === system.n) {
-    const shot = shoot(context, () => seededStart(options.seed!), true, { maxIterations: EARLY_ITERATIONS });
+    const shot = shoot(context, () => seededStart(options.seed!), true, { maxIterations: EARLY_ITERATIONS, predictedMultipliers: options.predictedMultipliers ?? false });
     if (typeof shot !== "string") return orbitFound(shot, idle().transient);
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
@@ -491,7 +497,7 @@ function seededStart(seed: OrbitSeed): ShootingStart {
  * The orbit refined by shooting from `start` (see `refineOrbit`), with the Floquet multipliers;
  * the reason when no orbit is found, or when the shooting only found the rest point.
  */
-function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter"> = {}, reshot = false): ShotOrbit | string {
+function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limits: Pick<ShootingOptions, "maxIterations" | "giveUpAfter" | "predictedMultipliers"> = {}, reshot = false): ShotOrbit | string {
   try {
     const { guess, fractions, trajectory, jacobian, merged = 1 } = start();
     const period = guess.period;
