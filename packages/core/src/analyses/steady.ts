@@ -165,6 +165,8 @@ export interface SteadyOptions extends RunOptions {
   readonly singleGrid?: boolean;
   /** Fill in the result's waveform (default true; a study's sample has no use for it). */
   readonly waveform?: boolean;
+  /** Check the parts' operating points along the orbit (the `implausible-operation` warnings; default true; a study's sample reports no warnings). */
+  readonly operatingCheck?: boolean;
   /**
    * A neighbouring circuit's orbit (a study's nominal, see {@link steadySeed}) to shoot from
    * before anything else: a sample whose parts moved by their tolerances lies a few Newton
@@ -267,7 +269,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     warnings: defaultWarnings(circuit),
   };
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
-  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, ...(onOrbit ? { onOrbit } : {}) };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, operatingCheck: options.operatingCheck ?? true, ...(onOrbit ? { onOrbit } : {}) };
 
   const noisy = circuit.parts.find((p) => (p.kind === "vsource" || p.kind === "isource") && p.options.wave === "noise" && !Number.isFinite(p.options.stop));
   if (noisy) {
@@ -389,6 +391,7 @@ interface Context {
   readonly read: ProbeReader;
   readonly singleGrid: boolean;
   readonly waveform: boolean;
+  readonly operatingCheck: boolean;
   /** Told of the orbit a result is built from. */
   readonly onOrbit?: (orbit: RefinedOrbit) => void;
 }
@@ -617,7 +620,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   const times = orbitTimes(orbit.orbit);
   const { states, start } = orbit.orbit;
   const at = times.map((t) => start.t0 + t);
-  const implausible = implausibleOnOrbit(c.system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic);
+  const implausible = c.operatingCheck ? implausibleOnOrbit(c.system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic) : [];
   const toneless = common.kind === "driven" && fundamentalAbsent(orbit.harmonics);
   return {
     analysis: "steady",

@@ -78,6 +78,7 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       predictStartup: criteria.some((c) => c.metric === "startup"),
       singleGrid: true,
       waveform: false,
+      operatingCheck: false,
       predictedMultipliers: true,
       ...(settings.seed ? { seed: start ? { ...settings.seed, ...start } : settings.seed } : {}),
     });
