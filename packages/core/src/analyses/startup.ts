@@ -125,9 +125,9 @@ export interface StartupResult extends StartupMetrics {
  * pair. A pencil singular at every frequency tried (`singular-pencil`) has none, and the run goes
  * on without it; any other error is a fault and propagates.
  */
-export function linearPrediction(ss: SmallSignal): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
+export function linearPrediction(ss: SmallSignal, check?: () => void): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
   try {
-    const poles = pencilPoles(ss);
+    const poles = pencilPoles(ss, check);
     return { poles, pole: dominantPair(poles), ok: true };
   } catch (error) {
     if (!isOnsetError(error) || error.diagnostic.code !== "singular-pencil") throw error;
@@ -173,7 +173,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const ambient = (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
   const plain = buildSystem(circuit, options.extraParts, { ambient });
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
-  const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x));
+  const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;

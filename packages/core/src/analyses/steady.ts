@@ -240,9 +240,9 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
   let poles: Pole[] = [];
   try {
-    poles = pencilPoles(linearize(system, bias.x));
+    poles = pencilPoles(linearize(system, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   } catch (error) {
-    if (!isOnsetError(error)) throw error;
+    if (!isOnsetError(error) || isRunLimitError(error)) throw error;
   }
   budget.check("after the bias point and poles", analysis.span);
   const pole = dominantPair(poles);
