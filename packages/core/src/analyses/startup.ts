@@ -187,7 +187,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
 
   // The noise level the tool's own excitation leaves at the probe, through the linearised circuit.
   // (A frequency where the circuit is singular is left out of its integral, so it does not throw.)
-  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles) : 0;
+  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles, () => budget.check("during the noise level at the probe", analysis.span)) : 0;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);

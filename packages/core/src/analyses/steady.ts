@@ -570,7 +570,8 @@ function predictedStartup(c: Context, x: Float64Array, poles: readonly Pole[], p
   const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal" };
   const setup = excitationSetup(c.circuit, c.system, thermal, "thermal", pole.imag / (2 * Math.PI));
   if (setup.generators.length === 0) return null;
-  const rms = noiseLevel(linearize(c.system, x), probeWeights(c.system, c.analysis.probe, x), setup.generators, setup.bank.corner, poles);
+  const check = () => c.budget.check("during the predicted start-up's noise level", c.analysis.span);
+  const rms = noiseLevel(linearize(c.system, x), probeWeights(c.system, c.analysis.probe, x), setup.generators, setup.bank.corner, poles, check);
   const k = Math.SQRT2 * rms;
   return k > 0 && STARTUP_FRACTION * amplitude > k ? Math.log((STARTUP_FRACTION * amplitude) / k) / pole.real : null;
 }
