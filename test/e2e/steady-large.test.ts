@@ -71,6 +71,22 @@ describe("steady past the matrix-free threshold, against the settled start-up ru
   });
 });
 
+describe("studies of a 66-unknown circuit measured by steady", () => {
+  test("tolerance … measure=steady: the same results file on one and two workers, every sample settled near the nominal orbit", async () => {
+    const text = bufferedLagChain(20, "steady probe=o\ntolerance runs=4 measure=steady").replace("param R = 10k", "param R = 10k±1% each").replace("param C = 10n", "param C = 10n±2% each");
+    ws.write("study.onset", text);
+    const one = await ws.run(["run", "study.onset", "--json", "--jobs", "1"]);
+    const two = await ws.run(["run", "study.onset", "--json", "--jobs", "2"]);
+    expect([one.status, two.status]).toEqual([0, 0]);
+    expect(two.stdout).toBe(one.stdout);
+    const study = (JSON.parse(one.stdout) as { results: { summary: { verdicts: Record<string, number>; percentiles: { frequency: { min: number; max: number } } } }[] }).results[0]!.summary;
+    expect(study.verdicts).toEqual({ settled: 4 });
+    // 1 % and 2 % parts move a lag chain's frequency by about a percent (the nominal orbit: 251.7 Hz)
+    expect(study.percentiles.frequency.min).toBeGreaterThan(245);
+    expect(study.percentiles.frequency.max).toBeLessThan(258);
+  });
+});
+
 describe("the time limit on a large circuit", () => {
   test("--time-limit stops a 910-unknown ladder's steady analysis inside the poles' dense passes, placed at the analysis", async () => {
     ws.write("ladder.onset", resistiveLadder(900, "steady probe=o"));
