@@ -254,7 +254,7 @@ describe("start-up seeds and excitations honour the limits", () => {
     };
     await expect(runCircuitInParallel(circuit, { limits: { signal: controller.signal }, pool: aborting })).rejects.toMatchObject({
       limit: "signal",
-      diagnostic: { code: "aborted", message: "the run was aborted after the bias point and poles" },
+      diagnostic: { code: "aborted", message: "the run was aborted during the bias point's poles" },
     });
   });
 

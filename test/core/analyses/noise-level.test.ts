@@ -33,6 +33,25 @@ describe("noise level at a probe, linearised (Johnson 1928, Nyquist 1928: therma
     expect(Math.abs(rms / Math.sqrt((BOLTZMANN * kelvin) / C) - 1)).toBeLessThan(0.01);
   });
 
+  test("noiseLevel(…, check) calls the run's limits at every frequency, changes nothing, and stops where the check throws", () => {
+    const C = 10e-9;
+    const R = 47e3;
+    const parts = Array.from({ length: 20 }, (_, k) => [part("resistor", `R${k}`, [`a${k}`, "gnd"], R), part("capacitor", `C${k}`, [`a${k}`, "gnd"], C)]).flat();
+    const system = buildSystem(circuit(parts));
+    const bias = solveBias(system, new NewtonSolver(system, DEFAULT_TOLERANCES));
+    const ss = linearize(system, bias.x);
+    const generators = system.devices.flatMap((d) => d.noise?.(kelvin) ?? []);
+    const args = [ss, probeWeights(system, node("a3"), bias.x), generators, 1000 / (2 * Math.PI * R * C), pencilPoles(ss)] as const;
+    let calls = 0;
+    const rms = noiseLevel(...args, () => void calls++);
+    expect(rms).toBe(noiseLevel(...args));
+    expect(calls).toBeGreaterThan(50);
+    const stop = new Error("limit");
+    let seen = 0;
+    expect(() => noiseLevel(...args, () => { if (++seen === 3) throw stop; })).toThrow(stop);
+    expect(seen).toBe(3);
+  });
+
   test("a parallel R–L–C tank of Q ≈ 316: still kT/C (equipartition), the narrow resonance integrated within 1 %", () => {
     const R = 100e3;
     const L = 10e-3;

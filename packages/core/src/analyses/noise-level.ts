@@ -88,8 +88,10 @@ function frequencyGrid(corner: number, poles: readonly Pole[]): Float64Array {
  * poles lie in the right half-plane, |H(jω)| is still finite; the result is then the level its
  * mirror-image stable circuit would reach, which is also the level an exponentially growing
  * oscillation starts from (the variance ∫₀^∞ e^(−2σt)·N dt of the noise its mode collects).
+ * `check` (a run's limits) is called at every frequency: each costs O(n²) at least, seconds in
+ * all at a thousand unknowns.
  */
-export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: readonly NoiseGenerator[], corner: number, poles: readonly Pole[]): number {
+export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: readonly NoiseGenerator[], corner: number, poles: readonly Pole[], check?: () => void): number {
   const { n } = ss;
   if (generators.length === 0 || n === 0) return 0;
   const solve = n > DENSE_UNKNOWNS ? sparseAdjoint(ss) : denseAdjoint(ss);
@@ -99,6 +101,7 @@ export function noiseLevel(ss: SmallSignal, probe: ProbeWeights, generators: rea
   const grid = frequencyGrid(corner, poles);
   const power = new Float64Array(grid.length);
   for (let k = 0; k < grid.length; k++) {
+    check?.();
     const f = grid[k]!;
     const omega = 2 * Math.PI * f;
     for (let i = 0; i < n; i++) rate[i] = omega * probe.rate[i]!;

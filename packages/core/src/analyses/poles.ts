@@ -38,10 +38,11 @@ export interface PolesResult {
 const INFINITE_POLE = 1e-12;
 
 /** A⁻¹·B (row-major n×n), A factored in `lu`, B row-major n×n: solved column by column. */
-export function solvedColumns(lu: LuSolver, b: Float64Array, n: number): Float64Array {
+export function solvedColumns(lu: LuSolver, b: Float64Array, n: number, check?: () => void): Float64Array {
   const a = new Float64Array(n * n);
   const column = new Float64Array(n);
   for (let j = 0; j < n; j++) {
+    if (check && (j & 15) === 0) check();
     for (let i = 0; i < n; i++) column[i] = b[i * n + j]!;
     lu.solve(column, column);
     for (let i = 0; i < n; i++) a[i * n + j] = column[i]!;
@@ -53,9 +54,10 @@ export function solvedColumns(lu: LuSolver, b: Float64Array, n: number): Float64
  * Natural frequencies of the pencil G + s·C with C singular. With G nonsingular (it is the
  * bias point's Jacobian), G·v = −s·C·v becomes the standard problem (G⁻¹C)·v = μ·v with
  * s = −1/μ; the algebraic unknowns give μ = 0 (poles at infinity) and are dropped. When G is
- * singular the pencil is shifted, (G + σC)⁻¹C·v = μ·v with s = σ − 1/μ.
+ * singular the pencil is shifted, (G + σC)⁻¹C·v = μ·v with s = σ − 1/μ. `check` (a run's
+ * limits) is called along the O(n³) passes, which take seconds at a thousand unknowns.
  */
-export function pencilPoles(ss: SmallSignal): Pole[] {
+export function pencilPoles(ss: SmallSignal, check?: () => void): Pole[] {
   const { n, G, C } = ss;
   if (n === 0) return [];
   const lu = new LuSolver(n);
@@ -72,7 +74,7 @@ export function pencilPoles(ss: SmallSignal): Pole[] {
     for (let i = 0; i < n * n; i++) shifted[i] = G[i]! + shift * C[i]!;
     if (!lu.factor(shifted)) throw simulationError("singular-pencil", "the linearised circuit is singular at every frequency tried");
   }
-  const { re, im } = eigenvalues(solvedColumns(lu, C, n), n);
+  const { re, im } = eigenvalues(solvedColumns(lu, C, n, check), n, check);
   let largest = 0;
   for (let k = 0; k < n; k++) largest = Math.max(largest, Math.hypot(re[k]!, im[k]!));
   const poles: Pole[] = [];
@@ -112,7 +114,7 @@ export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: Ru
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   budget.check("after the bias point");
-  const poles = pencilPoles(linearize(system, bias.x));
+  const poles = pencilPoles(linearize(system, bias.x), () => budget.check("during the poles"));
   const dominant = dominantPair(poles);
   return {
     analysis: "poles",

@@ -125,9 +125,9 @@ export interface StartupResult extends StartupMetrics {
  * pair. A pencil singular at every frequency tried (`singular-pencil`) has none, and the run goes
  * on without it; any other error is a fault and propagates.
  */
-export function linearPrediction(ss: SmallSignal): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
+export function linearPrediction(ss: SmallSignal, check?: () => void): { poles: readonly Pole[]; pole: Pole | null; ok: boolean } {
   try {
-    const poles = pencilPoles(ss);
+    const poles = pencilPoles(ss, check);
     return { poles, pole: dominantPair(poles), ok: true };
   } catch (error) {
     if (!isOnsetError(error) || error.diagnostic.code !== "singular-pencil") throw error;
@@ -173,7 +173,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const ambient = (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
   const plain = buildSystem(circuit, options.extraParts, { ambient });
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
-  const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x));
+  const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
   const period = 1 / f0;
@@ -187,7 +187,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
 
   // The noise level the tool's own excitation leaves at the probe, through the linearised circuit.
   // (A frequency where the circuit is singular is left out of its integral, so it does not throw.)
-  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles) : 0;
+  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles, () => budget.check("during the noise level at the probe", analysis.span)) : 0;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);

@@ -254,9 +254,9 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
   let poles: Pole[] = [];
   try {
-    poles = pencilPoles(linearize(system, bias.x));
+    poles = pencilPoles(linearize(system, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   } catch (error) {
-    if (!isOnsetError(error)) throw error;
+    if (!isOnsetError(error) || isRunLimitError(error)) throw error;
   }
   budget.check("after the bias point and poles", analysis.span);
   const pole = dominantPair(poles);
@@ -345,8 +345,13 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     // swing steady while the loop's slow state still moves) costs no string of failed shootings.
     let earliest = 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest);
+      const where = stepFailure(() => approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), share !== SMALL_KICK_SHARE, analysis);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
+      if (typeof where === "string") {
+        diedOut = true;
+        why = `no periodic orbit: started in its growing mode, the transient stopped (${where}), and from a small start`;
+        continue;
+      }
       if (where.kind === "died-out") {
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
@@ -380,6 +385,23 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // from=poles shoots after every few periods whatever the swing does; a slow loop's may still bounce.
   const instead = from === "poles" && why.startsWith("no periodic orbit found") ? `; from=poles shoots every ${batch} periods whether or not the swing has levelled off — from=startup (the default) waits for it` : "";
   return noOrbit({ ...idle(), transient }, `${why}${instead}`);
+}
+
+/**
+ * Runs a stretch of the approach. The large kick puts the charged unknowns where the circuit
+ * never goes by itself (a slew-limited follower's pole node far from its input), and the time
+ * step can fail there at once: `retry` then gives the reason, so the small start is tried. A
+ * failure otherwise is placed at the analysis, as the transient it stopped belongs to it.
+ */
+function stepFailure<T>(run: () => T, retry: boolean, analysis: SteadyAnalysis): T | string {
+  try {
+    return run();
+  } catch (error) {
+    if (!isOnsetError(error) || error.diagnostic.stage !== "simulation" || isRunLimitError(error)) throw error;
+    if (retry) return error.message;
+    const { span = analysis.span, hint, notes } = error.diagnostic;
+    throw simulationError(error.diagnostic.code, `${error.message} during the steady state's transient`, { ...(span ? { span } : {}), ...(hint ? { hint } : {}), ...(notes ? { notes } : {}) });
+  }
 }
 
 interface Context {
@@ -563,7 +585,8 @@ function predictedStartup(c: Context, x: Float64Array, poles: readonly Pole[], p
   const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal" };
   const setup = excitationSetup(c.circuit, c.system, thermal, "thermal", pole.imag / (2 * Math.PI));
   if (setup.generators.length === 0) return null;
-  const rms = noiseLevel(linearize(c.system, x), probeWeights(c.system, c.analysis.probe, x), setup.generators, setup.bank.corner, poles);
+  const check = () => c.budget.check("during the predicted start-up's noise level", c.analysis.span);
+  const rms = noiseLevel(linearize(c.system, x), probeWeights(c.system, c.analysis.probe, x), setup.generators, setup.bank.corner, poles, check);
   const k = Math.SQRT2 * rms;
   return k > 0 && STARTUP_FRACTION * amplitude > k ? Math.log((STARTUP_FRACTION * amplitude) / k) / pole.real : null;
 }

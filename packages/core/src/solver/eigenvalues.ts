@@ -21,16 +21,16 @@ export interface Eigenvalues {
  * samples). A symmetric matrix goes to the library (its own route, tred2/tql2). Unlike the
  * library, the iteration is bounded: `MAX_SWEEPS` sweeps per eigenvalue, then an error.
  */
-export function eigenvalues(a: Float64Array, n: number): Eigenvalues {
+export function eigenvalues(a: Float64Array, n: number, check?: () => void): Eigenvalues {
   if (isSymmetric(a, n)) {
     const eig = new EigenvalueDecomposition(new Matrix(Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n)))));
     return { re: Float64Array.from(eig.realEigenvalues), im: Float64Array.from(eig.imaginaryEigenvalues) };
   }
   const h = Float64Array.from(a);
-  hessenberg(h, n);
+  hessenberg(h, n, check);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
-  shiftedQr(h, n, re, im);
+  shiftedQr(h, n, re, im, check);
   return { re, im };
 }
 
@@ -40,10 +40,11 @@ function isSymmetric(a: Float64Array, n: number): boolean {
 }
 
 /** H in place to upper Hessenberg form by Householder similarity transformations (orthes). */
-function hessenberg(h: Float64Array, n: number): void {
+function hessenberg(h: Float64Array, n: number, check?: () => void): void {
   const high = n - 1;
   const ort = new Float64Array(n);
   for (let m = 1; m <= high - 1; m++) {
+    if (check && (m & CHECK_EVERY) === 0) check();
     let scale = 0;
     for (let i = m; i <= high; i++) scale = scale + Math.abs(h[i * n + m - 1]!);
     if (scale === 0) continue;
@@ -85,12 +86,18 @@ const MAX_SWEEPS = 30;
  * changes shape when they turn fractional, and its readers get deoptimised).
  */
 const EXSHIFT = 0;
+/**
+ * The caller's `check` (a run's limits) is called every 16 columns of the reduction and every 16
+ * QR sweeps: each costs O(n²), so at some thousand unknowns a pass takes seconds.
+ */
+const CHECK_EVERY = 15;
+
 const X = 1;
 const Y = 2;
 const W = 3;
 
 /** The eigenvalues of the Hessenberg matrix H (destroyed) by the double-shift QR iteration (hqr). */
-function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Array): void {
+function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Array, check?: () => void): void {
   const eps = Number.EPSILON;
   let norm = 0;
   for (let i = 0; i < nn; i++) for (let j = Math.max(i - 1, 0); j < nn; j++) norm = norm + Math.abs(h[i * nn + j]!);
@@ -118,6 +125,7 @@ function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Arr
       n = n - 2;
       iter = 0;
     } else {
+      if (check && (sweeps & CHECK_EVERY) === 0) check();
       if (++sweeps > MAX_SWEEPS * nn) throw simulationError("eigenvalues-not-converged", `the eigenvalues of a ${nn}×${nn} matrix did not converge in ${MAX_SWEEPS * nn} QR sweeps`);
       shiftOf(h, nn, l, n, iter, shift);
       iter = iter + 1;
