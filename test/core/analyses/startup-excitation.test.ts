@@ -282,3 +282,20 @@ describe("every outcome classified", () => {
     expect(run(wien(), "o").warnings).toEqual([]);
   });
 });
+
+describe("a driven signal whose own excitation noise keeps its envelope moving", () => {
+  // 1 mV at 2 kHz into 1 MΩ and 100 pF: about 0.62 mV at the probe, with the resistor's thermal
+  // noise about 6 µV rms there (√(kT/C) ≈ 6.4 µV, mathematics: the equipartition of an RC), 1 %
+  // of the swing — ten times what a settled envelope may move per cycle.
+  const parts = [
+    part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 1e-3, freq: 2e3 }),
+    part("resistor", "R1", ["in", "o"], 1e6),
+    part("capacitor", "C1", ["o", "gnd"], 100e-12),
+  ];
+  test("the bound's hint names the noise's share of the amplitude and what to run instead, not a slow loop", () => {
+    const r = run(parts, "o", { settleWithin: 0.1 });
+    expect(r.verdict).toBe("unsettled");
+    const bound = r.warnings.find((w) => w.code === "not-settled-within")!;
+    expect(bound.hint).toMatch(/^the excitation's noise at the probe \(6\.\d+ µV rms\) is 1 % of the amplitude.*kick=none.*steady analysis/);
+  });
+});

@@ -3,7 +3,7 @@ import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.j
 import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
-import { formatQuantity } from "../metrics/format.js";
+import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
 import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
@@ -242,7 +242,11 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
     }
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) warnings.push(boundWarning(analysis, bound - searchFrom, period));
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) {
+      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still.
+      const noisy = metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
+      warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));
+    }
   } else {
     stepper.advance(analysis.until);
     metrics = measure();
@@ -300,7 +304,7 @@ function mayRestart(metrics: StartupMetrics, now: number): boolean {
 }
 
 /** The warning of an `until=auto` run that reached its bound before it settled, at `settle-within=` or the analysis. */
-function boundWarning(analysis: StartupAnalysis, bound: number, period: number): Diagnostic {
+function boundWarning(analysis: StartupAnalysis, bound: number, period: number, noisy: { readonly rms: number; readonly unit: QuantityUnit; readonly share: number } | null): Diagnostic {
   const span = analysis.settleWithinSpan ?? analysis.span;
   const given = analysis.settleWithin !== undefined;
   return {
@@ -309,9 +313,14 @@ function boundWarning(analysis: StartupAnalysis, bound: number, period: number):
     code: "not-settled-within",
     message: `until=auto stopped at ${formatQuantity(bound, "s")} (${given ? "settle-within=" : `the default bound of ${AUTO_MAX_CYCLES} predicted cycles`}) before the oscillation settled`,
     ...(span ? { span } : {}),
-    hint: `a slow amplitude loop can need longer: raise settle-within= (now ${formatQuantity(bound, "s")}, about ${Math.round(bound / period)} cycles), or see the report's suggestion`,
+    hint: noisy
+      ? `the excitation's noise at the probe (${formatQuantity(noisy.rms, noisy.unit)} rms) is ${formatPercent(noisy.share)} of the amplitude, more than a settled envelope may move per cycle, so waiting longer does not help: kick=none measures a driven circuit without it, and a steady analysis gives the noiseless orbit`
+      : `a slow amplitude loop can need longer: raise settle-within= (now ${formatQuantity(bound, "s")}, about ${Math.round(bound / period)} cycles), or see the report's suggestion`,
   };
 }
+
+/** Noise at the probe above this share of the amplitude keeps the envelope from settling (the settled tolerance, 0.1 %/cycle). */
+const NOISY_SHARE = 1e-3;
 
 /**
  * Outcomes the probe waveform alone cannot name: a record without oscillation whose amplifier
