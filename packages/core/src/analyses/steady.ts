@@ -16,6 +16,7 @@ import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type Numeri
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
+import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
@@ -78,13 +79,6 @@ const RECOVERY_BATCHES = 34;
 /** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
 const BACK_OFF = 2;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
-/** A source's frequency within this fraction of an integer multiple of the common frequency shares its period. */
-const COMMON_PERIOD = 1e-9;
-/**
- * The common period is looked for up to this many periods of the lowest source (1 kHz and
- * 1.5 kHz share 2 ms, two of 1 kHz's): the orbit's grid, and so the shooting's cost, grows with it.
- */
-const MOST_COMMON_MULTIPLE = 64;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
 const COLLAPSED = 100;
 /** Fraction of the amplitude at which the start-up time is counted (the start-up metric's own). */
@@ -455,20 +449,6 @@ function polesVerdict(pole: Pole | null): string {
   return startsFrom(pole)
     ? `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`
     : `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
-}
-
-/**
- * The shortest period every source repeats within: 1/f₀ for the largest f₀ = lowest/k
- * (k ≤ MOST_COMMON_MULTIPLE) of which every source's frequency is a whole multiple; null when
- * there is none (frequencies not in a ratio of small whole numbers).
- */
-function commonPeriod(drives: readonly number[]): number | null {
-  const lowest = Math.min(...drives);
-  for (let k = 1; k <= MOST_COMMON_MULTIPLE; k++) {
-    const common = lowest / k;
-    if (drives.every((d) => Math.abs(d / common - Math.round(d / common)) <= COMMON_PERIOD * (d / common))) return 1 / common;
-  }
-  return null;
 }
 
 /**
