@@ -50,7 +50,7 @@ describe("run limits", () => {
 
   test("bad limits are usage errors naming the choices", async () => {
     const unknown = await ws.run(["run", "long.onset", "--limit", "stepz=10"]);
-    expect([unknown.status, unknown.stderr]).toEqual([2, "error: --limit: unknown limit 'stepz' (did you mean 'steps'?)\nhint: limits: source-size, include-depth, source-files, diagnostics, use-depth, parts, expression-depth, operators, parameter-depth, steps, simulated-time, sweep-points, runs, study-runs, stored-points\n"]);
+    expect([unknown.status, unknown.stderr]).toEqual([2, "error: --limit: unknown limit 'stepz' (did you mean 'steps'?)\nhint: limits: source-size, include-depth, source-files, diagnostics, use-depth, parts, expression-depth, operators, parameter-depth, steps, simulated-time, sweep-points, runs, study-runs, stored-points, dense-unknowns\n"]);
     const time = await ws.run(["run", "long.onset", "--time-limit", "soon"]);
     expect([time.status, time.stderr]).toEqual([2, "error: --time-limit: 'soon' is not a time above 0\nhint: write seconds, for example 10, 500m or 2.5s\n"]);
     const count = await ws.run(["run", "long.onset", "--limit", "steps=-1"]);

@@ -8,7 +8,9 @@ import {
   RunLimitError,
   runCircuit,
   runCircuitInParallel,
+  runPoles,
   runStartup,
+  runSteady,
   runSweep,
   runToleranceStudy,
   runTransient,
@@ -18,6 +20,7 @@ import {
   type RunLimits,
   type StartupResult,
 } from "@onset/core";
+import { buildSystem } from "@onset/core/engine";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { thrownBy } from "../../support/thrown.js";
 import { DIODE_WIEN_SOURCE } from "../../support/circuits.js";
@@ -284,5 +287,34 @@ describe("limits are checked at the door", () => {
         }
       }),
     );
+  });
+});
+
+describe("maxDenseUnknowns", () => {
+  const wien = build(WIEN);
+  const n = 4;
+  test("a start-up, steady or poles analysis of more unknowns than the limit is refused before its poles, naming the unknowns and the matrices' size", () => {
+    const unknowns = buildSystem(wien).n;
+    expect(unknowns).toBeGreaterThan(n);
+    const limits = { maxDenseUnknowns: n };
+    const probe = { kind: "node", node: "o" } as const;
+    for (const run of [
+      () => runStartup(wien, { kind: "startup", probe, until: "auto" }, { limits }),
+      () => runSteady(wien, { kind: "steady", probe }, { limits }),
+      () => runPoles(wien, { kind: "poles" }, { limits }),
+    ]) {
+      const e = limitOf(run);
+      expect(e.diagnostic.code).toBe("dense-limit");
+      expect(e.limit).toBe("maxDenseUnknowns");
+      expect(e.value).toBe(n);
+      expect(e.reached).toBe(unknowns);
+      expect(e.diagnostic.message).toMatch(new RegExp(`for a circuit of ${unknowns} unknowns would need dense ${unknowns} × ${unknowns} matrices \\(under 1 MB each\\), more than the dense-unknowns limit of ${n}; not started`));
+      expect(e.diagnostic.hint).toMatch(/--limit dense-unknowns=N/);
+    }
+  });
+  test("at the limit the analysis runs (the default, 4000, is far above the examples)", () => {
+    const r = runStartup(wien, { kind: "startup", probe: { kind: "node", node: "o" }, until: "auto" }, { limits: { maxDenseUnknowns: 1000 } });
+    expect(r.verdict).toBe("settled");
+    expect(new RunBudget().maxDenseUnknowns).toBe(4000);
   });
 });

@@ -66,6 +66,14 @@ export interface RunLimits {
    * @defaultValue 2 000 000 (16 MB)
    */
   readonly maxStoredPoints?: number;
+  /**
+   * Unknowns of a circuit whose analyses at the bias point are dense (n × n matrices: the poles,
+   * and with them every start-up, steady and poles analysis; memory grows as n², about 1.8 GB at
+   * 6000 unknowns, and time as n³): above it such an analysis is refused before it allocates them.
+   * A transient is sparse and has no such limit.
+   * @defaultValue 4000
+   */
+  readonly maxDenseUnknowns?: number;
 }
 
 /** The default of each counted limit (the others are off unless given). */
@@ -75,6 +83,7 @@ export const RUN_LIMITS = {
   maxRuns: 100_000,
   maxStudyRuns: 1_000_000,
   maxStoredPoints: 2_000_000,
+  maxDenseUnknowns: 4000,
 } as const;
 
 /** The command-line name of each limit (`--limit NAME=VALUE`; the wall time is `--time-limit`). */
@@ -85,6 +94,7 @@ export const RUN_LIMIT_FLAGS = {
   maxRuns: "runs",
   maxStudyRuns: "study-runs",
   maxStoredPoints: "stored-points",
+  maxDenseUnknowns: "dense-unknowns",
 } as const;
 
 /** The name of a limit in {@link RunLimits}. */
@@ -100,6 +110,7 @@ export const LIMIT_CODES: Readonly<Record<LimitName, string>> = {
   maxRuns: "runs-limit",
   maxStudyRuns: "study-limit",
   maxStoredPoints: "stored-points-limit",
+  maxDenseUnknowns: "dense-limit",
 };
 
 /**
@@ -146,6 +157,7 @@ const RAISE: Readonly<Record<LimitName, string>> = {
   maxRuns: "raise the limit with --limit runs=N (API: limits.maxRuns), or run the study in shards (--shard k/n) of fewer runs each",
   maxStudyRuns: "raise the limit with --limit study-runs=N (API: limits.maxStudyRuns), or sweep fewer settings or draw fewer runs",
   maxStoredPoints: "raise the limit with --limit stored-points=N (API: limits.maxStoredPoints)",
+  maxDenseUnknowns: "raise the limit with --limit dense-unknowns=N (API: limits.maxDenseUnknowns): memory grows as the square of the unknowns, time as the cube; a transient analysis has no such limit",
 };
 
 /** A count as people read it: `10 000 000`, `1e+12`. */
@@ -194,6 +206,7 @@ function clockMs(): number {
 export interface WorkerLimits {
   readonly maxSteps: number;
   readonly maxStoredPoints: number;
+  readonly maxDenseUnknowns: number;
   readonly maxSimulatedTime: number;
   /** What was left of the wall time when the job was sent (s). */
   readonly maxWallTime: number;
@@ -218,6 +231,7 @@ export class RunBudget {
   readonly maxRuns: number;
   readonly maxStudyRuns: number;
   readonly maxStoredPoints: number;
+  readonly maxDenseUnknowns: number;
   readonly signal: AbortSignal | undefined;
   /** When the wall time runs out (ms on this thread's clock; another thread gets what is left). */
   private readonly deadline: number;
@@ -233,6 +247,7 @@ export class RunBudget {
     this.maxRuns = checked(limits, "maxRuns");
     this.maxStudyRuns = checked(limits, "maxStudyRuns");
     this.maxStoredPoints = checked(limits, "maxStoredPoints");
+    this.maxDenseUnknowns = checked(limits, "maxDenseUnknowns");
     if (limits.signal !== undefined && !(typeof limits.signal === "object" && limits.signal !== null && "aborted" in limits.signal)) {
       throw inputError("bad-limit", "limits.signal must be an AbortSignal");
     }
@@ -248,7 +263,7 @@ export class RunBudget {
 
   /** The limits as plain data for another thread, the wall time as what is left of it now. */
   forWorker(): WorkerLimits {
-    return { maxSteps: this.maxSteps, maxStoredPoints: this.maxStoredPoints, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
+    return { maxSteps: this.maxSteps, maxStoredPoints: this.maxStoredPoints, maxDenseUnknowns: this.maxDenseUnknowns, maxSimulatedTime: this.maxSimulatedTime, maxWallTime: Math.max(this.remaining(), 1e-9) };
   }
 
   /** True when the signal is aborted or the wall time has run out (cheap: no message is made). */
@@ -296,6 +311,23 @@ export class RunBudget {
         this.maxSteps,
         needed,
         `${what} until=${seconds(until)} with max-step=${seconds(maxStep)} needs at least ${count(needed)} steps, more than the step limit of ${count(this.maxSteps)}; it was not started`,
+        span,
+      );
+    }
+  }
+
+  /**
+   * Refuses up front an analysis that needs dense matrices of `unknowns` × `unknowns` (the
+   * bias point's poles) above the dense-unknowns limit; `what` names it ("the poles").
+   */
+  refuseDense(unknowns: number, what: string, span?: SourceSpan): void {
+    if (unknowns > this.maxDenseUnknowns) {
+      const megabytes = (8 * unknowns * unknowns) / 1e6;
+      throw limitError(
+        "maxDenseUnknowns",
+        this.maxDenseUnknowns,
+        unknowns,
+        `${what} for a circuit of ${count(unknowns)} unknowns would need dense ${count(unknowns)} × ${count(unknowns)} matrices (${megabytes < 1 ? "under 1" : count(megabytes)} MB each), more than the dense-unknowns limit of ${count(this.maxDenseUnknowns)}; not started`,
         span,
       );
     }

@@ -114,6 +114,7 @@ export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: Ru
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   budget.check("after the bias point");
+  budget.refuseDense(system.n, "the poles");
   const poles = pencilPoles(linearize(system, bias.x), () => budget.check("during the poles"));
   const dominant = dominantPair(poles);
   return {

@@ -173,6 +173,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const ambient = (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
   const plain = buildSystem(circuit, options.extraParts, { ambient });
   const bias = solveBias(plain, new NewtonSolver(plain, tolerances), tolerances);
+  budget.refuseDense(plain.n, "the start-up run's linear prediction (the bias point's poles)", analysis.span);
   const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   budget.check("after the bias point and poles");
   const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;

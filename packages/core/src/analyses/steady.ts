@@ -246,6 +246,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);
   const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
+  budget.refuseDense(system.n, "the steady analysis' start (the bias point's poles and growing mode)", analysis.span);
   let poles: Pole[] = [];
   try {
     poles = pencilPoles(linearize(system, bias.x), () => budget.check("during the bias point's poles", analysis.span));
