@@ -9,6 +9,7 @@ import {
   runCircuit,
   runCircuitInParallel,
   runPoles,
+  runResponse,
   runStartup,
   runSteady,
   runSweep,
@@ -311,6 +312,9 @@ describe("maxDenseUnknowns", () => {
       expect(e.diagnostic.message).toMatch(new RegExp(`for a circuit of ${unknowns} unknowns would need dense ${unknowns} × ${unknowns} matrices \\(under 1 MB each\\), more than the dense-unknowns limit of ${n}; not started`));
       expect(e.diagnostic.hint).toMatch(/--limit dense-unknowns=N/);
     }
+    // A response's real form is 2n × 2n.
+    const e = limitOf(() => runResponse(wien, { kind: "response", from: "Vx", to: probe }, { limits }));
+    expect(e.diagnostic.message).toMatch(new RegExp(`^the response for a circuit of ${unknowns} unknowns would need dense ${2 * unknowns} × ${2 * unknowns} matrices`));
   });
   test("at the limit the analysis runs (the default, 4000, is far above the examples)", () => {
     const r = runStartup(wien, { kind: "startup", probe: { kind: "node", node: "o" }, until: "auto" }, { limits: { maxDenseUnknowns: 1000 } });

@@ -68,7 +68,7 @@ export interface RunLimits {
   readonly maxStoredPoints?: number;
   /**
    * Unknowns of a circuit whose analyses at the bias point are dense (n × n matrices: the poles,
-   * and with them every start-up, steady and poles analysis; memory grows as n², about 1.8 GB at
+   * and with them every start-up, steady and poles analysis; a response's 2n × 2n real form; memory grows as n², about 1.8 GB at
    * 6000 unknowns, and time as n³): above it such an analysis is refused before it allocates them.
    * A transient is sparse and has no such limit.
    * @defaultValue 4000
@@ -317,17 +317,18 @@ export class RunBudget {
   }
 
   /**
-   * Refuses up front an analysis that needs dense matrices of `unknowns` × `unknowns` (the
-   * bias point's poles) above the dense-unknowns limit; `what` names it ("the poles").
+   * Refuses up front an analysis of a circuit of `unknowns` whose matrices are dense, `order` ×
+   * `order` (the bias point's poles: n × n; a response's real form: 2n × 2n), above the
+   * dense-unknowns limit; `what` names it ("the poles").
    */
-  refuseDense(unknowns: number, what: string, span?: SourceSpan): void {
+  refuseDense(unknowns: number, what: string, span?: SourceSpan, order = unknowns): void {
     if (unknowns > this.maxDenseUnknowns) {
-      const megabytes = (8 * unknowns * unknowns) / 1e6;
+      const megabytes = (8 * order * order) / 1e6;
       throw limitError(
         "maxDenseUnknowns",
         this.maxDenseUnknowns,
         unknowns,
-        `${what} for a circuit of ${count(unknowns)} unknowns would need dense ${count(unknowns)} × ${count(unknowns)} matrices (${megabytes < 1 ? "under 1" : count(megabytes)} MB each), more than the dense-unknowns limit of ${count(this.maxDenseUnknowns)}; not started`,
+        `${what} for a circuit of ${count(unknowns)} unknowns would need dense ${count(order)} × ${count(order)} matrices (${megabytes < 1 ? "under 1" : count(megabytes)} MB each), more than the dense-unknowns limit of ${count(this.maxDenseUnknowns)}; not started`,
         span,
       );
     }

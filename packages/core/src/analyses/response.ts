@@ -193,6 +193,7 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
   const system = buildSystem(circuit, options.extraParts);
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
+  budget.refuseDense(system.n, "the response", analysis.span, 2 * system.n);
   const ss = linearize(system, bias.x);
   const phasor = new PhasorSolver(ss, excitation(system, analysis.from), probeWeights(system, analysis.to));
   const start = analysis.start ?? RESPONSE_DEFAULTS.start;
