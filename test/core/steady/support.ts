@@ -39,29 +39,10 @@ export function settledPeriod(c: Circuit, kickNode: string, period: number, unti
 }
 
 /**
- * A ladder-network oscillator (bench/ladder-oscillator.mjs): an RC ladder of `sections` sections
- * (values varied over 7- and 5-section cycles) turns the phase by 180°, an inverting op-amp stage
- * of gain 40 the other 180°, and two diode pairs across three quarters of its feedback resistor
- * bring the gain down to 10 as the amplitude grows. sections + 11 unknowns.
+ * A ladder-network oscillator (bench/ladder-oscillator.mjs, shared with the matrix-free bench): an
+ * RC ladder of `sections` sections (values varied over 7- and 5-section cycles) turns the phase by
+ * 180°, an inverting op-amp stage of gain 40 the other 180°, and two diode pairs across three
+ * quarters of its feedback resistor bring the gain down to 10 as the amplitude grows.
+ * sections + 11 unknowns.
  */
-export function ladderOscillator(sections: number): Circuit {
-  const parts: PartSpec[] = [];
-  for (let k = 1; k <= sections; k++) {
-    parts.push(part("resistor", `R${k}`, [k === 1 ? "o" : `l${k - 1}`, `l${k}`], 100 * (1 + (k % 7) / 10)));
-    parts.push(part("capacitor", `C${k}`, [`l${k}`, "gnd"], 1e-9 * (1 + (k % 5) / 10)));
-  }
-  const diode = { saturation: 2.5e-9, emission: 1.8, series: 0.5, junction: 0 };
-  parts.push(
-    part("resistor", "Rin", [`l${sections}`, "n"], 1e6),
-    part("resistor", "Rf1", ["n", "f"], 10e6),
-    part("resistor", "Rf2", ["f", "o"], 30e6),
-    part("diode", "D1", ["f", "x1"], undefined, diode),
-    part("diode", "D2", ["x1", "o"], undefined, diode),
-    part("diode", "D3", ["o", "x2"], undefined, diode),
-    part("diode", "D4", ["x2", "f"], undefined, diode),
-    part("resistor", "Rp", ["p", "gnd"], 1e3),
-    part("opamp", "U1", ["p", "n", "o"], undefined, { gain: 200000, gbw: 1e6, slew: 5e5, rout: 75, rin: 2e6, headroom: 1.5, knee: 0.01, noise: 0, rails: [-12, 12], vos: 0 }),
-    part("capacitor", "Ckick", [`l${sections >> 1}`, "gnd"], 1e-12, { initial: 0.1 }),
-  );
-  return circuit(parts);
-}
+export { ladderOscillator } from "../../../bench/ladder-oscillator.mjs";

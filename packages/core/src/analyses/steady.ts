@@ -324,8 +324,8 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
   // The bias point's slowest decaying time constants, in periods, that a slow loop is given beyond the batches (see `RECOVERY`).
-  const slowWait = recoveryPeriods(poles, guessPeriod, RECOVERY_BATCHES * batch);
-  const wantedWait = recoveryPeriods(poles, guessPeriod, Infinity);
+  const wantedWait = recoveryPeriods(poles, guessPeriod);
+  const slowWait = Math.min(wantedWait, RECOVERY_BATCHES * batch);
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
@@ -417,13 +417,13 @@ type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from"
 
 /**
  * Periods the small start's swing may look died out before it counts as died out: `RECOVERY`
- * times the slowest decaying pole's time constant (a peak detector bleeding back down), at most
- * `most` periods.
+ * times the slowest decaying pole's time constant (a peak detector bleeding back down; the caller
+ * bounds it by `RECOVERY_BATCHES` batches).
  */
-function recoveryPeriods(poles: readonly Pole[], period: number, most: number): number {
+function recoveryPeriods(poles: readonly Pole[], period: number): number {
   let slowest = Infinity;
   for (const p of poles) if (p.real < 0) slowest = Math.min(slowest, -p.real);
-  return Number.isFinite(slowest) ? Math.min(most, Math.ceil(RECOVERY / slowest / period)) : 0;
+  return Number.isFinite(slowest) ? Math.ceil(RECOVERY / slowest / period) : 0;
 }
 
 /**
@@ -621,10 +621,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
         : "marginal: its largest multiplier lies on the unit circle";
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
   c.onOrbit?.(orbit);
-  const times = orbitTimes(orbit.orbit);
-  const { states, start } = orbit.orbit;
-  const at = times.map((t) => start.t0 + t);
-  const implausible = c.operatingCheck ? implausibleOnOrbit(c.system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic) : [];
+  const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
   const toneless = common.kind === "driven" && fundamentalAbsent(orbit.harmonics);
   return {
     analysis: "steady",
@@ -649,6 +646,14 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
   };
+}
+
+/** The `implausible-operation` warnings of the parts along the orbit (every point, at the sources' time). */
+function implausibleWarnings(system: MnaSystem, orbit: RefinedOrbit["orbit"]): Diagnostic[] {
+  const times = orbitTimes(orbit);
+  const { states, start } = orbit;
+  const at = times.map((t) => start.t0 + t);
+  return implausibleOnOrbit(system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic);
 }
 
 /** The note of a driven orbit whose sources' tones are all harmonics 2, 3, … of their common period: no fundamental, so no THD. */

@@ -1,10 +1,9 @@
 import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
-import { absoluteTolerances, resolveTolerances } from "../solver/tolerances.js";
 import { gmres, orthogonalise, type KrylovModel } from "./gmres.js";
-import { PeriodicMap, type PeriodStart } from "./periodic-map.js";
-import { innerTolerances, periodResidual, phaseUnknown, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
+import type { PeriodStart } from "./periodic-map.js";
+import { noHeadway, periodGone, periodResidual, refuseFarFirstStep, shootingSetup, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
 import { TangentPeriod } from "./tangent-period.js";
 import { nextRadius, trustStep } from "./trust-region.js";
 
@@ -57,21 +56,8 @@ export function matrixFreeFor(n: number, options: ShootingOptions): boolean {
  * trivial ≈ 1 included), not all n.
  */
 export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
-  const relative = options.relative ?? 1e-9;
-  const base = resolveTolerances(options.tolerances);
-  const map = new PeriodicMap(system, innerTolerances(base, relative));
-  const { n } = map;
+  const { relative, map, n, floor, peak, unknowns, phase, scale } = shootingSetup(system, guess, predictor, options);
   const { autonomous } = options;
-  const floor = absoluteTolerances(system.unknowns, base, "newton");
-  const peak = new Float64Array(n);
-  const trace = predictor ?? [guess.x];
-  for (const x of trace) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i]!, Math.abs(x[i]!));
-  map.solver.reference.set(peak);
-  const unknowns = n + (autonomous ? 1 : 0);
-  const phase = options.jacobian?.phase ?? (autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
-  const scale = new Float64Array(unknowns);
-  for (let i = 0; i < n; i++) scale[i] = relative * peak[i]! + floor[i]!;
-  if (autonomous) scale[n] = relative * guess.period;
   const maxProducts = options.krylovProducts ?? KRYLOV_PRODUCTS;
   const maxIterations = options.maxIterations ?? 25;
   const x0 = Float64Array.from(guess.x);
@@ -108,7 +94,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     }
     for (let i = 0; i < n; i++) x0[i] = from[i]! + step[i]! * scale[i]!;
     if (autonomous) T = from[n]! + step[n]! * scale[n]!;
-    if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
+    if (!(T > 0)) throw periodGone();
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
@@ -126,7 +112,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     if (iteration === 1) first = mismatch;
     else best = Math.min(best, mismatch);
     if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
-      throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+      throw noHeadway(iteration);
     }
     if (trial) {
       const ratio = (fromNorm ** 2 - square) / Math.max(fromNorm ** 2 - predicted, Number.MIN_VALUE);
@@ -156,14 +142,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
       const multipliers = options.multipliers ? ritzMultipliers(tangent, scale, Math.min(n, MULTIPLIER_STEPS), options.check) : [];
       return { start, fractions, states: map.states, iterations: iteration, mismatch, multipliers, jacobian: { matrix: new Float64Array(0), phase } };
     }
-    if (iteration === 1 && options.giveUpAfter !== undefined) {
-      if (autonomous && Math.abs(newton[n]! * scale[n]!) > FIRST_RADIUS * T) {
-        throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
-      }
-      for (let i = 0; i < n; i++) {
-        if (Math.abs(newton[i]! * scale[i]!) > peak[i]! + floor[i]!) throw simulationError("orbit-not-converged", "shooting's first step would move an unknown beyond its range over the period", { hint: "the start is too far from the orbit; run the start-up longer" });
-      }
-    }
+    if (iteration === 1 && options.giveUpAfter !== undefined) refuseFarFirstStep((i) => newton[i]! * scale[i]!, n, autonomous, T, peak, floor);
     let squareStep = 0;
     for (let i = 0; i < unknowns; i++) squareStep += newton[i]! ** 2;
     newtonLength = Math.sqrt(squareStep);

@@ -1,4 +1,4 @@
-import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
+import { isOnsetError, simulationError, type OnsetError } from "../circuit/diagnostic.js";
 import { eigenvalues } from "../solver/eigenvalues.js";
 import { LuSolver } from "../solver/lu.js";
 import { QUANTITIES } from "../solver/quantities.js";
@@ -6,6 +6,7 @@ import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { matrixFreeFor, shootMatrixFree } from "./matrix-free-shooting.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
+import { nonTrivialMultipliers } from "./stability.js";
 import { trustStep, nextRadius } from "./trust-region.js";
 
 /** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
@@ -108,8 +109,55 @@ export function periodResidual(end: Float64Array, x0: Float64Array, scale: Float
   return { mismatch, square };
 }
 
+/**
+ * What both shootings (dense and matrix-free) start from: the map, its inner Newton held to a
+ * hundredth of the orbit's tolerance and referred to each unknown's peak over the guessed period;
+ * the unknown the phase condition holds; and the scale of each unknown and of its residual, its
+ * tolerance (relative × peak + floor, and relative × T for the period), as the mismatch measures it.
+ */
+export function shootingSetup(system: MnaSystem, guess: PeriodStart, predictor: readonly Float64Array[] | undefined, options: ShootingOptions) {
+  const relative = options.relative ?? 1e-9;
+  const base = resolveTolerances(options.tolerances);
+  const map = new PeriodicMap(system, innerTolerances(base, relative));
+  const { n } = map;
+  const floor = absoluteTolerances(system.unknowns, base, "newton");
+  const peak = new Float64Array(n);
+  const trace = predictor ?? [guess.x];
+  for (const x of trace) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i]!, Math.abs(x[i]!));
+  map.solver.reference.set(peak);
+  const unknowns = n + (options.autonomous ? 1 : 0);
+  const phase = options.jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
+  const scale = new Float64Array(unknowns);
+  for (let i = 0; i < n; i++) scale[i] = relative * peak[i]! + floor[i]!;
+  if (options.autonomous) scale[n] = relative * guess.period;
+  return { relative, map, n, floor, peak, unknowns, phase, scale };
+}
+
+/**
+ * Gives up on a first Newton step that would move the period by more than a fifth, or an
+ * unknown by more than its peak over the period (out of the range it visited): the start is out
+ * of Newton's reach. `move(i)` is the step's change of unknown i (i = n: the period).
+ */
+export function refuseFarFirstStep(move: (i: number) => number, n: number, autonomous: boolean, T: number, peak: Float64Array, floor: Float64Array): void {
+  const hint = "the start is too far from the orbit; run the start-up longer";
+  if (autonomous && Math.abs(move(n)) > FIRST_RADIUS * T) throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint });
+  for (let i = 0; i < n; i++) {
+    if (Math.abs(move(i)) > peak[i]! + floor[i]!) throw simulationError("orbit-not-converged", "shooting's first step would move an unknown beyond its range over the period", { hint });
+  }
+}
+
+/** A shooting whose step took the period to zero or below. */
+export function periodGone(): OnsetError {
+  return simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
+}
+
+/** A shooting that gave up after `iterations` periods without headway (see `ShootingOptions.giveUpAfter`). */
+export function noHeadway(iterations: number): OnsetError {
+  return simulationError("orbit-not-converged", `shooting made no headway in ${iterations} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+}
+
 /** The map's Newton tolerances: a hundredth of the orbit's, relative and absolute. */
-export function innerTolerances(base: Tolerances, relative: number): Tolerances {
+function innerTolerances(base: Tolerances, relative: number): Tolerances {
   const inner: Record<string, number> = { ...base, newtonRelative: INNER_SHARE * relative };
   for (const q of Object.values(QUANTITIES)) inner[q.newton] = INNER_SHARE * base[q.newton];
   return inner as unknown as Tolerances;
@@ -133,26 +181,12 @@ export function innerTolerances(base: Tolerances, relative: number): Tolerances 
  */
 export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
   if (matrixFreeFor(system.n, options)) return shootMatrixFree(system, guess, fractions, predictor, options);
-  const relative = options.relative ?? 1e-9;
-  const base = resolveTolerances(options.tolerances);
-  const map = new PeriodicMap(system, innerTolerances(base, relative));
-  const { n } = map;
-  const floor = absoluteTolerances(system.unknowns, base, "newton");
-  const peak = new Float64Array(n);
-  const trace = predictor ?? [guess.x];
-  for (const x of trace) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i]!, Math.abs(x[i]!));
-  map.solver.reference.set(peak);
-  const unknowns = n + (options.autonomous ? 1 : 0);
-  const phase = options.jacobian?.phase ?? (options.autonomous ? phaseUnknown(system, trace, peak, floor) : -1);
+  const { relative, map, n, floor, peak, unknowns, phase, scale } = shootingSetup(system, guess, predictor, options);
   const newton = new ShootingMatrix(unknowns, phase, options.jacobian);
   // (Only from a matrix moved along every toleranced value: its expected contraction is then known.)
   const estimated = options.multipliers && options.predictedMultipliers && Number.isFinite(options.jacobian?.contraction) ? clearlyStable(options.jacobian!.matrix, unknowns, n, options.autonomous) : undefined;
   // Whether the multipliers need a period with sensitivities at (or near) the orbit.
   const exact = options.multipliers === true && estimated === undefined;
-  // The scale of each unknown (and of its residual): its tolerance, as the mismatch measures it.
-  const scale = new Float64Array(unknowns);
-  for (let i = 0; i < n; i++) scale[i] = relative * peak[i]! + floor[i]!;
-  if (options.autonomous) scale[n] = relative * guess.period;
   // The point the last step started from (x₀ and T), its residual, the step taken, and the Newton step there.
   const x0 = Float64Array.from(guess.x);
   let T = guess.period;
@@ -194,7 +228,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     ({ length, newtonLength, predicted } = trustStep(newton.factored().matrix, fromResidual, scale, full, radius, step));
     cut = newtonLength > radius;
     moveTo(1);
-    if (!(T > 0)) throw simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
+    if (!(T > 0)) throw periodGone();
   };
   for (let iteration = 1; iteration <= maxIterations; iteration++) {
     options.check?.();
@@ -217,7 +251,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     else best = Math.min(best, mismatch);
     // (So does one whose step the trust radius still cuts short after that many periods: the start is out of Newton's reach.)
     if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
-      throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+      throw noHeadway(iteration);
     }
     // How well the model predicted the step's reduction of ‖r̃‖² (the trust region's test).
     const ratio = trial ? (fromSquare - square) / Math.max(fromSquare - predicted, Number.MIN_VALUE) : 1;
@@ -282,14 +316,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     trial = true;
     // A first step that would move the period by more than a fifth, or an unknown by more than its peak
     // over the period (out of the range it visited), says the start is out of Newton's reach.
-    if (iteration === 1 && options.giveUpAfter !== undefined) {
-      if (options.autonomous && Math.abs(full[n]!) > FIRST_RADIUS * T) {
-        throw simulationError("orbit-not-converged", "shooting's first step would move the period by more than a fifth", { hint: "the start is too far from the orbit; run the start-up longer" });
-      }
-      for (let i = 0; i < n; i++) {
-        if (Math.abs(full[i]!) > peak[i]! + floor[i]!) throw simulationError("orbit-not-converged", "shooting's first step would move an unknown beyond its range over the period", { hint: "the start is too far from the orbit; run the start-up longer" });
-      }
-    }
+    if (iteration === 1 && options.giveUpAfter !== undefined) refuseFarFirstStep((i) => full[i]!, n, options.autonomous, T, peak, floor);
     stepWithin();
     // A step cut short by the trust radius lies where the map bends: its point gets the exact Jacobian (a secant update learns too little there, and a step rejected from one would cost a period to recompute it at the start).
     fresh = !contracted || last || cut;
@@ -345,11 +372,8 @@ function clearlyStable(matrix: Float64Array, unknowns: number, n: number, autono
     for (let c = 0; c < n; c++) monodromy[i * n + c] = matrix[i * unknowns + c]!;
     monodromy[i * n + i] += 1;
   }
-  const { re, im } = eigenvalues(monodromy, n);
-  const all = Array.from(re, (v, k) => ({ re: v, im: im[k]! })).sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
-  let trivial = -1;
-  if (autonomous) for (let k = 0; k < all.length; k++) if (trivial < 0 || Math.hypot(all[k]!.re - 1, all[k]!.im) < Math.hypot(all[trivial]!.re - 1, all[trivial]!.im)) trivial = k;
-  return all.every((m, k) => k === trivial || Math.hypot(m.re, m.im) <= PREDICTED_STABLE) ? all : undefined;
+  const all = largestFirst(monodromy, n);
+  return nonTrivialMultipliers(all, autonomous).every((m) => Math.hypot(m.re, m.im) <= PREDICTED_STABLE) ? all : undefined;
 }
 
 /** A step after an exact Jacobian this small (in tolerances) likely leaves one period to go. */
@@ -453,7 +477,7 @@ class ShootingMatrix {
  * The unknown the phase condition holds fixed: the charged state whose value changes fastest,
  * relative to its own scale, over the first step of the guessed period.
  */
-export function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: Float64Array, floor: Float64Array): number {
+function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: Float64Array, floor: Float64Array): number {
   let best = -1;
   let bestRate = -1;
   const first = trace[0]!;
@@ -473,6 +497,11 @@ export function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], 
 function floquetMultipliers(s: MapSensitivity, n: number): Multiplier[] {
   const monodromy = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let c = 0; c < n; c++) monodromy[i * n + c] = s.x[i * s.columns + c]!;
+  return largestFirst(monodromy, n);
+}
+
+/** The eigenvalues of a monodromy matrix (n × n, row-major), largest magnitude first. */
+function largestFirst(monodromy: Float64Array, n: number): Multiplier[] {
   const { re, im } = eigenvalues(monodromy, n);
   return Array.from(re, (v, k) => ({ re: v, im: im[k]! })).sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
 }
