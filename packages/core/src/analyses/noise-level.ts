@@ -2,7 +2,7 @@ import type { NoiseGenerator } from "../devices/device.js";
 import { LuSolver } from "../solver/lu.js";
 import { ComplexLu } from "../solver/complex-lu.js";
 import type { SmallSignal } from "./linearize.js";
-import { fillPhasorMatrix } from "./phasor-matrix.js";
+import { fillPhasorMatrix, phasorPattern } from "./phasor-matrix.js";
 import type { Pole } from "./poles.js";
 import type { ProbeWeights } from "./probes.js";
 
@@ -173,7 +173,7 @@ function sparseAdjoint(ss: SmallSignal): AdjointSolve {
   const { n } = ss;
   const n2 = 2 * n;
   const lu = new LuSolver(n2, { compile: false });
-  lu.setPattern(sparsityOf(ss));
+  lu.setPattern(phasorPattern(ss, true));
   const m = new Float64Array(n2 * n2);
   const rhs = new Float64Array(n2);
   const y = new Float64Array(n2);
@@ -187,24 +187,4 @@ function sparseAdjoint(ss: SmallSignal): AdjointSolve {
     yIm.set(y.subarray(n));
     return true;
   };
-}
-
-/** The nonzeros of the real form of (G + jωC)ᵀ, the same at every frequency. */
-function sparsityOf(ss: SmallSignal): Uint8Array {
-  const { n, G, C } = ss;
-  const n2 = 2 * n;
-  const pattern = new Uint8Array(n2 * n2);
-  for (let i = 0; i < n; i++) {
-    pattern[i * n2 + i] = 1;
-    pattern[(n + i) * n2 + n + i] = 1;
-    for (let j = 0; j < n; j++) {
-      if (G[j * n + i] !== 0 || C[j * n + i] !== 0) {
-        pattern[i * n2 + j] = 1;
-        pattern[i * n2 + n + j] = 1;
-        pattern[(n + i) * n2 + j] = 1;
-        pattern[(n + i) * n2 + n + j] = 1;
-      }
-    }
-  }
-  return pattern;
 }

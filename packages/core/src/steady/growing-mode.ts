@@ -1,5 +1,6 @@
 import type { SmallSignal } from "../analyses/linearize.js";
 import type { Pole } from "../analyses/poles.js";
+import { fillPhasorMatrix, phasorPattern } from "../analyses/phasor-matrix.js";
 import { LuSolver } from "../solver/lu.js";
 
 /**
@@ -36,23 +37,14 @@ export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
 
 /** The mode by inverse iteration at `shift` (relative to |s|) off the pole; undefined when the pencil does not factor there. */
 function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number): Float64Array | null | undefined {
-  const { n, G, C } = ss;
+  const { n, C } = ss;
   const m = 2 * n;
   const sigma = pole.real + shift * Math.hypot(pole.real, pole.imag, 1);
   const omega = pole.imag;
   const a = new Float64Array(m * m);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      const diagonal = G[i * n + j]! + sigma * C[i * n + j]!;
-      const off = omega * C[i * n + j]!;
-      a[i * m + j] = diagonal;
-      a[(i + n) * m + (j + n)] = diagonal;
-      a[i * m + (j + n)] = -off;
-      a[(i + n) * m + j] = off;
-    }
-  }
+  fillPhasorMatrix(ss, omega, a, false, sigma);
   const lu = new LuSolver(m, { compile: false });
-  if (n >= SPARSE_FROM) lu.setPattern(realFormPattern(ss));
+  if (n >= SPARSE_FROM) lu.setPattern(phasorPattern(ss, false));
   if (!lu.factor(a)) return undefined;
   // Start from every charged direction at once; C·y keeps the algebraic unknowns out of the right-hand side.
   let y = new Float64Array(m).fill(1);
@@ -83,23 +75,4 @@ function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number): Fl
   const c = y[top]! / size;
   const s = -y[top + n]! / size;
   return Float64Array.from({ length: n }, (_, i) => y[i]! * c - y[i + n]! * s);
-}
-
-/** The entries of [[G + σC, −ωC], [ωC, G + σC]] that may be nonzero (the diagonal always). */
-function realFormPattern(ss: SmallSignal): Uint8Array {
-  const { n, G, C } = ss;
-  const m = 2 * n;
-  const pattern = new Uint8Array(m * m);
-  for (let i = 0; i < n; i++) {
-    pattern[i * m + i] = 1;
-    pattern[(i + n) * m + i + n] = 1;
-    for (let j = 0; j < n; j++) {
-      if (G[i * n + j] === 0 && C[i * n + j] === 0) continue;
-      pattern[i * m + j] = 1;
-      pattern[(i + n) * m + j + n] = 1;
-      pattern[i * m + j + n] = 1;
-      pattern[(i + n) * m + j] = 1;
-    }
-  }
-  return pattern;
 }
