@@ -76,3 +76,27 @@ describe("a merged grid keeps the figures and their error bars honest (clipped W
     expect(Math.abs(merged.orbit.amplitude - all.orbit.amplitude)).toBeLessThan(merged.orbit.numericalError.amplitude + all.orbit.numericalError.amplitude);
   });
 });
+
+describe("an autonomous period's guess retimed by its seam (clipped Wien bridge, docs/references.md §2.4: DOP853/Radau at rtol 1e-10)", () => {
+  const fRef = 1580.7013;
+  const system = buildSystem(clippedWien(3.1));
+  const maxStep = 1 / fRef / 100;
+  const rest = new TransientStepper(system, { start: "bias", maxStep });
+  const x = Float64Array.from(rest.x);
+  x[system.nodeIndex.get("p")!] += 1e-2;
+  const run = new TransientStepper(system, { start: { t: 0, x }, maxStep });
+  run.advance(0.04);
+  const snapshot = run.snapshot();
+
+  test("a guess 0.5 % long or short comes back to within 0.1 % of the reference period (the seam's linear estimate leaves a second-order error)", () => {
+    for (const off of [1.005, 0.995]) {
+      const { guess } = recordPeriod(system, snapshot, off / fRef, maxStep, undefined, Infinity, true);
+      expect(Math.abs(guess.period * fRef - 1)).toBeLessThan(1e-3);
+    }
+  });
+
+  test("a guess 3 % off (beyond the 1 % the seam's linear estimate is trusted for), or one not retimed, is kept", () => {
+    expect(recordPeriod(system, snapshot, 1.03 / fRef, maxStep, undefined, Infinity, true).guess.period).toBe(1.03 / fRef);
+    expect(recordPeriod(system, snapshot, 1.005 / fRef, maxStep).guess.period).toBe(1.005 / fRef);
+  });
+});

@@ -7,7 +7,7 @@ import type { Harmonic } from "../metrics/spectrum.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
-import { absoluteTolerances, accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import { absoluteTolerances, accuracyTolerances, loosenedTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { OrbitApproach } from "../steady/approach.js";
 import { modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
@@ -43,6 +43,12 @@ const STEPS_PER_PERIOD = 100;
  * as finely as the orbit's grid, whose period is recorded at the grid's own steps.
  */
 const APPROACH_STEPS_PER_PERIOD = 25;
+/**
+ * …and its step control is this many times looser than the orbit's (3e-3 relative at the
+ * defaults): over a period's 25 steps that stays well within the 10 % per period at which the
+ * swing counts as levelled off (`FIRST_LEVEL`), and the shooting corrects what it leaves.
+ */
+const APPROACH_LOOSENING = 30;
 /** The orbit is found to within this fraction of the step control's relative accuracy (as the start-up's settled figures)… */
 const ORBIT_SHARE = 1e-2;
 /** …and a study's sample on one grid to within this one (its figures carry the grid's own error, some ten times larger). */
@@ -290,7 +296,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
-    const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep), false);
+    const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
     if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
@@ -320,6 +326,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   let periods = 0;
   let transient = { periods: 0, until: 0, maxStep, solver: emptyStats() };
   const approachStep = Math.max(maxStep, guessPeriod / APPROACH_STEPS_PER_PERIOD);
+  const approachTolerances = loosenedTolerances(tolerances, APPROACH_LOOSENING);
   // A large kick reaches the orbit of most circuits within a few periods; an amplitude loop it
   // overdrives (a peak detector charged far past its orbit) may stop oscillating for a while,
   // so a kick that dies out is tried again small, growing as the circuit would from noise.
@@ -327,7 +334,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   const wantedWait = recoveryPeriods(poles, guessPeriod);
   const slowWait = Math.min(wantedWait, RECOVERY_BATCHES * batch);
   for (const share of [kick, SMALL_KICK_SHARE]) {
-    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
+    const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
     let diedOut = false;
@@ -354,7 +361,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
       shots++;
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep), true, attempt < RETRIES ? EARLY_LIMITS : {});
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
       earliest = BACK_OFF * approach.periods;
@@ -368,7 +375,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
       } else if (where.levelled) {
-        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep), true);
+        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true);
         if (typeof shot !== "string") return orbitFound(shot, transient);
         why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
       }
@@ -481,9 +488,9 @@ interface ShootingStart {
 /** A shooting's orbit, with how many of the run's steps each point of its grid merges. */
 type ShotOrbit = RefinedOrbit & { readonly merged: number };
 
-/** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points). */
-function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number): ShootingStart {
-  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n));
+/** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points), `autonomous` retimed. */
+function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean): ShootingStart {
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous);
 }
 
 /** One turn of an orbit shot over `repeats` turns: a period of T/repeats recorded from its start. */
@@ -491,7 +498,7 @@ function oneTurn(c: Context, start: PeriodStart, repeats: number): ShootingStart
   const period = start.period / repeats;
   const maxStep = c.analysis.maxStep ?? period / STEPS_PER_PERIOD;
   const stepper = new TransientStepper(c.system, { start: { t: start.t0, x: start.x }, maxStep, tolerances: c.tolerances });
-  return recordedStart(c, stepper, period, maxStep);
+  return recordedStart(c, stepper, period, maxStep, true);
 }
 
 /** A seed's orbit as the start of a shooting. */

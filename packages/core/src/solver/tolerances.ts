@@ -82,6 +82,16 @@ export function resolveTolerances(given: Partial<Tolerances> = {}): Tolerances {
   };
 }
 
+/** The same settings with every truncation-error and Newton tolerance (relative and absolute) `factor` times as loose. */
+export function loosenedTolerances(tolerances: Tolerances, factor: number): Tolerances {
+  const scaled: Record<string, number> = { newtonRelative: factor * tolerances.newtonRelative, lteRelative: factor * tolerances.lteRelative };
+  for (const { newton, lte } of Object.values(QUANTITIES)) {
+    scaled[newton] = factor * tolerances[newton];
+    scaled[lte] = factor * tolerances[lte];
+  }
+  return resolveTolerances({ ...tolerances, ...scaled });
+}
+
 /**
  * The step-control settings of an analysis's `accuracy=` (relative) and `accuracy-floor=` (the
  * absolute floor of a voltage): every quantity's floor scales with the voltage's, keeping the

@@ -57,8 +57,10 @@ const MIN_ORBIT_POINTS = 256;
  * started (by rotating the period) where the state with the largest swing moves fastest, so
  * that the phase condition fixes a value that a shift in time changes most. A period of more
  * than `maxPoints` steps keeps every 2nd, 4th, … of them (`merged`), its last point included.
+ * With `retime` (an autonomous orbit, its period unknown) the guessed period is corrected by
+ * the recorded period's seam shift (see `seamShift`).
  */
-export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, period: number, maxStep: number, tolerances?: Partial<Tolerances>, maxPoints = Infinity) {
+export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, period: number, maxStep: number, tolerances?: Partial<Tolerances>, maxPoints = Infinity, retime = false) {
   const stepper = new TransientStepper(system, { start: snapshot, maxStep, ...(tolerances ? { tolerances } : {}) });
   let times: number[] = [];
   let states: Float64Array[] = [];
@@ -94,13 +96,49 @@ export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, perio
     states.splice(N - 1, 1);
     N--;
   }
+  const shift = retime ? seamShift(system, times, states) : 0;
   const start = fastestPoint(system, times, states);
   const rotated = (k: number) => (start + k) % N;
   const fractions = Float64Array.from({ length: N }, (_, k) => (times[rotated(k) + 1]! - times[rotated(k)]!) / period);
   const trajectory = Array.from({ length: N + 1 }, (_, k) => states[rotated(k)]!);
-  const guess: PeriodStart = { t0: times[start]!, x: Float64Array.from(states[start]!), period };
+  const guess: PeriodStart = { t0: times[start]!, x: Float64Array.from(states[start]!), period: period + shift };
   return { guess, fractions, trajectory, merged };
 }
+
+/**
+ * How much later than the recorded period's end the orbit would close: −(x(T) − x(0))/ẋ(T) for
+ * the charged state moving fastest at the end for its swing, its rate from the last step (a
+ * transient's measured period is off by the approach's coarser steps and its slow drift; the
+ * shooting's first step then starts that much nearer). Zero when it exceeds `RETIME_REACH` of
+ * the period: so far from closing, the swing is not yet near the orbit (a clipped swing whose
+ * amplitude loop still moves), and the linear estimate would mislead.
+ */
+function seamShift(system: MnaSystem, times: readonly number[], states: readonly Float64Array[]): number {
+  const N = times.length - 1;
+  if (N < 2) return 0;
+  const period = times[N]! - times[0]!;
+  const h = times[N]! - times[N - 1]!;
+  let fastest = 0;
+  let shift = 0;
+  for (const j of system.stateColumns) {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const x of states) {
+      lo = Math.min(lo, x[j]!);
+      hi = Math.max(hi, x[j]!);
+    }
+    const rate = (states[N]![j]! - states[N - 1]![j]!) / h;
+    const speed = (Math.abs(rate) * period) / (hi - lo);
+    if (speed > fastest) {
+      fastest = speed;
+      shift = -(states[N]![j]! - states[0]![j]!) / rate;
+    }
+  }
+  return Math.abs(shift) < RETIME_REACH * period ? shift : 0;
+}
+
+/** A seam shift beyond this fraction of the period is not corrected (see `seamShift`). */
+const RETIME_REACH = 0.01;
 
 /** The recorded point (not the last) where the charged state with the largest swing changes fastest. */
 function fastestPoint(system: MnaSystem, times: readonly number[], states: readonly Float64Array[]): number {
