@@ -4,7 +4,8 @@
 // process and of a warm run (best of the repeats), the steady analysis' work, and the settled
 // figures of both; then the bridge source's tolerance study with measure=steady on 1 and 2
 // workers against the same study with start-up runs; then its trimmer sweep (bench/steady-sweep.mjs)
-// with measure=steady on 1 and 2 workers against the same sweep of start-up runs.
+// with measure=steady on 1 and 2 workers against the same sweep of start-up runs. Beside each
+// example's ratios, their ceiling (bench/steady-ceiling.mjs).
 import { execFileSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { printTable } from "../table.mjs";
@@ -31,6 +32,7 @@ export async function run() {
   for (const name of [...EXAMPLES, ...SLOW_LOOPS]) {
     const startup = measure("steady-measure.mjs", [name, "startup", String(REPEATS)]);
     const steady = measure("steady-measure.mjs", [name, "steady", String(REPEATS)]);
+    const ceiling = measure("steady-ceiling.mjs", [name]).ceiling;
     cold.push(startup.coldMs / steady.coldMs);
     warm.push(startup.warmMs / steady.warmMs);
     rows.push({
@@ -43,6 +45,7 @@ export async function run() {
       "warm ratio": `${(startup.warmMs / steady.warmMs).toFixed(1)}×`,
       "warm runs": `${startup.repeats}/${steady.repeats}`,
       target: SLOW_LOOPS.includes(name) ? "30×" : "10×",
+      ceiling: `${ceiling.toFixed(1)}×`,
       periods: steady.periods,
       iterations: steady.iterations ? steady.iterations.join("+") : "—",
       "Δf": rel(steady.frequency, startup.frequency),
@@ -54,6 +57,7 @@ export async function run() {
   const list = (rs) => rs.map((r) => `${r.toFixed(1)}×`).join(", ");
   console.log(`\nprocessor time in ms: cold = the first run in a fresh process; warm = the best of the runs after it (at least ${REPEATS}, and until ${process.env.ONSET_BENCH_WARM_SECONDS ?? 2} s of processor time were spent). periods = the steady analysis' transient periods, iterations = its shooting periods on the two grids`);
   console.log(`start-up to settled / steady, cold: ${list(cold)}; warm: ${list(warm)} (target ≥ 10×; ≥ 30× for the slow loops)`);
+  console.log("ceiling = start-up ÷ the start-up run's own settled-orbit shooting (its share of the warm runs' processor time, sampled by the profiler: bench/steady-ceiling.mjs). The start-up run takes its settled figures from the orbit next to it, found by the same two-grid shooting from the settled state; a steady analysis needs at least that shooting, so its warm ratio cannot exceed the ceiling");
   console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
 
   const studies = [measure("steady-study.mjs", ["startup", "2", String(RUNS)]), measure("steady-study.mjs", ["steady", "1", String(RUNS)]), measure("steady-study.mjs", ["steady", "2", String(RUNS)])];
