@@ -314,6 +314,8 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
+  // The unknown the mode swings most: the approach checks the probe's period against its.
+  const swinging = mode.reduce((top, v, i) => (Math.abs(v) > Math.abs(mode[top]!) ? i : top), 0);
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
   const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
@@ -329,7 +331,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
+    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait, (x) => x[swinging]!);
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
