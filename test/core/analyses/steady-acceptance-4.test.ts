@@ -4,7 +4,9 @@
 import { describe, expect, test } from "vitest";
 import { runSteady, type Circuit, type SteadyResult } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
+import { settled } from "../../support/clipped-oscillators.js";
 import { lampAmplitude } from "../../e2e/support/steady-circuits.js";
+import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
 const circuitOf = (text: string): Circuit => elaborate(loadProgram("acceptance-4.onset", text).program, {}).circuit!;
 const node = (name: string) => ({ kind: "node", node: name }) as const;
@@ -46,5 +48,161 @@ opamp     U1 p n o preset=general rails=(-15, 15)
     const theta = ambient * (340 / 180) ** (1 / 1.2);
     expect(rel(temperature.offset!, theta)).toBeLessThan(1e-4);
     expect(rel(output.amplitude!, lampAmplitude(680, 180, 800, 6))).toBeLessThan(1e-3);
+  });
+});
+
+/** THD over harmonics 2 … 10 of a steady result (the odex references measure ten). */
+const thd10 = (r: SteadyResult) => Math.hypot(...r.harmonics.slice(1, 10).map((h) => h.amplitude)) / r.harmonics[0]!.amplitude;
+
+describe("linear oscillators held by an ideal clip: the closed form and the odex ODE integrator", () => {
+  // A three-section R–C ladder (6.8 kΩ, 4.7 nF) read through an ideal buffer into an inverting
+  // stage of gain 29.29 (1 % over the 29 it needs), clipping at ±3 V, no amplifier dynamics.
+  const R = 6.8e3;
+  const C = 4.7e-9;
+  const ladder = circuitOf(`resistor  R1 o a   6.8k
+capacitor C1 a gnd 4.7n
+resistor  R2 a b   6.8k
+capacitor C2 b gnd 4.7n
+resistor  R3 b c   6.8k
+capacitor C3 c gnd 4.7n
+vcvs      E1 x gnd c gnd 1
+resistor  Ri x n   1k
+resistor  Rf n o   29.29k
+opamp     U1 gnd n o preset=ideal gbw=inf rout=0 rails=(-3, 3)
+`);
+  test("R–C ladder: √6/(2πRC) (closed form, the gain the clip leaves is 29) and its state equations under odex; the inner node gives the same orbit", () => {
+    const out = steadyOn(ladder, node("o"));
+    const inner = steadyOn(ladder, node("b"));
+    expectSameOrbit(out, inner, 1e-5, 3e-3);
+    // Source: closed form, the ladder's phase crossing ω = √6/(RC) — 12198.0 Hz
+    expect(rel(out.frequency!, Math.sqrt(6) / (2 * Math.PI * R * C))).toBeLessThan(5e-5);
+    // Source: odex ODE integrator on the ladder's state equations with v_o = clip(−29.29·v_c, ±3 V) — 12197.75 Hz, THD 1.558 %
+    const vo = (y: number[]) => Math.max(-3, Math.min(3, -29.29 * y[2]!));
+    const reference = settled(
+      (y) => [(vo(y) - 2 * y[0]! + y[1]!) / (R * C), (y[0]! - 2 * y[1]! + y[2]!) / (R * C), (y[1]! - y[2]!) / (R * C)],
+      [0.1, 0, 0],
+      vo,
+      0.06,
+      20,
+    );
+    expect(rel(out.frequency!, reference.frequency)).toBeLessThan(1e-5);
+    // the model's clip has a 1 mV knee: the peak sits 6 mV under the rail, the harmonics move by a few parts in 1000
+    expect(rel(out.amplitude!, 3)).toBeLessThan(3e-3);
+    expect(rel(thd10(out), reference.thd)).toBeLessThan(1e-2);
+    expect(out.stability!.verdict).toBe("stable");
+    expect(largest(out)).toBeLessThan(1);
+  });
+
+  test("an LC tank (33 mH with 2.5 Ω, 4.7 nF) current-fed by an ideal clipping stage: 1/(2π√LC) (closed form); the coil's current gives the same orbit", () => {
+    const tank = circuitOf(`inductor  L1 t gnd 33m series=2.5
+capacitor C1 t gnd 4.7n
+opamp     U1 t n o preset=ideal gbw=inf rout=0 rails=(-1.5, 1.5)
+resistor  Rf o n 3.3k
+resistor  Rg n gnd 1k
+resistor  Rfb o t 470k
+`);
+    const v = steadyOn(tank, node("t"));
+    const i = steadyOn(tank, { kind: "current", part: "L1" });
+    expectSameOrbit(v, i, 1e-6, 1e-4);
+    // Source: closed form, ω² = 1/(LC) − (r/L)² for a coil with series r (12779.6 Hz); the clip's
+    // harmonics, cut by the tank's Q of about 100, move it by parts in 1e6 (Groszkowski 1933)
+    const w2 = 1 / (33e-3 * 4.7e-9) - (2.5 / 33e-3) ** 2;
+    expect(rel(v.frequency!, Math.sqrt(w2) / (2 * Math.PI))).toBeLessThan(5e-5);
+    // the coil's current at the fundamental is v/(jωL) (closed form; its 2.5 Ω is 1e-3 of ωL)
+    expect(rel(i.harmonics[0]!.amplitude, v.harmonics[0]!.amplitude / (2 * Math.PI * v.frequency! * 33e-3))).toBeLessThan(2e-3);
+    expect(v.stability!.verdict).toBe("stable");
+  });
+});
+
+describe("nonlinear oscillators against the settled start-up run (frequency 0.05 %, amplitude 0.5 %, THD 2 %)", () => {
+  // Unequal Wien arms (threshold gain 1 + R1/R2 + C2/C1, about 2; gain 1 + 8.2k/6.8k = 2.21),
+  // back-to-back diodes with 8.2 kΩ across the whole feedback resistor.
+  const unequalWien = (arms: string, preset: string) => `${arms}resistor  Rf o n   8.2k
+resistor  Rg n gnd 6.8k
+resistor  Rd o k   8.2k
+diode     D1 k n
+diode     D2 n k
+opamp     U1 p n o preset=${preset} rails=(-9, 9)
+startup probe=o until=auto
+`;
+  const circuits: Record<string, string> = {
+    "unequal Wien, 18.7 Hz": unequalWien(wien("120k", "100n", "180k", "33n"), "general"),
+    "unequal Wien, 872 Hz": unequalWien(wien("12k", "22n", "18k", "6.8n"), "general"),
+    "unequal Wien, 38.6 kHz (gbw 10 MHz)": unequalWien(wien("1.5k", "3.3n", "2.7k", "1.2n"), "fast"),
+    // four C–R sections into the virtual ground of an inverting stage of gain 20.6 (18.4 needed)
+    "C–R ladder, four sections, diode limiter, 2.65 kHz": `capacitor C1 o a   15n
+resistor  R1 a gnd 3.3k
+capacitor C2 a b   15n
+resistor  R2 b gnd 3.3k
+capacitor C3 b c   15n
+resistor  R3 c gnd 3.3k
+capacitor C4 c d   15n
+resistor  R4 d n   3.3k
+resistor  Rf n o   68k
+resistor  Rd n k   47k
+diode     D1 k o
+diode     D2 o k
+opamp     U1 gnd n o preset=general rails=(-10, 10)
+startup probe=o until=auto
+`,
+    // a twin-T (15 kΩ, 10 nF, shunt 0.42·R) straight into the inverting input, positive feedback
+    // 1.5k/40.5k softened by diodes: 1.076 kHz, clipping at the rails
+    "twin-T in the negative feedback, 1.08 kHz": `resistor  Ra o  m1  15k
+resistor  Rb m1 n   15k
+capacitor Cs m1 gnd 20n
+capacitor Ca o  m2  10n
+capacitor Cb m2 n   10n
+resistor  Rs m2 gnd 6.3k
+resistor  Rp1 o p   39k
+resistor  Rp2 p gnd 1.5k
+resistor  Rq  p q   220
+diode     D1  q gnd
+diode     D2  gnd q
+opamp     U1  p n o preset=precision rails=(-12, 12)
+startup probe=o until=auto
+`,
+    // a 1 mH (1.2 Ω) ∥ 100 nF tank fed from a non-inverting stage of gain 4.2 through 15 kΩ, held by diodes through 100 Ω
+    "LC tank with a diode limiter, 15.9 kHz": `inductor  L1 t gnd 1m series=1.2
+capacitor C1 t gnd 100n
+resistor  Rt t gnd 22k
+opamp     U1 t n o preset=general rails=(-12, 12)
+resistor  Rf o n 15k
+resistor  Rg n gnd 4.7k
+resistor  Rfb o t 15k
+resistor  Rl t l 100
+diode     D1 l gnd
+diode     D2 gnd l
+startup probe=t until=auto
+`,
+  };
+  test.each(Object.keys(circuits))("%s", (name) => {
+    // Source: the start-up run from thermal noise to settled (its own step control).
+    expectSteadyAgreesWithSettled(circuitOf(circuits[name]!));
+  });
+
+  test("a quadrature oscillator (two integrators, 10 kΩ, 6.8 nF, and an inverter; diode-damped): the settled start-up run; both outputs and a capacitor's current give one orbit", () => {
+    const quadrature = circuitOf(`resistor  R1 o3 n1  10k
+capacitor C1 n1 o1  6.8n
+opamp     U1 gnd n1 o1 preset=general rails=(-12, 12)
+vccs      G1 n1 gnd o1 gnd 2u
+resistor  Rl n1 k   33k
+diode     D1 k  o1
+diode     D2 o1 k
+resistor  R2 o1 n2  10k
+capacitor C2 n2 o2  6.8n
+opamp     U2 gnd n2 o2 preset=general rails=(-12, 12)
+resistor  R3 o2 n3  10k
+resistor  R4 n3 o3  10k
+opamp     U3 gnd n3 o3 preset=general rails=(-12, 12)
+startup probe=o1 until=auto
+`);
+    expectSteadyAgreesWithSettled(quadrature);
+    const [sine, cosine, current] = [steadyOn(quadrature, node("o1")), steadyOn(quadrature, node("o2")), steadyOn(quadrature, { kind: "current", part: "C2" })];
+    expectSameOrbit(sine, cosine);
+    expectSameOrbit(sine, current);
+    // Source: closed form — the second integrator's capacitor carries C·dv/dt: |i| = ωC·|v_o2| at the fundamental
+    expect(rel(current.harmonics[0]!.amplitude, 2 * Math.PI * sine.frequency! * 6.8e-9 * cosine.harmonics[0]!.amplitude)).toBeLessThan(1e-3);
+    // near 1/(2πRC) = 2340.5 Hz (closed form), pulled 0.25 % by the amplifiers' 1 MHz gain-bandwidth
+    expect(rel(sine.frequency!, 1 / (2 * Math.PI * 10e3 * 6.8e-9))).toBeLessThan(5e-3);
   });
 });
