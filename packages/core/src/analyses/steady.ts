@@ -9,7 +9,7 @@ import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, accuracyTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { OrbitApproach } from "../steady/approach.js";
-import { modeOfPole } from "../steady/growing-mode.js";
+import { largestNode, modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
@@ -314,8 +314,10 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
-  // The unknown the mode swings most: the approach checks the probe's period against its.
-  const swinging = mode.reduce((top, v, i) => (Math.abs(v) > Math.abs(mode[top]!) ? i : top), 0);
+  // The approach watches the node the growing mode swings most, not the probe: a probe may
+  // swing at a harmonic (a lamp's temperature), or not at all (a supply node), and the orbit
+  // found must not depend on where it is measured.
+  const swinging = largestNode(mode, system.unknowns);
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
   const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
@@ -331,7 +333,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait, (x) => x[swinging]!);
+    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.

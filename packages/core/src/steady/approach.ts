@@ -15,8 +15,6 @@ const LEVEL_PERIODS = 3;
 const DIED_OUT = 1e-4;
 /** Hysteresis of the period's crossings, as a fraction of the swing. */
 const HYSTERESIS = 0.05;
-/** The probe's period is taken unless it is off the reference's by more than this fraction. */
-const PERIOD_AGREEMENT = 0.2;
 
 /** Where a short transient left the oscillation: the period measured on the probe, or why none. */
 export type Approach =
@@ -37,8 +35,6 @@ export type Approach =
 export class OrbitApproach {
   /** The probe's samples over the last few guessed periods only (all the period's measurement reads). */
   private readonly samples = new SampleWindow();
-  /** The reference's samples, likewise (see the constructor). */
-  private readonly referenceSamples = new SampleWindow();
   /** The swings of the last periods (the level and died-out criteria look no further back). */
   private readonly swings: number[] = [];
   /** The swing at the envelope's last peak, and at the dips before and after it. */
@@ -64,18 +60,8 @@ export class OrbitApproach {
      * The quiet periods (in all, over every dip) do not count towards `advance`'s `most`.
      */
     private readonly patience = 0,
-    /**
-     * A quantity that swings at the oscillation's own period (the growing mode's largest
-     * entry). A probe may not: a lamp's temperature ripples at twice the frequency, and a
-     * shooting from half the period finds no orbit. Its period is taken where the probe's is
-     * off it by more than a fifth.
-     */
-    private readonly reference?: ProbeReader,
   ) {
-    stepper.observe((t, x, dxdt) => {
-      this.samples.push(t, read(x, dxdt, t));
-      if (reference) this.referenceSamples.push(t, reference(x, dxdt, t));
-    });
+    stepper.observe((t, x, dxdt) => this.samples.push(t, read(x, dxdt, t)));
   }
 
   /** Periods run so far. */
@@ -104,7 +90,6 @@ export class OrbitApproach {
       this.isQuiet = this.quiet();
       if (this.isQuiet) this.quietPeriods++;
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
-      this.referenceSamples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
       if (this.diedOut()) return { kind: "died-out", periods: this.periods };
       if (this.isQuiet) {
         end++;
@@ -112,7 +97,7 @@ export class OrbitApproach {
       }
       if (level !== undefined && this.count >= earliest && (levelled = this.levelled(level))) break;
     }
-    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.period(), periods: this.periods, levelled };
+    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
   }
 
   private record(swing: number): void {
@@ -157,18 +142,10 @@ export class OrbitApproach {
     return !(Math.abs(this.peak - after) >= level * last || Math.abs(this.peak - this.before) >= level * last);
   }
 
-  /** The probe's measured period, or the reference's where the two disagree (see the constructor). */
-  private period(): number {
-    const own = this.measuredPeriod(this.samples);
-    if (!this.reference) return own;
-    const reference = this.measuredPeriod(this.referenceSamples);
-    return Math.abs(own / reference - 1) > PERIOD_AGREEMENT ? reference : own;
-  }
-
   /** The mean interval between the rising crossings of the last few guessed periods; the guess when there are too few. */
-  private measuredPeriod(samples: SampleWindow): number {
-    const t = samples.times();
-    const v = samples.values();
+  private measuredPeriod(): number {
+    const t = this.samples.times();
+    const v = this.samples.values();
     const from = this.stepper.t - (LEVEL_PERIODS + 1) * this.guess;
     let sum = 0;
     let count = 0;
