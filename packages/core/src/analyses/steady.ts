@@ -1,6 +1,7 @@
+import { steadyOptions } from "./kinds/steady-options.js";
 import type { Circuit, SteadyAnalysis, StartupAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
-import { badArgument } from "../circuit/arguments.js";
+import { badArgument, checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions } from "../circuit/arguments.js";
 import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
@@ -208,7 +209,16 @@ export interface OrbitSeed {
  * whose transient dies out, or whose shooting finds nothing, gets `found: false` and why.
  */
 export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): SteadyResult {
+  checkArguments("runSteady", circuit, analysis, options);
   return solveSteady(circuit, analysis, options);
+}
+
+/** A public entry's checks at the door: the circuit's shape, the analysis as the statement's options table allows it, the options an object. */
+function checkArguments(api: string, circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions): void {
+  checkCircuit(api, circuit);
+  checkAnalysis(api, analysis, "steady");
+  checkAnalysisFields(api, analysis as unknown as Readonly<Record<string, unknown>>, steadyOptions);
+  checkOptions(api, options);
 }
 
 /**
@@ -217,6 +227,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
  * whose samples start from their sources anyway).
  */
 export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
+  checkArguments("steadySeed", circuit, analysis, options);
   let seed: OrbitSeed | null = null;
   const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false }, (refined) => {
     const { orbit } = refined;
