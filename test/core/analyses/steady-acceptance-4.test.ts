@@ -268,3 +268,115 @@ opamp     U1 p n o preset=general rails=(-15, 15)
     expect(() => runSteady(null as never, { kind: "steady", probe })).toThrow(/^runSteady: circuit must be an object/);
   });
 });
+
+describe("no orbit where there is none, with the poles' verdict", () => {
+  test.each([
+    ["the buffered R–C ladder at gain 27 (29 needed)", `resistor  R1 o a   6.8k
+capacitor C1 a gnd 4.7n
+resistor  R2 a b   6.8k
+capacitor C2 b gnd 4.7n
+resistor  R3 b c   6.8k
+capacitor C3 c gnd 4.7n
+vcvs      E1 x gnd c gnd 1
+resistor  Ri x n   1k
+resistor  Rf n o   27k
+opamp     U1 gnd n o preset=ideal gbw=inf rout=0 rails=(-3, 3)
+`, /^no periodic orbit: the circuit does not oscillate — the poles' dominant pair at 11\.86 kHz decays at 1031 \/s \(left half-plane\)/],
+    ["an RC filter on a DC source", `vsource   V1 in gnd 5
+resistor  R1 in o  10k
+capacitor C1 o gnd 1u
+`, /^no periodic orbit: the circuit does not oscillate — the poles at the bias point are all real and none grows/],
+    ["a resistive divider", `vsource   V1 in gnd 9
+resistor  R1 in o  10k
+resistor  R2 o gnd 4.7k
+`, /^no periodic orbit: the circuit does not oscillate/],
+  ])("%s", (_, text, explanation) => {
+    const r = steadyOn(circuitOf(text), node("o"));
+    expect(r).toMatchObject({ found: false, frequency: null, amplitude: null, thd: null, multipliers: [], stability: null });
+    expect(r.explanation).toMatch(explanation);
+  });
+});
+
+describe("driven circuits: the drive's period, closed forms and the odex ODE integrator", () => {
+  test("a 3.3 kHz sine (2.5 V, 30°, offset 0.4 V) into a two-pole RC: |H(jω)| and the offset (closed form), THD at the numerical floor, multipliers e^(pT) of its poles (closed form)", () => {
+    const rc = circuitOf(`vsource   V1 in gnd wave=sine amp=2.5 freq=3.3k phase=30deg offset=0.4
+resistor  R1 in a  4.7k
+capacitor C1 a gnd 6.8n
+resistor  R2 a o  10k
+capacitor C2 o gnd 2.2n
+`);
+    const r = steadyOn(rc, node("o"));
+    expect(r).toMatchObject({ found: true, kind: "driven", from: "driven" });
+    expect(r.period).toBe(1 / 3300);
+    const [t1, t2, t12] = [4.7e3 * 6.8e-9, 10e3 * 2.2e-9, 4.7e3 * 2.2e-9];
+    const w = 2 * Math.PI * 3300;
+    // Source: closed form, H(s) = 1/(1 + s(τ₁ + τ₂ + τ₁₂) + s²τ₁τ₂)
+    const H = 1 / Math.hypot(1 - w * w * t1 * t2, w * (t1 + t2 + t12));
+    expect(rel(r.amplitude!, 2.5 * H)).toBeLessThan(1e-5);
+    expect(Math.abs(r.offset! - 0.4)).toBeLessThan(1e-7);
+    // a linear circuit adds no harmonics: what is left is the integrator's floor, far below −120 dBc
+    expect(r.thd!).toBeLessThan(1e-6);
+    // Source: closed form, the poles p of 1 + s(τ₁ + τ₂ + τ₁₂) + s²τ₁τ₂ give the multipliers e^(pT)
+    const b = t1 + t2 + t12;
+    const d = Math.sqrt(b * b - 4 * t1 * t2);
+    const slow = Math.exp(((-b + d) / (2 * t1 * t2)) * r.period!);
+    expect(rel(largest(r), slow)).toBeLessThan(1e-2);
+    expect(r.stability!.verdict).toBe("stable");
+  });
+
+  test("a 5 kHz, 3 V sine through 2.2 kΩ into back-to-back diodes (series 0) and 1 nF: amplitude and THD of its state equation under odex", () => {
+    const clipper = circuitOf(`vsource   V1 in gnd wave=sine amp=3 freq=5k
+resistor  R1 in o  2.2k
+diode     D1 o gnd series=0
+diode     D2 gnd o series=0
+capacitor C1 o gnd 1n
+`);
+    const r = steadyOn(clipper, node("o"));
+    expect(r).toMatchObject({ found: true, kind: "driven", frequency: 5000 });
+    // Source: odex ODE integrator on C·dv/dt = (v_in − v)/R − 2·Is·sinh(v/(n·V_T)), Is 2.5 nA, n 1.8,
+    // V_T = kT/q at 300.15 K (the diode defaults, docs/language.md) — 0.604510 V, THD (2–10) 31.624 %
+    const nVt = 1.8 * ((1.380649e-23 * 300.15) / 1.602176634e-19);
+    const reference = settled(
+      (y) => [((3 * Math.sin(2 * Math.PI * 5e3 * y[1]!) - y[0]!) / 2.2e3 - 2 * 2.5e-9 * Math.sinh(y[0]! / nVt)) / 1e-9, 1],
+      [0, 0],
+      (y) => y[0]!,
+      24 / 5e3,
+      10,
+    );
+    expect(rel(r.harmonics[0]!.amplitude, reference.harmonics[0]!)).toBeLessThan(1e-5);
+    expect(rel(thd10(r), reference.thd)).toBeLessThan(1e-4);
+  });
+});
+
+describe("from=poles and cycles=", () => {
+  const quiet4 = `capacitor C1 o a   15n
+resistor  R1 a gnd 3.3k
+capacitor C2 a b   15n
+resistor  R2 b gnd 3.3k
+capacitor C3 b c   15n
+resistor  R3 c gnd 3.3k
+capacitor C4 c d   15n
+resistor  R4 d n   3.3k
+resistor  Rf n o   68k
+resistor  Rd n k   47k
+diode     D1 k o
+diode     D2 o k
+opamp     U1 gnd n o preset=general rails=(-10, 10)
+`;
+  test("a four-section C–R ladder: from the poles' 2562 Hz (3.3 % off the orbit) and after only 2 periods of transient, the same orbit", () => {
+    const ladder = circuitOf(quiet4);
+    const fromStartup = steadyOn(ladder, node("o"));
+    const fromPoles = steadyOn(ladder, node("o"), { from: "poles" });
+    const short = steadyOn(ladder, node("o"), { cycles: 2 });
+    expect(fromPoles.from).toBe("poles");
+    for (const r of [fromPoles, short]) {
+      expect(r.found).toBe(true);
+      // the orbit's own tolerance: the shooting stops within a hundredth of the step control's accuracy
+      expect(rel(r.frequency!, fromStartup.frequency!)).toBeLessThan(1e-6);
+      expect(rel(r.amplitude!, fromStartup.amplitude!)).toBeLessThan(1e-5);
+      expect(Math.abs(largest(r) - largest(fromStartup))).toBeLessThan(1e-4);
+    }
+    expect(fromPoles.transient.periods).toBeLessThanOrEqual(4);
+    expect(short.transient.periods).toBeLessThanOrEqual(2 * 5);
+  });
+});
