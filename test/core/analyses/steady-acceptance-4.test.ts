@@ -230,6 +230,8 @@ startup probe=o1 until=auto
     expect(rel(current.harmonics[0]!.amplitude, 2 * Math.PI * sine.frequency! * 6.8e-9 * cosine.harmonics[0]!.amplitude)).toBeLessThan(1e-3);
     // near 1/(2πRC) = 2340.5 Hz (closed form), pulled 0.25 % by the amplifiers' 1 MHz gain-bandwidth
     expect(rel(sine.frequency!, 1 / (2 * Math.PI * 10e3 * 6.8e-9))).toBeLessThan(5e-3);
+    // the trivial multiplier, given apart: 1 for the exact orbit (a shift along it)
+    expect(Math.abs(Math.hypot(sine.trivialMultiplier!.re, sine.trivialMultiplier!.im) - 1)).toBeLessThan(1e-5);
   });
 });
 
@@ -322,6 +324,8 @@ capacitor C2 o gnd 2.2n
     const slow = Math.exp(((-b + d) / (2 * t1 * t2)) * r.period!);
     expect(rel(largest(r), slow)).toBeLessThan(1e-2);
     expect(r.stability!.verdict).toBe("stable");
+    // a driven orbit has no trivial multiplier
+    expect(r.trivialMultiplier).toBeNull();
   });
 
   test("a 5 kHz, 3 V sine through 2.2 kΩ into back-to-back diodes (series 0) and 1 nF: amplitude and THD of its state equation under odex", () => {

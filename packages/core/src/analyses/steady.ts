@@ -15,7 +15,7 @@ import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/or
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
-import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
+import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
@@ -140,6 +140,8 @@ export interface SteadyResult {
    * the fourth digit), taken at the orbit or at a period within two tolerances of it.
    */
   readonly multipliers: readonly Multiplier[];
+  /** An autonomous orbit's trivial multiplier, left out of `multipliers`: 1 up to the grid's error; null when driven or without an orbit. */
+  readonly trivialMultiplier: Multiplier | null;
   readonly stability: OrbitStability | null;
   readonly predicted: SteadyPrediction;
   /** The transient before the shooting: periods and simulated time. */
@@ -615,6 +617,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
     points: null,
     shooting: null,
     multipliers: [],
+    trivialMultiplier: null,
     stability: null,
     waveform: { time: new Float64Array(0), values: new Float64Array(0) },
   };
@@ -658,6 +661,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     points: orbit.points,
     shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
     multipliers,
+    trivialMultiplier: trivialMultiplier(orbit.orbit.multipliers, common.kind === "autonomous"),
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
   };
