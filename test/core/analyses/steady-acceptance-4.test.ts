@@ -24,6 +24,35 @@ function expectSameOrbit(a: SteadyResult, b: SteadyResult): void {
   expect(b.multipliers.length).toBeGreaterThan(0);
 }
 
+/** Four C–R sections (15 nF, 3.3 kΩ) into the virtual ground of an inverting stage of gain 20.6 (18.4 needed), back-to-back diodes through 47 kΩ across its 68 kΩ. */
+const CR_LADDER_4 = `capacitor C1 o a   15n
+resistor  R1 a gnd 3.3k
+capacitor C2 a b   15n
+resistor  R2 b gnd 3.3k
+capacitor C3 b c   15n
+resistor  R3 c gnd 3.3k
+capacitor C4 c d   15n
+resistor  R4 d n   3.3k
+resistor  Rf n o   68k
+resistor  Rd n k   47k
+diode     D1 k o
+diode     D2 o k
+opamp     U1 gnd n o preset=general rails=(-10, 10)
+`;
+
+/** A three-section R–C ladder (6.8 kΩ, 4.7 nF) read through an ideal buffer into an inverting stage of the gain given, clipping at ±3 V, no amplifier dynamics. */
+const rcLadder3 = (rf: string) => `resistor  R1 o a   6.8k
+capacitor C1 a gnd 4.7n
+resistor  R2 a b   6.8k
+capacitor C2 b gnd 4.7n
+resistor  R3 b c   6.8k
+capacitor C3 c gnd 4.7n
+vcvs      E1 x gnd c gnd 1
+resistor  Ri x n   1k
+resistor  Rf n o   ${rf}
+opamp     U1 gnd n o preset=ideal gbw=inf rout=0 rails=(-3, 3)
+`;
+
 const wien = (R1: string, C1: string, R2: string, C2: string) => `resistor  R1 o s   ${R1}
 capacitor C1 s p   ${C1}
 resistor  R2 p gnd ${R2}
@@ -81,21 +110,10 @@ opamp     U1 p n o preset=general rails=(-15, 15)
 const thd10 = (r: SteadyResult) => Math.hypot(...r.harmonics.slice(1, 10).map((h) => h.amplitude)) / r.harmonics[0]!.amplitude;
 
 describe("linear oscillators held by an ideal clip: the closed form and the odex ODE integrator", () => {
-  // A three-section R–C ladder (6.8 kΩ, 4.7 nF) read through an ideal buffer into an inverting
-  // stage of gain 29.29 (1 % over the 29 it needs), clipping at ±3 V, no amplifier dynamics.
+  // gain 29.29: 1 % over the 29 the ladder needs
   const R = 6.8e3;
   const C = 4.7e-9;
-  const ladder = circuitOf(`resistor  R1 o a   6.8k
-capacitor C1 a gnd 4.7n
-resistor  R2 a b   6.8k
-capacitor C2 b gnd 4.7n
-resistor  R3 b c   6.8k
-capacitor C3 c gnd 4.7n
-vcvs      E1 x gnd c gnd 1
-resistor  Ri x n   1k
-resistor  Rf n o   29.29k
-opamp     U1 gnd n o preset=ideal gbw=inf rout=0 rails=(-3, 3)
-`);
+  const ladder = circuitOf(rcLadder3("29.29k"));
   test("R–C ladder: √6/(2πRC) (closed form, the gain the clip leaves is 29) and its state equations under odex; the inner node gives the same orbit", () => {
     const out = steadyOn(ladder, node("o"));
     const inner = steadyOn(ladder, node("b"));
@@ -156,20 +174,7 @@ startup probe=o until=auto
     "unequal Wien, 872 Hz": unequalWien(wien("12k", "22n", "18k", "6.8n"), "general"),
     "unequal Wien, 38.6 kHz (gbw 10 MHz)": unequalWien(wien("1.5k", "3.3n", "2.7k", "1.2n"), "fast"),
     // four C–R sections into the virtual ground of an inverting stage of gain 20.6 (18.4 needed)
-    "C–R ladder, four sections, diode limiter, 2.65 kHz": `capacitor C1 o a   15n
-resistor  R1 a gnd 3.3k
-capacitor C2 a b   15n
-resistor  R2 b gnd 3.3k
-capacitor C3 b c   15n
-resistor  R3 c gnd 3.3k
-capacitor C4 c d   15n
-resistor  R4 d n   3.3k
-resistor  Rf n o   68k
-resistor  Rd n k   47k
-diode     D1 k o
-diode     D2 o k
-opamp     U1 gnd n o preset=general rails=(-10, 10)
-startup probe=o until=auto
+    "C–R ladder, four sections, diode limiter, 2.65 kHz": `${CR_LADDER_4}startup probe=o until=auto
 `,
     // a twin-T (15 kΩ, 10 nF, shunt 0.42·R) straight into the inverting input, positive feedback
     // 1.5k/40.5k softened by diodes: 1.076 kHz, clipping at the rails
@@ -273,17 +278,7 @@ opamp     U1 p n o preset=general rails=(-15, 15)
 
 describe("no orbit where there is none, with the poles' verdict", () => {
   test.each([
-    ["the buffered R–C ladder at gain 27 (29 needed)", `resistor  R1 o a   6.8k
-capacitor C1 a gnd 4.7n
-resistor  R2 a b   6.8k
-capacitor C2 b gnd 4.7n
-resistor  R3 b c   6.8k
-capacitor C3 c gnd 4.7n
-vcvs      E1 x gnd c gnd 1
-resistor  Ri x n   1k
-resistor  Rf n o   27k
-opamp     U1 gnd n o preset=ideal gbw=inf rout=0 rails=(-3, 3)
-`, /^no periodic orbit: the circuit does not oscillate — the poles' dominant pair at 11\.86 kHz decays at 1031 \/s \(left half-plane\)/],
+    ["the buffered R–C ladder at gain 27 (29 needed)", rcLadder3("27k"), /^no periodic orbit: the circuit does not oscillate — the poles' dominant pair at 11\.86 kHz decays at 1031 \/s \(left half-plane\)/],
     ["an RC filter on a DC source", `vsource   V1 in gnd 5
 resistor  R1 in o  10k
 capacitor C1 o gnd 1u
@@ -353,22 +348,8 @@ capacitor C1 o gnd 1n
 });
 
 describe("from=poles and cycles=", () => {
-  const quiet4 = `capacitor C1 o a   15n
-resistor  R1 a gnd 3.3k
-capacitor C2 a b   15n
-resistor  R2 b gnd 3.3k
-capacitor C3 b c   15n
-resistor  R3 c gnd 3.3k
-capacitor C4 c d   15n
-resistor  R4 d n   3.3k
-resistor  Rf n o   68k
-resistor  Rd n k   47k
-diode     D1 k o
-diode     D2 o k
-opamp     U1 gnd n o preset=general rails=(-10, 10)
-`;
   test("a four-section C–R ladder: from the poles' 2562 Hz (3.3 % off the orbit) and after only 2 periods of transient, the same orbit", () => {
-    const ladder = circuitOf(quiet4);
+    const ladder = circuitOf(CR_LADDER_4);
     const fromStartup = steadyOn(ladder, node("o"));
     const fromPoles = steadyOn(ladder, node("o"), { from: "poles" });
     const short = steadyOn(ladder, node("o"), { cycles: 2 });
