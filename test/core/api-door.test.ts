@@ -11,10 +11,12 @@ import {
   runPoles,
   runResponse,
   runStartup,
+  runSteady,
   runSweep,
   runSweepInParallel,
   runToleranceStudy,
   runTransient,
+  steadySeed,
   summarize,
   sweepValues,
   wilsonInterval,
@@ -29,7 +31,7 @@ import { onlyTypedErrors } from "../support/door.js";
 const hostile = fc.oneof(
   fc.constantFrom(NaN, Infinity, -Infinity, -1, 0, 1e308, -1e-320, 2 ** 53, 1e12, "", "x", null, undefined, true, [], {}, [NaN], { kind: "transient" }),
   fc.anything(),
-  fc.record({ kind: fc.constantFrom("transient", "startup", "sweep", "tolerance", "response"), until: fc.oneof(fc.double(), fc.constant("auto")), maxStep: fc.double(), runs: fc.double(), steps: fc.double(), from: fc.double(), to: fc.double(), target: fc.string() }, { requiredKeys: ["kind"] }),
+  fc.record({ kind: fc.constantFrom("transient", "startup", "steady", "sweep", "tolerance", "response"), until: fc.oneof(fc.double(), fc.constant("auto")), maxStep: fc.double(), runs: fc.double(), steps: fc.double(), from: fc.double(), to: fc.double(), target: fc.string() }, { requiredKeys: ["kind"] }),
   fc.record({ parts: fc.oneof(fc.constant([]), fc.array(fc.anything(), { maxLength: 3 })), analyses: fc.oneof(fc.constant([]), fc.anything()), tolerances: fc.anything() }, { requiredKeys: [] }),
 );
 
@@ -38,6 +40,8 @@ const entries: Record<string, (a: unknown, b: unknown, c: unknown) => unknown> =
   runStartup: (a, b, c) => runStartup(a as never, b as never, c as never),
   runBias: (a, b, c) => runBias(a as never, b as never, c as never),
   runPoles: (a, b, c) => runPoles(a as never, b as never, c as never),
+  runSteady: (a, b, c) => runSteady(a as never, b as never, c as never),
+  steadySeed: (a, b, c) => steadySeed(a as never, b as never, c as never),
   runResponse: (a, b, c) => runResponse(a as never, b as never, c as never),
   runCircuit: (a, b) => runCircuit(a as never, b as never),
   runSweep: (a, b, c) => runSweep(a as never, b as never, c as never),

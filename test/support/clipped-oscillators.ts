@@ -16,7 +16,7 @@ export interface SettledReference {
 const clip = (v: number, rail: number) => Math.max(-rail, Math.min(rail, v));
 
 /** Integrates y′ = f(y) to `until` and measures the output over its last `periods` periods. */
-function settled(rhs: (y: number[]) => number[], y0: number[], output: (y: number[]) => number, until: number, periods = 10): SettledReference {
+export function settled(rhs: (y: number[]) => number[], y0: number[], output: (y: number[]) => number, until: number, periods = 10): SettledReference {
   const solver = new Solver(y0.length);
   solver.relativeTolerance = 1e-10;
   solver.absoluteTolerance = 1e-12;

@@ -58,6 +58,7 @@ export { orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitMetrics } from "./steady/orbit-metrics.js";
 export { orbitPointLimit, recordPeriod, refineOrbit } from "./steady/refine.js";
 export { OrbitApproach } from "./steady/approach.js";
+export { largestNode } from "./steady/growing-mode.js";
 export { SampleWindow } from "./steady/sample-window.js";
 export type { Approach } from "./steady/approach.js";
 export type { NumericalError, RefinedOrbit } from "./steady/refine.js";

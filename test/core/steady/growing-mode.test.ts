@@ -2,9 +2,11 @@
 // near-ideal amplifier (open-loop gain 1e7) the pencil 1e-7 off the pole is too ill-conditioned
 // for the LU's pivot test, and the analysis answered "the growing mode could not be computed".
 import { describe, expect, test } from "vitest";
+import fc from "fast-check";
 import { opampPresets, runPoles, runSteady } from "@onset/core";
 import { circuit, crLadder, part } from "../../support/circuits.js";
 import { ladderReference } from "../../support/clipped-oscillators.js";
+import { largestNode, type UnknownInfo } from "@onset/core/engine";
 
 const R = 4.7e3;
 const C = 22e-9;
@@ -28,5 +30,20 @@ describe("modeOfPole through runSteady: a C–R ladder around the ideal op-amp p
     expect(Math.abs(r.frequency! / reference.frequency - 1)).toBeLessThan(0.005);
     // and near the poles' pair, which the clip's harmonics move by well under 1 %
     expect(Math.abs(r.frequency! / runPoles(c, { kind: "poles" }).frequency! - 1)).toBeLessThan(0.01);
+  });
+});
+
+describe("largestNode: the node voltage the approach watches", () => {
+  const unknowns = (nodes: boolean[]) => nodes.map((isNode) => ({ isNode }) as UnknownInfo);
+  test("the largest entry in size among the nodes, whatever larger entry another unknown has", () => {
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.double({ min: -10, max: 10, noNaN: true }), fc.boolean()), { minLength: 1, maxLength: 20 }), (entries) => {
+        const mode = Float64Array.from(entries.map(([v]) => v));
+        const top = largestNode(mode, unknowns(entries.map(([, n]) => n)));
+        const nodes = entries.map(([v, n], i) => ({ v: Math.abs(v), n, i })).filter((e) => e.n);
+        if (nodes.length === 0) return top === 0;
+        return entries[top]![1] && nodes.every((e) => e.v <= Math.abs(mode[top]!));
+      }),
+    );
   });
 });

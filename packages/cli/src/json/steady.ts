@@ -1,4 +1,4 @@
-import type { SteadyResult } from "@onset/core";
+import type { Multiplier, SteadyResult } from "@onset/core";
 import type { Json } from "./results.js";
 import { warningsJson } from "../report/part-warnings.js";
 
@@ -26,10 +26,15 @@ export function steadyJson(r: SteadyResult): Json {
     iterations: r.iterations && [...r.iterations],
     points: r.points && [...r.points],
     shooting: r.shooting,
-    multipliers: r.multipliers.map((m) => ({ re: m.re, im: m.im, magnitude: Math.hypot(m.re, m.im) })),
+    multipliers: r.multipliers.map(multiplierJson),
+    trivialMultiplier: r.trivialMultiplier && multiplierJson(r.trivialMultiplier),
     stability: s ? { verdict: s.verdict, largest: s.largest ? Math.hypot(s.largest.re, s.largest.im) : null, rate: s.rate, cyclesToSettle: s.cyclesToSettle } : null,
     predicted: { ...r.predicted },
     transient: { periods: r.transient.periods, until: r.transient.until, maxStep: r.transient.maxStep, solver: { ...r.transient.solver } },
     warnings: warningsJson(r.warnings),
   };
+}
+
+function multiplierJson(m: Multiplier): Json {
+  return { re: m.re, im: m.im, magnitude: Math.hypot(m.re, m.im) };
 }

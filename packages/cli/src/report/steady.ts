@@ -63,6 +63,7 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   const listed = r.multipliers.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
   const more = r.multipliers.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
   const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none (one state)"]];
+  if (r.trivialMultiplier) entries.push(["trivial", `${formatPlain(Math.hypot(r.trivialMultiplier.re, r.trivialMultiplier.im), 8)} (a shift along the orbit: 1 but for the grid's error)`]);
   if (s.rate !== null) entries.push([s.verdict === "unstable" ? "disturbance grows" : "disturbance decays", perSecond(Math.abs(s.rate))]);
   if (s.cyclesToSettle !== null) entries.push(["to 1 % in", `${formatPlain(s.cyclesToSettle, 3)} periods (${si(s.cyclesToSettle * r.period!, "s", 3)})`]);
   lines.push(...pairs(entries, "    "));

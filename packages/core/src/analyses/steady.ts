@@ -1,6 +1,7 @@
+import { steadyOptions } from "./kinds/steady-options.js";
 import type { Circuit, SteadyAnalysis, StartupAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
-import { badArgument } from "../circuit/arguments.js";
+import { badArgument, checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions } from "../circuit/arguments.js";
 import { isOnsetError, simulationError, type Diagnostic } from "../circuit/diagnostic.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
@@ -9,12 +10,12 @@ import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, accuracyTolerances, loosenedTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
 import { OrbitApproach } from "../steady/approach.js";
-import { modeOfPole } from "../steady/growing-mode.js";
+import { largestNode, modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
-import { nonTrivialMultipliers, orbitStability, type OrbitStability } from "../steady/stability.js";
+import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
@@ -145,6 +146,8 @@ export interface SteadyResult {
    * the fourth digit), taken at the orbit or at a period within two tolerances of it.
    */
   readonly multipliers: readonly Multiplier[];
+  /** An autonomous orbit's trivial multiplier, left out of `multipliers`: 1 up to the grid's error; null when driven or without an orbit. */
+  readonly trivialMultiplier: Multiplier | null;
   readonly stability: OrbitStability | null;
   readonly predicted: SteadyPrediction;
   /** The transient before the shooting: periods and simulated time. */
@@ -214,7 +217,16 @@ export interface OrbitSeed {
  * whose transient dies out, or whose shooting finds nothing, gets `found: false` and why.
  */
 export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): SteadyResult {
+  checkArguments("runSteady", circuit, analysis, options);
   return solveSteady(circuit, analysis, options);
+}
+
+/** A public entry's checks at the door: the circuit's shape, the analysis as the statement's options table allows it, the options an object. */
+function checkArguments(api: string, circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions): void {
+  checkCircuit(api, circuit);
+  checkAnalysis(api, analysis, "steady");
+  checkAnalysisFields(api, analysis as unknown as Readonly<Record<string, unknown>>, steadyOptions);
+  checkOptions(api, options);
 }
 
 /**
@@ -223,6 +235,7 @@ export function runSteady(circuit: Circuit, analysis: SteadyAnalysis, options: S
  * whose samples start from their sources anyway).
  */
 export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
+  checkArguments("steadySeed", circuit, analysis, options);
   let seed: OrbitSeed | null = null;
   const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false }, (refined) => {
     const { orbit } = refined;
@@ -320,6 +333,10 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   }
   const mode = modeOfPole(linearize(system, bias.x), pole!);
   if (!mode) return noOrbit(idle(), "no periodic orbit searched: the growing mode could not be computed (the linearised circuit is singular at its pole)");
+  // The approach watches the node the growing mode swings most, not the probe: a probe may
+  // swing at a harmonic (a lamp's temperature), or not at all (a supply node), and the orbit
+  // found must not depend on where it is measured.
+  const swinging = largestNode(mode, system.unknowns);
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
   const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
@@ -336,7 +353,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, read, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
+    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
     let diedOut = false;
     // Each batch of transient ends in a shooting once the swing has levelled off (or when the
     // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
@@ -607,6 +624,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
     points: null,
     shooting: null,
     multipliers: [],
+    trivialMultiplier: null,
     stability: null,
     waveform: { time: new Float64Array(0), values: new Float64Array(0) },
   };
@@ -650,6 +668,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     points: orbit.points,
     shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
     multipliers,
+    trivialMultiplier: trivialMultiplier(orbit.orbit.multipliers, common.kind === "autonomous"),
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },
   };

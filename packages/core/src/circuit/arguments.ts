@@ -1,3 +1,4 @@
+import type { AnalysisOptions } from "./analysis-schema.js";
 import type { AnalysisSpec, Circuit } from "./circuit.js";
 import { inputError, type OnsetError } from "./diagnostic.js";
 
@@ -34,6 +35,42 @@ export function checkCircuit(api: string, circuit: unknown): asserts circuit is 
 /** Checks an analysis argument: an object of the expected kind. */
 export function checkAnalysis<K extends AnalysisSpec["kind"]>(api: string, analysis: unknown, kind: K): asserts analysis is Extract<AnalysisSpec, { kind: K }> {
   if (!isObject(analysis) || analysis.kind !== kind) throw badArgument(`${api}: analysis must be a ${kind} analysis ({ kind: "${kind}", … }), got ${describe(analysis)}`);
+}
+
+/**
+ * Checks an analysis argument's fields against its statement's options table (`max-step` is the
+ * field `maxStep`): what the language refuses in a file, the API refuses too — a required probe
+ * missing, a word not among the choices, a number out of range, not whole, or not finite.
+ */
+export function checkAnalysisFields(api: string, analysis: Readonly<Record<string, unknown>>, table: AnalysisOptions): void {
+  for (const [key, option] of Object.entries(table)) {
+    const field = key.replace(/-([a-z])/g, (_, c: string) => c.toUpperCase());
+    const value = analysis[field];
+    if (value === undefined) {
+      if (option.required) throw badArgument(`${api}: analysis.${field} is required (${option.summary})`);
+      continue;
+    }
+    if (option.type === "number" && !(option.words ?? []).includes(value as string)) {
+      const ok =
+        typeof value === "number" &&
+        Number.isFinite(value) &&
+        (option.min === undefined || (option.minExclusive ? value > option.min : value >= option.min)) &&
+        (option.max === undefined || value <= option.max) &&
+        (!option.integer || Number.isInteger(value));
+      if (!ok) throw badArgument(`${api}: analysis.${field} must be ${numberRule(option)}, got ${describe(value)}`);
+    } else if (option.type === "word" && !option.words.includes(value as string)) {
+      throw badArgument(`${api}: analysis.${field} must be one of ${option.words.map((w) => JSON.stringify(w)).join(", ")}, got ${describe(value)}`);
+    } else if (option.type === "probe" && !(isObject(value) && typeof value.kind === "string")) {
+      throw badArgument(`${api}: analysis.${field} must be a probe ({ kind: "node", node: "o" }, …), got ${describe(value)}`);
+    }
+  }
+}
+
+function numberRule(range: { readonly min?: number; readonly minExclusive?: boolean; readonly max?: number; readonly integer?: boolean }): string {
+  const kind = range.integer ? "a whole number" : "a finite number";
+  if (range.min !== undefined && range.max !== undefined) return `${kind} from ${range.min} to ${range.max}`;
+  if (range.min !== undefined) return `${kind} ${range.minExclusive ? "above" : "of at least"} ${range.min}`;
+  return range.max !== undefined ? `${kind} up to ${range.max}` : kind;
 }
 
 /** Checks an optional options argument: absent or an object. */

@@ -121,7 +121,7 @@ export interface SteadyAnalysis {
   readonly probe: Probe;
   /**
    * Where the shooting starts: `startup` (default) from a short transient started in the
-   * growing mode, its period measured on the probe; `poles` from the linear prediction's
+   * growing mode, its period measured on the node that mode swings most; `poles` from the linear prediction's
    * frequency, after a few periods in that mode.
    */
   readonly from?: "startup" | "poles";

@@ -2,6 +2,7 @@ import type { SmallSignal } from "../analyses/linearize.js";
 import type { Pole } from "../analyses/poles.js";
 import { fillPhasorMatrix, phasorPattern } from "../analyses/phasor-matrix.js";
 import { LuSolver } from "../solver/lu.js";
+import type { UnknownInfo } from "../solver/system.js";
 
 /**
  * Shifts of inverse iteration from the pole, relative to |s|, tried in turn: near enough to
@@ -33,6 +34,16 @@ export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
     if (mode !== undefined) return mode;
   }
   return null;
+}
+
+/**
+ * The node voltage a mode swings most (the first unknown when there is no node): watched, it
+ * swings at the oscillation's period whatever the probe is, in a unit the step control holds.
+ */
+export function largestNode(mode: Float64Array, unknowns: readonly UnknownInfo[]): number {
+  let top = -1;
+  for (let i = 0; i < mode.length; i++) if (unknowns[i]!.isNode && (top < 0 || Math.abs(mode[i]!) > Math.abs(mode[top]!))) top = i;
+  return Math.max(top, 0);
 }
 
 /** The mode by inverse iteration at `shift` (relative to |s|) off the pole; undefined when the pencil does not factor there. */

@@ -27,14 +27,29 @@ export interface OrbitStability {
  */
 export function nonTrivialMultipliers(multipliers: readonly Multiplier[], autonomous: boolean): Multiplier[] {
   const telling = (m: Multiplier) => Math.hypot(m.re, m.im) >= MEMORYLESS;
-  if (!autonomous || multipliers.length === 0) return multipliers.filter(telling);
+  const trivial = trivialIndex(multipliers, autonomous);
+  return multipliers.filter((m, k) => k !== trivial && telling(m));
+}
+
+/**
+ * An autonomous orbit's trivial multiplier (the one nearest 1, which `nonTrivialMultipliers`
+ * leaves out): exactly 1 for the exact orbit, so its distance from 1 shows the grid's error.
+ * Null for a driven orbit, which has none.
+ */
+export function trivialMultiplier(multipliers: readonly Multiplier[], autonomous: boolean): Multiplier | null {
+  return multipliers[trivialIndex(multipliers, autonomous)] ?? null;
+}
+
+/** The index of the multiplier nearest 1 for an autonomous orbit; −1 for a driven one or none. */
+function trivialIndex(multipliers: readonly Multiplier[], autonomous: boolean): number {
+  if (!autonomous || multipliers.length === 0) return -1;
   let trivial = 0;
   for (let k = 1; k < multipliers.length; k++) {
     const m = multipliers[k]!;
     const t = multipliers[trivial]!;
     if (Math.hypot(m.re - 1, m.im) < Math.hypot(t.re - 1, t.im)) trivial = k;
   }
-  return multipliers.filter((m, k) => k !== trivial && telling(m));
+  return trivial;
 }
 
 /** The orbit's stability from its non-trivial multipliers (largest magnitude first) and its period. */

@@ -1,20 +1,8 @@
-import type { AnalysisOptions } from "../../circuit/analysis-schema.js";
 import type { SteadyAnalysis } from "../../circuit/circuit.js";
 import type { AnalysisModel } from "../analysis-model.js";
 import { settledFigureOptions } from "./settled-figures.js";
 import { runSteady, type SteadyResult } from "../steady.js";
-
-// Plain literals only: a bundler then drops this table from a build that does not use it.
-const options: AnalysisOptions = {
-  probe: { type: "probe", required: true, summary: "probe the periodic steady state is measured on" },
-  from: { type: "word", words: ["startup", "poles"], summary: "where the shooting starts: a short transient in the growing mode (startup) or the poles' frequency (poles)" },
-  cycles: { type: "number", unit: "1", min: 1, max: 100_000, integer: true, summary: "periods of transient before the shooting (default 60 from startup, levelling off earlier; 4 from poles; 3 when driven)" },
-  "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
-  harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "highest harmonic order the THD counts, from 2 (default 30)" },
-  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics, instead of harmonics=" },
-  accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
-  "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
-};
+import { steadyOptions as options } from "./steady-options.js";
 
 /** `steady`: the periodic steady state by shooting, its figures over one period and its stability. */
 export const steady: AnalysisModel<SteadyAnalysis, SteadyResult> = {
