@@ -43,6 +43,19 @@ describe("onset run with steady", () => {
     expect(steady!.explanation).toMatch(/^no periodic orbit: the circuit does not oscillate — the poles' dominant pair at .* decays/);
   });
 
+  test("a lamp's temperature as the probe: no THD (its tones are the even harmonics), the warning, and a complex pair of multipliers written once", async () => {
+    ws.write(
+      "lamp.onset",
+      "resistor R1 o s 3.3k\ncapacitor C1 s p 47n\nresistor R2 p gnd 3.3k\ncapacitor C2 p gnd 47n\nresistor Rf o n 680\nlamp L1 n gnd 180 hot=800 rated=6 tau=60m\nopamp U1 p n o preset=general rails=(-15, 15)\nsteady probe=L1.temperature\n",
+    );
+    const r = await ws.run(["run", "lamp.onset"]);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/THD \(2–\d+\) +—/);
+    expect(r.stdout).toMatch(/warning: the probe L1\.temperature carries no tone at the oscillation's frequency/);
+    // The slow thermal pair: one entry a ± bj, not the pair twice.
+    expect(r.stdout).toMatch(/multipliers +0\.\d+ ± 0\.\d+j \(\|μ\| 0\.\d+\)\n/);
+  });
+
   test("the text report names the orbit's stability and the predicted start-up time; the CSV holds one period", async () => {
     ws.write("text.onset", wien("steady probe=o\n"));
     const r = await ws.run(["run", "text.onset", "--csv", "one-period.csv"]);

@@ -79,6 +79,13 @@ opamp     U1 p n o preset=general rails=(-15, 15)
     const theta = ambient * (340 / 180) ** (1 / 1.2);
     expect(rel(temperature.offset!, theta)).toBeLessThan(1e-4);
     expect(rel(output.amplitude!, lampAmplitude(680, 180, 800, 6))).toBeLessThan(1e-3);
+    // The temperature follows the power, v²: its tones are the even harmonics, with no fundamental
+    // to measure distortion against (mathematics: sin² = (1 − cos 2ωt)/2). No THD, and a warning.
+    expect(temperature.thd).toBeNull();
+    expect(temperature.warnings.map((w) => w.code)).toContain("orbit-without-fundamental");
+    expect(temperature.harmonics[1]!.dBc).toBeCloseTo(0, 9);
+    expect(output.thd!).toBeLessThan(1e-2);
+    expect(output.warnings.map((w) => w.code)).not.toContain("orbit-without-fundamental");
   });
 
   // A thermistor-held Wien (2.2 kΩ, 47 nF; 6.8 kΩ bead over 2.7 kΩ) beside a 5 V supply node the

@@ -60,8 +60,10 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   );
   lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
   lines.push("", `  stability (Floquet multipliers, the trivial one left out${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
-  const listed = r.multipliers.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
-  const more = r.multipliers.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
+  // A complex pair is written once, as a ± b·j.
+  const shown = r.multipliers.filter((m) => !(m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im))));
+  const listed = shown.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
+  const more = shown.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
   const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none (one state)"]];
   if (r.trivialMultiplier) entries.push(["trivial", `${formatPlain(Math.hypot(r.trivialMultiplier.re, r.trivialMultiplier.im), 8)} (a shift along the orbit: 1 but for the grid's error)`]);
   if (s.rate !== null) entries.push([s.verdict === "unstable" ? "disturbance grows" : "disturbance decays", perSecond(Math.abs(s.rate))]);

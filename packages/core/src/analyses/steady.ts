@@ -647,11 +647,11 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
   c.onOrbit?.(orbit);
   const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
-  const toneless = common.kind === "driven" && fundamentalAbsent(orbit.harmonics);
+  const toneless = fundamentalAbsent(orbit.harmonics);
   return {
     analysis: "steady",
     ...common,
-    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []), ...(toneless ? [tonelessWarning(c, orbit.frequency)] : [])],
+    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []), ...(toneless ? [tonelessWarning(c, orbit.frequency, common.kind)] : [])],
     found: true,
     explanation: `${what}; ${how}`,
     frequency: orbit.frequency,
@@ -683,14 +683,18 @@ function implausibleWarnings(system: MnaSystem, orbit: RefinedOrbit["orbit"]): D
 }
 
 /** The note of a driven orbit whose sources' tones are all harmonics 2, 3, … of their common period: no fundamental, so no THD. */
-function tonelessWarning(c: Context, frequency: number): Diagnostic {
+function tonelessWarning(c: Context, frequency: number, kind: SteadyResult["kind"]): Diagnostic {
+  const f = formatQuantity(frequency, "Hz");
   return {
     severity: "warning",
     stage: "simulation",
     code: "orbit-without-fundamental",
-    message: `the orbit's period is the sources' common one (${formatQuantity(frequency, "Hz")}), at which no source has a tone: there is no fundamental to measure THD against`,
+    message:
+      kind === "driven"
+        ? `the orbit's period is the sources' common one (${f}), at which no source has a tone: there is no fundamental to measure THD against`
+        : `the probe ${probeName(c.analysis.probe)} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`,
     ...(c.analysis.span ? { span: c.analysis.span } : {}),
-    hint: "THD is not given; the harmonics' levels are relative to the largest of them",
+    hint: kind === "driven" ? "THD is not given; the harmonics' levels are relative to the largest of them" : "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at the oscillation's frequency for its distortion",
   };
 }
 
