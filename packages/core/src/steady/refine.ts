@@ -121,14 +121,8 @@ function seamShift(system: MnaSystem, times: readonly number[], states: readonly
   let fastest = 0;
   let shift = 0;
   for (const j of system.stateColumns) {
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (const x of states) {
-      lo = Math.min(lo, x[j]!);
-      hi = Math.max(hi, x[j]!);
-    }
     const rate = (states[N]![j]! - states[N - 1]![j]!) / h;
-    const speed = (Math.abs(rate) * period) / (hi - lo);
+    const speed = (Math.abs(rate) * period) / swingOf(states, j);
     if (speed > fastest) {
       fastest = speed;
       shift = -(states[N]![j]! - states[0]![j]!) / rate;
@@ -140,20 +134,26 @@ function seamShift(system: MnaSystem, times: readonly number[], states: readonly
 /** A seam shift beyond this fraction of the period is not corrected (see `seamShift`). */
 const RETIME_REACH = 0.01;
 
+/** Peak-to-peak of unknown j over the recorded states. */
+function swingOf(states: readonly Float64Array[], j: number): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const x of states) {
+    lo = Math.min(lo, x[j]!);
+    hi = Math.max(hi, x[j]!);
+  }
+  return hi - lo;
+}
+
 /** The recorded point (not the last) where the charged state with the largest swing changes fastest. */
 function fastestPoint(system: MnaSystem, times: readonly number[], states: readonly Float64Array[]): number {
   const N = times.length - 1;
   let widest = -1;
   let swing = -1;
   for (const j of system.stateColumns) {
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (const x of states) {
-      lo = Math.min(lo, x[j]!);
-      hi = Math.max(hi, x[j]!);
-    }
-    if (hi - lo > swing) {
-      swing = hi - lo;
+    const size = swingOf(states, j);
+    if (size > swing) {
+      swing = size;
       widest = j;
     }
   }
