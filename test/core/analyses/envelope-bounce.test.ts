@@ -59,27 +59,40 @@ describe("a Wien bridge with a slow gain loop (diode resistor, peak detector, RC
     expect(r.explanation).toMatch(/^settled at/);
   });
 
-  test("with a four times slower filter the loop is unstable: bouncing, as the odex reference's envelope collapses and restarts too", () => {
+  test("with a four times slower filter the loop is barely damped: its collapses die away, as the odex reference's do (each valley higher, each peak lower)", () => {
     const filter = 1e-6;
-    const r = runStartup(circuit(agcWienParts(filter)), { kind: "startup", probe: node("o"), until: "auto" });
-    expect(r.verdict).toBe("bouncing");
-    expect(r.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted \d+ times/);
-    // the reference: every valley below a fifth of both peaks beside it (measured: 4 by 0.6 s)
+    // measured: at 0.6 s collapsed and restarted 4 times, lows 0 (stopped), 28.9 mV, 94 mV, 171 mV under peaks 23.3, 2.86, 2.20, 1.88 V;
+    // run on to the default bound (4 s) the bounce is left at ζ ≈ 0.015, still unsettled
+    const r = runStartup(circuit(agcWienParts(filter)), { kind: "startup", probe: node("o"), until: "auto", settleWithin: 0.6 });
+    expect(r.verdict).toBe("unsettled");
+    expect(r.explanation).toMatch(/^the amplitude loop is settling: the envelope collapsed and restarted \d+ times, each collapse shallower than the one before/);
+    expect(r.warnings.map((w) => w.code)).toContain("not-settled-within");
+    // the reference: every valley below a fifth of both peaks beside it, each higher than the one before and each peak lower
+    // (measured: valleys 7e-9, 2.2 mV, 35 mV under peaks 22.9, 4.53, 2.75 V by 0.6 s; to 3 s they keep closing on the level, about 0.81 V: valley 0.78 V, peak 0.85 V by then)
     const e = agcWienReference(filter, 0.6).value;
-    let valleys = 0;
-    let peakBefore = 0;
+    // from the first overshoot on: a peak ends when the envelope falls below a fifth of it, a valley when it regrows to five times it
+    const valleys: number[] = [];
+    const peaks: number[] = [];
+    let peak = Math.max(...e);
     let low = Infinity;
-    for (let k = 0; k < e.length; k++) {
-      if (e[k]! < low) low = e[k]!;
-      if (e[k]! > 5 * low && peakBefore > 5 * low) {
-        valleys++;
-        peakBefore = 0;
-        low = Infinity;
+    for (let k = e.indexOf(peak); k < e.length; k++) {
+      if (low === Infinity) {
+        peak = Math.max(peak, e[k]!);
+        if (e[k]! < 0.2 * peak) low = e[k]!;
+      } else {
+        low = Math.min(low, e[k]!);
+        if (e[k]! >= 5 * low) {
+          peaks.push(peak);
+          valleys.push(low);
+          [peak, low] = [e[k]!, Infinity];
+        }
       }
-      if (low === Infinity || e[k]! > peakBefore) peakBefore = Math.max(peakBefore, e[k]!);
-      if (e[k]! < 0.2 * peakBefore && low === Infinity) low = e[k]!;
     }
-    expect(valleys).toBeGreaterThanOrEqual(2);
+    expect(valleys.length).toBeGreaterThanOrEqual(2);
+    for (let i = 1; i < valleys.length; i++) {
+      expect(valleys[i]!).toBeGreaterThan(valleys[i - 1]!);
+      expect(peaks[i]!).toBeLessThan(peaks[i - 1]!);
+    }
   });
 
   test("until=auto stops at settle-within= with a warning placed there when the loop has not settled", () => {

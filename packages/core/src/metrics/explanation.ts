@@ -97,6 +97,13 @@ export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend:
   if (reason.kind === "recovering") {
     return `the envelope fell after its peak and grew again ${reason.rise.toFixed(1)}× from its lowest: the amplitude loop is recovering from its overshoot; run longer`;
   }
+  if (reason.kind === "collapses-dying") {
+    const volts = (values: readonly number[]) => values.map((x) => (x > 0 ? formatQuantity(x, "V") : "0 (stopped)")).join(", ");
+    return (
+      `the amplitude loop is settling: the envelope collapsed and restarted ${reason.count} times, each collapse shallower than the one before ` +
+      `(peaks ${volts(reason.peaks)}; lowest ${volts(reason.lows)}); run longer`
+    );
+  }
   if (reason.kind === "loop-moving") {
     const how = b?.bounceFrequency ? `still bounces${bounceText(b)}` : "still creeps";
     const longer = extraTime === undefined ? "run longer" : `run about ${formatQuantity(extraTime, "s")} longer`;

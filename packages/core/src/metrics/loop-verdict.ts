@@ -1,11 +1,16 @@
-import { collapsesAndRestarts } from "./collapses.js";
+import { collapses, collapsesDying, type Collapse } from "./collapses.js";
 import type { CycleTable } from "./cycles.js";
-import { envelopeDynamics, type EnvelopeDynamics } from "./envelope-dynamics.js";
+import { envelopeDynamics, SUSTAINED_BOUNCES, SUSTAINED_LOSS, type EnvelopeDynamics } from "./envelope-dynamics.js";
 import type { StartupSettings } from "./startup-options.js";
-import { SILENT_RATIO, type Judgement } from "./verdict.js";
+import { SILENT_RATIO, type Judgement, type TrendReason } from "./verdict.js";
 
 /** Collapses and restarts that make a record `bouncing` (one may be a slow loop's start-up, which then settles). */
 const COLLAPSES_TO_BOUNCE = 2;
+/**
+ * Collapses are dying away when each is shallower than the one before by at least this factor:
+ * a bounce keeping more is sustained ({@link SUSTAINED_LOSS} over {@link SUSTAINED_BOUNCES} bounces).
+ */
+export const DYING_KEEP = (1 - SUSTAINED_LOSS) ** (1 / SUSTAINED_BOUNCES);
 /** A falling record that grew again by this factor after its peak is recovering, not decaying. */
 const RECOVERY_RISE = 2;
 
@@ -22,6 +27,10 @@ function riseAfterPeak(e: Float64Array): number {
   return rise;
 }
 
+function dyingReason(series: readonly Collapse[]): TrendReason {
+  return { kind: "collapses-dying", count: series.length, peaks: series.map((c) => c.peak), lows: series.map((c) => c.low) };
+}
+
 /** The envelope's slow dynamics and the verdict they lead to. */
 export interface LoopJudgement {
   readonly judgement: Judgement;
@@ -36,20 +45,26 @@ export interface LoopJudgement {
  * of cycles, a creep with a long time constant — still move it. The envelope (or, when the
  * record was steady on it, the per-cycle strength) from its first reaching the final level is
  * fitted (`envelopeDynamics`); then
- * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times and has not settled since, or if its bounce is sustained (see `EnvelopeDynamics.sustained`) with an amplitude
- *    above `settleTolerance` (relative);
+ * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times and has not settled since,
+ *    the collapses not dying away (see `collapsesDying`, with {@link DYING_KEEP}) — dying ones are a
+ *    stable loop's large bounce: `unsettled` (`collapses-dying`); or if its bounce is sustained
+ *    (see `EnvelopeDynamics.sustained`) with an amplitude above `settleTolerance` (relative);
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
  *    fitted mode needs to bring that within the tolerance.
  * A `decaying` record that grew again by {@link RECOVERY_RISE} after its peak is `unsettled`
- * (`recovering`): a slow loop's overshoot nearly killed it and it is coming back. Silent records
+ * (`recovering`): a slow loop's overshoot nearly killed it and it is coming back — or
+ * (`collapses-dying`) it is falling into the next of collapses that die away. Silent records
  * are left as they are.
  */
 export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: StartupSettings): LoopJudgement {
+  const floor = SILENT_RATIO * settings.noiseFloor;
   if (judgement.verdict === "decaying") {
     const rise = riseAfterPeak(cycles.envelope);
     if (rise < RECOVERY_RISE) return { judgement, dynamics: null };
-    return { judgement: { verdict: "unsettled", reason: { kind: "recovering", rise }, trend: judgement.trend }, dynamics: null };
+    const series = collapses(cycles, floor);
+    const reason = series.length >= COLLAPSES_TO_BOUNCE && collapsesDying(series, DYING_KEEP) ? dyingReason(series) : ({ kind: "recovering", rise } as const);
+    return { judgement: { verdict: "unsettled", reason, trend: judgement.trend }, dynamics: null };
   }
   if (judgement.verdict === "silent" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
   const n = cycles.count;
@@ -58,12 +73,13 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   let level = 0;
   for (let k = n - w; k < n; k++) level += measure[k] / w;
   const dynamics = envelopeDynamics(cycles.midTime, measure, level);
-  const collapses = collapsesAndRestarts(cycles, SILENT_RATIO * settings.noiseFloor);
+  const series = collapses(cycles, floor);
   const { trend } = judgement;
   // Collapses the record then steadied from (cycle to cycle, its bounce dying away) were the loop's start-up; the fit below still judges whether it has settled.
   const settledSince = judgement.verdict === "settled" && !dynamics.sustained;
-  if (collapses >= COLLAPSES_TO_BOUNCE && !settledSince) {
-    return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: collapses }, trend }, dynamics };
+  if (series.length >= COLLAPSES_TO_BOUNCE && !settledSince) {
+    if (!collapsesDying(series, DYING_KEEP)) return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: series.length }, trend }, dynamics };
+    if (judgement.verdict !== "settled") return { judgement: { verdict: "unsettled", reason: dyingReason(series), trend }, dynamics };
   }
   if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };
   if (judgement.verdict !== "settled" || !(dynamics.remaining > settings.settleTolerance)) return { judgement, dynamics };

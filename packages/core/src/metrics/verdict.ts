@@ -5,7 +5,7 @@ import type { StartupSettings } from "./startup-options.js";
 
 /**
  * What the per-cycle envelope alone shows; `bouncing`: its own slow oscillation never settles,
- * or it collapses and restarts (an unstable amplitude loop, see `judgeLoop`).
+ * or it collapses and restarts again and again as deep (an unstable amplitude loop, see `judgeLoop`).
  */
 export type EnvelopeVerdict = "settled" | "growing" | "decaying" | "silent" | "unsettled" | "bouncing";
 
@@ -38,7 +38,9 @@ export type SilentReason =
  * from an overshoot), a drifting mean, or an envelope steady from cycle to cycle whose slow
  * dynamics (a bounce, a creep) would still move it by `remaining` (relative) — the amplitude
  * loop has not settled — or one that fell after its peak and grew again by the factor `rise`
- * (recovering from an overshoot that nearly killed it).
+ * (recovering from an overshoot that nearly killed it), or one whose collapses and restarts
+ * (`count`, each the largest envelope before it and its lowest, 0 for a stop) grow shallower
+ * one after the other: a stable loop's large bounce dying away.
  */
 export type TrendReason =
   | { readonly kind: "trend" }
@@ -46,7 +48,8 @@ export type TrendReason =
   | { readonly kind: "relaxing" }
   | { readonly kind: "drifting"; readonly largest: number }
   | { readonly kind: "loop-moving"; readonly remaining: number }
-  | { readonly kind: "recovering"; readonly rise: number };
+  | { readonly kind: "recovering"; readonly rise: number }
+  | { readonly kind: "collapses-dying"; readonly count: number; readonly peaks: readonly number[]; readonly lows: readonly number[] };
 
 /** Why a record is `bouncing`: its envelope collapsed and restarted, or its bounce does not die away. */
 export type BouncingReason = { readonly kind: "collapses"; readonly count: number } | { readonly kind: "sustained" };
