@@ -1,4 +1,4 @@
-import { simulationError } from "../circuit/diagnostic.js";
+import { isOnsetError, simulationError, type OnsetError } from "../circuit/diagnostic.js";
 import { NewtonSolver, type NewtonOutcome, type NewtonState } from "../solver/newton.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
@@ -142,6 +142,8 @@ export class TransientStepper {
   private readonly qMiddle: Float64Array;
   private nextBreak = Infinity;
   private readonly observers: StepObserver[] = [];
+  /** The singular matrix that stopped the last Newton solve of a step, if one did (see `solveStep`). */
+  private singular: OnsetError | undefined;
 
   constructor(system: MnaSystem, settings: StepperSettings) {
     this.t = this.segmentStart = this.segmentStep = this.segmentCount = 0;
@@ -331,23 +333,40 @@ export class TransientStepper {
     state.firstOrderHistory(solver.history, q, h);
     solver.loadSources(target, 1, landing);
     xWhole.set(this.x);
-    let outcome = solver.solve(xWhole, iterations);
+    let outcome = this.solveStep(xWhole, iterations);
     if (!outcome.converged) return outcome;
     const half = 0.5 * h;
     solver.setCoefficients(1 / half, 1 / half);
     state.firstOrderHistory(solver.history, q, half);
     solver.loadSources(this.t + half, 1, false);
     for (let i = 0; i < this.n; i++) xHalf[i] = 0.5 * (this.x[i]! + xWhole[i]!);
-    outcome = solver.solve(xHalf, iterations);
+    outcome = this.solveStep(xHalf, iterations);
     if (!outcome.converged) return outcome;
     this.qHalf.set(solver.qNonlinear);
     state.chargesAt(xHalf, this.qHalf, this.qMiddle);
     state.firstOrderHistory(solver.history, this.qMiddle, half);
     solver.loadSources(target, 1, landing);
     xNew.set(xWhole);
-    outcome = solver.solve(xNew, iterations);
+    outcome = this.solveStep(xNew, iterations);
     if (!outcome.converged) return outcome;
     return doublingRatio(xNew, xWhole, this.system.stateColumns, this.scale);
+  }
+
+  /**
+   * One Newton solve of a step. A matrix singular at an iterate (a junction's conductance so
+   * large, far out on a trial step, that a resistor beside it is lost to rounding) fails the
+   * step like a Newton that does not converge: the step is cut, and only a step below the
+   * smallest allowed still meeting it ends the run, with that error.
+   */
+  private solveStep(x: Float64Array, iterations: number): NewtonOutcome {
+    try {
+      this.singular = undefined;
+      return this.solver.solve(x, iterations);
+    } catch (error) {
+      if (!isOnsetError(error) || error.diagnostic.code !== "singular-matrix") throw error;
+      this.singular = error;
+      return { converged: false, iterations: 0, worst: 0 };
+    }
   }
 
   /** A step that could not be taken: the next attempt is shorter, or the run fails below `minStep`. */
@@ -367,8 +386,9 @@ export class TransientStepper {
     this.h = h / 8;
     this.solver.refreshJacobian();
     if (this.h < minStep) {
-      const worst = this.system.unknowns[cause.worst]?.label ?? "?";
       this.collectSolverCounts();
+      if (this.singular) throw this.singular;
+      const worst = this.system.unknowns[cause.worst]?.label ?? "?";
       throw simulationError(
         "newton-not-converged",
         `Newton did not converge at t = ${Number(this.t.toPrecision(6))} s after ${cause.iterations} iterations (largest change at '${worst}'); the step fell below ${minStep.toExponential(1)} s`,
@@ -423,7 +443,7 @@ export class TransientStepper {
       solver.setCoefficients(2 / h, IntegrationState.bdf2Coefficient(h, omega));
       this.prepareStep(target, h, omega);
       solver.loadSources(target, 1, landing);
-      const outcome = solver.solve(this.xNew, tolerances.stepIterations);
+      const outcome = this.solveStep(this.xNew, tolerances.stepIterations);
       if (!outcome.converged) {
         this.reject(h, outcome, minStep);
         continue;
