@@ -1,12 +1,19 @@
 import { writersOf } from "../analyses/registry.js";
 import type { Paint } from "../color.js";
 import { specReport } from "../report/spec.js";
+import { studySampleText } from "../report/study-sample.js";
 import { studyText } from "../report/study.js";
 import { sweepText } from "../report/sweep.js";
 import type { Outcome, ReportSubject } from "./outcome.js";
 
 function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[][] {
   return outcome.runs.map((run) => writersOf(run.result.analysis).text(run, outcome.runs, p));
+}
+
+/** The unit of the first start-up or steady analysis's probe (the one a steady study measures), else volts. */
+function probeUnit(outcome: Extract<Outcome, { kind: "plain" }>): string {
+  for (const { result } of outcome.runs) if (result.analysis === "steady" || result.analysis === "startup") return result.unit;
+  return "V";
 }
 
 /** The readable report: a heading, one section per analysis (or the study), then the spec. */
@@ -21,6 +28,7 @@ export function outcomeText(subject: ReportSubject, outcome: Outcome, p: Paint):
   }
   const sections: string[][] = [head];
   if (outcome.kind === "plain") {
+    if (outcome.sample?.study) sections.push(studySampleText(outcome.sample.index, outcome.sample.study, probeUnit(outcome), p));
     sections.push(...plainSections(outcome, p));
     if (outcome.runs.length === 0) sections.push(["no analyses to run: add one such as: startup probe=o"]);
     if (outcome.spec) sections.push(specReport(outcome.spec, p));
