@@ -1,6 +1,7 @@
 // `onset run FILE --sample I` under `tolerance … measure=steady`: the study's own figures for the
 // sample, to the bit (the same nominal orbit, first-order start and single grid), beside a fresh
 // full steady analysis with its error bars.
+import { readFileSync } from "node:fs";
 import { afterAll, describe, expect, test } from "vitest";
 import { Workspace, wien } from "./support/onset.js";
 
@@ -62,6 +63,12 @@ describe("--sample I of a tolerance study measured by the steady state", () => {
     expect(r.stdout).toContain("exactly as the study measured it");
     expect(r.stdout).toContain("the analyses below are a fresh full run with the drawn values");
     expect(r.stdout.indexOf("the study's figures")).toBeLessThan(r.stdout.indexOf("steady state on o"));
+    // The page has them in a section of their own, before the analyses.
+    const page = await ws.run(["run", "text.onset", "--sample", "1", "--html", "sample.html"]);
+    expect(page.status).toBe(0);
+    const html = readFileSync(ws.path("sample.html"), "utf8");
+    expect(html).toMatch(/<h2>study sample<\/h2><pre>the study&apos;s figures for sample #1/);
+    expect(html.indexOf("<h2>study sample</h2>")).toBeLessThan(html.indexOf("<h2>steady</h2>"));
   });
 
   test("in a design window, --sample I --set at a setting gives the study's figures at that setting", async () => {

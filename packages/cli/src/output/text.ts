@@ -16,6 +16,11 @@ function probeUnit(outcome: Extract<Outcome, { kind: "plain" }>): string {
   return "V";
 }
 
+/** `--sample I` under measure=steady: the study's own figures for the sample (see `studySampleText`), or null. */
+export function studySampleLines(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[] | null {
+  return outcome.sample?.study ? studySampleText(outcome.sample.index, outcome.sample.study, probeUnit(outcome), p) : null;
+}
+
 /** The readable report: a heading, one section per analysis (or the study), then the spec. */
 export function outcomeText(subject: ReportSubject, outcome: Outcome, p: Paint): string {
   const heading = subject.title ? `${p.bold(subject.title)}  ${p.dim(subject.file)}` : p.bold(subject.file);
@@ -28,7 +33,8 @@ export function outcomeText(subject: ReportSubject, outcome: Outcome, p: Paint):
   }
   const sections: string[][] = [head];
   if (outcome.kind === "plain") {
-    if (outcome.sample?.study) sections.push(studySampleText(outcome.sample.index, outcome.sample.study, probeUnit(outcome), p));
+    const study = studySampleLines(outcome, p);
+    if (study) sections.push(study);
     sections.push(...plainSections(outcome, p));
     if (outcome.runs.length === 0) sections.push(["no analyses to run: add one such as: startup probe=o"]);
     if (outcome.spec) sections.push(specReport(outcome.spec, p));
