@@ -84,6 +84,17 @@ describe("--sample I of a tolerance study measured by the steady state", () => {
     }
   });
 
+  test("a sweep … measure=steady setting is the file's steady analysis run alone: --nominal --set gives its figures exactly (docs/language.md)", async () => {
+    ws.write("sweep.onset", wien("steady probe=o\nsweep Rg from=9k to=10k steps=2 measure=steady\n"));
+    const sweep = JSON.parse((await ws.run(["run", "sweep.onset", "--json", "--jobs", "2"])).stdout) as { results: [{ points: Array<{ value: number; results: Array<Record<string, unknown>> }> }] };
+    for (const point of sweep.results[0].points) {
+      const alone = JSON.parse((await ws.run(["run", "sweep.onset", "--json", "--nominal", "--set", `Rg=${point.value}`])).stdout) as { results: Array<Record<string, unknown>> };
+      const [setting] = point.results;
+      const [steady] = alone.results;
+      for (const key of ["frequency", "amplitude", "thd", "rms", "offset", "numericalError", "multipliers"]) expect(steady![key]).toEqual(setting![key]);
+    }
+  });
+
   test("a study measured by start-up runs has no separate study figures: the rerun's start-up run is the study's", async () => {
     ws.write("startup.onset", wien("startup probe=o until=30m\ntolerance runs=2 seed=3\n"));
     const rerun = JSON.parse((await ws.run(["run", "startup.onset", "--json", "--sample", "0"])).stdout) as Rerun;
