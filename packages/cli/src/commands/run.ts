@@ -7,9 +7,10 @@ import { elaborateSource, loadSource, STDIN_NAME, type LoadedSource } from "../i
 import { documentCounts } from "../output/files.js";
 import { checkOutputs, documentTargets, refuseInputs } from "../output/plan.js";
 import { outputTarget } from "../output/target.js";
-import type { Outcome, ReportSubject } from "../output/outcome.js";
+import type { Outcome, ReportSubject, SampleRerun } from "../output/outcome.js";
 import { specChecks } from "../report/spec.js";
 import { defaultResultsPath, drawnTolerances, runStudy } from "../study/run-study.js";
+import { studySample } from "../study/study-sample.js";
 import { sweepReport } from "../study/sweep-report.js";
 import { targetInfo } from "../study/target.js";
 import type { CommandContext } from "./context.js";
@@ -20,7 +21,7 @@ import { jobsOf, overridesOf, sampleOf, shardOf } from "./run-options.js";
 import { watchCommand } from "./watch.js";
 
 /** The file's plain analyses; the further seeds of `startup seeds=N` run on `jobs` workers. */
-async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, jobs: number, sample?: { index: number; drawn: Record<string, number> }): Promise<Outcome> {
+async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLimits, jobs: number, sample?: SampleRerun): Promise<Outcome> {
   const run = await runCircuitInParallel(circuit, { onProgress: ctx.progress.simulation("simulating"), limits, pool: workerPool(jobs) });
   ctx.progress.stop();
   const analyses = circuit.analyses.filter(isSimulating);
@@ -49,14 +50,19 @@ async function sweepOutcome(ctx: CommandContext, source: LoadedSource, sets: Rec
   return { kind: "sweep", report: sweepReport(result, info.unit, hasSpec), analyses: steady ? [steady] : circuit.analyses.filter(isSimulating) };
 }
 
-function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits, jobs: number): Promise<Outcome> {
+/**
+ * `--sample I`: the file's analyses with sample I's drawn values; under measure=steady also the
+ * sample as the study ran it (see `studySample`), whose figures are the study's own.
+ */
+async function sampleRerun(ctx: CommandContext, source: LoadedSource, sets: Record<string, string>, circuit: Circuit, index: number, limits: RunLimits, jobs: number): Promise<Outcome> {
   const tolerance = circuit.analyses.find((a): a is ToleranceAnalysis => a.kind === "tolerance");
   if (!tolerance) throw usageError("no-tolerance", "--sample needs a file with a tolerance analysis", "add a line such as: tolerance runs=200");
   if (index >= tolerance.runs) throw usageError("bad-option", `--sample ${index} is past the study's ${tolerance.runs} runs`, `give an index from 0 to ${tolerance.runs - 1}`);
   const sweep = circuit.analyses.find((a): a is SweepAnalysis => a.kind === "sweep");
   const drawn = drawSample(drawnTolerances(circuit, sweep), tolerance.seed, index, tolerance.dist);
+  const study = tolerance.measure === "steady" ? await studySample(source, sets, circuit, tolerance, sweep, index, limits) : undefined;
   const sampled = elaborateSource(source, { ...sets, ...drawn }).circuit;
-  return plainOutcome(ctx, sampled, limits, jobs, { index, drawn });
+  return plainOutcome(ctx, sampled, limits, jobs, { index, drawn, ...(study ? { study } : {}) });
 }
 
 /** --shard and --resume need a tolerance study to act on; --results without one is only noted. */

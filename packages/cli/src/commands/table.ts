@@ -77,7 +77,7 @@ export const COMMANDS: readonly CommandSpec[] = [
       { name: "shard", value: "k/n", summary: "run only slice k (from 0) of n of the study; env:NAME/n reads k from $NAME" },
       { name: "results", value: "FILE", summary: "the study's results file (JSON Lines; a pipe or - streams it)" },
       { name: "resume", summary: "continue the study in the results file, running only missing samples" },
-      { name: "sample", value: "I", summary: "rerun sample I of the tolerance study alone, with full reports and plots" },
+      { name: "sample", value: "I", summary: "rerun sample I of the tolerance study alone, with full reports and plots (under measure=steady, the study's own figures for it first)" },
       { name: "nominal", summary: "run the file's analyses once, without its sweep or tolerance study" },
       { name: "watch", summary: "run again each time FILE or an include is saved, until Ctrl-C" },
       { name: "time-limit", value: "SECONDS", summary: "stop the simulation after this much wall time (e.g. 30, 500m)" },

@@ -2,7 +2,7 @@ import { paint } from "../color.js";
 import type { Json } from "../json/results.js";
 import { outcomeDocument } from "../output/document.js";
 import type { Outcome, ReportSubject } from "../output/outcome.js";
-import { outcomeText } from "../output/text.js";
+import { outcomeText, studySampleLines } from "../output/text.js";
 import { studyFigure } from "../svg/study.js";
 import { sweepSvgFigure } from "../svg/sweep.js";
 import { tag, textTag } from "./markup.js";
@@ -41,13 +41,18 @@ function heading(subject: ReportSubject, doc: Json, exit: number): string {
 function bodySections(outcome: Outcome, doc: Json): string[] {
   const results = list(doc, "results");
   switch (outcome.kind) {
-    case "plain":
+    case "plain": {
+      // --sample I under measure=steady: the study's own figures first, as the terminal gives them.
+      const lines = studySampleLines(outcome, paint(false));
+      const study = lines ? [section("study sample", "a0-study", textTag("pre", {}, lines.join("\n")))] : [];
       if (outcome.runs.length === 0) return [section("no analyses", "a0", textTag("p", { class: "explanation" }, "no analyses to run: add one such as: startup probe=o"))];
-      return outcome.runs.map((run, k) => {
+      const analyses = outcome.runs.map((run, k) => {
         const d = results[k] ?? null;
         const key = `a${k + 1}`;
         return section(str(d, "analysis") ?? run.result.analysis, key, plainSection(d) + plotsMarkup(resultPlots(run, key)));
       });
+      return [...study, ...analyses];
+    }
     case "study": {
       const d = results[0] ?? null;
       const figure = { ...studyFigure(outcome.report, "samples"), width: WIDE };

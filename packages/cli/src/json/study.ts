@@ -4,7 +4,8 @@ import { reproduceCommand } from "../study/reproduce.js";
 import type { StudyReport } from "../study/study-report.js";
 import type { Json } from "./results.js";
 
-function sampleJson(s: StoredSample): Json {
+/** A sample as the study's JSON lists it (also the study's figures of `--sample I`). */
+export function sampleJson(s: StoredSample): Json {
   return { index: s.index, drawn: { ...s.drawn }, pass: s.pass, failures: [...s.failures], error: s.error, metrics: s.metrics ? { ...s.metrics, numericalError: s.metrics.numericalError ? { ...s.metrics.numericalError } : null } : null };
 }
 

@@ -1,7 +1,13 @@
 import { resultsJson, type Json } from "../json/results.js";
-import { studyJson } from "../json/study.js";
+import { sampleJson, studyJson } from "../json/study.js";
 import { sweepJson } from "../json/sweep.js";
-import type { Outcome, ReportSubject } from "./outcome.js";
+import type { Outcome, ReportSubject, SampleRerun } from "./outcome.js";
+
+/** `--sample I`: the index, the drawn values and, under measure=steady, the study's own figures for the sample (`study`, as the study's JSON lists it). */
+function sampleRerunJson(s: SampleRerun): Json {
+  const study = s.study ? { study: { measure: "steady", ...(s.study.setting ? { setting: { ...s.study.setting } } : {}), ...(sampleJson(s.study.sample) as Record<string, Json>) } } : {};
+  return { index: s.index, drawn: { ...s.drawn }, ...study };
+}
 
 /**
  * The one JSON document of `--json`: `{ file, title, overrides, results, spec, exit }`, numbers
@@ -15,7 +21,7 @@ export function outcomeDocument(subject: ReportSubject, outcome: Outcome, exit: 
     case "plain":
       results = resultsJson(outcome.runs);
       spec = outcome.spec as unknown as Json;
-      sample = outcome.sample ? { index: outcome.sample.index, drawn: { ...outcome.sample.drawn } } : undefined;
+      sample = outcome.sample ? sampleRerunJson(outcome.sample) : undefined;
       break;
     case "study":
       results = [studyJson(outcome.report)];

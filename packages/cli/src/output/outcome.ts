@@ -1,6 +1,7 @@
 import type { SimulatingAnalysis } from "@onset/core";
 import type { AnalysisRun } from "../report/plain-types.js";
 import type { SpecChecks } from "../report/spec.js";
+import type { StudySample } from "../study/study-sample.js";
 import type { StudyReport } from "../study/study-report.js";
 import type { SweepReport } from "../study/sweep-report.js";
 
@@ -15,6 +16,8 @@ export interface ReportSubject {
 export interface SampleRerun {
   readonly index: number;
   readonly drawn: Readonly<Record<string, number>>;
+  /** Under measure=steady: the sample as the study ran it (its figures differ from a full steady analysis by the single grid's error). */
+  readonly study?: StudySample;
 }
 
 /** What one `onset run` (or `onset merge`) produced. */

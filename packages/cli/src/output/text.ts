@@ -1,12 +1,24 @@
 import { writersOf } from "../analyses/registry.js";
 import type { Paint } from "../color.js";
 import { specReport } from "../report/spec.js";
+import { studySampleText } from "../report/study-sample.js";
 import { studyText } from "../report/study.js";
 import { sweepText } from "../report/sweep.js";
 import type { Outcome, ReportSubject } from "./outcome.js";
 
 function plainSections(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[][] {
   return outcome.runs.map((run) => writersOf(run.result.analysis).text(run, outcome.runs, p));
+}
+
+/** The unit of the first start-up or steady analysis's probe (the one a steady study measures), else volts. */
+function probeUnit(outcome: Extract<Outcome, { kind: "plain" }>): string {
+  for (const { result } of outcome.runs) if (result.analysis === "steady" || result.analysis === "startup") return result.unit;
+  return "V";
+}
+
+/** `--sample I` under measure=steady: the study's own figures for the sample (see `studySampleText`), or null. */
+export function studySampleLines(outcome: Extract<Outcome, { kind: "plain" }>, p: Paint): string[] | null {
+  return outcome.sample?.study ? studySampleText(outcome.sample.index, outcome.sample.study, probeUnit(outcome), p) : null;
 }
 
 /** The readable report: a heading, one section per analysis (or the study), then the spec. */
@@ -21,6 +33,8 @@ export function outcomeText(subject: ReportSubject, outcome: Outcome, p: Paint):
   }
   const sections: string[][] = [head];
   if (outcome.kind === "plain") {
+    const study = studySampleLines(outcome, p);
+    if (study) sections.push(study);
     sections.push(...plainSections(outcome, p));
     if (outcome.runs.length === 0) sections.push(["no analyses to run: add one such as: startup probe=o"]);
     if (outcome.spec) sections.push(specReport(outcome.spec, p));

@@ -1,4 +1,4 @@
-import { checkCircuit, checkOptions } from "../circuit/arguments.js";
+import { checkAnalysis, checkCircuit, checkOptions } from "../circuit/arguments.js";
 import type { Circuit, PolesAnalysis } from "../circuit/circuit.js";
 import { simulationError } from "../circuit/diagnostic.js";
 import { eigenvalues } from "../solver/eigenvalues.js";
@@ -105,8 +105,9 @@ export function startsFrom(pole: Pole): boolean {
 }
 
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
-export function runPoles(circuit: Circuit, _analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
+export function runPoles(circuit: Circuit, analysis: PolesAnalysis, options: RunOptions = {}): PolesResult {
   checkCircuit("runPoles", circuit);
+  checkAnalysis("runPoles", analysis, "poles");
   checkOptions("runPoles", options);
   const budget = budgetOf(options);
   budget.check("before the bias point");

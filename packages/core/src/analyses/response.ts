@@ -1,4 +1,5 @@
-import { checkAnalysis, checkCircuit, checkOptions } from "../circuit/arguments.js";
+import { checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions } from "../circuit/arguments.js";
+import { responseOptions } from "./kinds/response-options.js";
 import type { Circuit, Probe, ResponseAnalysis } from "../circuit/circuit.js";
 import { GROUND, probeName } from "../circuit/circuit.js";
 import { inputError, simulationError } from "../circuit/diagnostic.js";
@@ -13,7 +14,7 @@ import { linearize, type SmallSignal } from "./linearize.js";
 import { probeUnit, stateIndexOf } from "./probes.js";
 import { fillPhasorMatrix } from "./phasor-matrix.js";
 import type { RunOptions } from "./transient.js";
-import { budgetOf } from "./limits.js";
+import { budgetOf, storedPointsError } from "./limits.js";
 
 /** The small-signal response at one frequency: magnitude (also in dB) and unwrapped phase. */
 export interface ResponsePoint {
@@ -188,14 +189,9 @@ function goldenMinimum(mag: (f: number) => number, fa: number, fb: number): numb
 export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, options: RunOptions = {}): ResponseResult {
   checkCircuit("runResponse", circuit);
   checkAnalysis("runResponse", analysis, "response");
+  checkAnalysisFields("runResponse", analysis as unknown as Readonly<Record<string, unknown>>, responseOptions);
   checkOptions("runResponse", options);
   const budget = budgetOf(options);
-  const system = buildSystem(circuit, options.extraParts);
-  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
-  const bias = solveBias(system, solver, solver.tolerances);
-  budget.refuseDense(system.n, "the response", analysis.span, 2 * system.n);
-  const ss = linearize(system, bias.x);
-  const phasor = new PhasorSolver(ss, excitation(system, analysis.from), probeWeights(system, analysis.to));
   const start = analysis.start ?? RESPONSE_DEFAULTS.start;
   const stop = analysis.stop ?? RESPONSE_DEFAULTS.stop;
   const perDecade = analysis.perDecade ?? RESPONSE_DEFAULTS.perDecade;
@@ -203,6 +199,21 @@ export function runResponse(circuit: Circuit, analysis: ResponseAnalysis, option
     throw inputError("bad-sweep", `response needs 0 < start < stop, got start=${start} Hz, stop=${stop} Hz`, { span: analysis.span });
   }
   const count = Math.max(2, Math.round(Math.log10(stop / start) * perDecade) + 1);
+  // Each point keeps four numbers; refused before the bias point, as a transient's length is.
+  if (!(4 * count <= budget.maxStoredPoints)) {
+    throw storedPointsError(
+      budget.maxStoredPoints,
+      4 * count,
+      `the response from ${start} Hz to ${stop} Hz at ${perDecade} points per decade has ${count} frequency points (4 values each), more than the stored-points limit of ${budget.maxStoredPoints}; it was not started`,
+      analysis.span,
+    );
+  }
+  const system = buildSystem(circuit, options.extraParts);
+  const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
+  const bias = solveBias(system, solver, solver.tolerances);
+  budget.refuseDense(system.n, "the response", analysis.span, 2 * system.n);
+  const ss = linearize(system, bias.x);
+  const phasor = new PhasorSolver(ss, excitation(system, analysis.from), probeWeights(system, analysis.to));
   const points: ResponsePoint[] = [];
   let previousPhase = 0;
   for (let k = 0; k < count; k++) {

@@ -1,4 +1,5 @@
-import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
+import { checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
+import { startupOptions } from "./kinds/startup-options.js";
 import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
@@ -164,6 +165,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   checkAnalysis("runStartup", analysis, "startup");
   if (analysis.until !== "auto") checkSeconds("runStartup", "until", analysis.until);
   checkSeconds("runStartup", "maxStep", analysis.maxStep, true);
+  checkAnalysisFields("runStartup", analysis as unknown as Readonly<Record<string, unknown>>, startupOptions);
   checkOptions("runStartup", options);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const kick = analysis.kick ?? DEFAULT_KICK;

@@ -1,4 +1,5 @@
-import { checkAnalysis, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
+import { checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
+import { transientOptions } from "./kinds/transient-options.js";
 import type { Circuit, PartSpec, Probe, TransientAnalysis } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
@@ -132,12 +133,13 @@ export function defaultMaxStep(until: number): number {
   return until / 100;
 }
 
-/** Runs a `transient` analysis on a circuit. */
+/** Runs a `transient` analysis on a circuit; left out, `start` is `bias` and `probes` every node, as in the statement. */
 export function runTransient(circuit: Circuit, analysis: TransientAnalysis, options: RunOptions = {}): TransientResult {
   checkCircuit("runTransient", circuit);
   checkAnalysis("runTransient", analysis, "transient");
   checkSeconds("runTransient", "until", analysis.until);
   checkSeconds("runTransient", "maxStep", analysis.maxStep, true);
+  checkAnalysisFields("runTransient", analysis as unknown as Readonly<Record<string, unknown>>, transientOptions);
   checkOptions("runTransient", options);
   const budget = budgetOf(options);
   budget.refuseLength(analysis.until, "the transient", analysis.span);
@@ -145,11 +147,12 @@ export function runTransient(circuit: Circuit, analysis: TransientAnalysis, opti
   budget.refuseSteps(analysis.until, maxStep, "the transient", analysis.span);
   const system = buildSystem(circuit, options.extraParts);
   const stepper = new TransientStepper(system, {
-    start: analysis.start,
+    // The statement's defaults where an API caller left them out.
+    start: analysis.start ?? "bias",
     maxStep,
     tolerances: { ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances },
   });
-  const probes = analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
+  const probes = analysis.probes !== undefined && analysis.probes.length > 0 ? analysis.probes : allNodeProbes(system);
   const recorder = new ProbeRecorder(system, probes, budget.maxStoredPoints);
   stepper.observe(recorder.record);
   const watch = watchOperation(stepper);

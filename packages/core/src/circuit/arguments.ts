@@ -1,5 +1,5 @@
 import type { AnalysisOptions } from "./analysis-schema.js";
-import type { AnalysisSpec, Circuit } from "./circuit.js";
+import type { AnalysisSpec, Circuit, Probe } from "./circuit.js";
 import { inputError, type OnsetError } from "./diagnostic.js";
 
 /**
@@ -60,10 +60,26 @@ export function checkAnalysisFields(api: string, analysis: Readonly<Record<strin
       if (!ok) throw badArgument(`${api}: analysis.${field} must be ${numberRule(option)}, got ${describe(value)}`);
     } else if (option.type === "word" && !option.words.includes(value as string)) {
       throw badArgument(`${api}: analysis.${field} must be one of ${option.words.map((w) => JSON.stringify(w)).join(", ")}, got ${describe(value)}`);
-    } else if (option.type === "probe" && !(isObject(value) && typeof value.kind === "string")) {
-      throw badArgument(`${api}: analysis.${field} must be a probe ({ kind: "node", node: "o" }, …), got ${describe(value)}`);
+    } else if (option.type === "probe" && !isProbe(value)) {
+      throw badArgument(`${api}: analysis.${field} must be a probe (${PROBE_SHAPES}), got ${describe(value)}`);
+    } else if (option.type === "probes" && !(Array.isArray(value) && value.every(isProbe))) {
+      throw badArgument(`${api}: analysis.${field} must be an array of probes (${PROBE_SHAPES}), got ${describe(value)}`);
+    } else if (option.type === "source" && !(typeof value === "string" && value !== "")) {
+      throw badArgument(`${api}: analysis.${field} must be the name of an independent source, got ${describe(value)}`);
     }
   }
+}
+
+/** The probe shapes, as messages spell them. */
+const PROBE_SHAPES = '{ kind: "node", node }, { kind: "difference", plus, minus }, { kind: "current", part } or { kind: "state", part, state }, names as strings';
+
+/** The names each kind of probe carries (see `Probe`). */
+const PROBE_FIELDS: Readonly<Record<Probe["kind"], readonly string[]>> = { node: ["node"], difference: ["plus", "minus"], current: ["part"], state: ["part", "state"] };
+
+/** A probe of a known kind whose names are strings. */
+function isProbe(value: unknown): value is Probe {
+  if (!isObject(value) || typeof value.kind !== "string" || !Object.hasOwn(PROBE_FIELDS, value.kind)) return false;
+  return PROBE_FIELDS[value.kind as Probe["kind"]].every((name) => typeof value[name] === "string");
 }
 
 function numberRule(range: { readonly min?: number; readonly minExclusive?: boolean; readonly max?: number; readonly integer?: boolean }): string {

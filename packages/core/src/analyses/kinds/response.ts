@@ -1,18 +1,13 @@
 import type { ResponseAnalysis } from "../../circuit/circuit.js";
 import type { AnalysisModel } from "../analysis-model.js";
 import { runResponse, type ResponseResult } from "../response.js";
+import { responseOptions } from "./response-options.js";
 
 /** `response`: the small-signal transfer from a source to a probe over a log frequency sweep. */
 export const response: AnalysisModel<ResponseAnalysis, ResponseResult> = {
   keyword: "response",
   summary: "the small-signal transfer from a source to a probe at the bias point, over a log frequency sweep",
-  options: {
-    from: { type: "source", required: true, summary: "independent source driven with a unit small signal" },
-    to: { type: "probe", required: true, summary: "probe the response is measured on" },
-    start: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "lowest frequency" },
-    stop: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "highest frequency" },
-    "per-decade": { type: "number", unit: "1", min: 1, integer: true, summary: "points per decade" },
-  },
+  options: responseOptions,
   build: (o, checks) => {
     const { start, stop } = o.numbers;
     if (start !== undefined && stop !== undefined && !(stop > start)) {
