@@ -136,6 +136,7 @@ export { drawSample } from "./study/draw.js";
 export type { Distribution } from "./study/draw.js";
 export { runSample, SAMPLE_METRICS, startupAnalysisOf } from "./study/sample.js";
 export { steadyAnalysisOf, steadySample, steadyVerdict } from "./study/steady-sample.js";
+export { studyProbeUnit } from "./study/probe-unit.js";
 export type { SampleMetrics, SampleOutcome, SampleSettings } from "./study/sample.js";
 export { summarizeSamples } from "./study/summary.js";
 export type { CriterionYield, ToleranceSample, ToleranceSummary, YieldSummary } from "./study/summary.js";

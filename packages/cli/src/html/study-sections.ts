@@ -91,11 +91,11 @@ export function sweepSection(d: Json): string {
 
 const PERCENTILES = ["min", "p1", "p5", "median", "p95", "p99", "max"] as const;
 
-function percentileTable(summary: Json | undefined): string {
+function percentileTable(summary: Json | undefined, probeUnit: string | undefined): string {
   const percentiles = field(summary, "percentiles");
   const rows = Object.keys((percentiles ?? {}) as object).map((key): Cell[] => {
     const p = field(percentiles, key);
-    return [METRIC_LABELS[key] ?? key, ...PERCENTILES.map((n) => metric(key, num(p, n)))];
+    return [METRIC_LABELS[key] ?? key, ...PERCENTILES.map((n) => metric(key, num(p, n), probeUnit))];
   });
   return dataTable(["metric", ...PERCENTILES], rows, [false, ...PERCENTILES.map(() => true)], "spread over the samples");
 }
@@ -130,7 +130,7 @@ export function toleranceSection(d: Json): string {
       return [
         `#${num(s, "index")}`,
         field(s, "pass") === true ? outcomeCell(true, "passes") : { html: textTag("span", { class: "bad" }, `fails: ${failures.join(", ")}${error ? ` (${error})` : ""}`) },
-        `f ${metric("frequency", num(m, "frequency"))}, amplitude ${metric("amplitude", num(m, "amplitude"))}, THD ${metric("thd", num(m, "thd"))}, start-up ${metric("startupTime", num(m, "startupTime"))}`,
+        `f ${metric("frequency", num(m, "frequency"))}, amplitude ${metric("amplitude", num(m, "amplitude"), str(d, "probeUnit") ?? undefined)}, THD ${metric("thd", num(m, "thd"))}, start-up ${metric("startupTime", num(m, "startupTime"))}`,
         drawn,
         { html: tag("code", { class: "command" }, commands.get(num(s, "index")) ?? "") },
       ];
@@ -141,7 +141,7 @@ export function toleranceSection(d: Json): string {
     note(studyLine(d)) +
     textTag("p", { class: "explanation" }, `${num(summary, "runs")} samples done; verdicts: ${verdicts.join(", ") || "none"}. ${yieldText(field(summary, "yield"))}`) +
     (missing > 0 ? textTag("p", { class: "warning" }, `${missing} samples are not done yet: rerun with --resume to finish them`) : "") +
-    tag("div", { class: "tables" }, percentileTable(summary)) +
+    tag("div", { class: "tables" }, percentileTable(summary, str(d, "probeUnit") ?? undefined)) +
     (worst.length > 0 ? tag("div", { class: "tables" }, dataTable(["sample", "outcome", "measured", "drawn", "reproduce"], worst, [], "worst samples")) : "")
   );
 }
@@ -160,7 +160,7 @@ export function windowSection(d: Json): string {
       percent(num(y, "value")),
       `${percent(num(interval, "low"), 3)} to ${percent(num(interval, "high"), 3)}`,
       metric("frequency", num(field(percentiles, "frequency"), "median")),
-      metric("amplitude", num(field(percentiles, "amplitude"), "median")),
+      metric("amplitude", num(field(percentiles, "amplitude"), "median"), str(d, "probeUnit") ?? undefined),
       outcomeCell(field(p, "pass") === true, "meets", "short"),
     ];
   });

@@ -33,6 +33,8 @@ function studyCommon(h: StudyHeader): Record<string, Json> {
     dist: h.dist,
     // the samples' startupTime is then the poles' prediction, not a run's
     ...(h.measure === "steady" ? { measure: "steady" } : {}),
+    // the unit of the samples' amplitude, offset, rms and peak-to-peak: the probe's
+    probeUnit: h.probeUnit ?? "V",
     shard: h.shard ? { ...h.shard } : null,
     tolerances: h.tolerances.map((t) => ({ ...t })),
   };

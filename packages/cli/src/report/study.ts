@@ -36,13 +36,13 @@ function startupLabel(r: StudyReport): string {
  * Percentiles of each metric; with error bars, a last column gives the largest numerical error
  * of the settled figures over the samples (a spread narrower than it is not resolved).
  */
-function percentileTable(summary: ToleranceReport["summary"], startup: string): string[] {
+function percentileTable(summary: ToleranceReport["summary"], startup: string, probeUnit: string | undefined): string[] {
   const names = ["min", "p1", "p5", "median", "p95", "p99", "max"] as const;
   const bars = summary.numericalError;
-  const barOf = (key: string) => (bars && key in bars ? `± ${metric(key, bars[key as keyof typeof bars])}` : "");
+  const barOf = (key: string) => (bars && key in bars ? `± ${metric(key, bars[key as keyof typeof bars], probeUnit)}` : "");
   const rows = SAMPLE_METRICS.flatMap((key) => {
     const p = summary.percentiles[key];
-    return p ? [[key === "startupTime" ? startup : (METRIC_LABELS[key] ?? key), ...names.map((n) => metric(key, p[n])), ...(bars ? [barOf(key)] : [])]] : [];
+    return p ? [[key === "startupTime" ? startup : (METRIC_LABELS[key] ?? key), ...names.map((n) => metric(key, p[n], probeUnit)), ...(bars ? [barOf(key)] : [])]] : [];
   });
   const columns = [{ header: "metric" }, ...names.map((n) => ({ header: n, align: "right" as const }))];
   return table(bars ? [...columns, { header: "numerical error", align: "right" as const }] : columns, rows);
@@ -57,7 +57,7 @@ function toleranceText(r: ToleranceReport, p: Paint): string[] {
   const { summary, header } = r;
   const lines = [p.bold("Monte Carlo tolerance study") + p.dim(`  (${studyLine(r)})`)];
   lines.push(`  ${summary.runs} samples done; verdicts: ${verdictCounts(summary) || "none"}`, ...missingLine(r, p), "");
-  lines.push(...percentileTable(summary, startupLabel(r)), "");
+  lines.push(...percentileTable(summary, startupLabel(r), header.probeUnit), "");
   const y = summary.yield;
   lines.push(
     `  yield ${percent(y.value)} (${y.passed} of ${y.runs} pass), 95 % Wilson interval ${percent(y.interval.low)} to ${percent(y.interval.high)}`,
@@ -69,7 +69,7 @@ function toleranceText(r: ToleranceReport, p: Paint): string[] {
       const outcome = s.pass ? p.green("passes") : p.red(`fails: ${s.failures.join(", ")}`);
       const extra = s.error ? ` (${s.error})` : "";
       lines.push(`    #${s.index}  ${outcome}${extra}`);
-      lines.push(`         f ${metric("frequency", s.metrics?.frequency)}, amplitude ${metric("amplitude", s.metrics?.amplitude)}, THD ${metric("thd", s.metrics?.thd)}, start-up ${metric("startupTime", s.metrics?.startupTime)}${r.header.measure === "steady" && s.metrics?.startupTime != null ? " (predicted)" : ""}`);
+      lines.push(`         f ${metric("frequency", s.metrics?.frequency)}, amplitude ${metric("amplitude", s.metrics?.amplitude, header.probeUnit)}, THD ${metric("thd", s.metrics?.thd)}, start-up ${metric("startupTime", s.metrics?.startupTime)}${r.header.measure === "steady" && s.metrics?.startupTime != null ? " (predicted)" : ""}`);
       if (header.tolerances.length > 0) lines.push(`         drawn ${drawnText(r, s)}`);
       lines.push(p.dim(`         reproduce: ${reproduceCommand(header, s.index)}`));
     }
@@ -91,7 +91,7 @@ function windowText(r: WindowReport, p: Paint): string[] {
         percent(pt.summary.yield.value),
         `${percent(pt.summary.yield.interval.low, 3)} to ${percent(pt.summary.yield.interval.high, 3)}`,
         metric("frequency", pt.summary.percentiles.frequency?.median),
-        metric("amplitude", pt.summary.percentiles.amplitude?.median),
+        metric("amplitude", pt.summary.percentiles.amplitude?.median, r.header.probeUnit),
         pt.pass ? p.green("meets") : p.red("short"),
       ]),
     ),

@@ -32,8 +32,8 @@ export function perSecond(value: number | null | undefined): string {
   return `${formatPlain(value, 4)} /s`;
 }
 
-/** The unit a spec metric is measured in (`1` for a fraction shown as percent). */
-export function metricUnit(metric: SpecMetric | string): string {
+/** The unit a spec metric is measured in (`1` for a fraction shown as percent); the swing's figures are in the probe's unit. */
+export function metricUnit(metric: SpecMetric | string, probeUnit = "V"): string {
   switch (metric) {
     case "frequency":
     case "predictedFrequency":
@@ -42,7 +42,7 @@ export function metricUnit(metric: SpecMetric | string): string {
     case "offset":
     case "rms":
     case "peakToPeak":
-      return "V";
+      return probeUnit;
     case "startup":
     case "settling":
     case "startupTime":
@@ -56,9 +56,9 @@ export function metricUnit(metric: SpecMetric | string): string {
   }
 }
 
-/** A metric's value in its unit: THD and yield as percent, growth rates per second. */
-export function metric(metricName: SpecMetric | string, value: number | null | undefined): string {
-  const unit = metricUnit(metricName);
+/** A metric's value in its unit: THD and yield as percent, growth rates per second, the swing's figures in the probe's unit. */
+export function metric(metricName: SpecMetric | string, value: number | null | undefined, probeUnit = "V"): string {
+  const unit = metricUnit(metricName, probeUnit);
   if (unit === "1") return percent(value);
   if (unit === "/s") return perSecond(value);
   return si(value, unit);

@@ -28,6 +28,8 @@ export interface StudyHeader {
   readonly dist: "normal" | "uniform";
   /** `steady`: each sample measured by its periodic steady state (absent: its start-up run). */
   readonly measure?: "steady";
+  /** The unit of the measured probe when it is not a voltage (absent: V), e.g. K for a lamp's temperature. */
+  readonly probeUnit?: string;
   readonly shard: { readonly index: number; readonly count: number } | null;
   /** The toleranced values drawn for every sample, in file order. */
   readonly tolerances: ReadonlyArray<{

@@ -4,6 +4,7 @@ import {
   runToleranceStudy,
   shardIndices,
   specCriteria,
+  studyProbeUnit,
   sweepValues,
   type Circuit,
   type PortableBuilder,
@@ -66,6 +67,12 @@ export function drawnTolerances(circuit: Circuit, sweep: SweepAnalysis | undefin
   return circuit.tolerances.filter((t) => !sweep || t.target !== sweep.target);
 }
 
+/** The measured probe's unit, when it is not a voltage (a results file of a voltage probe keeps its old header). */
+function probeUnitField(circuit: Circuit, measure: ToleranceAnalysis["measure"]): { probeUnit?: string } {
+  const unit = studyProbeUnit(circuit, measure);
+  return unit === "V" ? {} : { probeUnit: unit };
+}
+
 /** The header that identifies a study and carries what its report needs. */
 export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "circuit" | "tolerance" | "sweep" | "shard">): StudyHeader {
   const criteria = specCriteria(s.circuit).map(({ span: _span, ...c }) => c);
@@ -89,6 +96,7 @@ export function studyHeader(s: Pick<StudySettings, "source" | "overrides" | "cir
     seed: s.tolerance.seed,
     dist: s.tolerance.dist,
     ...(s.tolerance.measure === "steady" ? { measure: "steady" } : {}),
+    ...probeUnitField(s.circuit, s.tolerance.measure),
     shard: s.shard ? { index: s.shard.index, count: s.shard.count } : null,
     tolerances: drawnTolerances(s.circuit, s.sweep).map(({ span: _span, target, unit, ...t }) => ({
       target,
