@@ -275,7 +275,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     }
     if (end.sensitivity) newton.set(end.sensitivity, n);
     else if (given) newton.reset(options.jacobian!);
-    else if (trial) newton.secant(step, fromResidual, residual);
+    // A finer grid keeps the coarser grid's matrix as it is (a chord iteration): its first step
+    // is mostly the grids' O(h²) difference, and a secant update from it corrupts the matrix in
+    // the slowly attracting direction, where the residual understates the distance most.
+    else if (trial && options.sensitivities !== "given") newton.secant(step, fromResidual, residual);
     freshAtFrom = end.sensitivity !== undefined || given;
     learnedAtFrom = false;
     // (A step cut short to a share λ of Newton's is expected to shrink the mismatch to about 1 − λ of it.)
