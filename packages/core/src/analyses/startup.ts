@@ -247,9 +247,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
     }
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) {
-      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still.
-      const noisy = metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
+    const restarting = mayRestart(metrics, stepper.t);
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
+      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a died-away swing is not the one waited for).
+      const noisy = !restarting && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));
     }
   } else {

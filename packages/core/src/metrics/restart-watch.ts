@@ -59,8 +59,8 @@ export function restartWatch(envelope: CycleEnvelope, timeConstant: number): Res
  */
 export function explainCutWatch(watch: RestartWatch, stoppedAt: number, timeConstant: number): string {
   return (
-    `not settled: the oscillation grew to ${formatQuantity(watch.peak, "V")} peak at ${formatQuantity(watch.peakAt, "s")} and died away after it, ` +
-    `but its amplitude loop may bring it back once its slow state bleeds back` +
+    `the oscillation grew to ${formatQuantity(watch.peak, "V")} peak at ${formatQuantity(watch.peakAt, "s")} and died away after it, ` +
+    `but it may come back once the slow state its overshoot over-charged (an amplitude loop's filter) has bled back` +
     (timeConstant > 0 ? ` (the bias point's slowest time constant is ${formatQuantity(timeConstant, "s")})` : "") +
     `: it is watched until ${formatQuantity(watch.until, "s")}, the run stopped at ${formatQuantity(stoppedAt, "s")}; raise settle-within= to wait longer`
   );
