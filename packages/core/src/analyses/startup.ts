@@ -5,7 +5,7 @@ import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
-import { explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
+import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
 import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
@@ -249,8 +249,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     }
     const restarting = mayRestart(metrics, stepper.t);
     if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
-      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a died-away swing is not the one waited for).
-      const noisy = !restarting && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
+      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a collapsed swing is not the one waited for).
+      const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));
     }
   } else {

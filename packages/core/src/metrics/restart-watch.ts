@@ -1,3 +1,4 @@
+import { COLLAPSE } from "./collapses.js";
 import { formatQuantity } from "./format.js";
 
 /** A record that grew and now dies away is watched this many times as long as it took to peak… */
@@ -51,6 +52,17 @@ export function restartWatch(envelope: CycleEnvelope, timeConstant: number): Res
   for (let k = 1; k < value.length; k++) if (value[k] > value[peak]) peak = k;
   if (!(peak > 0 && value[peak] > GREW * value[0])) return null;
   return { peakAt: time[peak], peak: value[peak], until: Math.max(RESTART_WATCH * time[peak], time[peak] + RECOVERY * timeConstant) };
+}
+
+/**
+ * Whether the envelope ends collapsed: its last value below {@link COLLAPSE} of its largest. Its
+ * swing is then no amplitude the excitation's noise can be weighed against, whatever it does next.
+ */
+export function endsCollapsed(envelope: CycleEnvelope): boolean {
+  const { value } = envelope;
+  let largest = 0;
+  for (let k = 0; k < value.length; k++) largest = Math.max(largest, value[k]);
+  return value.length > 0 && value[value.length - 1] < COLLAPSE * largest;
 }
 
 /**
