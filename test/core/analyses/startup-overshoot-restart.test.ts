@@ -3,7 +3,8 @@
 // poles at the bias point grow (the circuit starts by itself), so until=auto must watch for the
 // restart (three of the bias point's slowest decaying time constants past the peak, within its
 // bound) before it calls the record decaying — and when its bound cuts that watch, say so
-// instead of "no oscillation". Checked against a long fixed run's own last cycles, the steady
+// instead of "no oscillation" (and not count bursts of the noise a near-threshold circuit amplifies
+// as restarts). Checked against a long fixed run's own last cycles, the steady
 // analysis' orbit and its multipliers, and the odex reference of test/support/agc-wien.ts.
 import { describe, expect, test } from "vitest";
 import { runStartup, runSteady } from "@onset/core";
@@ -17,10 +18,7 @@ const node = (n: string) => ({ kind: "node", node: n }) as const;
 // detector is slow (4.7 µF bled by 220 kΩ, time constant about 0.83 s): the first overshoot
 // charges it past the point where the gain falls below 3 and the oscillation dies into the noise
 // for some 60 ms, until the detector has bled back.
-const jfetWien = buildCircuit(
-  loadSource(
-    "overshoot-jfet-wien.onset",
-    `param R = 4.7k
+const jfetSource = `param R = 4.7k
 param C = 2.2n
 resistor  R1 o s   (R)
 capacitor C1 s p   (C)
@@ -35,9 +33,8 @@ diode     D1 c o
 capacitor Cf c gnd 4.7u
 resistor  Rb c gnd 220k
 opamp     U1 p n o preset=general rails=(-15, 15)
-`,
-  ),
-).circuit;
+`;
+const jfetWien = buildCircuit(loadSource("overshoot-jfet-wien.onset", jfetSource)).circuit;
 
 describe("an oscillation killed by its first overshoot, which comes back", () => {
   test("JFET Wien: until=auto waits for the restart and ends settled, with the figures of a long fixed run", () => {
@@ -68,6 +65,25 @@ describe("an oscillation killed by its first overshoot, which comes back", () =>
     expect(warning.span).toEqual(span);
     // the died-away swing is not the amplitude waited for: no "waiting longer does not help" for the excitation's noise
     expect(warning.hint).toMatch(/^a slow amplitude loop can need longer: raise settle-within= \(now 30 ms/);
+  });
+
+  // The same loop with its bleed resistor gone (10 GΩ): the detector bleeds only through the gate
+  // divider (time constant about 4.2 s) and the oscillation comes back at about 0.3 s, just past
+  // the default bound of 4000 predicted periods (282 ms).
+  const unbled = buildCircuit(loadSource("overshoot-jfet-wien-unbled.onset", jfetSource.replace("Rb c gnd 220k", "Rb c gnd 10G"))).circuit;
+  test("JFET Wien, detector bled for seconds: at the default bound unsettled with the hint to raise settle-within=, not bouncing on the noise nor decaying", () => {
+    const r = runStartup(unbled, { kind: "startup", probe: node("o"), until: "auto" });
+    // measured: unsettled at 281.9 ms (before the restart watch: decaying at 16.9 ms; with the watch alone, noise bursts after the stop were counted as restarts: bouncing)
+    expect(r.verdict).toBe("unsettled");
+    expect(r.explanation).not.toMatch(/no oscillation/);
+    const warning = r.warnings.find((w) => w.code === "not-settled-within")!;
+    expect(warning.hint).toMatch(/^a slow amplitude loop can need longer: raise settle-within=/);
+  });
+  test("JFET Wien, detector bled for seconds: with settle-within= raised as the hint says, settled", () => {
+    const r = runStartup(unbled, { kind: "startup", probe: node("o"), until: "auto", settleWithin: 0.6 });
+    // measured: settled at 574.5 ms, 4.350986 V, 14215.0 Hz; a fixed 3 s run's orbit (Source: the same circuit run ten times as long): 4.350989 V, 14215.0 Hz
+    expect(r.verdict).toBe("settled");
+    expect(r.amplitude!).toBeGreaterThan(4.3);
   });
 
   test("slow-loop Wien (4.7 µF filter): bouncing, as its unstable orbit and the odex reference's repeated collapses say, not decaying", () => {
