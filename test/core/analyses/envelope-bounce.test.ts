@@ -99,7 +99,7 @@ describe("a Wien bridge with a slow gain loop (diode resistor, peak detector, RC
     const span = { file: "agc.onset", start: 40, end: 56 };
     const r = runStartup(circuit(agcWienParts(250e-9)), { kind: "startup", probe: node("o"), until: "auto", settleWithin: 0.05, settleWithinSpan: span });
     expect(r.run.until).toBeCloseTo(0.05, 9);
-    // at 50 ms the first overshoot is dying away: decaying, but it may restart (measured: decaying)
+    // at 50 ms the first overshoot is dying away, and it may restart (measured: unsettled, the restart watch cut short by settle-within=; decaying before it)
     expect(["growing", "unsettled", "decaying"]).toContain(r.verdict);
     const warning = r.warnings.find((w) => w.code === "not-settled-within")!;
     expect(warning.span).toEqual(span);

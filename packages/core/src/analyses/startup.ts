@@ -6,6 +6,7 @@ import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
+import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
 import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
@@ -225,6 +226,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   };
   let metrics: StartupMetrics;
   const warnings = defaultWarnings(circuit);
+  // A circuit that starts by itself and dies after its overshoot may grow again once its amplitude loop's slow state bleeds back.
+  const recovery = prediction?.starts ? slowestTimeConstant(poles.map((p) => p.real)) : 0;
+  const mayRestart = (m: StartupMetrics, now: number) => m.verdict === "decaying" && now < (restartWatch(m.envelope, recovery)?.until ?? 0);
   if (analysis.until === "auto") {
     const bound = (analysis.settleWithin ?? AUTO_MAX_CYCLES * period) + searchFrom;
     let target = AUTO_FIRST_CYCLES * period + searchFrom;
@@ -245,9 +249,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
     }
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || mayRestart(metrics, stepper.t)) {
-      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still.
-      const noisy = metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
+    const restarting = mayRestart(metrics, stepper.t);
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
+      // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a collapsed swing is not the one waited for).
+      const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));
     }
   } else {
@@ -258,6 +263,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
+  if (analysis.until === "auto" && prediction?.starts && mayRestart(metrics, stepper.t)) {
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery) };
+  }
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
   const excitation: Excitation = {
     ...setup.excitation,
@@ -287,23 +295,6 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     warnings,
     waveform: { time: t, values: v },
   };
-}
-
-/** A record that grew and now dies away is watched this many times as long as it took to peak… */
-const RESTART_WATCH = 8;
-
-/**
- * Whether a `decaying` record may still restart: it grew to its peak first (a slow amplitude
- * loop that overshot can kill the oscillation and let it grow again once its filter has
- * relaxed, see the `bouncing` verdict), and the run has not yet lasted {@link RESTART_WATCH}
- * times as long as the growth took.
- */
-function mayRestart(metrics: StartupMetrics, now: number): boolean {
-  if (metrics.verdict !== "decaying") return false;
-  const { time, value } = metrics.envelope;
-  let peak = 0;
-  for (let k = 1; k < value.length; k++) if (value[k] > value[peak]) peak = k;
-  return peak > 0 && value[peak] > 2 * value[0] && now < RESTART_WATCH * time[peak];
 }
 
 /** The warning of an `until=auto` run that reached its bound before it settled, at `settle-within=` or the analysis. */

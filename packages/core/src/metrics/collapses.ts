@@ -27,8 +27,11 @@ function medianPeriod(cycles: CycleTable): number {
  * its largest value since the last restart (or stopped for a gap, a cycle over {@link GAP}
  * median periods long, when the swing fell inside the crossing hysteresis) and then rose again
  * to {@link RESTART} times the lowest value of the collapse and above `floor` (twice the noise
- * floor: noise alone does not restart). So every deep valley between two peaks counts, whatever
- * the first overshoot was; a ring-down to nothing is no restart, a dip to 60 % no collapse.
+ * floor: noise alone does not restart) — after a stop, to {@link RESTART} times `floor`: a swing
+ * that fell inside the hysteresis has no lowest value to read, and noise a circuit near its
+ * start threshold amplifies past the floor comes back through it in bursts. So every deep valley
+ * between two peaks counts, whatever the first overshoot was; a ring-down to nothing is no
+ * restart, a dip to 60 % no collapse.
  */
 export function collapses(cycles: CycleTable, floor = 0): Collapse[] {
   const n = cycles.count;
@@ -41,7 +44,8 @@ export function collapses(cycles: CycleTable, floor = 0): Collapse[] {
   let down = false;
   for (let k = 0; k < n; k++) {
     const gap = cycles.start[k + 1] - cycles.start[k] > GAP * period;
-    if (down && !gap && e[k] >= RESTART * low && e[k] > floor) {
+    // after a stop the swing's lowest is unknown, under the hysteresis: the floor stands for it
+    if (down && !gap && e[k] >= RESTART * (low > 0 ? low : floor) && e[k] > floor) {
       down = false;
       found.push({ peak, low, duration: cycles.start[k] - fell });
       peak = 0;
