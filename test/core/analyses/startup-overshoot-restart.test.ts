@@ -37,6 +37,13 @@ opamp     U1 p n o preset=general rails=(-15, 15)
 const jfetWien = buildCircuit(loadSource("overshoot-jfet-wien.onset", jfetSource)).circuit;
 
 describe("an oscillation killed by its first overshoot, which comes back", () => {
+  test("JFET Wien: the steady analysis, which runs without noise, says the oscillation grew and died, and points to startup (which restarts from the circuit's noise)", () => {
+    const r = runSteady(jfetWien, { kind: "steady", probe: node("o") });
+    expect(r.found).toBe(false);
+    expect(r.explanation).toMatch(/the oscillation grew, then died out within \d+ periods/);
+    expect(r.explanation).toMatch(/runs without noise.*run startup, which starts from the circuit's thermal noise$/);
+  });
+
   test("JFET Wien: until=auto waits for the restart and ends settled, with the figures of a long fixed run", () => {
     const auto = runStartup(jfetWien, { kind: "startup", probe: node("o"), until: "auto" });
     // measured: settled at 0.151 s, 4.428834 V, 14203.770 Hz (the rule before: decaying at 16.9 ms, "no oscillation")

@@ -373,7 +373,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       }
       if (where.kind === "died-out") {
         diedOut = true;
-        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
+        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
         continue;
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
@@ -390,7 +390,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
-        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0);
+        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
       } else if (where.levelled) {
         const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true);
         if (typeof shot !== "string") return orbitFound(shot, transient);
@@ -453,12 +453,16 @@ function recoveryPeriods(poles: readonly Pole[], period: number): number {
 /**
  * Why a start died out; when the wait for a dip was cut short by its bound (`wanted` > 0 periods
  * of the slowest time constant's patience), how to wait longer: an amplitude loop that
- * over-corrected may come back once its detector has bled down.
+ * over-corrected may come back once its detector has bled down. A swing that grew first and then
+ * died (`afterGrowth`) is such a loop; without noise it may never come back (see the sentence).
  */
-function diedOutWhy(periods: number, pole: Pole, wanted: number): string {
-  const why = `no periodic orbit: started in its growing mode, the oscillation died out within ${periods} periods (${polesVerdict(pole)})`;
-  if (wanted === 0) return why;
-  return `${why}; the bias point's slowest time constant would have it wait ${wanted} periods for an over-corrected amplitude loop to come back, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (a start-up run shows whether it comes back)`;
+function diedOutWhy(periods: number, pole: Pole, wanted: number, afterGrowth: boolean): string {
+  const why = `no periodic orbit: started in its growing mode, the oscillation ${afterGrowth ? "grew, then " : ""}died out within ${periods} periods (${polesVerdict(pole)})`;
+  const wait = wanted === 0 ? "" : `; the bias point's slowest time constant would have it wait ${wanted} periods for an over-corrected amplitude loop to come back, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (a start-up run shows whether it comes back)`;
+  const noise = afterGrowth
+    ? "; an amplitude loop that over-corrects can stop the oscillation after its first overshoot, and the steady analysis runs without noise, so an oscillation sunk below the solver's resolution does not grow back, while in the circuit its noise restarts it once the loop has bled back: run startup, which starts from the circuit's thermal noise"
+    : "";
+  return `${why}${wait}${noise}`;
 }
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */

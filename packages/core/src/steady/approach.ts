@@ -13,13 +13,20 @@ const LEVEL_SHARE = 0.25;
 const LEVEL_PERIODS = 3;
 /** A swing below this fraction of the largest seen has died out. */
 const DIED_OUT = 1e-4;
+/** A swing that grew to more than this many times its first period's before it died out grew first (see `Approach`). */
+const GREW = 10;
 /** Hysteresis of the period's crossings, as a fraction of the swing. */
 const HYSTERESIS = 0.05;
 
 /** Where a short transient left the oscillation: the period measured on the probe, or why none. */
 export type Approach =
   | { readonly kind: "oscillating"; readonly period: number; readonly periods: number; readonly levelled: boolean }
-  | { readonly kind: "died-out"; readonly periods: number };
+  | {
+      readonly kind: "died-out";
+      readonly periods: number;
+      /** The swing first grew to more than `GREW` times its first period's, then died: an amplitude loop that over-corrected. */
+      readonly afterGrowth: boolean;
+    };
 
 /**
  * Runs a transient towards the orbit, one guessed period at a time, watching the probe's swing
@@ -43,6 +50,8 @@ export class OrbitApproach {
   private dip = NaN;
   private count = 0;
   private largest = 0;
+  /** The first period's swing. */
+  private first = 0;
   /** Periods the swing has looked died out, in all; and whether it does now. */
   private quietPeriods = 0;
   private isQuiet = false;
@@ -90,17 +99,22 @@ export class OrbitApproach {
       this.isQuiet = this.quiet();
       if (this.isQuiet) this.quietPeriods++;
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);
-      if (this.diedOut()) return { kind: "died-out", periods: this.periods };
+      if (this.diedOut()) return this.diedOutHere();
       if (this.isQuiet) {
         end++;
         continue;
       }
       if (level !== undefined && this.count >= earliest && (levelled = this.levelled(level))) break;
     }
-    return this.diedOut() ? { kind: "died-out", periods: this.periods } : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
+    return this.diedOut() ? this.diedOutHere() : { kind: "oscillating", period: this.measuredPeriod(), periods: this.periods, levelled };
+  }
+
+  private diedOutHere(): Approach {
+    return { kind: "died-out", periods: this.periods, afterGrowth: this.largest > GREW * this.first };
   }
 
   private record(swing: number): void {
+    if (this.count === 0) this.first = swing;
     this.count++;
     this.largest = Math.max(this.largest, swing);
     this.swings.push(swing);
