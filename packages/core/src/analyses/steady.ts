@@ -380,7 +380,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       shots++;
       const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
-      why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+      why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
       earliest = BACK_OFF * approach.periods;
     }
     // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
@@ -394,7 +394,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       } else if (where.levelled) {
         const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true);
         if (typeof shot !== "string") return orbitFound(shot, transient);
-        why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}`;
+        why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
       }
     }
     periods += approach.periods;
@@ -463,6 +463,11 @@ function diedOutWhy(periods: number, pole: Pole, wanted: number, afterGrowth: bo
     ? "; an amplitude loop that over-corrects can stop the oscillation after its first overshoot, and the steady analysis runs without noise, so an oscillation sunk below the solver's resolution does not grow back, while in the circuit its noise restarts it once the loop has bled back: run startup, which starts from the circuit's thermal noise"
     : "";
   return `${why}${wait}${noise}`;
+}
+
+/** When the slowest time constant wants a longer wait than the batches allow, how to give it one (a slow loop's envelope may bounce that long). */
+function longerWait(wanted: number, allowed: number): string {
+  return wanted > allowed ? `; the bias point's slowest time constant would have an amplitude loop's envelope settle over some ${wanted} periods, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer` : "";
 }
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */
