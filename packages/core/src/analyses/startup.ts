@@ -264,7 +264,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
   if (analysis.until === "auto" && prediction?.starts && mayRestart(metrics, stepper.t)) {
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery) };
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe)) };
   }
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
   const excitation: Excitation = {

@@ -9,6 +9,7 @@ import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, type MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, accuracyTolerances, loosenedTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
+import { RECOVERY, slowestTimeConstant } from "../metrics/restart-watch.js";
 import { OrbitApproach } from "../steady/approach.js";
 import { largestNode, modeOfPole } from "../steady/growing-mode.js";
 import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/orbit-metrics.js";
@@ -76,11 +77,10 @@ const EARLY_ITERATIONS = 10;
  */
 const GIVE_UP = 5;
 /**
- * The small start's oscillation counts as died out only once its swing has stayed down for this
- * many of the slowest decaying pole's time constants (an amplitude loop's slow state bleeding back
- * after an overshoot, when the swing grows again)…
+ * The small start's oscillation counts as died out only once its swing has stayed down for
+ * `RECOVERY` of the slowest decaying pole's time constants (an amplitude loop's slow state
+ * bleeding back after an overshoot, when the swing grows again; the start-up run waits as long)…
  */
-const RECOVERY = 3;
 /** …and at most this many batches of `cycles=` periods (2040 periods by default). */
 const RECOVERY_BATCHES = 34;
 /** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
@@ -445,9 +445,7 @@ type Common = Pick<SteadyResult, "probe" | "unit" | "warnings" | "kind" | "from"
  * bounds it by `RECOVERY_BATCHES` batches).
  */
 function recoveryPeriods(poles: readonly Pole[], period: number): number {
-  let slowest = Infinity;
-  for (const p of poles) if (p.real < 0) slowest = Math.min(slowest, -p.real);
-  return Number.isFinite(slowest) ? Math.ceil(RECOVERY / slowest / period) : 0;
+  return Math.ceil((RECOVERY * slowestTimeConstant(poles.map((p) => p.real))) / period);
 }
 
 /**
