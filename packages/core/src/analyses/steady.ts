@@ -490,8 +490,7 @@ function polesVerdict(pole: Pole | null): string {
  * where Newton would not find its way back.
  */
 function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array, share: number): Float64Array {
-  let peak = 0;
-  for (let i = 0; i < system.n; i++) if (system.unknowns[i]!.isNode) peak = Math.max(peak, Math.abs(mode[i]!));
+  let peak = Math.abs(mode[largestNode(mode, system.unknowns)]!);
   if (!(peak > 0)) for (let i = 0; i < system.n; i++) peak = Math.max(peak, Math.abs(mode[i]!));
   const level = share * (amplitudeLimit(system, bias) ?? 4);
   const x = Float64Array.from(bias);

@@ -3,7 +3,7 @@ import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
 import { gmres, orthogonalise, type KrylovModel } from "./gmres.js";
 import type { PeriodStart } from "./periodic-map.js";
-import { noHeadway, periodGone, periodResidual, refuseFarFirstStep, shootingSetup, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
+import { Headway, periodGone, periodResidual, refuseFarFirstStep, shootingSetup, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
 import { TangentPeriod } from "./tangent-period.js";
 import { nextRadius, trustStep } from "./trust-region.js";
 
@@ -74,8 +74,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
   let cut = false;
   let trial = false;
   let states: readonly Float64Array[] | undefined = predictor;
-  let first = Infinity;
-  let best = Infinity;
+  const headway = new Headway(options.giveUpAfter);
   const residual = new Float64Array(n);
   let krylov: KrylovModel | undefined;
   let tangent: TangentPeriod | undefined;
@@ -109,11 +108,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     }
     states = map.states;
     const { mismatch, square } = periodResidual(end, x0, scale, residual);
-    if (iteration === 1) first = mismatch;
-    else best = Math.min(best, mismatch);
-    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
-      throw noHeadway(iteration);
-    }
+    headway.record(iteration, mismatch, cut);
     if (trial) {
       const ratio = (fromNorm ** 2 - square) / Math.max(fromNorm ** 2 - predicted, Number.MIN_VALUE);
       radius = nextRadius(radius, length, ratio);

@@ -151,9 +151,25 @@ export function periodGone(): OnsetError {
   return simulationError("orbit-period", "shooting drove the period to zero: no periodic orbit near the guess");
 }
 
-/** A shooting that gave up after `iterations` periods without headway (see `ShootingOptions.giveUpAfter`). */
-export function noHeadway(iterations: number): OnsetError {
-  return simulationError("orbit-not-converged", `shooting made no headway in ${iterations} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+/**
+ * A shooting's headway, for `ShootingOptions.giveUpAfter`: the first period's mismatch and the
+ * best since. From that many periods on, a shooting whose mismatch never fell below its first,
+ * or whose step the trust radius still cuts short (`cut`: the start is out of Newton's reach), gives up.
+ */
+export class Headway {
+  private first = Infinity;
+  private best = Infinity;
+
+  constructor(private readonly giveUpAfter: number | undefined) {}
+
+  /** Records period `iteration`'s mismatch; throws when the shooting gives up there. */
+  record(iteration: number, mismatch: number, cut: boolean): void {
+    if (iteration === 1) this.first = mismatch;
+    else this.best = Math.min(this.best, mismatch);
+    if (this.giveUpAfter !== undefined && iteration >= this.giveUpAfter && !(this.best < this.first && !cut)) {
+      throw simulationError("orbit-not-converged", `shooting made no headway in ${iteration} periods`, { hint: "the start is too far from the orbit; run the start-up longer" });
+    }
+  }
 }
 
 /** The map's Newton tolerances: a hundredth of the orbit's, relative and absolute. */
@@ -216,8 +232,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let givenAgain = false;
   /** The last sensitivities, when taken within `MULTIPLIER_REACH` of the orbit. */
   let near: MapSensitivity | undefined;
-  let first = Infinity;
-  let best = Infinity;
+  const headway = new Headway(options.giveUpAfter);
   const maxIterations = options.maxIterations ?? 25;
   const moveTo = (fraction: number) => {
     for (let i = 0; i < n; i++) x0[i] = from[i]! + fraction * step[i]!;
@@ -247,12 +262,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     states = map.states;
     const { mismatch, square } = periodResidual(end.x, x0, scale, residual);
     if (options.autonomous) residual[n] = 0;
-    if (iteration === 1) first = mismatch;
-    else best = Math.min(best, mismatch);
-    // (So does one whose step the trust radius still cuts short after that many periods: the start is out of Newton's reach.)
-    if (options.giveUpAfter !== undefined && iteration >= options.giveUpAfter && !(best < first && !cut)) {
-      throw noHeadway(iteration);
-    }
+    headway.record(iteration, mismatch, cut);
     // How well the model predicted the step's reduction of ‖r̃‖² (the trust region's test).
     const ratio = trial ? (fromSquare - square) / Math.max(fromSquare - predicted, Number.MIN_VALUE) : 1;
     if (trial) radius = nextRadius(radius, length, ratio);
