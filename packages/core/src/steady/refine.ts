@@ -96,8 +96,10 @@ export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, perio
     states.splice(N - 1, 1);
     N--;
   }
-  const shift = retime ? seamShift(system, times, states) : 0;
-  const start = fastestPoint(system, times, states);
+  // The charged states' swings over the period, as both the seam and the start read them.
+  const swings = Array.from(system.stateColumns, (j) => swingOf(states, j));
+  const shift = retime ? seamShift(system, times, states, swings) : 0;
+  const start = fastestPoint(system, times, states, swings);
   const rotated = (k: number) => (start + k) % N;
   const fractions = Float64Array.from({ length: N }, (_, k) => (times[rotated(k) + 1]! - times[rotated(k)]!) / period);
   const trajectory = Array.from({ length: N + 1 }, (_, k) => states[rotated(k)]!);
@@ -111,18 +113,19 @@ export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, perio
  * transient's measured period is off by the approach's coarser steps and its slow drift; the
  * shooting's first step then starts that much nearer). Zero when it exceeds `RETIME_REACH` of
  * the period: so far from closing, the swing is not yet near the orbit (a clipped swing whose
- * amplitude loop still moves), and the linear estimate would mislead.
+ * amplitude loop still moves), and the linear estimate would mislead. `swings`: one per state column.
  */
-function seamShift(system: MnaSystem, times: readonly number[], states: readonly Float64Array[]): number {
+function seamShift(system: MnaSystem, times: readonly number[], states: readonly Float64Array[], swings: readonly number[]): number {
   const N = times.length - 1;
   if (N < 2) return 0;
   const period = times[N]! - times[0]!;
   const h = times[N]! - times[N - 1]!;
   let fastest = 0;
   let shift = 0;
-  for (const j of system.stateColumns) {
+  for (let c = 0; c < swings.length; c++) {
+    const j = system.stateColumns[c]!;
     const rate = (states[N]![j]! - states[N - 1]![j]!) / h;
-    const speed = (Math.abs(rate) * period) / swingOf(states, j);
+    const speed = (Math.abs(rate) * period) / swings[c]!;
     if (speed > fastest) {
       fastest = speed;
       shift = -(states[N]![j]! - states[0]![j]!) / rate;
@@ -145,16 +148,15 @@ function swingOf(states: readonly Float64Array[], j: number): number {
   return hi - lo;
 }
 
-/** The recorded point (not the last) where the charged state with the largest swing changes fastest. */
-function fastestPoint(system: MnaSystem, times: readonly number[], states: readonly Float64Array[]): number {
+/** The recorded point (not the last) where the charged state with the largest swing (`swings`, one per state column) changes fastest. */
+function fastestPoint(system: MnaSystem, times: readonly number[], states: readonly Float64Array[], swings: readonly number[]): number {
   const N = times.length - 1;
   let widest = -1;
   let swing = -1;
-  for (const j of system.stateColumns) {
-    const size = swingOf(states, j);
-    if (size > swing) {
-      swing = size;
-      widest = j;
+  for (let c = 0; c < swings.length; c++) {
+    if (swings[c]! > swing) {
+      swing = swings[c]!;
+      widest = system.stateColumns[c]!;
     }
   }
   if (widest < 0) return 0;
