@@ -1110,7 +1110,7 @@ const cases: readonly Case[] = [
       "t.onset:2:26: error: bandwidth= of steady must be greater than 0 Hz, got 0 Hz",
       "  steady probe=o bandwidth=0",
       "                           ^",
-      "hint: bandwidth= is the frequency below which the THD counts the harmonics, instead of harmonics=",
+      "hint: bandwidth= is the frequency below which the THD counts the harmonics (at most 1000 of them), instead of harmonics=",
     ].join("\n"),
   },
   {

@@ -27,7 +27,7 @@ import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
 import { watchOperation } from "./operating-check.js";
-import { refuseShortWindow } from "./window-length.js";
+import { refuseShortWindow, refuseSparseRecord } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
 
@@ -47,6 +47,11 @@ const FINAL_VERDICTS: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled
 const FALLBACK_FREQUENCY = 1e3;
 /** THD counts harmonics 2 … this order unless `harmonics=` or `bandwidth=` says otherwise. */
 export const DEFAULT_THD_ORDER = 30;
+/**
+ * …and never beyond this one, the largest `harmonics=` takes: `bandwidth=` far above the
+ * frequency would otherwise ask for a spectrum of any size (1e300 Hz).
+ */
+export const MAX_THD_ORDER = 1000;
 /** A measured frequency within this fraction of a periodic source's is that source's (a driven circuit). */
 const DRIVE_MATCH = 1e-3;
 /**
@@ -213,6 +218,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const windowOrder = thdOrder(analysis, f0);
   const measure = () => {
     const { time, values } = record.toArrays();
+    refuseSparseRecord(analysis, time.length, stepper.t, maxStep);
     const measured = measureStartup(time, values, {
       maxOrder: windowOrder,
       noiseFloor: NOISE_PEAK * noiseAtProbe,
@@ -342,9 +348,9 @@ function reclassify(
   return metrics;
 }
 
-/** The highest harmonic THD counts: `harmonics=`, or the last below `bandwidth=` at frequency f. */
+/** The highest harmonic THD counts: `harmonics=`, or the last below `bandwidth=` at frequency f (from 2 to `MAX_THD_ORDER`). */
 export function thdOrder(analysis: { readonly harmonics?: number; readonly bandwidth?: number }, f: number): number {
-  if (analysis.bandwidth !== undefined) return Math.max(2, Math.floor(analysis.bandwidth / f));
+  if (analysis.bandwidth !== undefined) return Math.min(MAX_THD_ORDER, Math.max(2, Math.floor(analysis.bandwidth / f)));
   return analysis.harmonics ?? DEFAULT_THD_ORDER;
 }
 

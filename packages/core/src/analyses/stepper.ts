@@ -400,9 +400,12 @@ export class TransientStepper {
   /** Integrates until `tEnd` (landing on it exactly). */
   advance(tEnd: number): void {
     const { solver, tolerances } = this;
-    const minStep = 1e-14 * Math.max(tEnd, this.maxStep);
+    // Both scales are bounded by what is left to run: a max-step (and so a first step) far beyond
+    // it (max-step=1e30) must neither end the run before its first step nor make every step too small.
+    const span = tEnd - this.t;
+    const minStep = 1e-14 * Math.max(tEnd, Math.min(this.maxStep, span));
     if (this.pending) this.acceptPending();
-    while (tEnd - this.t > 1e-12 * this.h) {
+    while (tEnd - this.t > 1e-12 * Math.min(this.h, span)) {
       const hTry = Math.min(this.h, this.maxStep);
       const fromSegment = hTry === this.segmentStep && !this.firstOrderNext;
       let target = fromSegment ? this.segmentStart + (this.segmentCount + 1) * hTry : this.t + hTry;

@@ -27,3 +27,17 @@ export function refuseShortWindow(analysis: StartupAnalysis, predictedFrequency:
     hint: `write until=${Number(needed.toPrecision(2))} or longer, or until=auto`,
   });
 }
+
+/**
+ * Refuses the measurement of an `until=auto` start-up run that kept fewer points than it needs:
+ * a `max-step=` many periods long lets the step control take steps as long as the run when the
+ * swing stays below the accuracy floor. Placed at `max-step=` (or the analysis), with the largest
+ * step that would give enough.
+ */
+export function refuseSparseRecord(analysis: StartupAnalysis, points: number, until: number, maxStep: number): void {
+  if (points >= MIN_SAMPLES) return;
+  throw inputError("window-too-short", `the start-up run kept ${points} points over ${shown(until)} with max-step=${shown(maxStep)}, too few to measure (it needs ${MIN_SAMPLES})`, {
+    span: analysis.optionSpans?.["max-step"] ?? analysis.span,
+    hint: `give max-step= at most ${shown(until / (4 * MIN_SAMPLES))}, or leave it out (a hundredth of the predicted period)`,
+  });
+}

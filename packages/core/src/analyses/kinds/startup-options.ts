@@ -17,7 +17,7 @@ export const startupOptions: AnalysisOptions = {
   seed: { type: "number", unit: "1", min: 0, max: 9_007_199_254_740_991, integer: true, summary: "seed of every noise stream" },
   seeds: { type: "number", unit: "1", min: 1, max: 10_000, integer: true, summary: "number of seeds (seed, seed+1, …) the start-up runs with, for the spread of the start-up time" },
   harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "highest harmonic order the THD counts, from 2 (default 30)" },
-  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics, instead of harmonics=" },
+  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics (at most 1000 of them), instead of harmonics=" },
   accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the settled figures (default 1e-4)" },
   "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
 };

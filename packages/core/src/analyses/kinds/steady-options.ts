@@ -10,7 +10,7 @@ export const steadyOptions: AnalysisOptions = {
   cycles: { type: "number", unit: "1", min: 1, max: 100_000, integer: true, summary: "periods of transient before the shooting (default 60 from startup, levelling off earlier; 4 from poles; 3 when driven)" },
   "max-step": { type: "number", unit: "s", min: 0, minExclusive: true, summary: "largest time step" },
   harmonics: { type: "number", unit: "1", min: 2, max: 1000, integer: true, summary: "highest harmonic order the THD counts, from 2 (default 30)" },
-  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics, instead of harmonics=" },
+  bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics (at most 1000 of them), instead of harmonics=" },
   accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
   "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
 };
