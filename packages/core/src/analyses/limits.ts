@@ -301,16 +301,17 @@ export class RunBudget {
 
   /**
    * Refuses up front a run of fixed length that cannot finish within the step budget: no step
-   * is longer than `maxStep`, so it needs at least `until / maxStep` steps.
+   * is longer than `maxStep`, so it needs at least `until / maxStep` steps. `length` names the
+   * run's length in the message (`until=`, or `over` for a length the analysis chose: a period).
    */
-  refuseSteps(until: number, maxStep: number, what: string, span?: SourceSpan): void {
+  refuseSteps(until: number, maxStep: number, what: string, span?: SourceSpan, length = "until="): void {
     const needed = Math.ceil(until / maxStep);
     if (needed > this.maxSteps) {
       throw limitError(
         "maxSteps",
         this.maxSteps,
         needed,
-        `${what} until=${seconds(until)} with max-step=${seconds(maxStep)} needs at least ${count(needed)} steps, more than the step limit of ${count(this.maxSteps)}; it was not started`,
+        `${what} ${length}${seconds(until)} with max-step=${seconds(maxStep)} needs at least ${count(needed)} steps, more than the step limit of ${count(this.maxSteps)}; it was not started`,
         span,
       );
     }

@@ -23,7 +23,7 @@ import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundament
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, periodicDrives } from "./excitation.js";
-import { budgetOf, isRunLimitError, type RunBudget } from "./limits.js";
+import { budgetOf, isRunLimitError, type RunBudget, type SteppingRun } from "./limits.js";
 import { linearize } from "./linearize.js";
 import { implausibleOnOrbit } from "./operating-check.js";
 import { noiseLevel } from "./noise-level.js";
@@ -307,6 +307,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     const stepper = new TransientStepper(system, { start: { t: 0, x: bias.x }, maxStep, tolerances });
     const none = (why: string) => noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, 0, maxStep) }, why);
     const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
+    budget.refuseSteps(periods * period, maxStep, "the steady state's transient", analysis.span, "over ");
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
     const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
@@ -323,6 +324,8 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
   }
+  // The orbit's grid steps at most max-step over a period (the approach is coarser): refused before any work when that is beyond the step limit.
+  budget.refuseSteps(guessPeriod, maxStep, "the steady state's recorded period", analysis.span, "of about ");
   const orbitFound = (shot: ShotOrbit, transient: SteadyResult["transient"]) => {
     const startupTime = options.predictStartup === false ? null : predictedStartup(context, bias.x, poles, pole!, shot.amplitude);
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
@@ -513,7 +516,10 @@ type ShotOrbit = RefinedOrbit & { readonly merged: number };
 
 /** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points), `autonomous` retimed. */
 function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean): ShootingStart {
-  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous);
+  const what = "the steady state's recorded period";
+  c.budget.refuseSteps(period, maxStep, what, c.analysis.span, "of ");
+  const watch = (run: SteppingRun) => c.budget.watch(run, what, c.analysis.span);
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous, watch);
 }
 
 /** One turn of an orbit shot over `repeats` turns: a period of T/repeats recorded from its start. */
@@ -549,7 +555,8 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limi
     };
     const orders = thdOrder(c.analysis, 1 / period);
     const refined = c.singleGrid ? singleGridOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings) : refineOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings);
-    if (collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
+    // A driven orbit is the sources' forced response, however small its swing; only an autonomous one can be the rest point.
+    if (autonomous && collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
     // Converged on k turns of the orbit (x(kT) = x(0) holds too): shoot one turn instead.
     const repeats = autonomous && !reshot ? repeatsWithin(refined.orbit, c.system.stateColumns, absoluteTolerances(c.system.unknowns, c.tolerances, "lte")) : 1;
     if (repeats > 1) return shoot(c, () => oneTurn(c, refined.orbit.start, repeats), autonomous, limits, true);

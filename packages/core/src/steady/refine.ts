@@ -1,5 +1,6 @@
 import { TransientStepper, type StepperSnapshot } from "../analyses/stepper.js";
 import type { ProbeReader } from "../analyses/probes.js";
+import type { SteppingRun } from "../analyses/limits.js";
 import { harmonicList } from "../metrics/spectrum.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
@@ -58,10 +59,21 @@ const MIN_ORBIT_POINTS = 256;
  * that the phase condition fixes a value that a shift in time changes most. A period of more
  * than `maxPoints` steps keeps every 2nd, 4th, … of them (`merged`), its last point included.
  * With `retime` (an autonomous orbit, its period unknown) the guessed period is corrected by
- * the recorded period's seam shift (see `seamShift`).
+ * the recorded period's seam shift (see `seamShift`). `watch` is handed the run before it
+ * starts (a budget's step, time and wall-clock limits).
  */
-export function recordPeriod(system: MnaSystem, snapshot: StepperSnapshot, period: number, maxStep: number, tolerances?: Partial<Tolerances>, maxPoints = Infinity, retime = false) {
+export function recordPeriod(
+  system: MnaSystem,
+  snapshot: StepperSnapshot,
+  period: number,
+  maxStep: number,
+  tolerances?: Partial<Tolerances>,
+  maxPoints = Infinity,
+  retime = false,
+  watch?: (run: SteppingRun) => void,
+) {
   const stepper = new TransientStepper(system, { start: snapshot, maxStep, ...(tolerances ? { tolerances } : {}) });
+  watch?.(stepper);
   let times: number[] = [];
   let states: Float64Array[] = [];
   let merged = 1;
