@@ -18,6 +18,7 @@ import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type Numeri
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
+import { checkOrbitSeed } from "../steady/seed-check.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
 import { solveBias } from "./bias.js";
@@ -61,6 +62,13 @@ const SAMPLE_ORBIT_SHARE = 1e-1;
  * swing down within a few periods while a small one grows only at the poles' slow rate.
  */
 const KICK_SHARE = 1;
+/**
+ * The kick a caller may give (`SteadyOptions.kick`): far below the second start's swing the
+ * growth from it outlasts the batches, far above the rails the first steps leave every device's
+ * range, and neither start would say anything about the circuit.
+ */
+const MIN_KICK = 1e-6;
+const MAX_KICK = 100;
 /** The second start's swing, as a share of the amplifiers' half range, whatever the first kick (see `runSteady`). */
 const SMALL_KICK_SHARE = 1e-3;
 /** The first shooting waits until the swing changes by less than this fraction per period… */
@@ -187,6 +195,7 @@ export interface SteadyOptions extends RunOptions {
    * The growing mode's first kick: its largest node's swing as a share of the amplifiers' half
    * output range (default 1, see `KICK_SHARE`). The orbit found does not depend on it (a test
    * checks two kicks against each other); it only moves the transient before the shooting.
+   * From 1e-6 to 100.
    */
   readonly kick?: number;
 }
@@ -227,6 +236,9 @@ function checkArguments(api: string, circuit: Circuit, analysis: SteadyAnalysis,
   checkAnalysis(api, analysis, "steady");
   checkAnalysisFields(api, analysis as unknown as Readonly<Record<string, unknown>>, steadyOptions);
   checkOptions(api, options);
+  if (options.seed !== undefined) checkOrbitSeed(api, options.seed);
+  const kick = options.kick ?? KICK_SHARE;
+  if (!(kick >= MIN_KICK && kick <= MAX_KICK)) throw badArgument(`${api}: options.kick must be a number from 1e-6 to 100, got ${String(kick)}`);
 }
 
 /**
@@ -260,7 +272,6 @@ export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: Steady
 
 function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
   const kick = options.kick ?? KICK_SHARE;
-  if (!(kick > 0 && Number.isFinite(kick))) throw badArgument(`runSteady: options.kick must be a positive number, got ${String(kick)}`);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const budget = budgetOf(options);
   const system = buildSystem(circuit, options.extraParts);

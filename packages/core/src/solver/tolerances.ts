@@ -1,3 +1,4 @@
+import { badArgument, describe } from "../circuit/arguments.js";
 import { QUANTITIES, type LteAbsoluteSetting, type NewtonAbsoluteSetting, type Quantity } from "./quantities.js";
 
 /** Accuracy settings of the solvers. Defaults are documented in DEVELOPERS.md. */
@@ -60,6 +61,7 @@ const NEWTON_SHARE_ABSOLUTE = 1e-3;
  * the absolute), so that tightening the step control never leaves the iteration error above it.
  */
 export function resolveTolerances(given: Partial<Tolerances> = {}): Tolerances {
+  checkTolerances(given);
   const out: Record<string, number> = { ...DEFAULT_TOLERANCES, ...given };
   if (given.lteRelative !== undefined && given.newtonRelative === undefined) out.newtonRelative = NEWTON_SHARE_RELATIVE * given.lteRelative;
   for (const { newton, lte } of Object.values(QUANTITIES)) {
@@ -104,4 +106,22 @@ export function accuracyTolerances(relative: number | undefined, voltageFloor: n
     for (const { lte } of Object.values(QUANTITIES)) out[lte] = (voltageFloor * DEFAULT_TOLERANCES[lte]) / DEFAULT_TOLERANCES.lteVoltage;
   }
   return out as Partial<Tolerances>;
+}
+
+/**
+ * A caller's tolerances (`options.tolerances` of every analysis) at the door: each given one a
+ * finite number from 0 (0 asks for the exact answer, which fails with a placed error), the
+ * iteration counts whole numbers above 0. A NaN there made every step's error test
+ * fail silently (a steady analysis then reported that the shooting drove the period to zero).
+ */
+function checkTolerances(given: Partial<Tolerances>): void {
+  if (typeof given !== "object" || given === null) throw badArgument(`options.tolerances must be an object such as { lteRelative: 1e-5 }, got ${describe(given)}`);
+  for (const [key, value] of Object.entries(given)) {
+    if (value === undefined) continue;
+    if (!(key in DEFAULT_TOLERANCES)) throw badArgument(`options.tolerances.${key} is not a tolerance (${Object.keys(DEFAULT_TOLERANCES).join(", ")})`);
+    const whole = key === "stepIterations" || key === "biasIterations";
+    if (!(typeof value === "number" && Number.isFinite(value) && (whole ? Number.isInteger(value) && value > 0 : value >= 0))) {
+      throw badArgument(`options.tolerances.${key} must be ${whole ? "a whole number above 0" : "a finite number from 0"}, got ${describe(value)}`);
+    }
+  }
 }
