@@ -417,7 +417,16 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
   }
   // from=poles shoots after every few periods whatever the swing does; a slow loop's may still bounce.
   const instead = from === "poles" && why.startsWith("no periodic orbit found") ? `; from=poles shoots every ${batch} periods whether or not the swing has levelled off — from=startup (the default) waits for it` : "";
-  return noOrbit({ ...idle(), transient }, `${why}${instead}`);
+  return noOrbit({ ...idle(), transient }, startsFrom(pole!) ? `${why}${instead}` : offPairWhy(growing, pole!, transient.periods));
+}
+
+/**
+ * Why no orbit was found when the bias point grows only along a real pole while its dominant pair
+ * decays (a double-scroll circuit's saddle-focus): the search started in the pair's mode, which
+ * does not grow, so what it saw says little about what the circuit does from noise.
+ */
+function offPairWhy(growing: Pole, pair: Pole, periods: number): string {
+  return `no periodic orbit: the bias point grows along a real pole (${formatQuantity(growing.real, "/s")}) while its dominant pair at ${formatQuantity(pair.imag / (2 * Math.PI), "Hz")} decays; started in that pair's mode, the search found no orbit within ${periods} periods of transient. Such a circuit may latch, relax or never repeat (chaos): run startup or transient to see what it does`;
 }
 
 /**

@@ -3,6 +3,9 @@ import { withPrefix } from "../units/si-prefix.js";
 /** `value` with an SI prefix and four significant digits, for explanation lines: 1.581 kHz. */
 export function formatQuantity(value: number, unit: string): string {
   if (value === 0 || !Number.isFinite(value)) return `${value} ${unit}`;
+  // Beyond femto and tera a prefix would carry an exponent of its own (3.671e-18 fV).
+  const magnitude = Math.abs(value);
+  if (magnitude < 0.99995e-15 || magnitude >= 999.95e12) return `${value.toPrecision(4)} ${unit}`;
   const { mantissa, prefix } = withPrefix(value);
   return `${mantissa} ${prefix}${unit}`;
 }
