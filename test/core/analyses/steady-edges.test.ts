@@ -94,6 +94,31 @@ describe("runSteady where the bias point grows along a real pole and its dominan
   });
 });
 
+describe("runSteady on an orbit that exists only at the rails", () => {
+  // A Wien bridge (10 kΩ, 10 nF) of gain 1 + 40k/10k = 5 without a limiter: its swing is held
+  // only by the amplifier's ±12 V rails. From the poles' period the shooting converged on four
+  // turns of the orbit (their grids 2e-3 of the swing apart) and reported 301.7 Hz.
+  const railWien = circuit([
+    part("resistor", "R1", ["o", "s"], 10e3),
+    part("capacitor", "C1", ["s", "p"], 10e-9),
+    part("resistor", "R2", ["p", "gnd"], 10e3),
+    part("capacitor", "C2", ["p", "gnd"], 10e-9),
+    part("resistor", "Rg", ["n", "gnd"], 10e3),
+    part("resistor", "Rf", ["n", "o"], 40e3),
+    part("opamp", "U1", ["p", "n", "o"], undefined, { ...opampPresets.general, rails: [-12, 12] }),
+  ]);
+  const o = { kind: "node", node: "o" } as const;
+
+  test("from=poles finds the orbit from=startup finds (1.207 kHz), not k turns of it", () => {
+    const a = runSteady(railWien, { kind: "steady", probe: o });
+    const b = runSteady(railWien, { kind: "steady", probe: o, from: "poles" });
+    expect(a.found && b.found).toBe(true);
+    expect(Math.abs(b.frequency! / a.frequency! - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(b.amplitude! / a.amplitude! - 1)).toBeLessThan(1e-3);
+    expect(b.thd).not.toBeNull();
+  });
+});
+
 describe("runSteady's door", () => {
   test("options.kick outside 1e-6 … 100 is a bad argument (1e300 and 1e-300 found 'no orbit' for a circuit that has one)", () => {
     for (const kick of [1e300, 1e-300, 0, -1, NaN, Infinity]) {

@@ -43,6 +43,12 @@ describe("repeatsWithin(orbit, columns, floor)", () => {
     expect(repeatsWithin(orbitOf(signal, P, 200, 0.3), [0, 1], floor)).toBe(1);
   });
 
+  test("a swing clipped at its rails, shot over four turns whose grids leave them 2e-3 of the swing apart, repeats 4 times", () => {
+    const P = 4e-3;
+    const clipped = (t: number) => Math.max(-1, Math.min(1, 1.6 * Math.sin((8 * Math.PI * t) / P))) * (1 + 2e-3 * Math.floor((4 * t) / P) / 3);
+    expect(repeatsWithin(orbitOf(clipped, P, 660, 0.3), [0], [1e-9])).toBe(4);
+  });
+
   test("a state that does not move (a DC level) does not stop the others from repeating", () => {
     const P = 2e-3;
     const orbit = orbitOf((t) => Math.sin((6 * Math.PI * t) / P), P, 300, 0.2);
