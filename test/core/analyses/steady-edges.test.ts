@@ -90,6 +90,8 @@ describe("runSteady where the bias point grows along a real pole and its dominan
   test("no orbit, and the answer says the search started in a mode that does not grow (not an amplitude loop's overshoot)", () => {
     const r = runSteady(doubleScroll, steady());
     expect(r.found).toBe(false);
+    expect(r.predicted.starts).toBe(false);
+    expect(r.predicted.realGrowth).toBe(true);
     expect(r.explanation).toMatch(/^no periodic orbit: the bias point grows along a real pole \(25\.9\d* k\/s\) while its dominant pair at 3\.256 kHz decays; started in that pair's mode, the search found no orbit within \d+ periods of transient\. Such a circuit may latch, relax or never repeat \(chaos\): run startup or transient to see what it does$/);
   });
 });

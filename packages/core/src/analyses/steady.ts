@@ -106,6 +106,8 @@ export interface SteadyPrediction {
   /** 1/s: the dominant pair's real part. */
   readonly growthRate: number | null;
   readonly starts: boolean;
+  /** The bias point grows along a real pole (a latch or a relaxation oscillator; with `starts` false, no orbit is searched from it). */
+  readonly realGrowth: boolean;
   /**
    * Predicted start-up time (s): ln(0.9·A / k)/σ, the envelope growing at the poles' rate from
    * k = √2 × the thermal noise at the probe to 90 % of the orbit's amplitude A. It is a linear
@@ -293,7 +295,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     unit: probeUnit(system, analysis.probe),
     warnings: defaultWarnings(circuit),
   };
-  const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false };
+  const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false, realGrowth: poles.some((p) => p.imag === 0 && p.real > 0) };
   const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, operatingCheck: options.operatingCheck ?? true, ...(onOrbit ? { onOrbit } : {}) };
 
   const noisy = circuit.parts.find((p) => (p.kind === "vsource" || p.kind === "isource") && p.options.wave === "noise" && !Number.isFinite(p.options.stop));

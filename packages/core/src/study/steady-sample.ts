@@ -28,12 +28,14 @@ export function steadyAnalysisOf(circuit: Circuit): SteadyAnalysis | undefined {
 
 /**
  * A steady result as a start-up verdict: a stable (or marginal) orbit is `settled`, an unstable
- * one `unsettled` (the circuit would leave it); without an orbit, `decaying` when the poles do
- * not start, else `unsettled` (it oscillates, but no periodic orbit was found).
+ * one `unsettled` (the circuit would leave it); without an orbit, `decaying` when nothing at the
+ * bias point grows (no pair starts, no real pole grows), else `unsettled` (it oscillates, latches
+ * or relaxes, but no periodic orbit was found).
  */
 export function steadyVerdict(r: SteadyResult): StartupVerdict {
   if (r.found) return r.stability?.verdict === "unstable" ? "unsettled" : "settled";
-  return r.kind === "autonomous" && !r.predicted.starts ? "decaying" : "unsettled";
+  // Decaying only when nothing at the bias point grows: one that grows along a real pole latches or relaxes.
+  return r.kind === "autonomous" && !r.predicted.starts && !r.predicted.realGrowth ? "decaying" : "unsettled";
 }
 
 /**
