@@ -2,18 +2,12 @@
 // would be, in a process of its own: what it ends in (the error code, or the result), its wall
 // time and its peak resident memory. test/hostile/hostile-input.test.ts asserts the outcomes under
 // a memory cap; this prints the figures. The RC ladders are in the scaling suite.
-import { spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { readFileSync, rmSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { fileURLToPath } from "node:url";
 import { printTable } from "../table.mjs";
+import { commandDir, measure, outcomeOf } from "../command-run.mjs";
 
 export const title = "Hostile inputs: what each ends in, its time and its peak memory";
-
-const MAIN = fileURLToPath(new URL("../../packages/cli/dist/main.js", import.meta.url));
-/** Preloaded into each command: writes its peak resident set (kB) to the file named in ONSET_BENCH_RSS at exit. */
-const PROBE = "process.on('exit', () => require('node:fs').writeFileSync(process.env.ONSET_BENCH_RSS, String(process.resourceUsage().maxRSS)));";
 
 /** A Wien-bridge source of our own (the workshop tuning reference's topology, bench values), then `tail`. */
 const wien = (tail) => `title "Hostile-input bench source"
@@ -50,28 +44,6 @@ const ROWS = [
   ["tolerance without a start-up analysis", { "a.onset": wien("bias\ntolerance runs=20\n") }, ["run", "a.onset", "--json"]],
 ];
 
-/** Runs one command in `dir`: its exit status, what it ended in, wall ms and peak RSS. */
-function measure(dir, args) {
-  const rss = join(dir, "rss");
-  const started = performance.now();
-  const run = spawnSync(process.execPath, ["--require", join(dir, "probe.cjs"), MAIN, ...args], { cwd: dir, encoding: "utf8", env: { ...process.env, NO_COLOR: "1", ONSET_BENCH_RSS: rss }, maxBuffer: 1 << 28 });
-  const ms = performance.now() - started;
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr, ms, peakMB: Number(readFileSync(rss, "utf8")) / 1024 };
-}
-
-function outcomeOf(r) {
-  try {
-    const doc = JSON.parse(r.stdout);
-    if (doc.error) return `error ${doc.error.code}${doc.error.line ? ` at line ${doc.error.line}` : ""}`;
-    const warnings = (doc.results ?? []).flatMap((x) => x.warnings ?? []).map((w) => `${w.code} ${w.part ?? ""}`.trim());
-    return warnings.length > 0 ? `result; warnings: ${[...new Set(warnings)].join(", ")}` : "result";
-  } catch {
-    const first = r.stderr.split("\n").find((l) => / error: /.test(l));
-    const more = r.stderr.split("\n").filter((l) => / error: /.test(l)).length;
-    return first ? `${more} error lines, first: ${first.slice(0, 60)}` : `status ${r.status}`;
-  }
-}
-
 /** The merge row: two shards, one record's drawn value edited, then `onset merge`. */
 function mergeRow(dir) {
   writeFileSync(join(dir, "mc.onset"), wien("startup probe=o until=auto\ntolerance runs=4\n"));
@@ -83,8 +55,7 @@ function mergeRow(dir) {
 }
 
 export async function run() {
-  const dir = mkdtempSync(join(tmpdir(), "onset-hostile-"));
-  writeFileSync(join(dir, "probe.cjs"), PROBE);
+  const dir = commandDir("onset-hostile-");
   const rows = [];
   try {
     for (const [what, files, args] of ROWS) {

@@ -228,6 +228,45 @@ describe("the rows of the table, continued", () => {
   });
 });
 
+describe("the steady analysis at its edges (issue 15's acceptance)", () => {
+  test("steady bandwidth=1e10: THD over harmonics 2 … 1000, within the caps (it grew to 2.3 GB and overflowed the stack)", async () => {
+    ws.write("steady-bandwidth.onset", wien("steady probe=o bandwidth=1e10\n"));
+    const r = await capped(["run", "steady-bandwidth.onset", "--json"]);
+    expect(r.status).toBe(0);
+    const [result] = (JSON.parse(r.stdout) as { results: { found: boolean; thdOrders: number[] }[] }).results;
+    expect(result!.found).toBe(true);
+    expect(result!.thdOrders).toEqual([2, 1000]);
+  });
+
+  test("steady max-step=1e-15: step-limit before any work, at the analysis, with the limit to raise (it ran for minutes)", async () => {
+    ws.write("steady-step.onset", wien("steady probe=o max-step=1e-15\n"));
+    const e = await jsonError("steady-step.onset");
+    expect([e.status, e.code, e.line]).toEqual([3, "step-limit", 11]);
+    expect(e.message).toMatch(/^the steady state's recorded period of about .* s with max-step=1e-15 s needs at least [\d ]+ steps, more than the step limit of 10 000 000; it was not started$/);
+    expect(e.hint).toContain("--limit steps=N");
+  });
+
+  test("steady max-step=1e30: the orbit (it 'died out within 2 periods')", async () => {
+    ws.write("steady-long-step.onset", wien("steady probe=o max-step=1e30\n"));
+    const r = await capped(["run", "steady-long-step.onset", "--json"]);
+    expect(r.status).toBe(0);
+    expect((JSON.parse(r.stdout) as { results: { found: boolean }[] }).results[0]!.found).toBe(true);
+  });
+
+  test("startup max-step=1e6 under until=auto: window-too-short at max-step= (it was an unplaced 'measureStartup: need at least 4 samples')", async () => {
+    ws.write("startup-long-step.onset", wien("startup probe=o max-step=1e6\n"));
+    const e = await jsonError("startup-long-step.onset");
+    expect([e.status, e.code, e.line]).toEqual([2, "window-too-short", 11]);
+  });
+
+  test("tolerance runs=10⁶ measure=steady: runs-limit before a sample, raisable", async () => {
+    ws.write("steady-runs.onset", wien("steady probe=o\ntolerance runs=1000000 measure=steady\n"));
+    const e = await jsonError("steady-runs.onset");
+    expect([e.status, e.code, e.line]).toEqual([3, "runs-limit", 12]);
+    expect(e.hint).toContain("--limit runs=N");
+  });
+});
+
 describe("the limits, each raisable", () => {
   test("source-size: a file above the limit is refused by its size", async () => {
     ws.write("big.onset", `# ${"x".repeat(5000)}\n`);
