@@ -18,7 +18,7 @@ import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type Numeri
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
 import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
-import { checkOrbitSeed } from "../steady/seed-check.js";
+import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
 import { solveBias } from "./bias.js";
@@ -344,6 +344,7 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     return found(context, shot, { ...idle(), predicted: { ...prediction, startupTime }, transient });
   };
   if (options.seed && options.seed.x.length === system.n) {
+    checkSeedGrid("runSteady", options.seed);
     const shot = shoot(context, () => seededStart(options.seed!), true, { maxIterations: EARLY_ITERATIONS, predictedMultipliers: options.predictedMultipliers ?? false });
     if (typeof shot !== "string") return orbitFound(shot, idle().transient);
   }

@@ -7,17 +7,29 @@ function finiteList(value: unknown): value is ArrayLike<number> {
   return true;
 }
 
+function failure(api: string, what: string, value: unknown) {
+  return badArgument(`${api}: options.seed.${what}, got ${describe(value)}`);
+}
+
 /**
- * Checks an orbit seed handed to `runSteady` (`options.seed`, see `steadySeed`): plain data that
- * may come from another thread or a file, so its shape is checked at the door before the
- * shooting indexes into it. A seed of another circuit's size is allowed (it is not used).
+ * Checks an orbit seed handed to `runSteady` (`options.seed`, see `steadySeed`) at the door: an
+ * object whose start `x` is a list of finite numbers. Plain data that may come from another
+ * thread or a file; the rest is checked by {@link checkSeedGrid} once its size matches the circuit's.
  */
 export function checkOrbitSeed(api: string, seed: unknown): void {
-  const fail = (what: string, value: unknown) => badArgument(`${api}: options.seed.${what}, got ${describe(value)}`);
   if (typeof seed !== "object" || seed === null) throw badArgument(`${api}: options.seed must be an orbit seed (see steadySeed), got ${describe(seed)}`);
-  const s = seed as Record<string, unknown>;
-  if (!finiteList(s.x) || s.x.length === 0) throw fail("x must be a Float64Array of finite numbers", s.x);
-  const n = s.x.length;
+  const x = (seed as Record<string, unknown>).x;
+  if (!finiteList(x) || x.length === 0) throw failure(api, "x must be a Float64Array of finite numbers", x);
+}
+
+/**
+ * Checks the rest of a seed whose size matches the circuit's, before the shooting indexes into
+ * it (a seed of another circuit's size is not used, and not checked further).
+ */
+export function checkSeedGrid(api: string, seed: { readonly x: ArrayLike<number> }): void {
+  const fail = (what: string, value: unknown) => failure(api, what, value);
+  const s = seed as unknown as Record<string, unknown>;
+  const n = seed.x.length;
   if (!(typeof s.period === "number" && Number.isFinite(s.period) && s.period > 0)) throw fail("period must be a finite time above 0 s", s.period);
   if (!finiteList(s.fractions) || s.fractions.length === 0 || !Array.prototype.every.call(s.fractions, (f: number) => f > 0)) {
     throw fail("fractions must be a non-empty Float64Array of steps above 0 (fractions of the period)", s.fractions);
