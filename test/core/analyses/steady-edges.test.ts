@@ -3,21 +3,14 @@
 import { describe, expect, test } from "vitest";
 import { opampPresets, OnsetError, RunLimitError, runSteady, type PartSpec, type SteadyAnalysis } from "@onset/core";
 import { circuit, part } from "../../support/circuits.js";
+import { clippedTank } from "../../support/clipped-tank.js";
 import { thrownBy } from "../../support/thrown.js";
 
 const probe = { kind: "node", node: "v" } as const;
 const steady = (extra: Partial<SteadyAnalysis> = {}): SteadyAnalysis => ({ kind: "steady", probe, ...extra });
 
-/** L = 1 mH ∥ C = 100 nF ∥ 100 kΩ held by a stage of gain 3 clipped at ±1 V through 40 kΩ (15.92 kHz). */
-const tank: PartSpec[] = [
-  part("inductor", "L1", ["v", "gnd"], 1e-3),
-  part("capacitor", "C1", ["v", "gnd"], 100e-9),
-  part("resistor", "R1", ["v", "gnd"], 100e3),
-  part("opamp", "U1", ["v", "n", "o"], undefined, { ...opampPresets.ideal, rails: [-1, 1] }),
-  part("resistor", "Rf", ["o", "n"], 2e3),
-  part("resistor", "Rg", ["n", "gnd"], 1e3),
-  part("resistor", "Rfb", ["o", "v"], 40e3),
-];
+/** The clipped tank at 15.92 kHz (test/support/clipped-tank.ts). */
+const tank: PartSpec[] = clippedTank();
 
 describe("runSteady with option values at the edges", () => {
   test("bandwidth=1e300 counts harmonics 2 … 1000, as harmonics=1000 does (it asked for a spectrum of 1e296 orders)", () => {
@@ -65,6 +58,22 @@ describe("runSteady on a driven orbit whose swing is far below the accuracy floo
     expect(r.found).toBe(true);
     expect(r.kind).toBe("driven");
     expect(Math.abs(r.amplitude! * Math.sqrt(1 + wrc * wrc) - 1)).toBeLessThan(1e-4);
+    // 318 nV peak-to-peak, under the 1 µV floor: said beside the figures.
+    expect(r.warnings.map((w) => w.code)).toEqual(["probe-below-floor"]);
+    expect(r.warnings[0]!.message).toBe("the probe v swings by 318.3 nV over the orbit, less than the accuracy floor of 1 µV: the orbit is the circuit's, but the steps hold this probe's figures only to that floor");
+  });
+});
+
+describe("runSteady probed where the oscillation does not reach", () => {
+  test("a divider across a DC supply beside the tank: the tank's orbit, 0 V on the probe, and the probe-below-floor warning", () => {
+    const beside = circuit([...tank, part("vsource", "Vs", ["s5", "gnd"], 5), part("resistor", "Ra", ["s5", "m"], 1e3), part("resistor", "Rb", ["m", "gnd"], 1e3)]);
+    const r = runSteady(beside, { kind: "steady", probe: { kind: "node", node: "m" } });
+    const onTank = runSteady(circuit(tank), steady());
+    expect(r.found).toBe(true);
+    expect(r.frequency).toBe(onTank.frequency);
+    expect(r.peakToPeak).toBe(0);
+    expect(r.warnings.map((w) => w.code)).toEqual(["probe-below-floor"]);
+    expect(onTank.warnings).toEqual([]);
   });
 });
 

@@ -19,6 +19,7 @@ import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJaco
 import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
+import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
 import { solveBias } from "./bias.js";
@@ -687,7 +688,13 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   return {
     analysis: "steady",
     ...common,
-    warnings: [...common.warnings, ...implausible, ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []), ...(toneless ? [tonelessWarning(c, orbit.frequency, common.kind)] : [])],
+    warnings: [
+      ...common.warnings,
+      ...implausible,
+      ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
+      ...(toneless ? [tonelessWarning(c, orbit.frequency, common.kind)] : []),
+      ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
+    ],
     found: true,
     explanation: `${what}; ${how}`,
     frequency: orbit.frequency,
@@ -731,6 +738,23 @@ function tonelessWarning(c: Context, frequency: number, kind: SteadyResult["kind
         : `the probe ${probeName(c.analysis.probe)} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`,
     ...(c.analysis.span ? { span: c.analysis.span } : {}),
     hint: kind === "driven" ? "THD is not given; the harmonics' levels are relative to the largest of them" : "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at the oscillation's frequency for its distortion",
+  };
+}
+
+/**
+ * The note of an orbit the probe barely sees: it swings by less than the step control's absolute
+ * tolerance on it (a node the oscillation does not reach, a supply, a forced response far down a
+ * filter's slope). The orbit is the circuit's; the probe's figures lie below what the steps hold.
+ */
+function belowFloorWarning(c: Context, peakToPeak: number, unit: QuantityUnit): Diagnostic {
+  const floor = formatQuantity(probeFloor(unit, c.tolerances), unit);
+  return {
+    severity: "warning",
+    stage: "simulation",
+    code: "probe-below-floor",
+    message: `the probe ${probeName(c.analysis.probe)} swings by ${formatQuantity(peakToPeak, unit)} over the orbit, less than the accuracy floor of ${floor}: the orbit is the circuit's, but the steps hold this probe's figures only to that floor`,
+    ...(c.analysis.span ? { span: c.analysis.span } : {}),
+    hint: "probe a node the oscillation swings, or lower accuracy-floor= to hold a small swing",
   };
 }
 

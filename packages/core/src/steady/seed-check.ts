@@ -40,5 +40,6 @@ export function checkSeedGrid(api: string, seed: { readonly x: ArrayLike<number>
   }
   if (!finiteList(s.matrix) || (s.matrix.length !== 0 && s.matrix.length !== (n + 1) ** 2)) throw fail(`matrix must be empty or (${n} + 1)² finite numbers`, s.matrix);
   if (!(Number.isInteger(s.phase) && (s.phase as number) >= 0 && (s.phase as number) < n)) throw fail(`phase must be an unknown's index from 0 to ${n - 1}`, s.phase);
-  if (s.contraction !== undefined && !(typeof s.contraction === "number" && s.contraction >= 0 && Number.isFinite(s.contraction))) throw fail("contraction must be a finite number from 0", s.contraction);
+  // Infinity says the contraction is unknown (a study sample some of whose toleranced values got no slopes).
+  if (s.contraction !== undefined && !(typeof s.contraction === "number" && s.contraction >= 0)) throw fail("contraction must be a number from 0 (Infinity allowed)", s.contraction);
 }
