@@ -220,6 +220,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       ...(prediction ? { prediction } : {}),
       drives,
       searchFrom,
+      unit: probeUnit(system, analysis.probe),
     });
     checkResolved(budget, record, measured.frequency, analysis.span);
     return measured;
@@ -383,7 +384,7 @@ function refineSettled(
     metrics: {
       ...metrics,
       // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, "V")} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
+      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, probeUnit(s.quiet, s.analysis.probe))} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,
