@@ -114,3 +114,54 @@ describe("an oscillation killed by its first overshoot, which comes back", () =>
     expect(Math.max(...v.slice(lowAt))).toBeGreaterThan(0.5 * steady.amplitude!);
   });
 });
+
+// A JFET Wien of our own (10 kΩ, 10 nF, about 1.6 kHz) whose peak detector charges through 1 kΩ
+// into a large filter, 4.7 µF bled by 1 MΩ (the bias point's slowest time constant 2.22 s): the
+// first overshoot, on the rails, charges the gate past the point where the gain falls below 3, the
+// oscillation dies into the noise within some 40 ms and grows again at about 0.2 s, once the
+// filter has bled back, then settles.
+const slowDetector = buildCircuit(
+  loadSource(
+    "slow-detector-wien.onset",
+    `resistor  R1 o s   10k
+capacitor C1 s p   10n
+resistor  R2 p gnd 10k
+capacitor C2 p gnd 10n
+resistor  Rf o n   10k
+resistor  Rs n d   3.9k
+jfet      J1 d g gnd idss=8m pinchoff=-2.5
+resistor  Ra d g   470k
+resistor  Rc c g   470k
+resistor  Rd o a   1k
+diode     D1 c a
+capacitor Cf c gnd 4.7u
+resistor  Rb c gnd 1M
+opamp     U1 p n o preset=general rails=(-15, 15)
+`,
+  ),
+).circuit;
+
+describe("a fixed until= that ends while an overshoot-killed oscillation may still come back", () => {
+  test("JFET Wien, slow detector: until=100m is unsettled and says to raise until=, never 'no oscillation'", () => {
+    const r = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: 0.1 });
+    // measured: unsettled, the overshoot to 13.12 V at 11.1 ms watched until 6.67 s (before: decaying, "no oscillation: the envelope dies away, −50.7 %/cycle")
+    expect(r.verdict).toBe("unsettled");
+    expect(r.explanation).not.toMatch(/no oscillation/);
+    expect(r.explanation).toMatch(/^the oscillation grew to .+ V peak at .+s and died away after it, but it may come back .*slowest time constant is 2\.22 s\): it is watched until 6\.\d+ s, the run stopped at 100 ms; raise until= to wait longer$/);
+    // the record did die after its overshoot: the envelope fell below a hundredth of its peak
+    const e = r.envelope.value;
+    const peakAt = e.indexOf(Math.max(...e));
+    expect(Math.min(...e.subarray(peakAt))).toBeLessThan(0.01 * e[peakAt]!);
+  });
+
+  test("JFET Wien, slow detector: with until= raised as the hint says it grew again and settled, as until=auto finds", () => {
+    // Source: the same circuit run twenty times as long, its own last cycles (measured: settled, 4.947 V, 1.58 kHz)
+    const long = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: 2 }, { settledFromOrbit: false });
+    expect(long.verdict).toBe("settled");
+    expect(long.amplitude!).toBeGreaterThan(4);
+    const auto = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: "auto" }, { settledFromOrbit: false });
+    expect(auto.verdict).toBe("settled");
+    expect(Math.abs(auto.amplitude! / long.amplitude! - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(auto.frequency! / long.frequency! - 1)).toBeLessThan(1e-3);
+  });
+});

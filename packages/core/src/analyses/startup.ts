@@ -264,8 +264,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  if (analysis.until === "auto" && prediction?.starts && mayRestart(metrics, stepper.t)) {
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe)) };
+  // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
+  if (prediction?.starts && mayRestart(metrics, stepper.t)) {
+    const raise = analysis.until === "auto" ? "settle-within=" : "until=";
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe), raise) };
   }
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
   const excitation: Excitation = {
