@@ -10,6 +10,7 @@ import { describe, expect, test } from "vitest";
 import { runStartup, runSteady } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { agcWienParts, agcWienReference } from "../../support/agc-wien.js";
+import { detectorWienSource } from "../../support/jfet-detector-wien.js";
 import { circuit } from "../../support/circuits.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;
@@ -121,24 +122,7 @@ describe("an oscillation killed by its first overshoot, which comes back", () =>
 // oscillation dies into the noise within some 40 ms and grows again at about 0.2 s, once the
 // filter has bled back, then settles.
 const slowDetector = buildCircuit(
-  loadSource(
-    "slow-detector-wien.onset",
-    `resistor  R1 o s   10k
-capacitor C1 s p   10n
-resistor  R2 p gnd 10k
-capacitor C2 p gnd 10n
-resistor  Rf o n   10k
-resistor  Rs n d   3.9k
-jfet      J1 d g gnd idss=8m pinchoff=-2.5
-resistor  Ra d g   470k
-resistor  Rc c g   470k
-resistor  Rd o a   1k
-diode     D1 c a
-capacitor Cf c gnd 4.7u
-resistor  Rb c gnd 1M
-opamp     U1 p n o preset=general rails=(-15, 15)
-`,
-  ),
+  loadSource("slow-detector-wien.onset", detectorWienSource({ R: "10k", C: "10n", Rf: "10k", Rs: "3.9k", idss: "8m", pinchoff: "-2.5", Rgate: "470k", Rk: "1k", Cf: "4.7u", Rb: "1M", rail: "15" })),
 ).circuit;
 
 describe("a fixed until= that ends while an overshoot-killed oscillation may still come back", () => {
