@@ -220,6 +220,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       ...(prediction ? { prediction } : {}),
       drives,
       searchFrom,
+      unit: probeUnit(system, analysis.probe),
     });
     checkResolved(budget, record, measured.frequency, analysis.span);
     return measured;
@@ -263,8 +264,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  if (analysis.until === "auto" && prediction?.starts && mayRestart(metrics, stepper.t)) {
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe)) };
+  // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
+  if (prediction?.starts && mayRestart(metrics, stepper.t)) {
+    const raise = analysis.until === "auto" ? "settle-within=" : "until=";
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe), raise) };
   }
   const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
   const excitation: Excitation = {
@@ -383,7 +386,7 @@ function refineSettled(
     metrics: {
       ...metrics,
       // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, "V")} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
+      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, probeUnit(s.quiet, s.analysis.probe))} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,
