@@ -27,7 +27,7 @@ import { budgetOf, isRunLimitError, type RunBudget } from "./limits.js";
 import { linearize } from "./linearize.js";
 import { implausibleOnOrbit } from "./operating-check.js";
 import { noiseLevel } from "./noise-level.js";
-import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
+import { dominantPair, onImaginaryAxis, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { probeReader, probeUnit, probeWeights, type ProbeReader } from "./probes.js";
 import { cornersWithin } from "./settled-orbit.js";
 import { amplitudeLimit, thdOrder } from "./startup.js";
@@ -478,9 +478,9 @@ function rightmostGrowing(poles: readonly Pole[]): Pole | null {
 function polesVerdict(pole: Pole | null): string {
   if (!pole) return "the poles at the bias point are all real and none grows";
   const f = formatQuantity(pole.imag / (2 * Math.PI), "Hz");
-  return startsFrom(pole)
-    ? `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`
-    : `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
+  if (startsFrom(pole)) return `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`;
+  if (onImaginaryAxis(pole)) return `the poles' dominant pair at ${f} lies on the imaginary axis (to rounding): it neither grows nor decays`;
+  return `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
 }
 
 /**
