@@ -1,0 +1,172 @@
+// Issue 15, a fifth acceptance pass on circuits of its own (values and scenarios unlike the
+// examples' and the other passes'): closed forms, the odex ODE integrator, a cross-check against
+// the settled start-up run, probe independence, and no orbit where there is none.
+import { createRequire } from "node:module";
+import { describe, expect, test } from "vitest";
+import { onImaginaryAxis, runPoles, runSteady, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
+import { elaborate, loadProgram } from "@onset/netlist-parser";
+import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
+
+const { Solver } = createRequire(import.meta.url)("odex") as typeof import("odex");
+
+const circuitOf = (text: string): Circuit => elaborate(loadProgram("acceptance-5.onset", text).program, {}).circuit!;
+const steadyOf = (text: string, options = "probe=o"): SteadyResult => {
+  const circuit = circuitOf(`${text}\nsteady ${options}\n`);
+  return runSteady(circuit, circuit.analyses.find((a) => a.kind === "steady")! as Parameters<typeof runSteady>[1]);
+};
+const rel = (a: number, b: number) => Math.abs(a / b - 1);
+
+/** A Wien bridge (equal R, C) with back-to-back diodes across part of its feedback resistor. */
+const wien = (r: string, c: string, amplifier: string) => `resistor  R1 o s   ${r}
+capacitor C1 s p   ${c}
+resistor  R2 p gnd ${r}
+capacitor C2 p gnd ${c}
+resistor  Rg n gnd 4.7k
+resistor  Rf1 n f 6.8k
+resistor  Rf2 f o 3.3k
+diode     D1 f o
+diode     D2 o f
+opamp     U1 p n o ${amplifier}`;
+
+/** Two inverting integrators (20 kΩ, 10 nF: ω = 1/RC) and an inverter; 1 MΩ from the loop's end into the second integrator undamps it, diodes through 22 kΩ across its capacitor limit the swing. */
+const QUADRATURE = `resistor  R1 o n1 20k
+capacitor C1 n1 b 10n
+opamp     U1 gnd n1 b preset=general rails=(-12, 12)
+resistor  R2 b n2 20k
+capacitor C2 n2 c 10n
+opamp     U2 gnd n2 c preset=general rails=(-12, 12)
+resistor  R3 c n3 10k
+resistor  R4 n3 o 10k
+opamp     U3 gnd n3 o preset=general rails=(-12, 12)
+resistor  Rd o n2 1M
+resistor  Rx c m 22k
+diode     D1 m n2
+diode     D2 n2 m`;
+
+describe("closed forms", () => {
+  test("a lossless LC tank: poles ±j/√(LC) (closed form), on the imaginary axis; steady answers no orbit and names the axis, not the left half-plane", () => {
+    const text = "inductor L1 v gnd 1m\ncapacitor C1 v gnd 100n\nvccs G1 gnd v v gnd 0";
+    const poles = runPoles(circuitOf(text), { kind: "poles" });
+    expect(rel(poles.dominant!.imag, 1 / Math.sqrt(1e-3 * 100e-9))).toBeLessThan(1e-9);
+    expect(onImaginaryAxis(poles.dominant!)).toBe(true);
+    expect(poles.starts).toBe(false);
+    const r = steadyOf(text, "probe=v");
+    expect(r.found).toBe(false);
+    expect(r.frequency).toBeNull();
+    expect(r.explanation).toContain("imaginary axis");
+    expect(r.explanation).not.toContain("left half-plane");
+  });
+
+  test("an R–C low-pass ladder behind a gain of −29.4 held by an ideal clip runs at the ladder's phase crossover √6/(2πRC) (closed form; a memoryless clip adds no phase) within 1e-4", () => {
+    const r = steadyOf(`resistor R1 o a 12k
+capacitor C1 a gnd 3.3n
+resistor R2 a b 12k
+capacitor C2 b gnd 3.3n
+resistor R3 b c 12k
+capacitor C3 c gnd 3.3n
+vcvs E1 x gnd c gnd -29.4
+opamp U1 x o o preset=ideal gbw=inf rout=0 rails=(-1.5, 1.5)`);
+    expect(r.found).toBe(true);
+    expect(r.stability!.verdict).toBe("stable");
+    expect(rel(r.frequency!, Math.sqrt(6) / (2 * Math.PI * 12e3 * 3.3e-9))).toBeLessThan(1e-4);
+    expect(r.numericalError!.frequency / r.frequency!).toBeLessThan(1e-4);
+  });
+
+  test("two tones (400 Hz, 0.5 V at 500 Hz) through an RC: the common period 10 ms, zero offset and rms √Σ|H(jω)|²a²/2 (closed form) within 1e-5; no THD without a fundamental", () => {
+    const r = steadyOf(`vsource V1 a gnd wave=sine amp=1 freq=400
+vsource V2 in a wave=sine amp=0.5 freq=500
+resistor R1 in o 3.3k
+capacitor C1 o gnd 47n`);
+    expect(r.kind).toBe("driven");
+    expect(r.period).toBeCloseTo(0.01, 15);
+    const gain = (f: number) => 1 / Math.hypot(1, 2 * Math.PI * f * 3.3e3 * 47e-9);
+    expect(rel(r.rms!, Math.sqrt((gain(400) ** 2 + (0.5 * gain(500)) ** 2) / 2))).toBeLessThan(1e-5);
+    expect(Math.abs(r.offset!)).toBeLessThan(1e-9);
+    expect(r.thd).toBeNull();
+    expect(r.warnings.map((w) => w.code)).toContain("orbit-without-fundamental");
+  });
+});
+
+/** The rectifier's orbit from its state equation C·v′ = i_D(v_in − v) − v/R_L, the diode solved for its series resistance, integrated by odex to 43 time constants. */
+function rectifierReference(): { amplitude: number; offset: number; rms: number } {
+  const is = 2.5e-9, nvt = 1.8 * THERMAL_VOLTAGE, rs = 0.5, c = 47e-6, rl = 1.5e3, f = 60;
+  const diode = (vd: number) => {
+    let lo = Math.min(-50, vd - 1);
+    let hi = Math.min(vd, 2) + 1e-9;
+    const g = (vj: number) => vj + rs * (is * Math.expm1(vj / nvt) + 1e-12 * vj) - vd;
+    for (let i = 0; i < 100; i++) (g(0.5 * (lo + hi)) > 0 ? (hi = 0.5 * (lo + hi)) : (lo = 0.5 * (lo + hi)));
+    const vj = 0.5 * (lo + hi);
+    return is * Math.expm1(vj / nvt) + 1e-12 * vj;
+  };
+  const solver = new Solver(1);
+  solver.relativeTolerance = 1e-11;
+  solver.absoluteTolerance = 1e-12;
+  solver.maxSteps = 1e7;
+  solver.denseOutput = true;
+  const T = 1 / f, t0 = 3, n = 400_000;
+  const v: number[] = [];
+  solver.solve((t, y) => [(diode(9 * Math.sin(2 * Math.PI * f * t) - y[0]!) - y[0]! / rl) / c], 0, [0], t0 + T, (_k, _a, x, y, dense) => {
+    while (v.length < n && t0 + (v.length * T) / n <= x) v.push(dense ? dense(0, t0 + (v.length * T) / n) : y[0]!);
+  });
+  let max = -Infinity, min = Infinity, sum = 0, squares = 0;
+  for (const x of v) (max = Math.max(max, x)), (min = Math.min(min, x)), (sum += x), (squares += x * x);
+  return { amplitude: (max - min) / 2, offset: sum / n, rms: Math.sqrt(squares / n) };
+}
+
+describe("a driven diode circuit against the odex ODE integrator", () => {
+  const RECTIFIER = "vsource V1 in gnd wave=sine amp=9 freq=60\ndiode D1 in o\ncapacitor C1 o gnd 47u\nresistor RL o gnd 1.5k";
+  test("a 60 Hz half-wave rectifier into 47 µF ∥ 1.5 kΩ: the drive's period; offset and rms within 1e-6, amplitude within 0.05 % at the defaults and 1e-5 at accuracy=1e-6", () => {
+    const ref = rectifierReference();
+    const r = steadyOf(RECTIFIER);
+    expect(r.kind).toBe("driven");
+    expect(r.frequency).toBe(60);
+    expect(r.stability!.verdict).toBe("stable");
+    expect(rel(r.offset!, ref.offset)).toBeLessThan(1e-6);
+    expect(rel(r.rms!, ref.rms)).toBeLessThan(1e-6);
+    expect(rel(r.amplitude!, ref.amplitude)).toBeLessThan(5e-4);
+    const fine = steadyOf(RECTIFIER, "probe=o accuracy=1e-6");
+    expect(rel(fine.amplitude!, ref.amplitude)).toBeLessThan(1e-5);
+  }, 60_000);
+});
+
+describe("cross-check against the settled start-up run (frequency 0.05 %, amplitude 0.5 %, THD 2 %)", () => {
+  test.each([
+    ["a diode Wien at 9.9 Hz", wien("16k", "1u", "preset=general rails=(-12, 12)")],
+    ["a diode Wien at 99 kHz", wien("1.6k", "1n", "gbw=200M slew=200V/us rails=(-10, 10)")],
+    ["a diode-damped quadrature oscillator", QUADRATURE],
+    ["an LC tank undamped by a VCCS, held by diodes through 2.2 kΩ", "inductor L1 o gnd 3.3m series=0.8\ncapacitor C1 o gnd 68n\nresistor Rl o gnd 12k\nvccs G1 gnd o o gnd 150u\ndiode D1 o k\nresistor Rk k gnd 2.2k\ndiode D2 k2 o\nresistor Rk2 k2 gnd 2.2k"],
+    ["a lamp Wien at 5.9 kHz, τ = 8 ms", "resistor R1 o s 2.7k\ncapacitor C1 s p 10n\nresistor R2 p gnd 2.7k\ncapacitor C2 p gnd 10n\nresistor Rf o n 330\nlamp L1 n gnd 110 hot=500 rated=6 tau=8m\nopamp U1 p n o preset=fast rails=(-12, 12)"],
+  ])("%s", (_name, text) => {
+    expectSteadyAgreesWithSettled(circuitOf(`${text}\nstartup probe=o until=auto\n`));
+  }, 60_000);
+});
+
+describe("probe independence", () => {
+  test("the quadrature oscillator: every probe (an output, its sum with another, an inner node, an op-amp's pole, a branch current, a diode's junction) gives one frequency and one set of multipliers, to the last bit; from=poles the same orbit", () => {
+    const base = steadyOf(QUADRATURE, "probe=o");
+    expect(base.found).toBe(true);
+    expect(rel(base.frequency!, 1 / (2 * Math.PI * 20e3 * 10e-9))).toBeLessThan(0.01);
+    for (const probe of ["b", "(o, c)", "n2", "U2.pole", "R1.i", "D1.junction"]) {
+      const r = steadyOf(QUADRATURE, `probe=${probe}`);
+      expect(r.frequency).toBe(base.frequency);
+      expect(r.multipliers).toEqual(base.multipliers);
+    }
+    const poles = steadyOf(QUADRATURE, "probe=D1.junction from=poles");
+    expect(rel(poles.frequency!, base.frequency!)).toBeLessThan(1e-9);
+    expect(Math.abs(poles.stability!.largest!.re - base.stability!.largest!.re)).toBeLessThan(1e-4);
+  }, 60_000);
+});
+
+describe("no fabricated orbits", () => {
+  test.each([
+    ["tones at 1 kHz and 1414.2136 Hz (no common period within 64)", "vsource V1 a gnd wave=sine amp=1 freq=1k\nvsource V2 in a wave=sine amp=0.5 freq=1414.2136\nresistor R1 in o 3.3k\ncapacitor C1 o gnd 47n"],
+    ["a 1 kHz Wien oscillating on its own, driven at 50 Hz (quasi-periodic)", "vsource V1 i gnd wave=sine amp=0.1 freq=50\nresistor R1 o s 15.8k\ncapacitor C1 s p 10n\nresistor R2 p i 15.8k\ncapacitor C2 p i 10n\nresistor Rg n gnd 10k\nresistor Rf1 n f 15k\nresistor Rf2 f o 6.8k\ndiode D1 f o\ndiode D2 o f\nopamp U1 p n o preset=general rails=(-12, 12)"],
+    ["an LC tank undamped by a VCCS with nothing to limit it", "inductor L1 o gnd 1m\ncapacitor C1 o gnd 100n\nresistor Rl o gnd 10k\nvccs G1 gnd o o gnd 150u"],
+  ])("%s: found false, no figures", (_name, text) => {
+    const r = steadyOf(text);
+    expect(r.found).toBe(false);
+    expect(r.frequency).toBeNull();
+    expect(r.amplitude).toBeNull();
+    expect(r.explanation).toMatch(/^no periodic orbit/);
+  }, 60_000);
+});
