@@ -3,7 +3,7 @@
 // the settled start-up run, probe independence, and no orbit where there is none.
 import { createRequire } from "node:module";
 import { describe, expect, test } from "vitest";
-import { onImaginaryAxis, runPoles, runSteady, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
+import { onImaginaryAxis, runPoles, runStartup, runSteady, startupAnalysisOf, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
@@ -138,6 +138,34 @@ describe("cross-check against the settled start-up run (frequency 0.05 %, amplit
     ["a lamp Wien at 5.9 kHz, τ = 8 ms", "resistor R1 o s 2.7k\ncapacitor C1 s p 10n\nresistor R2 p gnd 2.7k\ncapacitor C2 p gnd 10n\nresistor Rf o n 330\nlamp L1 n gnd 110 hot=500 rated=6 tau=8m\nopamp U1 p n o preset=fast rails=(-12, 12)"],
   ])("%s", (_name, text) => {
     expectSteadyAgreesWithSettled(circuitOf(`${text}\nstartup probe=o until=auto\n`));
+  }, 60_000);
+});
+
+describe("sources that change once: the steady state is of the circuit as they leave it", () => {
+  const POWERED_WIEN = (supply: string) => `${wien("15.8k", "10n", "preset=general supply=(vn, vp)")}
+vsource Vn vn gnd -12
+vsource Vp vp gnd ${supply}`;
+
+  test.each([
+    ["a pulse switching it on at 1 ms", "wave=pulse low=0 high=12 delay=1m rise=100u"],
+    ["steps to 12 V at 1 ms", "wave=steps points=[0 0, 1m 12]"],
+  ])("a Wien whose supply is %s oscillates as on a 12 V supply (it was answered 'does not oscillate' from its unpowered bias point); cross-check: the start-up run", (_name, supply) => {
+    const onDc = steadyOf(POWERED_WIEN("12"));
+    const switched = steadyOf(POWERED_WIEN(supply));
+    expect(switched.found).toBe(true);
+    expect(switched.frequency).toBe(onDc.frequency);
+    expect(switched.amplitude).toBe(onDc.amplitude);
+    const circuit = circuitOf(`${POWERED_WIEN(supply)}\nstartup probe=o until=auto\n`);
+    expect(rel(switched.frequency!, runStartup(circuit, startupAnalysisOf(circuit)!).frequency!)).toBeLessThan(5e-4);
+  }, 60_000);
+
+  test("a sine that starts 200 ms late drives the rectifier onto the same orbit (it was answered 'converged to the rest point': the shooting ran before the sine started)", () => {
+    const RECTIFIER = (delay: string) => `vsource V1 in gnd wave=sine amp=9 freq=60${delay}\ndiode D1 in o\ncapacitor C1 o gnd 47u\nresistor RL o gnd 1.5k`;
+    const prompt = steadyOf(RECTIFIER(""));
+    const late = steadyOf(RECTIFIER(" delay=200m"));
+    expect(late.found).toBe(true);
+    expect(rel(late.amplitude!, prompt.amplitude!)).toBeLessThan(1e-6);
+    expect(rel(late.rms!, prompt.rms!)).toBeLessThan(1e-6);
   }, 60_000);
 });
 

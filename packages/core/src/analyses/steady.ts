@@ -20,6 +20,7 @@ import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitSta
 import { repeatsWithin } from "../steady/sub-period.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
+import { settledSources } from "../steady/settled-sources.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { excitationSetup, periodicDrives } from "./excitation.js";
@@ -252,13 +253,14 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
  */
 export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions & { readonly start?: { readonly x: Float64Array; readonly period: number }; readonly matrix?: boolean } = {}): PeriodAt | null {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
-  const system = buildSystem(neighbour, options.extraParts);
+  const system = buildSystem(settledSources(neighbour), options.extraParts);
   if (system.n !== seed.x.length) return null;
   const start = { t0: 0, x: options.start?.x ?? seed.x, period: options.start?.period ?? seed.period };
   return periodAt(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative, ...(options.matrix ? { phase: seed.phase } : {}) });
 }
 
-function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
+function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
+  const circuit = settledSources(written);
   const kick = options.kick ?? KICK_SHARE;
   if (!(kick > 0 && Number.isFinite(kick))) throw badArgument(`runSteady: options.kick must be a positive number, got ${String(kick)}`);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
