@@ -312,7 +312,9 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
     const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
-    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
+    // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them.
+    const own = growing && pole && startsFrom(pole) ? `; ${polesVerdict(pole)}, so the circuit oscillates by itself, and unless that oscillation locks to the sources the settled state does not repeat with their period (run startup to see it; with the source made DC, steady finds the oscillator's own orbit)` : "";
+    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
 
