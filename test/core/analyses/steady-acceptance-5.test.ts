@@ -197,4 +197,10 @@ describe("no fabricated orbits", () => {
     expect(r.amplitude).toBeNull();
     expect(r.explanation).toMatch(/^no periodic orbit/);
   }, 60_000);
+
+  test("a self-oscillating Wien driven off its frequency: the answer says the circuit oscillates by itself (it said only 'converged to the rest point' or 'did not converge')", () => {
+    const r = steadyOf(`${wien("15.8k", "10n", "preset=general supply=(vn, vp)")}\nvsource Vn vn gnd -12\nvsource Vp vp gnd wave=sine offset=12 amp=0.2 freq=100`);
+    expect(r.found).toBe(false);
+    expect(r.explanation).toContain("oscillates by itself");
+  }, 60_000);
 });
