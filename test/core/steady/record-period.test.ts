@@ -100,3 +100,23 @@ describe("an autonomous period's guess retimed by its seam (clipped Wien bridge,
     expect(recordPeriod(system, snapshot, 1.005 / fRef, maxStep).guess.period).toBe(1.005 / fRef);
   });
 });
+
+describe("recordPeriod for a driven orbit (driven = true)", () => {
+  test("starts the period where the charged states change least for their swings: on a sine through an RC (closed form v = |H|·sin(ωt + φ)), within one step of the capacitor's peak, where its rate is zero", () => {
+    const f = 1e3;
+    const rc = buildSystem(
+      circuit([
+        part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 2, freq: f }),
+        part("resistor", "R1", ["in", "o"], 1e3),
+        part("capacitor", "C1", ["o", "gnd"], 1e-7),
+      ]),
+    );
+    const stepper = new TransientStepper(rc, { start: "bias", maxStep: 1 / f / 200 });
+    stepper.advance(20 / f);
+    const r = recordPeriod(rc, stepper.snapshot(), 1 / f, 1 / f / 200, undefined, Infinity, false, true);
+    const o = rc.unknowns.findIndex((u) => u.label === "o");
+    const gain = 1 / Math.hypot(1, 2 * Math.PI * f * 1e3 * 1e-7);
+    // Within one step (of at most T/200) of the peak, the value is within 1 − cos(2π/200) of it.
+    expect(Math.abs(r.guess.x[o]!)).toBeGreaterThan(2 * gain * Math.cos((2 * Math.PI) / 200) * (1 - 1e-3));
+  });
+});
