@@ -517,7 +517,7 @@ type ShotOrbit = RefinedOrbit & { readonly merged: number };
 
 /** One period recorded from the stepper's state (see `recordPeriod`; its points bounded by stored-points), `autonomous` retimed. */
 function recordedStart(c: Context, stepper: TransientStepper, period: number, maxStep: number, autonomous: boolean): ShootingStart {
-  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous);
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous, !autonomous);
 }
 
 /** One turn of an orbit shot over `repeats` turns: a period of T/repeats recorded from its start. */
