@@ -4,15 +4,19 @@ import { buildSystem, orbitPointLimit, probeReader, recordPeriod, refineOrbit, T
 import { circuit, part } from "../../support/circuits.js";
 import { clippedWien, settledPeriod } from "./support.js";
 
-describe("recordPeriod with a bound on the grid's points per period", () => {
-  const f = 1e3;
-  const rc = buildSystem(
+/** A 2 V sine of `f` into 1 kΩ and `c` to ground. */
+const sineDrivenRc = (f: number, c: number) =>
+  buildSystem(
     circuit([
       part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 2, freq: f }),
       part("resistor", "R1", ["in", "o"], 1e3),
-      part("capacitor", "C1", ["o", "gnd"], 1e-6),
+      part("capacitor", "C1", ["o", "gnd"], c),
     ]),
   );
+
+describe("recordPeriod with a bound on the grid's points per period", () => {
+  const f = 1e3;
+  const rc = sineDrivenRc(f, 1e-6);
   const stepper = new TransientStepper(rc, { start: "bias", maxStep: 1 / f / 400 });
   stepper.advance(2 / f);
   const snapshot = stepper.snapshot();
@@ -104,13 +108,7 @@ describe("an autonomous period's guess retimed by its seam (clipped Wien bridge,
 describe("recordPeriod for a driven orbit (driven = true)", () => {
   test("starts the period where the charged states change least for their swings: on a sine through an RC (closed form v = |H|·sin(ωt + φ)), within one step of the capacitor's peak, where its rate is zero", () => {
     const f = 1e3;
-    const rc = buildSystem(
-      circuit([
-        part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 2, freq: f }),
-        part("resistor", "R1", ["in", "o"], 1e3),
-        part("capacitor", "C1", ["o", "gnd"], 1e-7),
-      ]),
-    );
+    const rc = sineDrivenRc(f, 1e-7);
     const stepper = new TransientStepper(rc, { start: "bias", maxStep: 1 / f / 200 });
     stepper.advance(20 / f);
     const r = recordPeriod(rc, stepper.snapshot(), 1 / f, 1 / f / 200, undefined, Infinity, false, true);
