@@ -198,6 +198,31 @@ vsource Vp vp gnd ${supply}`;
   }, 60_000);
 });
 
+describe("an unstable orbit named", () => {
+  test("a JFET gain-control Wien whose 10 nF detector over-corrects: steady says unstable, a multiplier below −1 (a flip); cross-check: the start-up run settles at half that frequency, on the doubled period", () => {
+    const text = `resistor R1 o s 3.3k
+capacitor C1 s p 10n
+resistor R2 p gnd 3.3k
+capacitor C2 p gnd 10n
+resistor Rf o n 12k
+resistor Rs n d 5.1k
+jfet J1 d g gnd idss=5m pinchoff=-1.8
+resistor Ra d g 330k
+resistor Rc c g 330k
+diode D1 c o
+capacitor Cf c gnd 10n
+resistor Rb c gnd 680k
+opamp U1 p n o preset=general rails=(-12, 12)`;
+    const r = steadyOf(text);
+    expect(r.found).toBe(true);
+    expect(r.stability!.verdict).toBe("unstable");
+    expect(r.stability!.largest!.re).toBeLessThan(-1);
+    const circuit = circuitOf(`${text}\nstartup probe=o until=auto\n`);
+    const run = runStartup(circuit, startupAnalysisOf(circuit)!);
+    expect(rel(run.frequency!, r.frequency! / 2)).toBeLessThan(1e-3);
+  }, 60_000);
+});
+
 describe("probe independence", () => {
   test("the quadrature oscillator: every probe (an output, its sum with another, an inner node, an op-amp's pole, a branch current, a diode's junction) gives one frequency and one set of multipliers, to the last bit; from=poles the same orbit", () => {
     const base = steadyOf(QUADRATURE, "probe=o");
