@@ -221,6 +221,26 @@ opamp U1 p n o preset=general rails=(-12, 12)`;
     const run = runStartup(circuit, startupAnalysisOf(circuit)!);
     expect(rel(run.frequency!, r.frequency! / 2)).toBeLessThan(1e-3);
   }, 60_000);
+
+  test("two diode Wiens (2.15 kHz and 1.57 kHz) joined by 1 MΩ: the orbit found with the slower one at rest (probed there) is unstable, its multipliers e^(λT) of that one's growing pair (mathematics: a linear subsystem at rest has the Floquet multipliers of its poles) within 1e-3", () => {
+    // The same Wien with every part and node named with a trailing b.
+    const second = wien("7.3k", "10n", "preset=general rails=(-12, 12)")
+      .replace(/^(\w+\s+)(\w+)/gm, "$1$2b")
+      .replace(/\b(o|s|p|n|f)\b/g, "$1b");
+    const text = `${wien("10k", "10n", "preset=general rails=(-12, 12)")}\n${second}\nresistor Rc o ob 1M`;
+    const poles = runPoles(circuitOf(text), { kind: "poles" }).poles.filter((q) => q.imag > 0).sort((a, b) => b.real - a.real);
+    const r = steadyOf(text);
+    expect(r.found).toBe(true);
+    expect(r.stability!.verdict).toBe("unstable");
+    // The slower Wien's pair: the one whose frequency is not the orbit's.
+    const rest = poles.find((q) => rel(q.imag / (2 * Math.PI), r.frequency!) > 0.1)!;
+    const growth = Math.exp(rest.real * r.period!);
+    const turn = rest.imag * r.period!;
+    const mu = r.multipliers.find((m) => m.im > 0)!;
+    expect(Math.abs(mu.re - growth * Math.cos(turn))).toBeLessThan(1e-3 * growth);
+    // (a conjugate pair: the listed one with a positive imaginary part is either's)
+    expect(Math.abs(mu.im - Math.abs(growth * Math.sin(turn)))).toBeLessThan(1e-3 * growth);
+  }, 60_000);
 });
 
 describe("probe independence", () => {
