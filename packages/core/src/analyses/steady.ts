@@ -23,7 +23,8 @@ import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundament
 import { settledSources } from "../steady/settled-sources.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
-import { excitationSetup, periodicDrives } from "./excitation.js";
+import { DEFAULT_TEMPERATURE, excitationSetup, periodicDrives } from "./excitation.js";
+import { ZERO_CELSIUS } from "../devices/thermal-noise.js";
 import { budgetOf, isRunLimitError, type RunBudget } from "./limits.js";
 import { linearize } from "./linearize.js";
 import { implausibleOnOrbit } from "./operating-check.js";
@@ -253,7 +254,7 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
  */
 export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions & { readonly start?: { readonly x: Float64Array; readonly period: number }; readonly matrix?: boolean } = {}): PeriodAt | null {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
-  const system = buildSystem(settledSources(neighbour), options.extraParts);
+  const system = buildSystem(settledSources(neighbour), options.extraParts, { ambient: ambientOf(analysis) });
   if (system.n !== seed.x.length) return null;
   const start = { t0: 0, x: options.start?.x ?? seed.x, period: options.start?.period ?? seed.period };
   return periodAt(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative, ...(options.matrix ? { phase: seed.phase } : {}) });
@@ -265,7 +266,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   if (!(kick > 0 && Number.isFinite(kick))) throw badArgument(`runSteady: options.kick must be a positive number, got ${String(kick)}`);
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const budget = budgetOf(options);
-  const system = buildSystem(circuit, options.extraParts);
+  const system = buildSystem(circuit, options.extraParts, { ambient: ambientOf(analysis) });
   const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
   budget.refuseDense(system.n, "the steady analysis' start (the bias point's poles and growing mode)", analysis.span);
   let poles: Pole[] = [];
@@ -594,10 +595,15 @@ function collapsed(system: MnaSystem, tolerances: Tolerances, refined: RefinedOr
   return true;
 }
 
+/** The ambient (K) of the analysis' self-heated parts: its `temperature=`, else 27 °C. */
+function ambientOf(analysis: SteadyAnalysis): number {
+  return (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
+}
+
 /** ln(0.9·A/k)/σ from the thermal noise's level k at the probe (√2 × its r.m.s.). */
 function predictedStartup(c: Context, x: Float64Array, poles: readonly Pole[], pole: Pole, amplitude: number): number | null {
   if (!(pole.real > 0)) return null;
-  const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal" };
+  const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal", ...(c.analysis.temperature === undefined ? {} : { temperature: c.analysis.temperature }) };
   const setup = excitationSetup(c.circuit, c.system, thermal, "thermal", pole.imag / (2 * Math.PI));
   if (setup.generators.length === 0) return null;
   const check = () => c.budget.check("during the predicted start-up's noise level", c.analysis.span);
