@@ -3,7 +3,8 @@
 // the settled start-up run, probe independence, and no orbit where there is none.
 import { createRequire } from "node:module";
 import { describe, expect, test } from "vitest";
-import { onImaginaryAxis, runPoles, runStartup, runSteady, startupAnalysisOf, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
+import { onImaginaryAxis, runPoles, runStartup, runSteady, startupAnalysisOf, steadyAnalysisOf, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
+import { thermistorAmplitude } from "../../e2e/support/steady-circuits.js";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
@@ -240,6 +241,25 @@ opamp U1 p n o preset=general rails=(-12, 12)`;
     expect(Math.abs(mu.re - growth * Math.cos(turn))).toBeLessThan(1e-3 * growth);
     // (a conjugate pair: the listed one with a positive imaginary part is either's)
     expect(Math.abs(mu.im - Math.abs(growth * Math.sin(turn)))).toBeLessThan(1e-3 * growth);
+  }, 60_000);
+});
+
+describe("the ambient of self-heated parts", () => {
+  const BEAD_WIEN = "resistor R1 o s 10.6k\ncapacitor C1 s p 100n\nresistor R2 p gnd 10.6k\ncapacitor C2 p gnd 100n\nthermistor TH1 o n 22k beta=3900 dissipation=70uW/K tau=1.5\nresistor Rg n gnd 6.8k\nopamp U1 p n o preset=general rails=(-15, 15)";
+
+  test("a thermistor Wien (22 kΩ bead, B 3900 K, 70 µW/K over 6.8 kΩ): steady temperature=33 settles at the bead's thermal balance at a 33 °C ambient (closed form) within 1e-3, apart from the 27 °C one", () => {
+    const warm = steadyOf(BEAD_WIEN, "probe=o temperature=33");
+    expect(rel(warm.amplitude!, thermistorAmplitude(6.8e3, 22e3, 3900, 70e-6, 33))).toBeLessThan(1e-3);
+    const room = steadyOf(BEAD_WIEN);
+    expect(rel(room.amplitude!, thermistorAmplitude(6.8e3, 22e3, 3900, 70e-6, 27))).toBeLessThan(1e-3);
+    expect(rel(warm.amplitude!, room.amplitude!)).toBeGreaterThan(0.1);
+  }, 60_000);
+
+  test("a sweep with measure=steady over a file whose only analysis is 'startup temperature=33' measures at 33 °C (it measured at 27 °C, where the start-up run is not)", () => {
+    const circuit = circuitOf(`${BEAD_WIEN}\nstartup probe=o temperature=33\n`);
+    const analysis = steadyAnalysisOf(circuit)!;
+    expect(analysis.temperature).toBe(33);
+    expect(rel(runSteady(circuit, analysis).amplitude!, thermistorAmplitude(6.8e3, 22e3, 3900, 70e-6, 33))).toBeLessThan(1e-3);
   }, 60_000);
 });
 
