@@ -3,7 +3,7 @@
 // the settled start-up run, probe independence, and no orbit where there is none.
 import { createRequire } from "node:module";
 import { describe, expect, test } from "vitest";
-import { onImaginaryAxis, runPoles, runStartup, runSteady, startupAnalysisOf, steadyAnalysisOf, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
+import { onImaginaryAxis, runPoles, runStartup, runSteady, runSweep, startupAnalysisOf, steadyAnalysisOf, THERMAL_VOLTAGE, type Circuit, type SteadyResult } from "@onset/core";
 import { thermistorAmplitude } from "../../e2e/support/steady-circuits.js";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
@@ -260,6 +260,15 @@ describe("the ambient of self-heated parts", () => {
     const analysis = steadyAnalysisOf(circuit)!;
     expect(analysis.temperature).toBe(33);
     expect(rel(runSteady(circuit, analysis).amplitude!, thermistorAmplitude(6.8e3, 22e3, 3900, 70e-6, 33))).toBeLessThan(1e-3);
+  }, 60_000);
+
+  test("that sweep's start threshold is bisected on the poles at 33 °C: Rg = R_bead(33 °C)/2 (closed form: the Wien needs a gain of 3) within 1e-3 (at 27 °C it lies at 10.1 kΩ, outside the sweep)", () => {
+    const program = loadProgram("acceptance-5.onset", `${BEAD_WIEN}\nstartup probe=o temperature=33\nsweep Rg from=7k to=9k steps=3 measure=steady\n`).program;
+    const build = (overrides: Record<string, number>) => elaborate(program, { overrides }).circuit!;
+    const sweep = build({}).analyses.find((a) => a.kind === "sweep")! as Parameters<typeof runSweep>[1];
+    const threshold = runSweep(build, sweep).threshold!;
+    const bead = 22e3 * Math.exp(3900 * (1 / (33 + 273.15) - 1 / 298.15));
+    expect(rel(threshold.value, bead / 2)).toBeLessThan(1e-3);
   }, 60_000);
 });
 

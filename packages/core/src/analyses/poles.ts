@@ -120,9 +120,17 @@ export function runPoles(circuit: Circuit, analysis: PolesAnalysis, options: Run
   checkCircuit("runPoles", circuit);
   checkAnalysis("runPoles", analysis, "poles");
   checkOptions("runPoles", options);
+  return polesAt(circuit, options);
+}
+
+/**
+ * The poles at the bias point with lamps and thermistors at `ambient` (K; default 27 °C): a
+ * steady analysis' own, at its `temperature=`, for a steady sweep's start threshold.
+ */
+export function polesAt(circuit: Circuit, options: RunOptions = {}, ambient?: number): PolesResult {
   const budget = budgetOf(options);
   budget.check("before the bias point");
-  const system = buildSystem(circuit, options.extraParts);
+  const system = buildSystem(circuit, options.extraParts, ambient === undefined ? {} : { ambient });
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   budget.check("after the bias point");
