@@ -23,7 +23,7 @@ function startText(r: SteadyResult): string {
     case "driven":
       return `${run} from the bias point, then shooting with the sources' period`;
     case "poles":
-      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period`;
+      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period (from the measured one after a shooting that failed)`;
     case "startup":
       return `the growing mode, ${run}, then shooting from the measured period`;
   }

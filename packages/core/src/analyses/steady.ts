@@ -383,7 +383,8 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
       shots++;
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
+      // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" || shots > 1 ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
       earliest = BACK_OFF * approach.periods;
