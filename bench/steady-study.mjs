@@ -5,10 +5,11 @@
 // yield, the median frequency and a digest of every sample. POSTED=1: no portable builder (with
 // two workers or more, each builds its own samples otherwise; one worker is always sent them).
 // SAMPLES=file: the samples also written there as JSON (to compare two builds' figures).
+// Usage: node bench/steady-study.mjs startup|startup-auto|steady JOBS RUNS.
 import { createHash } from "node:crypto";
 import { existsSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
-import { runToleranceStudy, specCriteria, summarizeSamples } from "@onset/core";
+import { runToleranceStudy, specCriteria, startupAnalysisOf, summarizeSamples } from "@onset/core";
 import { workerPool } from "@onset/core/node";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 import { benchBuilder } from "./study-builder.mjs";
@@ -18,7 +19,9 @@ const file = fileURLToPath(new URL("../examples/bridge-excitation.onset", import
 const { program } = loadProgram(file, readFileSync(file, "utf8"));
 const nominal = elaborate(program).circuit;
 const criteria = specCriteria(nominal);
-const startup = { kind: "startup", probe: { kind: "node", node: "o" }, until: 0.1, kick: "noise" };
+// measure=startup: the issue's baseline (as bench/suites/tolerance.mjs: 0.1 s from a noise kick);
+// measure=startup-auto: the file's own start-up statement (until=auto, to settled), as a study runs it.
+const startup = measure === "startup-auto" ? startupAnalysisOf(nominal) : { kind: "startup", probe: { kind: "node", node: "o" }, until: 0.1, kick: "noise" };
 const steady = { kind: "steady", probe: { kind: "node", node: "o" } };
 // Workers make the same builder from the module and the data (see runToleranceStudy's portable option).
 const data = { program, analysis: measure === "steady" ? steady : startup };

@@ -13,9 +13,14 @@ import { printTable } from "../table.mjs";
 
 export const title = "Steady state by shooting against the start-up run to settled (wall time, agreement, tolerance study)";
 
-const EXAMPLES = ["bridge-excitation", "cable-tracer", "tuning-reference"];
-/** The amplitude-control examples, whose slow loops take the start-up run hundreds to thousands of periods (target 30×). */
-const SLOW_LOOPS = ["audio-test-source", "jfet-loop-source", "low-frequency-reference"];
+const EXAMPLES = ["bridge-excitation", "cable-tracer", "tuning-reference", "audio-test-source", "jfet-loop-source", "low-frequency-reference"];
+/**
+ * The slow loops the issue holds to 30×: the lamp- and thermistor-stabilised Wiens, whose thermal
+ * loops take the start-up run seconds and many hundreds of periods to settle (0.75 s and 750
+ * periods; 29 s and 1170 periods). The JFET loop settles in 0.1 s and 200 periods, fewer than the
+ * twin-T's 260: it is held to the 10× of the other examples.
+ */
+const SLOW_LOOPS = ["audio-test-source", "low-frequency-reference"];
 const REPEATS = Number(process.env.ONSET_BENCH_REPEATS ?? 5);
 const RUNS = Number(process.env.ONSET_BENCH_RUNS ?? 1000);
 /** Fresh processes per measurement (ONSET_BENCH_PROCESSES). */
@@ -42,7 +47,7 @@ export async function run() {
   const rows = [];
   const cold = [];
   const warm = [];
-  for (const name of [...EXAMPLES, ...SLOW_LOOPS]) {
+  for (const name of EXAMPLES) {
     const startup = bestOf("steady-measure.mjs", [name, "startup", String(REPEATS)]);
     const steady = bestOf("steady-measure.mjs", [name, "steady", String(REPEATS)]);
     const ceilings = Array.from({ length: PROCESSES }, () => measure("steady-ceiling.mjs", [name]).ceiling).sort((a, b) => a - b);
@@ -70,11 +75,16 @@ export async function run() {
   printTable(rows);
   const list = (rs) => rs.map((r) => `${r.toFixed(1)}×`).join(", ");
   console.log(`\nprocessor time in ms, the best of ${PROCESSES} fresh processes: cold = the first run in a process; warm = the best of the runs after it (at least ${REPEATS}, and until ${process.env.ONSET_BENCH_WARM_SECONDS ?? 2} s of processor time were spent; warm runs counts them over the processes). periods = the steady analysis' transient periods, iterations = its shooting periods on the two grids`);
-  console.log(`start-up to settled / steady, cold: ${list(cold)}; warm: ${list(warm)} (target ≥ 10×; ≥ 30× for the slow loops)`);
+  console.log(`start-up to settled / steady, cold: ${list(cold)}; warm: ${list(warm)} (target ≥ 10×; ≥ 30× for the slow loops, the lamp and thermistor Wiens); the start-up run to settled is the example's start-up statement with until=auto`);
   console.log("ceiling = start-up ÷ the start-up run's own settled-orbit shooting (its share of the warm runs' processor time, sampled by the profiler: bench/steady-ceiling.mjs). The start-up run takes its settled figures from the orbit next to it, found by the same two-grid shooting from the settled state; a steady analysis needs at least that shooting, so its warm ratio cannot exceed the ceiling");
   console.log("agreement targets: frequency 0.05 %, amplitude 0.5 %, THD 2 % relative");
 
-  const studies = [measure("steady-study.mjs", ["startup", "2", String(RUNS)]), measure("steady-study.mjs", ["steady", "1", String(RUNS)]), measure("steady-study.mjs", ["steady", "2", String(RUNS)])];
+  const studies = [
+    measure("steady-study.mjs", ["startup", "2", String(RUNS)]),
+    measure("steady-study.mjs", ["startup-auto", "2", String(RUNS)]),
+    measure("steady-study.mjs", ["steady", "1", String(RUNS)]),
+    measure("steady-study.mjs", ["steady", "2", String(RUNS)]),
+  ];
   console.log("");
   printTable(
     studies.map((s) => ({
@@ -89,8 +99,8 @@ export async function run() {
       digest: s.digest,
     })),
   );
-  const [startupStudy, one, two] = studies;
-  console.log(`\nstart-up runs / measure=steady on 2 workers: ${(startupStudy.ms / two.ms).toFixed(1)}×; measure=steady samples identical on 1 and 2 workers: ${one.digest === two.digest}`);
+  const [startupStudy, autoStudy, one, two] = studies;
+  console.log(`\nstart-up runs / measure=steady on 2 workers: ${(startupStudy.ms / two.ms).toFixed(1)}× (startup: 0.1 s from a noise kick, the issue's baseline); ${(autoStudy.ms / two.ms).toFixed(1)}× (startup-auto: the file's start-up statement, until=auto); measure=steady samples identical on 1 and 2 workers: ${one.digest === two.digest}`);
   console.log(`target: ≤ 3 s for 1000 samples with measure=steady on 2 cores (${RUNS} run here: ${((two.ms / RUNS) * 1000 / 1000).toFixed(2)} s per 1000 at this rate)`);
 
   const sweeps = [measure("steady-sweep.mjs", ["startup", "1"]), measure("steady-sweep.mjs", ["steady", "1"]), measure("steady-sweep.mjs", ["steady", "2"])];

@@ -71,6 +71,32 @@ describe("--sample I of a tolerance study measured by the steady state", () => {
     expect(html.indexOf("<h2>study sample</h2>")).toBeLessThan(html.indexOf("<h2>steady</h2>"));
   });
 
+  test("exits as the study's verdict on the sample: 0 for a passing one, 1 for a failing one (docs/language.md, exit statuses)", async () => {
+    // The band splits the samples; the file has no start-up run, so the fresh analysis has no spec of its own to exit by.
+    ws.write("verdict.onset", wien("steady probe=o\ntolerance runs=6 seed=3 measure=steady\nspec frequency=1.5k..1.56k\n"));
+    const r = await ws.run(["run", "verdict.onset", "--json", "--results", "verdict.jsonl"]);
+    const samples = (JSON.parse(r.stdout) as { results: [{ samples: Sample[] }] }).results[0].samples;
+    const passing = samples.find((s) => s.pass)!;
+    const failing = samples.find((s) => !s.pass)!;
+    expect(passing).toBeDefined();
+    expect(failing.failures).toEqual(["frequency=1.5k..1.56k"]);
+    for (const [s, status] of [[passing, 0], [failing, 1]] as const) {
+      const text = await ws.run(["run", "verdict.onset", "--sample", String(s.index)]);
+      expect(text.status, text.stderr).toBe(status);
+      expect(text.stdout).toContain(`the exit status is the study's verdict on this sample (${s.pass ? "passes: 0" : "fails: 1"})`);
+      const json = await ws.run(["run", "verdict.onset", "--json", "--sample", String(s.index)]);
+      expect(json.status).toBe(status);
+      expect((JSON.parse(json.stdout) as { exit: number }).exit).toBe(status);
+    }
+  });
+
+  test("without a spec the study judges nothing, and --sample I exits 0 as the study does", async () => {
+    ws.write("unjudged.onset", wien("steady probe=o\ntolerance runs=2 seed=3 measure=steady\n"));
+    const r = await ws.run(["run", "unjudged.onset", "--sample", "0"]);
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).not.toContain("the exit status is the study's verdict");
+  });
+
   test("in a design window, --sample I --set at a setting gives the study's figures at that setting", async () => {
     ws.write("window.onset", wien("steady probe=o\nsweep Rg from=9k to=10k steps=2\ntolerance runs=2 seed=5 measure=steady\nspec frequency=1.55k±5%\n"));
     const r = await ws.run(["run", "window.onset", "--json", "--jobs", "1", "--results", "window.jsonl"]);

@@ -72,7 +72,7 @@ export { runBias } from "./analyses/bias-report.js";
 export type { BiasResult } from "./analyses/bias-report.js";
 export type { ImplausiblePart } from "./analyses/operating-check.js";
 export { IMPLAUSIBLE_CURRENT, IMPLAUSIBLE_JUNCTION_VOLTAGE } from "./analyses/operating-check.js";
-export { runPoles, startsFrom } from "./analyses/poles.js";
+export { onImaginaryAxis, runPoles, startsFrom } from "./analyses/poles.js";
 export type { Pole, PolesResult } from "./analyses/poles.js";
 export { RESPONSE_DEFAULTS, runResponse } from "./analyses/response.js";
 export type { PhaseCrossing, ResponsePoint, ResponseResult } from "./analyses/response.js";

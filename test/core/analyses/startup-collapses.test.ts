@@ -8,30 +8,12 @@
 import { describe, expect, test } from "vitest";
 import { runStartup, runSteady } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
+import { detectorWienSource } from "../../support/jfet-detector-wien.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;
 
 const jfetWien = buildCircuit(
-  loadSource(
-    "jfet-wien.onset",
-    `param R = 6.8k
-param C = 6.8n
-resistor  R1 o s   (R)
-capacitor C1 s p   (C)
-resistor  R2 p gnd (R)
-capacitor C2 p gnd (C)
-resistor  Rf o n   27k
-resistor  Rs n d   12k
-jfet      J1 d g gnd idss=6m pinchoff=-1.5
-resistor  Ra d g   1M
-resistor  Rc c g   1M
-resistor  Rk k o   2.2k
-diode     D1 c k
-capacitor Cf c gnd 470n
-resistor  Rb c gnd 470k
-opamp     U1 p n o preset=general rails=(-12, 12)
-`,
-  ),
+  loadSource("jfet-wien.onset", detectorWienSource({ R: "6.8k", C: "6.8n", Rf: "27k", Rs: "12k", idss: "6m", pinchoff: "-1.5", Rgate: "1M", Rk: "2.2k", Cf: "470n", Rb: "470k", rail: "12" })),
 ).circuit;
 
 describe("a stable loop whose envelope collapses a few times before it settles", () => {

@@ -10,6 +10,7 @@ import { describe, expect, test } from "vitest";
 import { runStartup, runSteady } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { agcWienParts, agcWienReference } from "../../support/agc-wien.js";
+import { detectorWienSource } from "../../support/jfet-detector-wien.js";
 import { circuit } from "../../support/circuits.js";
 
 const node = (n: string) => ({ kind: "node", node: n }) as const;
@@ -112,5 +113,39 @@ describe("an oscillation killed by its first overshoot, which comes back", () =>
     for (let k = peakAt; k < v.length; k++) if (v[k]! < v[lowAt]!) lowAt = k;
     expect(v[lowAt]!).toBeLessThan(1e-6 * v[peakAt]!);
     expect(Math.max(...v.slice(lowAt))).toBeGreaterThan(0.5 * steady.amplitude!);
+  });
+});
+
+// A JFET Wien of our own (10 kΩ, 10 nF, about 1.6 kHz) whose peak detector charges through 1 kΩ
+// into a large filter, 4.7 µF bled by 1 MΩ (the bias point's slowest time constant 2.22 s): the
+// first overshoot, on the rails, charges the gate past the point where the gain falls below 3, the
+// oscillation dies into the noise within some 40 ms and grows again at about 0.2 s, once the
+// filter has bled back, then settles.
+const slowDetector = buildCircuit(
+  loadSource("slow-detector-wien.onset", detectorWienSource({ R: "10k", C: "10n", Rf: "10k", Rs: "3.9k", idss: "8m", pinchoff: "-2.5", Rgate: "470k", Rk: "1k", Cf: "4.7u", Rb: "1M", rail: "15" })),
+).circuit;
+
+describe("a fixed until= that ends while an overshoot-killed oscillation may still come back", () => {
+  test("JFET Wien, slow detector: until=100m is unsettled and says to raise until=, never 'no oscillation'", () => {
+    const r = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: 0.1 });
+    // measured: unsettled, the overshoot to 13.12 V at 11.1 ms watched until 6.67 s (before: decaying, "no oscillation: the envelope dies away, −50.7 %/cycle")
+    expect(r.verdict).toBe("unsettled");
+    expect(r.explanation).not.toMatch(/no oscillation/);
+    expect(r.explanation).toMatch(/^the oscillation grew to .+ V peak at .+s and died away after it, but it may come back .*slowest time constant is 2\.22 s\): it is watched until 6\.\d+ s, the run stopped at 100 ms; raise until= to wait longer$/);
+    // the record did die after its overshoot: the envelope fell below a hundredth of its peak
+    const e = r.envelope.value;
+    const peakAt = e.indexOf(Math.max(...e));
+    expect(Math.min(...e.subarray(peakAt))).toBeLessThan(0.01 * e[peakAt]!);
+  });
+
+  test("JFET Wien, slow detector: with until= raised as the hint says it grew again and settled, as until=auto finds", () => {
+    // Source: the same circuit run twenty times as long, its own last cycles (measured: settled, 4.947 V, 1.58 kHz)
+    const long = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: 2 }, { settledFromOrbit: false });
+    expect(long.verdict).toBe("settled");
+    expect(long.amplitude!).toBeGreaterThan(4);
+    const auto = runStartup(slowDetector, { kind: "startup", probe: node("o"), until: "auto" }, { settledFromOrbit: false });
+    expect(auto.verdict).toBe("settled");
+    expect(Math.abs(auto.amplitude! / long.amplitude! - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(auto.frequency! / long.frequency! - 1)).toBeLessThan(1e-3);
   });
 });

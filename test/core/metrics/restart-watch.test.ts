@@ -1,4 +1,4 @@
-// How long until=auto watches a record that grew and died away for a restart: eight times its
+// How long a start-up run (until=auto, or judging where a fixed until= ended) watches a record that grew and died away for a restart: eight times its
 // growth, or three of the bias point's slowest decaying time constants past its peak, whichever
 // is later; and the bias point's slowest decaying time constant itself.
 import fc from "fast-check";
@@ -62,6 +62,10 @@ describe("restartWatch(envelope, timeConstant)", () => {
     );
     expect(explainCutWatch(restartWatch(envelopeOf([0.01, 0.1, 1, 5, 0.5, 0.01], 2e-3), 0)!, 0.02, 0)).toBe(
       "the oscillation grew to 5 V peak at 7 ms and died away after it, but it may come back once the slow state its overshoot over-charged (an amplitude loop's filter) has bled back: it is watched until 56 ms, the run stopped at 20 ms; raise settle-within= to wait longer",
+    );
+    // a fixed until= cut the watch: the hint names it, and the peak is in the probe's unit
+    expect(explainCutWatch(restartWatch(envelopeOf([0.01, 0.1, 1, 5, 0.5, 0.01], 2e-3), 0)!, 0.02, 0, "A", "until=")).toBe(
+      "the oscillation grew to 5 A peak at 7 ms and died away after it, but it may come back once the slow state its overshoot over-charged (an amplitude loop's filter) has bled back: it is watched until 56 ms, the run stopped at 20 ms; raise until= to wait longer",
     );
   });
 });

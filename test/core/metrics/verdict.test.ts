@@ -22,6 +22,17 @@ describe("measureStartup verdicts on synthetic records", () => {
     expect(metrics.suggestedExtraTime).toBeUndefined();
   });
 
+  test("the explanation quotes the swing in the probe's unit: the same record probed as a current or a temperature", () => {
+    const t = times(30, 51);
+    const record = sampled(t, (x) => 1.5 * Math.sin(omega * x) + 0.03 * Math.sin(3 * omega * x));
+    expect(measureStartup(t, record, { unit: "A" }).explanation).toMatch(/^settled at 1\.47 A peak and 1 kHz/);
+    expect(measureStartup(t, record, { unit: "K" }).explanation).toMatch(/^settled at 1\.47 K peak and 1 kHz/);
+    const ripple = sampled(times(40, 7), (x) => 1.5e-6 * Math.sin(omega * x));
+    expect(measureStartup(times(40, 7), ripple, { unit: "A", noiseFloor: 1e-6 }).explanation).toBe(
+      "no oscillation: the envelope never exceeded 2× the noise floor (largest 1.5 µA peak against 1 µA)",
+    );
+  });
+
   test("settled: a hard-clipped sine whose first sample on each plateau overshoots by up to 2 % (numerical corner overshoot)", () => {
     // clip(1.3·sin θ, ±1); the sample that lands first on each flat top or bottom is pushed
     // 0–2 % past the limit, a different amount every cycle (seeded), as an integrator that

@@ -4,15 +4,19 @@ import { buildSystem, orbitPointLimit, probeReader, recordPeriod, refineOrbit, T
 import { circuit, part } from "../../support/circuits.js";
 import { clippedWien, settledPeriod } from "./support.js";
 
-describe("recordPeriod with a bound on the grid's points per period", () => {
-  const f = 1e3;
-  const rc = buildSystem(
+/** A 2 V sine of `f` into 1 kΩ and `c` to ground. */
+const sineDrivenRc = (f: number, c: number) =>
+  buildSystem(
     circuit([
       part("vsource", "V1", ["in", "gnd"], undefined, { wave: "sine", amp: 2, freq: f }),
       part("resistor", "R1", ["in", "o"], 1e3),
-      part("capacitor", "C1", ["o", "gnd"], 1e-6),
+      part("capacitor", "C1", ["o", "gnd"], c),
     ]),
   );
+
+describe("recordPeriod with a bound on the grid's points per period", () => {
+  const f = 1e3;
+  const rc = sineDrivenRc(f, 1e-6);
   const stepper = new TransientStepper(rc, { start: "bias", maxStep: 1 / f / 400 });
   stepper.advance(2 / f);
   const snapshot = stepper.snapshot();
@@ -98,5 +102,19 @@ describe("an autonomous period's guess retimed by its seam (clipped Wien bridge,
   test("a guess 3 % off (beyond the 1 % the seam's linear estimate is trusted for), or one not retimed, is kept", () => {
     expect(recordPeriod(system, snapshot, 1.03 / fRef, maxStep, undefined, Infinity, true).guess.period).toBe(1.03 / fRef);
     expect(recordPeriod(system, snapshot, 1.005 / fRef, maxStep).guess.period).toBe(1.005 / fRef);
+  });
+});
+
+describe("recordPeriod for a driven orbit (driven = true)", () => {
+  test("starts the period where the charged states change least for their swings: on a sine through an RC (closed form v = |H|·sin(ωt + φ)), within one step of the capacitor's peak, where its rate is zero", () => {
+    const f = 1e3;
+    const rc = sineDrivenRc(f, 1e-7);
+    const stepper = new TransientStepper(rc, { start: "bias", maxStep: 1 / f / 200 });
+    stepper.advance(20 / f);
+    const r = recordPeriod(rc, stepper.snapshot(), 1 / f, 1 / f / 200, undefined, Infinity, false, true);
+    const o = rc.unknowns.findIndex((u) => u.label === "o");
+    const gain = 1 / Math.hypot(1, 2 * Math.PI * f * 1e3 * 1e-7);
+    // Within one step (of at most T/200) of the peak, the value is within 1 − cos(2π/200) of it.
+    expect(Math.abs(r.guess.x[o]!)).toBeGreaterThan(2 * gain * Math.cos((2 * Math.PI) / 200) * (1 - 1e-3));
   });
 });

@@ -1,10 +1,9 @@
 import { outcomeHtml } from "../html/report.js";
 import { outcomeDocument } from "../output/document.js";
 import { outcomeCsvs, svgDocuments, writeDocuments } from "../output/files.js";
-import { outcomeSpec, type Outcome, type ReportSubject } from "../output/outcome.js";
+import { outcomeExit, type Outcome, type ReportSubject } from "../output/outcome.js";
 import type { OutputTarget } from "../output/target.js";
 import { outcomeText } from "../output/text.js";
-import { EXIT } from "../exit.js";
 import type { CommandContext } from "./context.js";
 
 /** The data files a command writes besides its report, classified and checked before the work. */
@@ -24,8 +23,7 @@ export interface OutcomeOutputs {
  * took stdout (`--csv -`), so stdout stays parseable. Returns the exit status (1 when a spec failed).
  */
 export function emitOutcome(ctx: CommandContext, outputs: OutcomeOutputs, subject: ReportSubject, outcome: Outcome): number {
-  const spec = outcomeSpec(outcome);
-  const exit = spec && !spec.pass ? EXIT.specFailed : EXIT.ok;
+  const exit = outcomeExit(outcome);
   const title = subject.title ?? subject.file;
   const written: OutputTarget[] = [];
   const { cwd, stdout } = ctx.io;

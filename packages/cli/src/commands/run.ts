@@ -8,7 +8,7 @@ import { documentCounts } from "../output/files.js";
 import { checkOutputs, documentTargets, refuseInputs } from "../output/plan.js";
 import { outputTarget } from "../output/target.js";
 import type { Outcome, ReportSubject, SampleRerun } from "../output/outcome.js";
-import { specChecks } from "../report/spec.js";
+import { judgedProbeUnit, specChecks } from "../report/spec.js";
 import { defaultResultsPath, drawnTolerances, runStudy } from "../study/run-study.js";
 import { studySample } from "../study/study-sample.js";
 import { sweepReport } from "../study/sweep-report.js";
@@ -28,7 +28,7 @@ async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLi
   return {
     kind: "plain",
     runs: run.results.map((result, k) => ({ analysis: analyses[k]!, result })),
-    spec: run.spec ? specChecks(run.spec, "the first start-up") : null,
+    spec: run.spec ? specChecks(run.spec, "the first start-up", judgedProbeUnit(run.results)) : null,
     ...(sample ? { sample } : {}),
   };
 }

@@ -134,7 +134,7 @@ function comparisonTable(c: Json): string {
   const row = (label: string, key: string, show: (v: number | null) => string): Cell[] => [label, show(num(predicted, key)), show(num(simulated, key))];
   const rows = [row("frequency", "frequency", (v) => si(v, "Hz")), row("growth rate", "growthRate", perSecond), row("start-up time", "startupTime", (v) => si(v, "s"))];
   const start = num(c, "startLevel");
-  return dataTable(["", "predicted by the poles", `simulated on ${str(c, "probe") ?? ""}`], rows, [false, true, true], start === null ? undefined : `growth from ${si(start, "V", 3)} peak of noise`);
+  return dataTable(["", "predicted by the poles", `simulated on ${str(c, "probe") ?? ""}`], rows, [false, true, true], start === null ? undefined : `growth from ${si(start, str(c, "unit") ?? "V", 3)} peak of noise`);
 }
 
 function responseSection(d: Json): string {

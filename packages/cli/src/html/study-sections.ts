@@ -194,6 +194,6 @@ export function specSection(spec: Json): string {
     return head + tag("div", { class: "tables" }, dataTable(["criterion", "yield", "95 % interval", "samples", "result"], rows, [false, true, true, true, false]));
   }
   const met = criteria.filter((c) => field(c, "pass") === true).length;
-  const rows = criteria.map((c): Cell[] => [str(c, "text") ?? "", metric(str(c, "metric") ?? "", num(c, "measured")), outcomeCell(field(c, "pass") === true)]);
+  const rows = criteria.map((c): Cell[] => [str(c, "text") ?? "", metric(str(c, "metric") ?? "", num(c, "measured"), str(c, "unit") ?? undefined), outcomeCell(field(c, "pass") === true)]);
   return head + note(`${met} of ${criteria.length} criteria pass (checked on ${str(spec, "on") ?? ""})`) + tag("div", { class: "tables" }, dataTable(["criterion", "measured", "result"], rows, [false, true, false]));
 }

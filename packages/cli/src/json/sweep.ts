@@ -1,5 +1,5 @@
 import type { SimulatingAnalysis } from "@onset/core";
-import { specChecks } from "../report/spec.js";
+import { judgedProbeUnit, specChecks } from "../report/spec.js";
 import type { SweepReport } from "../study/sweep-report.js";
 import { resultsJson, type Json } from "./results.js";
 
@@ -18,7 +18,7 @@ export function sweepJson(r: SweepReport, analyses: readonly SimulatingAnalysis[
     points: s.points.map((p) => ({
       value: p.value,
       results: resultsJson(p.run.results.map((result, k) => ({ analysis: analyses[k]!, result }))),
-      spec: p.run.spec ? (specChecks(p.run.spec, s.measure === "steady" ? "the steady state" : "the first start-up") as unknown as Json) : null,
+      spec: p.run.spec ? (specChecks(p.run.spec, s.measure === "steady" ? "the steady state" : "the first start-up", judgedProbeUnit(p.run.results)) as unknown as Json) : null,
     })),
     threshold: s.threshold ? { ...s.threshold } : null,
   };

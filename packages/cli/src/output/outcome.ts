@@ -1,4 +1,5 @@
 import type { SimulatingAnalysis } from "@onset/core";
+import { EXIT, type ExitStatus } from "../exit.js";
 import type { AnalysisRun } from "../report/plain-types.js";
 import type { SpecChecks } from "../report/spec.js";
 import type { StudySample } from "../study/study-sample.js";
@@ -36,4 +37,16 @@ export function outcomeSpec(outcome: Outcome): SpecChecks | null {
     case "sweep":
       return outcome.report.spec;
   }
+}
+
+/**
+ * The exit status of a finished outcome: 1 when its spec is not met, else 0. `--sample I` under
+ * measure=steady reproduces the study's sample, so it follows the study's verdict on that
+ * sample (when the study has a spec to judge it by), not the fresh full analysis printed after it.
+ */
+export function outcomeExit(outcome: Outcome): ExitStatus {
+  const study = outcome.kind === "plain" ? outcome.sample?.study : undefined;
+  if (study) return study.judged && !study.sample.pass ? EXIT.specFailed : EXIT.ok;
+  const spec = outcomeSpec(outcome);
+  return spec && !spec.pass ? EXIT.specFailed : EXIT.ok;
 }

@@ -1,4 +1,4 @@
-import type { PolesResult, QuantityUnit } from "@onset/core";
+import { onImaginaryAxis, type PolesResult, type QuantityUnit } from "@onset/core";
 import type { Paint } from "../color.js";
 import type { PredictionCheck } from "./prediction.js";
 import { table } from "./table.js";
@@ -15,7 +15,11 @@ export function polesReport(r: PolesResult, check: PredictionCheck | null, unit:
   );
   if (r.dominant === null) lines.push("  no complex pair: the circuit does not ring at its bias point");
   else {
-    const where = r.starts ? p.green("right half-plane: an oscillation starts") : p.red("not in the right half-plane: it decays, no oscillation starts");
+    const where = r.starts
+      ? p.green("right half-plane: an oscillation starts")
+      : onImaginaryAxis(r.dominant)
+        ? p.red("on the imaginary axis (to rounding): it neither grows nor decays, no oscillation starts by itself")
+        : p.red("not in the right half-plane: it decays, no oscillation starts");
     lines.push(`  dominant pair ${si(r.frequency, "Hz")}, growth rate ${perSecond(r.growthRate)}; ${where}`);
   }
   if (check) {

@@ -3,9 +3,11 @@ import type { PolesResult, StartupResult } from "@onset/core";
 /** The linear prediction at the bias point set beside what the start-up run measured. */
 export interface PredictionCheck {
   readonly probe: string;
+  /** The probe's unit, and so the start level's. */
+  readonly unit: string;
   readonly predicted: { readonly frequency: number | null; readonly growthRate: number | null; readonly startupTime: number | null };
   readonly simulated: { readonly frequency: number | null; readonly growthRate: number | null; readonly startupTime: number | null };
-  /** V (or A) peak: the level the growth starts from, √2 × the excitation's noise r.m.s. at the probe. */
+  /** Peak, in the probe's unit: the level the growth starts from, √2 × the excitation's noise r.m.s. at the probe. */
   readonly startLevel: number | null;
 }
 
@@ -37,6 +39,7 @@ export function predictionCheck(poles: PolesResult, startup: StartupResult): Pre
   const kick = startLevel(startup);
   return {
     probe: startup.probe,
+    unit: startup.unit,
     predicted: {
       frequency: poles.frequency,
       growthRate: poles.growthRate,

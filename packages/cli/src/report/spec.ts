@@ -1,13 +1,15 @@
-import type { SpecReport } from "@onset/core";
+import type { AnalysisResult, SpecReport } from "@onset/core";
 import type { Paint } from "../color.js";
 import { table } from "./table.js";
-import { metric, percent } from "./values.js";
+import { metric, metricUnit, percent } from "./values.js";
 
 /** One criterion as reported: as written, what it reads, what was measured, and the outcome. */
 export interface CriterionCheck {
   readonly text: string;
   readonly metric: string;
   readonly measured: number | null;
+  /** The unit of `measured` (`1` for a fraction): Hz, s, or the probe's unit for the swing's figures. Absent on a study's yield rows. */
+  readonly unit?: string;
   readonly pass: boolean;
   /** In a tolerance study: how many samples met it, of how many, and the 95 % Wilson interval of that yield. */
   readonly passed?: number;
@@ -25,12 +27,18 @@ export interface SpecChecks {
   readonly on: string;
 }
 
-/** The spec report of the engine in the form reports and JSON share. */
-export function specChecks(report: SpecReport, on: string): SpecChecks {
+/** The unit of the probe a spec is checked on: the first start-up's, else the first steady state's (a sweep's under measure=steady), else volts. */
+export function judgedProbeUnit(results: readonly AnalysisResult[]): string {
+  const judged = results.find((r) => r.analysis === "startup") ?? results.find((r) => r.analysis === "steady");
+  return judged && (judged.analysis === "startup" || judged.analysis === "steady") ? judged.unit : "V";
+}
+
+/** The spec report of the engine in the form reports and JSON share; the swing's figures are in `probeUnit`, the unit of the probe it was checked on. */
+export function specChecks(report: SpecReport, on: string, probeUnit: string): SpecChecks {
   return {
     pass: report.pass,
     on,
-    criteria: report.criteria.map((c) => ({ text: c.criterion.text, metric: c.criterion.metric, measured: c.measured, pass: c.pass })),
+    criteria: report.criteria.map((c) => ({ text: c.criterion.text, metric: c.criterion.metric, measured: c.measured, unit: metricUnit(c.criterion.metric, probeUnit), pass: c.pass })),
   };
 }
 
@@ -69,7 +77,7 @@ export function specReport(spec: SpecChecks, p: Paint): string[] {
   lines.push(
     ...table(
       [{ header: "criterion" }, { header: "measured", align: "right" }, { header: "result" }],
-      spec.criteria.map((c) => [c.text, metric(c.metric, c.measured), c.pass ? p.green("pass") : p.red("FAIL")]),
+      spec.criteria.map((c) => [c.text, metric(c.metric, c.measured, c.unit), c.pass ? p.green("pass") : p.red("FAIL")]),
     ),
   );
   return lines;

@@ -23,7 +23,7 @@ function startText(r: SteadyResult): string {
     case "driven":
       return `${run} from the bias point, then shooting with the sources' period`;
     case "poles":
-      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period`;
+      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period (from the measured one after a shooting that failed)`;
     case "startup":
       return `the growing mode, ${run}, then shooting from the measured period`;
   }
@@ -59,12 +59,13 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
     ]),
   );
   lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
-  lines.push("", `  stability (Floquet multipliers, the trivial one left out${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
+  const left = r.kind === "autonomous" ? ", the trivial one left out" : "";
+  lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
   // A complex pair is written once, as a ± b·j.
   const shown = r.multipliers.filter((m) => !(m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im))));
   const listed = shown.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
   const more = shown.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
-  const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none (one state)"]];
+  const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none above 1e-10: a disturbance dies out within a period"]];
   if (r.trivialMultiplier) entries.push(["trivial", `${formatPlain(Math.hypot(r.trivialMultiplier.re, r.trivialMultiplier.im), 8)} (a shift along the orbit: 1 but for the grid's error)`]);
   if (s.rate !== null) entries.push([s.verdict === "unstable" ? "disturbance grows" : "disturbance decays", perSecond(Math.abs(s.rate))]);
   if (s.cyclesToSettle !== null) entries.push(["to 1 % in", `${formatPlain(s.cyclesToSettle, 3)} periods (${si(s.cyclesToSettle * r.period!, "s", 3)})`]);

@@ -11,7 +11,7 @@ const DIGITS = 9;
  * shot from the nominal's orbit moved to first order), to nine digits, then a note that the
  * analyses below are a fresh full run. `unit` is the probe's.
  */
-export function studySampleText(index: number, { sample, setting }: StudySample, unit: string, p: Paint): string[] {
+export function studySampleText(index: number, { sample, setting, judged }: StudySample, unit: string, p: Paint): string[] {
   const at = setting === null ? "" : setting.value === null ? ` at the file's own ${setting.target} (give --set ${setting.target}=… for a setting of the design window)` : ` at ${setting.target} = ${setting.value}`;
   const lines = [
     p.bold(`the study's figures for sample #${index}`) + p.dim(`${at}  (measure=steady: its periodic steady state on one grid, shot from the nominal's orbit moved to first order in the drawn values, exactly as the study measured it)`),
@@ -33,5 +33,6 @@ export function studySampleText(index: number, { sample, setting }: StudySample,
     lines.push(...pairs(rows));
   }
   lines.push(p.dim("  the analyses below are a fresh full run with the drawn values (its own transient, two grids, extrapolated, with error bars): they differ from the study's figures by up to the single grid's error"));
+  if (judged) lines.push(p.dim(`  the exit status is the study's verdict on this sample (${sample.pass ? "passes: 0" : "fails: 1"}), not the fresh run's`));
   return lines;
 }

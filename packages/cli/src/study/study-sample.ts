@@ -9,6 +9,8 @@ export interface StudySample {
   readonly sample: StoredSample;
   /** In a design window: the swept name and its setting, or null when `--set` did not give one (the file's own value is used). */
   readonly setting: { readonly target: string; readonly value: number | null } | null;
+  /** Whether the study judges the sample against a spec (the file has one): `onset run --sample I` then exits as the sample's verdict says. */
+  readonly judged: boolean;
 }
 
 /**
@@ -21,7 +23,8 @@ export async function studySample(source: LoadedSource, sets: Readonly<Record<st
   const value = sweep && sets[sweep.target] !== undefined ? targetInfo(circuit, source.program, sweep.target, sets).nominal : null;
   const fixed = sweep && value !== null ? { [sweep.target]: value } : undefined;
   const build = (values: Readonly<Record<string, number>>) => elaborateSource(source, { ...sets, ...values }).circuit;
-  const [sample] = await runToleranceStudy(build, drawnTolerances(circuit, sweep), tolerance, specCriteria(circuit), { limits, only: [index], ...(fixed ? { fixed } : {}) });
+  const criteria = specCriteria(circuit);
+  const [sample] = await runToleranceStudy(build, drawnTolerances(circuit, sweep), tolerance, criteria, { limits, only: [index], ...(fixed ? { fixed } : {}) });
   // Through JSON as the study's results file keeps it, so both print the same.
-  return { sample: throughJson<StoredSample>(sample!), setting: sweep ? { target: sweep.target, value } : null };
+  return { sample: throughJson<StoredSample>(sample!), setting: sweep ? { target: sweep.target, value } : null, judged: criteria.length > 0 };
 }

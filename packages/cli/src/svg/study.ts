@@ -22,7 +22,8 @@ export function studyFigure(r: StudyReport, title: string): Figure {
   const h = r.header;
   if (r.kind === "tolerance") {
     const limits: Record<string, SpecLimit> = {};
-    for (const [key, metric, unit, scale] of [["frequency", "frequency", "Hz", 1], ["amplitude", "amplitude", "V", 1], ["thd", "thd", "%", 100], ["startupTime", "startup", "s", 1]] as const) {
+    const amplitudeUnit = h.probeUnit ?? "V";
+    for (const [key, metric, unit, scale] of [["frequency", "frequency", "Hz", 1], ["amplitude", "amplitude", amplitudeUnit, 1], ["thd", "thd", "%", 100], ["startupTime", "startup", "s", 1]] as const) {
       const met = r.summary.criteria.find((c) => c.criterion.metric === metric);
       const l = limitOf(h.criteria, metric, unit, scale, met);
       if (l) limits[key] = l;
@@ -32,6 +33,7 @@ export function studyFigure(r: StudyReport, title: string): Figure {
       title: `${title} \u2014 tolerance, yield ${formatPercent(y.value, 4)} (${y.passed} of ${y.runs})`,
       frequency: column(r.samples, "frequency"),
       amplitude: column(r.samples, "amplitude"),
+      amplitudeUnit,
       thd: column(r.samples, "thd"),
       startupTime: column(r.samples, "startupTime"),
       limits,

@@ -96,12 +96,23 @@ export function dominantPair(poles: readonly Pole[]): Pole | null {
   return best;
 }
 
+/** A pair's real part within this share of its imaginary part is on the axis (rounding). */
+const MARGINAL = 1e-9;
+
 /**
  * True when the pair lies in the right half-plane by more than rounding: a pair on the axis to
  * within 1e-9 of its frequency (the Barkhausen boundary itself) is marginal and does not start.
  */
 export function startsFrom(pole: Pole): boolean {
-  return pole.real > 1e-9 * Math.abs(pole.imag);
+  return pole.real > MARGINAL * Math.abs(pole.imag);
+}
+
+/**
+ * True when the pair lies on the imaginary axis to within 1e-9 of its frequency (a lossless tank,
+ * a loss cancelled exactly): it neither starts nor decays, so "it decays" would misreport it.
+ */
+export function onImaginaryAxis(pole: Pole): boolean {
+  return Math.abs(pole.real) <= MARGINAL * Math.abs(pole.imag);
 }
 
 /** Runs a `poles` analysis: bias point, linearisation, natural frequencies. */
@@ -109,9 +120,17 @@ export function runPoles(circuit: Circuit, analysis: PolesAnalysis, options: Run
   checkCircuit("runPoles", circuit);
   checkAnalysis("runPoles", analysis, "poles");
   checkOptions("runPoles", options);
+  return polesAt(circuit, options);
+}
+
+/**
+ * The poles at the bias point with lamps and thermistors at `ambient` (K; default 27 °C): a
+ * steady analysis' own, at its `temperature=`, for a steady sweep's start threshold.
+ */
+export function polesAt(circuit: Circuit, options: RunOptions = {}, ambient?: number): PolesResult {
   const budget = budgetOf(options);
   budget.check("before the bias point");
-  const system = buildSystem(circuit, options.extraParts);
+  const system = buildSystem(circuit, options.extraParts, ambient === undefined ? {} : { ambient });
   const solver = new NewtonSolver(system, resolveTolerances(options.tolerances));
   const bias = solveBias(system, solver, solver.tolerances);
   budget.check("after the bias point");

@@ -226,11 +226,16 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       ...(prediction ? { prediction } : {}),
       drives,
       searchFrom,
+      unit: probeUnit(system, analysis.probe),
     });
     checkResolved(budget, record, measured.frequency, analysis.span);
     return measured;
   };
   let metrics: StartupMetrics;
+  const settledFromOrbit = options.settledFromOrbit ?? true;
+  const orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=" };
+  /** The settled figures, once found (see `refineSettled`). */
+  let refined: ReturnType<typeof refineSettled> | undefined;
   const warnings = defaultWarnings(circuit);
   // A circuit that starts by itself and dies after its overshoot may grow again once its amplitude loop's slow state bleeds back.
   const recovery = prediction?.starts ? slowestTimeConstant(poles.map((p) => p.real)) : 0;
@@ -246,6 +251,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     for (;;) {
       stepper.advance(target);
       metrics = measure();
+      // A settled run's orbit is found now: one far from the run's last cycles says it has not settled, and the run goes on.
+      refined = metrics.verdict === "settled" ? refineSettled(metrics, settledFromOrbit, orbitSettings) : undefined;
+      if (refined) metrics = refined.metrics;
       const done =
         FINAL_VERDICTS.has(metrics.verdict) ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
@@ -269,10 +277,12 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   warnings.push(...watch.finish("in the start-up run").map((w) => w.diagnostic));
   const { time: t, values: v } = record.toArrays();
   metrics = reclassify(metrics, system, stepper, plain, bias.x, kick, prediction);
-  if (analysis.until === "auto" && prediction?.starts && mayRestart(metrics, stepper.t)) {
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe)) };
+  // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
+  if (prediction?.starts && mayRestart(metrics, stepper.t)) {
+    const raise = analysis.until === "auto" ? "settle-within=" : "until=";
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe), raise) };
   }
-  const refined = refineSettled(metrics, options.settledFromOrbit ?? true, { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints });
+  if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -371,6 +381,8 @@ function refineSettled(
     readonly orders: number;
     readonly check: () => void;
     readonly maxStoredPoints: number;
+    /** The option that runs the start-up longer (`until=` or `settle-within=`). */
+    readonly raise: string;
   },
 ): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
@@ -385,11 +397,24 @@ function refineSettled(
   const orders = thdOrder(s.analysis, drive ?? f);
   const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check, s.maxStoredPoints);
   if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);
+  const unit = probeUnit(s.quiet, s.analysis.probe);
+  if (!(Math.abs(orbit.amplitude / metrics.amplitude! - 1) <= ORBIT_AGREEMENT)) {
+    const apart = `${formatQuantity(orbit.amplitude, unit)} peak, ${formatPercent(Math.abs(orbit.amplitude / metrics.amplitude! - 1))} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
+    return {
+      ...fromRun(`the figures are the run's last cycles: the periodic orbit next to them swings ${apart}`),
+      metrics: {
+        ...metrics,
+        verdict: "unsettled",
+        settlingTime: null,
+        explanation: `the envelope held steady, but the periodic orbit next to the run swings ${apart}: the circuit has not settled (a swing clipped at a limit stays level while a slow state, such as an amplitude loop's, still moves); raise ${s.raise} to see where it goes, or run steady for the orbit and its stability`,
+      },
+    };
+  }
   return {
     metrics: {
       ...metrics,
       // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, "V")} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
+      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, probeUnit(s.quiet, s.analysis.probe))} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,
@@ -404,6 +429,13 @@ function refineSettled(
     settled: { from: "orbit", note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points },
   };
 }
+
+/**
+ * A settled run's last cycles and the orbit next to it agree within their error bars (within
+ * 6e-4 in amplitude on the examples); an orbit further from them than this (relative) is not the
+ * one the run settled on.
+ */
+const ORBIT_AGREEMENT = 0.05;
 
 /**
  * THD+N beside the orbit's THD: the orbit is noiseless, so the noise is the run's own — what its

@@ -22,14 +22,16 @@ import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
+import { settledSources } from "../steady/settled-sources.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
-import { excitationSetup, periodicDrives } from "./excitation.js";
+import { DEFAULT_TEMPERATURE, excitationSetup, periodicDrives } from "./excitation.js";
+import { ZERO_CELSIUS } from "../devices/thermal-noise.js";
 import { budgetOf, isRunLimitError, type RunBudget, type SteppingRun } from "./limits.js";
 import { linearize } from "./linearize.js";
 import { implausibleOnOrbit } from "./operating-check.js";
 import { noiseLevel } from "./noise-level.js";
-import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
+import { dominantPair, onImaginaryAxis, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { probeReader, probeUnit, probeWeights, type ProbeReader } from "./probes.js";
 import { cornersWithin } from "./settled-orbit.js";
 import { amplitudeLimit, thdOrder } from "./startup.js";
@@ -267,17 +269,18 @@ export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: 
  */
 export function seedPeriod(seed: OrbitSeed, neighbour: Circuit, analysis: SteadyAnalysis, options: RunOptions & { readonly start?: { readonly x: Float64Array; readonly period: number }; readonly matrix?: boolean } = {}): PeriodAt | null {
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
-  const system = buildSystem(neighbour, options.extraParts);
+  const system = buildSystem(settledSources(neighbour), options.extraParts, { ambient: ambientOf(analysis) });
   if (system.n !== seed.x.length) return null;
   const start = { t0: 0, x: options.start?.x ?? seed.x, period: options.start?.period ?? seed.period };
   return periodAt(system, start, seed.fractions, seed.states, { tolerances, relative: SAMPLE_ORBIT_SHARE * tolerances.lteRelative, ...(options.matrix ? { phase: seed.phase } : {}) });
 }
 
-function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
+function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: SteadyOptions, onOrbit?: (orbit: RefinedOrbit) => void): SteadyResult {
+  const circuit = settledSources(written);
   const kick = options.kick ?? KICK_SHARE;
   const tolerances = resolveTolerances({ ...accuracyTolerances(analysis.accuracy, analysis.accuracyFloor), ...options.tolerances });
   const budget = budgetOf(options);
-  const system = buildSystem(circuit, options.extraParts);
+  const system = buildSystem(circuit, options.extraParts, { ambient: ambientOf(analysis) });
   const bias = solveBias(system, new NewtonSolver(system, tolerances), tolerances);
   budget.refuseDense(system.n, "the steady analysis' start (the bias point's poles and growing mode)", analysis.span);
   let poles: Pole[] = [];
@@ -325,7 +328,9 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
     const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
-    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
+    // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them.
+    const own = growing && pole && startsFrom(pole) ? `; ${polesVerdict(pole)}, so the circuit oscillates by itself, and unless that oscillation locks to the sources the settled state does not repeat with their period (run startup to see it; with the source made DC, steady finds the oscillator's own orbit)` : "";
+    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
 
@@ -396,7 +401,8 @@ function solveSteady(circuit: Circuit, analysis: SteadyAnalysis, options: Steady
       }
       if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
       shots++;
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
+      // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
+      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" || shots > 1 ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
       if (typeof shot !== "string") return orbitFound(shot, transient);
       why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
       earliest = BACK_OFF * approach.periods;
@@ -505,9 +511,9 @@ function rightmostGrowing(poles: readonly Pole[]): Pole | null {
 function polesVerdict(pole: Pole | null): string {
   if (!pole) return "the poles at the bias point are all real and none grows";
   const f = formatQuantity(pole.imag / (2 * Math.PI), "Hz");
-  return startsFrom(pole)
-    ? `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`
-    : `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
+  if (startsFrom(pole)) return `the poles' dominant pair at ${f} grows at ${pole.real.toPrecision(4)} /s`;
+  if (onImaginaryAxis(pole)) return `the poles' dominant pair at ${f} lies on the imaginary axis (to rounding): it neither grows nor decays`;
+  return `the poles' dominant pair at ${f} decays at ${(-pole.real).toPrecision(4)} /s (left half-plane)`;
 }
 
 /**
@@ -543,7 +549,7 @@ function recordedStart(c: Context, stepper: TransientStepper, period: number, ma
   const what = "the steady state's recorded period";
   c.budget.refuseSteps(period, maxStep, what, c.analysis.span, "of ");
   const watch = (run: SteppingRun) => c.budget.watch(run, what, c.analysis.span);
-  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous, watch);
+  return recordPeriod(c.system, stepper.snapshot(), period, maxStep, c.tolerances, orbitPointLimit(c.budget.maxStoredPoints, c.system.n), autonomous, !autonomous, watch);
 }
 
 /** One turn of an orbit shot over `repeats` turns: a period of T/repeats recorded from its start. */
@@ -621,10 +627,15 @@ function collapsed(system: MnaSystem, tolerances: Tolerances, refined: RefinedOr
   return true;
 }
 
+/** The ambient (K) of the analysis' self-heated parts: its `temperature=`, else 27 °C. */
+function ambientOf(analysis: SteadyAnalysis): number {
+  return (analysis.temperature ?? DEFAULT_TEMPERATURE) + ZERO_CELSIUS;
+}
+
 /** ln(0.9·A/k)/σ from the thermal noise's level k at the probe (√2 × its r.m.s.). */
 function predictedStartup(c: Context, x: Float64Array, poles: readonly Pole[], pole: Pole, amplitude: number): number | null {
   if (!(pole.real > 0)) return null;
-  const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal" };
+  const thermal: StartupAnalysis = { kind: "startup", probe: c.analysis.probe, until: "auto", kick: "thermal", ...(c.analysis.temperature === undefined ? {} : { temperature: c.analysis.temperature }) };
   const setup = excitationSetup(c.circuit, c.system, thermal, "thermal", pole.imag / (2 * Math.PI));
   if (setup.generators.length === 0) return null;
   const check = () => c.budget.check("during the predicted start-up's noise level", c.analysis.span);

@@ -136,6 +136,8 @@ export interface SteadyAnalysis {
   readonly accuracy?: number;
   /** Absolute accuracy floor of a voltage (V; default 1 µV). */
   readonly accuracyFloor?: number;
+  /** The ambient of lamps and thermistors, and the temperature of the resistances' noise the predicted start-up time grows from (°C; default 27). */
+  readonly temperature?: number;
   readonly span?: SourceSpan;
 }
 

@@ -27,7 +27,7 @@ export function explainSilent(cycles: CycleTable, reason: SilentReason, settings
   if (reason.kind === "below-noise-floor") {
     return (
       `no oscillation: the envelope never exceeded ${SILENT_RATIO}× the noise floor ` +
-      `(largest ${formatQuantity(reason.largest, "V")} peak against ${formatQuantity(settings.noiseFloor, "V")})`
+      `(largest ${formatQuantity(reason.largest, settings.unit)} peak against ${formatQuantity(settings.noiseFloor, settings.unit)})`
     );
   }
   if (cycles.count === 0) return "no oscillation: the probe makes no complete cycle through its mean";
@@ -45,7 +45,7 @@ export function explainSettled(
 ): string {
   const steady = steadyOn === "envelope" ? "envelope steady" : "power per cycle steady (the peaks vary at sharp corners)";
   return (
-    `settled at ${formatQuantity(amplitude, "V")} peak and ${formatQuantity(frequency, "Hz")}` +
+    `settled at ${formatQuantity(amplitude, settings.unit)} peak and ${formatQuantity(frequency, "Hz")}` +
     (driven === undefined ? "" : `, driven by a ${formatQuantity(driven, "Hz")} source`) +
     (startupTime === null ? "" : `, 90 % reached at ${formatQuantity(startupTime, "s")}`) +
     `; ${steady} within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
@@ -53,8 +53,8 @@ export function explainSettled(
 }
 
 /** A steady oscillation that is not the predicted sine: a relaxation or a parasitic oscillation. */
-export function explainOther(reason: Exclude<SteadyReason, { kind: "settled" }>, amplitude: number, frequency: number, dutyCycle: number): string {
-  const size = `${formatQuantity(amplitude, "V")} peak at ${formatQuantity(frequency, "Hz")}`;
+export function explainOther(reason: Exclude<SteadyReason, { kind: "settled" }>, amplitude: number, frequency: number, dutyCycle: number, unit: string): string {
+  const size = `${formatQuantity(amplitude, unit)} peak at ${formatQuantity(frequency, "Hz")}`;
   if (reason.kind === "relaxation") {
     const far = reason.predicted === null ? "the bias point predicts no ringing" : `far from the ${formatQuantity(reason.predicted, "Hz")} the poles predict`;
     const why = {
@@ -98,7 +98,7 @@ export function explainUnsettled(cycles: CycleTable, reason: TrendReason, trend:
     return `the envelope fell after its peak and grew again ${reason.rise.toFixed(1)}× from its lowest: the amplitude loop is recovering from its overshoot; run longer`;
   }
   if (reason.kind === "collapses-dying") {
-    const volts = (values: readonly number[]) => values.map((x) => (x > 0 ? formatQuantity(x, "V") : "0 (stopped)")).join(", ");
+    const volts = (values: readonly number[]) => values.map((x) => (x > 0 ? formatQuantity(x, settings.unit) : "0 (stopped)")).join(", ");
     return (
       `the amplitude loop is settling: the envelope collapsed and restarted ${reason.count} times, each collapse shallower than the one before ` +
       `(peaks ${volts(reason.peaks)}; lowest ${volts(reason.lows)}); run longer`

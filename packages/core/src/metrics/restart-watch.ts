@@ -68,13 +68,14 @@ export function endsCollapsed(envelope: CycleEnvelope): boolean {
 /**
  * The line of a record that died away after its overshoot and was not watched long enough to
  * tell whether its amplitude loop brings it back: not "no oscillation", an unfinished run. The
- * peak in the probe's `unit`.
+ * peak in the probe's `unit`; `raise` names the option that ended the run (`settle-within=` for
+ * `until=auto` at its bound, `until=` for a fixed length).
  */
-export function explainCutWatch(watch: RestartWatch, stoppedAt: number, timeConstant: number, unit = "V"): string {
+export function explainCutWatch(watch: RestartWatch, stoppedAt: number, timeConstant: number, unit = "V", raise: "settle-within=" | "until=" = "settle-within="): string {
   return (
     `the oscillation grew to ${formatQuantity(watch.peak, unit)} peak at ${formatQuantity(watch.peakAt, "s")} and died away after it, ` +
     `but it may come back once the slow state its overshoot over-charged (an amplitude loop's filter) has bled back` +
     (timeConstant > 0 ? ` (the bias point's slowest time constant is ${formatQuantity(timeConstant, "s")})` : "") +
-    `: it is watched until ${formatQuantity(watch.until, "s")}, the run stopped at ${formatQuantity(stoppedAt, "s")}; raise settle-within= to wait longer`
+    `: it is watched until ${formatQuantity(watch.until, "s")}, the run stopped at ${formatQuantity(stoppedAt, "s")}; raise ${raise} to wait longer`
   );
 }

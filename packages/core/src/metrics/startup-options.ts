@@ -50,6 +50,12 @@ export interface StartupMetricsOptions {
    * @defaultValue 0
    */
   readonly searchFrom?: number;
+  /**
+   * The unit of the probe's values, in which the explanation quotes the swing (levels above
+   * say V; they are in this unit).
+   * @defaultValue `"V"`
+   */
+  readonly unit?: string;
 }
 
 /** Options with defaults filled in and checked. */
@@ -63,6 +69,7 @@ export interface StartupSettings {
   readonly prediction: LinearPrediction | undefined;
   readonly drives: readonly number[];
   readonly searchFrom: number;
+  readonly unit: string;
 }
 
 function positiveOrZero(name: string, value: number): number {
@@ -99,5 +106,6 @@ export function resolveStartupOptions(options: StartupMetricsOptions): StartupSe
     prediction: options.prediction,
     drives: options.drives ?? [],
     searchFrom: positiveOrZero("searchFrom", options.searchFrom ?? 0),
+    unit: options.unit ?? "V",
   };
 }

@@ -235,7 +235,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven);
       else {
         if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
-        explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle);
+        explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle, settings.unit);
       }
       break;
     }

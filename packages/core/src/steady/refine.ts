@@ -70,6 +70,7 @@ export function recordPeriod(
   tolerances?: Partial<Tolerances>,
   maxPoints = Infinity,
   retime = false,
+  driven = false,
   watch?: (run: SteppingRun) => void,
 ) {
   const stepper = new TransientStepper(system, { start: snapshot, maxStep, ...(tolerances ? { tolerances } : {}) });
@@ -111,7 +112,7 @@ export function recordPeriod(
   // The charged states' swings over the period, as both the seam and the start read them.
   const swings = Array.from(system.stateColumns, (j) => swingOf(states, j));
   const shift = retime ? seamShift(system, times, states, swings) : 0;
-  const start = fastestPoint(system, times, states, swings);
+  const start = driven ? quietestPoint(system, times, states, swings) : fastestPoint(system, times, states, swings);
   const rotated = (k: number) => (start + k) % N;
   const fractions = Float64Array.from({ length: N }, (_, k) => (times[rotated(k) + 1]! - times[rotated(k)]!) / period);
   const trajectory = Array.from({ length: N + 1 }, (_, k) => states[rotated(k)]!);
@@ -178,6 +179,31 @@ function fastestPoint(system: MnaSystem, times: readonly number[], states: reado
     const rate = Math.abs(states[k + 1]![widest]! - states[k]![widest]!) / (times[k + 1]! - times[k]!);
     if (rate > fastest) {
       fastest = rate;
+      best = k;
+    }
+  }
+  return best;
+}
+
+/**
+ * The recorded point (not the last) where the charged states, each for its swing, change least:
+ * a driven orbit needs no phase condition, and started there its map begins away from the fast
+ * events of the period (a rectifier's conduction, where the diode's current and node follow the
+ * state exponentially and Newton's linear model of the map holds only over a few thermal voltages).
+ */
+function quietestPoint(system: MnaSystem, times: readonly number[], states: readonly Float64Array[], swings: readonly number[]): number {
+  const N = times.length - 1;
+  let best = 0;
+  let slowest = Infinity;
+  for (let k = 0; k < N; k++) {
+    let speed = 0;
+    for (let c = 0; c < swings.length; c++) {
+      if (!(swings[c]! > 0)) continue;
+      const j = system.stateColumns[c]!;
+      speed = Math.max(speed, Math.abs(states[k + 1]![j]! - states[k]![j]!) / ((times[k + 1]! - times[k]!) * swings[c]!));
+    }
+    if (speed < slowest) {
+      slowest = speed;
       best = k;
     }
   }

@@ -8,7 +8,7 @@ import type { StartupVerdict } from "../metrics/verdict.js";
 import { judgedValue, meets, sampleCriteria } from "../spec/evaluate.js";
 import { failureMessage, startupAnalysisOf, type SampleMetrics, type SampleOutcome, type SampleSettings } from "./sample.js";
 
-/** The file's steady analysis, or one on its start-up's probe (with its THD orders and accuracy). */
+/** The file's steady analysis, or one on its start-up's probe (with its THD orders, accuracy and temperature). */
 export function steadyAnalysisOf(circuit: Circuit): SteadyAnalysis | undefined {
   const own = circuit.analyses.find((a): a is SteadyAnalysis => a.kind === "steady");
   if (own) return own;
@@ -22,6 +22,7 @@ export function steadyAnalysisOf(circuit: Circuit): SteadyAnalysis | undefined {
     ...(startup.accuracy === undefined ? {} : { accuracy: startup.accuracy }),
     ...(startup.accuracyFloor === undefined ? {} : { accuracyFloor: startup.accuracyFloor }),
     ...(startup.maxStep === undefined ? {} : { maxStep: startup.maxStep }),
+    ...(startup.temperature === undefined ? {} : { temperature: startup.temperature }),
     ...(startup.span ? { span: startup.span } : {}),
   };
 }

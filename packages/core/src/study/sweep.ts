@@ -1,14 +1,15 @@
 import { badArgument, checkAnalysis, checkOptions, describe } from "../circuit/arguments.js";
 import type { Circuit, StudyMeasure, SweepAnalysis } from "../circuit/circuit.js";
 import { runCircuit, type CircuitRun } from "../analyses/run.js";
-import { runPoles } from "../analyses/poles.js";
+import { polesAt } from "../analyses/poles.js";
+import { ZERO_CELSIUS } from "../devices/thermal-noise.js";
 import { runStartup } from "../analyses/startup.js";
 import type { RunOptions } from "../analyses/transient.js";
 import { budgetOf, RUN_LIMITS, RunBudget } from "../analyses/limits.js";
 import { stepsSpan, sweepCount } from "./sweep-count.js";
 import type { StartupVerdict } from "../metrics/verdict.js";
 import { startupAnalysisOf } from "./sample.js";
-import { steadyVerdict } from "./steady-sample.js";
+import { steadyAnalysisOf, steadyVerdict } from "./steady-sample.js";
 import { sweepHasMeasure, sweepNothingToMeasure } from "./study-size.js";
 import { runSteadySetting, settingRun } from "./sweep-steady.js";
 import type { CircuitBuilder } from "./tolerance.js";
@@ -150,7 +151,11 @@ export function sweepResult(build: CircuitBuilder, analysis: SweepAnalysis, poin
 function startsAt(build: CircuitBuilder, analysis: SweepAnalysis, value: number, options: SweepOptions): boolean {
   options.budget?.check(`while bisecting for the start threshold`);
   const circuit: Circuit = build({ [analysis.target]: value });
-  if (analysis.measure === "steady") return runPoles(circuit, { kind: "poles" }, options).starts;
+  if (analysis.measure === "steady") {
+    // At the steady analysis' ambient, as its settings were measured.
+    const temperature = steadyAnalysisOf(circuit)?.temperature;
+    return polesAt(circuit, options, temperature === undefined ? undefined : temperature + ZERO_CELSIUS).starts;
+  }
   const startup = startupAnalysisOf(circuit);
   if (!startup) return false;
   return oscillates(runStartup(circuit, startup, options).verdict);

@@ -13,4 +13,5 @@ export const steadyOptions: AnalysisOptions = {
   bandwidth: { type: "number", unit: "Hz", min: 0, minExclusive: true, summary: "frequency below which the THD counts the harmonics (at most 1000 of them), instead of harmonics=" },
   accuracy: { type: "number", unit: "1", min: 1e-10, max: 0.1, summary: "relative accuracy of the step control and the figures (default 1e-4)" },
   "accuracy-floor": { type: "number", unit: "V", min: 1e-15, max: 1, summary: "absolute accuracy of a voltage (default 1 µV; currents 1 nA per µV)" },
+  temperature: { type: "number", unit: "1", min: -273.15, minExclusive: true, max: 1000, summary: "temperature in °C: the ambient of lamps and thermistors, and of the resistances' noise the predicted start-up time grows from (default 27)" },
 };

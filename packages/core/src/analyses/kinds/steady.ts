@@ -17,6 +17,7 @@ export const steady: AnalysisModel<SteadyAnalysis, SteadyResult> = {
       from: (o.words.from ?? "startup") as "startup" | "poles",
       ...(n.cycles === undefined ? {} : { cycles: n.cycles }),
       ...(n["max-step"] === undefined ? {} : { maxStep: n["max-step"] }),
+      ...(n.temperature === undefined ? {} : { temperature: n.temperature }),
       ...settledFigureOptions("steady", o, checks),
     };
   },

@@ -1,0 +1,24 @@
+import { describe, expect, test } from "vitest";
+import { runSteady, type Circuit } from "@onset/core";
+import { elaborate, loadProgram } from "@onset/netlist-parser";
+import { paint } from "../../../packages/cli/src/color.js";
+import { steadyReport } from "../../../packages/cli/src/report/steady.js";
+
+const reportOf = (text: string) => {
+  const circuit: Circuit = elaborate(loadProgram("report.onset", text).program, {}).circuit!;
+  return steadyReport(runSteady(circuit, { kind: "steady", probe: { kind: "node", node: "o" } }), paint(false));
+};
+
+describe("steadyReport(result, paint)", () => {
+  test("a driven orbit whose only multiplier is below 1e-10 (a rectifier's capacitor, clamped at every peak): no trivial multiplier named, and the empty list read as disturbances dying within a period, not 'one state'", () => {
+    const lines = reportOf("vsource V1 in gnd wave=sine amp=9 freq=60\ndiode D1 in o\ncapacitor C1 o gnd 47u\nresistor RL o gnd 1.5k\n");
+    const heading = lines.find((l) => l.includes("Floquet multipliers"))!;
+    expect(heading).not.toContain("trivial");
+    expect(lines.find((l) => l.trim().startsWith("multipliers"))).toContain("none above 1e-10");
+  });
+
+  test("an autonomous orbit's heading says its trivial multiplier is left out", () => {
+    const lines = reportOf("inductor L1 o gnd 3.3m series=0.8\ncapacitor C1 o gnd 68n\nresistor Rl o gnd 12k\nvccs G1 gnd o o gnd 150u\ndiode D1 o k\nresistor Rk k gnd 2.2k\ndiode D2 k2 o\nresistor Rk2 k2 gnd 2.2k\n");
+    expect(lines.find((l) => l.includes("Floquet multipliers"))).toContain("the trivial one left out");
+  });
+});
