@@ -300,7 +300,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     warnings: defaultWarnings(circuit),
   };
   const prediction = { frequency: pole ? pole.imag / (2 * Math.PI) : null, growthRate: pole ? pole.real : null, starts: pole ? startsFrom(pole) : false, realGrowth: poles.some((p) => p.imag === 0 && p.real > 0) };
-  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, operatingCheck: options.operatingCheck ?? true, ...(onOrbit ? { onOrbit } : {}) };
+  const context: Context = { circuit, analysis, system, tolerances, budget, read, singleGrid: options.singleGrid ?? false, waveform: options.waveform ?? true, operatingCheck: options.operatingCheck ?? true, selfOscillating: pole !== null && startsFrom(pole), ...(onOrbit ? { onOrbit } : {}) };
 
   const noisy = circuit.parts.find((p) => (p.kind === "vsource" || p.kind === "isource") && p.options.wave === "noise" && !Number.isFinite(p.options.stop));
   if (noisy) {
@@ -466,6 +466,8 @@ interface Context {
   readonly singleGrid: boolean;
   readonly waveform: boolean;
   readonly operatingCheck: boolean;
+  /** The bias point's dominant pair grows: the circuit oscillates by itself. */
+  readonly selfOscillating: boolean;
   /** Told of the orbit a result is built from. */
   readonly onOrbit?: (orbit: RefinedOrbit) => void;
 }
@@ -585,8 +587,9 @@ function shoot(c: Context, start: () => ShootingStart, autonomous: boolean, limi
     };
     const orders = thdOrder(c.analysis, 1 / period);
     const refined = c.singleGrid ? singleGridOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings) : refineOrbit(c.system, guess, fractions, trajectory, c.read, orders, settings);
-    // A driven orbit is the sources' forced response, however small its swing; only an autonomous one can be the rest point.
-    if (autonomous && collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
+    // A driven orbit is the sources' forced response, however small its swing; it is the rest
+    // point only in a circuit that oscillates by itself (its bias point, unstable, carrying the forced ripple).
+    if ((autonomous || c.selfOscillating) && collapsed(c.system, c.tolerances, refined)) return "the shooting converged to the rest point";
     // Converged on k turns of the orbit (x(kT) = x(0) holds too): shoot one turn instead.
     const repeats = autonomous && !reshot ? repeatsWithin(refined.orbit, c.system.stateColumns, absoluteTolerances(c.system.unknowns, c.tolerances, "lte")) : 1;
     if (repeats > 1) return shoot(c, () => oneTurn(c, refined.orbit.start, repeats), autonomous, limits, true);
