@@ -2,28 +2,12 @@
 // oscillates at its poles' frequency; a driven circuit's orbit has the drive's period; a circuit
 // whose poles decay has no orbit; a pure driven sine gives the THD floor of the integrator.
 import { describe, expect, test } from "vitest";
-import { opampPresets, runPoles, runSteady, type PartSpec, type SteadyAnalysis } from "@onset/core";
+import { runPoles, runSteady, type SteadyAnalysis } from "@onset/core";
 import { circuit, part } from "../../support/circuits.js";
+import { clippedTank } from "../../support/clipped-tank.js";
 
 const probe = { kind: "node", node: "v" } as const;
 const steady = (extra: Partial<SteadyAnalysis> = {}): SteadyAnalysis => ({ kind: "steady", probe, ...extra });
-
-/**
- * A parallel tank L ∥ C ∥ R at node v and a non-inverting stage of gain A = 3 whose output,
- * clipped at ±1 V by a near-ideal amplifier, feeds the tank through Rfb: a negative
- * conductance (A − 1)/Rfb = 2/Rfb against the tank's loss 1/R.
- */
-function clippedTank(R: number, L: number, C: number, Rfb: number): PartSpec[] {
-  return [
-    part("inductor", "L1", ["v", "gnd"], L),
-    part("capacitor", "C1", ["v", "gnd"], C),
-    part("resistor", "R1", ["v", "gnd"], R),
-    part("opamp", "U1", ["v", "n", "o"], undefined, { ...opampPresets.ideal, rails: [-1, 1] }),
-    part("resistor", "Rf", ["o", "n"], 2e3),
-    part("resistor", "Rg", ["n", "gnd"], 1e3),
-    part("resistor", "Rfb", ["o", "v"], Rfb),
-  ];
-}
 
 describe("runSteady on an LC tank held by an ideal clip (mathematics: the tank's natural frequency)", () => {
   // L = 1 mH, C = 100 nF: ω₀ = 1/√(LC) = 10⁵ rad/s. R = 100 kΩ gives Q = R·√(C/L) = 1000; the
