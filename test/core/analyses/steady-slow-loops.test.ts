@@ -5,7 +5,7 @@
 import { describe, expect, test } from "vitest";
 import { runSteady } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
-import { JFET_FAST_DETECTOR } from "../../e2e/support/steady-circuits.js";
+import { JFET_FAST_DETECTOR, lampAmplitude } from "../../e2e/support/steady-circuits.js";
 import { expectSteadyAgreesWithSettled } from "./steady-agreement.js";
 
 const wien = (R: string, C: string) => `resistor R1 o s ${R}
@@ -83,5 +83,34 @@ describe("a JFET loop whose 4.7 µF detector over-corrects for longer than the d
     // Source: the start-up run of the same circuit integrated to 3 s (kick=thermal), settled.
     expect(Math.abs(r.frequency! / 4922.8 - 1)).toBeLessThan(5e-4);
     expect(Math.abs(r.amplitude! / 4.14592 - 1)).toBeLessThan(5e-3);
+  });
+});
+
+describe("a lamp loop of 10 s (ten thousand periods): the swing sits clipped at the rails while the filament warms", () => {
+  // 1 kHz Wien, Rf = 294 Ω against a 100 Ω (cold) lamp: gain 3.94 cold, so the output clips and
+  // its swing is level for thousands of periods while the filament warms; a shooting from there
+  // does not converge. The wait beyond the batches shoots again each time it has run twice as long.
+  const source = `resistor R1 o s 15.8k
+capacitor C1 s p 10n
+resistor R2 p gnd 15.8k
+capacitor C2 p gnd 10n
+resistor Rf o n 294
+lamp L1 n gnd 100 hot=1k rated=12 tau=10
+opamp U1 p n o preset=general rails=(-15, 15)
+`;
+  const circuit = elaborate(loadProgram("slow-lamp.onset", source).program, {}).circuit!;
+  const probe = { kind: "node", node: "o" } as const;
+  test("at the defaults: no orbit, and the wait its time constant wants", () => {
+    const r = runSteady(circuit, { kind: "steady", probe });
+    expect(r.found).toBe(false);
+    expect(r.explanation).toMatch(/would have an amplitude loop's envelope settle over some \d+ periods, beyond the 34 × cycles= periods allowed: raise cycles= to wait longer$/);
+  });
+  test("with cycles=1000, as the answer says: the orbit at the lamp's thermal balance", () => {
+    const r = runSteady(circuit, { kind: "steady", probe, cycles: 1000 });
+    // measured: 4.981117 V, 1001.98 Hz, largest multiplier 0.99996 (before: no orbit with cycles=1000 either — the one wait beyond the batches ended at the first level swing, clipped)
+    expect(r.found).toBe(true);
+    expect(r.stability!.verdict).toBe("stable");
+    // Source: closed form from the lamp law (lampAmplitude: gain 3 at R_lamp = Rf/2, the filament's thermal balance) = 4.98146 V
+    expect(Math.abs(r.amplitude! / lampAmplitude(294, 100, 1000, 12) - 1)).toBeLessThan(1e-3);
   });
 });

@@ -408,18 +408,24 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
       earliest = BACK_OFF * approach.periods;
     }
     // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
-    // there fail: it gets one more wait, as long as the patience with a dip, for its swing to level off.
-    if (!diedOut && from === "startup" && slowWait > 0) {
-      const where = approach.advance(slowWait, FIRST_LEVEL, check);
+    // there fail: it gets one more wait, as long as the patience with a dip, for its swing to
+    // level off — shot again each time it has run twice as long, since a swing clipped at the
+    // rails looks level long before a slow loop (a lamp of seconds) has brought it off them.
+    const waitEnd = approach.periods + slowWait;
+    let waited = 0;
+    while (!diedOut && from === "startup" && approach.periods < waitEnd) {
+      const where = approach.advance(waitEnd - approach.periods, FIRST_LEVEL, check, waited);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
       } else if (where.levelled) {
-        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true);
+        const more = BACK_OFF * approach.periods < waitEnd;
+        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true, more ? EARLY_LIMITS : {});
         if (typeof shot !== "string") return orbitFound(shot, transient);
         why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
-      }
+        waited = BACK_OFF * approach.periods;
+      } else break;
     }
     periods += approach.periods;
     // Only a start that died out is tried again, small.
