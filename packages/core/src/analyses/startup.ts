@@ -23,6 +23,7 @@ import { linearize, type SmallSignal } from "./linearize.js";
 import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
+import { largestStateDrift } from "./state-drift.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
@@ -396,8 +397,22 @@ function refineSettled(
   }
   const orders = thdOrder(s.analysis, drive ?? f);
   const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check, s.maxStoredPoints);
-  if (isOrbitFailure(orbit)) return fromRun(`the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`);
   const unit = probeUnit(s.quiet, s.analysis.probe);
+  if (isOrbitFailure(orbit)) {
+    const note = `the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`;
+    // With no orbit to compare, the run's own state says whether it repeats.
+    const drift = largestStateDrift(s.quiet, s.stepper.snapshot(), drive === undefined ? 1 / f : 1 / drive, s.maxStep, s.tolerances);
+    if (!(drift.share > STATE_DRIFT)) return fromRun(note);
+    return {
+      ...fromRun(note),
+      metrics: {
+        ...metrics,
+        verdict: "unsettled",
+        settlingTime: null,
+        explanation: `the envelope held steady, but the charged state ${drift.label} still moves by ${formatPercent(drift.share)} of its size per period and no periodic orbit was found next to the run: the circuit has not settled (a swing clipped at a limit stays level while a slow state, such as an amplitude loop's, still moves); raise ${s.raise} to see where it goes, or run steady for the orbit and its stability`,
+      },
+    };
+  }
   if (!(Math.abs(orbit.amplitude / metrics.amplitude! - 1) <= ORBIT_AGREEMENT)) {
     const apart = `${formatQuantity(orbit.amplitude, unit)} peak, ${formatPercent(Math.abs(orbit.amplitude / metrics.amplitude! - 1))} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
     return {
@@ -436,6 +451,13 @@ function refineSettled(
  * one the run settled on.
  */
 const ORBIT_AGREEMENT = 0.05;
+
+/**
+ * A settled run's charged states repeat from one period to the next within the settling
+ * tolerance the envelope is held to (0.1 % per cycle, `measureStartup`'s default); a state that
+ * moves more than this share of its size per period has not settled.
+ */
+const STATE_DRIFT = 1e-3;
 
 /**
  * THD+N beside the orbit's THD: the orbit is noiseless, so the noise is the run's own — what its
