@@ -28,7 +28,7 @@ async function plainOutcome(ctx: CommandContext, circuit: Circuit, limits: RunLi
   return {
     kind: "plain",
     runs: run.results.map((result, k) => ({ analysis: analyses[k]!, result })),
-    spec: run.spec ? specChecks(run.spec, "the first start-up", judgedProbeUnit(run.results)) : null,
+    spec: run.spec ? specChecks(run.spec, run.results.some((r) => r.analysis === "startup") ? "the first start-up" : "the steady state", judgedProbeUnit(run.results)) : null,
     ...(sample ? { sample } : {}),
   };
 }
