@@ -61,7 +61,7 @@ describe("studyReport(header, samples)", () => {
     const r = studyReport(base, [sample(0, 1000), sample(1, 1020), sample(2, 995), sample(3, 1005)]);
     expect(r.kind === "tolerance" && r.summary.yield.value).toBe(0.75);
     const interval = wilsonInterval(3, 4);
-    const row = { metric: "yield", measured: 0.75, passed: 3, runs: 4, interval: { low: interval.low, high: interval.high }, pass: true };
+    const row = { metric: "yield", measured: 0.75, unit: "1", passed: 3, runs: 4, interval: { low: interval.low, high: interval.high }, pass: true };
     expect(r.spec).toEqual({ pass: true, on: "the yield of 4 samples", criteria: [{ text: "frequency=1k±1%", ...row }, { text: "yield>70%", ...row, combined: true }] });
     expect(r.missing).toEqual([]);
   });

@@ -8,7 +8,7 @@ export interface CriterionCheck {
   readonly text: string;
   readonly metric: string;
   readonly measured: number | null;
-  /** The unit of `measured` (`1` for a fraction): Hz, s, or the probe's unit for the swing's figures. Absent on a study's yield rows. */
+  /** The unit of `measured` (`1` for a fraction): Hz, s, or the probe's unit for the swing's figures. A study's yield rows: `1`. */
   readonly unit?: string;
   readonly pass: boolean;
   /** In a tolerance study: how many samples met it, of how many, and the 95 % Wilson interval of that yield. */

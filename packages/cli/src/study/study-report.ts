@@ -57,7 +57,7 @@ function toleranceSpec(header: StudyHeader, summary: ToleranceSummary): SpecChec
   if (header.criteria.length === 0) return null;
   const yc = header.criteria.find((c) => c.metric === "yield");
   const enough = (y: YieldSummary) => (yc ? meets(yc, y.value) : y.runs > 0 && y.passed === y.runs);
-  const row = (text: string, y: YieldSummary) => ({ text, metric: "yield", measured: y.value, passed: y.passed, runs: y.runs, interval: { ...y.interval }, pass: enough(y) });
+  const row = (text: string, y: YieldSummary) => ({ text, metric: "yield", measured: y.value, unit: "1", passed: y.passed, runs: y.runs, interval: { ...y.interval }, pass: enough(y) });
   const overall = { ...row(yc?.text ?? "every sample", summary.yield), combined: true };
   return {
     pass: overall.pass,
@@ -91,7 +91,7 @@ export function windowReport(header: StudyHeader, samples: readonly StoredSample
       : {
           pass: best !== null,
           on: `the yield at each setting of ${sweep.target}`,
-          criteria: [{ text: `${yc?.text ?? `yield>${required * 100}%`} at some setting`, metric: "yield", measured: bestYield, pass: best !== null }],
+          criteria: [{ text: `${yc?.text ?? `yield>${required * 100}%`} at some setting`, metric: "yield", measured: bestYield, unit: "1", pass: best !== null }],
         };
   const missing = points.flatMap((p, k) => missingOf(header, p.samples).map((i) => k * header.runs + i));
   return { kind: "window", header, points, window: best, spec, missing };

@@ -42,7 +42,7 @@ export function sweepReport(result: SweepResult, unit: string, hasSpec: boolean)
     ? {
         pass: passing > 0,
         on: `each setting of ${result.target}`,
-        criteria: [{ text: "settings that meet the spec", metric: "yield", measured: judged.length > 0 ? passing / judged.length : null, pass: passing > 0 }],
+        criteria: [{ text: "settings that meet the spec", metric: "yield", measured: judged.length > 0 ? passing / judged.length : null, unit: "1", pass: passing > 0 }],
       }
     : null;
   return { kind: "sweep", result, unit, spec };
