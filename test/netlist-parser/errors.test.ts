@@ -1027,10 +1027,20 @@ const cases: readonly Case[] = [
     code: "out-of-range",
     source: "resistor R1 o gnd 1k\nstartup probe=o temperature=-300",
     expected: [
-      "t.onset:2:29: error: temperature= of startup must be between -273.15 and 1k, got -300",
+      "t.onset:2:29: error: temperature= of startup must be greater than -273.15 and at most 1k, got -300",
       "  startup probe=o temperature=-300",
       "                              ^~~~",
       "hint: temperature= is the temperature in °C of the resistances (their noise under kick=thermal and power-on) and the ambient of lamps and thermistors",
+    ].join("\n"),
+  },
+  {
+    code: "out-of-range",
+    source: "resistor R1 o gnd 1k\nsteady probe=o temperature=-273.15",
+    expected: [
+      "t.onset:2:28: error: temperature= of steady must be greater than -273.15 and at most 1k, got -273.15",
+      "  steady probe=o temperature=-273.15",
+      "                             ^~~~~~~",
+      "hint: temperature= is the temperature in °C: the ambient of lamps and thermistors, and of the resistances' noise the predicted start-up time grows from (default 27)",
     ].join("\n"),
   },
   {

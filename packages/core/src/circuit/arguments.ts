@@ -84,7 +84,7 @@ function isProbe(value: unknown): value is Probe {
 
 function numberRule(range: { readonly min?: number; readonly minExclusive?: boolean; readonly max?: number; readonly integer?: boolean }): string {
   const kind = range.integer ? "a whole number" : "a finite number";
-  if (range.min !== undefined && range.max !== undefined) return `${kind} from ${range.min} to ${range.max}`;
+  if (range.min !== undefined && range.max !== undefined) return range.minExclusive ? `${kind} above ${range.min} up to ${range.max}` : `${kind} from ${range.min} to ${range.max}`;
   if (range.min !== undefined) return `${kind} ${range.minExclusive ? "above" : "of at least"} ${range.min}`;
   return range.max !== undefined ? `${kind} up to ${range.max}` : kind;
 }

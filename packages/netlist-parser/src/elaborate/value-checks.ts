@@ -80,7 +80,7 @@ export function checkRange(v: number, rule: RangeRule, unit: UnitSymbol | undefi
   // A count reads as digits (100000, not 100k; 1e9 read as 1G would look like a quantity).
   const shown = (x: number) => (rule.integer && (unit === undefined || unit === "1") && Math.abs(x) < 1e21 ? String(x) : formatQuantity(x, unit));
   let rangeText: string;
-  if (min !== undefined && max !== undefined) rangeText = `between ${shown(min)} and ${shown(max)}`;
+  if (min !== undefined && max !== undefined) rangeText = rule.minExclusive ? `greater than ${shown(min)} and at most ${shown(max)}` : `between ${shown(min)} and ${shown(max)}`;
   else if (min !== undefined) rangeText = `${rule.minExclusive ? "greater than" : "at least"} ${shown(min)}`;
   else rangeText = `at most ${shown(max!)}`;
   raise("out-of-range", `${what} must be ${rangeText}, got ${shown(v)}`, span, extra);
