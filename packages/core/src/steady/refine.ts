@@ -335,12 +335,11 @@ export function refineOrbit(
 }
 
 /**
- * A bound on the peak-to-peak's error when an extremum sits on a corner (a diode turning on right
- * at it), else zero. An extremum is unresolved when, on the run's own grid, the cubics through its
- * neighbouring samples spread more than the extrapolation moves it: its interpolation error then
- * shrinks like h, erratically, not like h², and the two grids' swings can agree by chance (the
- * corner's error cancelling the other extremum's). Each extremum then counts on its own, with its
- * extrapolation step and its spread on the run's own grid: the sum bounds the swing's error.
+ * A bound on the peak-to-peak's error when an extremum sits on a corner on either grid (a diode
+ * turning on right at it; see `OrbitExtremes`), else zero. Such an extremum is not resolved to
+ * second order: its error shrinks like h, erratically, and the two grids' swings can agree by
+ * chance (the corner's error cancelling the other extremum's). Each extremum then counts on its
+ * own, with its extrapolation step and its interpolation spread on the run's own grid.
  */
 function cornerSwingBar(coarse: OrbitExtremes, fine: OrbitExtremes, bar: (a: number, b: number) => number): number {
   const maximum = bar(coarse.maximum, fine.maximum);
