@@ -413,8 +413,9 @@ function refineSettled(
       },
     };
   }
-  if (!(Math.abs(orbit.amplitude / metrics.amplitude! - 1) <= ORBIT_AGREEMENT)) {
-    const apart = `${formatQuantity(orbit.amplitude, unit)} peak, ${formatPercent(Math.abs(orbit.amplitude / metrics.amplitude! - 1))} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
+  const distance = Math.abs(orbit.amplitude / metrics.amplitude! - 1);
+  if (!(distance <= ORBIT_AGREEMENT)) {
+    const apart = `${formatQuantity(orbit.amplitude, unit)} peak, ${formatPercent(distance)} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
     return {
       ...fromRun(`the figures are the run's last cycles: the periodic orbit next to them swings ${apart}`),
       metrics: {
@@ -429,7 +430,7 @@ function refineSettled(
     metrics: {
       ...metrics,
       // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, probeUnit(s.quiet, s.analysis.probe))} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
+      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,

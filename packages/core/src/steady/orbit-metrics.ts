@@ -67,6 +67,22 @@ export function orbitWaveform(orbit: PeriodicOrbit, read: ProbeReader): { time: 
  * harmonics come from its uniform resampling over exactly one period.
  */
 export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number, corners: readonly number[] = []): OrbitMetrics {
+  return orbitFigures(orbit, read, maxOrder, corners).metrics;
+}
+
+/** The probe's extremes over one period, each with how far its interpolant may be off (see `extremes`). */
+export interface OrbitExtremes {
+  readonly maximum: number;
+  readonly minimum: number;
+  readonly maximumSpread: number;
+  readonly minimumSpread: number;
+  /** The extremum sits on a corner of the waveform (see `onCorner`). */
+  readonly maximumCorner: boolean;
+  readonly minimumCorner: boolean;
+}
+
+/** `orbitMetrics`, with the extremes the swing comes from and their interpolation spreads. */
+export function orbitFigures(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number, corners: readonly number[] = []): { metrics: OrbitMetrics; extremes: OrbitExtremes } {
   const { states } = orbit;
   const T = orbit.start.period;
   const N = orbit.fractions.length;
@@ -87,8 +103,9 @@ export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
   const span = 1e-9 * T;
   const bent = new Uint8Array(t.length);
   for (const c of corners) for (let k = 1; k < t.length - 1; k++) if (Math.abs(t[k]! - c) <= span) bent[k] = 1;
-  const { maximum, minimum } = extremes(t, v, bent);
-  return {
+  const found = extremes(t, v, bent);
+  const { maximum, minimum } = found;
+  const metrics = {
     frequency: 1 / T,
     amplitude: 0.5 * (maximum - minimum),
     peakToPeak: maximum - minimum,
@@ -97,29 +114,95 @@ export function orbitMetrics(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
     thd: analysis.thd,
     harmonics: analysis.harmonics,
   };
+  return { metrics, extremes: found };
 }
 
 /**
  * The largest and smallest values over the samples' intervals (one period): the samples, and the
- * local cubics' stationary points on intervals whose cubic does not span a bent point.
+ * local cubics' stationary points on intervals whose cubic does not span a bent point. Each comes
+ * with its spread: how far the cubics through the neighbouring four samples (one sample earlier,
+ * one later) lie from it at its time — O(h⁴) at a smooth extremum, O(h) at a corner (a diode
+ * turning on right at it), where the extremum is not resolved to the order the extrapolation assumes.
  */
-function extremes(t: Float64Array, v: Float64Array, bent: Uint8Array): { maximum: number; minimum: number } {
+function extremes(t: Float64Array, v: Float64Array, bent: Uint8Array): OrbitExtremes {
   const c = cubicScratch();
   const roots = new Float64Array(2);
   let maximum = -Infinity;
   let minimum = Infinity;
+  let maximumSpread = 0;
+  let minimumSpread = 0;
+  let maximumAt = 1;
+  let minimumAt = 1;
   for (let i = 1; i < t.length - 2; i++) {
-    maximum = Math.max(maximum, v[i]!);
-    minimum = Math.min(minimum, v[i]!);
+    if (Math.max(maximum, v[i]!) !== maximum) [maximum, maximumSpread, maximumAt] = [Math.max(maximum, v[i]!), 0, i];
+    if (Math.min(minimum, v[i]!) !== minimum) [minimum, minimumSpread, minimumAt] = [Math.min(minimum, v[i]!), 0, i];
     // The cubic on interval i passes through samples i − 1 … i + 2.
     if (bent[i - 1] || bent[i] || bent[i + 1] || bent[i + 2]) continue;
     cubicOnInterval(t, v, i, c);
     const count = cubicStationaryPoints(c, roots);
     for (let r = 0; r < count; r++) {
       const value = cubicValue(c, roots[r]!);
-      maximum = Math.max(maximum, value);
-      minimum = Math.min(minimum, value);
+      const nearest = roots[r]! < 0.5 ? i : i + 1;
+      if (Math.max(maximum, value) !== maximum) [maximum, maximumSpread, maximumAt] = [Math.max(maximum, value), stencilSpread(t, v, bent, i, roots[r]!, value), nearest];
+      if (Math.min(minimum, value) !== minimum) [minimum, minimumSpread, minimumAt] = [Math.min(minimum, value), stencilSpread(t, v, bent, i, roots[r]!, value), nearest];
     }
   }
-  return { maximum, minimum };
+  return { maximum, minimum, maximumSpread, minimumSpread, maximumCorner: onCorner(t, v, maximumAt), minimumCorner: onCorner(t, v, minimumAt) };
+}
+
+/**
+ * A waveform bends this many times more sharply at an extremum than three samples away on either
+ * sides: a corner the grid does not resolve (a smooth extremum's curvature changes by a few per
+ * cent over three steps; a diode turning on at a capacitor's minimum makes it thousands of times).
+ */
+const CORNER_BEND = 2;
+
+/**
+ * True when the samples' curvature next to sample k (the second divided differences at k − 1, k,
+ * k + 1) exceeds `CORNER_BEND` times the curvature three samples away on one side (the
+ * samples taken around the period: t[1] … t[N + 1] span it, the first and last the same point).
+ */
+function onCorner(t: Float64Array, v: Float64Array, k: number): boolean {
+  const N = t.length - 3;
+  const T = t[N + 1]! - t[1]!;
+  const at = (j: number) => {
+    const turns = Math.floor((j - 1) / N);
+    const m = j - turns * N;
+    return { time: t[m]! + turns * T, value: v[m]! };
+  };
+  const curvature = (j: number) => {
+    const a = at(j - 1);
+    const b = at(j);
+    const c = at(j + 1);
+    return Math.abs((2 * ((c.value - b.value) / (c.time - b.time) - (b.value - a.value) / (b.time - a.time))) / (c.time - a.time));
+  };
+  const near = Math.max(curvature(k - 1), curvature(k), curvature(k + 1));
+  const far = Math.min(curvature(k - 3), curvature(k + 3));
+  return near > CORNER_BEND * far;
+}
+
+/**
+ * The largest difference from `value` (the cubic of interval i at u) of the cubics through samples
+ * i − 2 … i + 1 and i … i + 3 at the same time, those that exist and span no bent point.
+ */
+function stencilSpread(t: Float64Array, v: Float64Array, bent: Uint8Array, i: number, u: number, value: number): number {
+  const tau = t[i]! + u * (t[i + 1]! - t[i]!);
+  let spread = 0;
+  for (const first of [i - 2, i]) {
+    if (first < 0 || first + 3 >= t.length) continue;
+    if (bent[first] || bent[first + 1] || bent[first + 2] || bent[first + 3]) continue;
+    spread = Math.max(spread, Math.abs(throughFour(t, v, first, tau) - value));
+  }
+  return spread;
+}
+
+/** The cubic through samples first … first + 3, at time tau (Lagrange form). */
+function throughFour(t: Float64Array, v: Float64Array, first: number, tau: number): number {
+  let sum = 0;
+  for (let a = first; a < first + 4; a++) {
+    let weight = 1;
+    for (let b = first; b < first + 4; b++) if (b !== a) weight *= (tau - t[b]!) / (t[a]! - t[b]!);
+    sum += weight * v[a]!;
+  }
+  return sum;
 }

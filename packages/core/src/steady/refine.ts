@@ -4,7 +4,7 @@ import type { SteppingRun } from "../analyses/limits.js";
 import { harmonicList } from "../metrics/spectrum.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
-import { orbitMetrics, type OrbitMetrics } from "./orbit-metrics.js";
+import { orbitFigures, type OrbitExtremes, type OrbitMetrics } from "./orbit-metrics.js";
 import { shootOrbit, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
 
@@ -298,12 +298,12 @@ export function refineOrbit(
   // The multipliers come from the run's own grid (a stability verdict and a rate, where the
   // grids differ in the fourth digit), at half the cost of the finer grid's.
   const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
-  const m1 = orbitMetrics(coarse, read, maxOrder, settings.corners);
+  const { metrics: m1, extremes: e1 } = orbitFigures(coarse, read, maxOrder, settings.corners);
   // The halved grid's map differs from the run's own by O(h²): its shooting iterates on the
   // coarser grid's Newton matrix (put back once where Broyden's updates stop contracting), so no
   // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
-  const m2 = orbitMetrics(fine, read, maxOrder, settings.corners);
+  const { metrics: m2, extremes: e2 } = orbitFigures(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
@@ -324,7 +324,7 @@ export function refineOrbit(
     harmonics: harmonicList(Float64Array.from(m2.harmonics, (h, k) => extrapolate(m1.harmonics[k]!.amplitude, h.amplitude)), extrapolate(m1.frequency, m2.frequency)),
     numericalError: {
       frequency: periodBar(m1.frequency, m2.frequency),
-      amplitude: bar(m1.amplitude, m2.amplitude),
+      amplitude: Math.max(bar(m1.amplitude, m2.amplitude), 0.5 * cornerSwingBar(e1, e2, bar)),
       rms: bar(m1.rms, m2.rms),
       thd: bar(m1.thd, m2.thd),
     },
@@ -332,4 +332,18 @@ export function refineOrbit(
     points: [fractions.length, 2 * fractions.length],
     iterations: [coarse.iterations, fine.iterations],
   };
+}
+
+/**
+ * A bound on the peak-to-peak's error when an extremum sits on a corner on either grid (a diode
+ * turning on right at it; see `OrbitExtremes`), else zero. Such an extremum is not resolved to
+ * second order: its error shrinks like h, erratically, and the two grids' swings can agree by
+ * chance (the corner's error cancelling the other extremum's). Each extremum then counts on its
+ * own, with its extrapolation step and its interpolation spread on the run's own grid.
+ */
+function cornerSwingBar(coarse: OrbitExtremes, fine: OrbitExtremes, bar: (a: number, b: number) => number): number {
+  const maximum = bar(coarse.maximum, fine.maximum);
+  const minimum = bar(coarse.minimum, fine.minimum);
+  if (!(coarse.maximumCorner || coarse.minimumCorner || fine.maximumCorner || fine.minimumCorner)) return 0;
+  return maximum + coarse.maximumSpread + minimum + coarse.minimumSpread;
 }
