@@ -497,16 +497,21 @@ function recoveryPeriods(poles: readonly Pole[], period: number): number {
  */
 function diedOutWhy(periods: number, pole: Pole, wanted: number, afterGrowth: boolean): string {
   const why = `no periodic orbit: started in its growing mode, the oscillation ${afterGrowth ? "grew, then " : ""}died out within ${periods} periods (${polesVerdict(pole)})`;
-  const wait = wanted === 0 ? "" : `; the bias point's slowest time constant would have it wait ${wanted} periods for an over-corrected amplitude loop to come back, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (a start-up run shows whether it comes back)`;
+  const wait = wanted === 0 ? "" : `; the bias point's slowest time constant would have it wait ${wanted} periods for an over-corrected amplitude loop to come back, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (cycles=${cyclesFor(wanted)} waits that long; a start-up run shows whether it comes back)`;
   const noise = afterGrowth
     ? "; an amplitude loop that over-corrects can stop the oscillation after its first overshoot, and the steady analysis runs without noise, so an oscillation sunk below the solver's resolution does not grow back, while in the circuit its noise restarts it once the loop has bled back: run startup, which starts from the circuit's thermal noise"
     : "";
   return `${why}${wait}${noise}`;
 }
 
+/** The cycles= whose batches allow a wait of `periods`. */
+function cyclesFor(periods: number): number {
+  return Math.ceil(periods / RECOVERY_BATCHES);
+}
+
 /** When the slowest time constant wants a longer wait than the batches allow, how to give it one (a slow loop's envelope may bounce that long). */
 function longerWait(wanted: number, allowed: number): string {
-  return wanted > allowed ? `; the bias point's slowest time constant would have an amplitude loop's envelope settle over some ${wanted} periods, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer` : "";
+  return wanted > allowed ? `; the bias point's slowest time constant would have an amplitude loop's envelope settle over some ${wanted} periods, beyond the ${RECOVERY_BATCHES} × cycles= periods allowed: raise cycles= to wait longer (cycles=${cyclesFor(wanted)} waits that long)` : "";
 }
 
 /** The rightmost pole in the right half-plane (real or complex), or null. */
