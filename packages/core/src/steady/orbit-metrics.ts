@@ -129,25 +129,38 @@ function extremes(t: Float64Array, v: Float64Array, bent: Uint8Array): OrbitExtr
   const roots = new Float64Array(2);
   let maximum = -Infinity;
   let minimum = Infinity;
-  let maximumSpread = 0;
-  let minimumSpread = 0;
+  // Where each extreme lies: its nearest sample, and the interval and point of the cubic it is the stationary value of (interval −1: a sample).
   let maximumAt = 1;
   let minimumAt = 1;
+  let maximumOn = -1;
+  let minimumOn = -1;
+  let maximumU = 0;
+  let minimumU = 0;
   for (let i = 1; i < t.length - 2; i++) {
-    if (Math.max(maximum, v[i]!) !== maximum) [maximum, maximumSpread, maximumAt] = [Math.max(maximum, v[i]!), 0, i];
-    if (Math.min(minimum, v[i]!) !== minimum) [minimum, minimumSpread, minimumAt] = [Math.min(minimum, v[i]!), 0, i];
+    if (Math.max(maximum, v[i]!) !== maximum) [maximum, maximumAt, maximumOn] = [Math.max(maximum, v[i]!), i, -1];
+    if (Math.min(minimum, v[i]!) !== minimum) [minimum, minimumAt, minimumOn] = [Math.min(minimum, v[i]!), i, -1];
     // The cubic on interval i passes through samples i − 1 … i + 2.
     if (bent[i - 1] || bent[i] || bent[i + 1] || bent[i + 2]) continue;
     cubicOnInterval(t, v, i, c);
     const count = cubicStationaryPoints(c, roots);
     for (let r = 0; r < count; r++) {
-      const value = cubicValue(c, roots[r]!);
-      const nearest = roots[r]! < 0.5 ? i : i + 1;
-      if (Math.max(maximum, value) !== maximum) [maximum, maximumSpread, maximumAt] = [Math.max(maximum, value), stencilSpread(t, v, bent, i, roots[r]!, value), nearest];
-      if (Math.min(minimum, value) !== minimum) [minimum, minimumSpread, minimumAt] = [Math.min(minimum, value), stencilSpread(t, v, bent, i, roots[r]!, value), nearest];
+      const u = roots[r]!;
+      const value = cubicValue(c, u);
+      const nearest = u < 0.5 ? i : i + 1;
+      if (Math.max(maximum, value) !== maximum) [maximum, maximumAt, maximumOn, maximumU] = [Math.max(maximum, value), nearest, i, u];
+      if (Math.min(minimum, value) !== minimum) [minimum, minimumAt, minimumOn, minimumU] = [Math.min(minimum, value), nearest, i, u];
     }
   }
-  return { maximum, minimum, maximumSpread, minimumSpread, maximumCorner: onCorner(t, v, maximumAt), minimumCorner: onCorner(t, v, minimumAt) };
+  // (The spreads of the two extremes only, once the scan has found them.)
+  const spread = (on: number, u: number, value: number) => (on < 0 ? 0 : stencilSpread(t, v, bent, on, u, value));
+  return {
+    maximum,
+    minimum,
+    maximumSpread: spread(maximumOn, maximumU, maximum),
+    minimumSpread: spread(minimumOn, minimumU, minimum),
+    maximumCorner: onCorner(t, v, maximumAt),
+    minimumCorner: onCorner(t, v, minimumAt),
+  };
 }
 
 /**
@@ -188,21 +201,13 @@ function onCorner(t: Float64Array, v: Float64Array, k: number): boolean {
 function stencilSpread(t: Float64Array, v: Float64Array, bent: Uint8Array, i: number, u: number, value: number): number {
   const tau = t[i]! + u * (t[i + 1]! - t[i]!);
   let spread = 0;
+  const c = cubicScratch();
   for (const first of [i - 2, i]) {
     if (first < 0 || first + 3 >= t.length) continue;
     if (bent[first] || bent[first + 1] || bent[first + 2] || bent[first + 3]) continue;
-    spread = Math.max(spread, Math.abs(throughFour(t, v, first, tau) - value));
+    // The cubic on interval first + 1 passes through samples first … first + 3.
+    cubicOnInterval(t, v, first + 1, c);
+    spread = Math.max(spread, Math.abs(cubicValue(c, (tau - t[first + 1]!) / (t[first + 2]! - t[first + 1]!)) - value));
   }
   return spread;
-}
-
-/** The cubic through samples first … first + 3, at time tau (Lagrange form). */
-function throughFour(t: Float64Array, v: Float64Array, first: number, tau: number): number {
-  let sum = 0;
-  for (let a = first; a < first + 4; a++) {
-    let weight = 1;
-    for (let b = first; b < first + 4; b++) if (b !== a) weight *= (tau - t[b]!) / (t[a]! - t[b]!);
-    sum += weight * v[a]!;
-  }
-  return sum;
 }
