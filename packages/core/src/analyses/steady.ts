@@ -74,6 +74,12 @@ const MIN_KICK = 1e-6;
 const MAX_KICK = 100;
 /** The second start's swing, as a share of the amplifiers' half range, whatever the first kick (see `runSteady`). */
 const SMALL_KICK_SHARE = 1e-3;
+/**
+ * The second start's first batch is lengthened by the periods its swing needs to grow to the
+ * first kick's at the poles' growth rate (a slowly undamped resonator gains about 1 % a period:
+ * some 500 periods for a thousandfold), at most this many batches of the start-up's default.
+ */
+const GROWTH_BATCHES = 34;
 /** The first shooting waits until the swing changes by less than this fraction per period… */
 const FIRST_LEVEL = 0.1;
 /** …and each retry, after more transient, until it changes this many times less. */
@@ -386,8 +392,9 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     // periods run), so a swing that passes the finer level at once (clipped at the rails, its
     // swing steady while the loop's slow state still moves) costs no string of failed shootings.
     let earliest = 0;
+    const growth = share === SMALL_KICK_SHARE ? growthPeriods(kick / SMALL_KICK_SHARE, growing.real * guessPeriod, GROWTH_BATCHES * Math.max(batch, DEFAULT_STEADY_CYCLES.startup)) : 0;
     for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = stepFailure(() => approach.advance(batch, from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), share !== SMALL_KICK_SHARE, analysis);
+      const where = stepFailure(() => approach.advance(batch + (attempt === 0 ? growth : 0), from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), share !== SMALL_KICK_SHARE, analysis);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (typeof where === "string") {
         diedOut = true;
@@ -434,6 +441,12 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   // from=poles shoots after every few periods whatever the swing does; a slow loop's may still bounce.
   const instead = from === "poles" && why.startsWith("no periodic orbit found") ? `; from=poles shoots every ${batch} periods whether or not the swing has levelled off — from=startup (the default) waits for it` : "";
   return noOrbit({ ...idle(), transient }, startsFrom(pole!) ? `${why}${instead}` : offPairWhy(growing, pole!, transient.periods));
+}
+
+/** Periods a swing growing by e^(σT) a period needs to grow `factor`-fold, at most `most`. */
+function growthPeriods(factor: number, growthPerPeriod: number, most: number): number {
+  const periods = Math.log(factor) / growthPerPeriod;
+  return periods > 0 ? Math.min(Math.ceil(periods), most) : 0;
 }
 
 /**
