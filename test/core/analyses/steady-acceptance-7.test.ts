@@ -4,7 +4,7 @@
 // starts again small, a thousand times below, where the tank gains only 1.4 % a period: the
 // orbit must still be found at the defaults, from either start, at the closed form's frequency.
 import { describe, expect, test } from "vitest";
-import { runPoles, runSteady, type Circuit, type SteadyResult } from "@onset/core";
+import { runPoles, runStartup, runSteady, startupAnalysisOf, type Circuit, type SteadyResult } from "@onset/core";
 import { elaborate, loadProgram } from "@onset/netlist-parser";
 
 const L = 10e-3;
@@ -21,8 +21,8 @@ resistor  Rb t t2 1M
 resistor  Rb2 t2 gnd 1M`;
 
 const circuitOf = (text: string): Circuit => elaborate(loadProgram("acceptance-7.onset", text).program, {}).circuit!;
-const steadyOf = (options: string): SteadyResult => {
-  const circuit = circuitOf(`${TANK}\nsteady ${options}\n`);
+const steadyOf = (options: string, text = TANK): SteadyResult => {
+  const circuit = circuitOf(`${text}\nsteady ${options}\n`);
   return runSteady(circuit, circuit.analyses.find((a) => a.kind === "steady")! as Parameters<typeof runSteady>[1]);
 };
 
@@ -42,5 +42,43 @@ describe("an LC tank held by an ideal clip, slowly undamped", () => {
     const pair = poles.poles.find((p) => p.imag > 0)!;
     const result = steadyOf("probe=t");
     expect(Math.abs(result.frequency! / (pair.imag / (2 * Math.PI)) - 1)).toBeLessThan(5e-4);
+  });
+});
+
+/**
+ * A Wien bridge (13.3 kΩ, 10 nF) whose gain a JFET holds, its gate fed by a peak detector (470 nF,
+ * 680 kΩ): the loop over-corrects, so its orbit is unstable (a disturbance of the envelope grows).
+ */
+const JFET_WIEN = `opamp     U1 p n o preset=general rails=(-15, 15)
+resistor  R1 o s 13.3k
+capacitor C1 s p 10n
+resistor  R2 p gnd 13.3k
+capacitor C2 p gnd 10n
+resistor  Rf o n 22k
+resistor  Rs n d 9.1k
+jfet      J1 d g gnd idss=6m pinchoff=-2
+resistor  Ra d g 330k
+resistor  Rc c g 330k
+diode     D1 c o
+capacitor Cf c gnd 470n
+resistor  Rb c gnd 680k`;
+
+describe("an amplitude loop that over-corrects: an unstable orbit", () => {
+  test("from=poles finds the unstable orbit from=startup finds, with the same figures", () => {
+    const startup = steadyOf("probe=o", JFET_WIEN);
+    const poles = steadyOf("probe=o from=poles", JFET_WIEN);
+    expect(startup.found, startup.explanation).toBe(true);
+    expect(poles.found, poles.explanation).toBe(true);
+    expect(startup.stability!.verdict).toBe("unstable");
+    expect(poles.stability!.verdict).toBe("unstable");
+    expect(Math.abs(poles.frequency! / startup.frequency! - 1)).toBeLessThan(5e-4);
+    expect(Math.abs(poles.amplitude! / startup.amplitude! - 1)).toBeLessThan(5e-3);
+  });
+
+  test("the start-up run from the circuit's noise agrees: its amplitude loop is unstable", () => {
+    // Outside the shooting: the start-up run's envelope collapses and restarts (verdict bouncing).
+    const circuit = circuitOf(`${JFET_WIEN}\nstartup probe=o\n`);
+    const run = runStartup(circuit, startupAnalysisOf(circuit)!);
+    expect(run.verdict).toBe("bouncing");
   });
 });

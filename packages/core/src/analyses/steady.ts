@@ -418,9 +418,10 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     // there fail: it gets one more wait, as long as the patience with a dip, for its swing to
     // level off — shot again each time it has run twice as long, since a swing clipped at the
     // rails looks level long before a slow loop (a lamp of seconds) has brought it off them.
+    // from=poles waits too: its short batches shoot an over-correcting loop's bounce, not its orbit.
     const waitEnd = approach.periods + slowWait;
     let waited = 0;
-    while (!diedOut && from === "startup" && approach.periods < waitEnd) {
+    while (!diedOut && approach.periods < waitEnd) {
       const where = approach.advance(waitEnd - approach.periods, FIRST_LEVEL, check, waited);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
       if (where.kind === "died-out") {
