@@ -1,0 +1,63 @@
+import type { Probe } from "../circuit/circuit.js";
+import { formatQuantity } from "../metrics/format.js";
+import type { ProbeFigures } from "../metrics/probe-figures.js";
+import type { StartupMetrics } from "../metrics/startup.js";
+import type { QuantityUnit } from "../solver/quantities.js";
+import type { MnaSystem } from "../solver/system.js";
+import { largestNode, modeOfPole } from "../steady/growing-mode.js";
+import type { SmallSignal } from "./linearize.js";
+import { startsFrom, type Pole } from "./poles.js";
+
+/**
+ * The node a start-up's outcome is judged at when that is not the probe: the node the growing
+ * mode of the bias point's dominant pair swings most (as `steady` watches it). A probe may swing
+ * at a harmonic (a lamp's temperature follows the power, at 2f), barely at all (a supply node),
+ * or through a slow detector, and the verdict, start-up and settling times must not depend on
+ * where it is. Null when the probe is that node, or the poles give no growing mode (a circuit
+ * that does not start, a driven one): the probe is judged.
+ */
+export function judgedNode(system: MnaSystem, linearised: () => SmallSignal, pole: Pole | null, probe: Probe): Probe | null {
+  if (!pole || !(pole.imag > 0) || !startsFrom(pole)) return null;
+  const mode = modeOfPole(linearised(), pole);
+  if (!mode) return null;
+  const unknown = system.unknowns[largestNode(mode, system.unknowns)];
+  if (!unknown?.isNode || (probe.kind === "node" && probe.node === unknown.label)) return null;
+  return { kind: "node", node: unknown.label };
+}
+
+/**
+ * The start-up's outcome judged at `judgedAt` (verdict, times, growth, envelope dynamics, cycles)
+ * with the probe's own figures, and an explanation that names both: where the outcome was judged
+ * and what it is, then how the probe swings — at which harmonic when not the fundamental (THD is
+ * then over a fundamental it barely has), or no more than the excitation's noise there.
+ */
+export function probeView(
+  judged: StartupMetrics,
+  probe: ProbeFigures & { readonly frequency: number | null; readonly envelope: Float64Array },
+  names: { readonly probe: string; readonly judgedAt: string; readonly unit: QuantityUnit; readonly noise: number },
+): StartupMetrics {
+  const { frequency, envelope, ...figures } = probe;
+  return {
+    ...judged,
+    ...figures,
+    frequency: frequency ?? judged.frequency,
+    explanation: `at node ${names.judgedAt}, where the oscillation swings most: ${judged.explanation}; ${swingText(probe, names)}`,
+    // The envelope's slow dynamics are the loop's, the same at every node; its fit is in the judged node's unit.
+    envelope: { ...judged.envelope, value: envelope, fit: null },
+  };
+}
+
+function swingText(probe: ProbeFigures, names: { readonly probe: string; readonly unit: QuantityUnit; readonly noise: number }): string {
+  const at = `the probe ${names.probe}`;
+  const offset = formatQuantity(probe.offset!, names.unit);
+  if (probe.amplitude === null) return `${at} rests at ${offset}`;
+  const swing = `${at} swings ${formatQuantity(probe.amplitude, names.unit)} peak about ${offset}`;
+  if (names.noise > 0 && probe.amplitude <= names.noise) return `${swing}, no more than the excitation's noise there`;
+  const [fundamental, ...rest] = probe.harmonics;
+  if (!fundamental) return swing;
+  let top = fundamental;
+  for (const h of rest) if (h.amplitude > top.amplitude) top = h;
+  if (top === fundamental) return swing;
+  const u = names.unit;
+  return `${swing}, mostly at ${top.order}·f (${formatQuantity(top.amplitude, u)} at ${formatQuantity(top.frequency, "Hz")}); its THD is over its ${formatQuantity(fundamental.amplitude, u)} at f`;
+}
