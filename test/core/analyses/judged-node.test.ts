@@ -4,6 +4,7 @@ import { describe, expect, test } from "vitest";
 import { analysisOf, runStartup, runSteady, type Circuit, type StartupAnalysis, type StartupResult, type SteadyAnalysis } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { LAMP_WIEN } from "../../e2e/support/steady-circuits.js";
+import { circuit, part, wienNetwork } from "../../support/circuits.js";
 
 const build = (text: string): Circuit => buildCircuit(loadSource("t.onset", text)).circuit;
 const startup = (text: string, limits?: { maxStoredPoints: number }): StartupResult => {
@@ -109,5 +110,41 @@ describe("a probe that reads the judged node's values through the second record"
     expect(bounded.run.judgedAt).toBe("o");
     expect(bounded.run.solver.accepted).toBeGreaterThan(20_000);
     expect(bounded.waveform.time.length).toBeLessThanOrEqual(10_001);
+  });
+});
+
+describe("a probe on a second oscillator is judged itself", () => {
+  // A 1.6 kHz diode-limited Wien bridge at o, and beside it a 16 kHz one at o2 that grows faster:
+  // the dominant pair's mode swings most at o2 and not at all at o.
+  const parts = [
+    ...wienNetwork({ R1: 10e3, R2: 10e3, C1: 10e-9, C2: 10e-9 }),
+    part("resistor", "Rg", ["n", "gnd"], 10e3),
+    part("resistor", "Rf1", ["n", "f"], 15e3),
+    part("resistor", "Rf2", ["f", "o"], 6.8e3),
+    part("diode", "D1", ["f", "o"]),
+    part("diode", "D2", ["o", "f"]),
+    part("opamp", "U1", ["p", "n", "o"], undefined, { rails: [-12, 12] }),
+    part("resistor", "S1", ["o2", "s2"], 10e3),
+    part("capacitor", "K1", ["s2", "p2"], 1e-9),
+    part("resistor", "S2", ["p2", "gnd"], 10e3),
+    part("capacitor", "K2", ["p2", "gnd"], 1e-9),
+    part("resistor", "Sg", ["n2", "gnd"], 10e3),
+    part("resistor", "Sf", ["n2", "o2"], 25e3),
+    part("opamp", "U2", ["p2", "n2", "o2"], undefined, { rails: [-12, 12], gbw: 100e6, slew: 100e6 }),
+  ];
+  const run = (node: string) => runStartup(circuit(parts), { kind: "startup", probe: { kind: "node", node }, until: "auto" });
+
+  test("its steady oscillation at another frequency is its own outcome, and the explanation names the other one", () => {
+    const slow = run("o");
+    expect(slow.run.judgedAt).toBeUndefined();
+    expect(slow.verdict).toBe("parasitic");
+    expect(slow.frequency!).toBeLessThan(2e3);
+    expect(slow.explanation).toMatch(/; judged at the probe: its oscillation is not the one at node o2 \(1\d\.\d+ kHz\), where the bias point's growing mode swings most$/);
+  });
+
+  test("a probe inside the faster one is judged at its output", () => {
+    const fast = run("p2");
+    expect(fast.run.judgedAt).toBe("o2");
+    expect(fast.frequency!).toBeGreaterThan(10e3);
   });
 });

@@ -25,6 +25,30 @@ export function judgedNode(system: MnaSystem, linearised: () => SmallSignal, pol
   return { kind: "node", node: unknown.label };
 }
 
+/** Verdicts of a swing above the noise that does not die away. */
+const OSCILLATING: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "relaxation", "parasitic", "growing", "unsettled", "bouncing"]);
+/** …and those of one that repeats. */
+const STEADY: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "relaxation", "parasitic"]);
+/** A frequency within this fraction of a whole multiple of another is its harmonic. */
+const HARMONIC_MATCH = 0.01;
+
+/**
+ * What the probe's own record shows beside the judged node's: `judged` — nothing of its own (no
+ * swing above its noise, a swing dying away, or one at the judged frequency or a harmonic of it:
+ * a filament's temperature at 2f, a detector's ripple); `own` — a steady oscillation at another
+ * frequency (a second oscillator in the circuit, or the judged node without any), which the
+ * probe is judged on itself; `forming` — such an oscillation still growing or moving, which an
+ * `until=auto` run waits for before it stops.
+ */
+export function probeOscillation(own: StartupMetrics, judged: StartupMetrics): "judged" | "own" | "forming" {
+  if (!OSCILLATING.has(own.verdict) || own.frequency === null) return "judged";
+  if (judged.frequency !== null) {
+    const k = Math.round(own.frequency / judged.frequency);
+    if (k >= 1 && Math.abs(own.frequency / (k * judged.frequency) - 1) <= HARMONIC_MATCH) return "judged";
+  }
+  return STEADY.has(own.verdict) ? "own" : "forming";
+}
+
 /**
  * The start-up's outcome judged at `judgedAt` (verdict, times, growth, envelope dynamics, cycles)
  * with the probe's own figures, and an explanation that names both: where the outcome was judged

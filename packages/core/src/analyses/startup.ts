@@ -25,7 +25,7 @@ import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { isOrbitFailure, settledOrbit, type SettledOrbit } from "./settled-orbit.js";
 import { orbitFigures } from "../steady/orbit-metrics.js";
-import { judgedNode, probeView } from "./judged-node.js";
+import { judgedNode, probeOscillation, probeView } from "./judged-node.js";
 import { largestStateDrift } from "./state-drift.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
@@ -34,6 +34,7 @@ import { watchOperation } from "./operating-check.js";
 import { refuseShortWindow, refuseSparseRecord } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
+import type { TailRecord } from "./tail-record.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -208,10 +209,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const noiseAt = (probe: Probe) => (setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, probe, bias.x), setup.generators, setup.bank.corner, poles, () => budget.check("during the noise level at the probe", analysis.span)) : 0);
   const noiseAtProbe = noiseAt(analysis.probe);
   // The outcome is judged where the growing mode swings most, whatever the probe (the probe's own figures are reported).
-  const judgedAt = judgedNode(plain, () => linearize(plain, bias.x), pole, analysis.probe);
-  const judged = judgedAt ?? analysis.probe;
-  const judgedUnit = probeUnit(system, judged);
-  const noiseAtJudged = judgedAt ? noiseAt(judgedAt) : noiseAtProbe;
+  let judgedAt = judgedNode(plain, () => linearize(plain, bias.x), pole, analysis.probe);
+  let judgedUnit = probeUnit(system, judgedAt ?? analysis.probe);
+  let noiseAtJudged = judgedAt ? noiseAt(judgedAt) : noiseAtProbe;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
@@ -221,7 +221,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const recordRun = { until: analysis.until, maxStep, frequency: pole && pole.imag > 0 ? f0 : null, ...(analysis.span ? { span: analysis.span } : {}) };
   const record = startupRecord(budget, recordRun, records);
   // A second record of the same time points at the judged node, within the same stored points.
-  const judgedRecord = judgedAt ? startupRecord(budget, recordRun, records) : record;
+  let judgedRecord = judgedAt ? startupRecord(budget, recordRun, records) : record;
   const readJudged = judgedAt ? probeReader(system, judgedAt) : read;
   let steps = 0;
   stepper.observe((t, x, dxdt) => {
@@ -238,24 +238,42 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);
   let judgement: StartupJudgement | undefined;
-  const measure = () => {
-    const { time, values } = judgedRecord.toArrays();
+  const judge = (from: TailRecord, noise: number, unit: QuantityUnit) => {
+    const { time, values } = from.toArrays();
     refuseSparseRecord(analysis, time.length, stepper.t, maxStep);
-    judgement = judgeStartup(time, values, {
+    const judged = judgeStartup(time, values, {
       maxOrder: windowOrder,
-      noiseFloor: NOISE_PEAK * noiseAtJudged,
+      noiseFloor: NOISE_PEAK * noise,
       ...(limit === undefined ? {} : { amplitudeLimit: limit }),
       ...(prediction ? { prediction } : {}),
       drives,
       searchFrom,
-      unit: judgedUnit,
+      unit,
     });
-    checkResolved(budget, judgedRecord, judgement.metrics.frequency, analysis.span, records);
+    checkResolved(budget, from, judged.metrics.frequency, analysis.span, records);
+    return judged;
+  };
+  let orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=", judgedAt };
+  /** The probe shows an oscillation of its own still forming (an `until=auto` run waits for it). */
+  let forming = false;
+  const measure = () => {
+    judgement = judge(judgedRecord, noiseAtJudged, judgedUnit);
+    if (!judgedAt) return judgement.metrics;
+    const own = judge(record, noiseAtProbe, probeUnit(system, analysis.probe));
+    const relation = probeOscillation(own.metrics, judgement.metrics);
+    forming = relation === "forming";
+    if (relation === "own") {
+      // A second oscillator: the probe watches an outcome of its own, and is judged itself from now on.
+      const f = judgement.metrics.frequency;
+      const explanation = `${own.metrics.explanation}; judged at the probe: its oscillation is not the one at node ${probeName(judgedAt)}${f === null ? "" : ` (${formatQuantity(f, "Hz")})`}, where the bias point's growing mode swings most`;
+      [judgedAt, judgedRecord, noiseAtJudged, judgedUnit] = [null, record, noiseAtProbe, probeUnit(system, analysis.probe)];
+      orbitSettings = { ...orbitSettings, judgedAt };
+      judgement = { ...own, metrics: { ...own.metrics, explanation } };
+    }
     return judgement.metrics;
   };
   let metrics: StartupMetrics;
   const settledFromOrbit = options.settledFromOrbit ?? true;
-  const orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=", judgedAt };
   /** The settled figures, once found (see `refineSettled`). */
   let refined: ReturnType<typeof refineSettled> | undefined;
   const warnings = defaultWarnings(circuit);
@@ -280,7 +298,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
         FINAL_VERDICTS.has(metrics.verdict) ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
-      if (done) break;
+      if (done && !(forming && target < bound)) break;
       const extra = metrics.suggestedExtraTime ?? target;
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
@@ -454,9 +472,9 @@ function refineSettled(
     };
   }
   const settled = { from: "orbit" as const, note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points };
-  // Judged elsewhere, the orbit's figures are the probe's, merged with its run figures by the caller.
   // The one-line explanation names the settled amplitude and frequency: the orbit's now.
   const explanation = metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(swing, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`);
+  // Judged elsewhere, the orbit's figures are the probe's: the caller reports them beside the judged outcome.
   if (s.judgedAt) return { metrics: { ...metrics, explanation }, numericalError: orbit.numericalError, orders, settled, orbit };
   return {
     metrics: {
