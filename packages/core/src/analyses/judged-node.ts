@@ -32,19 +32,23 @@ const STEADY: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "rela
 /** A frequency within this fraction of a whole multiple of another is its harmonic. */
 const HARMONIC_MATCH = 0.01;
 
+/** A probe's oscillation within this factor of another growing pair's frequency is that pair's (a grown swing moves its frequency by a few per cent). */
+const PAIR_MATCH = 1.25;
+
 /**
  * What the probe's own record shows beside the judged node's: `judged` — nothing of its own (no
- * swing above its noise, a swing dying away, or one at the judged frequency or a harmonic of it:
- * a filament's temperature at 2f, a detector's ripple); `own` — a steady oscillation at another
- * frequency (a second oscillator in the circuit, or the judged node without any), which the
- * probe is judged on itself; `forming` — such an oscillation still growing or moving, which an
- * `until=auto` run waits for before it stops.
+ * swing above its noise, a swing dying away, one at the judged frequency or a harmonic of it — a
+ * filament's temperature at 2f, a detector's ripple — or one no other growing pair predicts);
+ * `own` — a steady oscillation at the frequency of another growing pair of the bias point
+ * (`others`, Hz): a second oscillator in the circuit, which the probe is judged on itself;
+ * `forming` — that oscillation still growing or moving, which an `until=auto` run waits for.
  */
-export function probeOscillation(own: StartupMetrics, judged: StartupMetrics): "judged" | "own" | "forming" {
-  if (!OSCILLATING.has(own.verdict) || own.frequency === null) return "judged";
+export function probeOscillation(own: StartupMetrics, judged: StartupMetrics, others: readonly number[]): "judged" | "own" | "forming" {
+  const f = own.frequency;
+  if (!OSCILLATING.has(own.verdict) || f === null || !others.some((o) => f < PAIR_MATCH * o && o < PAIR_MATCH * f)) return "judged";
   if (judged.frequency !== null) {
-    const k = Math.round(own.frequency / judged.frequency);
-    if (k >= 1 && Math.abs(own.frequency / (k * judged.frequency) - 1) <= HARMONIC_MATCH) return "judged";
+    const k = Math.round(f / judged.frequency);
+    if (k >= 1 && Math.abs(f / (k * judged.frequency) - 1) <= HARMONIC_MATCH) return "judged";
   }
   return STEADY.has(own.verdict) ? "own" : "forming";
 }

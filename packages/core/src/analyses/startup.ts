@@ -254,13 +254,15 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     return judged;
   };
   let orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=", judgedAt };
+  // The frequencies of the other growing pairs: a second oscillator the probe may watch.
+  const otherPairs = poles.filter((p) => p !== pole && p.imag > 0 && startsFrom(p)).map((p) => p.imag / (2 * Math.PI));
   /** The probe shows an oscillation of its own still forming (an `until=auto` run waits for it). */
   let forming = false;
   const measure = () => {
     judgement = judge(judgedRecord, noiseAtJudged, judgedUnit);
     if (!judgedAt) return judgement.metrics;
     const own = judge(record, noiseAtProbe, probeUnit(system, analysis.probe));
-    const relation = probeOscillation(own.metrics, judgement.metrics);
+    const relation = probeOscillation(own.metrics, judgement.metrics, otherPairs);
     forming = relation === "forming";
     if (relation === "own") {
       // A second oscillator: the probe watches an outcome of its own, and is judged itself from now on.
