@@ -260,7 +260,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   let forming = false;
   const measure = () => {
     judgement = judge(judgedRecord, noiseAtJudged, judgedUnit);
-    if (!judgedAt) return judgement.metrics;
+    // Only another growing pair makes a second oscillator the probe could watch.
+    if (!judgedAt || otherPairs.length === 0) return judgement.metrics;
     const own = judge(record, noiseAtProbe, probeUnit(system, analysis.probe));
     const relation = probeOscillation(own.metrics, judgement.metrics, otherPairs);
     forming = relation === "forming";
