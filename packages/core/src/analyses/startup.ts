@@ -258,6 +258,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const otherPairs = poles.filter((p) => p !== pole && p.imag > 0 && startsFrom(p)).map((p) => p.imag / (2 * Math.PI));
   /** The probe shows an oscillation of its own still forming (an `until=auto` run waits for it). */
   let forming = false;
+  /** Once the probe is judged on an oscillation of its own: what the explanation adds about the other. */
+  let otherOscillator = "";
   const measure = () => {
     judgement = judge(judgedRecord, noiseAtJudged, judgedUnit);
     // Only another growing pair makes a second oscillator the probe could watch.
@@ -268,10 +270,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     if (relation === "own") {
       // A second oscillator: the probe watches an outcome of its own, and is judged itself from now on.
       const f = judgement.metrics.frequency;
-      const explanation = `${own.metrics.explanation}; judged at the probe: its oscillation is not the one at node ${probeName(judgedAt)}${f === null ? "" : ` (${formatQuantity(f, "Hz")})`}, where the bias point's growing mode swings most`;
-      [judgedAt, judgedRecord, noiseAtJudged, judgedUnit] = [null, record, noiseAtProbe, probeUnit(system, analysis.probe)];
+      otherOscillator = `; judged at the probe: its oscillation is not the one at node ${probeName(judgedAt)}${f === null ? "" : ` (${formatQuantity(f, "Hz")})`}, where the bias point's growing mode swings most`;
+      [judgedAt, judgedRecord, noiseAtJudged, judgedUnit, judgement] = [null, record, noiseAtProbe, probeUnit(system, analysis.probe), own];
       orbitSettings = { ...orbitSettings, judgedAt };
-      judgement = { ...own, metrics: { ...own.metrics, explanation } };
     }
     return judgement.metrics;
   };
@@ -326,7 +327,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, judgedUnit, raise) };
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
-  const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : refined.metrics;
+  const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
