@@ -58,7 +58,8 @@ describe("the JFET-held Wien bridge has one outcome on the output, the detector 
     expect(c!.amplitude!).toBeLessThan(0.01 * o!.amplitude!);
     expect(g!.offset!).toBeLessThan(-1);
     expect(c!.frequency).toBe(o!.frequency);
-    expect(c!.explanation).toMatch(/^at node o, where the oscillation swings most: settled at .+; the probe c swings .+ peak about -3\.\d+ V$/);
+    // Settled, the explanation names the probe's swing, and where the outcome was judged.
+    expect(c!.explanation).toMatch(/^settled at 1\.\d+ mV peak and 2\.004 kHz, 90 % reached at 7\.41 ms; .+ \(judged at node o, where the oscillation swings most\)$/);
   });
 });
 
@@ -90,7 +91,7 @@ describe("the lamp-stabilised Wien bridge probed at the filament's temperature",
     const [first, second] = temperature.harmonics;
     expect(second!.amplitude).toBeGreaterThan(1000 * first!.amplitude);
     expect(Math.abs(temperature.amplitude! / second!.amplitude - 1)).toBeLessThan(0.01);
-    expect(temperature.explanation).toMatch(/the probe L1\.temperature swings .+K peak about 525\.\d K, mostly at 2·f \(.+ at 5\.60\d kHz\); its THD is over its .+ at f$/);
+    expect(temperature.explanation).toMatch(/^settled at 1\d\d\.\d mK peak and 2\.80\d kHz, .+ \(judged at node o, where the oscillation swings most\); the probe swings mostly at 2·f \(.+ at 5\.60\d kHz\) about 525\.\d K, and its THD is over its .+ at f$/);
   });
 });
 

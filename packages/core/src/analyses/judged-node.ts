@@ -1,6 +1,7 @@
 import type { Probe } from "../circuit/circuit.js";
 import { formatQuantity } from "../metrics/format.js";
 import type { ProbeFigures } from "../metrics/probe-figures.js";
+import type { Harmonic } from "../metrics/spectrum.js";
 import type { StartupMetrics } from "../metrics/startup.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
@@ -53,11 +54,16 @@ export function probeOscillation(own: StartupMetrics, judged: StartupMetrics, ot
   return STEADY.has(own.verdict) ? "own" : "forming";
 }
 
+/** The head of a settled explanation: the amplitude and frequency it names. */
+export const SETTLED_AT = /^settled at .+? peak and .+?Hz/;
+
 /**
  * The start-up's outcome judged at `judgedAt` (verdict, times, growth, envelope dynamics, cycles)
- * with the probe's own figures, and an explanation that names both: where the outcome was judged
- * and what it is, then how the probe swings — at which harmonic when not the fundamental (THD is
- * then over a fundamental it barely has), or no more than the excitation's noise there.
+ * with the probe's own figures, and an explanation that names both. Settled, it reads as the
+ * probe's (its amplitude, in its unit) and says where it was judged; otherwise the judged node's
+ * explanation comes first, then how the probe swings. Either way it says when the probe swings
+ * mostly at a harmonic (THD is then over a fundamental it barely has), or no more than the
+ * excitation's noise there.
  */
 export function probeView(
   judged: StartupMetrics,
@@ -65,27 +71,53 @@ export function probeView(
   names: { readonly probe: string; readonly judgedAt: string; readonly unit: QuantityUnit; readonly noise: number },
 ): StartupMetrics {
   const { frequency, envelope, ...figures } = probe;
+  const f = frequency ?? judged.frequency;
+  const where = `node ${names.judgedAt}, where the oscillation swings most`;
+  const settled = SETTLED_AT.test(judged.explanation) && probe.amplitude !== null && f !== null;
+  const explanation = settled
+    ? `${judged.explanation.replace(SETTLED_AT, `settled at ${formatQuantity(probe.amplitude!, names.unit)} peak and ${formatQuantity(f!, "Hz")}`)} (judged at ${where})${settledNote(probe, names)}`
+    : `at ${where}: ${judged.explanation}; ${swingText(probe, names)}`;
   return {
     ...judged,
     ...figures,
-    frequency: frequency ?? judged.frequency,
-    explanation: `at node ${names.judgedAt}, where the oscillation swings most: ${judged.explanation}; ${swingText(probe, names)}`,
+    frequency: f,
+    explanation,
     // The envelope's slow dynamics are the loop's, the same at every node; its fit is in the judged node's unit.
     envelope: { ...judged.envelope, value: envelope, fit: null },
   };
 }
 
-function swingText(probe: ProbeFigures, names: { readonly probe: string; readonly unit: QuantityUnit; readonly noise: number }): string {
+type SwingNames = { readonly probe: string; readonly unit: QuantityUnit; readonly noise: number };
+
+/** After a settled explanation in the probe's figures: what is unusual in its swing. */
+function settledNote(probe: ProbeFigures, names: SwingNames): string {
+  if (withinNoise(probe, names)) return "; the probe's swing is no more than the excitation's noise there";
+  const h = harmonicSwing(probe);
+  if (!h) return "";
+  const u = names.unit;
+  return `; the probe swings mostly at ${h.top.order}·f (${formatQuantity(h.top.amplitude, u)} at ${formatQuantity(h.top.frequency, "Hz")}) about ${formatQuantity(probe.offset!, u)}, and its THD is over its ${formatQuantity(h.fundamental.amplitude, u)} at f`;
+}
+
+/** How the probe swings, after an explanation of the judged node's. */
+function swingText(probe: ProbeFigures, names: SwingNames): string {
+  const u = names.unit;
   const at = `the probe ${names.probe}`;
-  const offset = formatQuantity(probe.offset!, names.unit);
-  if (probe.amplitude === null) return `${at} rests at ${offset}`;
-  const swing = `${at} swings ${formatQuantity(probe.amplitude, names.unit)} peak about ${offset}`;
-  if (names.noise > 0 && probe.amplitude <= names.noise) return `${swing}, no more than the excitation's noise there`;
+  if (probe.amplitude === null) return `${at} rests at ${formatQuantity(probe.offset!, u)}`;
+  const swing = `${at} swings ${formatQuantity(probe.amplitude, u)} peak about ${formatQuantity(probe.offset!, u)}`;
+  if (withinNoise(probe, names)) return `${swing}, no more than the excitation's noise there`;
+  const h = harmonicSwing(probe);
+  return h ? `${swing}, mostly at ${h.top.order}·f (${formatQuantity(h.top.frequency, "Hz")})` : swing;
+}
+
+function withinNoise(probe: ProbeFigures, names: SwingNames): boolean {
+  return probe.amplitude !== null && names.noise > 0 && probe.amplitude <= names.noise;
+}
+
+/** The probe's largest harmonic when that is not the fundamental (a filament's temperature at 2f). */
+function harmonicSwing(probe: ProbeFigures): { readonly top: Harmonic; readonly fundamental: Harmonic } | null {
   const [fundamental, ...rest] = probe.harmonics;
-  if (!fundamental) return swing;
+  if (!fundamental) return null;
   let top = fundamental;
   for (const h of rest) if (h.amplitude > top.amplitude) top = h;
-  if (top === fundamental) return swing;
-  const u = names.unit;
-  return `${swing}, mostly at ${top.order}·f (${formatQuantity(top.amplitude, u)} at ${formatQuantity(top.frequency, "Hz")}); its THD is over its ${formatQuantity(fundamental.amplitude, u)} at f`;
+  return top === fundamental ? null : { top, fundamental };
 }

@@ -25,7 +25,7 @@ import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { isOrbitFailure, settledOrbit, type SettledOrbit } from "./settled-orbit.js";
 import { orbitFigures } from "../steady/orbit-metrics.js";
-import { judgedNode, probeOscillation, probeView } from "./judged-node.js";
+import { judgedNode, probeOscillation, probeView, SETTLED_AT } from "./judged-node.js";
 import { largestStateDrift } from "./state-drift.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
@@ -477,7 +477,7 @@ function refineSettled(
   }
   const settled = { from: "orbit" as const, note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points };
   // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-  const explanation = metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(swing, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`);
+  const explanation = metrics.explanation.replace(SETTLED_AT, `settled at ${formatQuantity(swing, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`);
   // Judged elsewhere, the orbit's figures are the probe's: the caller reports them beside the judged outcome.
   if (s.judgedAt) return { metrics: { ...metrics, explanation }, numericalError: orbit.numericalError, orders, settled, orbit };
   return {
