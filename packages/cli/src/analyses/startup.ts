@@ -13,6 +13,7 @@ export function startupJson(r: StartupResult): Json {
     analysis: "startup",
     probe: r.probe,
     unit: r.unit,
+    judgedAt: r.run.judgedAt,
     verdict: r.verdict,
     explanation: r.explanation,
     frequency: r.frequency,

@@ -87,7 +87,9 @@ export function startupReport(r: StartupResult, unit: QuantityUnit, p: Paint): s
   const s = r.run.solver;
   const x = r.run.excitation;
   const first = x.firstCycleRms === null ? "" : `; ${si(x.firstCycleRms, unit, 3)} rms at the probe over the first cycle${x.kind === "power-on" ? " after the ramp" : ""}`;
-  lines.push("", p.dim(`  settled figures: ${settledText(r)}`));
+  lines.push("");
+  if (r.run.judgedAt !== undefined) lines.push(p.dim(`  judged at: node ${r.run.judgedAt}, where the oscillation swings most (verdict, start-up and settling times); the figures are the probe's`));
+  lines.push(p.dim(`  settled figures: ${settledText(r)}`));
   lines.push(
     p.dim(`  excitation: ${excitationText(x, unit)}${first}`),
     p.dim(`  simulated ${si(r.run.until, "s")}, largest step ${si(r.run.maxStep, "s", 3)}`),

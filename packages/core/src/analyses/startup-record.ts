@@ -9,9 +9,9 @@ import { TailRecord } from "./tail-record.js";
  */
 export const MIN_POINTS_PER_PERIOD = 32;
 
-/** Time points a start-up run keeps within `stored-points` values (a time and a value each). */
-function storedTimes(maxStoredPoints: number): number {
-  return maxStoredPoints === Infinity ? Infinity : Math.max(64, Math.floor(maxStoredPoints / 2));
+/** Time points each of a start-up run's `records` keeps within `stored-points` values (a time and a value each). */
+function storedTimes(maxStoredPoints: number, records: number): number {
+  return maxStoredPoints === Infinity ? Infinity : Math.max(64, Math.floor(maxStoredPoints / (2 * records)));
 }
 
 /**
@@ -22,9 +22,9 @@ function resolvablePeriods(times: number): number {
   return (times * 3) / 4 / MIN_POINTS_PER_PERIOD;
 }
 
-function tooCoarse(budget: RunBudget, periods: number, why: string, span?: SourceSpan) {
+function tooCoarse(budget: RunBudget, records: number, periods: number, why: string, span?: SourceSpan) {
   // Enough however thinning falls: the older share at least half full at 32 points per period.
-  const needed = Math.ceil((periods * MIN_POINTS_PER_PERIOD * 16) / 3);
+  const needed = Math.ceil((periods * MIN_POINTS_PER_PERIOD * 8 * 2 * records) / 3);
   return storedPointsError(
     budget.maxStoredPoints,
     needed,
@@ -34,25 +34,27 @@ function tooCoarse(budget: RunBudget, periods: number, why: string, span?: Sourc
 }
 
 /**
- * The probe record of a start-up run within the budget's stored points (see {@link TailRecord}).
- * With a predicted frequency, a fixed-length run that would thin its record below
+ * The probe record of a start-up run within the budget's stored points (see {@link TailRecord}),
+ * shared with the run's other `records` (the node its outcome is judged at, when that is not the
+ * probe: two records of the same time points, each within half the points). With a predicted frequency, a fixed-length run that would thin its record below
  * {@link MIN_POINTS_PER_PERIOD} is refused before it starts, and any run stops as soon as
  * thinning would go below it.
  */
 export function startupRecord(
   budget: RunBudget,
   run: { readonly until: number | "auto"; readonly maxStep: number; readonly frequency: number | null; readonly span?: SourceSpan },
+  records = 1,
 ): TailRecord {
-  const times = storedTimes(budget.maxStoredPoints);
+  const times = storedTimes(budget.maxStoredPoints, records);
   const record = new TailRecord(times);
   const f = run.frequency;
   if (f === null || times === Infinity) return record;
   if (typeof run.until === "number" && run.until / run.maxStep > times && run.until * f > resolvablePeriods(times)) {
-    throw tooCoarse(budget, run.until * f, `the start-up run until=${run.until} s was not started`, run.span);
+    throw tooCoarse(budget, records, run.until * f, `the start-up run until=${run.until} s was not started`, run.span);
   }
   record.onThin = (spacing, now) => {
     if (spacing * f * MIN_POINTS_PER_PERIOD > 1) {
-      throw tooCoarse(budget, now * f, `the start-up run stopped at t = ${Number(now.toPrecision(4))} s`, run.span);
+      throw tooCoarse(budget, records, now * f, `the start-up run stopped at t = ${Number(now.toPrecision(4))} s`, run.span);
     }
   };
   return record;
@@ -62,9 +64,9 @@ export function startupRecord(
  * Refuses a measurement whose record was thinned below {@link MIN_POINTS_PER_PERIOD} at the
  * measured frequency (an oscillation the linear prediction did not foresee).
  */
-export function checkResolved(budget: RunBudget, record: TailRecord, frequency: number | null, span?: SourceSpan): void {
+export function checkResolved(budget: RunBudget, record: TailRecord, frequency: number | null, span?: SourceSpan, records = 1): void {
   const spacing = record.olderSpacing();
   if (frequency === null || spacing === 0 || spacing * frequency * MIN_POINTS_PER_PERIOD <= 1) return;
   const periods = record.lastTime * frequency;
-  throw tooCoarse(budget, periods, `the start-up run's measurement was refused`, span);
+  throw tooCoarse(budget, records, periods, `the start-up run's measurement was refused`, span);
 }

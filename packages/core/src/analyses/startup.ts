@@ -1,11 +1,12 @@
 import { checkAnalysis, checkAnalysisFields, checkCircuit, checkOptions, checkSeconds } from "../circuit/arguments.js";
 import { startupOptions } from "./kinds/startup-options.js";
-import type { Circuit, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
+import type { Circuit, Probe, StartupAnalysis, StartupKick } from "../circuit/circuit.js";
 import { probeName } from "../circuit/circuit.js";
 import { isOnsetError, type Diagnostic } from "../circuit/diagnostic.js";
 import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatPercent, formatQuantity } from "../metrics/format.js";
-import { measureStartup, type StartupMetrics } from "../metrics/startup.js";
+import { probeFigures, type ProbeFigures } from "../metrics/probe-figures.js";
+import { judgeStartup, type StartupJudgement, type StartupMetrics } from "../metrics/startup.js";
 import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
 import type { LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
@@ -22,7 +23,9 @@ import { latchedAt, outputRange } from "./latch.js";
 import { linearize, type SmallSignal } from "./linearize.js";
 import { noiseLevel } from "./noise-level.js";
 import { dominantPair, pencilPoles, startsFrom, type Pole } from "./poles.js";
-import { isOrbitFailure, settledOrbit } from "./settled-orbit.js";
+import { isOrbitFailure, settledOrbit, type SettledOrbit } from "./settled-orbit.js";
+import { orbitFigures } from "../steady/orbit-metrics.js";
+import { judgedNode, probeOscillation, probeView, SETTLED_AT } from "./judged-node.js";
 import { largestStateDrift } from "./state-drift.js";
 import { probeReader, probeUnit, probeWeights } from "./probes.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
@@ -31,6 +34,7 @@ import { watchOperation } from "./operating-check.js";
 import { refuseShortWindow, refuseSparseRecord } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
+import type { TailRecord } from "./tail-record.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -71,6 +75,11 @@ export interface StartupRun {
   /** The linear prediction at the bias point, used to size the run and to classify it. */
   readonly predicted: { readonly frequency: number | null; readonly growthRate: number | null; readonly starts: boolean; readonly realGrowth: boolean };
   readonly solver: StepperStats;
+  /**
+   * The node the outcome (verdict, start-up and settling times, when to stop) was judged at,
+   * when that is not the probe: the one the growing mode swings most (see `judgedNode`).
+   */
+  readonly judgedAt?: string;
 }
 
 /** The start-up time over several noise seeds (`seeds=`): a noise-started oscillator's start-up is a distribution. */
@@ -197,16 +206,27 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
 
   // The noise level the tool's own excitation leaves at the probe, through the linearised circuit.
   // (A frequency where the circuit is singular is left out of its integral, so it does not throw.)
-  const noiseAtProbe = setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, analysis.probe, bias.x), setup.generators, setup.bank.corner, poles, () => budget.check("during the noise level at the probe", analysis.span)) : 0;
+  const noiseAt = (probe: Probe) => (setup.generators.length > 0 ? noiseLevel(linearize(plain, bias.x), probeWeights(plain, probe, bias.x), setup.generators, setup.bank.corner, poles, () => budget.check("during the noise level at the probe", analysis.span)) : 0);
+  const noiseAtProbe = noiseAt(analysis.probe);
+  // The outcome is judged where the growing mode swings most, whatever the probe (the probe's own figures are reported).
+  let judgedAt = judgedNode(plain, () => linearize(plain, bias.x), pole, analysis.probe);
+  let judgedUnit = probeUnit(system, judgedAt ?? analysis.probe);
+  let noiseAtJudged = judgedAt ? noiseAt(judgedAt) : noiseAtProbe;
   const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
   const read = probeReader(system, analysis.probe);
-  const record = startupRecord(budget, { until: analysis.until, maxStep, frequency: pole && pole.imag > 0 ? f0 : null, ...(analysis.span ? { span: analysis.span } : {}) });
+  const records = judgedAt ? 2 : 1;
+  const recordRun = { until: analysis.until, maxStep, frequency: pole && pole.imag > 0 ? f0 : null, ...(analysis.span ? { span: analysis.span } : {}) };
+  const record = startupRecord(budget, recordRun, records);
+  // A second record of the same time points at the judged node, within the same stored points.
+  let judgedRecord = judgedAt ? startupRecord(budget, recordRun, records) : record;
+  const readJudged = judgedAt ? probeReader(system, judgedAt) : read;
   let steps = 0;
   stepper.observe((t, x, dxdt) => {
     record.push(t, read(x, dxdt, t));
+    if (judgedRecord !== record) judgedRecord.push(t, readJudged(x, dxdt, t));
     if (options.onProgress && ++steps % 4096 === 0) options.onProgress(t, typeof analysis.until === "number" ? analysis.until : NaN);
   });
   const watch = watchOperation(stepper);
@@ -217,24 +237,47 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const searchFrom = powerOn ? powerOn.ramp : 0;
   const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);
-  const measure = () => {
-    const { time, values } = record.toArrays();
+  let judgement: StartupJudgement | undefined;
+  const judge = (from: TailRecord, noise: number, unit: QuantityUnit) => {
+    const { time, values } = from.toArrays();
     refuseSparseRecord(analysis, time.length, stepper.t, maxStep);
-    const measured = measureStartup(time, values, {
+    const judged = judgeStartup(time, values, {
       maxOrder: windowOrder,
-      noiseFloor: NOISE_PEAK * noiseAtProbe,
+      noiseFloor: NOISE_PEAK * noise,
       ...(limit === undefined ? {} : { amplitudeLimit: limit }),
       ...(prediction ? { prediction } : {}),
       drives,
       searchFrom,
-      unit: probeUnit(system, analysis.probe),
+      unit,
     });
-    checkResolved(budget, record, measured.frequency, analysis.span);
-    return measured;
+    checkResolved(budget, from, judged.metrics.frequency, analysis.span, records);
+    return judged;
+  };
+  let orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=", judgedAt };
+  // The frequencies of the other growing pairs: a second oscillator the probe may watch.
+  const otherPairs = poles.filter((p) => p !== pole && p.imag > 0 && startsFrom(p)).map((p) => p.imag / (2 * Math.PI));
+  /** The probe shows an oscillation of its own still forming (an `until=auto` run waits for it). */
+  let forming = false;
+  /** Once the probe is judged on an oscillation of its own: what the explanation adds about the other. */
+  let otherOscillator = "";
+  const measure = () => {
+    judgement = judge(judgedRecord, noiseAtJudged, judgedUnit);
+    // Only another growing pair makes a second oscillator the probe could watch.
+    if (!judgedAt || otherPairs.length === 0) return judgement.metrics;
+    const own = judge(record, noiseAtProbe, probeUnit(system, analysis.probe));
+    const relation = probeOscillation(own.metrics, judgement.metrics, otherPairs);
+    forming = relation === "forming";
+    if (relation === "own") {
+      // A second oscillator: the probe watches an outcome of its own, and is judged itself from now on.
+      const f = judgement.metrics.frequency;
+      otherOscillator = `; judged at the probe: its oscillation is not the one at node ${probeName(judgedAt)}${f === null ? "" : ` (${formatQuantity(f, "Hz")})`}, where the bias point's growing mode swings most`;
+      [judgedAt, judgedRecord, noiseAtJudged, judgedUnit, judgement] = [null, record, noiseAtProbe, probeUnit(system, analysis.probe), own];
+      orbitSettings = { ...orbitSettings, judgedAt };
+    }
+    return judgement.metrics;
   };
   let metrics: StartupMetrics;
   const settledFromOrbit = options.settledFromOrbit ?? true;
-  const orbitSettings = { quiet: plain, stepper, analysis, drives, maxStep, tolerances, orders: windowOrder, check: () => budget.check("during the settled orbit", analysis.span), maxStoredPoints: budget.maxStoredPoints, raise: analysis.until === "auto" ? "settle-within=" : "until=" };
   /** The settled figures, once found (see `refineSettled`). */
   let refined: ReturnType<typeof refineSettled> | undefined;
   const warnings = defaultWarnings(circuit);
@@ -244,9 +287,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   if (analysis.until === "auto") {
     const bound = (analysis.settleWithin ?? AUTO_MAX_CYCLES * period) + searchFrom;
     let target = AUTO_FIRST_CYCLES * period + searchFrom;
-    if (pole && startsFrom(pole) && pole.real > 0 && noiseAtProbe > 0) {
+    if (pole && startsFrom(pole) && pole.real > 0 && noiseAtJudged > 0) {
       // time to grow from the noise to a volt-scale envelope, then settle
-      target = Math.max(target, Math.log((limit ?? 10) / noiseAtProbe) / pole.real + 30 * period + searchFrom);
+      target = Math.max(target, Math.log((limit ?? 10) / noiseAtJudged) / pole.real + 30 * period + searchFrom);
     }
     target = Math.min(target, bound);
     for (;;) {
@@ -259,7 +302,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
         FINAL_VERDICTS.has(metrics.verdict) ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
-      if (done) break;
+      if (done && !(forming && target < bound)) break;
       const extra = metrics.suggestedExtraTime ?? target;
       target = Math.min(bound, target + Math.max(extra, 20 * period));
       options.onProgress?.(stepper.t, target);
@@ -267,7 +310,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     const restarting = mayRestart(metrics, stepper.t);
     if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
       // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a collapsed swing is not the one waited for).
-      const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtProbe > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtProbe, unit: probeUnit(system, analysis.probe), share: noiseAtProbe / metrics.amplitude } : null;
+      const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtJudged > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtJudged, unit: judgedUnit, share: noiseAtJudged / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));
     }
   } else {
@@ -281,9 +324,10 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
   if (prediction?.starts && mayRestart(metrics, stepper.t)) {
     const raise = analysis.until === "auto" ? "settle-within=" : "until=";
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, probeUnit(system, analysis.probe), raise) };
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, judgedUnit, raise) };
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
+  const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -293,7 +337,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     analysis: "startup",
     probe: probeName(analysis.probe),
     unit: probeUnit(system, analysis.probe),
-    ...refined.metrics,
+    ...reported,
     numericalError: refined.numericalError,
     thdOrders: [2, refined.orders],
     settled: refined.settled,
@@ -308,6 +352,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
         realGrowth,
       },
       solver: { ...stepper.stats },
+      ...(judgedAt ? { judgedAt: probeName(judgedAt) } : {}),
     },
     warnings,
     waveform: { time: t, values: v },
@@ -384,9 +429,11 @@ function refineSettled(
     readonly maxStoredPoints: number;
     /** The option that runs the start-up longer (`until=` or `settle-within=`). */
     readonly raise: string;
+    /** The node the outcome is judged at when not the probe (the orbit's swing there is compared with the run's). */
+    readonly judgedAt: Probe | null;
   },
-): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures } {
-  const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null } });
+): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures; orbit: SettledOrbit | null } {
+  const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null }, orbit: null });
   if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
   const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
@@ -397,7 +444,7 @@ function refineSettled(
   }
   const orders = thdOrder(s.analysis, drive ?? f);
   const orbit = settledOrbit(s.quiet, s.stepper, s.analysis.probe, { period: 1 / f, drive }, s.maxStep, s.tolerances, orders, s.check, s.maxStoredPoints);
-  const unit = probeUnit(s.quiet, s.analysis.probe);
+  const unit = probeUnit(s.quiet, s.judgedAt ?? s.analysis.probe);
   if (isOrbitFailure(orbit)) {
     const note = `the settled figures are the run's last cycles: no periodic orbit was found next to it (${orbit.failure})`;
     // With no orbit to compare, the run's own state says whether it repeats.
@@ -413,9 +460,11 @@ function refineSettled(
       },
     };
   }
-  const distance = Math.abs(orbit.amplitude / metrics.amplitude! - 1);
+  // The orbit's swing where the outcome is judged (on the finer grid when that is not the probe: the test allows 5 %).
+  const swing = s.judgedAt ? orbitFigures(orbit.orbit, probeReader(s.quiet, s.judgedAt), 2).metrics.amplitude : orbit.amplitude;
+  const distance = Math.abs(swing / metrics.amplitude! - 1);
   if (!(distance <= ORBIT_AGREEMENT)) {
-    const apart = `${formatQuantity(orbit.amplitude, unit)} peak, ${formatPercent(distance)} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
+    const apart = `${formatQuantity(swing, unit)} peak, ${formatPercent(distance)} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
     return {
       ...fromRun(`the figures are the run's last cycles: the periodic orbit next to them swings ${apart}`),
       metrics: {
@@ -426,11 +475,15 @@ function refineSettled(
       },
     };
   }
+  const settled = { from: "orbit" as const, note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points };
+  // The one-line explanation names the settled amplitude and frequency: the orbit's now.
+  const explanation = metrics.explanation.replace(SETTLED_AT, `settled at ${formatQuantity(swing, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`);
+  // Judged elsewhere, the orbit's figures are the probe's: the caller reports them beside the judged outcome.
+  if (s.judgedAt) return { metrics: { ...metrics, explanation }, numericalError: orbit.numericalError, orders, settled, orbit };
   return {
     metrics: {
       ...metrics,
-      // The one-line explanation names the settled amplitude and frequency: the orbit's now.
-      explanation: metrics.explanation.replace(/^settled at .+? peak and .+?Hz/, `settled at ${formatQuantity(orbit.amplitude, unit)} peak and ${formatQuantity(orbit.frequency, "Hz")}`),
+      explanation,
       frequency: orbit.frequency,
       amplitude: orbit.amplitude,
       peakToPeak: orbit.peakToPeak,
@@ -442,7 +495,28 @@ function refineSettled(
     },
     numericalError: orbit.numericalError,
     orders,
-    settled: { from: "orbit", note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points },
+    settled,
+    orbit,
+  };
+}
+
+/**
+ * The probe's figures when the outcome was judged at another node: its record over the judged
+ * cycles, or the settled orbit's figures at the probe (THD+N with the run's own noise there).
+ */
+function seenAtProbe(t: Float64Array, v: Float64Array, judgement: StartupJudgement, maxOrder: number, orbit: SettledOrbit | null): ProbeFigures & { frequency: number | null; envelope: Float64Array } {
+  const run = probeFigures(t, v, judgement, maxOrder);
+  if (!orbit) return { ...run.figures, frequency: null, envelope: run.envelope };
+  return {
+    frequency: orbit.frequency,
+    amplitude: orbit.amplitude,
+    peakToPeak: orbit.peakToPeak,
+    rms: orbit.rms,
+    offset: orbit.offset,
+    thd: orbit.thd,
+    thdPlusNoise: plusRunNoise(orbit.thd, run.figures),
+    harmonics: orbit.harmonics,
+    envelope: run.envelope,
   };
 }
 
@@ -464,7 +538,7 @@ const STATE_DRIFT = 1e-3;
  * THD+N beside the orbit's THD: the orbit is noiseless, so the noise is the run's own — what its
  * last cycles hold in the band beyond their harmonics, √(THD+N² − THD²) — added in power.
  */
-function plusRunNoise(orbitThd: number, run: StartupMetrics): number | null {
+function plusRunNoise(orbitThd: number, run: Pick<StartupMetrics, "thd" | "thdPlusNoise">): number | null {
   if (run.thdPlusNoise === null || run.thd === null) return null;
   const noise = Math.max(0, run.thdPlusNoise ** 2 - run.thd ** 2);
   return Math.sqrt(orbitThd ** 2 + noise);

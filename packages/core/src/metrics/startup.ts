@@ -166,6 +166,21 @@ function windowFigures(cycles: CycleTable, from: number) {
  * `startupMoment`); settling time on the per-cycle envelope (see `settlingTime`).
  */
 export function measureStartup(t: Float64Array, v: Float64Array, options: StartupMetricsOptions = {}): StartupMetrics {
+  return judgeStartup(t, v, options).metrics;
+}
+
+/**
+ * A waveform's start-up metrics (see {@link measureStartup}) and the cycles they were judged on:
+ * every complete cycle, and the first of the measured ones (`from`, the window of the figures).
+ */
+export interface StartupJudgement {
+  readonly metrics: StartupMetrics;
+  readonly cycles: CycleTable;
+  readonly from: number;
+}
+
+/** {@link measureStartup}, with the cycles its verdict and figures came from. */
+export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupMetricsOptions = {}): StartupJudgement {
   checkWaveform("measureStartup", t, v);
   const settings = resolveStartupOptions(options);
   const tail = lastHalfStatistics(t, v);
@@ -183,7 +198,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
   const n = cycles.count;
 
   if (judgement.verdict === "silent") {
-    return {
+    const metrics: StartupMetrics = {
       verdict: "silent",
       explanation: explainSilent(cycles, judgement.reason, settings),
       frequency: null,
@@ -202,6 +217,7 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
       cycles: n,
       envelope,
     };
+    return { metrics, cycles, from: n };
   }
 
   const { trend } = judgement;
@@ -274,5 +290,5 @@ export function measureStartup(t: Float64Array, v: Float64Array, options: Startu
     cycles: n,
     envelope,
   };
-  return suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime };
+  return { metrics: suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime }, cycles, from };
 }
