@@ -188,7 +188,7 @@ export const CORNER_BEND = 2;
  * k + 1) exceeds `CORNER_BEND` times the curvature three samples away on one side (the
  * samples taken around the period: t[1] … t[N + 1] span it, the first and last the same point).
  */
-export function onCorner(t: Float64Array, v: Float64Array, k: number): boolean {
+function onCorner(t: Float64Array, v: Float64Array, k: number): boolean {
   const near = Math.max(bendAt(t, v, k - 1), bendAt(t, v, k), bendAt(t, v, k + 1));
   const far = Math.min(bendAt(t, v, k - 3), bendAt(t, v, k + 3));
   return near > CORNER_BEND * far;

@@ -332,11 +332,7 @@ export function refineOrbit(
     thd: extrapolate(m1.thd, m2.thd),
     harmonics: harmonicList(Float64Array.from(m2.harmonics, (h, k) => extrapolate(m1.harmonics[k]!.amplitude, h.amplitude)), extrapolate(m1.frequency, m2.frequency)),
     numericalError: {
-      // Where the corners may put more into the r.m.s. than the grids' difference shows, the
-      // period's error need not follow h² from the coarsest grid on either (the map's steps across
-      // them err by O(h²) with an erratic coefficient): it gets the bar that holds while the error
-      // shrinks steadily, as the other figures do.
-      frequency: cornerBar(c1.rms, c2.rms) > bar(m1.rms, m2.rms) ? bar(m1.frequency, m2.frequency) : periodBar(m1.frequency, m2.frequency),
+      frequency: periodBar(m1.frequency, m2.frequency),
       amplitude: Math.max(bar(m1.amplitude, m2.amplitude), 0.5 * cornerSwingBar(e1, e2, bar)),
       rms: Math.max(bar(m1.rms, m2.rms), cornerBar(c1.rms, c2.rms)),
       thd: Math.max(bar(m1.thd, m2.thd), cornerBar(c1.thd, c2.thd), floorBar(m1.thd, m2.thd)),
