@@ -56,6 +56,8 @@ export { trustStep, nextRadius } from "./steady/trust-region.js";
 export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } from "./steady/shooting.js";
 export { orbitFigures, orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitExtremes, OrbitMetrics } from "./steady/orbit-metrics.js";
+export { cornerIntegralBounds } from "./steady/corner-integrals.js";
+export type { CornerIntegralBounds, PeriodSamples } from "./steady/corner-integrals.js";
 export { orbitPointLimit, recordPeriod, refineOrbit } from "./steady/refine.js";
 export { OrbitApproach } from "./steady/approach.js";
 export { largestNode } from "./steady/growing-mode.js";

@@ -1,6 +1,6 @@
 """The validation circuits, transcribed by hand from their .onset files (values in SI units).
 
-test/validation/circuits/*.onset for the six validation cases, examples/*.onset for the three
+test/validation/circuits/*.onset for the seven validation cases, examples/*.onset for the three
 examples. validation.test.ts checks this transcription against the project's own elaboration
 of each file (part names, kinds, nodes and values), so the two cannot drift apart.
 """
@@ -55,6 +55,15 @@ def wien_rail_clipped():
     wien(c, 10.2e3, 10e-9, 10.2e3, 10e-9)
     c.resistor("Rg", "n", "gnd", 10e3)
     c.resistor("Rf", "n", "o", 21.5e3)
+    c.opamp("U1", "p", "n", "o", preset="general", rails=(-12.0, 12.0))
+    return c
+
+
+def wien_rail_hard():
+    c = Circuit("wien-rail-hard")
+    wien(c, 10e3, 10e-9, 10e3, 10e-9)
+    c.resistor("Rg", "n", "gnd", 10e3)
+    c.resistor("Rf", "n", "o", 37e3)
     c.opamp("U1", "p", "n", "o", preset="general", rails=(-12.0, 12.0))
     return c
 
@@ -141,6 +150,7 @@ BUILDERS = {
     "wien-diode-9k5": wien_diode_9k5,
     "wien-diode-ideal": wien_diode_ideal,
     "wien-rail-clipped": wien_rail_clipped,
+    "wien-rail-hard": wien_rail_hard,
     "phase-shift-ladder": phase_shift_ladder,
     "twin-t": twin_t,
     "bridge-excitation": bridge_excitation,

@@ -1,6 +1,7 @@
 import type { ProbeReader } from "../analyses/probes.js";
 import { analyseCycles } from "../metrics/harmonic-analysis.js";
 import { cubicOnInterval, cubicScratch, cubicStationaryPoints, cubicValue } from "../metrics/local-cubic.js";
+import { resampleUniform } from "../metrics/resample.js";
 import type { Harmonic } from "../metrics/spectrum.js";
 import type { PeriodicOrbit } from "./shooting.js";
 
@@ -81,8 +82,18 @@ export interface OrbitExtremes {
   readonly minimumCorner: boolean;
 }
 
-/** `orbitMetrics`, with the extremes the swing comes from and their interpolation spreads. */
-export function orbitFigures(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: number, corners: readonly number[] = []): { metrics: OrbitMetrics; extremes: OrbitExtremes } {
+/**
+ * `orbitMetrics`, with the extremes the swing comes from and their interpolation spreads, the
+ * probe's samples the figures were read from (times from the orbit's start; samples 1 … N + 1
+ * span the period, one more from the other end of it on each side) and the uniform resampling
+ * the r.m.s. and the spectrum were taken from (its first point at the orbit's start).
+ */
+export function orbitFigures(
+  orbit: PeriodicOrbit,
+  read: ProbeReader,
+  maxOrder: number,
+  corners: readonly number[] = [],
+): { metrics: OrbitMetrics; extremes: OrbitExtremes; samples: { readonly t: Float64Array; readonly v: Float64Array }; uniform: Float64Array } {
   const { states } = orbit;
   const T = orbit.start.period;
   const N = orbit.fractions.length;
@@ -114,7 +125,9 @@ export function orbitFigures(orbit: PeriodicOrbit, read: ProbeReader, maxOrder: 
     thd: analysis.thd,
     harmonics: analysis.harmonics,
   };
-  return { metrics, extremes: found };
+  const uniform = new Float64Array(analysis.sampleCount);
+  resampleUniform(t, v, 0, T / analysis.sampleCount, uniform);
+  return { metrics, extremes: found, samples: { t, v }, uniform };
 }
 
 /**
@@ -168,7 +181,7 @@ function extremes(t: Float64Array, v: Float64Array, bent: Uint8Array): OrbitExtr
  * sides: a corner the grid does not resolve (a smooth extremum's curvature changes by a few per
  * cent over three steps; a diode turning on at a capacitor's minimum makes it thousands of times).
  */
-const CORNER_BEND = 2;
+export const CORNER_BEND = 2;
 
 /**
  * True when the samples' curvature next to sample k (the second divided differences at k − 1, k,
@@ -176,22 +189,26 @@ const CORNER_BEND = 2;
  * samples taken around the period: t[1] … t[N + 1] span it, the first and last the same point).
  */
 function onCorner(t: Float64Array, v: Float64Array, k: number): boolean {
+  const near = Math.max(bendAt(t, v, k - 1), bendAt(t, v, k), bendAt(t, v, k + 1));
+  const far = Math.min(bendAt(t, v, k - 3), bendAt(t, v, k + 3));
+  return near > CORNER_BEND * far;
+}
+
+/** Sample j of the period laid out as `orbitFigures` does (t[1] … t[N + 1] span it), any j, continued periodically. */
+export function periodicSample(t: Float64Array, v: Float64Array, j: number): { time: number; value: number } {
   const N = t.length - 3;
   const T = t[N + 1]! - t[1]!;
-  const at = (j: number) => {
-    const turns = Math.floor((j - 1) / N);
-    const m = j - turns * N;
-    return { time: t[m]! + turns * T, value: v[m]! };
-  };
-  const curvature = (j: number) => {
-    const a = at(j - 1);
-    const b = at(j);
-    const c = at(j + 1);
-    return Math.abs((2 * ((c.value - b.value) / (c.time - b.time) - (b.value - a.value) / (b.time - a.time))) / (c.time - a.time));
-  };
-  const near = Math.max(curvature(k - 1), curvature(k), curvature(k + 1));
-  const far = Math.min(curvature(k - 3), curvature(k + 3));
-  return near > CORNER_BEND * far;
+  const turns = Math.floor((j - 1) / N);
+  const m = j - turns * N;
+  return { time: t[m]! + turns * T, value: v[m]! };
+}
+
+/** The samples' curvature at sample j: |the second divided difference| through j − 1, j, j + 1 (periodic, see `periodicSample`). */
+export function bendAt(t: Float64Array, v: Float64Array, j: number): number {
+  const a = periodicSample(t, v, j - 1);
+  const b = periodicSample(t, v, j);
+  const c = periodicSample(t, v, j + 1);
+  return Math.abs((2 * ((c.value - b.value) / (c.time - b.time) - (b.value - a.value) / (b.time - a.time))) / (c.time - a.time));
 }
 
 /**

@@ -4,6 +4,7 @@ import type { SteppingRun } from "../analyses/limits.js";
 import { harmonicList } from "../metrics/spectrum.js";
 import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
+import { cornerIntegralBounds } from "./corner-integrals.js";
 import { orbitFigures, type OrbitExtremes, type OrbitMetrics } from "./orbit-metrics.js";
 import { shootOrbit, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
@@ -298,12 +299,12 @@ export function refineOrbit(
   // The multipliers come from the run's own grid (a stability verdict and a rate, where the
   // grids differ in the fourth digit), at half the cost of the finer grid's.
   const coarse = shootOrbit(system, guess, fractions, trajectory, { ...options, ...(settings.jacobian ? { jacobian: settings.jacobian } : {}), multipliers: settings.multipliers ?? false });
-  const { metrics: m1, extremes: e1 } = orbitFigures(coarse, read, maxOrder, settings.corners);
+  const { metrics: m1, extremes: e1, samples: s1, uniform: u1 } = orbitFigures(coarse, read, maxOrder, settings.corners);
   // The halved grid's map differs from the run's own by O(h²): its shooting iterates on the
   // coarser grid's Newton matrix (put back once where Broyden's updates stop contracting), so no
   // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
-  const { metrics: m2, extremes: e2 } = orbitFigures(fine, read, maxOrder, settings.corners);
+  const { metrics: m2, extremes: e2, samples: s2, uniform: u2 } = orbitFigures(fine, read, maxOrder, settings.corners);
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
@@ -314,6 +315,14 @@ export function refineOrbit(
   // The period is a smooth function of the whole orbit and its error follows h² from the
   // coarsest grid on (the validation table), so its bar is the extrapolation's own step, |m − m½|.
   const periodBar = (a: number, b: number) => Math.abs(extrapolate(a, b) - b);
+  // The corners' share of the integrals' error on each grid (see `cornerIntegralBounds`), as it
+  // passes into the extrapolated m½ + (m½ − m₁)/3: (4·c½ + c₁)/3.
+  const c1 = cornerIntegralBounds(s1, u1, m1.rms, m1.thd, m1.harmonics);
+  const c2 = cornerIntegralBounds(s2, u2, m2.rms, m2.thd, m2.harmonics);
+  const cornerBar = (a: number, b: number) => (4 * b + a) / 3;
+  // A THD the two grids do not agree on to a part in two is at their numerical floor (a linear
+  // circuit driven by a sine): nothing then tells it from zero, so its bar reaches zero.
+  const floorBar = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? 0 : Math.abs(b));
   return {
     frequency: extrapolate(m1.frequency, m2.frequency),
     amplitude: extrapolate(m1.amplitude, m2.amplitude),
@@ -325,8 +334,8 @@ export function refineOrbit(
     numericalError: {
       frequency: periodBar(m1.frequency, m2.frequency),
       amplitude: Math.max(bar(m1.amplitude, m2.amplitude), 0.5 * cornerSwingBar(e1, e2, bar)),
-      rms: bar(m1.rms, m2.rms),
-      thd: bar(m1.thd, m2.thd),
+      rms: Math.max(bar(m1.rms, m2.rms), cornerBar(c1.rms, c2.rms)),
+      thd: Math.max(bar(m1.thd, m2.thd), cornerBar(c1.thd, c2.thd), floorBar(m1.thd, m2.thd)),
     },
     orbit: fine,
     points: [fractions.length, 2 * fractions.length],
