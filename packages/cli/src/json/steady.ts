@@ -10,6 +10,7 @@ export function steadyJson(r: SteadyResult): Json {
     probe: r.probe,
     unit: r.unit,
     found: r.found,
+    hardStart: r.hardStart,
     explanation: r.explanation,
     kind: r.kind,
     from: r.from,

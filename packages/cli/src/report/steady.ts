@@ -19,6 +19,7 @@ function multiplierText(m: Multiplier): string {
 function startText(r: SteadyResult): string {
   const t = r.transient;
   const run = `${t.periods} periods of transient (${si(t.until, "s")})`;
+  if (r.hardStart || (!r.found && !r.predicted.starts && t.periods > 0)) return `a large kick in the decaying pair's mode (a hard start), ${run}${r.found ? ", then shooting from the measured period" : ""}`;
   switch (r.from) {
     case "driven":
       return `${run} from the bias point, then shooting with the sources' period`;
@@ -47,7 +48,7 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   const verdict = s.verdict === "stable" ? p.green("stable orbit") : s.verdict === "unstable" ? p.red("unstable orbit") : p.yellow("marginal orbit");
   const e = r.numericalError ?? undefined;
   const [, lastOrder] = r.thdOrders;
-  const lines = [`${head}${verdict}${r.kind === "driven" ? p.dim(" (driven)") : ""}`, `  ${r.explanation}`, ""];
+  const lines = [`${head}${verdict}${r.kind === "driven" ? p.dim(" (driven)") : r.hardStart ? p.yellow(" (hard start)") : ""}`, `  ${r.explanation}`, ""];
   lines.push(
     ...pairs([
       ["frequency", withBar(r.frequency, e?.frequency, "Hz")],

@@ -103,6 +103,8 @@ const RECOVERY_BATCHES = 34;
 /** After a failed shooting, the next waits until the transient has run this many times as many periods (see `solveSteady`). */
 const BACK_OFF = 2;
 const EARLY_LIMITS = { giveUpAfter: GIVE_UP };
+/** A hard start's kick whose first step fails is halved at most this many times (to 1/8). */
+const HARD_KICK_HALVINGS = 3;
 /** An orbit whose charged states all swing less than this many times their absolute tolerance is the rest point. */
 const COLLAPSED = 100;
 /** Fraction of the amplitude at which the start-up time is counted (the start-up metric's own). */
@@ -132,6 +134,12 @@ export interface SteadyResult {
   readonly unit: QuantityUnit;
   /** True when a periodic orbit was found; every figure below is null (and the lists empty) otherwise. */
   readonly found: boolean;
+  /**
+   * True when the orbit is a hard start's: the rest point is stable (the circuit does not start
+   * by itself) and a large disturbance in the dominant pair's mode reached this orbit. Studies do
+   * not search for one (see `SteadyOptions.hardStart`).
+   */
+  readonly hardStart: boolean;
   /** One sentence: the orbit and its stability, or why no orbit was found. */
   readonly explanation: string;
   /** `autonomous`: the period is the circuit's own; `driven`: the sources' common period. */
@@ -209,6 +217,12 @@ export interface SteadyOptions extends RunOptions {
    * From 1e-6 to 100.
    */
   readonly kick?: number;
+  /**
+   * Search a circuit whose rest point is stable for an orbit a large disturbance reaches (a hard
+   * start; default true). A study's samples and settings do not (false): one that does not start
+   * by itself fails whatever orbit surrounds its rest point, and the search would cost a transient.
+   */
+  readonly hardStart?: boolean;
 }
 
 /** A converged orbit handed to a neighbouring circuit's shooting: plain data, so it can be posted to a worker thread. */
@@ -250,6 +264,7 @@ function checkArguments(api: string, circuit: Circuit, analysis: SteadyAnalysis,
   if (options.seed !== undefined) checkOrbitSeed(api, options.seed);
   const kick = options.kick ?? KICK_SHARE;
   if (!(kick >= MIN_KICK && kick <= MAX_KICK)) throw badArgument(`${api}: options.kick must be a number from 1e-6 to 100, got ${String(kick)}`);
+  if (options.hardStart !== undefined && typeof options.hardStart !== "boolean") throw badArgument(`${api}: options.hardStart must be true or false, got ${String(options.hardStart)}`);
 }
 
 /**
@@ -260,7 +275,7 @@ function checkArguments(api: string, circuit: Circuit, analysis: SteadyAnalysis,
 export function steadySeed(circuit: Circuit, analysis: SteadyAnalysis, options: SteadyOptions = {}): OrbitSeed | null {
   checkArguments("steadySeed", circuit, analysis, options);
   let seed: OrbitSeed | null = null;
-  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false }, (refined) => {
+  const result = solveSteady(circuit, analysis, { ...options, predictStartup: false, singleGrid: true, waveform: false, hardStart: false }, (refined) => {
     const { orbit } = refined;
     const { matrix, phase } = orbit.jacobian;
     seed = { x: orbit.start.x, period: orbit.start.period, fractions: orbit.fractions, states: orbit.states, matrix: Float64Array.from(matrix), phase };
@@ -345,7 +360,14 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   const guessPeriod = pole ? (2 * Math.PI) / pole.imag : null;
   const maxStep = analysis.maxStep ?? (guessPeriod ?? 1e-3) / STEPS_PER_PERIOD;
   const idle = () => ({ ...base, kind: "autonomous" as const, from, predicted, transient: { periods: 0, until: 0, maxStep, solver: emptyStats() } });
-  if (!growing) return noOrbit(idle(), `no periodic orbit: the circuit does not oscillate — ${polesVerdict(pole)}, so it does not start by itself (an orbit only a large disturbance would reach, a hard start, is not searched)`);
+  if (!growing) {
+    const still = `the circuit does not oscillate — ${polesVerdict(pole)}`;
+    if (!pole || guessPeriod === null || options.hardStart === false) return noOrbit(idle(), `no periodic orbit: ${still}, so it does not start by itself (an orbit only a large disturbance would reach, a hard start, is not searched${pole ? " in a study" : ""})`);
+    // A stable rest point may still be surrounded by an orbit a large disturbance reaches (a hard start): kicked in the dominant pair's mode, the circuit shows it.
+    const hard = hardStartSearch(context, bias.x, pole, maxStep, analysis.cycles ?? DEFAULT_STEADY_CYCLES[from], kick);
+    if ("orbit" in hard) return found(context, hard.orbit, { ...idle(), transient: hard.transient }, polesVerdict(pole));
+    return noOrbit({ ...idle(), transient: hard.transient }, `no periodic orbit: ${still}, so it does not start by itself, and ${hard.why}`);
+  }
   if (guessPeriod === null) {
     return noOrbit(idle(), `no periodic orbit searched: the bias point is unstable along a real pole (${formatQuantity(growing.real, "/s")}), with no complex pair to give a period; run startup to see what it does`);
   }
@@ -451,6 +473,49 @@ function growthPeriods(factor: number, growthPerPeriod: number, most: number): n
 }
 
 /**
+ * The orbit a circuit whose rest point is stable reaches from a large disturbance (a hard
+ * start): started at `kick` of the amplifiers' half range in its dominant pair's mode, the
+ * transient either dies out (no orbit within that reach) or levels off on a swing the shooting
+ * then converges on, as the search of a circuit that starts by itself does.
+ */
+function hardStartSearch(c: Context, bias: Float64Array, pole: Pole, maxStep: number, batch: number, kick: number): { orbit: ShotOrbit; transient: SteadyResult["transient"] } | { why: string; transient: SteadyResult["transient"] } {
+  const period = (2 * Math.PI) / pole.imag;
+  const step = Math.max(maxStep, period / APPROACH_STEPS_PER_PERIOD);
+  const mode = modeOfPole(linearize(c.system, bias), pole);
+  if (!mode) return { why: "the dominant pair's mode could not be computed to search for a hard start", transient: { periods: 0, until: 0, maxStep: step, solver: emptyStats() } };
+  const swinging = largestNode(mode, c.system.unknowns);
+  let stopped = "";
+  // A kick far out on an ideal diode's exponential can stop the first step: halved, it may still reach the orbit.
+  for (let share = kick, halvings = 0; halvings <= HARD_KICK_HALVINGS; share /= 2, halvings++) {
+    const stepper = new TransientStepper(c.system, { start: { t: 0, x: kicked(c.system, bias, mode, share) }, maxStep: step, tolerances: loosenedTolerances(c.tolerances, APPROACH_LOOSENING) });
+    c.budget.watch(stepper, "the steady state's transient", c.analysis.span);
+    // Levelled means changing by much less per period than the pair's own decay.
+    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, period, -Math.expm1(pole.real * period));
+    const check = () => c.budget.check("during the steady state's transient", c.analysis.span);
+    const reach = `a disturbance of ${formatQuantity(kickLevel(c.system, bias, share), "V")} at ${c.system.unknowns[swinging]!.label} in that pair's mode`;
+    let why = "";
+    let earliest = 0;
+    for (let attempt = 0, shots = 0; attempt <= RETRIES; attempt++) {
+      const where = stepFailure(() => approach.advance(batch, FIRST_LEVEL / LEVEL_RETRY ** shots, check, earliest), true, c.analysis);
+      const transient = transientOf(stepper, approach.periods, step);
+      if (typeof where === "string") {
+        stopped = `${reach} stopped the transient (${where})`;
+        break;
+      }
+      if (where.kind === "died-out") return { why: `${reach} died out within ${where.periods} periods: no orbit lies within that reach`, transient };
+      if (!where.levelled && attempt < RETRIES) continue;
+      shots++;
+      const shot = shoot(c, () => recordedStart(c, stepper, where.period, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
+      if (typeof shot !== "string") return { orbit: shot, transient };
+      why = `after ${reach}, no periodic orbit was found in ${approach.periods} periods of transient: ${shot}`;
+      earliest = BACK_OFF * approach.periods;
+    }
+    if (why) return { why, transient: transientOf(stepper, approach.periods, step) };
+  }
+  return { why: stopped, transient: { periods: 0, until: 0, maxStep: step, solver: emptyStats() } };
+}
+
+/**
  * Why no orbit was found when the bias point grows only along a real pole while its dominant pair
  * decays (a double-scroll circuit's saddle-focus): the search started in the pair's mode, which
  * does not grow, so what it saw says little about what the circuit does from noise.
@@ -552,10 +617,15 @@ function polesVerdict(pole: Pole | null): string {
 function kicked(system: MnaSystem, bias: Float64Array, mode: Float64Array, share: number): Float64Array {
   let peak = Math.abs(mode[largestNode(mode, system.unknowns)]!);
   if (!(peak > 0)) for (let i = 0; i < system.n; i++) peak = Math.max(peak, Math.abs(mode[i]!));
-  const level = share * (amplitudeLimit(system, bias) ?? 4);
+  const level = kickLevel(system, bias, share);
   const x = Float64Array.from(bias);
   for (const j of system.stateColumns) x[j] = bias[j]! + (level / peak) * mode[j]!;
   return x;
+}
+
+/** The swing a kick of `share` gives the mode's largest node: that share of the amplifiers' half range, or of 4 V without amplifiers. */
+function kickLevel(system: MnaSystem, bias: Float64Array, share: number): number {
+  return share * (amplitudeLimit(system, bias) ?? 4);
 }
 
 /** Where a shooting starts: a guessed period start, its grid, the states along it, and a Newton matrix when one is known. */
@@ -685,6 +755,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
     analysis: "steady",
     ...common,
     found: false,
+    hardStart: false,
     explanation,
     frequency: null,
     period: null,
@@ -706,7 +777,12 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
   };
 }
 
-function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
+/**
+ * The result of a converged orbit. `hardStart`, for an orbit of a circuit whose rest point is
+ * stable: what the poles say there (the circuit does not start by itself; only a disturbance
+ * beyond the orbit's threshold takes it there).
+ */
+function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string): SteadyResult {
   const period = orbit.orbit.start.period;
   const multipliers = nonTrivialMultipliers(orbit.orbit.multipliers, common.kind === "autonomous");
   const stability = orbitStability(multipliers, period);
@@ -735,7 +811,8 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
     found: true,
-    explanation: `${what}; ${how}`,
+    hardStart: hardStart !== undefined,
+    explanation: hardStart === undefined ? `${what}; ${how}` : `${what}; ${how}; a hard start: ${hardStart}, so it does not start by itself, and only a disturbance large enough reaches this orbit`,
     frequency: orbit.frequency,
     period: 1 / orbit.frequency,
     amplitude: orbit.amplitude,

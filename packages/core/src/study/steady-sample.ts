@@ -28,12 +28,14 @@ export function steadyAnalysisOf(circuit: Circuit): SteadyAnalysis | undefined {
 }
 
 /**
- * A steady result as a start-up verdict: a stable (or marginal) orbit is `settled`, an unstable
+ * A steady result as a start-up verdict: a hard start's orbit `decaying` (left alone, the circuit
+ * rests), a stable (or marginal) orbit `settled`, an unstable
  * one `unsettled` (the circuit would leave it); without an orbit, `decaying` when nothing at the
  * bias point grows (no pair starts, no real pole grows), else `unsettled` (it oscillates, latches
  * or relaxes, but no periodic orbit was found).
  */
 export function steadyVerdict(r: SteadyResult): StartupVerdict {
+  if (r.hardStart) return "decaying";
   if (r.found) return r.stability?.verdict === "unstable" ? "unsettled" : "settled";
   // Decaying only when nothing at the bias point grows: one that grows along a real pole latches or relaxes.
   return r.kind === "autonomous" && !r.predicted.starts && !r.predicted.realGrowth ? "decaying" : "unsettled";
@@ -83,6 +85,7 @@ export function steadySample(circuit: Circuit, settings: SampleSettings, budget:
       waveform: false,
       operatingCheck: false,
       predictedMultipliers: true,
+      hardStart: false,
       ...(settings.seed ? { seed: start ? { ...settings.seed, ...start } : settings.seed } : {}),
     });
     const metrics = steadyMetrics(r);

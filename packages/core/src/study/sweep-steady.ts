@@ -24,7 +24,7 @@ export function runSteadySetting(circuit: Circuit, tolerances: Partial<Tolerance
   const analysis = steadyAnalysisOf(circuit);
   if (!analysis) return { error: { severity: "error", stage: "input", code: "nothing-to-measure", message: "the file has neither a steady nor a startup analysis" } };
   try {
-    const result = runSteady(circuit, analysis, { ...(tolerances ? { tolerances } : {}), budget });
+    const result = runSteady(circuit, analysis, { ...(tolerances ? { tolerances } : {}), budget, hardStart: false });
     const criteria = sampleCriteria(specCriteria(circuit));
     return { run: { results: [result], spec: criteria.length > 0 ? evaluateSpec(criteria, steadyMetrics(result)) : null } };
   } catch (error) {
