@@ -35,6 +35,7 @@ import { refuseShortWindow, refuseSparseRecord } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
 import type { TailRecord } from "./tail-record.js";
+import { sizingFrequency, stepPeriod } from "./run-sizing.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -48,7 +49,7 @@ const AUTO_MAX_CYCLES = 4000;
 const AUTO_FIRST_CYCLES = 60;
 /** `until=auto` stops at once on these verdicts. */
 const FINAL_VERDICTS: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "relaxation", "parasitic", "bouncing"]);
-/** Frequency assumed when the linearised circuit has no complex poles (Hz). */
+/** Frequency assumed when the linearised circuit has no complex poles and no periodic sources (Hz). */
 const FALLBACK_FREQUENCY = 1e3;
 /** THD counts harmonics 2 … this order unless `harmonics=` or `bandwidth=` says otherwise. */
 export const DEFAULT_THD_ORDER = 30;
@@ -194,7 +195,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   budget.refuseDense(plain.n, "the start-up run's linear prediction (the bias point's poles)", analysis.span);
   const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   budget.check("after the bias point and poles");
-  const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
+  const drives = periodicDrives(circuit);
+  const f0 = sizingFrequency(pole, drives) ?? FALLBACK_FREQUENCY;
   const period = 1 / f0;
   const setup = excitationSetup(circuit, plain, analysis, kick, f0);
   const powerOn: PowerOn | undefined = kick === "power-on" ? { ramp: setup.excitation.ramp! } : undefined;
@@ -212,7 +214,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   let judgedAt = judgedNode(plain, () => linearize(plain, bias.x), pole, analysis.probe);
   let judgedUnit = probeUnit(system, judgedAt ?? analysis.probe);
   let noiseAtJudged = judgedAt ? noiseAt(judgedAt) : noiseAtProbe;
-  const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+  const maxStep = analysis.maxStep ?? stepPeriod(period, drives) / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
@@ -235,7 +237,6 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
   const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, naturalFrequency: pole ? Math.hypot(pole.real, pole.imag) / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
   const searchFrom = powerOn ? powerOn.ramp : 0;
-  const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);
   let judgement: StartupJudgement | undefined;
   const judge = (from: TailRecord, noise: number, unit: QuantityUnit) => {
