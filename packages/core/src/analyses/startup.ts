@@ -8,7 +8,7 @@ import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { probeFigures, type ProbeFigures } from "../metrics/probe-figures.js";
 import { judgeStartup, type StartupJudgement, type StartupMetrics } from "../metrics/startup.js";
 import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
-import type { LinearPrediction } from "../metrics/oscillation-kind.js";
+import { drivingFrequency, type LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, withSources, type MnaSystem } from "../solver/system.js";
@@ -36,6 +36,7 @@ import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
 import type { TailRecord } from "./tail-record.js";
 import { sizingFrequency, stepPeriod } from "./run-sizing.js";
+import { withoutAbsentFundamental } from "./toneless-settled.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -329,6 +330,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
+  // The probe's figures without THD where its spectrum has no fundamental.
+  const toneless = withoutAbsentFundamental({ metrics: reported, numericalError: refined.numericalError }, probeName(analysis.probe), drives.length > 0, analysis.span);
+  if (toneless.warning) warnings.push(toneless.warning);
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -338,8 +342,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     analysis: "startup",
     probe: probeName(analysis.probe),
     unit: probeUnit(system, analysis.probe),
-    ...reported,
-    numericalError: refined.numericalError,
+    ...toneless.refined.metrics,
+    numericalError: toneless.refined.numericalError,
     thdOrders: [2, refined.orders],
     settled: refined.settled,
     run: {
@@ -437,7 +441,7 @@ function refineSettled(
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null }, orbit: null });
   if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
-  const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
+  const drive = drivingFrequency(f, s.drives, DRIVE_MATCH);
   // A driven circuit is periodic in the measured period only if every source repeats within it.
   const harmonic = (d: number) => Math.abs(d / f - Math.round(d / f)) < DRIVE_MATCH * (d / f) && Math.round(d / f) >= 1;
   if (s.drives.length > 0 && !s.drives.every(harmonic)) {

@@ -248,7 +248,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       const shape = waveformShape(t, v, cycles.start[from], cycles.start[n], analysis.offset);
       const kind = steadyKind(shape, figures.frequency, settings.prediction, settings.drives);
       verdict = kind.kind;
-      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven);
+      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven, kind.common);
       else {
         if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
         explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle, settings.unit);
