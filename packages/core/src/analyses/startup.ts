@@ -7,7 +7,7 @@ import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { probeFigures, type ProbeFigures } from "../metrics/probe-figures.js";
 import { judgeStartup, type StartupJudgement, type StartupMetrics } from "../metrics/startup.js";
-import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
+import { endsCollapsed, explainCutWatch, recordWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
 import { drivingFrequency, type LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
@@ -285,7 +285,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const warnings = defaultWarnings(circuit);
   // A circuit that starts by itself and dies after its overshoot may grow again once its amplitude loop's slow state bleeds back.
   const recovery = prediction?.starts ? slowestTimeConstant(poles.map((p) => p.real)) : 0;
-  const mayRestart = (m: StartupMetrics, now: number) => m.verdict === "decaying" && now < (restartWatch(m.envelope, recovery)?.until ?? 0);
+  const mayRestart = (m: StartupMetrics, now: number) => m.verdict === "decaying" && now < (recordWatch(m, recovery)?.until ?? 0);
   if (analysis.until === "auto") {
     const bound = (analysis.settleWithin ?? AUTO_MAX_CYCLES * period) + searchFrom;
     let target = AUTO_FIRST_CYCLES * period + searchFrom;
@@ -326,7 +326,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
   if (prediction?.starts && mayRestart(metrics, stepper.t)) {
     const raise = analysis.until === "auto" ? "settle-within=" : "until=";
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, judgedUnit, raise) };
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(recordWatch(metrics, recovery)!, stepper.t, recovery, judgedUnit, raise) };
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
