@@ -36,7 +36,7 @@ import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
 import type { TailRecord } from "./tail-record.js";
 import { sizingFrequency, stepPeriod } from "./run-sizing.js";
-import { withoutAbsentFundamental } from "./toneless-settled.js";
+import { withoutAbsentFundamental, withoutBandHarmonics } from "./thd-none.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -330,9 +330,11 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
-  // The probe's figures without THD where its spectrum has no fundamental.
+  // The probe's figures without THD where its spectrum has no fundamental, or bandwidth= no harmonic.
   const toneless = withoutAbsentFundamental({ metrics: reported, numericalError: refined.numericalError }, probeName(analysis.probe), drives.length > 0, analysis.span);
-  if (toneless.warning) warnings.push(toneless.warning);
+  const bandless = withoutBandHarmonics(toneless.refined, analysis.bandwidth, analysis.span);
+  const shown = bandless.refined;
+  for (const w of [toneless.warning, bandless.warning]) if (w) warnings.push(w);
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -342,8 +344,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     analysis: "startup",
     probe: probeName(analysis.probe),
     unit: probeUnit(system, analysis.probe),
-    ...toneless.refined.metrics,
-    numericalError: toneless.refined.numericalError,
+    ...shown.metrics,
+    numericalError: shown.numericalError,
     thdOrders: [2, refined.orders],
     settled: refined.settled,
     run: {

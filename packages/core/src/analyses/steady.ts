@@ -23,6 +23,7 @@ import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
 import { fundamentalAbsent, relativeToLargest, tonelessWarning } from "../steady/absent-fundamental.js";
 import { settledSources } from "../steady/settled-sources.js";
+import { bandWarning, noHarmonicInBand } from "./thd-none.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { DEFAULT_TEMPERATURE, excitationSetup, periodicDrives } from "./excitation.js";
@@ -724,6 +725,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
   c.onOrbit?.(orbit);
   const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
   const toneless = fundamentalAbsent(orbit.harmonics);
+  const bandless = !toneless && noHarmonicInBand(c.analysis.bandwidth, orbit.frequency);
   return {
     analysis: "steady",
     ...common,
@@ -731,6 +733,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
       ...common.warnings,
       ...implausible,
       ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
+      ...(bandless ? [bandWarning(c.analysis.bandwidth!, orbit.frequency, c.analysis.span)] : []),
       ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven", c.analysis.span)] : []),
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
@@ -742,10 +745,10 @@ function found(c: Context, orbit: ShotOrbit, common: Common): SteadyResult {
     peakToPeak: orbit.peakToPeak,
     rms: orbit.rms,
     offset: orbit.offset,
-    thd: toneless ? null : orbit.thd,
+    thd: toneless || bandless ? null : orbit.thd,
     thdOrders: [2, orbit.harmonics.length],
     harmonics: toneless ? relativeToLargest(orbit.harmonics) : orbit.harmonics,
-    numericalError: c.singleGrid ? null : toneless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
+    numericalError: c.singleGrid ? null : toneless || bandless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
     iterations: orbit.iterations,
     points: orbit.points,
     shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
