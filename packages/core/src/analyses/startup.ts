@@ -7,8 +7,8 @@ import type { PowerOn, SourceTerm } from "../devices/device.js";
 import { formatPercent, formatQuantity } from "../metrics/format.js";
 import { probeFigures, type ProbeFigures } from "../metrics/probe-figures.js";
 import { judgeStartup, type StartupJudgement, type StartupMetrics } from "../metrics/startup.js";
-import { endsCollapsed, explainCutWatch, restartWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
-import type { LinearPrediction } from "../metrics/oscillation-kind.js";
+import { endsCollapsed, explainCutWatch, recordWatch, slowestTimeConstant } from "../metrics/restart-watch.js";
+import { drivingFrequency, type LinearPrediction } from "../metrics/oscillation-kind.js";
 import { NewtonSolver } from "../solver/newton.js";
 import type { QuantityUnit } from "../solver/quantities.js";
 import { buildSystem, withSources, type MnaSystem } from "../solver/system.js";
@@ -35,6 +35,8 @@ import { refuseShortWindow, refuseSparseRecord } from "./window-length.js";
 import { budgetOf } from "./limits.js";
 import { checkResolved, startupRecord } from "./startup-record.js";
 import type { TailRecord } from "./tail-record.js";
+import { sizingFrequency, stepPeriod } from "./run-sizing.js";
+import { withoutAbsentFundamental, withoutBandHarmonics } from "./thd-none.js";
 
 /** The default r.m.s. current of `kick=noise` (A): tiny next to any signal, far above rounding. */
 export const DEFAULT_KICK_LEVEL = 1e-9;
@@ -48,7 +50,7 @@ const AUTO_MAX_CYCLES = 4000;
 const AUTO_FIRST_CYCLES = 60;
 /** `until=auto` stops at once on these verdicts. */
 const FINAL_VERDICTS: ReadonlySet<StartupMetrics["verdict"]> = new Set(["settled", "relaxation", "parasitic", "bouncing"]);
-/** Frequency assumed when the linearised circuit has no complex poles (Hz). */
+/** Frequency assumed when the linearised circuit has no complex poles and no periodic sources (Hz). */
 const FALLBACK_FREQUENCY = 1e3;
 /** THD counts harmonics 2 … this order unless `harmonics=` or `bandwidth=` says otherwise. */
 export const DEFAULT_THD_ORDER = 30;
@@ -194,7 +196,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   budget.refuseDense(plain.n, "the start-up run's linear prediction (the bias point's poles)", analysis.span);
   const { poles, pole, ok } = linearPrediction(linearize(plain, bias.x), () => budget.check("during the bias point's poles", analysis.span));
   budget.check("after the bias point and poles");
-  const f0 = pole && pole.imag > 0 ? pole.imag / (2 * Math.PI) : FALLBACK_FREQUENCY;
+  const drives = periodicDrives(circuit);
+  const f0 = sizingFrequency(pole, drives) ?? FALLBACK_FREQUENCY;
   const period = 1 / f0;
   const setup = excitationSetup(circuit, plain, analysis, kick, f0);
   const powerOn: PowerOn | undefined = kick === "power-on" ? { ramp: setup.excitation.ramp! } : undefined;
@@ -212,7 +215,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   let judgedAt = judgedNode(plain, () => linearize(plain, bias.x), pole, analysis.probe);
   let judgedUnit = probeUnit(system, judgedAt ?? analysis.probe);
   let noiseAtJudged = judgedAt ? noiseAt(judgedAt) : noiseAtProbe;
-  const maxStep = analysis.maxStep ?? period / STEPS_PER_PERIOD;
+  const maxStep = analysis.maxStep ?? stepPeriod(period, drives) / STEPS_PER_PERIOD;
   refuseShortWindow(analysis, pole && pole.imag > 0 ? f0 : null, maxStep);
   if (typeof analysis.until === "number") budget.refuseSteps(analysis.until, maxStep, "the start-up run", analysis.span);
   const stepper = new TransientStepper(system, { start: "bias", maxStep, tolerances });
@@ -235,7 +238,6 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const realGrowth = poles.some((p) => p.imag === 0 && p.real > 0);
   const prediction: LinearPrediction | undefined = ok ? { frequency: pole ? pole.imag / (2 * Math.PI) : null, naturalFrequency: pole ? Math.hypot(pole.real, pole.imag) / (2 * Math.PI) : null, starts: pole ? startsFrom(pole) : false, realGrowth } : undefined;
   const searchFrom = powerOn ? powerOn.ramp : 0;
-  const drives = periodicDrives(circuit);
   const windowOrder = thdOrder(analysis, f0);
   let judgement: StartupJudgement | undefined;
   const judge = (from: TailRecord, noise: number, unit: QuantityUnit) => {
@@ -283,7 +285,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   const warnings = defaultWarnings(circuit);
   // A circuit that starts by itself and dies after its overshoot may grow again once its amplitude loop's slow state bleeds back.
   const recovery = prediction?.starts ? slowestTimeConstant(poles.map((p) => p.real)) : 0;
-  const mayRestart = (m: StartupMetrics, now: number) => m.verdict === "decaying" && now < (restartWatch(m.envelope, recovery)?.until ?? 0);
+  const mayRestart = (m: StartupMetrics, now: number) => m.verdict === "decaying" && now < (recordWatch(m, recovery)?.until ?? 0);
   if (analysis.until === "auto") {
     const bound = (analysis.settleWithin ?? AUTO_MAX_CYCLES * period) + searchFrom;
     let target = AUTO_FIRST_CYCLES * period + searchFrom;
@@ -324,10 +326,15 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   // A fixed until= that ends inside the watch is as unfinished as until=auto cut by its bound.
   if (prediction?.starts && mayRestart(metrics, stepper.t)) {
     const raise = analysis.until === "auto" ? "settle-within=" : "until=";
-    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(restartWatch(metrics.envelope, recovery)!, stepper.t, recovery, judgedUnit, raise) };
+    metrics = { ...metrics, verdict: "unsettled", explanation: explainCutWatch(recordWatch(metrics, recovery)!, stepper.t, recovery, judgedUnit, raise) };
   }
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
+  // The probe's figures without THD where its spectrum has no fundamental, or bandwidth= no harmonic.
+  const toneless = withoutAbsentFundamental({ metrics: reported, numericalError: refined.numericalError }, probeName(analysis.probe), drives.length > 0, analysis.span);
+  const bandless = withoutBandHarmonics(toneless.refined, analysis.bandwidth, analysis.span);
+  const shown = bandless.refined;
+  for (const w of [toneless.warning, bandless.warning]) if (w) warnings.push(w);
   const excitation: Excitation = {
     ...setup.excitation,
     noiseAtProbe: setup.generators.length > 0 ? noiseAtProbe : null,
@@ -337,8 +344,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     analysis: "startup",
     probe: probeName(analysis.probe),
     unit: probeUnit(system, analysis.probe),
-    ...reported,
-    numericalError: refined.numericalError,
+    ...shown.metrics,
+    numericalError: shown.numericalError,
     thdOrders: [2, refined.orders],
     settled: refined.settled,
     run: {
@@ -436,7 +443,7 @@ function refineSettled(
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null }, orbit: null });
   if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
-  const drive = s.drives.find((d) => Math.abs(f / d - 1) < DRIVE_MATCH);
+  const drive = drivingFrequency(f, s.drives, DRIVE_MATCH);
   // A driven circuit is periodic in the measured period only if every source repeats within it.
   const harmonic = (d: number) => Math.abs(d / f - Math.round(d / f)) < DRIVE_MATCH * (d / f) && Math.round(d / f) >= 1;
   if (s.drives.length > 0 && !s.drives.every(harmonic)) {

@@ -21,8 +21,9 @@ import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
-import { fundamentalAbsent, relativeToLargest } from "../steady/absent-fundamental.js";
+import { fundamentalAbsent, relativeToLargest, tonelessWarning } from "../steady/absent-fundamental.js";
 import { settledSources } from "../steady/settled-sources.js";
+import { bandWarning, noHarmonicInBand } from "./thd-none.js";
 import { solveBias } from "./bias.js";
 import { defaultWarnings } from "./default-rails.js";
 import { DEFAULT_TEMPERATURE, excitationSetup, periodicDrives } from "./excitation.js";
@@ -800,6 +801,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
   c.onOrbit?.(orbit);
   const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
   const toneless = fundamentalAbsent(orbit.harmonics);
+  const bandless = !toneless && noHarmonicInBand(c.analysis.bandwidth, orbit.frequency);
   return {
     analysis: "steady",
     ...common,
@@ -807,7 +809,8 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
       ...common.warnings,
       ...implausible,
       ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
-      ...(toneless ? [tonelessWarning(c, orbit.frequency, common.kind)] : []),
+      ...(bandless ? [bandWarning(c.analysis.bandwidth!, orbit.frequency, c.analysis.span)] : []),
+      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven", c.analysis.span)] : []),
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
     found: true,
@@ -819,10 +822,10 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
     peakToPeak: orbit.peakToPeak,
     rms: orbit.rms,
     offset: orbit.offset,
-    thd: toneless ? null : orbit.thd,
+    thd: toneless || bandless ? null : orbit.thd,
     thdOrders: [2, orbit.harmonics.length],
     harmonics: toneless ? relativeToLargest(orbit.harmonics) : orbit.harmonics,
-    numericalError: c.singleGrid ? null : toneless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
+    numericalError: c.singleGrid ? null : toneless || bandless ? { ...orbit.numericalError, thd: NaN } : orbit.numericalError,
     iterations: orbit.iterations,
     points: orbit.points,
     shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
@@ -839,22 +842,6 @@ function implausibleWarnings(system: MnaSystem, orbit: RefinedOrbit["orbit"]): D
   const { states, start } = orbit;
   const at = times.map((t) => start.t0 + t);
   return implausibleOnOrbit(system, at, states, (k, out) => orbitRate(times, states, k, out)).map((w) => w.diagnostic);
-}
-
-/** The note of a driven orbit whose sources' tones are all harmonics 2, 3, … of their common period: no fundamental, so no THD. */
-function tonelessWarning(c: Context, frequency: number, kind: SteadyResult["kind"]): Diagnostic {
-  const f = formatQuantity(frequency, "Hz");
-  return {
-    severity: "warning",
-    stage: "simulation",
-    code: "orbit-without-fundamental",
-    message:
-      kind === "driven"
-        ? `the orbit's period is the sources' common one (${f}), at which no source has a tone: there is no fundamental to measure THD against`
-        : `the probe ${probeName(c.analysis.probe)} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`,
-    ...(c.analysis.span ? { span: c.analysis.span } : {}),
-    hint: kind === "driven" ? "THD is not given; the harmonics' levels are relative to the largest of them" : "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at the oscillation's frequency for its distortion",
-  };
 }
 
 /**

@@ -42,11 +42,12 @@ export function explainSettled(
   settings: StartupSettings,
   steadyOn: SteadyMeasure = "envelope",
   driven?: number,
+  common = false,
 ): string {
   const steady = steadyOn === "envelope" ? "envelope steady" : "power per cycle steady (the peaks vary at sharp corners)";
   return (
     `settled at ${formatQuantity(amplitude, settings.unit)} peak and ${formatQuantity(frequency, "Hz")}` +
-    (driven === undefined ? "" : `, driven by a ${formatQuantity(driven, "Hz")} source`) +
+    (driven === undefined ? "" : common ? ", driven: the sources' common period" : `, driven by a ${formatQuantity(driven, "Hz")} source`) +
     (startupTime === null ? "" : `, 90 % reached at ${formatQuantity(startupTime, "s")}`) +
     `; ${steady} within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
   );

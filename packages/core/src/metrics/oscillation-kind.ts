@@ -1,4 +1,5 @@
 import type { WaveformShape } from "./waveform-shape.js";
+import { commonPeriod } from "../steady/common-period.js";
 
 /** What the circuit's bias point predicts, linearised: the rightmost complex pair and real poles. */
 export interface LinearPrediction {
@@ -22,7 +23,7 @@ export type SteadyKind = "settled" | "relaxation" | "parasitic";
 
 /** Why a steady oscillation got its kind. */
 export type SteadyReason =
-  | { readonly kind: "settled"; readonly driven?: number }
+  | { readonly kind: "settled"; readonly driven?: number; readonly common?: boolean }
   | { readonly kind: "relaxation"; readonly why: "square" | "triangle" | "no-ringing"; readonly predicted: number | null }
   | { readonly kind: "parasitic"; readonly predicted: number | null };
 
@@ -38,7 +39,8 @@ export const DRIVEN_TOLERANCE = 0.01;
 /**
  * The kind of a steady oscillation, from the linear prediction (the mechanism, the same at every
  * probe) first and the probe's waveform shape only where the mechanism leaves it open:
- * 1. `settled` if its frequency is one of `drives`, a periodic source's (a driven waveform, any shape);
+ * 1. `settled` if its frequency is one of `drives`, a periodic source's, or their common one (a
+ *    driven waveform, any shape; see {@link drivingFrequency});
  * 2. `relaxation` if the bias point has no growing complex pair but a growing real pole: the
  *    loop runs away to a limit and recovers instead of ringing;
  * 3. `settled` if its frequency lies within a factor {@link FAR_FACTOR} of the predicted pair's
@@ -50,8 +52,8 @@ export const DRIVEN_TOLERANCE = 0.01;
  *    `relaxation`, else `settled`).
  */
 export function steadyKind(shape: WaveformShape, frequency: number, prediction: LinearPrediction | undefined, drives: readonly number[] = []): SteadyReason {
-  const driven = drives.find((f) => Math.abs(frequency / f - 1) <= DRIVEN_TOLERANCE);
-  if (driven !== undefined) return { kind: "settled", driven };
+  const driven = drivingFrequency(frequency, drives, DRIVEN_TOLERANCE);
+  if (driven !== undefined) return { kind: "settled", driven, ...(drives.includes(driven) ? {} : { common: true }) };
   const switching = shape.slopeCrest > SQUARE_CREST ? "square" : shape.slopeCrest < TRIANGLE_CREST ? "triangle" : null;
   if (!prediction) return switching ? { kind: "relaxation", why: switching, predicted: null } : { kind: "settled" };
   const predicted = prediction.frequency;
@@ -59,4 +61,16 @@ export function steadyKind(shape: WaveformShape, frequency: number, prediction: 
   const near = (f: number | null) => f !== null && Math.abs(Math.log(frequency / f)) < Math.log(FAR_FACTOR);
   if (near(predicted) || near(prediction.naturalFrequency ?? null)) return { kind: "settled" };
   return switching ? { kind: "relaxation", why: switching, predicted } : { kind: "parasitic", predicted };
+}
+
+/**
+ * The periodic source a measured frequency is, within `tolerance` (relative): one source's, else
+ * the sources' common frequency (600 Hz and 900 Hz repeat together at 300 Hz, of which they are
+ * harmonics 2 and 3: the driven waveform's period is the common one, with no tone of its own).
+ */
+export function drivingFrequency(frequency: number, drives: readonly number[], tolerance: number): number | undefined {
+  const driven = drives.find((f) => Math.abs(frequency / f - 1) <= tolerance);
+  if (driven !== undefined || drives.length < 2) return driven;
+  const common = commonPeriod(drives);
+  return common !== null && Math.abs(frequency * common - 1) <= tolerance ? 1 / common : undefined;
 }

@@ -51,7 +51,16 @@ export function restartWatch(envelope: CycleEnvelope, timeConstant: number): Res
   let peak = 0;
   for (let k = 1; k < value.length; k++) if (value[k] > value[peak]) peak = k;
   if (!(peak > 0 && value[peak] > GREW * value[0])) return null;
-  return { peakAt: time[peak], peak: value[peak], until: Math.max(RESTART_WATCH * time[peak], time[peak] + RECOVERY * timeConstant) };
+  return watchFrom(time[peak], value[peak], timeConstant);
+}
+
+function watchFrom(peakAt: number, peak: number, timeConstant: number): RestartWatch {
+  return { peakAt, peak, until: Math.max(RESTART_WATCH * peakAt, peakAt + RECOVERY * timeConstant) };
+}
+
+/** {@link restartWatch} of a start-up record: of its envelope, or of the burst that died within too few cycles to have one. */
+export function recordWatch(record: { readonly envelope: CycleEnvelope; readonly burst?: { readonly peak: number; readonly peakAt: number } }, timeConstant: number): RestartWatch | null {
+  return record.burst ? watchFrom(record.burst.peakAt, record.burst.peak, timeConstant) : restartWatch(record.envelope, timeConstant);
 }
 
 /**

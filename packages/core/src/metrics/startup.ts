@@ -18,6 +18,7 @@ import { resolveStartupOptions } from "./startup-options.js";
 import type { StartupMetricsOptions, StartupSettings } from "./startup-options.js";
 import { judgeLoop } from "./loop-verdict.js";
 import { judgeEnvelope } from "./verdict.js";
+import { diedBurst, explainDiedBurst, type DiedBurst } from "./died-burst.js";
 import type { StartupVerdict } from "./verdict.js";
 import { checkWaveform } from "./waveform-check.js";
 import { waveformShape } from "./waveform-shape.js";
@@ -62,6 +63,8 @@ export interface StartupMetrics {
   readonly suggestedExtraTime?: number;
   /** Per-cycle envelope against cycle mid-time (for plots), and its slow dynamics. */
   readonly envelope: StartupEnvelope;
+  /** A `decaying` record too short in cycles to measure: the burst that grew and died (see `diedBurst`). */
+  readonly burst?: DiedBurst;
 }
 
 /**
@@ -197,10 +200,12 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
   };
   const n = cycles.count;
 
+  // Too few cycles, yet far above the noise on both sides: an oscillation that grew and died away.
+  const burst = judgement.verdict === "silent" && judgement.reason.kind === "too-few-cycles" ? diedBurst(t, v, tail, settings.noiseFloor, settings.searchFrom) : null;
   if (judgement.verdict === "silent") {
     const metrics: StartupMetrics = {
-      verdict: "silent",
-      explanation: explainSilent(cycles, judgement.reason, settings),
+      verdict: burst ? "decaying" : "silent",
+      explanation: burst ? explainDiedBurst(burst, cycles.count, settings.unit) : explainSilent(cycles, judgement.reason, settings),
       frequency: null,
       frequencySpread: null,
       amplitude: null,
@@ -216,6 +221,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       harmonics: [],
       cycles: n,
       envelope,
+      ...(burst ? { burst } : {}),
     };
     return { metrics, cycles, from: n };
   }
@@ -248,7 +254,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       const shape = waveformShape(t, v, cycles.start[from], cycles.start[n], analysis.offset);
       const kind = steadyKind(shape, figures.frequency, settings.prediction, settings.drives);
       verdict = kind.kind;
-      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven);
+      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven, kind.common);
       else {
         if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
         explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle, settings.unit);

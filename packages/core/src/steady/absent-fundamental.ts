@@ -1,3 +1,5 @@
+import type { Diagnostic, SourceSpan } from "../circuit/diagnostic.js";
+import { formatQuantity } from "../metrics/format.js";
 import type { Harmonic } from "../metrics/spectrum.js";
 
 /**
@@ -24,4 +26,23 @@ export function relativeToLargest(harmonics: readonly Harmonic[]): Harmonic[] {
   let largest = 0;
   for (const h of harmonics) largest = Math.max(largest, h.amplitude);
   return harmonics.map((h) => ({ ...h, dBc: 20 * Math.log10(h.amplitude / largest) }));
+}
+
+/**
+ * The note of a waveform without a fundamental at `frequency` at the probe: a driven one whose
+ * sources' tones are all harmonics 2, 3, … of their common period, or an oscillation the probe
+ * sees only at its harmonics. No THD is given.
+ */
+export function tonelessWarning(probe: string, frequency: number, driven: boolean, span: SourceSpan | undefined): Diagnostic {
+  const f = formatQuantity(frequency, "Hz");
+  return {
+    severity: "warning",
+    stage: "simulation",
+    code: "orbit-without-fundamental",
+    message: driven
+      ? `the orbit's period is the sources' common one (${f}), at which no source has a tone: there is no fundamental to measure THD against`
+      : `the probe ${probe} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`,
+    ...(span ? { span } : {}),
+    hint: driven ? "THD is not given; the harmonics' levels are relative to the largest of them" : "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at the oscillation's frequency for its distortion",
+  };
 }
