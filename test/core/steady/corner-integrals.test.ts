@@ -1,23 +1,12 @@
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
 import { cornerIntegralBounds, orbitFigures, type PeriodicOrbit } from "@onset/core/engine";
+import { jitteredOrbit } from "../../support/jittered-orbit.js";
 
 const T = 1e-3;
 const A = 10;
 
-/** One period of `wave` on a grid of N steps whose lengths vary by up to ±30 % (`jitter`), as a one-unknown orbit. */
-function orbitOf(wave: (t: number) => number, N: number, jitter: number[]): PeriodicOrbit {
-  const raw = Array.from({ length: N }, (_, k) => 1 + 0.3 * jitter[k % jitter.length]!);
-  const sum = raw.reduce((a, b) => a + b, 0);
-  const fractions = Float64Array.from(raw, (r) => r / sum);
-  let t = 0;
-  const states = [Float64Array.of(wave(0))];
-  for (let k = 0; k < N; k++) {
-    t += fractions[k]! * T;
-    states.push(Float64Array.of(wave(k === N - 1 ? T : t)));
-  }
-  return { start: { t0: 0, x: states[0]!, period: T }, fractions, states, iterations: 0, mismatch: 0, multipliers: [] };
-}
+const orbitOf = (wave: (t: number) => number, N: number, jitter: number[]) => jitteredOrbit(wave, T, N, jitter);
 const read = (x: Float64Array) => x[0]!;
 
 /** A·sin(ωt + φ) clipped at ±L. */

@@ -488,18 +488,7 @@ function refineSettled(
   // Judged elsewhere, the orbit's figures are the probe's: the caller reports them beside the judged outcome.
   if (s.judgedAt) return { metrics: { ...metrics, explanation }, numericalError: orbit.numericalError, orders, settled, orbit };
   return {
-    metrics: {
-      ...metrics,
-      explanation,
-      frequency: orbit.frequency,
-      amplitude: orbit.amplitude,
-      peakToPeak: orbit.peakToPeak,
-      rms: orbit.rms,
-      offset: orbit.offset,
-      thd: orbit.thd,
-      thdPlusNoise: plusRunNoise(orbit.thd, metrics),
-      harmonics: orbit.harmonics,
-    },
+    metrics: { ...metrics, explanation, ...settledFigures(orbit, metrics) },
     numericalError: orbit.numericalError,
     orders,
     settled,
@@ -514,6 +503,11 @@ function refineSettled(
 function seenAtProbe(t: Float64Array, v: Float64Array, judgement: StartupJudgement, maxOrder: number, orbit: SettledOrbit | null): ProbeFigures & { frequency: number | null; envelope: Float64Array } {
   const run = probeFigures(t, v, judgement, maxOrder);
   if (!orbit) return { ...run.figures, frequency: null, envelope: run.envelope };
+  return { ...settledFigures(orbit, run.figures), envelope: run.envelope };
+}
+
+/** The settled orbit's figures at the probe, THD+N with the run's own noise (see `plusRunNoise`). */
+function settledFigures(orbit: SettledOrbit, run: Pick<StartupMetrics, "thd" | "thdPlusNoise">) {
   return {
     frequency: orbit.frequency,
     amplitude: orbit.amplitude,
@@ -521,9 +515,8 @@ function seenAtProbe(t: Float64Array, v: Float64Array, judgement: StartupJudgeme
     rms: orbit.rms,
     offset: orbit.offset,
     thd: orbit.thd,
-    thdPlusNoise: plusRunNoise(orbit.thd, run.figures),
+    thdPlusNoise: plusRunNoise(orbit.thd, run),
     harmonics: orbit.harmonics,
-    envelope: run.envelope,
   };
 }
 
