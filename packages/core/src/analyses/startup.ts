@@ -441,6 +441,16 @@ function refineSettled(
   },
 ): { metrics: StartupMetrics; numericalError: NumericalError | null; orders: number; settled: SettledFigures; orbit: SettledOrbit | null } {
   const fromRun = (note: string | null) => ({ metrics, numericalError: null, orders: s.orders, settled: { from: "run" as const, note, iterations: null, points: null }, orbit: null });
+  // A level envelope that has not settled: the run's figures, `unsettled`, and why.
+  const notSettled = (run: ReturnType<typeof fromRun>, why: string) => ({
+    ...run,
+    metrics: {
+      ...metrics,
+      verdict: "unsettled" as const,
+      settlingTime: null,
+      explanation: `the envelope held steady, but ${why}: the circuit has not settled (a swing clipped at a limit stays level while a slow state, such as an amplitude loop's, still moves); raise ${s.raise} to see where it goes, or run steady for the orbit and its stability`,
+    },
+  });
   if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
   const f = metrics.frequency;
   const drive = drivingFrequency(f, s.drives, DRIVE_MATCH);
@@ -457,30 +467,14 @@ function refineSettled(
     // With no orbit to compare, the run's own state says whether it repeats.
     const drift = largestStateDrift(s.quiet, s.stepper.snapshot(), drive === undefined ? 1 / f : 1 / drive, s.maxStep, s.tolerances);
     if (!(drift.share > STATE_DRIFT)) return fromRun(note);
-    return {
-      ...fromRun(note),
-      metrics: {
-        ...metrics,
-        verdict: "unsettled",
-        settlingTime: null,
-        explanation: `the envelope held steady, but the charged state ${drift.label} still moves by ${formatPercent(drift.share)} of its size per period and no periodic orbit was found next to the run: the circuit has not settled (a swing clipped at a limit stays level while a slow state, such as an amplitude loop's, still moves); raise ${s.raise} to see where it goes, or run steady for the orbit and its stability`,
-      },
-    };
+    return notSettled(fromRun(note), `the charged state ${drift.label} still moves by ${formatPercent(drift.share)} of its size per period and no periodic orbit was found next to the run`);
   }
   // The orbit's swing where the outcome is judged (on the finer grid when that is not the probe: the test allows 5 %).
   const swing = s.judgedAt ? orbitFigures(orbit.orbit, probeReader(s.quiet, s.judgedAt), 2).metrics.amplitude : orbit.amplitude;
   const distance = Math.abs(swing / metrics.amplitude! - 1);
   if (!(distance <= ORBIT_AGREEMENT)) {
     const apart = `${formatQuantity(swing, unit)} peak, ${formatPercent(distance)} from the last cycles' ${formatQuantity(metrics.amplitude!, unit)}`;
-    return {
-      ...fromRun(`the figures are the run's last cycles: the periodic orbit next to them swings ${apart}`),
-      metrics: {
-        ...metrics,
-        verdict: "unsettled",
-        settlingTime: null,
-        explanation: `the envelope held steady, but the periodic orbit next to the run swings ${apart}: the circuit has not settled (a swing clipped at a limit stays level while a slow state, such as an amplitude loop's, still moves); raise ${s.raise} to see where it goes, or run steady for the orbit and its stability`,
-      },
-    };
+    return notSettled(fromRun(`the figures are the run's last cycles: the periodic orbit next to them swings ${apart}`), `the periodic orbit next to the run swings ${apart}`);
   }
   const settled = { from: "orbit" as const, note: orbit.merged > 1 ? mergedGridNote(orbit.merged, s.maxStoredPoints) : null, iterations: orbit.iterations, points: orbit.points };
   // The one-line explanation names the settled amplitude and frequency: the orbit's now.

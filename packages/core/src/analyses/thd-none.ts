@@ -46,6 +46,6 @@ export function bandWarning(bandwidth: number, frequency: number, span: SourceSp
 /** A settled start-up's figures without THD when `bandwidth=` lies below its 2nd harmonic, with the note that says so. */
 export function withoutBandHarmonics<T extends Refined>(refined: T, bandwidth: number | undefined, span: SourceSpan | undefined): { refined: T; warning: Diagnostic | null } {
   const m = refined.metrics;
-  if (m.thd === null || m.frequency === null || bandwidth === undefined || !noHarmonicInBand(bandwidth, m.frequency)) return { refined, warning: null };
-  return { refined: withoutThd(refined), warning: bandWarning(bandwidth, m.frequency, span) };
+  if (m.thd === null || m.frequency === null || !noHarmonicInBand(bandwidth, m.frequency)) return { refined, warning: null };
+  return { refined: withoutThd(refined), warning: bandWarning(bandwidth!, m.frequency, span) };
 }

@@ -16,16 +16,20 @@ const ABSENT_SHARE = 1e-3;
 /** True when the orbit's spectrum has no fundamental to measure distortion against (see `ABSENT_SHARE`). */
 export function fundamentalAbsent(harmonics: readonly Harmonic[]): boolean {
   const first = harmonics[0]?.amplitude ?? 0;
-  let largest = 0;
-  for (const h of harmonics) largest = Math.max(largest, h.amplitude);
+  const largest = largestAmplitude(harmonics);
   return largest > 0 && !(first >= ABSENT_SHARE * largest);
 }
 
 /** The harmonics' levels in dB relative to the largest of them (in place of the absent fundamental). */
 export function relativeToLargest(harmonics: readonly Harmonic[]): Harmonic[] {
+  const largest = largestAmplitude(harmonics);
+  return harmonics.map((h) => ({ ...h, dBc: 20 * Math.log10(h.amplitude / largest) }));
+}
+
+function largestAmplitude(harmonics: readonly Harmonic[]): number {
   let largest = 0;
   for (const h of harmonics) largest = Math.max(largest, h.amplitude);
-  return harmonics.map((h) => ({ ...h, dBc: 20 * Math.log10(h.amplitude / largest) }));
+  return largest;
 }
 
 /**
