@@ -27,11 +27,39 @@ export function eigenvalues(a: Float64Array, n: number, check?: () => void): Eig
     return { re: Float64Array.from(eig.realEigenvalues), im: Float64Array.from(eig.imaginaryEigenvalues) };
   }
   const h = Float64Array.from(a);
+  const scale = exactScale(h);
+  if (scale !== 1) for (let k = 0; k < h.length; k++) h[k] = h[k]! / scale;
   hessenberg(h, n, check);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   shiftedQr(h, n, re, im, check);
+  if (scale !== 1) for (let k = 0; k < n; k++) [re[k], im[k]] = [re[k]! * scale, im[k]! * scale];
   return { re, im };
+}
+
+/**
+ * Entries beyond 2^±256 in magnitude: the QR sweep multiplies three of them, which underflows
+ * (to subnormals and 0) or overflows, and the iteration never deflates. Such a matrix is scaled by
+ * the power of two nearest its largest entry, which is exact, and its eigenvalues scaled back; any
+ * other is left as it is (the library's eigenvalues, bit for bit).
+ */
+const SCALED_BEYOND = 2 ** 256;
+
+/**
+ * A subdiagonal entry below 2^−500 is negligible whatever its neighbours: with the largest entry
+ * within 2^±256 (see `SCALED_BEYOND`) it is some 2^−200 of the matrix's norm, far below the
+ * rounding error every sweep already makes, and a block that small cannot be swept (its products
+ * underflow: a fast state's column in a monodromy matrix, e^−T/τ, meets another such one).
+ * LAPACK's hqr deflates on an absolute threshold for the same reason.
+ */
+const NEGLIGIBLE = 2 ** -500;
+
+/** The power of two A is divided by before the iteration (1: none, see `SCALED_BEYOND`). */
+function exactScale(a: Float64Array): number {
+  let largest = 0;
+  for (let k = 0; k < a.length; k++) largest = Math.max(largest, Math.abs(a[k]!));
+  if (!(largest > 0 && largest < 1 / SCALED_BEYOND) && !(largest > SCALED_BEYOND && largest < Infinity)) return 1;
+  return 2 ** Math.round(Math.log2(largest));
 }
 
 function isSymmetric(a: Float64Array, n: number): boolean {
@@ -111,7 +139,7 @@ function shiftedQr(h: Float64Array, nn: number, re: Float64Array, im: Float64Arr
     while (l > 0) {
       let s = Math.abs(h[(l - 1) * nn + l - 1]!) + Math.abs(h[l * nn + l]!);
       if (s === 0) s = norm;
-      if (Math.abs(h[l * nn + l - 1]!) < eps * s) break;
+      if (Math.abs(h[l * nn + l - 1]!) < eps * s || Math.abs(h[l * nn + l - 1]!) < NEGLIGIBLE) break;
       l--;
     }
     if (l === n) {
