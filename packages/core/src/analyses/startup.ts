@@ -300,8 +300,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       // A settled run's orbit is found now: one far from the run's last cycles says it has not settled, and the run goes on.
       refined = metrics.verdict === "settled" ? refineSettled(metrics, settledFromOrbit, orbitSettings) : undefined;
       if (refined) metrics = refined.metrics;
+      // Irregular collapses may yet land on the orbit: bouncing is final once they repeat a cycle (or at the bound).
       const done =
-        FINAL_VERDICTS.has(metrics.verdict) ||
+        (FINAL_VERDICTS.has(metrics.verdict) && !judgement!.irregular) ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
       if (done && !(forming && target < bound)) break;

@@ -86,9 +86,19 @@ export function explainDecaying(trend: TailTrend, growthRate: number | null): st
   );
 }
 
-export function explainBouncing(reason: BouncingReason, b: Bounce): string {
+/**
+ * Why a record is `bouncing`; `irregularPeaks`, the collapses' peaks when they neither die away
+ * nor repeat a cycle (see `collapsesRepeat`), in `unit`.
+ */
+export function explainBouncing(reason: BouncingReason, b: Bounce, irregularPeaks?: readonly number[], unit = "V"): string {
   if (reason.kind === "collapses") {
     const times = reason.count === 1 ? "once" : `${reason.count} times`;
+    if (irregularPeaks) {
+      return (
+        `the amplitude loop has not settled: the envelope collapsed and restarted ${times}, at irregular heights or spacings ` +
+        `(peaks ${irregularPeaks.map((x) => formatQuantity(x, unit)).join(", ")}), neither dying away nor repeating a cycle; a longer run may still settle`
+      );
+    }
     return `the amplitude loop is unstable: the envelope collapsed and restarted ${times}${b.bounceFrequency === null ? "" : `; it bounces${bounceText(b)}`}`;
   }
   return `the amplitude loop is unstable: the envelope bounces${bounceText(b)} and does not die away`;
