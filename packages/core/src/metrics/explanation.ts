@@ -86,6 +86,9 @@ export function explainDecaying(trend: TailTrend, growthRate: number | null): st
   );
 }
 
+/** Collapse peaks an explanation lists at most (the last ones). */
+const SHOWN_PEAKS = 6;
+
 /**
  * Why a record is `bouncing`; `irregularPeaks`, the collapses' peaks when they neither die away
  * nor repeat a cycle (see `collapsesRepeat`), in `unit`.
@@ -96,7 +99,7 @@ export function explainBouncing(reason: BouncingReason, b: Bounce, irregularPeak
     if (irregularPeaks) {
       return (
         `the amplitude loop has not settled: the envelope collapsed and restarted ${times}, at irregular heights or spacings ` +
-        `(peaks ${irregularPeaks.map((x) => formatQuantity(x, unit)).join(", ")}), neither dying away nor repeating a cycle; a longer run may still settle`
+        `(${irregularPeaks.length > SHOWN_PEAKS ? `the last ${SHOWN_PEAKS} peaks` : "peaks"} ${irregularPeaks.slice(-SHOWN_PEAKS).map((x) => formatQuantity(x, unit)).join(", ")}), neither dying away nor repeating a cycle; a longer run may still settle`
       );
     }
     return `the amplitude loop is unstable: the envelope collapsed and restarted ${times}${b.bounceFrequency === null ? "" : `; it bounces${bounceText(b)}`}`;
