@@ -311,7 +311,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       options.onProgress?.(stepper.t, target);
     }
     const restarting = mayRestart(metrics, stepper.t);
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || judgement!.irregular || restarting) {
       // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a collapsed swing is not the one waited for).
       const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtJudged > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtJudged, unit: judgedUnit, share: noiseAtJudged / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));

@@ -84,33 +84,43 @@ function shallower(b: Collapse, a: Collapse, keep: number): boolean {
   return b.low > 0 || b.duration <= keep * a.duration;
 }
 
-/** Collapses whose heights and spacings agree that make a repeating envelope cycle. */
-export const REPEATS = 3;
+/**
+ * Collapses alike that make a repeating envelope cycle: three cycles of it, as many bounces as
+ * make a sustained one (`SUSTAINED_BOUNCES`); fewer can agree by chance in a loop thrown about
+ * by its overshoots.
+ */
+export const REPEATS = 4;
+/** Collapses, each deeper than the one before, that show the excursions growing. */
+export const GROWING = 3;
 
 /** Whether `b`/`a` lies within the factor `keep` either way. */
 function within(b: number, a: number, keep: number): boolean {
   return b >= keep * a && a >= keep * b;
 }
 
+/** Whether collapse `b` repeats `a`, the one before it: its peak, and its depth when both are dips, within the factor `keep`. */
+function alike(b: Collapse, a: Collapse, keep: number): boolean {
+  return within(b.peak, a.peak, keep) && !(a.low > 0 && b.low > 0 && !within(depth(b), depth(a), keep));
+}
+
 /**
- * Whether a series of at least {@link REPEATS} collapses shows the envelope's own cycle, not a
- * transient that may yet settle: its last {@link REPEATS} collapses agree (each one's peak, depth when both are dips,
- * and time from the fall before within the factor `keep` of the one before: a limit cycle of
- * the envelope repeats itself), or each collapse is deeper than the one before by at least
- * 1/`keep` (the excursions grow: the mirror of {@link collapsesDying}). Irregular collapses, of
- * wandering heights or spacings, are neither: a stable loop thrown about by its large-signal
- * overshoots can land on its orbit after any of them.
+ * Whether a series of collapses shows the envelope's own cycle, not a transient that may yet
+ * settle: its last {@link REPEATS} collapses are alike (see `alike`) and evenly spaced (each
+ * time from the fall before within the factor `keep` of the one before: a limit cycle of the
+ * envelope repeats itself), or it has at least {@link GROWING} collapses, each deeper than the
+ * one before by at least 1/`keep` (the excursions grow: the mirror of {@link collapsesDying}).
+ * Irregular collapses, of wandering heights or spacings, are neither: a stable loop thrown
+ * about by its large-signal overshoots can land on its orbit after any of them.
  */
 export function collapsesRepeat(series: readonly Collapse[], keep: number): boolean {
   const n = series.length;
-  if (n < REPEATS) return false;
-  let growing = true;
+  let growing = n >= GROWING;
   for (let k = 1; k < n && growing; k++) growing = shallower(series[k - 1], series[k], keep);
   if (growing) return true;
+  if (n < REPEATS) return false;
   for (let k = n - REPEATS + 1; k < n; k++) {
-    const [a, b] = [series[k - 1], series[k]];
-    if (!within(b.peak, a.peak, keep) || (a.low > 0 && b.low > 0 && !within(depth(b), depth(a), keep))) return false;
-    if (k >= n - REPEATS + 2 && !within(b.at - a.at, a.at - series[k - 2].at, keep)) return false;
+    if (!alike(series[k], series[k - 1], keep)) return false;
+    if (k >= n - REPEATS + 2 && !within(series[k].at - series[k - 1].at, series[k - 1].at - series[k - 2].at, keep)) return false;
   }
   return true;
 }

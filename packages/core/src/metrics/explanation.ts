@@ -1,5 +1,6 @@
 import type { CycleTable } from "./cycles.js";
 import type { TailTrend } from "./envelope-trend.js";
+import { GROWING, REPEATS } from "./collapses.js";
 import { formatPercent, formatQuantity, formatRate } from "./format.js";
 import type { StartupSettings } from "./startup-options.js";
 import type { SteadyReason } from "./oscillation-kind.js";
@@ -98,8 +99,9 @@ export function explainBouncing(reason: BouncingReason, b: Bounce, irregularPeak
     const times = reason.count === 1 ? "once" : `${reason.count} times`;
     if (irregularPeaks) {
       return (
-        `the amplitude loop has not settled: the envelope collapsed and restarted ${times}, at irregular heights or spacings ` +
-        `(${irregularPeaks.length > SHOWN_PEAKS ? `the last ${SHOWN_PEAKS} peaks` : "peaks"} ${irregularPeaks.slice(-SHOWN_PEAKS).map((x) => formatQuantity(x, unit)).join(", ")}), neither dying away nor repeating a cycle; a longer run may still settle`
+        `the amplitude loop has not settled: the envelope collapsed and restarted ${times} ` +
+        `(${irregularPeaks.length > SHOWN_PEAKS ? `the last ${SHOWN_PEAKS} peaks` : "peaks"} ${irregularPeaks.slice(-SHOWN_PEAKS).map((x) => formatQuantity(x, unit)).join(", ")}), ` +
+        `neither dying away nor yet repeating a cycle (${REPEATS} collapses alike, or ${GROWING} each deeper); a longer run may still settle`
       );
     }
     return `the amplitude loop is unstable: the envelope collapsed and restarted ${times}${b.bounceFrequency === null ? "" : `; it bounces${bounceText(b)}`}`;
