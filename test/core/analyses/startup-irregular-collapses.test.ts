@@ -5,8 +5,9 @@
 // repeating envelope cycle: until=auto must run on, not stop at the first two as bouncing. A
 // loop that squegs (a rail-clipped swing, its detector fed through 22 kΩ) repeats its collapses
 // alike and is still called bouncing early (the circuit of startup-state-drift.test.ts).
+import { readFileSync } from "node:fs";
 import { describe, expect, test } from "vitest";
-import { runStartup } from "@onset/core";
+import { runStartup, runSteady } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
 import { detectorWienSource } from "../../support/jfet-detector-wien.js";
 
@@ -45,5 +46,22 @@ describe("irregular collapses are no bouncing verdict yet", () => {
     expect(r.verdict).toBe("bouncing");
     expect(r.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted \d+ times/);
     expect(r.run.until).toBeLessThan(1);
+  });
+});
+
+describe("examples/jfet-loop-source.onset with its detector capacitor at 2.2 µF", () => {
+  const source = readFileSync(new URL("../../../examples/jfet-loop-source.onset", import.meta.url), "utf8").replace("param Cf = 1uF", "param Cf = 2.2uF");
+  const circuit = buildCircuit(loadSource("jfet-loop-source.onset", source)).circuit;
+
+  test("collapses twice after its first overshoots, then settles under until=auto, on the output and the detector, on the steady orbit", () => {
+    const auto = runStartup(circuit, { kind: "startup", probe: node("o"), until: "auto" });
+    // measured: settled at 0.435 s, 4.414380 V, 2003.92 Hz (envelope maxima 4.683, 4.675 V, minima 19 mV, 39 mV, then 4.585, 4.536, 4.501 V …)
+    expect(auto.verdict).toBe("settled");
+    expect(runStartup(circuit, { kind: "startup", probe: node("c"), until: "auto" }).verdict).toBe("settled");
+    // Source: the periodic steady state by shooting, an independent route from the noiseless bias point (measured: stable, |μ| 0.974; its closed-form checks: test/e2e/steady-acceptance.test.ts)
+    const steady = runSteady(circuit, { kind: "steady", probe: node("o") });
+    expect(steady.stability!.verdict).toBe("stable");
+    expect(Math.abs(auto.amplitude! / steady.amplitude! - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(auto.frequency! / steady.frequency! - 1)).toBeLessThan(1e-4);
   });
 });
