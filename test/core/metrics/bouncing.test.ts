@@ -24,13 +24,21 @@ function squegging(every: number, from: number): (t: number) => number {
 }
 
 describe("bouncing: the envelope collapses and restarts", () => {
-  test("collapses to 1 % every 40 cycles, three restarts within 130 cycles (the last caught once it has risen fivefold): bouncing, with the count", () => {
-    const t = times(130, 71);
+  test("collapses to 1 % every 40 cycles, four restarts within 170 cycles (the last caught once it has risen fivefold): bouncing, with the count", () => {
+    const t = times(170, 71);
     const envelope = squegging(40, 0.01);
     const metrics = measureStartup(t, sampled(t, (x) => envelope(x) * Math.sin(omega * x)));
     expect(metrics.verdict).toBe("bouncing");
     expect(metrics.thd).toBeNull();
-    expect(metrics.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted 3 times/);
+    expect(metrics.explanation).toMatch(/^the amplitude loop is unstable: the envelope collapsed and restarted 4 times/);
+  });
+
+  test("three restarts alike within 130 cycles: bouncing, but not yet a repeating cycle (three collapses can agree by chance)", () => {
+    const t = times(130, 71);
+    const envelope = squegging(40, 0.01);
+    const metrics = measureStartup(t, sampled(t, (x) => envelope(x) * Math.sin(omega * x)));
+    expect(metrics.verdict).toBe("bouncing");
+    expect(metrics.explanation).toMatch(/^the amplitude loop has not settled: the envelope collapsed and restarted 3 times \(peaks [^)]*\), neither dying away nor yet repeating a cycle \(4 collapses alike, or 3 each deeper\)/);
   });
 
   test("collapses below the crossing hysteresis (the cycles stop, a gap) count as well", () => {

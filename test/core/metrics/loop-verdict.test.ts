@@ -104,8 +104,8 @@ describe("judgeLoop on collapsing envelopes", () => {
 });
 
 describe("collapsesDying(series, keep)", () => {
-  const dip = (depth: number): Collapse => ({ peak: Math.exp(depth), low: 1, duration: 0.02 });
-  const stop = (duration: number): Collapse => ({ peak: 10, low: 0, duration });
+  const dip = (depth: number): Collapse => ({ peak: Math.exp(depth), low: 1, duration: 0.02, at: 0 });
+  const stop = (duration: number): Collapse => ({ peak: 10, low: 0, duration, at: 0 });
 
   test("keep is what a sustained bounce keeps at most per bounce: 0.8 over 3 bounces (0.928)", () => {
     expect(DYING_KEEP).toBeCloseTo(0.8 ** (1 / 3), 12);

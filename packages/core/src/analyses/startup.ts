@@ -300,8 +300,9 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       // A settled run's orbit is found now: one far from the run's last cycles says it has not settled, and the run goes on.
       refined = metrics.verdict === "settled" ? refineSettled(metrics, settledFromOrbit, orbitSettings) : undefined;
       if (refined) metrics = refined.metrics;
+      // Irregular collapses may yet land on the orbit: bouncing is final once they repeat a cycle (or at the bound).
       const done =
-        FINAL_VERDICTS.has(metrics.verdict) ||
+        (FINAL_VERDICTS.has(metrics.verdict) && !judgement!.irregular) ||
         ((metrics.verdict === "silent" || metrics.verdict === "decaying") && target >= AUTO_FIRST_CYCLES * period && !mayRestart(metrics, target)) ||
         target >= bound;
       if (done && !(forming && target < bound)) break;
@@ -310,7 +311,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
       options.onProgress?.(stepper.t, target);
     }
     const restarting = mayRestart(metrics, stepper.t);
-    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || restarting) {
+    if (metrics.verdict === "growing" || metrics.verdict === "unsettled" || judgement!.irregular || restarting) {
       // The excitation's own noise, against the swing: above the settled tolerance the envelope never holds still (a collapsed swing is not the one waited for).
       const noisy = !restarting && !endsCollapsed(metrics.envelope) && metrics.amplitude !== null && metrics.amplitude > 0 && noiseAtJudged > NOISY_SHARE * metrics.amplitude ? { rms: noiseAtJudged, unit: judgedUnit, share: noiseAtJudged / metrics.amplitude } : null;
       warnings.push(boundWarning(analysis, bound - searchFrom, period, noisy));

@@ -15,6 +15,8 @@ export interface Collapse {
   readonly low: number;
   /** s: from the fall below {@link COLLAPSE} of the peak to the restart. */
   readonly duration: number;
+  /** s: the fall below {@link COLLAPSE} of the peak (the start of that cycle). */
+  readonly at: number;
 }
 
 function medianPeriod(cycles: CycleTable): number {
@@ -47,7 +49,7 @@ export function collapses(cycles: CycleTable, floor = 0): Collapse[] {
     // after a stop the swing's lowest is unknown, under the hysteresis: the floor stands for it
     if (down && !gap && e[k] >= RESTART * (low > 0 ? low : floor) && e[k] > floor) {
       down = false;
-      found.push({ peak, low, duration: cycles.start[k] - fell });
+      found.push({ peak, low, duration: cycles.start[k] - fell, at: fell });
       peak = 0;
     }
     if (!down && peak > floor && (gap || e[k] < COLLAPSE * peak)) {
@@ -80,6 +82,47 @@ function depth(c: Collapse): number {
 function shallower(b: Collapse, a: Collapse, keep: number): boolean {
   if (a.low > 0) return b.low > 0 && depth(b) <= keep * depth(a);
   return b.low > 0 || b.duration <= keep * a.duration;
+}
+
+/**
+ * Collapses alike that make a repeating envelope cycle: three cycles of it, as many bounces as
+ * make a sustained one (`SUSTAINED_BOUNCES`); fewer can agree by chance in a loop thrown about
+ * by its overshoots.
+ */
+export const REPEATS = 4;
+/** Collapses, each deeper than the one before, that show the excursions growing. */
+export const GROWING = 3;
+
+/** Whether `b`/`a` lies within the factor `keep` either way. */
+function within(b: number, a: number, keep: number): boolean {
+  return b >= keep * a && a >= keep * b;
+}
+
+/** Whether collapse `b` repeats `a`, the one before it: its peak, and its depth when both are dips, within the factor `keep`. */
+function alike(b: Collapse, a: Collapse, keep: number): boolean {
+  return within(b.peak, a.peak, keep) && !(a.low > 0 && b.low > 0 && !within(depth(b), depth(a), keep));
+}
+
+/**
+ * Whether a series of collapses shows the envelope's own cycle, not a transient that may yet
+ * settle: its last {@link REPEATS} collapses are alike (see `alike`) and evenly spaced (each
+ * time from the fall before within the factor `keep` of the one before: a limit cycle of the
+ * envelope repeats itself), or it has at least {@link GROWING} collapses, each deeper than the
+ * one before by at least 1/`keep` (the excursions grow: the mirror of {@link collapsesDying}).
+ * Irregular collapses, of wandering heights or spacings, are neither: a stable loop thrown
+ * about by its large-signal overshoots can land on its orbit after any of them.
+ */
+export function collapsesRepeat(series: readonly Collapse[], keep: number): boolean {
+  const n = series.length;
+  let growing = n >= GROWING;
+  for (let k = 1; k < n && growing; k++) growing = shallower(series[k - 1], series[k], keep);
+  if (growing) return true;
+  if (n < REPEATS) return false;
+  for (let k = n - REPEATS + 1; k < n; k++) {
+    if (!alike(series[k], series[k - 1], keep)) return false;
+    if (k >= n - REPEATS + 2 && !within(series[k].at - series[k - 1].at, series[k - 1].at - series[k - 2].at, keep)) return false;
+  }
+  return true;
 }
 
 /**

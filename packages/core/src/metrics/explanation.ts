@@ -1,5 +1,6 @@
 import type { CycleTable } from "./cycles.js";
 import type { TailTrend } from "./envelope-trend.js";
+import { GROWING, REPEATS } from "./collapses.js";
 import { formatPercent, formatQuantity, formatRate } from "./format.js";
 import type { StartupSettings } from "./startup-options.js";
 import type { SteadyReason } from "./oscillation-kind.js";
@@ -86,9 +87,23 @@ export function explainDecaying(trend: TailTrend, growthRate: number | null): st
   );
 }
 
-export function explainBouncing(reason: BouncingReason, b: Bounce): string {
+/** Collapse peaks an explanation lists at most (the last ones). */
+const SHOWN_PEAKS = 6;
+
+/**
+ * Why a record is `bouncing`; `irregularPeaks`, the collapses' peaks when they neither die away
+ * nor repeat a cycle (see `collapsesRepeat`), in `unit`.
+ */
+export function explainBouncing(reason: BouncingReason, b: Bounce, irregularPeaks?: readonly number[], unit = "V"): string {
   if (reason.kind === "collapses") {
     const times = reason.count === 1 ? "once" : `${reason.count} times`;
+    if (irregularPeaks) {
+      return (
+        `the amplitude loop has not settled: the envelope collapsed and restarted ${times} ` +
+        `(${irregularPeaks.length > SHOWN_PEAKS ? `the last ${SHOWN_PEAKS} peaks` : "peaks"} ${irregularPeaks.slice(-SHOWN_PEAKS).map((x) => formatQuantity(x, unit)).join(", ")}), ` +
+        `neither dying away nor yet repeating a cycle (${REPEATS} collapses alike, or ${GROWING} each deeper); a longer run may still settle`
+      );
+    }
     return `the amplitude loop is unstable: the envelope collapsed and restarted ${times}${b.bounceFrequency === null ? "" : `; it bounces${bounceText(b)}`}`;
   }
   return `the amplitude loop is unstable: the envelope bounces${bounceText(b)} and does not die away`;

@@ -1,4 +1,4 @@
-import { collapses, collapsesDying, type Collapse } from "./collapses.js";
+import { collapses, collapsesDying, collapsesRepeat, type Collapse } from "./collapses.js";
 import type { CycleTable } from "./cycles.js";
 import { envelopeDynamics, SUSTAINED_BOUNCES, SUSTAINED_LOSS, type EnvelopeDynamics } from "./envelope-dynamics.js";
 import type { StartupSettings } from "./startup-options.js";
@@ -37,6 +37,11 @@ export interface LoopJudgement {
   readonly dynamics: EnvelopeDynamics | null;
   /** s: how much longer the slow dynamics need to die away within the tolerance, when known. */
   readonly extraTime?: number;
+  /**
+   * A `bouncing` record whose collapses are irregular (see `collapsesRepeat`): they neither die
+   * away nor repeat a cycle yet, so a longer run may still settle (until=auto runs on).
+   */
+  readonly irregular?: { readonly peaks: readonly number[] };
 }
 
 /**
@@ -47,7 +52,8 @@ export interface LoopJudgement {
  * fitted (`envelopeDynamics`); then
  * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times and has not settled since,
  *    the collapses not dying away (see `collapsesDying`, with {@link DYING_KEEP}) — dying ones are a
- *    stable loop's large bounce: `unsettled` (`collapses-dying`); or if its bounce is sustained
+ *    stable loop's large bounce: `unsettled` (`collapses-dying`); `irregular` when they do not repeat
+ *    a cycle either (see `collapsesRepeat`, with the same factor); or if its bounce is sustained
  *    (see `EnvelopeDynamics.sustained`) with an amplitude above `settleTolerance` (relative);
  * 2. a `settled` record whose fit would still move the envelope by more than `settleTolerance`
  *    (relative) after the record's end is `unsettled` (`loop-moving`), with the time its slowest
@@ -78,7 +84,10 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   // Collapses the record then steadied from (cycle to cycle, its bounce dying away) were the loop's start-up; the fit below still judges whether it has settled.
   const settledSince = judgement.verdict === "settled" && !dynamics.sustained;
   if (series.length >= COLLAPSES_TO_BOUNCE && !settledSince) {
-    if (!collapsesDying(series, DYING_KEEP)) return { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: series.length }, trend }, dynamics };
+    if (!collapsesDying(series, DYING_KEEP)) {
+      const judged: LoopJudgement = { judgement: { verdict: "bouncing", reason: { kind: "collapses", count: series.length }, trend }, dynamics };
+      return collapsesRepeat(series, DYING_KEEP) ? judged : { ...judged, irregular: { peaks: series.map((c) => c.peak) } };
+    }
     if (judgement.verdict !== "settled") return { judgement: { verdict: "unsettled", reason: dyingReason(series), trend }, dynamics };
   }
   if (dynamics.sustained && dynamics.remaining > settings.settleTolerance) return { judgement: { verdict: "bouncing", reason: { kind: "sustained" }, trend }, dynamics };

@@ -180,6 +180,8 @@ export interface StartupJudgement {
   readonly metrics: StartupMetrics;
   readonly cycles: CycleTable;
   readonly from: number;
+  /** A `bouncing` record whose collapses neither die away nor repeat a cycle yet (a longer run may settle). */
+  readonly irregular: boolean;
 }
 
 /** {@link measureStartup}, with the cycles its verdict and figures came from. */
@@ -223,7 +225,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       envelope,
       ...(burst ? { burst } : {}),
     };
-    return { metrics, cycles, from: n };
+    return { metrics, cycles, from: n, irregular: false };
   }
 
   const { trend } = judgement;
@@ -273,7 +275,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       explanation = explainUnsettled(cycles, judgement.reason, trend, settings, envelope, suggestedExtraTime);
       break;
     case "bouncing":
-      explanation = explainBouncing(judgement.reason, envelope);
+      explanation = explainBouncing(judgement.reason, envelope, loop.irregular?.peaks, settings.unit);
       break;
   }
 
@@ -296,5 +298,5 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
     cycles: n,
     envelope,
   };
-  return { metrics: suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime }, cycles, from };
+  return { metrics: suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime }, cycles, from, irregular: loop.irregular !== undefined };
 }
