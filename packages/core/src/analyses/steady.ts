@@ -406,37 +406,16 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
     const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
-    let diedOut = false;
-    // Each batch of transient ends in a shooting once the swing has levelled off (or when the
-    // batches are spent); after a failed one, the next waits for a swing levelled ten times finer.
-    let shots = 0;
-    // A failed shooting's start was out of Newton's reach: the next waits until the transient has
-    // run as long again (a slowly attracting orbit's distance shrinks geometrically with the
-    // periods run), so a swing that passes the finer level at once (clipped at the rails, its
-    // swing steady while the loop's slow state still moves) costs no string of failed shootings.
-    let earliest = 0;
     const growth = share === SMALL_KICK_SHARE ? growthPeriods(kick / SMALL_KICK_SHARE, growing.real * guessPeriod, GROWTH_BATCHES * Math.max(batch, DEFAULT_STEADY_CYCLES.startup)) : 0;
-    for (let attempt = 0; attempt <= RETRIES && !diedOut; attempt++) {
-      const where = stepFailure(() => approach.advance(batch + (attempt === 0 ? growth : 0), from === "startup" ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), share !== SMALL_KICK_SHARE, analysis);
-      transient = transientOf(stepper, periods + approach.periods, approachStep);
-      if (typeof where === "string") {
-        diedOut = true;
-        why = `no periodic orbit: started in its growing mode, the transient stopped (${where}), and from a small start`;
-        continue;
-      }
-      if (where.kind === "died-out") {
-        diedOut = true;
-        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
-        continue;
-      }
-      if (from === "startup" && !where.levelled && attempt < RETRIES) continue;
-      shots++;
-      // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
-      const shot = shoot(context, () => recordedStart(context, stepper, from === "startup" || shots > 1 ? where.period : guessPeriod, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
-      if (typeof shot !== "string") return orbitFound(shot, transient);
-      why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
-      earliest = BACK_OFF * approach.periods;
-    }
+    // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
+    const periodOf = (measured: number, shots: number) => (from === "startup" || shots > 1 ? measured : guessPeriod);
+    const end = shootInBatches(context, stepper, approach, { batch, growth, waitLevel: from === "startup", retry: share !== SMALL_KICK_SHARE, periodOf }, maxStep);
+    transient = transientOf(stepper, periods + approach.periods, approachStep);
+    if (end.kind === "orbit") return orbitFound(end.orbit, transient);
+    let diedOut = end.kind !== "failed";
+    if (end.kind === "stopped") why = `no periodic orbit: started in its growing mode, the transient stopped (${end.why}), and from a small start`;
+    else if (end.kind === "died-out") why = diedOutWhy(end.periods, pole!, wantedWait > slowWait ? wantedWait : 0, end.afterGrowth);
+    else why = `no periodic orbit found after ${end.failure.periods} periods of transient: ${end.failure.why}${longerWait(wantedWait, slowWait)}`;
     // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
     // there fail: it gets one more wait, as long as the patience with a dip, for its swing to
     // level off — shot again each time it has run twice as long, since a swing clipped at the
@@ -473,6 +452,58 @@ function growthPeriods(factor: number, growthPerPeriod: number, most: number): n
   return periods > 0 ? Math.min(Math.ceil(periods), most) : 0;
 }
 
+/** A shooting that failed: its reason, after how many periods of transient. */
+type ShotFailure = { readonly why: string; readonly periods: number };
+
+/** How the batches of `shootInBatches` ended. */
+type BatchesEnd =
+  | { readonly kind: "orbit"; readonly orbit: ShotOrbit }
+  | { readonly kind: "died-out"; readonly periods: number; readonly afterGrowth: boolean }
+  /** A time step failed (`why`), after the shooting `failure` if any. */
+  | { readonly kind: "stopped"; readonly why: string; readonly failure: ShotFailure | null }
+  /** Every batch spent, the last shooting failed. */
+  | { readonly kind: "failed"; readonly failure: ShotFailure };
+
+interface BatchPlan {
+  /** Periods of transient per batch. */
+  readonly batch: number;
+  /** Periods the first batch runs beyond `batch` (a small start growing). */
+  readonly growth: number;
+  /** Whether a batch shoots only once the swing has levelled off (from=startup), or whatever it does (from=poles). */
+  readonly waitLevel: boolean;
+  /** Whether a failed time step ends the batches with its reason (see `stepFailure`) rather than an error. */
+  readonly retry: boolean;
+  /** The period the `shots`-th shooting (from 1) starts from, given the one measured. */
+  readonly periodOf: (measured: number, shots: number) => number;
+}
+
+/**
+ * Batches of transient from a kicked start, each ending in a shooting (see `plan`); after a
+ * failed one, the next waits for a swing levelled ten times finer, and until the transient has
+ * run as long again: a failed shooting's start was out of Newton's reach, and a slowly
+ * attracting orbit's distance shrinks geometrically with the periods run, so a swing that passes
+ * the finer level at once (clipped at the rails, steady while the loop's slow state still moves)
+ * costs no string of failed shootings.
+ */
+function shootInBatches(c: Context, stepper: TransientStepper, approach: OrbitApproach, plan: BatchPlan, maxStep: number): BatchesEnd {
+  const check = () => c.budget.check("during the steady state's transient", c.analysis.span);
+  let failure: ShotFailure | null = null;
+  let shots = 0;
+  let earliest = 0;
+  for (let attempt = 0; attempt <= RETRIES; attempt++) {
+    const where = stepFailure(() => approach.advance(plan.batch + (attempt === 0 ? plan.growth : 0), plan.waitLevel ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), plan.retry, c.analysis);
+    if (typeof where === "string") return { kind: "stopped", why: where, failure };
+    if (where.kind === "died-out") return where;
+    if (plan.waitLevel && !where.levelled && attempt < RETRIES) continue;
+    shots++;
+    const shot = shoot(c, () => recordedStart(c, stepper, plan.periodOf(where.period, shots), maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
+    if (typeof shot !== "string") return { kind: "orbit", orbit: shot };
+    failure = { why: shot, periods: approach.periods };
+    earliest = BACK_OFF * approach.periods;
+  }
+  return { kind: "failed", failure: failure! };
+}
+
 /**
  * The orbit a circuit whose rest point is stable reaches from a large disturbance (a hard
  * start): started at `kick` of the amplifiers' half range in its dominant pair's mode, the
@@ -492,26 +523,16 @@ function hardStartSearch(c: Context, bias: Float64Array, pole: Pole, maxStep: nu
     c.budget.watch(stepper, "the steady state's transient", c.analysis.span);
     // Levelled means changing by much less per period than the pair's own decay.
     const approach = new OrbitApproach(stepper, (x) => x[swinging]!, period, -Math.expm1(pole.real * period));
-    const check = () => c.budget.check("during the steady state's transient", c.analysis.span);
     const reach = `a disturbance of ${formatQuantity(kickLevel(c.system, bias, share), "V")} at ${c.system.unknowns[swinging]!.label} in that pair's mode`;
-    let why = "";
-    let earliest = 0;
-    for (let attempt = 0, shots = 0; attempt <= RETRIES; attempt++) {
-      const where = stepFailure(() => approach.advance(batch, FIRST_LEVEL / LEVEL_RETRY ** shots, check, earliest), true, c.analysis);
-      const transient = transientOf(stepper, approach.periods, step);
-      if (typeof where === "string") {
-        stopped = `${reach} stopped the transient (${where})`;
-        break;
-      }
-      if (where.kind === "died-out") return { why: `${reach} died out within ${where.periods} periods: no orbit lies within that reach`, transient };
-      if (!where.levelled && attempt < RETRIES) continue;
-      shots++;
-      const shot = shoot(c, () => recordedStart(c, stepper, where.period, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
-      if (typeof shot !== "string") return { orbit: shot, transient };
-      why = `after ${reach}, no periodic orbit was found in ${approach.periods} periods of transient: ${shot}`;
-      earliest = BACK_OFF * approach.periods;
+    const end = shootInBatches(c, stepper, approach, { batch, growth: 0, waitLevel: true, retry: true, periodOf: (measured) => measured }, maxStep);
+    const transient = transientOf(stepper, approach.periods, step);
+    if (end.kind === "orbit") return { orbit: end.orbit, transient };
+    if (end.kind === "died-out") return { why: `${reach} died out within ${end.periods} periods: no orbit lies within that reach`, transient };
+    if (end.kind === "stopped" && !end.failure) {
+      stopped = `${reach} stopped the transient (${end.why})`;
+      continue;
     }
-    if (why) return { why, transient: transientOf(stepper, approach.periods, step) };
+    return { why: `after ${reach}, no periodic orbit was found in ${end.failure!.periods} periods of transient: ${end.failure!.why}`, transient };
   }
   return { why: stopped, transient: { periods: 0, until: 0, maxStep: step, solver: emptyStats() } };
 }
