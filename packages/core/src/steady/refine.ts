@@ -6,7 +6,7 @@ import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { cornerIntegralBounds } from "./corner-integrals.js";
 import { orbitFigures, type OrbitExtremes, type OrbitMetrics } from "./orbit-metrics.js";
-import { shootOrbit, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
+import { orbitMultipliers, shootOrbit, type Multiplier, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
 
 /** A last step shorter than this fraction of the one before it is merged into it (it only landed on T). */
@@ -30,6 +30,12 @@ export interface RefinedOrbit extends OrbitMetrics {
   readonly points: readonly [number, number];
   /** Shooting iterations on each grid. */
   readonly iterations: readonly [number, number];
+  /**
+   * The Floquet multipliers on the halved grid, beside the run's own grid's in `orbit` (which the
+   * figures report): their difference bounds the latter's error (see `multiplierBars`). Empty
+   * unless the multipliers were asked for, and for a matrix-free shooting.
+   */
+  readonly finerMultipliers: readonly Multiplier[];
 }
 
 /** Why an orbit's grid is coarser than the run's steps, and how to keep them all. */
@@ -305,6 +311,10 @@ export function refineOrbit(
   // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const { metrics: m2, extremes: e2, samples: s2, uniform: u2 } = orbitFigures(fine, read, maxOrder, settings.corners);
+  // (One more period of the halved grid, with sensitivities, for its own multipliers: the shooting
+  // converged on the coarser grid's matrix, so none of its periods carried them.)
+  const denseMultipliers = settings.multipliers === true && coarse.jacobian.matrix.length > 0;
+  const finerMultipliers = denseMultipliers ? orbitMultipliers(system, fine, options) : [];
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
@@ -340,6 +350,7 @@ export function refineOrbit(
     orbit: fine,
     points: [fractions.length, 2 * fractions.length],
     iterations: [coarse.iterations, fine.iterations],
+    finerMultipliers,
   };
 }
 

@@ -365,6 +365,16 @@ export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float
 }
 
 /**
+ * The Floquet multipliers of a converged orbit on its own grid: one period of the map from the
+ * orbit's start with sensitivities (its Newton held as {@link shootOrbit} holds it for the same
+ * `relative`), the monodromy's eigenvalues, largest magnitude first. The orbit is left as it is.
+ */
+export function orbitMultipliers(system: MnaSystem, orbit: PeriodicOrbit, options: Pick<ShootingOptions, "relative" | "tolerances">): Multiplier[] {
+  const map = new PeriodicMap(system, innerTolerances(resolveTolerances(options.tolerances), options.relative ?? 1e-9));
+  return floquetMultipliers(map.run(orbit.start, orbit.fractions, orbit.states, true).sensitivity!, map.n);
+}
+
+/**
  * Predicted multipliers are taken when every non-trivial one lies within this radius. The
  * prediction is only first order in the sample's moves: over 200 samples of the bridge source's
  * study its largest multiplier was off by up to 0.13 (exact 0.665, predicted 0.538), so only an
