@@ -323,8 +323,14 @@ export function refineOrbit(
   // it follows h² (a limiter's corners resolved by few points, a slowly attracting orbit).
   const bar = (a: number, b: number) => Math.abs(extrapolate(a, b) - a);
   // The period is a smooth function of the whole orbit and its error follows h² from the
-  // coarsest grid on (the validation table), so its bar is the extrapolation's own step, |m − m½|.
-  const periodBar = (a: number, b: number) => Math.abs(extrapolate(a, b) - b);
+  // coarsest grid on where the waveform is smooth (the validation table), so its bar is the
+  // extrapolation's own step, |m − m½| = |m½ − m₁|/3. A corner inside a step (an op-amp running
+  // into its rail clamp) makes that step's error first order in h while the step control is
+  // loose (accuracy=1e-3: a clipped Wien's frequency error was 1.95 times that bar, the value
+  // for p = 1): with errors e₁ = C·hᵖ and e½ = C·(h/2)ᵖ, m's error is
+  // |m½ − m₁|·(4·2⁻ᵖ − 1)/(3·(1 − 2⁻ᵖ)), 0 at p = 2 and at most (2/3)·|m½ − m₁| for p ≥ 1,
+  // so with corners on either grid the bar is that.
+  const periodBar = (a: number, b: number) => (c1.corners + c2.corners > 0 ? (2 / 3) * Math.abs(b - a) : Math.abs(extrapolate(a, b) - b));
   // The corners' share of the integrals' error on each grid (see `cornerIntegralBounds`), as it
   // passes into the extrapolated m½ + (m½ − m₁)/3: (4·c½ + c₁)/3.
   const c1 = cornerIntegralBounds(s1, u1, m1.rms, m1.thd, m1.harmonics);
