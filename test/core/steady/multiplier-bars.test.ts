@@ -7,7 +7,9 @@ import { describe, expect, test } from "vitest";
 import { readFileSync } from "node:fs";
 import { runSteady } from "@onset/core";
 import { buildCircuit, loadSource } from "@onset/netlist-parser";
+import { refineOrbit } from "@onset/core/engine";
 import { multiplierBars } from "../../../packages/core/src/steady/stability.js";
+import { clippedWien, settledPeriod } from "./support.js";
 
 const probe = { kind: "node", node: "o" } as const;
 
@@ -60,5 +62,18 @@ describe("multiplierBars", () => {
   test("null without the finer grid's multipliers (a matrix-free shooting), empty with nothing listed", () => {
     expect(multiplierBars([{ re: 0.5, im: 0 }], [])).toBeNull();
     expect(multiplierBars([], [])).toEqual([]);
+  });
+});
+
+describe("the halved grid's multipliers of a matrix-free shooting", () => {
+  test("its Arnoldi run gives the dominant multipliers the dense sensitivities give (a three-state Wien: the Krylov space is the whole space)", () => {
+    const { system, guess, fractions, trajectory, read } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+    const dense = refineOrbit(system, guess, fractions, trajectory, read, 20, { multipliers: true, matrixFree: false });
+    const krylov = refineOrbit(system, guess, fractions, trajectory, read, 20, { multipliers: true, matrixFree: true });
+    expect(krylov.orbit.jacobian.matrix.length).toBe(0);
+    const largest = (ms: readonly { re: number; im: number }[]) => ms.filter((m) => Math.hypot(m.re, m.im) > 1e-6);
+    const [a, b] = [largest(dense.finerMultipliers), largest(krylov.finerMultipliers)];
+    expect(b.length).toBe(a.length);
+    for (const [k, m] of a.entries()) expect(Math.hypot(m.re - b[k]!.re, m.im - b[k]!.im)).toBeLessThan(1e-6);
   });
 });

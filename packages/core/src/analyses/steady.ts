@@ -177,7 +177,7 @@ export interface SteadyResult {
   /**
    * Error bars of `multipliers`, one per entry (absolute, a distance in the complex plane): twice
    * the distance to the halved grid's nearest multiplier (see `multiplierBars`). Null without
-   * the halved grid's multipliers (a matrix-free shooting, a study's sample) or without an orbit.
+   * the halved grid (a study's sample) or without an orbit.
    */
   readonly multiplierError: readonly number[] | null;
   /** An autonomous orbit's trivial multiplier, left out of `multipliers`: 1 up to the grid's error; null when driven or without an orbit. */

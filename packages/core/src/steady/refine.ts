@@ -33,7 +33,7 @@ export interface RefinedOrbit extends OrbitMetrics {
   /**
    * The Floquet multipliers on the halved grid, beside the run's own grid's in `orbit` (which the
    * figures report): their difference bounds the latter's error (see `multiplierBars`). Empty
-   * unless the multipliers were asked for, and for a matrix-free shooting.
+   * unless the multipliers were asked for.
    */
   readonly finerMultipliers: readonly Multiplier[];
 }
@@ -312,9 +312,9 @@ export function refineOrbit(
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const { metrics: m2, extremes: e2, samples: s2, uniform: u2 } = orbitFigures(fine, read, maxOrder, settings.corners);
   // (One more period of the halved grid, with sensitivities, for its own multipliers: the shooting
-  // converged on the coarser grid's matrix, so none of its periods carried them.)
-  const denseMultipliers = settings.multipliers === true && coarse.jacobian.matrix.length > 0;
-  const finerMultipliers = denseMultipliers ? orbitMultipliers(system, fine, options) : [];
+  // converged on the coarser grid's matrix, so none of its periods carried them; matrix-free, an
+  // Arnoldi run of tangent passes as on the coarser grid.)
+  const finerMultipliers = settings.multipliers === true ? orbitMultipliers(system, fine, { ...options, jacobian: coarse.jacobian }) : [];
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);

@@ -69,7 +69,8 @@ export function orbitStability(nonTrivial: readonly Multiplier[], period: number
  * derivative is the product of its steps' derivatives, second order in the step where the orbit
  * is smooth and first order across a corner inside a step (a rail or a diode turning on), so the
  * error shrinks at least as the step: e₁ − e½ ≥ e₁·(1 − 2⁻ᵖ) with p ≥ 1, hence
- * e₁ ≤ |μ₁ − μ½|/(1 − 2⁻ᵖ) ≤ 2·|μ₁ − μ½|. Null without the finer grid's multipliers.
+ * e₁ ≤ |μ₁ − μ½|/(1 − 2⁻ᵖ) ≤ 2·|μ₁ − μ½|. Null without the finer grid's multipliers (empty
+ * when nothing is listed).
  */
 export function multiplierBars(reported: readonly Multiplier[], finer: readonly Multiplier[]): number[] | null {
   if (finer.length === 0) return reported.length === 0 ? [] : null;
