@@ -18,6 +18,8 @@ const cases = [
   { name: "wien-diode-2k", multipliers: [0.3770473488797185] },
   // scipy (floquet.py phase-shift-ladder): 1.000000000600706, 0.885646478499442, 0.04400368595149976, 1.2e-16 (a slowly attracting orbit).
   { name: "phase-shift-ladder", multipliers: [0.885646478499442, 0.04400368595149976] },
+  // scipy (floquet.py twin-t): 1.0000000006166478, 0.9472184077588122, 0.001662218591852636, 3.4e-19 (a slowly attracting orbit).
+  { name: "twin-t", multipliers: [0.9472184077588122, 0.001662218591852636] },
   // scipy (floquet.py wien-rail-hard): 1.0000000000403242, 1.1519274122566508e-06, 6.3e-18 (corners at the rails).
   { name: "wien-rail-hard", multipliers: [1.1519274122566508e-6] },
 ];
