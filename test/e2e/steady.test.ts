@@ -19,9 +19,11 @@ describe("onset run with steady", () => {
   test("the JSON carries analysis: steady with the figures, multipliers and stability, and agrees with the settled start-up run", async () => {
     const { status, results: [steady, startup] } = await results("osc.onset", wien("steady probe=o\nstartup probe=o until=auto\n"));
     expect(status).toBe(0);
-    for (const key of ["frequency", "period", "amplitude", "peakToPeak", "rms", "offset", "thd", "harmonics", "iterations", "multipliers", "stability", "predicted", "numericalError"]) {
+    for (const key of ["frequency", "period", "amplitude", "peakToPeak", "rms", "offset", "thd", "harmonics", "iterations", "multipliers", "multiplierError", "stability", "predicted", "numericalError"]) {
       expect(steady).toHaveProperty(key);
     }
+    // One bar per listed multiplier.
+    expect((steady!.multiplierError as number[]).length).toBe((steady!.multipliers as unknown[]).length);
     expect(steady).toMatchObject({ analysis: "steady", probe: "o", found: true, kind: "autonomous", from: "startup" });
     expect(steady).not.toHaveProperty("waveform");
     expect(startup).toMatchObject({ analysis: "startup", verdict: "settled" });
@@ -39,7 +41,7 @@ describe("onset run with steady", () => {
   test("a Wien bridge below the Barkhausen gain (1 + Rf/Rg = 2.5 < 3): no orbit, the poles' verdict, exit 0", async () => {
     const { status, results: [steady] } = await results("quiet.onset", wien("steady probe=o\n").replace("Rf o  n   22k±1%", "Rf o  n   15k±1%"));
     expect(status).toBe(0);
-    expect(steady).toMatchObject({ analysis: "steady", found: false, frequency: null, amplitude: null, multipliers: [], stability: null });
+    expect(steady).toMatchObject({ analysis: "steady", found: false, frequency: null, amplitude: null, multipliers: [], multiplierError: null, stability: null });
     expect(steady!.explanation).toMatch(/^no periodic orbit: the circuit does not oscillate — the poles' dominant pair at .* decays/);
   });
 
@@ -53,7 +55,7 @@ describe("onset run with steady", () => {
     expect(r.stdout).toMatch(/THD \(2–\d+\) +—/);
     expect(r.stdout).toMatch(/warning: the probe L1\.temperature carries no tone at the oscillation's frequency/);
     // The slow thermal pair: one entry a ± bj, not the pair twice.
-    expect(r.stdout).toMatch(/multipliers +0\.\d+ ± 0\.\d+j \(\|μ\| 0\.\d+\)\n/);
+    expect(r.stdout).toMatch(/multipliers +0\.\d+ ± 0\.\d+j \(\|μ\| 0\.\d+ ± 0\.\d+\)\n/);
   });
 
   test("the text report names the orbit's stability and the predicted start-up time; the CSV holds one period", async () => {
@@ -61,7 +63,7 @@ describe("onset run with steady", () => {
     const r = await ws.run(["run", "text.onset", "--csv", "one-period.csv"]);
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/steady state on o: stable orbit/);
-    expect(r.stdout).toMatch(/multipliers +0\.\d+/);
+    expect(r.stdout).toMatch(/multipliers +0\.\d+ ± 0\.\d+/);
     expect(r.stdout).toMatch(/start-up time +[\d.]+ ms \(predicted/);
     const csv = readFileSync(ws.path("one-period.csv"), "utf8").trim().split("\n");
     expect(csv[0]).toBe("time (s),o (V)");

@@ -51,6 +51,13 @@ const cases: { name: string; text: string; accuracy?: number; reference: Referen
     // scipy 1.17 solve_ivp Radau, rtol 1e-11, atol 1e-11 V, largest step T/1000, through test/validation/reference/orbit.py.
     reference: { frequency: 1263.69528467971, amplitude: 10.784673869505315, rms: 9.915078840396816, thd: 0.30573575593432806 },
   },
+  {
+    name: "a Wien held by an ideal op-amp's rails (gain 3.5, rails ±12 V), accuracy=1e-3: the frequency's bar for a first-order error at the corners",
+    text: wien("10k", "25k", "preset=ideal rails=(-12, 12)"),
+    accuracy: 1e-3,
+    // scipy 1.17 solve_ivp Radau, rtol 1e-11, atol 1e-11 V, largest step T/1000, through test/validation/reference/orbit.py.
+    reference: { frequency: 1496.5702475718003, amplitude: 12.00079302761441, rms: 10.06087629400638, thd: 0.16245411315380887 },
+  },
 ];
 
 describe("error bars on a Wien bridge clipped at the op-amp's rails", () => {

@@ -7,14 +7,26 @@ const halved = (fractions: Float64Array) => Float64Array.from({ length: 2 * frac
 describe("the halved grid's shooting on the run's grid's Newton matrix", () => {
   afterEach(() => vi.restoreAllMocks());
 
-  test("refineOrbit integrates no period of the halved grid with sensitivities", () => {
+  test("refineOrbit's halved-grid shooting integrates no period with sensitivities; only its multipliers' one period after it does", () => {
     const { system, guess, fractions, trajectory, read } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
     const run = vi.spyOn(PeriodicMap.prototype, "run");
     const refined = refineOrbit(system, guess, fractions, trajectory, read, 20, { multipliers: true });
     const fine = run.mock.calls.filter(([, grid]) => grid.length === 2 * fractions.length);
+    expect(fine.length).toBe(refined.iterations[1] + 1);
+    expect(fine.slice(0, -1).every(([, , , sensitivity]) => !sensitivity)).toBe(true);
+    expect(fine[fine.length - 1]![3]).toBe(true);
+    expect(refined.orbit.multipliers.length).toBeGreaterThan(0);
+    expect(refined.finerMultipliers.length).toBe(refined.orbit.multipliers.length);
+  });
+
+  test("without multipliers asked for, no period of the halved grid carries sensitivities", () => {
+    const { system, guess, fractions, trajectory, read } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+    const run = vi.spyOn(PeriodicMap.prototype, "run");
+    const refined = refineOrbit(system, guess, fractions, trajectory, read, 20);
+    const fine = run.mock.calls.filter(([, grid]) => grid.length === 2 * fractions.length);
     expect(fine.length).toBe(refined.iterations[1]);
     expect(fine.every(([, , , sensitivity]) => !sensitivity)).toBe(true);
-    expect(refined.orbit.multipliers.length).toBeGreaterThan(0);
+    expect(refined.finerMultipliers).toEqual([]);
   });
 
   test("sensitivities \"given\" finds the same orbit as fresh sensitivities, within the shooting's tolerance", () => {

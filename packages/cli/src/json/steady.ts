@@ -28,6 +28,7 @@ export function steadyJson(r: SteadyResult): Json {
     points: r.points && [...r.points],
     shooting: r.shooting,
     multipliers: r.multipliers.map(multiplierJson),
+    multiplierError: r.multiplierError && [...r.multiplierError],
     trivialMultiplier: r.trivialMultiplier && multiplierJson(r.trivialMultiplier),
     stability: s ? { verdict: s.verdict, largest: s.largest ? Math.hypot(s.largest.re, s.largest.im) : null, rate: s.rate, cyclesToSettle: s.cyclesToSettle } : null,
     predicted: { ...r.predicted },

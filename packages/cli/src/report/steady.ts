@@ -1,6 +1,6 @@
 import type { Multiplier, SteadyResult } from "@onset/core";
 import type { Paint } from "../color.js";
-import { formatPlain } from "../format/index.js";
+import { formatPlain, formatWithError } from "../format/index.js";
 import { harmonicLines } from "./startup.js";
 import { pairs } from "./table.js";
 import { perSecond, si, withBar } from "./values.js";
@@ -8,11 +8,16 @@ import { perSecond, si, withBar } from "./values.js";
 /** How many non-trivial multipliers the report lists. */
 const LISTED_MULTIPLIERS = 4;
 
-/** A multiplier as `0.8412` or `0.61 ± 0.12j`, its magnitude after a complex one. */
-function multiplierText(m: Multiplier): string {
+/**
+ * A multiplier as `0.8412` or `0.61 ± 0.12j`, its magnitude after a complex one; with its error
+ * bar (a distance in the complex plane, so it bounds the magnitude's error too) as
+ * `0.8412 ± 0.0003`, or on the magnitude, `(|μ| 0.6200 ± 0.0010)`.
+ */
+function multiplierText(m: Multiplier, bar: number | undefined): string {
   const size = Math.hypot(m.re, m.im);
-  if (Math.abs(m.im) <= 1e-12 * Math.max(1, size)) return formatPlain(m.re, 4);
-  return `${formatPlain(m.re, 4)} ± ${formatPlain(Math.abs(m.im), 4)}j (|μ| ${formatPlain(size, 4)})`;
+  const shown = (x: number) => (bar === undefined ? formatPlain(x, 4) : formatWithError(x, bar, ""));
+  if (Math.abs(m.im) <= 1e-12 * Math.max(1, size)) return shown(m.re);
+  return `${formatPlain(m.re, 4)} ± ${formatPlain(Math.abs(m.im), 4)}j (|μ| ${shown(size)})`;
 }
 
 /** Where the shooting started, in words. */
@@ -63,8 +68,8 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   const left = r.kind === "autonomous" ? ", the trivial one left out" : "";
   lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
   // A complex pair is written once, as a ± b·j.
-  const shown = r.multipliers.filter((m) => !(m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im))));
-  const listed = shown.slice(0, LISTED_MULTIPLIERS).map(multiplierText);
+  const shown = r.multipliers.flatMap((m, k) => (m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im)) ? [] : [{ m, bar: r.multiplierError?.[k] }]));
+  const listed = shown.slice(0, LISTED_MULTIPLIERS).map(({ m, bar }) => multiplierText(m, bar));
   const more = shown.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
   const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none above 1e-10: a disturbance dies out within a period"]];
   if (r.trivialMultiplier) entries.push(["trivial", `${formatPlain(Math.hypot(r.trivialMultiplier.re, r.trivialMultiplier.im), 8)} (a shift along the orbit: 1 but for the grid's error)`]);

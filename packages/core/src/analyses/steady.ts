@@ -16,7 +16,7 @@ import { orbitMetrics, orbitRate, orbitTimes, orbitWaveform } from "../steady/or
 import type { PeriodStart } from "../steady/periodic-map.js";
 import { mergedGridNote, orbitPointLimit, recordPeriod, refineOrbit, type NumericalError, type RefinedOrbit } from "../steady/refine.js";
 import { periodAt, shootOrbit, type Multiplier, type PeriodAt, type ShootingJacobian, type ShootingOptions } from "../steady/shooting.js";
-import { nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
+import { multiplierBars, nonTrivialMultipliers, orbitStability, trivialMultiplier, type OrbitStability } from "../steady/stability.js";
 import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
@@ -174,6 +174,12 @@ export interface SteadyResult {
    * the fourth digit), taken at the orbit or at a period within two tolerances of it.
    */
   readonly multipliers: readonly Multiplier[];
+  /**
+   * Error bars of `multipliers`, one per entry (absolute, a distance in the complex plane): twice
+   * the distance to the halved grid's nearest multiplier (see `multiplierBars`). Null without
+   * the halved grid (a study's sample) or without an orbit.
+   */
+  readonly multiplierError: readonly number[] | null;
   /** An autonomous orbit's trivial multiplier, left out of `multipliers`: 1 up to the grid's error; null when driven or without an orbit. */
   readonly trivialMultiplier: Multiplier | null;
   readonly stability: OrbitStability | null;
@@ -729,7 +735,7 @@ function singleGridOrbit(
 ): RefinedOrbit {
   const orbit = shootOrbit(system, guess, fractions, trajectory, settings);
   const metrics = orbitMetrics(orbit, read, orders, settings.corners);
-  return { ...metrics, numericalError: { frequency: 0, amplitude: 0, rms: 0, thd: 0 }, orbit, points: [fractions.length, fractions.length], iterations: [orbit.iterations, 0] };
+  return { ...metrics, numericalError: { frequency: 0, amplitude: 0, rms: 0, thd: 0 }, orbit, points: [fractions.length, fractions.length], iterations: [orbit.iterations, 0], finerMultipliers: [] };
 }
 
 /** True when every charged state of the orbit swings by less than a few hundred times its tolerance. */
@@ -793,6 +799,7 @@ function noOrbit(common: Common, explanation: string): SteadyResult {
     points: null,
     shooting: null,
     multipliers: [],
+    multiplierError: null,
     trivialMultiplier: null,
     stability: null,
     waveform: { time: new Float64Array(0), values: new Float64Array(0) },
@@ -851,6 +858,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
     points: orbit.points,
     shooting: orbit.orbit.jacobian.matrix.length === 0 ? "matrix-free" : "dense",
     multipliers,
+    multiplierError: c.singleGrid ? null : multiplierBars(multipliers, orbit.finerMultipliers),
     trivialMultiplier: trivialMultiplier(orbit.orbit.multipliers, common.kind === "autonomous"),
     stability,
     waveform: c.waveform ? orbitWaveform(orbit.orbit, c.read) : { time: new Float64Array(0), values: new Float64Array(0) },

@@ -193,6 +193,14 @@ function borderedProduct(tangent: TangentPeriod, scale: Float64Array, phase: num
   };
 }
 
+/** A converged orbit's dominant Floquet multipliers on its own grid, as `shootMatrixFree` gives them (Ritz values at the orbit's start). */
+export function orbitRitzMultipliers(system: MnaSystem, orbit: PeriodicOrbit, options: ShootingOptions): Multiplier[] {
+  const { map, n, scale } = shootingSetup(system, orbit.start, orbit.states, options);
+  map.run(orbit.start, orbit.fractions, orbit.states, false);
+  const tangent = new TangentPeriod(system, { start: orbit.start, fractions: orbit.fractions, states: map.states, middles: map.middlePoints });
+  return ritzMultipliers(tangent, scale, Math.min(n, MULTIPLIER_STEPS), options.check);
+}
+
 /**
  * The dominant Floquet multipliers: Ritz values of the scaled monodromy matrix D⁻¹·S_x·D (similar
  * to S_x, so the same eigenvalues) from `steps` Arnoldi steps (Saad, *Numerical Methods for Large

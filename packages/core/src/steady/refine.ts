@@ -6,7 +6,7 @@ import type { MnaSystem } from "../solver/system.js";
 import type { Tolerances } from "../solver/tolerances.js";
 import { cornerIntegralBounds } from "./corner-integrals.js";
 import { orbitFigures, type OrbitExtremes, type OrbitMetrics } from "./orbit-metrics.js";
-import { shootOrbit, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
+import { orbitMultipliers, shootOrbit, type Multiplier, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
 
 /** A last step shorter than this fraction of the one before it is merged into it (it only landed on T). */
@@ -30,6 +30,12 @@ export interface RefinedOrbit extends OrbitMetrics {
   readonly points: readonly [number, number];
   /** Shooting iterations on each grid. */
   readonly iterations: readonly [number, number];
+  /**
+   * The Floquet multipliers on the halved grid, beside the run's own grid's in `orbit` (which the
+   * figures report): their difference bounds the latter's error (see `multiplierBars`). Empty
+   * unless the multipliers were asked for.
+   */
+  readonly finerMultipliers: readonly Multiplier[];
 }
 
 /** Why an orbit's grid is coarser than the run's steps, and how to keep them all. */
@@ -305,6 +311,10 @@ export function refineOrbit(
   // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const { metrics: m2, extremes: e2, samples: s2, uniform: u2 } = orbitFigures(fine, read, maxOrder, settings.corners);
+  // (One more period of the halved grid, with sensitivities, for its own multipliers: the shooting
+  // converged on the coarser grid's matrix, so none of its periods carried them; matrix-free, an
+  // Arnoldi run of tangent passes as on the coarser grid.)
+  const finerMultipliers = settings.multipliers === true ? orbitMultipliers(system, fine, { ...options, jacobian: coarse.jacobian }) : [];
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);
@@ -313,8 +323,14 @@ export function refineOrbit(
   // it follows h² (a limiter's corners resolved by few points, a slowly attracting orbit).
   const bar = (a: number, b: number) => Math.abs(extrapolate(a, b) - a);
   // The period is a smooth function of the whole orbit and its error follows h² from the
-  // coarsest grid on (the validation table), so its bar is the extrapolation's own step, |m − m½|.
-  const periodBar = (a: number, b: number) => Math.abs(extrapolate(a, b) - b);
+  // coarsest grid on where the waveform is smooth (the validation table), so its bar is the
+  // extrapolation's own step, |m − m½| = |m½ − m₁|/3. A corner inside a step (an op-amp running
+  // into its rail clamp) makes that step's error first order in h while the step control is
+  // loose (accuracy=1e-3: a clipped Wien's frequency error was 1.95 times that bar, the value
+  // for p = 1): with errors e₁ = C·hᵖ and e½ = C·(h/2)ᵖ, m's error is
+  // |m½ − m₁|·(4·2⁻ᵖ − 1)/(3·(1 − 2⁻ᵖ)), 0 at p = 2 and at most (2/3)·|m½ − m₁| for p ≥ 1,
+  // so with corners on either grid the bar is that.
+  const periodBar = (a: number, b: number) => (c1.corners + c2.corners > 0 ? (2 / 3) * Math.abs(b - a) : Math.abs(extrapolate(a, b) - b));
   // The corners' share of the integrals' error on each grid (see `cornerIntegralBounds`), as it
   // passes into the extrapolated m½ + (m½ − m₁)/3: (4·c½ + c₁)/3.
   const c1 = cornerIntegralBounds(s1, u1, m1.rms, m1.thd, m1.harmonics);
@@ -333,15 +349,33 @@ export function refineOrbit(
     harmonics: harmonicList(Float64Array.from(m2.harmonics, (h, k) => extrapolate(m1.harmonics[k]!.amplitude, h.amplitude)), extrapolate(m1.frequency, m2.frequency)),
     numericalError: {
       frequency: periodBar(m1.frequency, m2.frequency),
-      amplitude: Math.max(bar(m1.amplitude, m2.amplitude), 0.5 * cornerSwingBar(e1, e2, bar)),
+      amplitude: Math.max(swingBar(e1, e2, bar(m1.amplitude, m2.amplitude), bar), 0.5 * cornerSwingBar(e1, e2, bar)),
       rms: Math.max(bar(m1.rms, m2.rms), cornerBar(c1.rms, c2.rms)),
       thd: Math.max(bar(m1.thd, m2.thd), cornerBar(c1.thd, c2.thd), floorBar(m1.thd, m2.thd)),
     },
     orbit: fine,
     points: [fractions.length, 2 * fractions.length],
     iterations: [coarse.iterations, fine.iterations],
+    finerMultipliers,
   };
 }
+
+/**
+ * The amplitude's bar: |m − m₁| of the half swing, or half the sum of each extremum's own, when
+ * that is larger. The half swing is a difference, and its two extremes' errors can cancel on each
+ * grid (a symmetric wave on an uneven grid: a diode Wien at accuracy=1e-3 had its maximum and
+ * minimum each 3 µV off on the run's grid and its swing 0.2 µV off, the grids agreeing to 0.2 µV
+ * and the bar 1.05 times short of scipy's); each extremum's error shrinks steadily on its own, and
+ * |Δ(max − min)/2| ≤ (|Δmax| + |Δmin|)/2. (The two are equal but for rounding when the extremes
+ * move alike, hence the margin.)
+ */
+function swingBar(coarse: OrbitExtremes, fine: OrbitExtremes, swing: number, bar: (a: number, b: number) => number): number {
+  const extremes = 0.5 * (bar(coarse.maximum, fine.maximum) + bar(coarse.minimum, fine.minimum));
+  return extremes > (1 + ROUNDING_MARGIN) * swing ? extremes : swing;
+}
+
+/** Relative margin above which two bars equal in exact arithmetic count as different. */
+const ROUNDING_MARGIN = 1e-9;
 
 /**
  * A bound on the peak-to-peak's error when an extremum sits on a corner on either grid (a diode

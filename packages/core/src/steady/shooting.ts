@@ -4,7 +4,7 @@ import { LuSolver } from "../solver/lu.js";
 import { QUANTITIES } from "../solver/quantities.js";
 import type { MnaSystem } from "../solver/system.js";
 import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solver/tolerances.js";
-import { matrixFreeFor, shootMatrixFree } from "./matrix-free-shooting.js";
+import { matrixFreeFor, orbitRitzMultipliers, shootMatrixFree } from "./matrix-free-shooting.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
 import { nonTrivialMultipliers } from "./stability.js";
 import { trustStep, nextRadius } from "./trust-region.js";
@@ -362,6 +362,19 @@ export function periodAt(system: MnaSystem, start: PeriodStart, fractions: Float
   const newton = new ShootingMatrix(n + 1, options.phase, undefined);
   newton.set(end.sensitivity!, n);
   return { residual, matrix: Float64Array.from(newton.factored().matrix) };
+}
+
+/**
+ * The Floquet multipliers of a converged orbit on its own grid, as its shooting would give them
+ * (`options` as for that shooting): one period of the map from the orbit's start with
+ * sensitivities (its Newton held as {@link shootOrbit} holds it), the monodromy's eigenvalues,
+ * largest magnitude first; or, for a matrix-free shooting, the dominant ones (see
+ * `orbitRitzMultipliers`). The orbit is left as it is.
+ */
+export function orbitMultipliers(system: MnaSystem, orbit: PeriodicOrbit, options: ShootingOptions): Multiplier[] {
+  if (matrixFreeFor(system.n, options)) return orbitRitzMultipliers(system, orbit, options);
+  const { map, n } = shootingSetup(system, orbit.start, orbit.states, options);
+  return floquetMultipliers(map.run(orbit.start, orbit.fractions, orbit.states, true).sensitivity!, n);
 }
 
 /**

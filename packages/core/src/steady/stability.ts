@@ -62,3 +62,17 @@ export function orbitStability(nonTrivial: readonly Multiplier[], period: number
   const cyclesToSettle = verdict === "stable" ? (size > 0 ? Math.log(SETTLED_SHARE) / Math.log(size) : 0) : null;
   return { verdict, largest, rate: Number.isFinite(rate) ? rate : null, cyclesToSettle };
 }
+
+/**
+ * Error bars of the run's own grid's multipliers (`reported`, as listed), one each: twice their
+ * distance in the complex plane from the nearest of the halved grid's (`finer`). The map's
+ * derivative is the product of its steps' derivatives, second order in the step where the orbit
+ * is smooth and first order across a corner inside a step (a rail or a diode turning on), so the
+ * error shrinks at least as the step: e₁ − e½ ≥ e₁·(1 − 2⁻ᵖ) with p ≥ 1, hence
+ * e₁ ≤ |μ₁ − μ½|/(1 − 2⁻ᵖ) ≤ 2·|μ₁ − μ½|. Null without the finer grid's multipliers (empty
+ * when nothing is listed).
+ */
+export function multiplierBars(reported: readonly Multiplier[], finer: readonly Multiplier[]): number[] | null {
+  if (finer.length === 0) return reported.length === 0 ? [] : null;
+  return reported.map((m) => 2 * Math.min(...finer.map((f) => Math.hypot(f.re - m.re, f.im - m.im))));
+}
