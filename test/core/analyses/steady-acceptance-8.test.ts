@@ -102,3 +102,17 @@ describe("probe independence on the LC tank", () => {
     expect(Math.abs(source!.thd! / v!.thd! - 1)).toBeLessThan(1e-9);
   });
 });
+
+describe("an LC tank undamped by a transconductor with nothing to limit it", () => {
+  const UNLIMITED = `inductor L1 v gnd 47m
+capacitor C1 v gnd 220n
+resistor  Rl v gnd 10k
+vccs      G1 gnd v v gnd 150u`;
+  test("a long wait (cycles=100000) lets the swing overflow: no orbit, because it grew without bound, not 'died out'", () => {
+    // Closed form: the pair grows at (150 µS − 100 µS)/(2·220 nF) = 113.6 /s, about e^0.0726 a period, so it never levels off.
+    const result = steadyOf(UNLIMITED, "probe=v cycles=100000");
+    expect(result.found).toBe(false);
+    expect(result.explanation).toMatch(/grew without bound/);
+    expect(result.explanation).not.toMatch(/died out/);
+  });
+});

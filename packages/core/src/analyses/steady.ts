@@ -424,6 +424,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
         why = `no periodic orbit: started in its growing mode, the transient stopped (${where}), and from a small start`;
         continue;
       }
+      if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
       if (where.kind === "died-out") {
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
@@ -447,6 +448,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     while (!diedOut && approach.periods < waitEnd) {
       const where = approach.advance(waitEnd - approach.periods, FIRST_LEVEL, check, waited);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
+      if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
       if (where.kind === "died-out") {
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
@@ -504,6 +506,7 @@ function hardStartSearch(c: Context, bias: Float64Array, pole: Pole, maxStep: nu
         break;
       }
       if (where.kind === "died-out") return { why: `${reach} died out within ${where.periods} periods: no orbit lies within that reach`, transient };
+      if (where.kind === "diverged") return { why: `${reach} grew without bound (past ${formatQuantity(where.largest, c.system.unknowns[swinging]!.unit)} within ${where.periods} periods): nothing limits the swing`, transient };
       if (!where.levelled && attempt < RETRIES) continue;
       shots++;
       const shot = shoot(c, () => recordedStart(c, stepper, where.period, maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
@@ -582,6 +585,12 @@ function diedOutWhy(periods: number, pole: Pole, wanted: number, afterGrowth: bo
     ? "; an amplitude loop that over-corrects can stop the oscillation after its first overshoot, and the steady analysis runs without noise, so an oscillation sunk below the solver's resolution does not grow back, while in the circuit its noise restarts it once the loop has bled back: run startup, which starts from the circuit's thermal noise"
     : "";
   return `${why}${wait}${noise}`;
+}
+
+/** Why there is no orbit when the swing grew without bound: nothing in the circuit limits it. */
+function divergedWhy(where: { readonly periods: number; readonly largest: number }, c: Context, swinging: number, pole: Pole): string {
+  const past = formatQuantity(where.largest, c.system.unknowns[swinging]!.unit);
+  return `no periodic orbit: started in its growing mode, the swing grew without bound (past ${past} at ${c.system.unknowns[swinging]!.label} within ${where.periods} periods; ${polesVerdict(pole)}): nothing in the circuit limits it — an oscillator needs a limiter (diodes, an amplifier's rails, an amplitude loop)`;
 }
 
 /** The cycles= whose batches allow a wait of `periods`. */
