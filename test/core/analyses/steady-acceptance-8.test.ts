@@ -116,3 +116,26 @@ vccs      G1 gnd v v gnd 150u`;
     expect(result.explanation).not.toMatch(/died out/);
   });
 });
+
+describe("a C–R ladder whose capacitors all float", () => {
+  // Three 10 nF in series with 5.1k shunts, driven by an ideal buffer of a memoryless diode clip
+  // after an inverting gain of 31: no capacitor touches ground, so C·(1, 1, …) = 0 and inverse
+  // iteration started from all ones found no growing mode ("no periodic orbit searched").
+  const LADDER = `vcvs      E1 e gnd gnd c 31
+resistor  Ro e d 10k
+${PAIR("d")}
+vcvs      E2 o gnd d gnd 1
+capacitor C1 o a 10n
+resistor  R1 a gnd 5.1k
+capacitor C2 a b 10n
+resistor  R2 b gnd 5.1k
+capacitor C3 b c 10n
+resistor  R3 c gnd 5.1k`;
+  test("is searched, and oscillates near the ladder's 1/(2π√6·RC) = 1274.0 Hz", () => {
+    const result = steadyOf(LADDER, "probe=o");
+    expect(result.found, result.explanation).toBe(true);
+    // Closed form (first harmonic): the ladder turns −180° at 1/(2π√6·RC); the clip's 0.7 % of harmonics move it by under 0.2 %.
+    expect(Math.abs(result.frequency! / (1 / (2 * Math.PI * Math.sqrt(6) * 5.1e3 * 10e-9)) - 1)).toBeLessThan(2e-3);
+    expect(result.stability!.verdict).toBe("stable");
+  });
+});
