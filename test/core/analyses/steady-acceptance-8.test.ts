@@ -137,5 +137,12 @@ resistor  R3 c gnd 5.1k`;
     // Closed form (first harmonic): the ladder turns −180° at 1/(2π√6·RC); the clip's 0.7 % of harmonics move it by under 0.2 %.
     expect(Math.abs(result.frequency! / (1 / (2 * Math.PI * Math.sqrt(6) * 5.1e3 * 10e-9)) - 1)).toBeLessThan(2e-3);
     expect(result.stability!.verdict).toBe("stable");
+    // scipy Radau (rtol 1e-11, the clip's node solved by brentq at every evaluation): 1272.882043 Hz,
+    // rms 0.3165006316 V, THD 0.7238368 %, amplitude 0.4484964670 V (max − min of 2048 points, within 5e-7).
+    const bars = result.numericalError!;
+    expect(Math.abs(result.frequency! - 1272.882043)).toBeLessThanOrEqual(bars.frequency);
+    expect(Math.abs(result.rms! - 0.3165006316)).toBeLessThanOrEqual(bars.rms);
+    expect(Math.abs(result.thd! - 0.007238368)).toBeLessThanOrEqual(bars.thd);
+    expect(Math.abs(result.amplitude! - 0.448496467)).toBeLessThanOrEqual(bars.amplitude + 5e-7);
   });
 });
