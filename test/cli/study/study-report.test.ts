@@ -180,6 +180,17 @@ describe("error bars in a study", () => {
   });
 });
 
+describe("studyCsv under measure=steady", () => {
+  test("the start-up time's column is named predictedStartupTime (issue 15: labelled as predicted), as a steady sweep's is", () => {
+    const [header, first] = studyCsv(studyReport({ ...base, measure: "steady" }, [sample(0, 1000)])).split("\n");
+    const columns = header!.split(",");
+    expect(columns).not.toContain("startupTime");
+    expect(Number(first!.split(",")[columns.indexOf("predictedStartupTime")])).toBe(0.02);
+    // A start-up study's column keeps its name: that time was simulated.
+    expect(studyCsv(studyReport(base, [sample(0, 1000)])).split("\n")[0]!.split(",")).toContain("startupTime");
+  });
+});
+
 describe("reproduceCommand(header, index)", () => {
   test("reruns one sample with the study's overrides, quoting what a shell would split", () => {
     expect(reproduceCommand(base, 17)).toBe("onset run osc.onset --sample 17 --set R=10k");

@@ -29,4 +29,17 @@ describe("SampleWindow", () => {
     expect(Array.from(w.times())).toEqual([4990, 4991, 4992, 4993, 4994, 4995, 4996, 4997, 4998, 4999]);
     expect(w.values()[0]).toBe(4990 * 4990);
   });
+
+  test("a swing whose arithmetic overflows is Infinity, never 0 (which would read as died out); an empty window swings 0", () => {
+    const empty = new SampleWindow();
+    expect(empty.swingSince(0)).toBe(0);
+    // A sine of 1e160 at 25 points a period: the parabola's b² overflows double precision (max ≈ 1.8e308).
+    const huge = new SampleWindow();
+    for (let k = 0; k <= 50; k++) huge.push(k / 25, 1e160 * Math.sin((2 * Math.PI * k) / 25 + 0.3));
+    expect(huge.swingSince(1)).toBe(Infinity);
+    // Samples that overflowed themselves (a state at Infinity): Infinity − Infinity is NaN, which read as a swing of 0 before.
+    const overflowed = new SampleWindow();
+    for (let k = 0; k <= 50; k++) overflowed.push(k / 25, Infinity);
+    expect(overflowed.swingSince(1)).toBe(Infinity);
+  });
 });

@@ -21,13 +21,15 @@ function sampleCells(h: StudyHeader, s: StoredSample): string[] {
 /**
  * The CSV of a study: one row per sample with `index`, the drawn values (one column per
  * toleranced name), `verdict`, the metrics, their error bars (`frequencyError` …, empty where a
- * sample has none), one column per spec criterion (named `pass ` and the
+ * sample has none; under `measure=steady` the start-up time's column is `predictedStartupTime`), one column per spec criterion (named `pass ` and the
  * criterion as written: 1 when the sample meets it) and `pass` (1 when it settles and meets
  * them all). A design window puts the setting first, in a column named after the swept target.
  */
 export function studyCsv(r: StudyReport): string {
   const h = r.header;
-  const header = ["index", ...h.tolerances.map((t) => t.target), "verdict", ...METRIC_COLUMNS, ...ERROR_COLUMNS, ...sampleCriteria(h.criteria).map((c) => `pass ${c.text}`), "pass"];
+  // Under measure=steady the start-up time is the poles' prediction, never simulated: the column says so, as the sweep's does.
+  const metricNames = METRIC_COLUMNS.map((k) => (k === "startupTime" && h.measure === "steady" ? "predictedStartupTime" : k));
+  const header = ["index", ...h.tolerances.map((t) => t.target), "verdict", ...metricNames, ...ERROR_COLUMNS, ...sampleCriteria(h.criteria).map((c) => `pass ${c.text}`), "pass"];
   if (r.kind === "tolerance") return csvDocument(header, r.samples.map((s) => sampleCells(h, s)));
   const rows = r.points.flatMap((p) => p.samples.map((s) => [csvNumber(p.value), ...sampleCells(h, s)]));
   return csvDocument([h.sweep!.target, ...header], rows);

@@ -418,6 +418,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     const end = shootInBatches(context, stepper, approach, { batch, growth, waitLevel: from === "startup", retry: share !== SMALL_KICK_SHARE, periodOf }, maxStep);
     transient = transientOf(stepper, periods + approach.periods, approachStep);
     if (end.kind === "orbit") return orbitFound(end.orbit, transient);
+    if (end.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(end, context, swinging, pole!));
     let diedOut = end.kind !== "failed";
     if (end.kind === "stopped") why = `no periodic orbit: started in its growing mode, the transient stopped (${end.why}), and from a small start`;
     else if (end.kind === "died-out") why = diedOutWhy(end.periods, pole!, wantedWait > slowWait ? wantedWait : 0, end.afterGrowth);
@@ -432,6 +433,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     while (!diedOut && approach.periods < waitEnd) {
       const where = approach.advance(waitEnd - approach.periods, FIRST_LEVEL, check, waited);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
+      if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
       if (where.kind === "died-out") {
         diedOut = true;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
@@ -465,6 +467,8 @@ type ShotFailure = { readonly why: string; readonly periods: number };
 type BatchesEnd =
   | { readonly kind: "orbit"; readonly orbit: ShotOrbit }
   | { readonly kind: "died-out"; readonly periods: number; readonly afterGrowth: boolean }
+  /** The swing grew until its arithmetic overflowed; `largest`, its last finite one. */
+  | { readonly kind: "diverged"; readonly periods: number; readonly largest: number }
   /** A time step failed (`why`), after the shooting `failure` if any. */
   | { readonly kind: "stopped"; readonly why: string; readonly failure: ShotFailure | null }
   /** Every batch spent, the last shooting failed. */
@@ -499,7 +503,7 @@ function shootInBatches(c: Context, stepper: TransientStepper, approach: OrbitAp
   for (let attempt = 0; attempt <= RETRIES; attempt++) {
     const where = stepFailure(() => approach.advance(plan.batch + (attempt === 0 ? plan.growth : 0), plan.waitLevel ? FIRST_LEVEL / LEVEL_RETRY ** shots : undefined, check, earliest), plan.retry, c.analysis);
     if (typeof where === "string") return { kind: "stopped", why: where, failure };
-    if (where.kind === "died-out") return where;
+    if (where.kind !== "oscillating") return where;
     if (plan.waitLevel && !where.levelled && attempt < RETRIES) continue;
     shots++;
     const shot = shoot(c, () => recordedStart(c, stepper, plan.periodOf(where.period, shots), maxStep, true), true, attempt < RETRIES ? EARLY_LIMITS : {});
@@ -534,6 +538,7 @@ function hardStartSearch(c: Context, bias: Float64Array, pole: Pole, maxStep: nu
     const transient = transientOf(stepper, approach.periods, step);
     if (end.kind === "orbit") return { orbit: end.orbit, transient };
     if (end.kind === "died-out") return { why: `${reach} died out within ${end.periods} periods: no orbit lies within that reach`, transient };
+    if (end.kind === "diverged") return { why: `${reach} grew without bound (past ${formatQuantity(end.largest, c.system.unknowns[swinging]!.unit)} within ${end.periods} periods): nothing limits the swing`, transient };
     if (end.kind === "stopped" && !end.failure) {
       stopped = `${reach} stopped the transient (${end.why})`;
       continue;
@@ -609,6 +614,12 @@ function diedOutWhy(periods: number, pole: Pole, wanted: number, afterGrowth: bo
     ? "; an amplitude loop that over-corrects can stop the oscillation after its first overshoot, and the steady analysis runs without noise, so an oscillation sunk below the solver's resolution does not grow back, while in the circuit its noise restarts it once the loop has bled back: run startup, which starts from the circuit's thermal noise"
     : "";
   return `${why}${wait}${noise}`;
+}
+
+/** Why there is no orbit when the swing grew without bound: nothing in the circuit limits it. */
+function divergedWhy(where: { readonly periods: number; readonly largest: number }, c: Context, swinging: number, pole: Pole): string {
+  const past = formatQuantity(where.largest, c.system.unknowns[swinging]!.unit);
+  return `no periodic orbit: started in its growing mode, the swing grew without bound (past ${past} at ${c.system.unknowns[swinging]!.label} within ${where.periods} periods; ${polesVerdict(pole)}): nothing in the circuit limits it — an oscillator needs a limiter (diodes, an amplifier's rails, an amplitude loop)`;
 }
 
 /** The cycles= whose batches allow a wait of `periods`. */

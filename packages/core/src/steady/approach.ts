@@ -26,7 +26,9 @@ export type Approach =
       readonly periods: number;
       /** The swing first grew to more than `GREW` times its first period's, then died: an amplitude loop that over-corrected. */
       readonly afterGrowth: boolean;
-    };
+    }
+  /** The swing grew until its arithmetic overflowed (nothing limits it): `largest` is the last finite one. */
+  | { readonly kind: "diverged"; readonly periods: number; readonly largest: number };
 
 /**
  * Runs a transient towards the orbit, one guessed period at a time, watching the probe's swing
@@ -37,7 +39,7 @@ export type Approach =
  * converge from there: once the swing has peaked, the bounce about the peak (from the dip
  * before it, if any, to the dip after it, or to now) must be within the level too. The period is
  * then measured from the last few rising crossings of the probe through its mean; a swing that
- * shrank to nothing means the oscillation died out.
+ * shrank to nothing means the oscillation died out, one that overflowed that it diverged.
  */
 export class OrbitApproach {
   /** The probe's samples over the last few guessed periods only (all the period's measurement reads). */
@@ -95,7 +97,13 @@ export class OrbitApproach {
       check();
       const from = this.stepper.t;
       this.stepper.advance(from + this.guess);
-      this.record(this.samples.swingSince(from));
+      const swing = this.samples.swingSince(from);
+      // An unlimited swing (a linear circuit's growing pair) overflows: it must not read as died out.
+      if (!Number.isFinite(swing)) {
+        this.count++;
+        return { kind: "diverged", periods: this.count, largest: this.largest };
+      }
+      this.record(swing);
       this.isQuiet = this.quiet();
       if (this.isQuiet) this.quietPeriods++;
       this.samples.dropBefore(this.stepper.t - (LEVEL_PERIODS + 1) * this.guess);

@@ -14,6 +14,8 @@ import type { UnknownInfo } from "../solver/system.js";
 const SHIFTS = [1e-7, 1e-5, 1e-3];
 /** Inverse-iteration solves. */
 const SOLVES = 4;
+/** The golden ratio's fractional part: k·GOLDEN mod 1 spreads the second start vector's entries evenly, none equal. */
+const GOLDEN = 0.6180339887498949;
 /**
  * From this many unknowns on (where the shooting goes matrix-free too) the real form is
  * factored on its sparsity pattern: dense, its O(8n³) elimination took 13 s of a 2010-unknown
@@ -29,9 +31,16 @@ const SPARSE_FROM = 60;
  * the pole. Null when the pencil cannot be factored at any of the shifts.
  */
 export function modeOfPole(ss: SmallSignal, pole: Pole): Float64Array | null {
+  const m = 2 * ss.n;
+  // Every charged direction at once; where that lies in C's null space (every capacitor between
+  // two nodes, none to ground: a C–R ladder driven by an ideal source), a spread of unequal entries.
+  const starts = [new Float64Array(m).fill(1), Float64Array.from({ length: m }, (_, k) => 1 + ((k * GOLDEN) % 1))];
   for (const shift of SHIFTS) {
-    const mode = shiftedInverseIteration(ss, pole, shift);
-    if (mode !== undefined) return mode;
+    for (const start of starts) {
+      const mode = shiftedInverseIteration(ss, pole, shift, start);
+      if (mode === undefined) break;
+      if (mode !== null) return mode;
+    }
   }
   return null;
 }
@@ -46,8 +55,8 @@ export function largestNode(mode: Float64Array, unknowns: readonly UnknownInfo[]
   return Math.max(top, 0);
 }
 
-/** The mode by inverse iteration at `shift` (relative to |s|) off the pole; undefined when the pencil does not factor there. */
-function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number): Float64Array | null | undefined {
+/** The mode by inverse iteration at `shift` (relative to |s|) off the pole from `start`; undefined when the pencil does not factor there, null when the iterate vanishes (the start in C's null space). */
+function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number, start: Float64Array): Float64Array | null | undefined {
   const { n, C } = ss;
   const m = 2 * n;
   const sigma = pole.real + shift * Math.hypot(pole.real, pole.imag, 1);
@@ -57,8 +66,8 @@ function shiftedInverseIteration(ss: SmallSignal, pole: Pole, shift: number): Fl
   const lu = new LuSolver(m, { compile: false });
   if (n >= SPARSE_FROM) lu.setPattern(phasorPattern(ss, false));
   if (!lu.factor(a)) return undefined;
-  // Start from every charged direction at once; C·y keeps the algebraic unknowns out of the right-hand side.
-  let y = new Float64Array(m).fill(1);
+  // C·y keeps the algebraic unknowns out of the right-hand side.
+  let y = start;
   const rhs = new Float64Array(m);
   for (let solve = 0; solve < SOLVES; solve++) {
     for (let i = 0; i < n; i++) {

@@ -36,6 +36,7 @@ export class SampleWindow {
    */
   swingSince(time: number): number {
     const { t, v } = this;
+    if (this.length === 0) return 0;
     let first = this.length - 1;
     while (first > 0 && t[first]! >= time) first--;
     let top = first;
@@ -45,6 +46,8 @@ export class SampleWindow {
       if (v[k]! < v[bottom]!) bottom = k;
     }
     const swing = this.vertex(top) - this.vertex(bottom);
+    // A swing whose arithmetic overflows (an unlimited one, past 1e150) is Infinity, not 0.
+    if (Number.isNaN(swing) || swing === Infinity) return Infinity;
     return swing > 0 ? swing : 0;
   }
 
