@@ -20,18 +20,21 @@ resistor  R2 p gnd 10k
 capacitor C2 p gnd 10n
 ${PAIR("p")}`;
 
-/** A cable-tracer tone: three C–R sections, an inverting gain of 40, a soft diode clip (10k, 1 nF), a buffer. */
-const PHASE = `vcvs      E1 e gnd gnd c 40
-resistor  Ro e d 10k
-capacitor Cd d gnd 1n
-${PAIR("d")}
-vcvs      E2 o gnd d gnd 1
+/** A buffer from node d into three C–R sections (10 nF, 5.1k) ending at node c. */
+const BUFFERED_LADDER = `vcvs      E2 o gnd d gnd 1
 capacitor C1 o a 10n
 resistor  R1 a gnd 5.1k
 capacitor C2 a b 10n
 resistor  R2 b gnd 5.1k
 capacitor C3 b c 10n
 resistor  R3 c gnd 5.1k`;
+
+/** A cable-tracer tone: three C–R sections, an inverting gain of 40, a soft diode clip (10k, 1 nF), a buffer. */
+const PHASE = `vcvs      E1 e gnd gnd c 40
+resistor  Ro e d 10k
+capacitor Cd d gnd 1n
+${PAIR("d")}
+${BUFFERED_LADDER}`;
 
 /** A tuning-reference LC tank (47 mH, 220 nF, 10k) undamped by 150 µS and held by a diode pair. */
 const TANK = `inductor  L1 v gnd 47m
@@ -125,13 +128,7 @@ describe("a C–R ladder whose capacitors all float", () => {
   const LADDER = `vcvs      E1 e gnd gnd c 31
 resistor  Ro e d 10k
 ${PAIR("d")}
-vcvs      E2 o gnd d gnd 1
-capacitor C1 o a 10n
-resistor  R1 a gnd 5.1k
-capacitor C2 a b 10n
-resistor  R2 b gnd 5.1k
-capacitor C3 b c 10n
-resistor  R3 c gnd 5.1k`;
+${BUFFERED_LADDER}`;
   test("is searched, and oscillates near the ladder's 1/(2π√6·RC) = 1274.0 Hz", () => {
     const result = steadyOf(LADDER, "probe=o");
     expect(result.found, result.explanation).toBe(true);
