@@ -21,4 +21,12 @@ describe("steadyReport(result, paint)", () => {
     const lines = reportOf("inductor L1 o gnd 3.3m series=0.8\ncapacitor C1 o gnd 68n\nresistor Rl o gnd 12k\nvccs G1 gnd o o gnd 150u\ndiode D1 o k\nresistor Rk k gnd 2.2k\ndiode D2 k2 o\nresistor Rk2 k2 gnd 2.2k\n");
     expect(lines.find((l) => l.includes("Floquet multipliers"))).toContain("the trivial one left out");
   });
+
+  test("without an orbit the 'tried:' line names the transient run only: whether a shooting ran, and why it failed, is the explanation's", () => {
+    // An LC tank undamped by a transconductor with nothing to limit it: its swing never levels off.
+    const lines = reportOf("inductor L1 o gnd 47m\ncapacitor C1 o gnd 220n\nresistor Rl o gnd 10k\nvccs G1 gnd o o gnd 150u\n");
+    expect(lines[0]).toContain("no orbit");
+    const tried = lines.find((l) => l.trim().startsWith("tried:"))!;
+    expect(tried).toMatch(/^ {2}tried: the growing mode, \d+ periods of transient \([^)]*\)$/);
+  });
 });

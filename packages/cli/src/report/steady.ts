@@ -20,18 +20,22 @@ function multiplierText(m: Multiplier, bar: number | undefined): string {
   return `${formatPlain(m.re, 4)} ± ${formatPlain(Math.abs(m.im), 4)}j (|μ| ${shown(size)})`;
 }
 
-/** Where the shooting started, in words. */
+/**
+ * Where the shooting started, in words; without an orbit only the transient run (whether a
+ * shooting ran, and why it failed, the explanation says).
+ */
 function startText(r: SteadyResult): string {
   const t = r.transient;
   const run = `${t.periods} periods of transient (${si(t.until, "s")})`;
-  if (r.hardStart || (!r.found && !r.predicted.starts && t.periods > 0)) return `a large kick in the decaying pair's mode (a hard start), ${run}${r.found ? ", then shooting from the measured period" : ""}`;
+  const then = (shooting: string) => (r.found ? `, then shooting ${shooting}` : "");
+  if (r.hardStart || (!r.found && !r.predicted.starts && t.periods > 0)) return `a large kick in the decaying pair's mode (a hard start), ${run}${then("from the measured period")}`;
   switch (r.from) {
     case "driven":
-      return `${run} from the bias point, then shooting with the sources' period`;
+      return `${run} from the bias point${then("with the sources' period")}`;
     case "poles":
-      return `the growing mode at the poles' frequency, ${run}, then shooting from the poles' period (from the measured one after a shooting that failed)`;
+      return `the growing mode at the poles' frequency, ${run}${then("from the poles' period (from the measured one after a shooting that failed)")}`;
     case "startup":
-      return `the growing mode, ${run}, then shooting from the measured period`;
+      return `the growing mode, ${run}${then("from the measured period")}`;
   }
 }
 
