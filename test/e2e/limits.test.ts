@@ -22,7 +22,7 @@ describe("run limits", () => {
     expect(lines.slice(1, 4)).toEqual([
       "  transient until=100 max-step=1u start=rest probes=(o, R1.i)",
       `  ^${"~".repeat("transient until=100 max-step=1u start=rest probes=(o, R1.i)".length - 1)}`,
-      "hint: raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step",
+      "hint: raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step or a shorter run (until=; cycles= on steady)",
     ]);
   });
 

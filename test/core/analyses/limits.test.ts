@@ -69,7 +69,7 @@ describe("maxSteps", () => {
     expect([e.diagnostic.code, e.limit, e.value, e.reached, e.diagnostic.stage]).toEqual(["step-limit", "maxSteps", 110, 111, "simulation"]);
     // The step that broke the limit is the 111th: its time is that of the unlimited run's 111th point.
     expect(e.message).toBe(`the transient reached the step limit of 110 accepted steps at t = ${Number(full.time[111]!.toPrecision(4))} s`);
-    expect(e.diagnostic.hint).toBe("raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step");
+    expect(e.diagnostic.hint).toBe("raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step or a shorter run (until=; cycles= on steady)");
     expect(e.diagnostic.span).toEqual({ file: "t.onset", start: text.indexOf("transient"), end: text.indexOf("\n", text.indexOf("transient")) });
     expect(isOnsetError(e)).toBe(true);
   });

@@ -149,8 +149,8 @@ export function runLimitError(record: RunLimitRecord): RunLimitError {
 
 /** How to raise each limit, from the API and from the command line. */
 const RAISE: Readonly<Record<LimitName, string>> = {
-  maxSteps: "raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step",
-  maxSimulatedTime: "raise the limit with --limit simulated-time=T (API: limits.maxSimulatedTime), or shorten until=",
+  maxSteps: "raise the limit with --limit steps=N (API: limits.maxSteps), or give the analysis a larger max-step or a shorter run (until=; cycles= on steady)",
+  maxSimulatedTime: "raise the limit with --limit simulated-time=T (API: limits.maxSimulatedTime), or shorten the run (until=; cycles= on steady)",
   maxWallTime: "raise the limit with --time-limit SECONDS (API: limits.maxWallTime)",
   signal: "the caller aborted the run",
   maxSweepPoints: "raise the limit with --limit sweep-points=N (API: limits.maxSweepPoints), or sweep with fewer steps",
