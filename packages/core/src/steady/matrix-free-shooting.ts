@@ -134,7 +134,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     if (autonomous) size = Math.max(size, Math.abs(newton[n]! * scale[n]!) / (relative * T));
     if (size <= 1 && mismatch <= 1) {
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + newton[i]! * scale[i]!), period: autonomous ? T + newton[n]! * scale[n]! : T };
-      const multipliers = options.multipliers ? ritzMultipliers(tangent, scale, Math.min(n, MULTIPLIER_STEPS), options.check) : [];
+      const multipliers = options.multipliers ? ritzMultipliers(tangent, scale, n, options.check) : [];
       return { start, fractions, states: map.states, iterations: iteration, mismatch, multipliers, jacobian: { matrix: new Float64Array(0), phase } };
     }
     if (iteration === 1 && options.giveUpAfter !== undefined) refuseFarFirstStep((i) => newton[i]! * scale[i]!, n, autonomous, T, peak, floor);
@@ -198,16 +198,18 @@ export function orbitRitzMultipliers(system: MnaSystem, orbit: PeriodicOrbit, op
   const { map, n, scale } = shootingSetup(system, orbit.start, orbit.states, options);
   map.run(orbit.start, orbit.fractions, orbit.states, false);
   const tangent = new TangentPeriod(system, { start: orbit.start, fractions: orbit.fractions, states: map.states, middles: map.middlePoints });
-  return ritzMultipliers(tangent, scale, Math.min(n, MULTIPLIER_STEPS), options.check);
+  return ritzMultipliers(tangent, scale, n, options.check);
 }
 
 /**
  * The dominant Floquet multipliers: Ritz values of the scaled monodromy matrix D⁻¹·S_x·D (similar
- * to S_x, so the same eigenvalues) from `steps` Arnoldi steps (Saad, *Numerical Methods for Large
+ * to S_x, so the same eigenvalues) from as many Arnoldi steps as the orbit has `states`, at most
+ * `MULTIPLIER_STEPS` (Saad, *Numerical Methods for Large
  * Eigenvalue Problems*, 2nd ed., §6.2), largest magnitude first. The start vector is fixed
  * (a seeded sequence), so the result does not depend on anything but the orbit.
  */
-function ritzMultipliers(tangent: TangentPeriod, scale: Float64Array, steps: number, check: (() => void) | undefined): Multiplier[] {
+function ritzMultipliers(tangent: TangentPeriod, scale: Float64Array, states: number, check: (() => void) | undefined): Multiplier[] {
+  const steps = Math.min(states, MULTIPLIER_STEPS);
   const n = tangent.n;
   const basis = Array.from({ length: steps + 1 }, () => new Float64Array(n));
   const hessenberg = new Matrix(steps, steps);
