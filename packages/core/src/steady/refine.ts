@@ -8,6 +8,7 @@ import { cornerIntegralBounds } from "./corner-integrals.js";
 import { orbitFigures, type OrbitExtremes, type OrbitMetrics } from "./orbit-metrics.js";
 import { orbitMultipliers, shootOrbit, type Multiplier, type PeriodicOrbit, type ShootingJacobian } from "./shooting.js";
 import type { PeriodStart } from "./periodic-map.js";
+import { projectedMultipliers } from "./projected-multipliers.js";
 
 /** A last step shorter than this fraction of the one before it is merged into it (it only landed on T). */
 const SLIVER = 0.25;
@@ -311,10 +312,12 @@ export function refineOrbit(
   // period of it carries the sensitivities unless that matrix too fails to contract.
   const fine = { ...shootOrbit(system, coarse.start, halved(fractions), halvedPredictor(coarse.states, fractions), { ...options, jacobian: coarse.jacobian, sensitivities: "given" }), multipliers: coarse.multipliers };
   const { metrics: m2, extremes: e2, samples: s2, uniform: u2 } = orbitFigures(fine, read, maxOrder, settings.corners);
-  // (One more period of the halved grid, with sensitivities, for its own multipliers: the shooting
-  // converged on the coarser grid's matrix, so none of its periods carried them; matrix-free, an
-  // Arnoldi run of tangent passes as on the coarser grid.)
-  const finerMultipliers = settings.multipliers === true ? orbitMultipliers(system, fine, { ...options, jacobian: coarse.jacobian }) : [];
+  // The halved grid's lasting multipliers from tangent passes along the run's own grid's lasting
+  // modes over the halved grid's last shooting period (see `projectedMultipliers`); where there is
+  // no such period or the modes are not well separated, one more period of it with sensitivities
+  // (matrix-free, an Arnoldi run of tangent passes).
+  const finerMultipliers =
+    settings.multipliers === true ? (projectedMultipliers(system, coarse, fine, settings.tolerances) ?? orbitMultipliers(system, fine, { ...options, jacobian: coarse.jacobian })) : [];
   // A figure extrapolates only while the two grids agree on it to a part in two; one at the
   // numerical floor (an even harmonic of a symmetric waveform) keeps the finer grid's value.
   const extrapolate = (a: number, b: number) => (Math.abs(b - a) < 0.5 * Math.abs(b) ? b + (b - a) / 3 : b);

@@ -7,6 +7,7 @@ import { absoluteTolerances, resolveTolerances, type Tolerances } from "../solve
 import { matrixFreeFor, orbitRitzMultipliers, shootMatrixFree } from "./matrix-free-shooting.js";
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
 import { nonTrivialMultipliers } from "./stability.js";
+import type { MapRun } from "./tangent-period.js";
 import { trustStep, nextRadius } from "./trust-region.js";
 
 /** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
@@ -28,6 +29,10 @@ export interface PeriodicOrbit {
   readonly mismatch: number;
   /** Floquet multipliers, largest magnitude first (the trivial one, ≈ 1 for an autonomous orbit, included); empty unless asked for. */
   readonly multipliers: readonly Multiplier[];
+  /** The monodromy matrix dx_N/dx₀ (n × n, row-major) whose eigenvalues `multipliers` are, when a dense shooting's sensitivities gave them. */
+  readonly monodromy?: Float64Array;
+  /** A dense shooting's last period of the map (its states are `states`), from which tangent passes along it start (see `TangentPeriod`). */
+  readonly lastPeriod?: MapRun;
 }
 
 /**
@@ -316,8 +321,10 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
       const atOrbit = exact && !near ? map.run(start, fractions, kept, true).sensitivity! : undefined;
       // (The exact matrix at the orbit, when that period computed it, is the one a finer grid starts from.)
       if (atOrbit) newton.set(atOrbit, n);
-      const multipliers = !options.multipliers ? [] : near || atOrbit ? floquetMultipliers(near ?? atOrbit!, n) : estimated!;
-      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, jacobian: newton.factored() };
+      const monodromy = options.multipliers && (near || atOrbit) ? monodromyOf(near ?? atOrbit!, n) : undefined;
+      const multipliers = !options.multipliers ? [] : monodromy ? largestFirst(monodromy, n) : estimated!;
+      const lastPeriod = { start: atOrbit ? start : { t0: guess.t0, x: Float64Array.from(x0), period: T }, fractions, states: map.states, middles: map.middlePoints };
+      return { start, fractions, states: kept, iterations: iteration, mismatch, multipliers, ...(monodromy ? { monodromy } : {}), lastPeriod, jacobian: newton.factored() };
     }
     // A slow contraction asks for the Jacobian at the next point; so does a period that will
     // likely be the last (the step shrinking as the mismatch did), when the multipliers need it.
@@ -521,9 +528,14 @@ function phaseUnknown(system: MnaSystem, trace: readonly Float64Array[], peak: F
 
 /** Eigenvalues of the monodromy matrix dx_N/dx₀, largest magnitude first. */
 function floquetMultipliers(s: MapSensitivity, n: number): Multiplier[] {
+  return largestFirst(monodromyOf(s, n), n);
+}
+
+/** The monodromy matrix dx_N/dx₀ (n × n, row-major) from the map's sensitivities. */
+function monodromyOf(s: MapSensitivity, n: number): Float64Array {
   const monodromy = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let c = 0; c < n; c++) monodromy[i * n + c] = s.x[i * s.columns + c]!;
-  return largestFirst(monodromy, n);
+  return monodromy;
 }
 
 /** The eigenvalues of a monodromy matrix (n × n, row-major), largest magnitude first. */

@@ -160,8 +160,19 @@ export class TangentPeriod {
 
   /** out = S·[v; τ], the end state's change for a start moved by v and a period moved by τ. */
   apply(v: Float64Array, tau: number, out: Float64Array): void {
-    const { n, fractions, period, s, sMiddle, rhs } = this;
-    s.set(v.subarray(0, n));
+    this.applyEach([v], [tau], [out]);
+  }
+
+  /**
+   * outs[c] = S·[vs[c]; taus[c]] for each c, in one sweep over the period: each stage's matrix is
+   * factored once for all the directions (the factorisations are most of a pass's cost).
+   */
+  applyEach(vs: readonly Float64Array[], taus: readonly number[], outs: readonly Float64Array[]): void {
+    const { n, fractions, period, rhs } = this;
+    const count = vs.length;
+    const s = count === 1 ? [this.s] : vs.map(() => new Float64Array(n));
+    const sMiddle = count === 1 ? [this.sMiddle] : vs.map(() => new Float64Array(n));
+    for (let c = 0; c < count; c++) s[c]!.set(vs[c]!.subarray(0, n));
     // (The room's slots: xₖ in `at`, x_γ in 1, xₖ₊₁ in 2 − at; the end of a step starts the next.)
     let at = 0;
     let here = this.pointAt(0, at);
@@ -173,22 +184,28 @@ export class TangentPeriod {
       const next = this.pointAt(2 * k + 2, 2 - at);
       // Stage 1: J_γ·s_γ = (a·C_x(xₖ) − G_x(xₖ)|charged)·sₖ − ∂R₁/∂h·fraction·τ.
       this.factorAt(middle, a);
-      rhs.fill(0);
-      this.product(a, -1, here, s);
-      if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += ((middle.rate[i]! + here.rate[i]!) / h) * fraction * tau;
-      this.lu.solve(rhs, sMiddle);
+      for (let c = 0; c < count; c++) {
+        const tau = taus[c]!;
+        rhs.fill(0);
+        this.product(a, -1, here, s[c]!);
+        if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += ((middle.rate[i]! + here.rate[i]!) / h) * fraction * tau;
+        this.lu.solve(rhs, sMiddle[c]!);
+      }
       // Stage 2: J₊·sₖ₊₁ = a·(c₁·C_x(x_γ)·s_γ − c₂·C_x(xₖ)·sₖ) − ∂R₂/∂h·fraction·τ.
       this.factorAt(next, a);
-      rhs.fill(0);
-      this.product(a * STAGE_NOW, 0, middle, sMiddle);
-      this.product(-a * STAGE_BEFORE, 0, here, s);
-      if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += (next.rate[i]! / h) * fraction * tau;
-      this.lu.solve(rhs, s);
+      for (let c = 0; c < count; c++) {
+        const tau = taus[c]!;
+        rhs.fill(0);
+        this.product(a * STAGE_NOW, 0, middle, sMiddle[c]!);
+        this.product(-a * STAGE_BEFORE, 0, here, s[c]!);
+        if (tau !== 0) for (let i = 0; i < n; i++) rhs[i] += (next.rate[i]! / h) * fraction * tau;
+        this.lu.solve(rhs, s[c]!);
+      }
       here = next;
       at = 2 - at;
     }
-    out.set(s);
-    this.passes++;
+    for (let c = 0; c < count; c++) outs[c]!.set(s[c]!);
+    this.passes += count;
   }
 
   /** Factors G_x + a·C_x at a point. */
