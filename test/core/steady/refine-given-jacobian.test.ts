@@ -1,5 +1,6 @@
 import { afterEach, describe, expect, test, vi } from "vitest";
 import { PeriodicMap, refineOrbit, shootOrbit } from "@onset/core/engine";
+import { TangentPeriod } from "../../../packages/core/src/steady/tangent-period.js";
 import { clippedWien, settledPeriod } from "./support.js";
 
 const halved = (fractions: Float64Array) => Float64Array.from({ length: 2 * fractions.length }, (_, k) => 0.5 * fractions[k >> 1]!);
@@ -7,16 +8,20 @@ const halved = (fractions: Float64Array) => Float64Array.from({ length: 2 * frac
 describe("the halved grid's shooting on the run's grid's Newton matrix", () => {
   afterEach(() => vi.restoreAllMocks());
 
-  test("refineOrbit's halved-grid shooting integrates no period with sensitivities; only its multipliers' one period after it does", () => {
+  test("refineOrbit's halved grid integrates only its shooting's periods, none with sensitivities: its multipliers come from tangent passes over the last one, one per lasting mode", () => {
     const { system, guess, fractions, trajectory, read } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
     const run = vi.spyOn(PeriodicMap.prototype, "run");
+    const passes = vi.spyOn(TangentPeriod.prototype, "applyEach");
     const refined = refineOrbit(system, guess, fractions, trajectory, read, 20, { multipliers: true });
     const fine = run.mock.calls.filter(([, grid]) => grid.length === 2 * fractions.length);
-    expect(fine.length).toBe(refined.iterations[1] + 1);
-    expect(fine.slice(0, -1).every(([, , , sensitivity]) => !sensitivity)).toBe(true);
-    expect(fine[fine.length - 1]![3]).toBe(true);
-    expect(refined.orbit.multipliers.length).toBeGreaterThan(0);
-    expect(refined.finerMultipliers.length).toBe(refined.orbit.multipliers.length);
+    expect(fine.length).toBe(refined.iterations[1]);
+    expect(fine.every(([, , , sensitivity]) => !sensitivity)).toBe(true);
+    // The lasting modes: the multipliers above 1e-10 (the trivial one included), all real here.
+    const lasting = refined.orbit.multipliers.filter((m) => Math.hypot(m.re, m.im) >= 1e-10);
+    expect(lasting.length).toBeGreaterThan(1);
+    expect(passes).toHaveBeenCalledTimes(1);
+    expect(passes.mock.calls[0]![0].length).toBe(lasting.length);
+    expect(refined.finerMultipliers.length).toBe(lasting.length);
   });
 
   test("without multipliers asked for, no period of the halved grid carries sensitivities", () => {

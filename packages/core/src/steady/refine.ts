@@ -33,8 +33,9 @@ export interface RefinedOrbit extends OrbitMetrics {
   readonly iterations: readonly [number, number];
   /**
    * The Floquet multipliers on the halved grid, beside the run's own grid's in `orbit` (which the
-   * figures report): their difference bounds the latter's error (see `multiplierBars`). Empty
-   * unless the multipliers were asked for.
+   * figures report): their difference bounds the latter's error (see `multiplierBars`). The
+   * lasting ones only where they come by projection (see `projectedMultipliers`). Empty unless
+   * the multipliers were asked for.
    */
   readonly finerMultipliers: readonly Multiplier[];
 }
