@@ -10,6 +10,12 @@ const MEMORYLESS = 1e-10;
 /** Inverse iteration's shift lies this share of the distance to the nearest other multiplier off the multiplier (so the matrix is not exactly singular), and it runs this many solves. */
 const SHIFT_OFF = 1e-6;
 const INVERSE_STEPS = 2;
+/**
+ * A multiplier more ill-conditioned than this (nearly repeated, its eigenvectors nearly parallel)
+ * leaves the projection to the full monodromy: the rounding of M₁, some 1e-16 of its norm, would
+ * reach 1e-12 of it in the projection, against bars down to 3e-8 (a Wien clipped hard at its rails).
+ */
+const CONDITION_LIMIT = 1e4;
 
 /**
  * The halved grid's multipliers that outlive a period, from the run's own grid's (`coarse`) and
@@ -22,8 +28,8 @@ const INVERSE_STEPS = 2;
  * Eigenvalue Problems*, 2nd ed., 2011, §4.3 and §7.1). Its eigenvalues are M½'s up to the
  * coupling through the modes left out, which die within a period on either grid (M½ takes them
  * to rounding zeros, as M₁ does). Null where the run's own grid left no monodromy matrix or the
- * halved one no period (a matrix-free shooting), or where the subspaces are not well separated (a
- * repeated multiplier): the caller then takes the halved grid's own multipliers.
+ * halved one no period (a matrix-free shooting), or where a multiplier is repeated or
+ * ill-conditioned (see `CONDITION_LIMIT`): the caller then takes the halved grid's own multipliers.
  */
 export function projectedMultipliers(system: MnaSystem, coarse: PeriodicOrbit, fine: PeriodicOrbit, tolerances?: Partial<Tolerances>): Multiplier[] | null {
   const { monodromy } = coarse;
@@ -44,6 +50,7 @@ export function projectedMultipliers(system: MnaSystem, coarse: PeriodicOrbit, f
     const v = eigenvector(scaled, n, m, gap, false);
     const u = eigenvector(scaled, n, m, gap, true);
     if (!v || !u) return null;
+    if (!(conditionOf(u, v) <= CONDITION_LIMIT)) return null;
     right.push(v.re);
     left.push(u.re);
     if (m.im > 0) {
@@ -78,6 +85,18 @@ export function projectedMultipliers(system: MnaSystem, coarse: PeriodicOrbit, f
   }
   const { re, im } = eigenvalues(reduced, k);
   return Array.from(re, (v, j) => ({ re: v, im: im[j]! }));
+}
+
+/**
+ * The condition number ‖u‖·‖v‖/|uᵀ·v| of the multiplier with right and left eigenvectors v and u
+ * (complex, by parts): how much more than M's own rounding its projection can be off (Wilkinson,
+ * *The Algebraic Eigenvalue Problem*, 1965, §2.8).
+ */
+function conditionOf(u: { re: Float64Array; im: Float64Array }, v: { re: Float64Array; im: Float64Array }): number {
+  const re = dot(u.re, v.re) - dot(u.im, v.im);
+  const im = dot(u.re, v.im) + dot(u.im, v.re);
+  const norm = (w: { re: Float64Array; im: Float64Array }) => Math.sqrt(dot(w.re, w.re) + dot(w.im, w.im));
+  return (norm(u) * norm(v)) / Math.hypot(re, im);
 }
 
 /** The distance from `m` to the nearest other multiplier (its conjugate included). */
