@@ -57,3 +57,24 @@ describe("TangentPeriod.apply(v, τ) is the map's sensitivity S·[v; τ]", () =>
     expect(a.some((x) => x !== 0)).toBe(true);
   });
 });
+
+describe("TangentPeriod.applyEach: several directions in one sweep", () => {
+  test("each direction's image is the one its own pass gives, to rounding (a pass starts from the pivot order the last one left)", () => {
+    const { system, guess, fractions, trajectory } = settledPeriod(clippedWien(3.1), "p", 1 / 1580.7, 0.04);
+    const map = new PeriodicMap(system, resolveTolerances({}));
+    map.run(guess, fractions, trajectory, false);
+    const tangent = new TangentPeriod(system, { start: guess, fractions, states: map.states, middles: map.middlePoints });
+    const n = system.n;
+    const directions = [0, 1, 2].map((k) => Float64Array.from({ length: n }, (_, i) => Math.cos(k + i)));
+    const taus = [0, 1e-5, 0];
+    const together = directions.map(() => new Float64Array(n));
+    tangent.applyEach(directions, taus, together);
+    for (const [k, v] of directions.entries()) {
+      const alone = new Float64Array(n);
+      tangent.apply(v, taus[k]!, alone);
+      const size = Math.max(...alone.map(Math.abs));
+      expect(size).toBeGreaterThan(0);
+      for (let i = 0; i < n; i++) expect(Math.abs(together[k]![i]! - alone[i]!)).toBeLessThanOrEqual(1e-12 * size);
+    }
+  });
+});
