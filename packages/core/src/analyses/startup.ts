@@ -295,7 +295,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     }
     target = Math.min(target, bound);
     for (;;) {
-      stepper.advance(target);
+      // Whole steps past each look: where the run is looked at must not change its waveform (a chaotic loop amplifies a shortened step); the bound is landed on.
+      stepper.advance(target, target >= bound);
       metrics = measure();
       // A settled run's orbit is found now: one far from the run's last cycles says it has not settled, and the run goes on.
       refined = metrics.verdict === "settled" ? refineSettled(metrics, settledFromOrbit, orbitSettings) : undefined;
