@@ -1,5 +1,6 @@
 import { collapses, collapsesDying, collapsesRepeat, type Collapse } from "./collapses.js";
 import type { CycleTable } from "./cycles.js";
+import { pairAveraged } from "./period-doubling.js";
 import { envelopeDynamics, SUSTAINED_BOUNCES, SUSTAINED_LOSS, type EnvelopeDynamics } from "./envelope-dynamics.js";
 import type { StartupSettings } from "./startup-options.js";
 import { SILENT_RATIO, type Judgement, type TrendReason } from "./verdict.js";
@@ -74,7 +75,8 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   }
   if (judgement.verdict === "silent" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
   const n = cycles.count;
-  const measure = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
+  const steady = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
+  const measure = "alternating" in judgement && judgement.alternating ? pairAveraged(steady) : steady;
   const w = Math.min(settings.settleCycles, n);
   let level = 0;
   for (let k = n - w; k < n; k++) level += measure[k] / w;
