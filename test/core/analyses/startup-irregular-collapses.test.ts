@@ -53,6 +53,20 @@ describe("irregular collapses are no bouncing verdict yet", () => {
     expect(short.explanation).toMatch(/^the amplitude loop has not settled: the envelope collapsed and restarted \d+ times \(peaks [^)]+\), neither dying away nor yet repeating a cycle/);
   });
 
+  test("a loop that never lands: until=auto's verdict at its bound is a single fixed run's to that moment, word for word", () => {
+    const chaotic = wien({ Rs: "3.0k", Rk: "1k", Cf: "470n", Rb: "220k" });
+    const auto = runStartup(chaotic, { kind: "startup", probe: node("o"), until: "auto" });
+    // measured: bouncing without a repeating cycle at the 2.458 s bound (4000 predicted cycles), 136 collapses
+    expect(auto.verdict).toBe("bouncing");
+    expect(auto.explanation).toMatch(/neither dying away nor yet repeating a cycle/);
+    expect(auto.warnings.map((w) => w.code)).toContain("not-settled-within");
+    const fixed = runStartup(chaotic, { kind: "startup", probe: node("o"), until: auto.run.until });
+    // The same steps (auto looked 60 predicted cycles in, then every 20 or more; the fixed run went in one go): the same record, verdict and figures.
+    expect(fixed.waveform.values).toEqual(auto.waveform.values);
+    expect(fixed.explanation).toBe(auto.explanation);
+    expect(fixed.amplitude).toBe(auto.amplitude);
+  });
+
   test("a squegging loop repeats its collapses alike: bouncing, called unstable, long before until=auto's bound", () => {
     const squegging = wien({ R: "10k", Rs: "3.9k", Rk: "22k", Cf: "5.5u", Rb: "1M" });
     const r = runStartup(squegging, { kind: "startup", probe: node("o"), until: "auto" });
