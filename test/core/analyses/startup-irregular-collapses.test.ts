@@ -20,7 +20,7 @@ describe("irregular collapses are no bouncing verdict yet", () => {
 
   test("until=auto runs on until the loop lands on its orbit: settled, on the output and on the detector alike, with a long fixed run's figures", () => {
     const auto = runStartup(thrown, { kind: "startup", probe: node("o"), until: "auto" });
-    // measured: settled at 1.073 s, 5.3978 V, 2.007 kHz (the rule before: bouncing at 67 ms after 5 collapses of peaks 13.1, 7.74, 7.62, 6.51, 7.30 V)
+    // measured: settled at 0.134 s, 5.3978 V, 2.007 kHz, settling time 0.112 s (the rule before: bouncing at 67 ms after 5 collapses of peaks 13.1, 7.74, 7.62, 6.51, 7.30 V)
     expect(auto.verdict).toBe("settled");
     const detector = runStartup(thrown, { kind: "startup", probe: node("c"), until: "auto" });
     expect(detector.verdict).toBe("settled");
@@ -31,12 +31,40 @@ describe("irregular collapses are no bouncing verdict yet", () => {
     expect(long.verdict).toBe("settled");
     expect(Math.abs(auto.amplitude! / long.amplitude! - 1)).toBeLessThan(1e-3);
     expect(Math.abs(auto.frequency! / long.frequency! - 1)).toBeLessThan(1e-3);
+    // The chaotic collapses land where the waveform says, not where until=auto looked: the long run landed at the same moment (before: 0.978 s under until=auto, 0.112 s in the fixed run).
+    expect(Math.abs(auto.settlingTime! - long.settlingTime!)).toBeLessThan(1e-3);
+  });
+
+  test("where until=auto looks does not change the waveform: its run is a single fixed run's, step for step", () => {
+    const auto = runStartup(thrown, { kind: "startup", probe: node("o"), until: "auto" });
+    // The fixed run integrates in one go to a moment past auto's end; auto stopped to judge after 60 predicted cycles and every 20 or more after.
+    const fixed = runStartup(thrown, { kind: "startup", probe: node("o"), until: auto.run.until * 1.01 });
+    const a = auto.waveform;
+    const f = fixed.waveform;
+    let same = 0;
+    while (same < a.time.length && a.time[same] === f.time[same] && a.values[same] === f.values[same]) same++;
+    // measured: all 24242 points alike (before: they parted at 33.5 ms, where auto's first look shortened a step)
+    expect(same).toBe(a.time.length);
   });
 
   test("a fixed run that ends among them: bouncing, saying the collapses neither die away nor yet repeat, with their peaks", () => {
     const short = runStartup(thrown, { kind: "startup", probe: node("o"), until: 0.067 });
     expect(short.verdict).toBe("bouncing");
     expect(short.explanation).toMatch(/^the amplitude loop has not settled: the envelope collapsed and restarted \d+ times \(peaks [^)]+\), neither dying away nor yet repeating a cycle/);
+  });
+
+  test("a loop that never lands: until=auto's verdict at its bound is a single fixed run's to that moment, word for word", () => {
+    const chaotic = wien({ Rs: "3.0k", Rk: "1k", Cf: "470n", Rb: "220k" });
+    const auto = runStartup(chaotic, { kind: "startup", probe: node("o"), until: "auto" });
+    // measured: bouncing without a repeating cycle at the 2.458 s bound (4000 predicted cycles), 136 collapses
+    expect(auto.verdict).toBe("bouncing");
+    expect(auto.explanation).toMatch(/neither dying away nor yet repeating a cycle/);
+    expect(auto.warnings.map((w) => w.code)).toContain("not-settled-within");
+    const fixed = runStartup(chaotic, { kind: "startup", probe: node("o"), until: auto.run.until });
+    // The same steps (auto looked 60 predicted cycles in, then every 20 or more; the fixed run went in one go): the same record, verdict and figures.
+    expect(fixed.waveform.values).toEqual(auto.waveform.values);
+    expect(fixed.explanation).toBe(auto.explanation);
+    expect(fixed.amplitude).toBe(auto.amplitude);
   });
 
   test("a squegging loop repeats its collapses alike: bouncing, called unstable, long before until=auto's bound", () => {

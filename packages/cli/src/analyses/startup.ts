@@ -36,6 +36,7 @@ export function startupJson(r: StartupResult): Json {
     harmonics: r.harmonics.map((h) => ({ order: h.order, frequency: h.frequency, amplitude: h.amplitude, dBc: h.dBc })),
     cycles: r.cycles,
     suggestedExtraTime: r.suggestedExtraTime,
+    periodDoubled: r.periodDoubled ? { ...r.periodDoubled } : undefined,
     until: r.run.until,
     maxStep: r.run.maxStep,
     excitation: { ...r.run.excitation },

@@ -295,7 +295,8 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
     }
     target = Math.min(target, bound);
     for (;;) {
-      stepper.advance(target);
+      // Whole steps past each look: where the run is looked at must not change its waveform (a chaotic loop amplifies a shortened step); the bound is landed on.
+      stepper.advance(target, target >= bound);
       metrics = measure();
       // A settled run's orbit is found now: one far from the run's last cycles says it has not settled, and the run goes on.
       refined = metrics.verdict === "settled" ? refineSettled(metrics, settledFromOrbit, orbitSettings) : undefined;
@@ -453,6 +454,8 @@ function refineSettled(
     },
   });
   if (!fromOrbit || metrics.verdict !== "settled" || metrics.frequency === null) return fromRun(null);
+  // Shooting over one cycle would find the orbit the swing left when its period doubled (unstable, a multiplier below −1).
+  if (metrics.periodDoubled) return fromRun("the settled figures are the run's last cycles: the swing repeats every second cycle, so the periodic orbit of one cycle next to it is not the one it settled on");
   const f = metrics.frequency;
   const drive = drivingFrequency(f, s.drives, DRIVE_MATCH);
   // A driven circuit is periodic in the measured period only if every source repeats within it.

@@ -397,8 +397,12 @@ export class TransientStepper {
     }
   }
 
-  /** Integrates until `tEnd` (landing on it exactly). */
-  advance(tEnd: number): void {
+  /**
+   * Integrates until `tEnd`, landing on it exactly; with `land` false, in whole steps until the
+   * first that reaches it, so the steps taken (and a run's waveform) do not depend on where a
+   * caller chose to stop and look.
+   */
+  advance(tEnd: number, land = true): void {
     const { solver, tolerances } = this;
     // Both scales are bounded by what is left to run: a max-step (and so a first step) far beyond
     // it (max-step=1e30) must neither end the run before its first step nor make every step too small.
@@ -420,7 +424,7 @@ export class TransientStepper {
         target = this.t + 0.5 * (this.nextBreak - this.t);
         adjusted = true;
       }
-      if (target >= tEnd) {
+      if (land && target >= tEnd) {
         landing = landing && target === tEnd;
         adjusted = adjusted || target !== tEnd;
         target = tEnd;

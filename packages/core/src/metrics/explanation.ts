@@ -3,6 +3,7 @@ import type { TailTrend } from "./envelope-trend.js";
 import { GROWING, REPEATS } from "./collapses.js";
 import { formatPercent, formatQuantity, formatRate } from "./format.js";
 import type { StartupSettings } from "./startup-options.js";
+import type { AlternatingSwing } from "./period-doubling.js";
 import type { SteadyReason } from "./oscillation-kind.js";
 import { MIN_CYCLES, SILENT_RATIO } from "./verdict.js";
 import type { BouncingReason, SilentReason, SteadyMeasure, TrendReason } from "./verdict.js";
@@ -44,13 +45,16 @@ export function explainSettled(
   steadyOn: SteadyMeasure = "envelope",
   driven?: number,
   common = false,
+  alternating?: AlternatingSwing,
 ): string {
-  const steady = steadyOn === "envelope" ? "envelope steady" : "power per cycle steady (the peaks vary at sharp corners)";
+  const held = alternating
+    ? `the swing repeats every second cycle (period doubled): its peaks alternate between ${formatQuantity(alternating.low, settings.unit)} and ${formatQuantity(alternating.high, settings.unit)}, each within ${formatPercent(settings.settleTolerance)} of the one two cycles before`
+    : `${steadyOn === "envelope" ? "envelope steady" : "power per cycle steady (the peaks vary at sharp corners)"} within ${formatPercent(settings.settleTolerance)}/cycle`;
   return (
     `settled at ${formatQuantity(amplitude, settings.unit)} peak and ${formatQuantity(frequency, "Hz")}` +
     (driven === undefined ? "" : common ? ", driven: the sources' common period" : `, driven by a ${formatQuantity(driven, "Hz")} source`) +
     (startupTime === null ? "" : `, 90 % reached at ${formatQuantity(startupTime, "s")}`) +
-    `; ${steady} within ${formatPercent(settings.settleTolerance)}/cycle over the last ${settings.settleCycles} cycles`
+    `; ${held} over the last ${settings.settleCycles} cycles`
   );
 }
 

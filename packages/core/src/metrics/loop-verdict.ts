@@ -1,5 +1,6 @@
 import { collapses, collapsesDying, collapsesRepeat, type Collapse } from "./collapses.js";
 import type { CycleTable } from "./cycles.js";
+import { pairAveraged } from "./period-doubling.js";
 import { envelopeDynamics, SUSTAINED_BOUNCES, SUSTAINED_LOSS, type EnvelopeDynamics } from "./envelope-dynamics.js";
 import type { StartupSettings } from "./startup-options.js";
 import { SILENT_RATIO, type Judgement, type TrendReason } from "./verdict.js";
@@ -48,8 +49,8 @@ export interface LoopJudgement {
  * The amplitude loop's verdict on top of the cycle-to-cycle one (`judgeEnvelope`): an envelope
  * can be steady from one cycle to the next while its own slow dynamics — a bounce over hundreds
  * of cycles, a creep with a long time constant — still move it. The envelope (or, when the
- * record was steady on it, the per-cycle strength) from its first reaching the final level is
- * fitted (`envelopeDynamics`); then
+ * record was steady on it, the per-cycle strength; for a period-doubled swing, the means of
+ * neighbouring cycles) from its first reaching the final level is fitted (`envelopeDynamics`); then
  * 1. `bouncing` if it collapsed and restarted {@link COLLAPSES_TO_BOUNCE} times and has not settled since,
  *    the collapses not dying away (see `collapsesDying`, with {@link DYING_KEEP}) — dying ones are a
  *    stable loop's large bounce: `unsettled` (`collapses-dying`); `irregular` when they do not repeat
@@ -74,7 +75,8 @@ export function judgeLoop(cycles: CycleTable, judgement: Judgement, settings: St
   }
   if (judgement.verdict === "silent" || judgement.verdict === "bouncing") return { judgement, dynamics: null };
   const n = cycles.count;
-  const measure = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
+  const steady = judgement.steadyOn === "strength" ? cycles.strength : cycles.envelope;
+  const measure = "alternating" in judgement && judgement.alternating ? pairAveraged(steady) : steady;
   const w = Math.min(settings.settleCycles, n);
   let level = 0;
   for (let k = n - w; k < n; k++) level += measure[k] / w;

@@ -19,6 +19,7 @@ import type { StartupMetricsOptions, StartupSettings } from "./startup-options.j
 import { judgeLoop } from "./loop-verdict.js";
 import { judgeEnvelope } from "./verdict.js";
 import { diedBurst, explainDiedBurst, type DiedBurst } from "./died-burst.js";
+import type { AlternatingSwing } from "./period-doubling.js";
 import type { StartupVerdict } from "./verdict.js";
 import { checkWaveform } from "./waveform-check.js";
 import { waveformShape } from "./waveform-shape.js";
@@ -65,6 +66,11 @@ export interface StartupMetrics {
   readonly envelope: StartupEnvelope;
   /** A `decaying` record too short in cycles to measure: the burst that grew and died (see `diedBurst`). */
   readonly burst?: DiedBurst;
+  /**
+   * A `settled` swing that repeats every second cycle (period doubled, see `alternatingSwing`):
+   * the mean peaks of its lower and higher cycles, in the probe's unit.
+   */
+  readonly periodDoubled?: AlternatingSwing;
 }
 
 /**
@@ -256,7 +262,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
       const shape = waveformShape(t, v, cycles.start[from], cycles.start[n], analysis.offset);
       const kind = steadyKind(shape, figures.frequency, settings.prediction, settings.drives);
       verdict = kind.kind;
-      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven, kind.common);
+      if (kind.kind === "settled") explanation = explainSettled(amplitude, figures.frequency, startupTime, settings, steadyOn, kind.driven, kind.common, judgement.alternating);
       else {
         if (kind.kind === "relaxation") dutyCycle = shape.dutyCycle;
         explanation = explainOther(kind, amplitude, figures.frequency, shape.dutyCycle, settings.unit);
@@ -298,5 +304,7 @@ export function judgeStartup(t: Float64Array, v: Float64Array, options: StartupM
     cycles: n,
     envelope,
   };
-  return { metrics: suggestedExtraTime === undefined ? result : { ...result, suggestedExtraTime }, cycles, from, irregular: loop.irregular !== undefined };
+  const alternating = verdict === "settled" && judgement.verdict === "settled" ? judgement.alternating : undefined;
+  const metrics = { ...result, ...(suggestedExtraTime === undefined ? {} : { suggestedExtraTime }), ...(alternating ? { periodDoubled: alternating } : {}) };
+  return { metrics, cycles, from, irregular: loop.irregular !== undefined };
 }

@@ -2,6 +2,7 @@ import type { CycleTable } from "./cycles.js";
 import { tailTrend } from "./envelope-trend.js";
 import type { TailTrend } from "./envelope-trend.js";
 import type { StartupSettings } from "./startup-options.js";
+import { alternatingSwing, type AlternatingSwing } from "./period-doubling.js";
 
 /**
  * What the per-cycle envelope alone shows; `bouncing`: its own slow oscillation never settles,
@@ -73,7 +74,14 @@ export function meanDrift(cycles: CycleTable, changes: number): number {
 export type Judgement =
   | { readonly verdict: "silent"; readonly reason: SilentReason; readonly trend: TailTrend | null }
   | { readonly verdict: "bouncing"; readonly reason: BouncingReason; readonly trend: TailTrend }
-  | { readonly verdict: Exclude<EnvelopeVerdict, "silent" | "bouncing">; readonly reason: TrendReason; readonly trend: TailTrend; readonly steadyOn?: SteadyMeasure };
+  | {
+      readonly verdict: Exclude<EnvelopeVerdict, "silent" | "bouncing">;
+      readonly reason: TrendReason;
+      readonly trend: TailTrend;
+      readonly steadyOn?: SteadyMeasure;
+      /** A `settled` swing that repeats every second cycle, not every cycle (see `alternatingSwing`). */
+      readonly alternating?: AlternatingSwing;
+    };
 
 /**
  * The per-cycle measure a settled record was steady on: its peaks (`envelope`), or its power
@@ -98,7 +106,8 @@ export type SteadyMeasure = "envelope" | "strength";
  *    but hardly its power; a sharp corner between samples moves the power's quadrature by a
  *    little but not a flat top's peak. A wandering amplitude moves both. The per-cycle mean
  *    must be steady too, within `settleTolerance` of the envelope per cycle (else `unsettled`,
- *    drifting: the DC levels still settle);
+ *    drifting: the DC levels still settle); or, `alternating`, if the swing repeats every second
+ *    cycle (see `alternatingSwing`: a period-doubled steady state);
  * 5. `growing` if ln E rises by more than `settleTolerance` per cycle on average over the tail
  *    with at least {@link TREND_CONSISTENCY} of the changes rises;
  * 6. `unsettled` otherwise: too short to tell, relaxing (the tail falls as in 2 and so do that
@@ -141,6 +150,8 @@ export function judgeEnvelope(cycles: CycleTable, settings: StartupSettings): Ju
       if (drift < tol) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn };
       return { verdict: "unsettled", reason: { kind: "drifting", largest: drift }, trend };
     }
+    const alternating = alternatingSwing(cycles, trend.changes, tol);
+    if (alternating) return { verdict: "settled", reason: { kind: "trend" }, trend, steadyOn: "envelope", alternating };
   }
   if (trend.meanLogChange > tol && trend.risingFraction >= TREND_CONSISTENCY) {
     return { verdict: "growing", reason: { kind: "trend" }, trend };
