@@ -860,7 +860,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
       ...implausible,
       ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
       ...(bandless ? [bandWarning(c.analysis.bandwidth!, orbit.frequency, c.analysis.span)] : []),
-      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven", c.analysis.span)] : []),
+      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven" ? periodicDrives(c.circuit) : [], c.analysis.span)] : []),
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
     found: true,
