@@ -214,6 +214,14 @@ describe("driven rectifiers", () => {
     expect(r.offset!).toBeGreaterThan(7);
   });
 
+  test("a retry the step limit would cut short is not started, and the answer counts the periods the transient ran", () => {
+    // 12 periods of the 1 MΩ doubler take about 1600 steps; doubling them would pass a 3000-step limit.
+    const circuit = elaborate(loadProgram("limited.onset", `${doubler("1M")}\nsteady probe=k cycles=12\n`).program, {}).circuit!;
+    const r = runSteady(circuit, circuit.analyses.find((a) => a.kind === "steady")! as Parameters<typeof runSteady>[1], { limits: { maxSteps: 3000 } });
+    expect(r.transient.periods).toBe(12);
+    if (!r.found) expect(r.explanation).toMatch(/^no periodic orbit with the sources' period 1 ms: /);
+  });
+
   test("the bridge's output has no 60 Hz tone: no THD, and the warning says the probe sees only the winding's harmonics, not that no source has a tone", () => {
     const r = steadyOf(BRIDGE, "probe=k");
     const warning = r.warnings.find((w) => w.code === "orbit-without-fundamental")!;

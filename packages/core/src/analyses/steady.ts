@@ -350,7 +350,6 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     // Steps as fine as for the lowest source's period alone, however many of them the common one spans.
     const maxStep = analysis.maxStep ?? 1 / Math.min(...drives) / STEPS_PER_PERIOD;
     const stepper = new TransientStepper(system, { start: { t: 0, x: bias.x }, maxStep, tolerances });
-    const none = (why: string) => noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, 0, maxStep) }, why);
     let periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
     budget.refuseSteps(periods * period, maxStep, "the steady state's transient", analysis.span, "over ");
     budget.watch(stepper, "the steady state's transient", analysis.span);
@@ -358,18 +357,22 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     // A shooting from too far (a rectifier's map bends within a period: a voltage doubler's
     // stayed 100 tolerances off after 25 periods) is retried after the transient has run twice as
     // long, as often as an autonomous one; a circuit oscillating by itself is not retried (more
-    // transient does not make its own oscillation repeat with the sources).
+    // transient does not make its own oscillation repeat with the sources). A retry the run's
+    // limits would cut short is not started: the answer stays the shooting's.
     const retries = context.selfOscillating ? 0 : RETRIES;
+    const withinLimits = () => {
+      const until = BACK_OFF * periods * period;
+      return BACK_OFF * stepper.stats.accepted <= budget.maxSteps && Math.ceil(until / maxStep) <= budget.maxSteps && until <= budget.maxSimulatedTime;
+    };
     let shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
-    for (let retry = 1; retry <= retries && typeof shot === "string"; retry++) {
-      budget.refuseSteps((BACK_OFF - 1) * periods * period, maxStep, "the steady state's transient", analysis.span, "over ");
+    for (let retry = 1; retry <= retries && typeof shot === "string" && withinLimits(); retry++) {
       periods *= BACK_OFF;
       stepper.advance(periods * period);
       shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
     }
     // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them.
     const own = growing && pole && startsFrom(pole) ? `; ${polesVerdict(pole)}, so the circuit oscillates by itself, and unless that oscillation locks to the sources the settled state does not repeat with their period (run startup to see it; with the source made DC, steady finds the oscillator's own orbit)` : "";
-    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
+    if (typeof shot === "string") return noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) }, `no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
 
