@@ -110,6 +110,7 @@ interface Reference {
 const CASES: readonly (readonly [string, string, string, Reference])[] = [
   ["four-section R–C ladder, soft clip", LADDER, "probe=o", { frequency: 3346.372505, amplitude: 0.3387312266, rms: 0.2676696203, thd: 0.1129635042, multipliers: [0.1926596353, 4.503621e-9, 4.163137e-10] }],
   ["twin-T, stacked diodes", TWIN_T, "probe=o", { frequency: 2047.260980, amplitude: 10.45282299, rms: 8.356731564, thd: 0.1068808069, multipliers: [0.001763573184, 0.0001260828533] }],
+  ["lamp-held Wien", WIEN_LAMP, "probe=o", { frequency: 1565.527154, amplitude: 11.19130636, rms: 7.912073704, thd: 0.0002066273577, multipliers: [0.9891630454, 0.9891630454] }],
   ["JFET Colpitts", COLPITTS, "probe=d", { frequency: 378206.4746, amplitude: 2.440496546, rms: 12.12110274, thd: 0.0367886338, multipliers: [0.9982716730, 0.9810554407, 0.9810554407, 0.008507668] }],
   ["voltage doubler, 1 kHz", doubler("10k"), "probe=k", { frequency: 1000, amplitude: 0.03226133262, rms: 7.583901140, thd: 0.5961026318, multipliers: [0.9043973901, 0.5238748868] }],
   ["full-wave bridge, 60 Hz", BRIDGE, "probe=k", { frequency: 60, amplitude: 0.3892193022, rms: 11.68928411, thd: null, multipliers: [1.053215e-8] }],
@@ -133,8 +134,7 @@ describe("steady figures and Floquet multipliers against scipy, within their pri
 });
 
 describe("the lamp-held Wien: closed forms and scipy", () => {
-  // scipy (three states: the two capacitors and the filament's temperature, the amplifier ideal):
-  // 1565.5287 Hz, 11.19130 V, rms 7.912070 V, THD 0.02066 %, |μ| 0.989163 (a complex pair).
+  // (scipy, in the table above: three states, the two capacitors and the filament's temperature, the amplifier ideal; mean temperature 431.3366 K.)
   test("the lamp settles where the gain is 1 + R1/R2 + C2/C1, the amplitude its thermal balance; frequency 1/(2π√(R1C1R2C2)) less the ripple's pull", () => {
     const r = steadyOf(WIEN_LAMP, "probe=o");
     expect(r.found, r.explanation).toBe(true);
