@@ -29,4 +29,12 @@ describe("steadyReport(result, paint)", () => {
     const tried = lines.find((l) => l.trim().startsWith("tried:"))!;
     expect(tried).toMatch(/^ {2}tried: the growing mode, \d+ periods of transient \([^)]*\)$/);
   });
+
+  test("a driven circuit without an orbit: the 'tried:' line names the transient from the bias point, not a hard start's kick", () => {
+    // A ±3 V square (edges of 0 s) into a diode peak detector: its shooting's map fails at an edge (acceptance pass 9).
+    const lines = reportOf("vsource V1 s gnd wave=pulse low=-3 high=3 width=200u period=500u\nresistor Rs s a 1k\ndiode D1 a o saturation=1n emission=2 series=0\ncapacitor C1 o gnd 100n\nresistor RL o gnd 47k\n");
+    expect(lines[0]).toContain("no orbit");
+    const tried = lines.find((l) => l.trim().startsWith("tried:"))!;
+    expect(tried).toMatch(/^ {2}tried: \d+ periods of transient \([^)]*\) from the bias point$/);
+  });
 });

@@ -232,6 +232,28 @@ describe("driven rectifiers", () => {
   });
 });
 
+describe("two tones through a clipper: no THD against an intermodulation product", () => {
+  // 50 Hz and 60 Hz repeat every 100 ms (closed form: their common period, 10 Hz), where neither
+  // source has a tone; the clipper's 9th-order product 5·50 − 4·60 = 10 Hz is there (mathematics),
+  // and THD against it read 14757 %.
+  test("the orbit is the common period's, THD is null, and the warning says no source has a tone there", () => {
+    const r = steadyOf(
+      `vsource   V1 s m wave=sine amp=2 freq=50
+vsource   V2 m gnd wave=sine amp=1 freq=60
+resistor  Rs s o 1k
+diode     D1 o gnd saturation=1n emission=2 series=0
+diode     D2 gnd o saturation=1n emission=2 series=0
+capacitor C1 o gnd 100n`,
+      "probe=o",
+    );
+    expect(r).toMatchObject({ found: true, kind: "driven", thd: null });
+    expect(r.period).toBeCloseTo(0.1, 12);
+    expect(r.warnings.find((w) => w.code === "orbit-without-fundamental")!.message).toMatch(/at which no source has a tone/);
+    // the 5th and 6th harmonics of 10 Hz are the two tones: the largest, at 0 dB relative
+    expect(Math.max(r.harmonics[4]!.dBc, r.harmonics[5]!.dBc)).toBeCloseTo(0, 9);
+  });
+});
+
 describe("no orbit where there is none, with the poles' verdict", () => {
   test("the ladder at gain 20 (its pair crosses at 20.37): no orbit, the pair's decay named", () => {
     const r = steadyOf(ladder(20), "probe=o");

@@ -21,7 +21,7 @@ import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
-import { fundamentalAbsent, relativeToLargest, tonelessWarning } from "../steady/absent-fundamental.js";
+import { fundamentalAbsent, relativeToLargest, sourceToneAt, tonelessWarning } from "../steady/absent-fundamental.js";
 import { settledSources } from "../steady/settled-sources.js";
 import { bandWarning, noHarmonicInBand } from "./thd-none.js";
 import { solveBias } from "./bias.js";
@@ -853,7 +853,10 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
   c.onOrbit?.(orbit);
   const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
-  const toneless = fundamentalAbsent(orbit.harmonics);
+  const drives = common.kind === "driven" ? periodicDrives(c.circuit) : [];
+  // A driven orbit whose sources have no tone at its period has no fundamental, whatever the
+  // spectrum holds there (50 Hz and 60 Hz through a clipper give 10 Hz at 9th order: THD 14757 %).
+  const toneless = fundamentalAbsent(orbit.harmonics) || (drives.length > 0 && !sourceToneAt(drives, orbit.frequency));
   const bandless = !toneless && noHarmonicInBand(c.analysis.bandwidth, orbit.frequency);
   return {
     analysis: "steady",
@@ -863,7 +866,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
       ...implausible,
       ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
       ...(bandless ? [bandWarning(c.analysis.bandwidth!, orbit.frequency, c.analysis.span)] : []),
-      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven" ? periodicDrives(c.circuit) : [], c.analysis.span)] : []),
+      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, drives, c.analysis.span)] : []),
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
     found: true,

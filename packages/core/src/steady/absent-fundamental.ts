@@ -35,6 +35,11 @@ function largestAmplitude(harmonics: readonly Harmonic[]): number {
 /** A source's frequency within this fraction of the orbit's is a tone at it. */
 const SAME_TONE = 1e-6;
 
+/** True when one of the sources' frequencies `drives` is `frequency` itself. */
+export function sourceToneAt(drives: readonly number[], frequency: number): boolean {
+  return drives.some((d) => Math.abs(d / frequency - 1) <= SAME_TONE);
+}
+
 /**
  * The note of a waveform without a fundamental at `frequency` at the probe: a driven one whose
  * sources' tones are all harmonics 2, 3, … of their common period, a driven one the probe sees
@@ -45,7 +50,7 @@ const SAME_TONE = 1e-6;
 export function tonelessWarning(probe: string, frequency: number, drives: readonly number[], span: SourceSpan | undefined): Diagnostic {
   const f = formatQuantity(frequency, "Hz");
   const driven = drives.length > 0;
-  const sourceTone = drives.some((d) => Math.abs(d / frequency - 1) <= SAME_TONE);
+  const sourceTone = sourceToneAt(drives, frequency);
   const probeHint = "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at";
   return {
     severity: "warning",
