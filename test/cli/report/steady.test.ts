@@ -29,4 +29,17 @@ describe("steadyReport(result, paint)", () => {
     const tried = lines.find((l) => l.trim().startsWith("tried:"))!;
     expect(tried).toMatch(/^ {2}tried: the growing mode, \d+ periods of transient \([^)]*\)$/);
   });
+
+  test("a driven circuit without an orbit: the 'tried:' line names the transient from the bias point, not a hard start's kick", () => {
+    // Two tones in no ratio of whole numbers have no common period: a driven answer without an
+    // orbit, here as one whose transient ran 48 periods before its shootings failed (a driven
+    // answer counts them since acceptance pass 9, and the line then read "a large kick in the
+    // decaying pair's mode (a hard start)").
+    const circuit: Circuit = elaborate(loadProgram("report.onset", "vsource V1 s m wave=sine amp=1 freq=1k\nvsource V2 m gnd wave=sine amp=1 freq=1414.2135623\nresistor R1 s o 1k\ncapacitor C1 o gnd 100n\n").program, {}).circuit!;
+    const none = runSteady(circuit, { kind: "steady", probe: { kind: "node", node: "o" } });
+    expect(none).toMatchObject({ found: false, from: "driven" });
+    const lines = steadyReport({ ...none, transient: { ...none.transient, periods: 48, until: 0.024 } }, paint(false));
+    const tried = lines.find((l) => l.trim().startsWith("tried:"))!;
+    expect(tried).toMatch(/^ {2}tried: 48 periods of transient \([^)]*\) from the bias point$/);
+  });
 });

@@ -28,7 +28,7 @@ function startText(r: SteadyResult): string {
   const t = r.transient;
   const run = `${t.periods} periods of transient (${si(t.until, "s")})`;
   const then = (shooting: string) => (r.found ? `, then shooting ${shooting}` : "");
-  if (r.hardStart || (!r.found && !r.predicted.starts && t.periods > 0)) return `a large kick in the decaying pair's mode (a hard start), ${run}${then("from the measured period")}`;
+  if (r.hardStart || (r.from !== "driven" && !r.found && !r.predicted.starts && t.periods > 0)) return `a large kick in the decaying pair's mode (a hard start), ${run}${then("from the measured period")}`;
   switch (r.from) {
     case "driven":
       return `${run} from the bias point${then("with the sources' period")}`;

@@ -333,7 +333,7 @@ export function runStartup(circuit: Circuit, analysis: StartupAnalysis, options:
   if (!refined || refined.metrics !== metrics) refined = refineSettled(metrics, settledFromOrbit, orbitSettings);
   const reported = judgedAt ? probeView(refined.metrics, seenAtProbe(t, v, judgement!, windowOrder, refined.orbit), { probe: probeName(analysis.probe), judgedAt: probeName(judgedAt), unit: probeUnit(system, analysis.probe), noise: NOISE_PEAK * noiseAtProbe }) : otherOscillator ? { ...refined.metrics, explanation: refined.metrics.explanation + otherOscillator } : refined.metrics;
   // The probe's figures without THD where its spectrum has no fundamental, or bandwidth= no harmonic.
-  const toneless = withoutAbsentFundamental({ metrics: reported, numericalError: refined.numericalError }, probeName(analysis.probe), drives.length > 0, analysis.span);
+  const toneless = withoutAbsentFundamental({ metrics: reported, numericalError: refined.numericalError }, probeName(analysis.probe), drives, analysis.span);
   const bandless = withoutBandHarmonics(toneless.refined, analysis.bandwidth, analysis.span);
   const shown = bandless.refined;
   for (const w of [toneless.warning, bandless.warning]) if (w) warnings.push(w);

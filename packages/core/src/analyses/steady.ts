@@ -21,7 +21,7 @@ import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
 import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
-import { fundamentalAbsent, relativeToLargest, tonelessWarning } from "../steady/absent-fundamental.js";
+import { fundamentalAbsent, relativeToLargest, sourceToneAt, tonelessWarning } from "../steady/absent-fundamental.js";
 import { settledSources } from "../steady/settled-sources.js";
 import { bandWarning, noHarmonicInBand } from "./thd-none.js";
 import { solveBias } from "./bias.js";
@@ -350,15 +350,29 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     // Steps as fine as for the lowest source's period alone, however many of them the common one spans.
     const maxStep = analysis.maxStep ?? 1 / Math.min(...drives) / STEPS_PER_PERIOD;
     const stepper = new TransientStepper(system, { start: { t: 0, x: bias.x }, maxStep, tolerances });
-    const none = (why: string) => noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, 0, maxStep) }, why);
-    const periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
+    let periods = analysis.cycles ?? DEFAULT_STEADY_CYCLES.driven;
     budget.refuseSteps(periods * period, maxStep, "the steady state's transient", analysis.span, "over ");
     budget.watch(stepper, "the steady state's transient", analysis.span);
     stepper.advance(periods * period);
-    const shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
+    // A shooting from too far (a rectifier's map bends within a period: a voltage doubler's
+    // stayed 100 tolerances off after 25 periods) is retried after the transient has run twice as
+    // long, as often as an autonomous one; a circuit oscillating by itself is not retried (more
+    // transient does not make its own oscillation repeat with the sources). A retry the run's
+    // limits would cut short is not started: the answer stays the shooting's.
+    const retries = context.selfOscillating ? 0 : RETRIES;
+    const withinLimits = () => {
+      const until = BACK_OFF * periods * period;
+      return BACK_OFF * stepper.stats.accepted <= budget.maxSteps && Math.ceil(until / maxStep) <= budget.maxSteps && until <= budget.maxSimulatedTime;
+    };
+    let shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
+    for (let retry = 1; retry <= retries && typeof shot === "string" && withinLimits(); retry++) {
+      periods *= BACK_OFF;
+      stepper.advance(periods * period);
+      shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
+    }
     // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them.
     const own = growing && pole && startsFrom(pole) ? `; ${polesVerdict(pole)}, so the circuit oscillates by itself, and unless that oscillation locks to the sources the settled state does not repeat with their period (run startup to see it; with the source made DC, steady finds the oscillator's own orbit)` : "";
-    if (typeof shot === "string") return none(`no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
+    if (typeof shot === "string") return noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) }, `no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
 
@@ -839,7 +853,10 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
   if (!(orbit.frequency > 0)) throw simulationError("orbit-period", "the orbit's period is not positive");
   c.onOrbit?.(orbit);
   const implausible = c.operatingCheck ? implausibleWarnings(c.system, orbit.orbit) : [];
-  const toneless = fundamentalAbsent(orbit.harmonics);
+  const drives = common.kind === "driven" ? periodicDrives(c.circuit) : [];
+  // A driven orbit whose sources have no tone at its period has no fundamental, whatever the
+  // spectrum holds there (50 Hz and 60 Hz through a clipper give 10 Hz at 9th order: THD 14757 %).
+  const toneless = fundamentalAbsent(orbit.harmonics) || (drives.length > 0 && !sourceToneAt(drives, orbit.frequency));
   const bandless = !toneless && noHarmonicInBand(c.analysis.bandwidth, orbit.frequency);
   return {
     analysis: "steady",
@@ -849,7 +866,7 @@ function found(c: Context, orbit: ShotOrbit, common: Common, hardStart?: string)
       ...implausible,
       ...(orbit.merged > 1 ? [mergedWarning(c, orbit.merged)] : []),
       ...(bandless ? [bandWarning(c.analysis.bandwidth!, orbit.frequency, c.analysis.span)] : []),
-      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, common.kind === "driven", c.analysis.span)] : []),
+      ...(toneless ? [tonelessWarning(probeName(c.analysis.probe), orbit.frequency, drives, c.analysis.span)] : []),
       ...(orbit.peakToPeak < probeFloor(unit, c.tolerances) ? [belowFloorWarning(c, orbit.peakToPeak, unit)] : []),
     ],
     found: true,

@@ -20,10 +20,10 @@ function withoutThd<T extends Refined>(refined: T, harmonics = refined.metrics.h
  * `fundamentalAbsent`: 600 Hz and 900 Hz sources repeat at 300 Hz, where neither has a tone), with
  * the note that says so, as the steady analysis gives them; other figures unchanged.
  */
-export function withoutAbsentFundamental<T extends Refined>(refined: T, probe: string, driven: boolean, span: SourceSpan | undefined): { refined: T; warning: Diagnostic | null } {
+export function withoutAbsentFundamental<T extends Refined>(refined: T, probe: string, drives: readonly number[], span: SourceSpan | undefined): { refined: T; warning: Diagnostic | null } {
   const m = refined.metrics;
   if (m.thd === null || m.frequency === null || !fundamentalAbsent(m.harmonics)) return { refined, warning: null };
-  return { refined: withoutThd(refined, relativeToLargest(m.harmonics)), warning: tonelessWarning(probe, m.frequency, driven, span) };
+  return { refined: withoutThd(refined, relativeToLargest(m.harmonics)), warning: tonelessWarning(probe, m.frequency, drives, span) };
 }
 
 /** True when `bandwidth=` lies below the 2nd harmonic of `frequency`: THD has no harmonic to count. */

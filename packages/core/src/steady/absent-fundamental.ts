@@ -32,21 +32,36 @@ function largestAmplitude(harmonics: readonly Harmonic[]): number {
   return largest;
 }
 
+/** A source's frequency within this fraction of the orbit's is a tone at it. */
+const SAME_TONE = 1e-6;
+
+/** True when one of the sources' frequencies `drives` is `frequency` itself. */
+export function sourceToneAt(drives: readonly number[], frequency: number): boolean {
+  return drives.some((d) => Math.abs(d / frequency - 1) <= SAME_TONE);
+}
+
 /**
  * The note of a waveform without a fundamental at `frequency` at the probe: a driven one whose
- * sources' tones are all harmonics 2, 3, … of their common period, or an oscillation the probe
- * sees only at its harmonics. No THD is given.
+ * sources' tones are all harmonics 2, 3, … of their common period, a driven one the probe sees
+ * only at the harmonics of the sources' tone (a full-wave rectifier's output repeats at twice
+ * it), or an oscillation the probe sees only at its harmonics. No THD is given. `drives`: the
+ * sources' frequencies (none for an autonomous circuit).
  */
-export function tonelessWarning(probe: string, frequency: number, driven: boolean, span: SourceSpan | undefined): Diagnostic {
+export function tonelessWarning(probe: string, frequency: number, drives: readonly number[], span: SourceSpan | undefined): Diagnostic {
   const f = formatQuantity(frequency, "Hz");
+  const driven = drives.length > 0;
+  const sourceTone = sourceToneAt(drives, frequency);
+  const probeHint = "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at";
   return {
     severity: "warning",
     stage: "simulation",
     code: "orbit-without-fundamental",
-    message: driven
-      ? `the orbit's period is the sources' common one (${f}), at which no source has a tone: there is no fundamental to measure THD against`
-      : `the probe ${probe} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`,
+    message: !driven
+      ? `the probe ${probe} carries no tone at the oscillation's frequency (${f}), only at its harmonics (a temperature or a power follows v², at twice the frequency): there is no fundamental to measure THD against`
+      : sourceTone
+        ? `the probe ${probe} carries no tone at the sources' frequency (${f}), only at its harmonics (a full-wave rectifier's output or a power repeats at twice it): there is no fundamental to measure THD against`
+        : `the orbit's period is the sources' common one (${f}), at which no source has a tone: there is no fundamental to measure THD against`,
     ...(span ? { span } : {}),
-    hint: driven ? "THD is not given; the harmonics' levels are relative to the largest of them" : "THD is not given; the harmonics' levels are relative to the largest of them. Probe a node that swings at the oscillation's frequency for its distortion",
+    hint: !driven ? `${probeHint} the oscillation's frequency for its distortion` : sourceTone ? `${probeHint} the sources' frequency for its distortion` : "THD is not given; the harmonics' levels are relative to the largest of them",
   };
 }

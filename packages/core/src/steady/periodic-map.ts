@@ -200,15 +200,24 @@ export class PeriodicMap {
         this.xNext.set(x);
         this.xMiddle.set(x);
       }
-      this.solve(this.xMiddle, k, N);
+      // A predictor moved by a deviation that is a jump (a source's edge landing on the other side
+      // of a point than in the run it came from: 6 V on a ±3 V square) can start Newton past a
+      // diode's knee; it starts again from this step's start.
+      if (!this.tryToSolve(this.xMiddle, after)) {
+        this.xMiddle.set(x);
+        this.xNext.set(x);
+        this.solve(this.xMiddle, k, N);
+      }
       this.middles[k]!.set(this.xMiddle);
       middle!.at(this.xMiddle);
       this.chargeAndRate(this.xMiddle, middle!, this.qMiddle, this.rateMiddle);
       // Stage 2: BDF2 through t, t + γh and t + h.
       for (let i = 0; i < n; i++) history[i] = a * (STAGE_NOW * this.qMiddle[i]! - STAGE_BEFORE * this.qHere[i]!);
       solver.loadSources(start.t0 + elapsed * T, 1, false);
-      if (!after) this.xNext.set(this.xMiddle);
-      this.solve(this.xNext, k, N);
+      if (!this.tryToSolve(this.xNext, after)) {
+        this.xNext.set(this.xMiddle);
+        this.solve(this.xNext, k, N);
+      }
       next!.at(this.xNext);
       this.chargeAndRate(this.xNext, next!, this.qNext, this.rateNext);
       if (sx) this.propagate(sx, columns, a, h, fractions[k]!, here as Linearisation, middle as Linearisation, next as Linearisation);
@@ -225,6 +234,11 @@ export class PeriodicMap {
       this.rateNext = rate;
     }
     return { x: this.states[N]!, sensitivity: sx ? { columns, x: sx } : undefined };
+  }
+
+  /** One solve from a predictor's guess (true when it converged); without a predictor, none is tried. */
+  private tryToSolve(x: Float64Array, predicted: Float64Array | undefined): boolean {
+    return predicted !== undefined && this.solver.solve(x, this.iterations).converged;
   }
 
   private solve(x: Float64Array, k: number, N: number): void {
