@@ -415,7 +415,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
+    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), 0);
     const growth = share === SMALL_KICK_SHARE ? growthPeriods(kick / SMALL_KICK_SHARE, growing.real * guessPeriod, GROWTH_BATCHES * Math.max(batch, DEFAULT_STEADY_CYCLES.startup)) : 0;
     // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
     const periodOf = (measured: number, shots: number) => (from === "startup" || shots > 1 ? measured : guessPeriod);
