@@ -424,6 +424,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     if (end.kind === "orbit") return orbitFound(end.orbit, transient);
     if (end.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(end, context, swinging, pole!));
     let diedOut = end.kind !== "failed";
+    let grew = end.kind === "died-out" && end.afterGrowth;
     if (end.kind === "stopped") why = `no periodic orbit: started in its growing mode, the transient stopped (${end.why}), and from a small start`;
     else if (end.kind === "died-out") why = diedOutWhy(end.periods, pole!, wantedWait > slowWait ? wantedWait : 0, end.afterGrowth);
     else why = `no periodic orbit found after ${end.failure.periods} periods of transient: ${end.failure.why}${longerWait(wantedWait, slowWait)}`;
@@ -440,6 +441,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
       if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
       if (where.kind === "died-out") {
         diedOut = true;
+        grew = where.afterGrowth;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
       } else if (where.levelled) {
         const more = BACK_OFF * approach.periods < waitEnd;
@@ -452,7 +454,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     periods += approach.periods;
     // Only a start that died out is tried again, small.
     if (!diedOut) break;
-    if (share !== SMALL_KICK_SHARE || !grewFirst(end, why)) continue;
+    if (share !== SMALL_KICK_SHARE || !grew) continue;
     // The small start grew, overshot and died (an amplitude loop that over-corrects): re-seeded as the circuit's noise would.
     const again = reseeded(context, stepper, { bias: bias.x, seed: kicked(system, bias.x, mode, SMALL_KICK_SHARE), swinging, guessPeriod, linearGrowth: Math.expm1(growing.real * guessPeriod), step: approachStep, tolerances: approachTolerances, batch, maxStep, bound: reseedBound(batch) });
     transient = transientOf(again.stepper, periods + again.periods, approachStep);
@@ -520,11 +522,6 @@ function besideDrives(c: Context, options: SteadyOptions, drives: readonly numbe
 function unstableWhy(shot: ShotOrbit): string {
   const largest = orbitStability(nonTrivialMultipliers(shot.orbit.multipliers, false), shot.orbit.start.period).largest!;
   return `unstable: a disturbance grows by ${Math.hypot(largest.re, largest.im).toPrecision(3)} per period, so the circuit leaves it`;
-}
-
-/** The small start's end says its swing grew first, then died (see `diedOutWhy`). */
-function grewFirst(end: BatchesEnd, why: string): boolean {
-  return end.kind === "died-out" ? end.afterGrowth : why.includes("grew, then died out");
 }
 
 /** Periods the re-seeded starts may run in all: the start-up's own bound (see `AUTO_MAX_CYCLES`), or 34 batches of a larger `cycles=`. */
