@@ -45,7 +45,7 @@ export const DEFAULT_KICK: StartupKick = "thermal";
 /** Steps per predicted period when the file sets no max-step. */
 const STEPS_PER_PERIOD = 100;
 /** `until=auto`: the run stops at the latest after this many predicted periods… */
-const AUTO_MAX_CYCLES = 4000;
+export const AUTO_MAX_CYCLES = 4000;
 /** …and looks at the verdict first after this many. */
 const AUTO_FIRST_CYCLES = 60;
 /** `until=auto` stops at once on these verdicts. */

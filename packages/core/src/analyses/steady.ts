@@ -20,7 +20,8 @@ import { multiplierBars, nonTrivialMultipliers, orbitStability, trivialMultiplie
 import { repeatsWithin } from "../steady/sub-period.js";
 import { checkOrbitSeed, checkSeedGrid } from "../steady/seed-check.js";
 import { probeFloor } from "../steady/probe-floor.js";
-import { commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
+import { COMMON_PERIOD, commonPeriod, MOST_COMMON_MULTIPLE } from "../steady/common-period.js";
+import { heldDrives } from "../steady/held-drives.js";
 import { fundamentalAbsent, relativeToLargest, sourceToneAt, tonelessWarning } from "../steady/absent-fundamental.js";
 import { settledSources } from "../steady/settled-sources.js";
 import { bandWarning, noHarmonicInBand } from "./thd-none.js";
@@ -35,7 +36,7 @@ import { noiseLevel } from "./noise-level.js";
 import { dominantPair, onImaginaryAxis, pencilPoles, startsFrom, type Pole } from "./poles.js";
 import { probeReader, probeUnit, probeWeights, type ProbeReader } from "./probes.js";
 import { cornersWithin } from "./settled-orbit.js";
-import { amplitudeLimit, thdOrder } from "./startup.js";
+import { amplitudeLimit, AUTO_MAX_CYCLES, thdOrder } from "./startup.js";
 import { TransientStepper, type StepperStats } from "./stepper.js";
 import type { RunOptions } from "./transient.js";
 
@@ -370,9 +371,12 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
       stepper.advance(periods * period);
       shot = shoot(context, () => recordedStart(context, stepper, period, maxStep, false), false);
     }
-    // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them.
-    const own = growing && pole && startsFrom(pole) ? `; ${polesVerdict(pole)}, so the circuit oscillates by itself, and unless that oscillation locks to the sources the settled state does not repeat with their period (run startup to see it; with the source made DC, steady finds the oscillator's own orbit)` : "";
-    if (typeof shot === "string") return noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) }, `no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}${own}`);
+    // A circuit that oscillates by itself repeats with the sources only when its oscillation locks to them:
+    // an orbit with their period that it leaves (its own oscillation at rest) is not its settled state.
+    if (context.selfOscillating && (typeof shot === "string" || shotUnstable(shot, false))) {
+      return besideDrives(context, options, drives, period, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) }, bias.x, pole!);
+    }
+    if (typeof shot === "string") return noOrbit({ ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) }, `no periodic orbit with the sources' period ${formatQuantity(period, "s")}: ${shot}`);
     return found(context, shot, { ...base, kind: "driven", from, predicted, transient: transientOf(stepper, periods, maxStep) });
   }
 
@@ -425,7 +429,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
-    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), share === kick ? 0 : slowWait);
+    const approach = new OrbitApproach(stepper, (x) => x[swinging]!, guessPeriod, Math.expm1(growing.real * guessPeriod), 0);
     const growth = share === SMALL_KICK_SHARE ? growthPeriods(kick / SMALL_KICK_SHARE, growing.real * guessPeriod, GROWTH_BATCHES * Math.max(batch, DEFAULT_STEADY_CYCLES.startup)) : 0;
     // from=poles shoots from the poles' period first, from the measured one once that failed (a clipped swing's period can be far from the poles').
     const periodOf = (measured: number, shots: number) => (from === "startup" || shots > 1 ? measured : guessPeriod);
@@ -434,6 +438,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     if (end.kind === "orbit") return orbitFound(end.orbit, transient);
     if (end.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(end, context, swinging, pole!));
     let diedOut = end.kind !== "failed";
+    let grew = end.kind === "died-out" && end.afterGrowth;
     if (end.kind === "stopped") why = `no periodic orbit: started in its growing mode, the transient stopped (${end.why}), and from a small start`;
     else if (end.kind === "died-out") why = diedOutWhy(end.periods, pole!, wantedWait > slowWait ? wantedWait : 0, end.afterGrowth);
     else why = `no periodic orbit found after ${end.failure.periods} periods of transient: ${end.failure.why}${longerWait(wantedWait, slowWait)}`;
@@ -450,6 +455,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
       if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
       if (where.kind === "died-out") {
         diedOut = true;
+        grew = where.afterGrowth;
         why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
       } else if (where.levelled) {
         const more = BACK_OFF * approach.periods < waitEnd;
@@ -462,10 +468,142 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     periods += approach.periods;
     // Only a start that died out is tried again, small.
     if (!diedOut) break;
+    if (share !== SMALL_KICK_SHARE || !grew) continue;
+    // The small start grew, overshot and died (an amplitude loop that over-corrects): re-seeded as the circuit's noise would.
+    const again = reseeded(context, stepper, { bias: bias.x, seed: kicked(system, bias.x, mode, SMALL_KICK_SHARE), swinging, guessPeriod, linearGrowth: Math.expm1(growing.real * guessPeriod), step: approachStep, tolerances: approachTolerances, batch, maxStep, bound: reseedBound(batch) });
+    transient = transientOf(again.stepper, periods + again.periods, approachStep);
+    if (again.end.kind === "orbit") return orbitFound(again.end.orbit, transient);
+    if (again.end.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(again.end, context, swinging, pole!));
+    why = `${why}; re-seeded in its growing mode at the small start's swing each time the swing died (as the circuit's noise restarts it), ${again.seeds} times over ${again.periods} more periods (at most ${reseedBound(batch)}), ${again.end.kind === "died-out" ? "it never grew back to a swing that levelled off" : `no orbit was found: ${again.end.kind === "failed" ? again.end.failure.why : again.end.why}`}`;
   }
   // from=poles shoots after every few periods whatever the swing does; a slow loop's may still bounce.
   const instead = from === "poles" && why.startsWith("no periodic orbit found") ? `; from=poles shoots every ${batch} periods whether or not the swing has levelled off — from=startup (the default) waits for it` : "";
   return noOrbit({ ...idle(), transient }, startsFrom(pole!) ? `${why}${instead}` : offPairWhy(growing, pole!, transient.periods));
+}
+
+/** The orbit's largest non-trivial multiplier lies outside the unit circle: the circuit leaves it. */
+function shotUnstable(shot: ShotOrbit, autonomous: boolean): boolean {
+  return orbitStability(nonTrivialMultipliers(shot.orbit.multipliers, autonomous), shot.orbit.start.period).verdict === "unstable";
+}
+
+/**
+ * A circuit that oscillates by itself beside its periodic sources, whose orbit with the sources'
+ * period was not found or is one it leaves (its own oscillation at rest, carrying the forced
+ * response). Its own oscillation is found with the sources held at their mean level; from that
+ * orbit, with the sources on, the transient runs a batch of periods and is shot with the sources'
+ * period (the oscillation locked to them), then with the period common to the sources and the
+ * oscillation, when their frequencies have one (within the oscillation's error bar). Otherwise
+ * the settled state never repeats (quasi-periodic), and the answer says so, never an orbit.
+ */
+function besideDrives(c: Context, options: SteadyOptions, drives: readonly number[], period: number, first: ShotOrbit | string, common: Common, bias: Float64Array, pole: Pole): SteadyResult {
+  const { seed: _seed, ...rest } = options;
+  let start: PeriodStart | null = null;
+  // Measured at the node the growing mode swings most, whatever the probe: the frequency's error bar, which says whether a common period holds, is that node's.
+  const mode = modeOfPole(linearize(c.system, bias), pole);
+  const probe = mode ? { kind: "node" as const, node: c.system.unknowns[largestNode(mode, c.system.unknowns)]!.label } : c.analysis.probe;
+  const own = solveSteady(heldDrives(c.circuit), { ...c.analysis, probe }, { ...rest, predictStartup: false, waveform: false, operatingCheck: false }, (o) => (start = o.orbit.start));
+  const leaves = typeof first === "string" ? `the shooting with the sources' period ${formatQuantity(period, "s")} found none (${first})` : `the only orbit with the sources' period found has that oscillation at rest (${unstableWhy(first)})`;
+  const itself = `${polesVerdict(pole)}, so the circuit oscillates by itself`;
+  if (!own.found || start === null) return noOrbit({ ...common, transient: own.transient }, `no periodic orbit: ${itself}; ${leaves}; with the sources held at their mean level, ${own.explanation}`);
+  const fOsc = own.frequency!;
+  const drive = drives.length === 1 ? `its source drives it at ${formatQuantity(drives[0]!, "Hz")}` : `its sources repeat every ${formatQuantity(period, "s")}`;
+  const near = `the circuit oscillates by itself near ${formatQuantity(fOsc, "Hz")} (its own orbit with the sources held at their mean level) and ${drive}`;
+  const lowest = Math.min(...drives);
+  const maxStep = c.analysis.maxStep ?? 1 / Math.max(lowest, fOsc) / STEPS_PER_PERIOD;
+  const stepper = new TransientStepper(c.system, { start: { t: 0, x: (start as PeriodStart).x }, maxStep, tolerances: c.tolerances });
+  const run = Math.max((c.analysis.cycles ?? DEFAULT_STEADY_CYCLES.startup) / fOsc, DEFAULT_STEADY_CYCLES.driven * period);
+  c.budget.refuseSteps(run, maxStep, "the steady state's transient", c.analysis.span, "over ");
+  c.budget.watch(stepper, "the steady state's transient", c.analysis.span);
+  stepper.advance(run);
+  const transient = transientOf(stepper, Math.round(run / period), maxStep);
+  const locked = shoot(c, () => recordedStart(c, stepper, period, maxStep, false), false);
+  if (typeof locked !== "string" && !shotUnstable(locked, false)) return found(c, locked, { ...common, transient });
+  const spread = own.numericalError ? own.numericalError.frequency / fOsc : 0;
+  const joint = commonPeriod([...drives, fOsc], Math.max(COMMON_PERIOD, spread));
+  const tie = drives.length === 1 ? "its source" : "its sources";
+  const unlocked = `the oscillation does not lock to ${tie} (shot with ${drives.length === 1 ? "its" : "their"} period after ${transient.periods} periods of transient from that orbit: ${typeof locked === "string" ? locked : `the orbit found is ${unstableWhy(locked)}`})`;
+  if (joint === null) {
+    return noOrbit({ ...common, transient }, `no periodic orbit: ${near}; the two share no common period within ${MOST_COMMON_MULTIPLE} periods of the lowest, and ${unlocked}, so the settled state never repeats (quasi-periodic); run startup to see the settled state`);
+  }
+  const shared = joint > period * (1 + COMMON_PERIOD) ? shoot(c, () => recordedStart(c, stepper, joint, maxStep, false), false) : locked;
+  if (typeof shared !== "string" && !shotUnstable(shared, false)) return found(c, shared, { ...common, transient });
+  const why = typeof shared === "string" ? shared : `the orbit found is ${unstableWhy(shared)}`;
+  const ratio = `within the oscillation's error bar (${formatQuantity(own.numericalError?.frequency ?? 0, "Hz")}) the two share a common period of ${formatQuantity(joint, "s")}, but shooting with it found no orbit the circuit stays on (${why})`;
+  return noOrbit({ ...common, transient }, `no periodic orbit: ${near}; ${ratio}, and ${unlocked}: an oscillation that does not lock to its sources repeats with them only when the ratio is exact, closer than the steps can tell; run startup to see the settled state`);
+}
+
+/** How fast a disturbance grows on an unstable orbit: its largest multiplier's magnitude. */
+function unstableWhy(shot: ShotOrbit): string {
+  const largest = orbitStability(nonTrivialMultipliers(shot.orbit.multipliers, false), shot.orbit.start.period).largest!;
+  return `unstable: a disturbance grows by ${Math.hypot(largest.re, largest.im).toPrecision(3)} per period, so the circuit leaves it`;
+}
+
+/** Periods the re-seeded starts may run in all: the start-up's own bound (see `AUTO_MAX_CYCLES`), or 34 batches of a larger `cycles=`. */
+function reseedBound(batch: number): number {
+  return Math.max(AUTO_MAX_CYCLES, RECOVERY_BATCHES * batch);
+}
+
+interface ReseedPlan {
+  /** The bias point, and the small start there (the bias point plus the growing mode at `SMALL_KICK_SHARE`). */
+  readonly bias: Float64Array;
+  readonly seed: Float64Array;
+  readonly swinging: number;
+  readonly guessPeriod: number;
+  readonly linearGrowth: number;
+  readonly step: number;
+  readonly tolerances: Tolerances;
+  readonly batch: number;
+  readonly maxStep: number;
+  readonly bound: number;
+}
+
+/**
+ * An amplitude loop that over-corrected stops its oscillation until its slow state bleeds back;
+ * without noise the swing meanwhile sinks below the solver's resolution and may never grow back
+ * (or only after as long again), where the circuit's noise restarts it as soon as the gain
+ * allows. So each time the swing has died, the growing mode is added again at the small start's
+ * swing to the state where it died, and the transient goes on from there (the loop's slow state
+ * as it stands), in batches shot as before, until a swing levels off or `bound` periods have run.
+ * The seed only moves where the transient goes on from, not the orbit the shooting converges on.
+ */
+function reseeded(c: Context, from: TransientStepper, plan: ReseedPlan): { end: BatchesEnd; periods: number; seeds: number; stepper: TransientStepper } {
+  let stepper = from;
+  let periods = 0;
+  let seeds = 0;
+  let end: BatchesEnd = { kind: "died-out", periods: 0, afterGrowth: true };
+  while (end.kind === "died-out" && periods < plan.bound) {
+    const x = Float64Array.from(stepper.x);
+    for (const j of c.system.stateColumns) x[j] = x[j]! + plan.seed[j]! - plan.bias[j]!;
+    stepper = new TransientStepper(c.system, { start: { t: stepper.t, x }, maxStep: plan.step, tolerances: plan.tolerances });
+    c.budget.watch(stepper, "the steady state's transient", c.analysis.span);
+    const approach = new OrbitApproach(stepper, (y) => y[plan.swinging]!, plan.guessPeriod, plan.linearGrowth);
+    seeds++;
+    end = shootInBatches(c, stepper, approach, { batch: Math.min(plan.batch, plan.bound - periods), growth: 0, waitLevel: true, retry: false, periodOf: (measured) => measured }, plan.maxStep);
+    end = waitForLevel(c, stepper, approach, end, plan.bound - periods, plan.maxStep);
+    periods += approach.periods;
+  }
+  return { end, periods, seeds, stepper };
+}
+
+/**
+ * After batches whose shootings all failed (a slow loop's envelope still bouncing), the
+ * transient goes on for at most `most` periods in all, shot each time the swing has levelled
+ * off and the run has lasted twice as long as at the failed shooting (as `solveSteady`'s last wait).
+ */
+function waitForLevel(c: Context, stepper: TransientStepper, approach: OrbitApproach, end: BatchesEnd, most: number, maxStep: number): BatchesEnd {
+  const check = () => c.budget.check("during the steady state's transient", c.analysis.span);
+  let waited = BACK_OFF * approach.periods;
+  while (end.kind === "failed" && approach.periods < most) {
+    const where = approach.advance(most - approach.periods, FIRST_LEVEL, check, waited);
+    if (where.kind !== "oscillating") return where;
+    if (!where.levelled) break;
+    const more = BACK_OFF * approach.periods < most;
+    const shot = shoot(c, () => recordedStart(c, stepper, where.period, maxStep, true), true, more ? EARLY_LIMITS : {});
+    if (typeof shot !== "string") return { kind: "orbit", orbit: shot };
+    end = { kind: "failed", failure: { why: shot, periods: approach.periods } };
+    waited = BACK_OFF * approach.periods;
+  }
+  return end;
 }
 
 /** Periods a swing growing by e^(σT) a period needs to grow `factor`-fold, at most `most`. */
