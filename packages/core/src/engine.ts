@@ -53,6 +53,7 @@ export { PeriodicMap } from "./steady/periodic-map.js";
 export type { MapSensitivity, PeriodStart } from "./steady/periodic-map.js";
 export { shootOrbit } from "./steady/shooting.js";
 export { trustStep, nextRadius } from "./steady/trust-region.js";
+export { IterationCap, LONGEST_SHOOTING } from "./steady/iteration-cap.js";
 export type { Multiplier, PeriodicOrbit, ShootingJacobian, ShootingOptions } from "./steady/shooting.js";
 export { orbitFigures, orbitMetrics } from "./steady/orbit-metrics.js";
 export type { OrbitExtremes, OrbitMetrics } from "./steady/orbit-metrics.js";

@@ -8,6 +8,7 @@ import { matrixFreeFor, orbitRitzMultipliers, shootMatrixFree } from "./matrix-f
 import { PeriodicMap, type MapSensitivity, type PeriodStart } from "./periodic-map.js";
 import { nonTrivialMultipliers } from "./stability.js";
 import type { MapRun } from "./tangent-period.js";
+import { IterationCap, LONGEST_SHOOTING } from "./iteration-cap.js";
 import { trustStep, nextRadius } from "./trust-region.js";
 
 /** A Floquet multiplier of the orbit (an eigenvalue of the monodromy matrix). */
@@ -53,7 +54,11 @@ export interface ShootingJacobian {
 export interface ShootingOptions {
   /** Autonomous (the period is unknown, a phase condition fixes the start) or driven (T fixed). */
   readonly autonomous: boolean;
-  /** Largest number of periods integrated. @defaultValue 25 */
+  /**
+   * Largest number of periods integrated. @defaultValue 25, and beyond it up to
+   * `LONGEST_SHOOTING` (100) while the mismatch still falls steadily (see `IterationCap`); a
+   * given bound is not extended
+   */
   readonly maxIterations?: number;
   /**
    * Periods after which a shooting gives up whose mismatch never fell below its first one, or
@@ -239,6 +244,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
   let near: MapSensitivity | undefined;
   const headway = new Headway(options.giveUpAfter);
   const maxIterations = options.maxIterations ?? 25;
+  // (A given bound is kept as it is: a seeded sample falls back on a transient.)
+  const cap = new IterationCap(maxIterations, options.maxIterations === undefined ? LONGEST_SHOOTING : maxIterations);
   const moveTo = (fraction: number) => {
     for (let i = 0; i < n; i++) x0[i] = from[i]! + fraction * step[i]!;
     if (options.autonomous) T = from[n]! + fraction * step[n]!;
@@ -250,7 +257,8 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     moveTo(1);
     if (!(T > 0)) throw periodGone();
   };
-  for (let iteration = 1; iteration <= maxIterations; iteration++) {
+  let iteration = 1;
+  for (; cap.allows(iteration); iteration++) {
     options.check?.();
     const given: boolean = fresh && options.sensitivities === "given" && options.jacobian !== undefined && !givenAgain;
     givenAgain ||= given;
@@ -268,6 +276,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     const { mismatch, square } = periodResidual(end.x, x0, scale, residual);
     if (options.autonomous) residual[n] = 0;
     headway.record(iteration, mismatch, cut);
+    cap.record(mismatch);
     // How well the model predicted the step's reduction of ‖r̃‖² (the trust region's test).
     const ratio = trial ? (fromSquare - square) / Math.max(fromSquare - predicted, Number.MIN_VALUE) : 1;
     if (trial) radius = nextRadius(radius, length, ratio);
@@ -341,7 +350,7 @@ export function shootOrbit(system: MnaSystem, guess: PeriodStart, fractions: Flo
     // A step cut short by the trust radius lies where the map bends: its point gets the exact Jacobian (a secant update learns too little there, and a step rejected from one would cost a period to recompute it at the start).
     fresh = !contracted || last || cut;
   }
-  throw simulationError("orbit-not-converged", `shooting did not converge in ${maxIterations} periods`, {
+  throw simulationError("orbit-not-converged", `shooting did not converge in ${iteration - 1} periods`, {
     hint: "the oscillation may not be periodic (it still drifts, or it is quasi-periodic); run the start-up longer",
   });
 }
