@@ -39,7 +39,7 @@ export const RITZ_TOLERANCE = 1e-7;
  * pair would come back as a ghost copy. The start vector is fixed (a seeded sequence), so the
  * result depends on nothing but the orbit.
  */
-export function ritzMultipliers(tangent: TangentPeriod, scale: Float64Array, limit: number, check: (() => void) | undefined): RitzMultiplier[] {
+export function ritzMultipliers(tangent: Pick<TangentPeriod, "n" | "apply">, scale: Float64Array, limit: number, check: (() => void) | undefined): RitzMultiplier[] {
   const n = tangent.n;
   const steps = Math.max(1, Math.min(n, limit));
   const basis: Float64Array[] = [new Float64Array(n)];
