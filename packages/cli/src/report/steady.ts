@@ -70,7 +70,7 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   );
   lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
   const left = r.kind === "autonomous" ? ", the trivial one left out" : "";
-  lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
+  lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones an Arnoldi run converged on" : ""})`);
   // A complex pair is written once, as a ± b·j.
   const shown = r.multipliers.flatMap((m, k) => (m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im)) ? [] : [{ m, bar: r.multiplierError?.[k] }]));
   const listed = shown.slice(0, LISTED_MULTIPLIERS).map(({ m, bar }) => multiplierText(m, bar));

@@ -51,7 +51,7 @@ export function matrixFreeFor(n: number, options: ShootingOptions): boolean {
  * the dogleg is taken within the Krylov subspace, where GMRES's small model is at hand (see
  * `subspaceDogleg`), and after a GMRES restart Newton's step is scaled back to the radius. The Floquet multipliers are the Ritz values of S_x from
  * an Arnoldi run at the converged orbit: its dominant ones only (those of largest magnitude, the
- * trivial ≈ 1 included), not all n.
+ * trivial ≈ 1 included), not all n, as far as the run converged on them (see `ritzMultipliers`).
  */
 export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
   const { relative, map, n, floor, peak, unknowns, phase, scale } = shootingSetup(system, guess, predictor, options);
