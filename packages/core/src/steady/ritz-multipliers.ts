@@ -10,8 +10,8 @@ export interface RitzMultiplier extends Multiplier {
 
 /**
  * Largest number of Arnoldi steps (tangent passes at the orbit) for the multipliers. 200 passes
- * cost about as much as 100 plain periods; 300 sections of an R–C chain (611 unknowns, its
- * multipliers 0.9992, 0.9927, 0.9798, … crowding the trivial 1) need about 120. @defaultValue 200
+ * cost about as much as 100 plain periods; 300 sections of an R–C chain (307 unknowns, its
+ * multipliers 0.9992, 0.9927, 0.9798, … crowding the trivial 1) need 40. @defaultValue 200
  */
 export const MULTIPLIER_PRODUCTS = 200;
 /** The largest Ritz values returned even when not converged: an autonomous orbit's trivial one and the largest other. */
@@ -20,7 +20,7 @@ const ALWAYS_KEPT = 2;
 const CHECK_EVERY = 10;
 /** Arnoldi goes on until this many of the largest Ritz values have converged (the report lists four, the trivial one aside)… */
 const WANTED = 6;
-/** …each to a residual ‖M·v − θ·v‖ at most this (the multiplier is dimensionless; a thousandth of the grid bars measured on the R–C chains). */
+/** …each to a residual ‖M·v − θ·v‖ at most this (the multiplier is dimensionless; the grid bars on the R–C chains are 1e-7 … 1e-4, and the residual enters them). */
 export const RITZ_TOLERANCE = 1e-7;
 
 /**
@@ -74,7 +74,7 @@ export function ritzMultipliers(tangent: Pick<TangentPeriod, "n" | "apply">, sca
     const invariant = !(next > 1e-12 * Math.max(column, next));
     const size = j + 1;
     if (invariant || size === steps || size % CHECK_EVERY === 0) {
-      ritz = ritzPairs(hessenberg, size, invariant ? 0 : next);
+      ritz = ritzPairs(hessenberg, size, next);
       const wanted = Math.min(WANTED, ritz.length);
       if (invariant || ritz.slice(0, wanted).every((m) => m.residual <= RITZ_TOLERANCE)) break;
     }
