@@ -83,6 +83,8 @@ export { DEFAULT_STEADY_CYCLES, runSteady, steadySeed } from "./analyses/steady.
 export type { OrbitSeed, SteadyOptions, SteadyPrediction, SteadyResult } from "./analyses/steady.js";
 export type { OrbitStability } from "./steady/stability.js";
 export type { Multiplier } from "./steady/shooting.js";
+export { RITZ_TOLERANCE } from "./steady/ritz-multipliers.js";
+export type { RitzMultiplier } from "./steady/ritz-multipliers.js";
 export { DEFAULT_RAMP, DEFAULT_TEMPERATURE, NOISE_BAND } from "./analyses/excitation.js";
 export type { Excitation } from "./analyses/excitation.js";
 export { circuitSpec, isSimulating, runAnalysis, runCircuit, specCriteria } from "./analyses/run.js";

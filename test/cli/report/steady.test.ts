@@ -22,6 +22,14 @@ describe("steadyReport(result, paint)", () => {
     expect(lines.find((l) => l.includes("Floquet multipliers"))).toContain("the trivial one left out");
   });
 
+  test("a Ritz multiplier whose residual is above the Arnoldi run's tolerance gets a 'not converged' line; one within it does not", () => {
+    const circuit: Circuit = elaborate(loadProgram("report.onset", "inductor L1 o gnd 3.3m series=0.8\ncapacitor C1 o gnd 68n\nresistor Rl o gnd 12k\nvccs G1 gnd o o gnd 150u\ndiode D1 o k\nresistor Rk k gnd 2.2k\ndiode D2 k2 o\nresistor Rk2 k2 gnd 2.2k\n").program, {}).circuit!;
+    const r = runSteady(circuit, { kind: "steady", probe: { kind: "node", node: "o" } });
+    const withResidual = (residual: number) => steadyReport({ ...r, multipliers: r.multipliers.map((m) => ({ ...m, residual })) }, paint(false));
+    expect(withResidual(1e-3).some((l) => l.trim().startsWith("not converged"))).toBe(true);
+    expect(withResidual(1e-12).some((l) => l.trim().startsWith("not converged"))).toBe(false);
+  });
+
   test("without an orbit the 'tried:' line names the transient run only: whether a shooting ran, and why it failed, is the explanation's", () => {
     // An LC tank undamped by a transconductor with nothing to limit it: its swing never levels off.
     const lines = reportOf("inductor L1 o gnd 47m\ncapacitor C1 o gnd 220n\nresistor Rl o gnd 10k\nvccs G1 gnd o o gnd 150u\n");

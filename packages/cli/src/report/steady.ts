@@ -1,4 +1,4 @@
-import type { Multiplier, SteadyResult } from "@onset/core";
+import { RITZ_TOLERANCE, type Multiplier, type SteadyResult } from "@onset/core";
 import type { Paint } from "../color.js";
 import { formatPlain, formatWithError } from "../format/index.js";
 import { harmonicLines } from "./startup.js";
@@ -70,12 +70,13 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   );
   lines.push(...harmonicLines(r.harmonics, lastOrder, unit, p));
   const left = r.kind === "autonomous" ? ", the trivial one left out" : "";
-  lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones, from an Arnoldi run" : ""})`);
+  lines.push("", `  stability (Floquet multipliers${left}${r.shooting === "matrix-free" ? "; the dominant ones an Arnoldi run converged on" : ""})`);
   // A complex pair is written once, as a ± b·j.
   const shown = r.multipliers.flatMap((m, k) => (m.im < -1e-12 * Math.max(1, Math.hypot(m.re, m.im)) ? [] : [{ m, bar: r.multiplierError?.[k] }]));
   const listed = shown.slice(0, LISTED_MULTIPLIERS).map(({ m, bar }) => multiplierText(m, bar));
   const more = shown.length > LISTED_MULTIPLIERS ? `, … (${r.multipliers.length} in all)` : "";
   const entries: [string, string][] = [["multipliers", listed.length > 0 ? `${listed.join(", ")}${more}` : "none above 1e-10: a disturbance dies out within a period"]];
+  if (unconverged(r)) entries.push(["not converged", "the Arnoldi run reached its limit first: the bars include the Ritz residuals (a backward error), and smaller multipliers are not listed"]);
   if (r.trivialMultiplier) entries.push(["trivial", `${formatPlain(Math.hypot(r.trivialMultiplier.re, r.trivialMultiplier.im), 8)} (a shift along the orbit: 1 but for the grid's error)`]);
   if (s.rate !== null) entries.push([s.verdict === "unstable" ? "disturbance grows" : "disturbance decays", perSecond(Math.abs(s.rate))]);
   if (s.cyclesToSettle !== null) entries.push(["to 1 % in", `${formatPlain(s.cyclesToSettle, 3)} periods (${si(s.cyclesToSettle * r.period!, "s", 3)})`]);
@@ -97,4 +98,10 @@ export function steadyReport(r: SteadyResult, p: Paint): string[] {
   );
   for (const w of r.warnings) lines.push(p.yellow(`  warning: ${w.message}`), p.dim(`    hint: ${w.hint}`));
   return lines;
+}
+
+/** Whether a matrix-free run's listed multipliers (or its trivial one) include a Ritz value its Arnoldi run did not converge on (residual above `RITZ_TOLERANCE`). */
+function unconverged(r: SteadyResult): boolean {
+  const residual = (m: Multiplier) => ("residual" in m && typeof m.residual === "number" ? m.residual : 0);
+  return [...r.multipliers, ...(r.trivialMultiplier ? [r.trivialMultiplier] : [])].some((m) => residual(m) > RITZ_TOLERANCE);
 }

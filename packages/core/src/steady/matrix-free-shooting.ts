@@ -1,9 +1,9 @@
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { isOnsetError, simulationError } from "../circuit/diagnostic.js";
 import type { MnaSystem } from "../solver/system.js";
-import { gmres, orthogonalise, type KrylovModel } from "./gmres.js";
+import { gmres, type KrylovModel } from "./gmres.js";
 import type { PeriodStart } from "./periodic-map.js";
 import { Headway, periodGone, periodResidual, refuseFarFirstStep, shootingSetup, type Multiplier, type PeriodicOrbit, type ShootingJacobian, type ShootingOptions } from "./shooting.js";
+import { MULTIPLIER_PRODUCTS, ritzMultipliers } from "./ritz-multipliers.js";
 import { TangentPeriod } from "./tangent-period.js";
 import { nextRadius, trustStep } from "./trust-region.js";
 
@@ -26,8 +26,6 @@ const KRYLOV_RESTART = 60;
 const FORCING = 1e-3;
 /** …or at this scaled residual, a hundredth of a tolerance, below which nothing more is to be had. */
 const KRYLOV_FLOOR = 1e-2;
-/** Arnoldi steps for the dominant Floquet multipliers (tangent passes at the converged orbit). */
-const MULTIPLIER_STEPS = 20;
 /** As `shootOrbit`: the first trust radius (a fifth of each unknown's peak, or of T, over `relative`)… */
 const FIRST_RADIUS = 0.2;
 /** …a trial step whose map fails cuts it to this share of the step… */
@@ -53,7 +51,7 @@ export function matrixFreeFor(n: number, options: ShootingOptions): boolean {
  * the dogleg is taken within the Krylov subspace, where GMRES's small model is at hand (see
  * `subspaceDogleg`), and after a GMRES restart Newton's step is scaled back to the radius. The Floquet multipliers are the Ritz values of S_x from
  * an Arnoldi run at the converged orbit: its dominant ones only (those of largest magnitude, the
- * trivial ≈ 1 included), not all n.
+ * trivial ≈ 1 included), not all n, as far as the run converged on them (see `ritzMultipliers`).
  */
 export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions: Float64Array, predictor: readonly Float64Array[] | undefined, options: ShootingOptions): PeriodicOrbit & { readonly jacobian: ShootingJacobian } {
   const { relative, map, n, floor, peak, unknowns, phase, scale } = shootingSetup(system, guess, predictor, options);
@@ -134,7 +132,7 @@ export function shootMatrixFree(system: MnaSystem, guess: PeriodStart, fractions
     if (autonomous) size = Math.max(size, Math.abs(newton[n]! * scale[n]!) / (relative * T));
     if (size <= 1 && mismatch <= 1) {
       const start = { t0: guess.t0, x: Float64Array.from(x0, (v, i) => v + newton[i]! * scale[i]!), period: autonomous ? T + newton[n]! * scale[n]! : T };
-      const multipliers = options.multipliers ? ritzMultipliers(tangent, scale, n, options.check) : [];
+      const multipliers = options.multipliers ? ritzMultipliers(tangent, scale, MULTIPLIER_PRODUCTS, options.check) : [];
       return { start, fractions, states: map.states, iterations: iteration, mismatch, multipliers, jacobian: { matrix: new Float64Array(0), phase } };
     }
     if (iteration === 1 && options.giveUpAfter !== undefined) refuseFarFirstStep((i) => newton[i]! * scale[i]!, n, autonomous, T, peak, floor);
@@ -195,53 +193,8 @@ function borderedProduct(tangent: TangentPeriod, scale: Float64Array, phase: num
 
 /** A converged orbit's dominant Floquet multipliers on its own grid, as `shootMatrixFree` gives them (Ritz values at the orbit's start). */
 export function orbitRitzMultipliers(system: MnaSystem, orbit: PeriodicOrbit, options: ShootingOptions): Multiplier[] {
-  const { map, n, scale } = shootingSetup(system, orbit.start, orbit.states, options);
+  const { map, scale } = shootingSetup(system, orbit.start, orbit.states, options);
   map.run(orbit.start, orbit.fractions, orbit.states, false);
   const tangent = new TangentPeriod(system, { start: orbit.start, fractions: orbit.fractions, states: map.states, middles: map.middlePoints });
-  return ritzMultipliers(tangent, scale, n, options.check);
-}
-
-/**
- * The dominant Floquet multipliers: Ritz values of the scaled monodromy matrix D⁻¹·S_x·D (similar
- * to S_x, so the same eigenvalues) from as many Arnoldi steps as the orbit has `states`, at most
- * `MULTIPLIER_STEPS` (Saad, *Numerical Methods for Large
- * Eigenvalue Problems*, 2nd ed., §6.2), largest magnitude first. The start vector is fixed
- * (a seeded sequence), so the result does not depend on anything but the orbit.
- */
-function ritzMultipliers(tangent: TangentPeriod, scale: Float64Array, states: number, check: (() => void) | undefined): Multiplier[] {
-  const steps = Math.min(states, MULTIPLIER_STEPS);
-  const n = tangent.n;
-  const basis = Array.from({ length: steps + 1 }, () => new Float64Array(n));
-  const hessenberg = new Matrix(steps, steps);
-  const h = new Float64Array(steps + 1);
-  const v = new Float64Array(n);
-  const end = new Float64Array(n);
-  let seed = 0x2545f491;
-  for (let i = 0; i < n; i++) {
-    seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
-    basis[0]![i] = seed / 2 ** 32 - 0.5;
-  }
-  const h0 = orthogonalise(basis[0]!, [], 0, h);
-  for (let i = 0; i < n; i++) basis[0]![i] = basis[0]![i]! / h0;
-  let size = steps;
-  for (let j = 0; j < steps; j++) {
-    check?.();
-    const w = basis[j + 1]!;
-    for (let i = 0; i < n; i++) v[i] = basis[j]![i]! * scale[i]!;
-    tangent.apply(v, 0, end);
-    for (let i = 0; i < n; i++) w[i] = end[i]! / scale[i]!;
-    const next = orthogonalise(w, basis, j + 1, h);
-    for (let i = 0; i <= j; i++) hessenberg.set(i, j, h[i]!);
-    if (j + 1 < steps) hessenberg.set(j + 1, j, next);
-    let column = 0;
-    for (let i = 0; i <= j; i++) column = Math.max(column, Math.abs(h[i]!));
-    // (An invariant subspace: its Ritz values are eigenvalues.)
-    if (!(next > 1e-12 * Math.max(column, next))) {
-      size = j + 1;
-      break;
-    }
-    for (let i = 0; i < n; i++) w[i] = w[i]! / next;
-  }
-  const eig = new EigenvalueDecomposition(size < steps ? hessenberg.subMatrix(0, size - 1, 0, size - 1) : hessenberg);
-  return eig.realEigenvalues.map((re, k) => ({ re, im: eig.imaginaryEigenvalues[k]! })).sort((a, b) => Math.hypot(b.re, b.im) - Math.hypot(a.re, a.im));
+  return ritzMultipliers(tangent, scale, MULTIPLIER_PRODUCTS, options.check);
 }

@@ -57,7 +57,9 @@ export function orbitStability(nonTrivial: readonly Multiplier[], period: number
   const largest = nonTrivial.reduce<Multiplier | null>((best, m) => (best === null || Math.hypot(m.re, m.im) > Math.hypot(best.re, best.im) ? m : best), null);
   if (largest === null) return { verdict: "stable", largest: null, rate: null, cyclesToSettle: null };
   const size = Math.hypot(largest.re, largest.im);
-  const verdict = size > 1 + MARGIN ? "unstable" : size < 1 - MARGIN ? "stable" : "marginal";
+  // (A Ritz value short of convergence is known only to within its residual.)
+  const known = MARGIN + residualOf(largest);
+  const verdict = size > 1 + known ? "unstable" : size < 1 - known ? "stable" : "marginal";
   const rate = size > 0 ? Math.log(size) / period : -Infinity;
   const cyclesToSettle = verdict === "stable" ? (size > 0 ? Math.log(SETTLED_SHARE) / Math.log(size) : 0) : null;
   return { verdict, largest, rate: Number.isFinite(rate) ? rate : null, cyclesToSettle };
@@ -69,10 +71,26 @@ export function orbitStability(nonTrivial: readonly Multiplier[], period: number
  * derivative is the product of its steps' derivatives, second order in the step where the orbit
  * is smooth and first order across a corner inside a step (a rail or a diode turning on), so the
  * error shrinks at least as the step: e₁ − e½ ≥ e₁·(1 − 2⁻ᵖ) with p ≥ 1, hence
- * e₁ ≤ |μ₁ − μ½|/(1 − 2⁻ᵖ) ≤ 2·|μ₁ − μ½|. Null without the finer grid's multipliers (empty
+ * e₁ ≤ |μ₁ − μ½|/(1 − 2⁻ᵖ) ≤ 2·|μ₁ − μ½|; Ritz values (a matrix-free run) add their residuals
+ * (see `residualOf`). Null without the finer grid's multipliers (empty
  * when nothing is listed).
  */
 export function multiplierBars(reported: readonly Multiplier[], finer: readonly Multiplier[]): number[] | null {
   if (finer.length === 0) return reported.length === 0 ? [] : null;
-  return reported.map((m) => 2 * Math.min(...finer.map((f) => Math.hypot(f.re - m.re, f.im - m.im))));
+  return reported.map((m) => {
+    let bar = Infinity;
+    for (const f of finer) bar = Math.min(bar, 2 * (Math.hypot(f.re - m.re, f.im - m.im) + residualOf(m) + residualOf(f)) + residualOf(m));
+    return bar;
+  });
+}
+
+/**
+ * A Ritz value's residual ‖M·v − θ·v‖ (see `ritzMultipliers`); zero for an eigenvalue of the whole
+ * monodromy matrix. For a normal matrix it bounds the distance to an eigenvalue (Bauer–Fike); in
+ * general it is a backward error, θ being an exact eigenvalue of M + E with ‖E‖ equal to it. In
+ * the bars it stands for the distance both ways: each grid's true multiplier within its residual
+ * of its Ritz value, so |μ₁ − μ½| ≤ |θ₁ − θ½| + r₁ + r½, and the reported θ₁ within r₁ of μ₁.
+ */
+function residualOf(m: Multiplier): number {
+  return "residual" in m && typeof m.residual === "number" ? m.residual : 0;
 }
