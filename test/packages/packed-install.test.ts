@@ -141,9 +141,10 @@ describe("the packed packages", () => {
     }
     // The figures of the closing note: a few hundred kB for all three before (source maps, a CJS copy of the command).
     // The core's bound has room for its growth (352 kB at stop 25, with the shared study and the trust-region
-    // shooting); source maps would double it.
+    // shooting; 424 kB at stop 31, with the projected and Arnoldi multipliers and the search beside
+    // periodic sources); source maps would double it.
     const sizes = Object.fromEntries(Object.entries(tarballs).map(([name, file]) => [name, statSync(file).size]));
-    expect(sizes["onset-core"]).toBeLessThan(420_000);
+    expect(sizes["onset-core"]).toBeLessThan(460_000);
     expect(sizes["onset-cli"]).toBeLessThan(200_000);
   });
 
