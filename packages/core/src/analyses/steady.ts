@@ -414,7 +414,6 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   // found must not depend on where it is measured.
   const swinging = largestNode(mode, system.unknowns);
   const batch = analysis.cycles ?? DEFAULT_STEADY_CYCLES[from];
-  const check = () => budget.check("during the steady state's transient", analysis.span);
   let why = "";
   let periods = 0;
   let transient = { periods: 0, until: 0, maxStep, solver: emptyStats() };
@@ -426,6 +425,7 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
   // The bias point's slowest decaying time constants, in periods, that a slow loop is given beyond the batches (see `RECOVERY`).
   const wantedWait = recoveryPeriods(poles, guessPeriod);
   const slowWait = Math.min(wantedWait, RECOVERY_BATCHES * batch);
+  const failedWhy = (failure: { readonly why: string; readonly periods: number }) => `no periodic orbit found after ${failure.periods} periods of transient: ${failure.why}${longerWait(wantedWait, slowWait)}`;
   for (const share of [kick, SMALL_KICK_SHARE]) {
     const stepper = new TransientStepper(system, { start: { t: 0, x: kicked(system, bias.x, mode, share) }, maxStep: approachStep, tolerances: approachTolerances });
     budget.watch(stepper, "the steady state's transient", analysis.span);
@@ -441,29 +441,22 @@ function solveSteady(written: Circuit, analysis: SteadyAnalysis, options: Steady
     let grew = end.kind === "died-out" && end.afterGrowth;
     if (end.kind === "stopped") why = `no periodic orbit: started in its growing mode, the transient stopped (${end.why}), and from a small start`;
     else if (end.kind === "died-out") why = diedOutWhy(end.periods, pole!, wantedWait > slowWait ? wantedWait : 0, end.afterGrowth);
-    else why = `no periodic orbit found after ${end.failure.periods} periods of transient: ${end.failure.why}${longerWait(wantedWait, slowWait)}`;
+    else why = failedWhy(end.failure);
     // A slow loop's envelope may still bounce when the batches are spent, and the shooting from
     // there fail: it gets one more wait, as long as the patience with a dip, for its swing to
     // level off — shot again each time it has run twice as long, since a swing clipped at the
     // rails looks level long before a slow loop (a lamp of seconds) has brought it off them.
     // from=poles waits too: its short batches shoot an over-correcting loop's bounce, not its orbit.
-    const waitEnd = approach.periods + slowWait;
-    let waited = 0;
-    while (!diedOut && approach.periods < waitEnd) {
-      const where = approach.advance(waitEnd - approach.periods, FIRST_LEVEL, check, waited);
+    if (end.kind === "failed") {
+      const after = waitForLevel(context, stepper, approach, end, approach.periods + slowWait, maxStep, 0);
       transient = transientOf(stepper, periods + approach.periods, approachStep);
-      if (where.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(where, context, swinging, pole!));
-      if (where.kind === "died-out") {
+      if (after.kind === "orbit") return orbitFound(after.orbit, transient);
+      if (after.kind === "diverged") return noOrbit({ ...idle(), transient }, divergedWhy(after, context, swinging, pole!));
+      if (after.kind === "died-out") {
         diedOut = true;
-        grew = where.afterGrowth;
-        why = diedOutWhy(where.periods, pole!, wantedWait > slowWait ? wantedWait : 0, where.afterGrowth);
-      } else if (where.levelled) {
-        const more = BACK_OFF * approach.periods < waitEnd;
-        const shot = shoot(context, () => recordedStart(context, stepper, where.period, maxStep, true), true, more ? EARLY_LIMITS : {});
-        if (typeof shot !== "string") return orbitFound(shot, transient);
-        why = `no periodic orbit found after ${approach.periods} periods of transient: ${shot}${longerWait(wantedWait, slowWait)}`;
-        waited = BACK_OFF * approach.periods;
-      } else break;
+        grew = after.afterGrowth;
+        why = diedOutWhy(after.periods, pole!, wantedWait > slowWait ? wantedWait : 0, after.afterGrowth);
+      } else if (after.kind === "failed") why = failedWhy(after.failure);
     }
     periods += approach.periods;
     // Only a start that died out is tried again, small.
@@ -587,12 +580,11 @@ function reseeded(c: Context, from: TransientStepper, plan: ReseedPlan): { end: 
 
 /**
  * After batches whose shootings all failed (a slow loop's envelope still bouncing), the
- * transient goes on for at most `most` periods in all, shot each time the swing has levelled
- * off and the run has lasted twice as long as at the failed shooting (as `solveSteady`'s last wait).
+ * transient goes on until `most` periods in all, shot each time the swing has levelled off and
+ * the run has lasted `waited` periods (then twice as long as at each failed shooting).
  */
-function waitForLevel(c: Context, stepper: TransientStepper, approach: OrbitApproach, end: BatchesEnd, most: number, maxStep: number): BatchesEnd {
+function waitForLevel(c: Context, stepper: TransientStepper, approach: OrbitApproach, end: BatchesEnd, most: number, maxStep: number, waited = BACK_OFF * approach.periods): BatchesEnd {
   const check = () => c.budget.check("during the steady state's transient", c.analysis.span);
-  let waited = BACK_OFF * approach.periods;
   while (end.kind === "failed" && approach.periods < most) {
     const where = approach.advance(most - approach.periods, FIRST_LEVEL, check, waited);
     if (where.kind !== "oscillating") return where;
